@@ -1,0 +1,131 @@
+import connectPgSimple from 'connect-pg-simple';
+import { csrfSync } from 'csrf-sync';
+import express, { type Express } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Pool } from 'pg';
+import type { DataSource } from 'typeorm';
+import { createPassport } from './auth/passport';
+import { API_REFERENCE_CSS, renderApiReference } from './http/api-reference';
+import { errorHandler, notFound } from './http/errors';
+import { buildOpenApi } from './http/openapi';
+import { ApiRouter, type AnyRoute } from './http/route';
+import type { AppConfig } from './config';
+import type { Mailer } from './mail/mailer';
+import { adminRoutes } from './routes/admin';
+import { authRoutes } from './routes/auth';
+import { systemRoutes } from './routes/system';
+import type { AppContext } from './services/context';
+import { RateLimiter } from './services/rate-limit';
+import { VERSION } from './version';
+
+export interface AppDeps {
+  ds: DataSource;
+  config: AppConfig;
+  mailer: Mailer;
+  log?: (msg: string, err?: unknown) => void;
+}
+
+export interface RingletApp {
+  app: Express;
+  /** Every API route, as declared (for the OpenAPI document and the authorization tests). */
+  routes: readonly AnyRoute[];
+  context: AppContext;
+}
+
+/** The Content-Security-Policy the built Angular app runs under. */
+export const CONTENT_SECURITY_POLICY = {
+  defaultSrc: ["'self'"],
+  scriptSrc: ["'self'"],
+  // Angular, Material and the grid add component styles at run time; scripts stay strict.
+  styleSrc: ["'self'", "'unsafe-inline'"],
+  imgSrc: ["'self'", 'data:', 'blob:'],
+  fontSrc: ["'self'", 'data:'],
+  connectSrc: ["'self'"],
+  objectSrc: ["'none'"],
+  baseUri: ["'self'"],
+  formAction: ["'self'"],
+  frameAncestors: ["'none'"],
+  upgradeInsecureRequests: null,
+};
+
+/** Builds the Express app without listening (server.ts listens; tests use supertest). */
+export function createApp(deps: AppDeps): RingletApp {
+  const log = deps.log ?? ((msg: string, err?: unknown) => console.error(`[ringlet] ${msg}`, err ?? ''));
+  const ctx: AppContext = { ds: deps.ds, config: deps.config, mailer: deps.mailer, log };
+  const app = express();
+  app.disable('x-powered-by');
+  if (deps.config.trustProxy) app.set('trust proxy', 1);
+
+  app.use(helmet({ contentSecurityPolicy: { useDefaults: false, directives: CONTENT_SECURITY_POLICY } }));
+  app.use(express.json({ limit: '1mb' }));
+
+  // Sessions live in PostgreSQL so several server instances share them.
+  const PgStore = connectPgSimple(session);
+  const pool = (deps.ds.driver as unknown as { master: Pool }).master;
+  app.use(
+    session({
+      name: 'ringlet.sid',
+      secret: deps.config.sessionSecret,
+      store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: deps.config.mode === 'test' ? false : 900 }),
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: {
+        httpOnly: true,
+        sameSite: 'lax',
+        // Secure cookies wherever the public address is https (always, in a real deployment)
+        secure: deps.config.publicUrl.startsWith('https:'),
+        maxAge: 8 * 3600 * 1000,
+      },
+    }),
+  );
+
+  const passport = createPassport(deps.ds);
+  app.use(passport.initialize());
+  app.use(passport.session());
+
+  const csrf = csrfSync({ getTokenFromRequest: (req) => req.get('x-csrf-token') ?? undefined });
+  const api = new ApiRouter({ isCsrfValid: (req) => csrf.isRequestValid(req) });
+  const limiter = new RateLimiter(deps.ds);
+
+  systemRoutes(api, ctx);
+  authRoutes(api, ctx, limiter, (req) => csrf.generateToken(req), passport);
+  adminRoutes(api, ctx);
+
+  let openApi: object | undefined;
+  const document = () => (openApi ??= buildOpenApi(api.routes, VERSION));
+  api.add({
+    method: 'get',
+    path: '/openapi.json',
+    tag: 'system',
+    summary: 'This API described in OpenAPI 3.1',
+    access: 'public',
+    handler: () => document(),
+  });
+
+  app.use('/api/v1', api.router);
+  app.get('/api/docs', (_req, res) => {
+    res.type('html').send(renderApiReference(document() as never));
+  });
+  app.get('/api/docs.css', (_req, res) => {
+    res.type('css').send(API_REFERENCE_CSS);
+  });
+  app.use('/api', (_req, _res, next) => next(notFound('That API route')));
+
+  // The built web app, with the SPA fallback for its client-side routes.
+  const staticDir = deps.config.staticDir ?? join(__dirname, '../../dist/web/browser');
+  if (existsSync(join(staticDir, 'index.html'))) {
+    app.use(express.static(staticDir, { index: false, maxAge: '1h' }));
+    app.get('/*splat', (req, res, next) => {
+      if (!req.accepts('html')) return next();
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(join(staticDir, 'index.html'));
+    });
+  }
+
+  app.use(errorHandler(log));
+  return { app, routes: api.routes, context: ctx };
+}

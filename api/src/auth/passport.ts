@@ -1,0 +1,41 @@
+import type { Request, Response } from 'express';
+import { Passport } from 'passport';
+
+export type Authenticator = InstanceType<typeof Passport>;
+import { Strategy as LocalStrategy } from 'passport-local';
+import type { DataSource } from 'typeorm';
+import type { User } from '../../../db/entities';
+import { verifyPassword } from '../services/passwords';
+import { loadSessionUser } from '../services/users';
+
+/**
+ * One passport instance per app (not the global singleton, so several apps can live in one
+ * process). The session holds only the user id; the user is loaded on every request.
+ */
+export function createPassport(ds: DataSource): Authenticator {
+  const p = new Passport();
+  p.use(
+    new LocalStrategy({ usernameField: 'email', passwordField: 'password', session: false }, (email, password, done) => {
+      verifyPassword(ds.manager, email, password)
+        .then((user) => done(null, (user ?? false) as Express.User | false))
+        .catch(done);
+    }),
+  );
+  p.serializeUser((user, done) => done(null, (user as Express.User).id));
+  p.deserializeUser((id: string, done) => {
+    loadSessionUser(ds.manager, id)
+      .then((u) => done(null, u ?? false))
+      .catch(done);
+  });
+  return p;
+}
+
+/** Runs the local strategy on the (already validated) body: the matching user, or null. */
+export function authenticateLocal(p: Authenticator, req: Request, res: Response): Promise<User | null> {
+  return new Promise((resolve, reject) => {
+    p.authenticate('local', { session: false }, (err: unknown, user: User | false) => {
+      if (err) reject(err);
+      else resolve(user || null);
+    })(req, res, (err?: unknown) => (err ? reject(err) : resolve(null)));
+  });
+}

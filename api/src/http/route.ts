@@ -1,0 +1,123 @@
+import { Router, type NextFunction, type Request, type Response } from 'express';
+import type { ZodType, z } from 'zod';
+import type { Role } from '../../../shared/contracts/auth';
+import type { SessionUser } from '../auth/session-user';
+import { describe, fieldIssues, forbidden, HttpError, unauthorized } from './errors';
+
+/** Who may call a route: anyone, any signed-in user, or a user holding one of the roles. */
+export type Access = 'public' | 'signed-in' | readonly Role[];
+export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
+
+type Infer<T> = T extends ZodType ? z.output<T> : undefined;
+
+export interface RouteContext<B, P, Q> {
+  req: Request;
+  res: Response;
+  body: B;
+  params: P;
+  query: Q;
+  /** The signed-in user (undefined only on public routes). */
+  user: SessionUser;
+}
+
+export interface RouteDefinition<
+  B extends ZodType | undefined = undefined,
+  P extends ZodType | undefined = undefined,
+  Q extends ZodType | undefined = undefined,
+> {
+  method: Method;
+  /** OpenAPI-style path below /api/v1, e.g. `/rounds/{id}`. */
+  path: string;
+  summary: string;
+  description?: string;
+  tag: string;
+  access: Access;
+  body?: B;
+  params?: P;
+  query?: Q;
+  /** Success status; 204 sends no body. */
+  status?: number;
+  response?: ZodType;
+  /** Non-JSON success content type (files). */
+  produces?: string;
+  /** Routes that exist only in some modes are still documented; this explains when. */
+  availability?: string;
+  /** Exempt from CSRF (only for requests that cannot carry a session-bound token). */
+  csrfExempt?: boolean;
+  handler: (ctx: RouteContext<Infer<B>, Infer<P>, Infer<Q>>) => Promise<unknown> | unknown;
+}
+
+// The table of every route: OpenAPI and the authorization walk read it.
+export type AnyRoute = RouteDefinition<ZodType | undefined, ZodType | undefined, ZodType | undefined>;
+
+export interface RouteDeps {
+  isCsrfValid: (req: Request) => boolean;
+}
+
+/** True when the user holds any of the roles ('lab' = member of at least one lab). */
+export function hasAnyRole(user: SessionUser, roles: readonly Role[]): boolean {
+  return roles.some((r) => user.roles.includes(r));
+}
+
+function checkAccess(access: Access, req: Request): void {
+  if (access === 'public') return;
+  const user = req.user as SessionUser | undefined;
+  if (!user) throw unauthorized();
+  if (access === 'signed-in') return;
+  if (!hasAnyRole(user, access)) throw forbidden();
+}
+
+function parsePart(schema: ZodType | undefined, value: unknown, where: string): unknown {
+  if (!schema) return undefined;
+  const r = schema.safeParse(value ?? {});
+  if (!r.success) {
+    const details = fieldIssues(r.error, where === 'body' ? undefined : where);
+    throw new HttpError(400, 'validation_failed', describe(details), details);
+  }
+  return r.data;
+}
+
+/**
+ * A router that documents itself: each route declares its access, schemas and responses once,
+ * and that single declaration drives validation, the role check, CSRF and the OpenAPI document.
+ */
+export class ApiRouter {
+  readonly router = Router();
+  readonly routes: AnyRoute[] = [];
+
+  constructor(private readonly deps: RouteDeps) {}
+
+  add<B extends ZodType | undefined = undefined, P extends ZodType | undefined = undefined, Q extends ZodType | undefined = undefined>(
+    def: RouteDefinition<B, P, Q>,
+  ): void {
+    this.routes.push(def as unknown as AnyRoute);
+    const expressPath = def.path.replace(/\{(\w+)\}/g, ':$1');
+    const stateChanging = def.method !== 'get';
+    const handler = async (req: Request, res: Response, next: NextFunction) => {
+      try {
+        checkAccess(def.access, req);
+        if (stateChanging && !def.csrfExempt && !this.deps.isCsrfValid(req)) {
+          throw new HttpError(403, 'csrf_invalid', 'The form expired. Reload the page and try again.');
+        }
+        const params = parsePart(def.params, req.params, 'params');
+        const query = parsePart(def.query, req.query, 'query');
+        const body = parsePart(def.body, req.body, 'body');
+        const result = await def.handler({
+          req,
+          res,
+          body: body as never,
+          params: params as never,
+          query: query as never,
+          user: req.user as SessionUser,
+        });
+        if (res.headersSent) return;
+        const status = def.status ?? 200;
+        if (status === 204 || result === undefined) res.status(status === 200 ? 204 : status).end();
+        else res.status(status).json(result);
+      } catch (err) {
+        next(err);
+      }
+    };
+    this.router[def.method](expressPath, handler);
+  }
+}

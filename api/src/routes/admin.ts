@@ -1,0 +1,104 @@
+import { z } from 'zod';
+import {
+  LabMemberInvite,
+  LabMemberParams,
+  Membership,
+  MembershipCreate,
+  MembershipUpdate,
+  Organisation,
+  OrganisationCreate,
+  OrganisationUpdate,
+  User,
+  UserInvite,
+  UserUpdate,
+} from '../../../shared/contracts/admin';
+import { IdParams } from '../../../shared/contracts/common';
+import { managesLab } from '../auth/session-user';
+import { notFound } from '../http/errors';
+import type { ApiRouter } from '../http/route';
+import type { AppContext } from '../services/context';
+import * as users from '../services/users';
+
+export function adminRoutes(api: ApiRouter, ctx: AppContext): void {
+  const admin = ['admin'] as const;
+  api.add({ method: 'get', path: '/admin/users', tag: 'admin', summary: 'All users with their roles and memberships', access: admin, response: z.array(User), handler: () => users.listUsers(ctx) });
+  api.add({
+    method: 'post', path: '/admin/users', tag: 'admin', summary: 'Invite a user by e-mail (creates the account, sends a first-password link)',
+    access: admin, body: UserInvite, status: 201, response: User,
+    handler: ({ body, user }) => users.inviteUser(ctx, user, body),
+  });
+  api.add({
+    method: 'patch', path: '/admin/users/{id}', tag: 'admin', summary: 'Change a user\'s name, roles or active flag',
+    access: admin, params: IdParams, body: UserUpdate, response: User,
+    handler: ({ params, body, user }) => users.updateUser(ctx, user, params.id, body),
+  });
+  api.add({
+    method: 'post', path: '/admin/users/{id}/invitation', tag: 'admin', summary: 'Send the user a new password link',
+    access: admin, params: IdParams, status: 202, response: z.object({ sent: z.literal(true) }),
+    handler: async ({ params, user }) => {
+      await users.resendInvitation(ctx, user, params.id);
+      return { sent: true as const };
+    },
+  });
+  api.add({ method: 'get', path: '/admin/organisations', tag: 'admin', summary: 'All organisations (labs and the provider)', access: admin, response: z.array(Organisation), handler: () => users.listOrganisations(ctx) });
+  api.add({
+    method: 'post', path: '/admin/organisations', tag: 'admin', summary: 'Create a lab or provider organisation',
+    access: admin, body: OrganisationCreate, status: 201, response: Organisation,
+    handler: ({ body, user }) => users.createOrganisation(ctx, user, body),
+  });
+  api.add({
+    method: 'patch', path: '/admin/organisations/{id}', tag: 'admin', summary: 'Change an organisation',
+    access: admin, params: IdParams, body: OrganisationUpdate, response: Organisation,
+    handler: ({ params, body, user }) => users.updateOrganisation(ctx, user, params.id, body),
+  });
+  api.add({
+    method: 'get', path: '/admin/organisations/{id}/memberships', tag: 'admin', summary: 'Members of an organisation',
+    access: admin, params: IdParams, response: z.array(Membership),
+    handler: ({ params }) => users.listMemberships(ctx.ds.manager, params.id),
+  });
+  api.add({
+    method: 'post', path: '/admin/memberships', tag: 'admin', summary: 'Add a user to an organisation',
+    access: admin, body: MembershipCreate, status: 201, response: Membership,
+    handler: ({ body, user }) => users.createMembership(ctx, user, body),
+  });
+  api.add({
+    method: 'patch', path: '/admin/memberships/{id}', tag: 'admin', summary: 'Set or clear the lab-manager flag',
+    access: admin, params: IdParams, body: MembershipUpdate, response: Membership,
+    handler: ({ params, body, user }) => users.updateMembership(ctx, user, params.id, body.isManager),
+  });
+  api.add({
+    method: 'delete', path: '/admin/memberships/{id}', tag: 'admin', summary: 'Remove a user from an organisation',
+    access: admin, params: IdParams, status: 204,
+    handler: ({ params, user }) => users.deleteMembership(ctx, user, params.id),
+  });
+
+  // A lab manager looks after the lab's own users. Another lab's id answers 404.
+  const labAccess = ['admin', 'lab'] as const;
+  const assertManager = (user: Parameters<typeof managesLab>[0], labId: string) => {
+    if (!user.roles.includes('admin') && !managesLab(user, labId)) throw notFound('The lab');
+  };
+  api.add({
+    method: 'get', path: '/labs/{id}/members', tag: 'labs', summary: 'Members of my lab (lab managers)',
+    access: labAccess, params: IdParams, response: z.array(Membership),
+    handler: ({ params, user }) => {
+      assertManager(user, params.id);
+      return users.listMemberships(ctx.ds.manager, params.id);
+    },
+  });
+  api.add({
+    method: 'post', path: '/labs/{id}/members', tag: 'labs', summary: 'Invite a colleague into my lab (lab managers)',
+    access: labAccess, params: IdParams, body: LabMemberInvite, status: 201, response: Membership,
+    handler: ({ params, body, user }) => {
+      assertManager(user, params.id);
+      return users.inviteLabMember(ctx, user, params.id, body);
+    },
+  });
+  api.add({
+    method: 'delete', path: '/labs/{id}/members/{membershipId}', tag: 'labs', summary: 'Remove a colleague from my lab (lab managers)',
+    access: labAccess, params: LabMemberParams, status: 204,
+    handler: ({ params, user }) => {
+      assertManager(user, params.id);
+      return users.deleteMembership(ctx, user, params.membershipId, params.id);
+    },
+  });
+}

@@ -1,0 +1,37 @@
+import 'reflect-metadata';
+import { createDataSource, databaseUrl } from '../../db/data-source';
+import { createApp } from './app';
+import { hasOutbox, readConfig } from './config';
+import { createMailer } from './mail/mailer';
+import { startSmtpFake } from './mail/smtp-fake';
+
+/** Reads the config, connects, migrates, starts the local mail fake outside production, listens. */
+async function main(): Promise<void> {
+  const config = readConfig();
+  const ds = createDataSource(config.databaseUrl ?? databaseUrl());
+  await ds.initialize();
+  await ds.runMigrations({ transaction: 'each' });
+  const fake = hasOutbox(config.mode) && !config.smtp ? await startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
+  const mailer = createMailer(config, fake ?? undefined);
+  const { app } = createApp({ ds, config, mailer });
+  const server = app.listen(config.port, config.host, () => {
+    const addr = server.address();
+    const port = typeof addr === 'object' && addr ? addr.port : config.port;
+    console.log(`[ringlet] listening on http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${port} (${config.mode} mode)`);
+    if (fake) console.log(`[ringlet] local mail fake on smtp://127.0.0.1:${fake.port}; mail shows on the Outbox page`);
+  });
+  const stop = async () => {
+    server.close();
+    mailer.close();
+    await fake?.close();
+    await ds.destroy();
+    process.exit(0);
+  };
+  process.on('SIGTERM', stop);
+  process.on('SIGINT', stop);
+}
+
+main().catch((err: unknown) => {
+  console.error(err instanceof Error ? err.message : err);
+  process.exit(1);
+});

@@ -1,0 +1,117 @@
+import bcrypt from 'bcryptjs';
+import { createHash, randomBytes } from 'node:crypto';
+import type { EntityManager } from 'typeorm';
+import type { PasswordTokenInfo } from '../../../shared/contracts/auth';
+import { PasswordToken, User } from '../../../db/entities';
+import type { AppContext } from './context';
+import { audit } from './audit';
+import { HttpError } from '../http/errors';
+
+/** bcrypt work factor: 2^12 rounds (QUALITY.md asks for ≥ 12). */
+export const BCRYPT_COST = 12;
+
+/** How long an e-mailed link stays valid. */
+export const TOKEN_LIFETIME_MS = {
+  'first-password': 7 * 24 * 3600 * 1000,
+  reset: 60 * 60 * 1000,
+} as const;
+
+export function hashPassword(password: string): Promise<string> {
+  return bcrypt.hash(password, BCRYPT_COST);
+}
+
+// Compared against when the e-mail is unknown, so both failures take the same time.
+const DUMMY_HASH = bcrypt.hashSync('not-a-password-anyone-uses', BCRYPT_COST);
+
+/** The user when the e-mail and password match an active account with a password; otherwise null. */
+export async function verifyPassword(em: EntityManager, email: string, password: string): Promise<User | null> {
+  const user = await em.findOne(User, { where: { email: email.toLowerCase() } });
+  const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
+  if (!user || !user.passwordHash || !user.isActive || !ok) return null;
+  return user;
+}
+
+const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
+
+/** A new single-use link token; only its hash is stored. Earlier unused tokens of the user are voided. */
+export async function issuePasswordToken(
+  em: EntityManager,
+  userId: string,
+  purpose: 'first-password' | 'reset',
+): Promise<string> {
+  const token = randomBytes(32).toString('base64url');
+  await em
+    .createQueryBuilder()
+    .update(PasswordToken)
+    .set({ usedAt: () => 'now()' })
+    .where('user_id = :userId AND used_at IS NULL', { userId })
+    .execute();
+  await em.insert(PasswordToken, {
+    userId,
+    purpose,
+    tokenHash: sha256(token),
+    expiresAt: new Date(Date.now() + TOKEN_LIFETIME_MS[purpose]),
+  });
+  return token;
+}
+
+const invalidLink = () =>
+  new HttpError(404, 'link_invalid', 'This link has expired or was already used. Ask for a new one.');
+
+export async function passwordTokenInfo(ctx: AppContext, token: string): Promise<PasswordTokenInfo> {
+  const row = await ctx.ds.getRepository(PasswordToken).findOne({ where: { tokenHash: sha256(token) } });
+  if (!row || row.usedAt || row.expiresAt.getTime() <= Date.now()) throw invalidLink();
+  const user = await ctx.ds.getRepository(User).findOneOrFail({ where: { id: row.userId } });
+  return { email: user.email, purpose: row.purpose, expiresAt: row.expiresAt.toISOString() };
+}
+
+/** Sets the password with a link token: atomically marks the token used, so it works once. */
+export async function setPasswordWithToken(ctx: AppContext, token: string, password: string): Promise<void> {
+  const hash = await hashPassword(password);
+  await ctx.ds.transaction(async (em) => {
+    const rows: { user_id: string; purpose: string }[] = await em.query(
+      `UPDATE password_token SET used_at = now()
+       WHERE token_hash = $1 AND used_at IS NULL AND expires_at > now()
+       RETURNING user_id, purpose`,
+      [sha256(token)],
+    );
+    // TypeORM returns [rows, count] for UPDATE … RETURNING on postgres
+    const list = Array.isArray(rows[0]) ? (rows[0] as unknown as typeof rows) : rows;
+    const hit = list[0];
+    if (!hit) throw invalidLink();
+    await em.update(User, { id: hit.user_id }, { passwordHash: hash });
+    await audit(em, hit.user_id, 'password.set', 'user', hit.user_id, { purpose: hit.purpose });
+  });
+}
+
+/** Sends a reset link when the address belongs to an active account; says nothing either way. */
+export async function requestPasswordReset(ctx: AppContext, email: string): Promise<void> {
+  const user = await ctx.ds.getRepository(User).findOne({ where: { email } });
+  if (!user || !user.isActive) return;
+  const token = await ctx.ds.transaction(async (em) => {
+    const t = await issuePasswordToken(em, user.id, 'reset');
+    await audit(em, user.id, 'password.reset-requested', 'user', user.id);
+    return t;
+  });
+  await sendLinkMail(ctx, user.email, user.name, token, 'reset');
+}
+
+export async function sendLinkMail(
+  ctx: AppContext,
+  email: string,
+  name: string,
+  token: string,
+  purpose: 'first-password' | 'reset',
+): Promise<void> {
+  const link = `${ctx.config.publicUrl}/set-password/${token}`;
+  const [subject, intro, lifetime] =
+    purpose === 'reset'
+      ? ['Reset your Ringlet password', 'Someone (we hope you) asked to reset your Ringlet password.', '1 hour']
+      : ['Your Ringlet account', 'An account on Ringlet, the proficiency-testing service, was opened for you.', '7 days'];
+  const text = `Hello ${name},\n\n${intro}\nChoose your password here (the link works once and for ${lifetime}):\n\n${link}\n\nIf you did not expect this e-mail, ignore it.\n\nRinglet`;
+  try {
+    await ctx.mailer.send({ to: email, subject, text });
+  } catch (err) {
+    ctx.log(`mail to ${email} failed; the link can be sent again`, err);
+  }
+}

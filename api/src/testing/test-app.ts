@@ -1,0 +1,138 @@
+import bcrypt from 'bcryptjs';
+import request from 'supertest';
+import type { DataSource } from 'typeorm';
+import { createTestDatabase, type TestDatabase } from '../../../db/testing';
+import { MailMessage, Membership, Organisation, User } from '../../../db/entities';
+import type { GlobalRole } from '../../../shared/contracts/auth';
+import { createApp, type RingletApp } from '../app';
+import type { AppConfig } from '../config';
+import { createMailer, type Mailer } from '../mail/mailer';
+import { startSmtpFake, type SmtpFake } from '../mail/smtp-fake';
+
+export const TEST_PASSWORD = 'correct horse battery';
+let cachedHash: string | undefined;
+/** One bcrypt hash (cost 12) per test file, reused for every test user. */
+export async function testHash(): Promise<string> {
+  return (cachedHash ??= await bcrypt.hash(TEST_PASSWORD, 12));
+}
+
+export interface TestApp extends RingletApp {
+  db: TestDatabase;
+  ds: DataSource;
+  smtp: SmtpFake;
+  mailer: Mailer;
+  close(): Promise<void>;
+}
+
+export function testConfig(overrides: Partial<AppConfig> = {}): AppConfig {
+  return {
+    port: 0,
+    host: '127.0.0.1',
+    mode: 'test',
+    sessionSecret: 'test-secret-test-secret-test-secret-0',
+    publicUrl: 'http://ringlet.test',
+    smtp: null,
+    mailFrom: 'Ringlet <no-reply@ringlet.example>',
+    trustProxy: false,
+    staticDir: '/nonexistent',
+    ...overrides,
+  };
+}
+
+/** The real app on a fresh database, with the real SMTP fake capturing mail. */
+export async function startTestApp(overrides: Partial<AppConfig> = {}): Promise<TestApp> {
+  const db = await createTestDatabase();
+  const smtp = await startSmtpFake(db.ds);
+  const config = testConfig(overrides);
+  const mailer = createMailer(config, smtp);
+  const app = createApp({ ds: db.ds, config, mailer, log: process.env['RINGLET_TEST_LOG'] ? undefined : () => undefined });
+  return {
+    ...app,
+    db,
+    ds: db.ds,
+    smtp,
+    mailer,
+    async close() {
+      mailer.close();
+      await smtp.close();
+      await db.drop();
+    },
+  };
+}
+
+export interface TestUserSpec {
+  email: string;
+  name?: string;
+  roles?: GlobalRole[];
+  lab?: string; // organisation id
+  manager?: boolean;
+}
+
+export async function createUser(ds: DataSource, spec: TestUserSpec): Promise<User> {
+  const user = await ds.getRepository(User).save({
+    email: spec.email,
+    name: spec.name ?? spec.email.split('@')[0]!,
+    roles: spec.roles ?? [],
+    passwordHash: await testHash(),
+  });
+  if (spec.lab) {
+    await ds.getRepository(Membership).insert({ userId: user.id, organisationId: spec.lab, isManager: spec.manager ?? false });
+  }
+  return user;
+}
+
+export async function createLab(ds: DataSource, name: string): Promise<Organisation> {
+  return ds.getRepository(Organisation).save({ name, kind: 'lab', country: null, contactEmail: null });
+}
+
+/** A supertest agent (keeps cookies) with the CSRF token of its session. */
+export interface Client {
+  agent: ReturnType<typeof request.agent>;
+  csrf: string;
+  refreshCsrf(): Promise<string>;
+}
+
+export async function client(app: TestApp): Promise<Client> {
+  const agent = request.agent(app.app);
+  const c: Client = {
+    agent,
+    csrf: '',
+    async refreshCsrf() {
+      const res = await agent.get('/api/v1/auth/csrf-token').expect(200);
+      c.csrf = res.body.token;
+      return c.csrf;
+    },
+  };
+  await c.refreshCsrf();
+  return c;
+}
+
+/** Signs in through the real route and returns a client holding the new session's CSRF token. */
+export async function signedIn(app: TestApp, email: string, password = TEST_PASSWORD): Promise<Client> {
+  const c = await client(app);
+  await c.agent.post('/api/v1/auth/sign-in').set('x-csrf-token', c.csrf).send({ email, password }).expect(200);
+  await c.refreshCsrf();
+  return c;
+}
+
+/** Mail the fake captured, newest first (waits briefly: SMTP delivery is asynchronous). */
+export async function mailTo(ds: DataSource, address: string, atLeast = 1): Promise<MailMessage[]> {
+  for (let i = 0; i < 50; i++) {
+    const rows = await ds
+      .getRepository(MailMessage)
+      .createQueryBuilder('m')
+      .where(':a = ANY(m.mail_to)', { a: address })
+      .orderBy('m.received_at', 'DESC')
+      .getMany();
+    if (rows.length >= atLeast) return rows;
+    await new Promise((r) => setTimeout(r, 40));
+  }
+  return [];
+}
+
+/** The token of the first /set-password/ link in a message. */
+export function linkToken(text: string): string {
+  const m = /\/set-password\/([A-Za-z0-9_-]+)/.exec(text);
+  if (!m) throw new Error(`no password link in: ${text}`);
+  return m[1]!;
+}

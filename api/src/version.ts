@@ -1,0 +1,4 @@
+import pkg from '../../package.json';
+
+/** The software version stored beside every computed number and shown in reports. */
+export const VERSION: string = pkg.version;

@@ -1,0 +1,49 @@
+import bcrypt from 'bcryptjs';
+import type { DataSource } from 'typeorm';
+import { Membership, Organisation, User } from '../entities';
+import { DEMO_LABS, DEMO_PROVIDER, DEMO_USERS } from './demo-people';
+
+const BCRYPT_COST = 12;
+
+/**
+ * Loads the demo scenario. Idempotent: organisations and users are matched by name and e-mail,
+ * so running it twice changes nothing.
+ */
+export async function seedDemo(ds: DataSource, password: string): Promise<void> {
+  const hash = await bcrypt.hash(password, BCRYPT_COST);
+  await ds.transaction(async (em) => {
+    const orgId = async (name: string, kind: 'lab' | 'provider', country: string) => {
+      const found = await em.findOne(Organisation, { where: { name } });
+      if (found) return found.id;
+      return (await em.save(Organisation, em.create(Organisation, { name, kind, country, contactEmail: null }))).id;
+    };
+    await orgId(DEMO_PROVIDER.name, 'provider', DEMO_PROVIDER.country);
+    const labIds = new Map<string, string>();
+    for (const lab of DEMO_LABS) labIds.set(lab.key, await orgId(lab.name, 'lab', lab.country));
+
+    for (const u of DEMO_USERS) {
+      let user = await em.findOne(User, { where: { email: u.email } });
+      if (!user) {
+        user = await em.save(User, em.create(User, {
+          email: u.email,
+          name: u.name,
+          roles: [...u.roles],
+          passwordHash: hash,
+          isDemo: true,
+        }));
+      } else {
+        await em.update(User, { id: user.id }, { passwordHash: hash, isActive: true, isDemo: true });
+      }
+      if (u.lab) {
+        const organisationId = labIds.get(u.lab)!;
+        const m = await em.findOne(Membership, { where: { userId: user.id, organisationId } });
+        if (!m) await em.insert(Membership, { userId: user.id, organisationId, isManager: u.manager });
+      }
+    }
+  });
+}
+
+/** True when the database holds no users yet (a fresh install). */
+export async function isEmpty(ds: DataSource): Promise<boolean> {
+  return (await ds.getRepository(User).count()) === 0;
+}

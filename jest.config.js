@@ -1,0 +1,51 @@
+// One jest run for every part of Ringlet (see DEVELOPERS.md, "Tests").
+const nodeTransform = {
+  '^.+\\.ts$': ['ts-jest', { tsconfig: '<rootDir>/tsconfig.node.json' }],
+};
+const moduleNameMapper = { '^@ringlet/shared/(.*)$': '<rootDir>/shared/$1' };
+
+/** @type {import('jest').Config} */
+module.exports = {
+  projects: [
+    {
+      displayName: 'shared',
+      testEnvironment: 'node',
+      transform: nodeTransform,
+      moduleNameMapper,
+      testMatch: ['<rootDir>/shared/**/*.spec.ts'],
+    },
+    {
+      displayName: 'api',
+      testEnvironment: 'node',
+      transform: nodeTransform,
+      moduleNameMapper,
+      testMatch: [
+        '<rootDir>/api/**/*.spec.ts',
+        '<rootDir>/db/**/*.spec.ts',
+        '<rootDir>/reports/**/*.spec.ts',
+      ],
+    },
+    {
+      displayName: 'web',
+      preset: 'jest-preset-angular',
+      testEnvironment: 'jsdom',
+      setupFilesAfterEnv: ['<rootDir>/web/src/test-setup.ts'],
+      moduleNameMapper,
+      testMatch: ['<rootDir>/web/src/**/*.spec.ts'],
+      transform: {
+        '^.+\\.(ts|js|mjs|html|svg)$': [
+          'jest-preset-angular',
+          { tsconfig: '<rootDir>/web/tsconfig.spec.json', stringifyContentPathRegex: '\\.(html|svg)$' },
+        ],
+      },
+      transformIgnorePatterns: ['node_modules/(?!.*\\.mjs$)'],
+    },
+    {
+      displayName: 'e2e',
+      testEnvironment: 'node',
+      transform: nodeTransform,
+      moduleNameMapper,
+      testMatch: ['<rootDir>/web/e2e/**/*.e2e.ts'],
+    },
+  ],
+};

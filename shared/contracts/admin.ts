@@ -1,0 +1,94 @@
+import { z } from 'zod';
+import { Email, Id, Timestamp } from './common';
+import { GlobalRole } from './auth';
+
+export const OrganisationKind = z.enum(['lab', 'provider']);
+export type OrganisationKind = z.infer<typeof OrganisationKind>;
+
+export const Organisation = z.object({
+  id: Id,
+  name: z.string(),
+  kind: OrganisationKind,
+  country: z.string().nullable(),
+  contactEmail: z.string().nullable(),
+  createdAt: Timestamp,
+});
+export type Organisation = z.infer<typeof Organisation>;
+
+export const OrganisationCreate = z.object({
+  name: z.string().trim().min(2, { message: 'Enter the organisation name.' }).max(200),
+  kind: OrganisationKind.default('lab'),
+  country: z.string().trim().max(100).nullable().optional(),
+  contactEmail: Email.nullable().optional(),
+});
+export type OrganisationCreate = z.input<typeof OrganisationCreate>;
+export const OrganisationUpdate = OrganisationCreate.partial();
+
+export const Membership = z.object({
+  id: Id,
+  userId: Id,
+  userEmail: z.string(),
+  userName: z.string(),
+  organisationId: Id,
+  organisationName: z.string(),
+  isManager: z.boolean(),
+});
+export type Membership = z.infer<typeof Membership>;
+
+export const User = z.object({
+  id: Id,
+  email: z.string(),
+  name: z.string(),
+  roles: z.array(GlobalRole),
+  isActive: z.boolean(),
+  hasPassword: z.boolean(),
+  lastSignInAt: Timestamp.nullable(),
+  memberships: z.array(Membership),
+  createdAt: Timestamp,
+});
+export type User = z.infer<typeof User>;
+
+/** Inviting a user creates the account and e-mails a first-password link. */
+export const UserInvite = z.object({
+  email: Email,
+  name: z.string().trim().min(1, { message: 'Enter the person\'s name.' }).max(200),
+  roles: z.array(GlobalRole).default([]),
+  organisationId: Id.optional(),
+  isManager: z.boolean().default(false),
+});
+export type UserInvite = z.input<typeof UserInvite>;
+
+export const UserUpdate = z.object({
+  name: z.string().trim().min(1).max(200).optional(),
+  roles: z.array(GlobalRole).optional(),
+  isActive: z.boolean().optional(),
+});
+export type UserUpdate = z.infer<typeof UserUpdate>;
+
+export const MembershipCreate = z.object({
+  userId: Id,
+  organisationId: Id,
+  isManager: z.boolean().default(false),
+});
+export type MembershipCreate = z.input<typeof MembershipCreate>;
+export const MembershipUpdate = z.object({ isManager: z.boolean() });
+
+/** A lab manager invites a colleague into the lab. */
+export const LabMemberInvite = z.object({
+  email: Email,
+  name: z.string().trim().min(1, { message: 'Enter the person\'s name.' }).max(200),
+  isManager: z.boolean().default(false),
+});
+export type LabMemberInvite = z.input<typeof LabMemberInvite>;
+export const LabMemberParams = z.object({ id: Id, membershipId: Id });
+
+export const OutboxMessage = z.object({
+  id: Id,
+  to: z.array(z.string()),
+  from: z.string(),
+  subject: z.string(),
+  text: z.string(),
+  html: z.string().nullable(),
+  receivedAt: Timestamp,
+});
+export type OutboxMessage = z.infer<typeof OutboxMessage>;

@@ -1,0 +1,173 @@
+/**
+ * Descriptive statistics used throughout Ringlet: mean, variance, SD, median, quantiles and the
+ * robust scale estimators MADe and nIQR.
+ *
+ * Pure functions, no I/O: this file runs on the server and in the browser.
+ * Numerical care (see design/STATISTICS.md, "Numerical care"): sums of squares are taken about
+ * the mean (two-pass, with the corrected two-pass term of Chan, Golub & LeVeque 1983, "Algorithms
+ * for computing the sample variance", Am. Stat. 37, 242-247), so large offsets do not cost digits.
+ */
+
+/** Throws a RangeError unless `xs` is non-empty and every value is a finite number. */
+export function assertFiniteSample(xs: readonly number[], what = 'sample'): void {
+  if (xs.length === 0) {
+    throw new RangeError(`${what}: empty input (at least one value is needed)`);
+  }
+  for (let i = 0; i < xs.length; i++) {
+    const x = xs[i];
+    if (typeof x !== 'number' || !Number.isFinite(x)) {
+      throw new RangeError(`${what}: value at index ${i} is not a finite number (${String(x)})`);
+    }
+  }
+}
+
+/**
+ * Arithmetic mean, same unit as the data.
+ * Two-pass: a first estimate, then the mean of the residuals is added as a correction
+ * (recovers the digits lost to rounding when the data sit on a large offset).
+ * Source: textbook definition; correction step as in Chan, Golub & LeVeque (1983).
+ * @throws RangeError on empty input or non-finite values.
+ */
+export function mean(xs: readonly number[]): number {
+  assertFiniteSample(xs, 'mean');
+  return meanUnchecked(xs);
+}
+
+/** Mean without input checks, for hot loops whose callers already validated the data. */
+export function meanUnchecked(xs: readonly number[]): number {
+  const n = xs.length;
+  let s = 0;
+  for (let i = 0; i < n; i++) s += xs[i];
+  const m0 = s / n;
+  let c = 0;
+  for (let i = 0; i < n; i++) c += xs[i] - m0;
+  return m0 + c / n;
+}
+
+/**
+ * Sample variance with the n − 1 denominator, unit² of the data.
+ * Corrected two-pass algorithm: (Σd² − (Σd)²/n)/(n − 1), d = x − x̄
+ * (Chan, Golub & LeVeque 1983, eq. 1.7).
+ * @throws RangeError on fewer than 2 values or non-finite values.
+ */
+export function variance(xs: readonly number[]): number {
+  assertFiniteSample(xs, 'variance');
+  if (xs.length < 2) {
+    throw new RangeError('variance: at least 2 values are needed for the n − 1 estimator');
+  }
+  return varianceAbout(xs, meanUnchecked(xs));
+}
+
+/** Corrected two-pass sum about `m`, divided by n − 1. No input checks (caller validated). */
+export function varianceAbout(xs: readonly number[], m: number): number {
+  const n = xs.length;
+  let sd = 0;
+  let sd2 = 0;
+  for (let i = 0; i < n; i++) {
+    const d = xs[i] - m;
+    sd += d;
+    sd2 += d * d;
+  }
+  const v = (sd2 - (sd * sd) / n) / (n - 1);
+  return v > 0 ? v : 0;
+}
+
+/**
+ * Sample standard deviation (n − 1 denominator), same unit as the data: √variance.
+ * @throws RangeError on fewer than 2 values or non-finite values.
+ */
+export function sd(xs: readonly number[]): number {
+  return Math.sqrt(variance(xs));
+}
+
+/** Ascending numeric copy of `xs` (Float64Array sort is numeric, no comparator needed). */
+export function sortedCopy(xs: readonly number[]): Float64Array {
+  const a = Float64Array.from(xs);
+  a.sort();
+  return a;
+}
+
+/**
+ * Median of already sorted values (ascending). No input checks.
+ * Even n: mean of the two middle values.
+ */
+export function medianOfSorted(a: ArrayLike<number>): number {
+  const n = a.length;
+  const h = n >> 1;
+  return n % 2 === 1 ? a[h] : (a[h - 1] + a[h]) / 2;
+}
+
+/**
+ * Median, same unit as the data. Even n: mean of the two middle values
+ * (equals the type-7 quantile at p = 0.5).
+ * @throws RangeError on empty input or non-finite values.
+ */
+export function median(xs: readonly number[]): number {
+  assertFiniteSample(xs, 'median');
+  return medianOfSorted(sortedCopy(xs));
+}
+
+/**
+ * Quantile of already sorted values by linear interpolation, R type 7 (Hyndman & Fan 1996,
+ * "Sample quantiles in statistical packages", Am. Stat. 50, 361-365, definition 7):
+ * h = (n − 1)·p, Q(p) = x₍⌊h⌋₎ + (h − ⌊h⌋)·(x₍⌊h⌋+1₎ − x₍⌊h⌋₎), zero-based order statistics.
+ */
+export function quantileOfSorted(a: ArrayLike<number>, p: number): number {
+  const n = a.length;
+  const h = (n - 1) * p;
+  const lo = Math.floor(h);
+  if (lo >= n - 1) return a[n - 1];
+  const frac = h - lo;
+  return frac === 0 ? a[lo] : a[lo] + frac * (a[lo + 1] - a[lo]);
+}
+
+/**
+ * p-quantile, same unit as the data, by linear interpolation between order statistics:
+ * R type 7 (Hyndman & Fan 1996, definition 7; the default of R and of most spreadsheets'
+ * QUARTILE.INC). p must lie in [0, 1].
+ * @throws RangeError on empty input, non-finite values or p outside [0, 1].
+ */
+export function quantile(xs: readonly number[], p: number): number {
+  assertFiniteSample(xs, 'quantile');
+  if (!(p >= 0 && p <= 1)) throw new RangeError(`quantile: p must be in [0, 1], got ${p}`);
+  return quantileOfSorted(sortedCopy(xs), p);
+}
+
+/**
+ * Median absolute deviation (unscaled): median|x_i − median(x)|, same unit as the data.
+ * @throws RangeError on empty input or non-finite values.
+ */
+export function mad(xs: readonly number[]): number {
+  assertFiniteSample(xs, 'mad');
+  const a = sortedCopy(xs);
+  const m = medianOfSorted(a);
+  for (let i = 0; i < a.length; i++) a[i] = Math.abs(a[i] - m);
+  a.sort();
+  return medianOfSorted(a);
+}
+
+/** Scale factor turning MAD into a normal-consistent SD (ISO 13528:2015 C.2; ≈ 1/Φ⁻¹(0.75)). */
+export const MADE_FACTOR = 1.483;
+/** Scale factor turning the IQR into a normal-consistent SD (ISO 13528:2015 C.2; ≈ 1/1.349). */
+export const NIQR_FACTOR = 0.7413;
+
+/**
+ * Scaled MAD, MADe = 1.483 · median|x_i − median(x)|, same unit as the data.
+ * Source: ISO 13528:2015 Annex C.2 (from memory; constant as in design/STATISTICS.md).
+ * @throws RangeError on empty input or non-finite values.
+ */
+export function madE(xs: readonly number[]): number {
+  return MADE_FACTOR * mad(xs);
+}
+
+/**
+ * Normalised interquartile range, nIQR = 0.7413 · (Q3 − Q1), same unit as the data.
+ * Quartiles by linear interpolation, R type 7 (see {@link quantile}).
+ * Source: ISO 13528:2015 Annex C.2 (from memory; constant as in design/STATISTICS.md).
+ * @throws RangeError on empty input or non-finite values.
+ */
+export function nIqr(xs: readonly number[]): number {
+  assertFiniteSample(xs, 'nIqr');
+  const a = sortedCopy(xs);
+  return NIQR_FACTOR * (quantileOfSorted(a, 0.75) - quantileOfSorted(a, 0.25));
+}

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** How the server runs. `demo` seeds demo data and shows the Outbox; `production` refuses demo accounts. */
 export const Mode = z.enum(['demo', 'development', 'production', 'test']);

@@ -3,9 +3,28 @@ import { MailMessage } from './mail-message';
 import { Membership } from './membership';
 import { Organisation } from './organisation';
 import { PasswordToken } from './password-token';
+import { Enrolment, Invitation, Measurand, Round, RoundTransition, Scheme, Shipment, Submission, SubmissionVersion, TestItem } from './round';
 import { User } from './user';
 
 export { AuditEvent, MailMessage, Membership, Organisation, PasswordToken, User };
+export { Enrolment, Invitation, Measurand, Round, RoundTransition, Scheme, Shipment, Submission, SubmissionVersion, TestItem };
 
-/** Every entity, registered with the DataSource. */
-export const entities = [Organisation, User, Membership, PasswordToken, AuditEvent, MailMessage];
+/** Every entity, registered with the DataSource. Append new ones at the end. */
+export const entities = [
+  Organisation,
+  User,
+  Membership,
+  PasswordToken,
+  AuditEvent,
+  MailMessage,
+  Scheme,
+  Round,
+  RoundTransition,
+  TestItem,
+  Measurand,
+  Enrolment,
+  Invitation,
+  Shipment,
+  Submission,
+  SubmissionVersion,
+];

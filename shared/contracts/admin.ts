@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { Email, Id, Timestamp } from './common';
 import { GlobalRole } from './auth';
 

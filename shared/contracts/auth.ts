@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { Email, Id, NewPassword } from './common';
 
 /** Roles a user holds directly. Lab membership is a separate relation (see Membership). */

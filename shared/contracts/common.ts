@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 
 /** Database ids are UUIDs. */
 export const Id = z.uuid();

@@ -1,4 +1,4 @@
-import { z } from 'zod';
+import * as z from 'zod';
 import { OutboxMessage } from '../../../shared/contracts/admin';
 import { HealthResponse } from '../../../shared/contracts/common';
 import { MailMessage } from '../../../db/entities';

@@ -1,0 +1,132 @@
+import { HttpErrorResponse } from '@angular/common/http';
+import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } from '@angular/core';
+import {
+  type AbstractControl,
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  type ValidationErrors,
+  Validators,
+} from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { RouterLink } from '@angular/router';
+import { type PasswordTokenInfo, SetPasswordRequest } from '@ringlet/shared/contracts/auth';
+import { NewPassword } from '@ringlet/shared/contracts/common';
+import { fieldIssuesOf, problemMessage } from '../core/problem';
+import { AuthService } from '../core/auth.service';
+import { applyServerIssues, errorMessage, zodValidator } from '../core/zod-form-errors';
+
+function passwordsMatch(group: AbstractControl): ValidationErrors | null {
+  const password = group.get('password')?.value;
+  const confirm = group.get('confirm');
+  if (!confirm) return null;
+  const mismatch = !!confirm.value && confirm.value !== password;
+  const others = { ...(confirm.errors ?? {}) };
+  delete others['mismatch'];
+  confirm.setErrors(mismatch ? { ...others, mismatch: true } : Object.keys(others).length ? others : null);
+  return null;
+}
+
+@Component({
+  selector: 'app-set-password',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [ReactiveFormsModule, RouterLink, MatFormFieldModule, MatInputModule, MatButtonModule],
+  template: `
+    <section class="card">
+      <h1 data-testid="page-heading">{{ info()?.purpose === 'reset' ? 'Choose a new password' : 'Set your password' }}</h1>
+      @switch (state()) {
+        @case ('loading') { <p role="status">Checking the link…</p> }
+        @case ('invalid') {
+          <p role="alert" class="form-error">This link has been used or has expired.</p>
+          <p><a routerLink="/forgot-password">Ask for a new link</a></p>
+        }
+        @case ('done') {
+          <p role="status" data-testid="password-set">Your password is set. Sign in with it now.</p>
+          <p><a mat-flat-button routerLink="/sign-in">Sign in</a></p>
+        }
+        @case ('ready') {
+          <p>For <strong data-testid="token-email">{{ info()?.email }}</strong></p>
+          <form [formGroup]="form" (ngSubmit)="submit()" novalidate class="form-stack">
+            <mat-form-field>
+              <mat-label>New password</mat-label>
+              <input matInput formControlName="password" type="password" autocomplete="new-password" required />
+              <mat-hint>At least 12 characters.</mat-hint>
+              <mat-error>{{ errorMessage(form.controls.password) }}</mat-error>
+            </mat-form-field>
+            <mat-form-field>
+              <mat-label>Confirm password</mat-label>
+              <input matInput formControlName="confirm" type="password" autocomplete="new-password" required />
+              <mat-error>{{ errorMessage(form.controls.confirm) }}</mat-error>
+            </mat-form-field>
+            @if (failure(); as message) {
+              <p class="form-error" role="alert">{{ message }}</p>
+            }
+            <div class="actions">
+              <button mat-flat-button type="submit" [disabled]="busy()">Save password</button>
+            </div>
+          </form>
+        }
+      }
+    </section>
+  `,
+  styleUrl: './auth-card.scss',
+})
+export class SetPassword implements OnInit {
+  private readonly auth = inject(AuthService);
+
+  /** The e-mailed single-use token (route parameter). */
+  readonly token = input.required<string>();
+
+  protected readonly info = signal<PasswordTokenInfo | null>(null);
+  protected readonly state = signal<'loading' | 'invalid' | 'ready' | 'done'>('loading');
+  protected readonly busy = signal(false);
+  protected readonly failure = signal<string | null>(null);
+  protected readonly errorMessage = errorMessage;
+  protected readonly form = inject(NonNullableFormBuilder).group(
+    {
+      password: ['', [Validators.required, zodValidator(NewPassword)]],
+      confirm: ['', [Validators.required]],
+    },
+    { validators: passwordsMatch },
+  );
+
+  ngOnInit(): void {
+    this.auth.passwordTokenInfo(this.token()).subscribe({
+      next: (info) => {
+        this.info.set(info);
+        this.state.set('ready');
+      },
+      error: () => this.state.set('invalid'),
+    });
+  }
+
+  protected submit(): void {
+    this.failure.set(null);
+    this.form.markAllAsTouched();
+    if (this.form.invalid) return;
+    const request = SetPasswordRequest.safeParse({ token: this.token(), password: this.form.controls.password.value });
+    if (!request.success) {
+      this.failure.set(request.error.issues[0]?.message ?? 'Check the password.');
+      return;
+    }
+    this.busy.set(true);
+    this.auth.setPassword(request.data).subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.state.set('done');
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        if (error instanceof HttpErrorResponse && error.status === 400) {
+          const unplaced = applyServerIssues(this.form, fieldIssuesOf(error));
+          if (unplaced.length) this.failure.set(unplaced.join(' '));
+        } else if (error instanceof HttpErrorResponse && (error.status === 404 || error.status === 410)) {
+          this.state.set('invalid');
+        } else {
+          this.failure.set(problemMessage(error));
+        }
+      },
+    });
+  }
+}

@@ -1,0 +1,5 @@
+import type { Routes } from '@angular/router';
+
+export const ROUNDS_ROUTES: Routes = [
+  { path: '', title: 'Round desk · Ringlet', loadComponent: () => import('./round-desk').then((m) => m.RoundDesk) },
+];

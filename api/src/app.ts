@@ -94,6 +94,7 @@ export function createApp(deps: AppDeps): RingletApp {
   systemRoutes(api, ctx);
   authRoutes(api, ctx, limiter, (req) => csrf.generateToken(req), passport);
   adminRoutes(api, ctx);
+  // Feature routes: one line each, below this comment.
 
   let openApi: object | undefined;
   const document = () => (openApi ??= buildOpenApi(api.routes, VERSION));
@@ -119,7 +120,7 @@ export function createApp(deps: AppDeps): RingletApp {
   const staticDir = deps.config.staticDir ?? join(__dirname, '../../dist/web/browser');
   if (existsSync(join(staticDir, 'index.html'))) {
     app.use(express.static(staticDir, { index: false, maxAge: '1h' }));
-    app.get('/*splat', (req, res, next) => {
+    app.get('/{*splat}', (req, res, next) => {
       if (!req.accepts('html')) return next();
       res.setHeader('Cache-Control', 'no-cache');
       res.sendFile(join(staticDir, 'index.html'));

@@ -4,6 +4,8 @@ import { createApp } from './app';
 import { hasOutbox, readConfig } from './config';
 import { createMailer } from './mail/mailer';
 import { startSmtpFake } from './mail/smtp-fake';
+import { DEFAULT_DEMO_PASSWORD, DEMO_USERS } from '../../db/seed/demo-people';
+import { isEmpty, seedDemo } from '../../db/seed/demo';
 
 /** Reads the config, connects, migrates, starts the local mail fake outside production, listens. */
 async function main(): Promise<void> {
@@ -11,6 +13,11 @@ async function main(): Promise<void> {
   const ds = createDataSource(config.databaseUrl ?? databaseUrl());
   await ds.initialize();
   await ds.runMigrations({ transaction: 'each' });
+  const demoPassword = config.demoPassword ?? DEFAULT_DEMO_PASSWORD;
+  if (config.mode === 'demo' && (await isEmpty(ds))) {
+    console.log('[ringlet] empty database: loading the demo scenario…');
+    await seedDemo(ds, demoPassword);
+  }
   const fake = hasOutbox(config.mode) && !config.smtp ? await startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
   const mailer = createMailer(config, fake ?? undefined);
   const { app } = createApp({ ds, config, mailer });
@@ -19,6 +26,7 @@ async function main(): Promise<void> {
     const port = typeof addr === 'object' && addr ? addr.port : config.port;
     console.log(`[ringlet] listening on http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${port} (${config.mode} mode)`);
     if (fake) console.log(`[ringlet] local mail fake on smtp://127.0.0.1:${fake.port}; mail shows on the Outbox page`);
+    if (config.mode === 'demo') printDemoBanner(`http://localhost:${port}`, demoPassword);
   });
   const stop = async () => {
     server.close();
@@ -29,6 +37,21 @@ async function main(): Promise<void> {
   };
   process.on('SIGTERM', stop);
   process.on('SIGINT', stop);
+}
+
+function printDemoBanner(url: string, password: string): void {
+  const width = Math.max(...DEMO_USERS.map((u) => u.email.length));
+  const lines = [
+    '',
+    `  Ringlet is ready: ${url}`,
+    '',
+    `  Demo sign-ins (password for all: ${password})`,
+    ...DEMO_USERS.map((u) => `    ${u.email.padEnd(width)}  ${u.roles[0] ?? 'lab member'}${u.lab ? ' (lab manager)' : ''}`),
+    '',
+    '  Demo mode: invented data; mail goes to the Outbox page. Stop with Ctrl+C.',
+    '',
+  ];
+  console.log(lines.join('\n'));
 }
 
 main().catch((err: unknown) => {

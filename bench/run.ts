@@ -1,0 +1,52 @@
+/**
+ * npm run bench: the speed goals of QUALITY.md, measured on this machine (not timed tests).
+ * Each area exports a function returning rows; this prints them as one table.
+ */
+import { benchStats } from './stats';
+
+export interface BenchRow {
+  name: string;
+  median_ms: number;
+  p95_ms: number;
+  runs: number;
+  target?: string;
+  extra?: string;
+}
+
+type Bench = { title: string; load: () => Promise<BenchRow[]> };
+
+const benches: Bench[] = [{ title: 'statistics engine', load: benchStats as () => Promise<BenchRow[]> }];
+
+async function optional(title: string, path: string, fn: string): Promise<void> {
+  try {
+    const mod = (await import(path)) as Record<string, () => Promise<BenchRow[]>>;
+    if (typeof mod[fn] === 'function') benches.push({ title, load: mod[fn]! });
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    if (code !== 'MODULE_NOT_FOUND' && code !== 'ERR_MODULE_NOT_FOUND') throw err;
+  }
+}
+
+async function main(): Promise<void> {
+  await optional('consensus board API', './board', 'benchBoard');
+  await optional('reports', './reports', 'benchReports');
+  const rows: (BenchRow & { area: string })[] = [];
+  for (const b of benches) {
+    process.stderr.write(`running ${b.title}…\n`);
+    for (const r of await b.load()) rows.push({ area: b.title, ...r });
+  }
+  const fmt = (n: number) => (Number.isFinite(n) ? n.toFixed(2) : '—');
+  const header = ['area', 'benchmark', 'median ms', 'p95 ms', 'runs', 'target', 'notes'];
+  const table = rows.map((r) => [r.area, r.name, fmt(r.median_ms), fmt(r.p95_ms), String(r.runs), r.target ?? '', r.extra ?? '']);
+  const widths = header.map((h, i) => Math.max(h.length, ...table.map((row) => row[i]!.length)));
+  const line = (cells: string[]) => cells.map((c, i) => (i >= 2 && i <= 4 ? c.padStart(widths[i]!) : c.padEnd(widths[i]!))).join('  ');
+  console.log(line(header));
+  console.log(widths.map((w) => '-'.repeat(w)).join('  '));
+  for (const row of table) console.log(line(row));
+  process.exit(0);
+}
+
+main().catch((err: unknown) => {
+  console.error(err);
+  process.exit(1);
+});

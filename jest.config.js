@@ -7,7 +7,7 @@ const moduleNameMapper = { '^@ringlet/shared/(.*)$': '<rootDir>/shared/$1' };
 /** @type {import('jest').Config} */
 module.exports = {
   // bcrypt at cost 12 takes ~0.3 s a hash on this 2-core machine; browser tests set their own.
-  testTimeout: 30000,
+  testTimeout: 90000,
   projects: [
     {
       displayName: 'shared',

@@ -2,6 +2,7 @@ import 'reflect-metadata';
 import { createDataSource, databaseUrl } from '../../db/data-source';
 import { createApp } from './app';
 import { hasOutbox, readConfig } from './config';
+import { startJobs } from './jobs/queue';
 import { createMailer } from './mail/mailer';
 import { startSmtpFake } from './mail/smtp-fake';
 import { DEFAULT_DEMO_PASSWORD, DEMO_USERS } from '../../db/seed/demo-people';
@@ -19,7 +20,16 @@ async function main(): Promise<void> {
     await seedDemo(ds, demoPassword);
   }
   const fake = hasOutbox(config.mode) && !config.smtp ? await startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
-  const mailer = createMailer(config, fake ?? undefined);
+  const smtpMailer = createMailer(config, fake ?? undefined);
+  // The PostgreSQL-backed job queue: mail retries and round reminders (shared by every instance).
+  const jobs = await startJobs({
+    connectionString: config.databaseUrl ?? databaseUrl(),
+    ds,
+    mailer: smtpMailer,
+    publicUrl: config.publicUrl,
+    log: (msg, err) => console.error(`[ringlet] ${msg}`, err ?? ''),
+  });
+  const mailer = jobs.mailer;
   const { app } = createApp({ ds, config, mailer });
   const server = app.listen(config.port, config.host, () => {
     const addr = server.address();
@@ -30,6 +40,7 @@ async function main(): Promise<void> {
   });
   const stop = async () => {
     server.close();
+    await jobs.stop();
     mailer.close();
     await fake?.close();
     await ds.destroy();

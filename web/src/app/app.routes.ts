@@ -35,6 +35,16 @@ export const routes: Routes = [
     loadChildren: () => import('./outbox/outbox.routes').then((m) => m.OUTBOX_ROUTES),
   },
   {
+    path: 'invitations/:token',
+    title: 'Invitation · Ringlet',
+    loadComponent: () => import('./rounds/accept-invitation').then((m) => m.AcceptInvitation),
+  },
+  {
+    path: 'board',
+    canActivate: [authGuard],
+    loadChildren: () => import('./board/board.routes').then((m) => m.BOARD_ROUTES),
+  },
+  {
     path: 'no-role',
     canActivate: [authGuard],
     title: 'No role · Ringlet',

@@ -1,17 +1,105 @@
-import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { AuthService } from '../core/auth.service';
+import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialog } from '@angular/material/dialog';
+import { MatIconModule } from '@angular/material/icon';
+import { Router } from '@angular/router';
+import { AgGridAngular } from 'ag-grid-angular';
+import type { ColDef } from 'ag-grid-community';
+import type { RoundSummary, Scheme } from '@ringlet/shared/contracts/rounds';
+import { ROUND_STATE_LABELS } from '@ringlet/shared/contracts/round-states';
+import { ActionCell, type RowAction } from '../grid/action-cell';
+import { RoundDialog } from './round-dialog';
+import { formatDate, formatMoney, ringletGridTheme } from './rounds-grid';
+import { RoundsService } from './rounds.service';
+import { SchemeDialog } from './scheme-dialog';
 
-/** The coordinator's workspace (placeholder until the rounds feature lands). */
+/** The coordinator's workspace: every round in one grid, and the way to start new ones. */
 @Component({
   selector: 'app-round-desk',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [AgGridAngular, MatButtonModule, MatIconModule],
   template: `
     <section class="page">
       <h1 data-testid="page-heading">Round desk</h1>
-      <p>Welcome, {{ auth.me()?.name }}. Schemes, rounds, test items and enrolments will be run from here.</p>
+      <div class="page-actions">
+        <button mat-stroked-button type="button" data-testid="new-scheme" (click)="newScheme()">
+          <mat-icon>add</mat-icon> New scheme
+        </button>
+        <button mat-flat-button type="button" data-testid="new-round" (click)="newRound()" [disabled]="schemes().length === 0">
+          <mat-icon>add</mat-icon> New round
+        </button>
+        @if (schemes().length === 0 && !loading()) {
+          <span>Create a scheme first; rounds belong to a scheme.</span>
+        }
+      </div>
+      <ag-grid-angular
+        class="grid-box"
+        [theme]="theme"
+        [loadThemeGoogleFonts]="false"
+        [rowData]="rounds()"
+        [columnDefs]="columns"
+        [getRowId]="rowId"
+        [loading]="loading()"
+        aria-label="Rounds"
+      />
     </section>
   `,
 })
-export class RoundDesk {
-  protected readonly auth = inject(AuthService);
+export class RoundDesk implements OnInit {
+  private readonly api = inject(RoundsService);
+  private readonly dialog = inject(MatDialog);
+  private readonly router = inject(Router);
+  protected readonly theme = ringletGridTheme;
+  protected readonly rounds = signal<RoundSummary[]>([]);
+  protected readonly schemes = signal<Scheme[]>([]);
+  protected readonly loading = signal(true);
+  protected readonly rowId = (p: { data: RoundSummary }) => p.data.id;
+
+  private readonly actions: RowAction<RoundSummary>[] = [
+    { label: 'Open', ariaLabel: (r) => `Open round ${r.code}`, run: (r) => void this.router.navigate(['/desk/rounds', r.id]) },
+  ];
+
+  protected readonly columns: ColDef<RoundSummary>[] = [
+    { field: 'code', headerName: 'Round', width: 150, filter: 'agTextColumnFilter' },
+    { field: 'title', headerName: 'Title', flex: 1, minWidth: 200, filter: 'agTextColumnFilter' },
+    { field: 'schemeCode', headerName: 'Scheme', width: 130 },
+    { field: 'state', headerName: 'State', width: 120, valueFormatter: ({ value }) => ROUND_STATE_LABELS[value as RoundSummary['state']] },
+    { field: 'itemCount', headerName: 'Items', width: 90, type: 'rightAligned' },
+    { field: 'enrolledCount', headerName: 'Enrolled labs', width: 130, type: 'rightAligned' },
+    { field: 'resultsDueAt', headerName: 'Results due', width: 170, valueFormatter: ({ value }) => formatDate(value as string, true) },
+    {
+      colId: 'fee', headerName: 'Fee', width: 120, type: 'rightAligned',
+      valueGetter: ({ data }) => (data ? formatMoney(data.feeMinor, data.currency) : ''),
+    },
+    { colId: 'actions', headerName: '', width: 110, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.actions } },
+  ];
+
+  ngOnInit(): void {
+    this.api.schemes().subscribe((s) => this.schemes.set(s));
+    this.api.rounds().subscribe({
+      next: (r) => {
+        this.rounds.set(r);
+        this.loading.set(false);
+      },
+      error: () => this.loading.set(false),
+    });
+  }
+
+  protected newScheme(): void {
+    this.dialog
+      .open(SchemeDialog, { width: '520px', maxWidth: '95vw' })
+      .afterClosed()
+      .subscribe((s?: Scheme) => {
+        if (s) this.schemes.update((list) => [...list, s]);
+      });
+  }
+
+  protected newRound(): void {
+    this.dialog
+      .open(RoundDialog, { data: { schemes: this.schemes() }, width: '760px', maxWidth: '95vw' })
+      .afterClosed()
+      .subscribe((id?: string) => {
+        if (id) void this.router.navigate(['/desk/rounds', id]);
+      });
+  }
 }

@@ -1,0 +1,66 @@
+import ExcelJS from 'exceljs';
+import { ruleBroken } from '../http/errors';
+
+/** Rows of cells from an uploaded CSV or XLSX file (first worksheet). */
+export async function readRows(buffer: Buffer, filename: string): Promise<string[][]> {
+  const isXlsx = buffer.subarray(0, 4).equals(Buffer.from([0x50, 0x4b, 0x03, 0x04]));
+  if (isXlsx) {
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(buffer as unknown as ArrayBuffer);
+    const ws = wb.worksheets[0];
+    if (!ws) throw ruleBroken('file_empty', 'file: the workbook has no worksheet.');
+    const rows: string[][] = [];
+    ws.eachRow((row) => {
+      const cells: string[] = [];
+      row.eachCell({ includeEmpty: true }, (cell) => {
+        const v = cell.value;
+        cells.push(v === null || v === undefined ? '' : typeof v === 'object' && 'result' in v ? String(v.result) : String(v));
+      });
+      rows.push(cells);
+    });
+    return rows;
+  }
+  if (buffer.includes(0)) throw ruleBroken('file_type', `file: ${filename} is neither CSV text nor an XLSX workbook.`);
+  const text = buffer.toString('utf8').replace(/^\uFEFF/, '');
+  const sep = text.includes(';') && !text.includes(',') ? ';' : text.includes('\t') && !text.includes(',') ? '\t' : ',';
+  return text
+    .split(/\r?\n/)
+    .filter((l) => l.trim() !== '')
+    .map((l) => l.split(sep).map((c) => c.trim().replace(/^"(.*)"$/, '$1')));
+}
+
+const num = (s: string) => (s.trim() === '' ? NaN : Number(s.trim()));
+
+/**
+ * Homogeneity file: one row per item, the first cell labels the item, the following cells are its
+ * replicate results (unit of the measurand). A first row whose result cells are not numbers is a
+ * header and is skipped.
+ */
+export function homogeneityFromRows(rows: string[][]): { items: number[][] } {
+  const body = rows.filter((r, i) => !(i === 0 && r.slice(1).some((c) => c.trim() !== '' && Number.isNaN(num(c)))));
+  const items = body.map((r, i) => {
+    const values = r.slice(1).filter((c) => c.trim() !== '').map(num);
+    if (values.some((v) => !Number.isFinite(v))) throw ruleBroken('file_value', `file: row ${i + 1} (${r[0] ?? ''}) has a value that is not a number.`);
+    return values;
+  });
+  return { items };
+}
+
+/**
+ * Stability file: rows "occasion, result"; the occasion is "first"/"before"/"1" or
+ * "second"/"after"/"2". A header row is skipped.
+ */
+export function stabilityFromRows(rows: string[][]): { first: number[]; second: number[] } {
+  const first: number[] = [];
+  const second: number[] = [];
+  rows.forEach((r, i) => {
+    const occasion = (r[0] ?? '').trim().toLowerCase();
+    const value = num(r[1] ?? '');
+    if (i === 0 && Number.isNaN(value)) return;
+    if (!Number.isFinite(value)) throw ruleBroken('file_value', `file: row ${i + 1} has a value that is not a number.`);
+    if (['first', 'before', '1'].includes(occasion)) first.push(value);
+    else if (['second', 'after', '2'].includes(occasion)) second.push(value);
+    else throw ruleBroken('file_value', `file: row ${i + 1}: occasion "${r[0]}" is not first/before/1 or second/after/2.`);
+  });
+  return { first, second };
+}

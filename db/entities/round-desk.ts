@@ -1,0 +1,34 @@
+import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+
+/** A homogeneity or stability study of one test item × measurand (ISO 13528 Annex B), with its result. */
+@Entity({ name: 'homogeneity_study' })
+export class HomogeneityStudy {
+  @PrimaryGeneratedColumn('uuid') id!: string;
+  @Column({ type: 'uuid', name: 'round_id' }) roundId!: string;
+  @Column({ type: 'uuid', name: 'test_item_id' }) testItemId!: string;
+  @Column({ type: 'uuid', name: 'measurand_id' }) measurandId!: string;
+  @Column({ type: 'text' }) kind!: 'homogeneity' | 'stability';
+  /** σ_pt the check used, unit of the measurand. */
+  @Column({ type: 'double precision', name: 'sigma_pt' }) sigmaPt!: number;
+  /** The measurements as entered (shared/contracts/rounds HomogeneityData / StabilityData). */
+  @Column({ type: 'jsonb' }) data!: Record<string, unknown>;
+  /** The computed check (shared/stats HomogeneityResult / StabilityResult). */
+  @Column({ type: 'jsonb' }) result!: Record<string, unknown>;
+  @Column({ type: 'boolean' }) passes!: boolean;
+  @Column({ type: 'text', nullable: true }) decision!: 'accept' | 'widen-sigma-pt' | 'exclude-item' | null;
+  @Column({ type: 'text', name: 'decision_reason', nullable: true }) decisionReason!: string | null;
+  @Column({ type: 'uuid', name: 'decided_by', nullable: true }) decidedBy!: string | null;
+  @Column({ type: 'timestamptz', name: 'decided_at', nullable: true }) decidedAt!: Date | null;
+  @Column({ type: 'uuid', name: 'created_by', nullable: true }) createdBy!: string | null;
+  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
+}
+
+/** One reminder e-mail sent (the unique constraint makes "send once" hold across instances). */
+@Entity({ name: 'reminder_log' })
+export class ReminderLog {
+  @PrimaryGeneratedColumn('uuid') id!: string;
+  @Column({ type: 'uuid', name: 'round_id' }) roundId!: string;
+  @Column({ type: 'uuid', name: 'enrolment_id' }) enrolmentId!: string;
+  @Column({ type: 'text' }) kind!: 'due-soon' | 'overdue';
+  @CreateDateColumn({ type: 'timestamptz', name: 'sent_at' }) sentAt!: Date;
+}

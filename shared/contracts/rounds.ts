@@ -1,0 +1,440 @@
+import * as z from 'zod';
+import { Email, Id, Timestamp } from './common';
+import { RoundState } from './round-states';
+
+/**
+ * Round desk contracts: schemes, rounds, test items, measurands, invitations, enrolments,
+ * shipments, homogeneity and stability studies. The server validates every request with these
+ * and the web forms validate with the same schemas.
+ */
+
+/** The usual cautions every set of instructions starts with (QUALITY.md, "Where the work can hurt someone"). */
+export const SAFETY_CAUTIONS = [
+  'Safety: wear eye protection and gloves when handling the test items.',
+  "Never defeat or bypass an instrument's laser interlock.",
+  "Follow the safety data sheet supplied with each item and your lab's chemical-hygiene plan.",
+  "Local regulations and your lab's safety officer take precedence over these instructions.",
+].join('\n');
+
+export const DEFAULT_INSTRUCTIONS = `${SAFETY_CAUTIONS}\n\nMeasure each test item as you would a routine sample, at the protocol temperature, and report every replicate.`;
+
+// ---- σ_pt and assigned-value rules (shapes of shared/stats SigmaPtRule / AssignedValueRule) ----
+
+export const SigmaPtRuleInput = z.discriminatedUnion('kind', [
+  z.object({ kind: z.literal('fixed'), value: z.number().positive({ message: 'σ_pt must be above 0.' }) }),
+  z.object({ kind: z.literal('percent'), percent: z.number().positive().max(100) }),
+  z.object({ kind: z.literal('robust-sd') }),
+  z.object({
+    kind: z.literal('precision'),
+    sigmaR: z.number().positive(),
+    sigmaRepeatability: z.number().positive().optional(),
+    replicates: z.number().int().min(1).max(20).optional(),
+    source: z.string().max(500).optional(),
+  }),
+]);
+export type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleInput>;
+
+export const AssignedValueRuleInput = z.discriminatedUnion('kind', [
+  z.object({ kind: z.literal('consensus') }),
+  z.object({ kind: z.literal('median') }),
+  z.object({ kind: z.literal('reference'), value: z.number().finite(), u: z.number().min(0), source: z.string().min(1).max(500) }),
+]);
+export type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleInput>;
+
+// ---- measurands ----
+
+export const MeasurandInput = z.object({
+  key: z
+    .string()
+    .trim()
+    .regex(/^[a-z][a-z0-9_]{0,39}$/, { message: 'Use lower-case letters, digits and _ (e.g. z_average).' }),
+  name: z.string().trim().min(1, { message: 'Enter the measurand name.' }).max(100),
+  unit: z.string().trim().max(20),
+  decimals: z.number().int().min(0).max(6),
+  replicatesRequired: z.number().int().min(1).max(20),
+  sigmaPtRule: SigmaPtRuleInput.default({ kind: 'robust-sd' }),
+  assignedValueRule: AssignedValueRuleInput.default({ kind: 'consensus' }),
+  minParticipants: z.number().int().min(1).max(10000).default(12),
+});
+export type MeasurandInput = z.input<typeof MeasurandInput>;
+
+/**
+ * The DLS defaults (issue 4): Z-average diameter in nm with 1 decimal and 3 replicates; PDI with
+ * 3 decimals and 3 replicates. σ_pt from the round's robust SD and x_pt by consensus (Algorithm A)
+ * until the coordinator chooses otherwise; 12 participants minimum is common practice.
+ */
+export const DLS_DEFAULT_MEASURANDS: readonly z.output<typeof MeasurandInput>[] = [
+  {
+    key: 'z_average',
+    name: 'Z-average diameter',
+    unit: 'nm',
+    decimals: 1,
+    replicatesRequired: 3,
+    sigmaPtRule: { kind: 'robust-sd' },
+    assignedValueRule: { kind: 'consensus' },
+    minParticipants: 12,
+  },
+  {
+    key: 'pdi',
+    name: 'Polydispersity index (PDI)',
+    unit: '',
+    decimals: 3,
+    replicatesRequired: 3,
+    sigmaPtRule: { kind: 'robust-sd' },
+    assignedValueRule: { kind: 'consensus' },
+    minParticipants: 12,
+  },
+];
+
+export const Measurand = z.object({
+  id: Id,
+  roundId: Id,
+  key: z.string(),
+  name: z.string(),
+  unit: z.string(),
+  decimals: z.number().int(),
+  replicatesRequired: z.number().int(),
+  sigmaPtRule: SigmaPtRuleInput,
+  assignedValueRule: AssignedValueRuleInput,
+  minParticipants: z.number().int(),
+  position: z.number().int(),
+});
+export type Measurand = z.infer<typeof Measurand>;
+
+// ---- schemes ----
+
+export const SchemeCreate = z.object({
+  code: z
+    .string()
+    .trim()
+    .regex(/^[A-Z0-9][A-Z0-9-]{1,29}$/, { message: 'Use 2–30 capital letters, digits or dashes (e.g. NANO-DLS).' }),
+  name: z.string().trim().min(2, { message: 'Enter the scheme name.' }).max(200),
+  description: z.string().trim().max(4000).default(''),
+  rules: z.string().trim().max(8000).default(''),
+  defaultMeasurands: z.array(MeasurandInput).max(20).default([...DLS_DEFAULT_MEASURANDS]),
+});
+export type SchemeCreate = z.input<typeof SchemeCreate>;
+
+export const Scheme = z.object({
+  id: Id,
+  code: z.string(),
+  name: z.string(),
+  description: z.string(),
+  rules: z.string(),
+  defaultMeasurands: z.array(MeasurandInput),
+  createdAt: Timestamp,
+});
+export type Scheme = z.infer<typeof Scheme>;
+
+// ---- test items ----
+
+export const TestItemInput = z.object({
+  code: z
+    .string()
+    .trim()
+    .regex(/^[A-Za-z0-9][A-Za-z0-9-]{0,19}$/, { message: 'Use up to 20 letters, digits or dashes (e.g. A).' }),
+  material: z.string().trim().min(1, { message: 'Enter the material.' }).max(200),
+  nominalSizeNm: z.number().positive({ message: 'Nominal size must be above 0 nm.' }).max(1e5).nullable().default(null),
+  storageNotes: z.string().trim().max(2000).default(''),
+  handlingNotes: z.string().trim().max(2000).default(''),
+});
+export type TestItemInput = z.input<typeof TestItemInput>;
+
+export const TestItem = z.object({
+  id: Id,
+  roundId: Id,
+  code: z.string(),
+  material: z.string(),
+  nominalSizeNm: z.number().nullable(),
+  storageNotes: z.string(),
+  handlingNotes: z.string(),
+  position: z.number().int(),
+});
+export type TestItem = z.infer<typeof TestItem>;
+
+// ---- rounds ----
+
+/** A calendar date, YYYY-MM-DD. */
+export const DateOnly = z.iso.date({ message: 'Use a date like 2026-03-31.' });
+
+const roundFields = {
+  title: z.string().trim().min(2, { message: 'Enter the round title.' }).max(200),
+  enrolmentClosesOn: DateOnly.nullable().default(null),
+  dispatchOn: DateOnly.nullable().default(null),
+  resultsDueAt: Timestamp.nullable().default(null),
+  instructions: z.string().max(20000).default(DEFAULT_INSTRUCTIONS),
+  protocolTemperatureC: z.number().min(-5).max(95).default(25),
+  feeMinor: z.number().int().min(0).max(100_000_000).default(0),
+  currency: z
+    .string()
+    .trim()
+    .regex(/^[A-Z]{3}$/, { message: 'Use a 3-letter currency code (e.g. EUR).' })
+    .default('EUR'),
+};
+
+function datesInOrder(r: { enrolmentClosesOn?: string | null; dispatchOn?: string | null; resultsDueAt?: string | null }): boolean {
+  if (r.enrolmentClosesOn && r.dispatchOn && r.dispatchOn < r.enrolmentClosesOn) return false;
+  if (r.dispatchOn && r.resultsDueAt && r.resultsDueAt.slice(0, 10) < r.dispatchOn) return false;
+  return true;
+}
+const datesMessage = { message: 'Dates must run in order: enrolment closes, dispatch, results due.', path: ['resultsDueAt'] };
+
+export const RoundCreate = z
+  .object({
+    schemeId: Id,
+    code: z
+      .string()
+      .trim()
+      .regex(/^[A-Z0-9][A-Z0-9-]{1,29}$/, { message: 'Use 2–30 capital letters, digits or dashes (e.g. DLS-2026-1).' }),
+    kind: z.enum(['pt', 'precision']).default('pt'),
+    ...roundFields,
+    /** Start with the scheme's default measurands (true unless the coordinator says otherwise). */
+    useSchemeMeasurands: z.boolean().default(true),
+    items: z.array(TestItemInput).max(20).default([]),
+  })
+  .refine(datesInOrder, datesMessage);
+export type RoundCreate = z.input<typeof RoundCreate>;
+
+export const RoundUpdate = z
+  .object({
+    title: roundFields.title,
+    enrolmentClosesOn: DateOnly.nullable(),
+    dispatchOn: DateOnly.nullable(),
+    resultsDueAt: Timestamp.nullable(),
+    instructions: z.string().max(20000),
+    protocolTemperatureC: roundFields.protocolTemperatureC.unwrap(),
+    feeMinor: z.number().int().min(0).max(100_000_000),
+    currency: z.string().trim().regex(/^[A-Z]{3}$/, { message: 'Use a 3-letter currency code (e.g. EUR).' }),
+  })
+  .partial()
+  .refine((r) => Object.keys(r).length > 0, { message: 'Change at least one field.' });
+export type RoundUpdate = z.input<typeof RoundUpdate>;
+
+export const RoundSummary = z.object({
+  id: Id,
+  schemeId: Id,
+  schemeCode: z.string(),
+  code: z.string(),
+  title: z.string(),
+  kind: z.enum(['pt', 'precision']),
+  state: RoundState,
+  enrolmentClosesOn: z.string().nullable(),
+  dispatchOn: z.string().nullable(),
+  resultsDueAt: Timestamp.nullable(),
+  feeMinor: z.number().int(),
+  currency: z.string(),
+  itemCount: z.number().int(),
+  enrolledCount: z.number().int(),
+  createdAt: Timestamp,
+});
+export type RoundSummary = z.infer<typeof RoundSummary>;
+
+export const RoundTransitionRecord = z.object({
+  fromState: RoundState,
+  toState: RoundState,
+  actorName: z.string().nullable(),
+  reason: z.string().nullable(),
+  forced: z.boolean(),
+  at: Timestamp,
+});
+export type RoundTransitionRecord = z.infer<typeof RoundTransitionRecord>;
+
+export const RoundDetail = RoundSummary.extend({
+  instructions: z.string(),
+  protocolTemperatureC: z.number(),
+  items: z.array(TestItem),
+  measurands: z.array(Measurand),
+  transitions: z.array(RoundTransitionRecord),
+  /** True while a failing homogeneity/stability check has no recorded decision (blocks publication). */
+  hasOpenHomogeneityFailure: z.boolean(),
+});
+export type RoundDetail = z.infer<typeof RoundDetail>;
+
+export const TransitionRequest = z.object({
+  to: RoundState,
+  reason: z.string().trim().max(2000).optional(),
+  /** Overrides a date rule (e.g. closing before results are due); needs a reason. */
+  force: z.boolean().default(false),
+}).refine((t) => !t.force || (t.reason?.length ?? 0) >= 5, {
+  message: 'Give a reason (at least 5 characters) when forcing a transition.',
+  path: ['reason'],
+});
+export type TransitionRequest = z.input<typeof TransitionRequest>;
+
+// ---- invitations and enrolments ----
+
+export const InvitationCreate = z
+  .object({
+    /** An existing lab, or null to invite a new lab by its contact address. */
+    organisationId: Id.nullable().default(null),
+    email: Email,
+    /** For a new lab: its name. */
+    labName: z.string().trim().min(2).max(200).nullable().default(null),
+  })
+  .refine((i) => i.organisationId !== null || i.labName !== null, {
+    message: 'Name the new lab (or choose an existing one).',
+    path: ['labName'],
+  });
+export type InvitationCreate = z.input<typeof InvitationCreate>;
+
+export const InvitationsCreate = z.object({
+  invitations: z.array(InvitationCreate).min(1, { message: 'Invite at least one lab.' }).max(200),
+});
+export type InvitationsCreate = z.input<typeof InvitationsCreate>;
+
+export const Invitation = z.object({
+  id: Id,
+  roundId: Id,
+  organisationId: Id.nullable(),
+  organisationName: z.string().nullable(),
+  email: z.string(),
+  labName: z.string().nullable(),
+  expiresAt: Timestamp,
+  acceptedAt: Timestamp.nullable(),
+  createdAt: Timestamp,
+});
+export type Invitation = z.infer<typeof Invitation>;
+
+export const TokenParams = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, { message: 'Not a valid link.' }) });
+
+/** What the invitee sees before accepting (no other lab's identity). */
+export const InvitationInfo = z.object({
+  roundCode: z.string(),
+  roundTitle: z.string(),
+  email: z.string(),
+  labName: z.string().nullable(),
+  /** True when the invitation creates a new lab on acceptance. */
+  isNewLab: z.boolean(),
+  expiresAt: Timestamp,
+});
+export type InvitationInfo = z.infer<typeof InvitationInfo>;
+
+export const InvitationAcceptResult = z.object({
+  roundId: Id,
+  participantCode: z.string(),
+  /** For a new lab: a first-password link went to the contact address. */
+  accountCreated: z.boolean(),
+});
+export type InvitationAcceptResult = z.infer<typeof InvitationAcceptResult>;
+
+export const ReceiptCondition = z.enum(['intact', 'damaged', 'leaked', 'arrived-warm']);
+export type ReceiptCondition = z.infer<typeof ReceiptCondition>;
+
+export const Shipment = z.object({
+  courier: z.string().nullable(),
+  trackingNumber: z.string().nullable(),
+  dispatchedOn: z.string().nullable(),
+  receivedOn: z.string().nullable(),
+  condition: ReceiptCondition.nullable(),
+  receiptNotes: z.string().nullable(),
+});
+export type Shipment = z.infer<typeof Shipment>;
+
+/** Receipt status as the coordinator's table shows it. */
+export const ReceiptStatus = z.enum(['not-dispatched', 'dispatched', 'received', 'received-with-problem']);
+export type ReceiptStatus = z.infer<typeof ReceiptStatus>;
+
+export const Enrolment = z.object({
+  id: Id,
+  roundId: Id,
+  organisationId: Id,
+  organisationName: z.string(),
+  participantCode: z.string(),
+  state: z.enum(['enrolled', 'withdrawn']),
+  withdrawnReason: z.string().nullable(),
+  extensionUntil: Timestamp.nullable(),
+  enrolledAt: Timestamp,
+  shipment: Shipment.nullable(),
+  receiptStatus: ReceiptStatus,
+  submitted: z.boolean(),
+});
+export type Enrolment = z.infer<typeof Enrolment>;
+
+export const EnrolmentParams = z.object({ id: Id, enrolmentId: Id });
+
+export const Withdrawal = z.object({
+  reason: z.string().trim().min(5, { message: 'Give the reason (at least 5 characters).' }).max(2000),
+});
+export type Withdrawal = z.input<typeof Withdrawal>;
+
+export const ExtensionGrant = z.object({
+  until: Timestamp,
+  reason: z.string().trim().min(5, { message: 'Give the reason (at least 5 characters).' }).max(2000),
+});
+export type ExtensionGrant = z.input<typeof ExtensionGrant>;
+
+export const DispatchInput = z.object({
+  courier: z.string().trim().min(1, { message: 'Enter the courier.' }).max(100),
+  trackingNumber: z.string().trim().min(1, { message: 'Enter the tracking number.' }).max(100),
+  dispatchedOn: DateOnly,
+});
+export type DispatchInput = z.input<typeof DispatchInput>;
+
+// ---- homogeneity and stability ----
+
+/** g items, each with m ≥ 2 replicate results in the measurand's unit. */
+export const HomogeneityData = z.object({
+  items: z
+    .array(z.array(z.number().finite()).min(2, { message: 'Each item needs at least 2 replicates.' }).max(20))
+    .min(2, { message: 'At least 2 items are needed.' })
+    .max(100)
+    .refine((items) => items.every((r) => r.length === items[0]?.length), {
+      message: 'Every item needs the same number of replicates.',
+    }),
+});
+
+export const StabilityData = z.object({
+  first: z.array(z.number().finite()).min(2, { message: 'At least 2 results before.' }).max(200),
+  second: z.array(z.number().finite()).min(2, { message: 'At least 2 results after.' }).max(200),
+});
+
+export const StudyInput = z.discriminatedUnion('kind', [
+  z.object({
+    kind: z.literal('homogeneity'),
+    testItemId: Id,
+    measurandId: Id,
+    /** σ_pt for the check; when omitted, taken from the measurand's fixed or percent rule. */
+    sigmaPt: z.number().positive({ message: 'σ_pt must be above 0.' }).nullable().default(null),
+    data: HomogeneityData,
+  }),
+  z.object({
+    kind: z.literal('stability'),
+    testItemId: Id,
+    measurandId: Id,
+    sigmaPt: z.number().positive({ message: 'σ_pt must be above 0.' }).nullable().default(null),
+    data: StabilityData,
+  }),
+]);
+export type StudyInput = z.input<typeof StudyInput>;
+
+export const HomogeneityDecisionKind = z.enum(['accept', 'widen-sigma-pt', 'exclude-item']);
+export type HomogeneityDecisionKind = z.infer<typeof HomogeneityDecisionKind>;
+
+export const Study = z.object({
+  id: Id,
+  roundId: Id,
+  testItemId: Id,
+  testItemCode: z.string(),
+  measurandId: Id,
+  measurandName: z.string(),
+  unit: z.string(),
+  kind: z.enum(['homogeneity', 'stability']),
+  sigmaPt: z.number(),
+  data: z.record(z.string(), z.unknown()),
+  /** The stats engine's result (HomogeneityResult or StabilityResult), numbers in the measurand's unit. */
+  result: z.record(z.string(), z.unknown()),
+  passes: z.boolean(),
+  decision: HomogeneityDecisionKind.nullable(),
+  decisionReason: z.string().nullable(),
+  decidedAt: Timestamp.nullable(),
+  createdAt: Timestamp,
+});
+export type Study = z.infer<typeof Study>;
+
+export const StudyParams = z.object({ id: Id, studyId: Id });
+
+export const StudyDecision = z.object({
+  decision: HomogeneityDecisionKind,
+  reason: z.string().trim().min(5, { message: 'Give the reason (at least 5 characters).' }).max(2000),
+});
+export type StudyDecision = z.input<typeof StudyDecision>;

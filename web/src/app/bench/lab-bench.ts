@@ -1,21 +1,106 @@
-import { ChangeDetectionStrategy, Component, computed, inject } from '@angular/core';
-import { AuthService } from '../core/auth.service';
+import { DatePipe } from '@angular/common';
+import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatSelectModule } from '@angular/material/select';
+import { RouterLink } from '@angular/router';
+import type { MyRound, MyRoundStatus } from '@ringlet/shared/contracts/bench';
+import { BenchService } from './bench.service';
 
-/** A lab's workspace (placeholder until the bench feature lands). */
+export const STATUS_LABELS: Record<MyRoundStatus, string> = {
+  invited: 'Invited',
+  enrolled: 'Enrolled',
+  'due-soon': 'Due soon',
+  submitted: 'Submitted',
+  locked: 'Locked, not submitted',
+  published: 'Published',
+  withdrawn: 'Withdrawn',
+};
+
+/** The Lab bench home: the lab's rounds with their deadlines. */
 @Component({
   selector: 'app-lab-bench',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [DatePipe, RouterLink, MatFormFieldModule, MatSelectModule],
   template: `
     <section class="page">
       <h1 data-testid="page-heading">Lab bench</h1>
-      <p>Welcome, {{ auth.me()?.name }}. Test item receipt, the instrument check and your results will be entered here.</p>
-      @if (labs().length) {
-        <p>Your {{ labs().length === 1 ? 'lab' : 'labs' }}: {{ labs().join(', ') }}</p>
+      @if (bench.labs().length > 1) {
+        <mat-form-field class="lab-pick">
+          <mat-label>Acting for lab</mat-label>
+          <mat-select [value]="bench.labId()" (valueChange)="pick($event)" data-testid="lab-picker">
+            @for (m of bench.labs(); track m.organisationId) {
+              <mat-option [value]="m.organisationId">{{ m.organisationName }}</mat-option>
+            }
+          </mat-select>
+        </mat-form-field>
+      }
+      @if (loading()) {
+        <p>Loading your rounds…</p>
+      } @else if (rounds().length === 0) {
+        <p data-testid="no-rounds">Your lab has no rounds yet. Invitations from the PT provider appear here.</p>
+      } @else {
+        <table class="bench-table" data-testid="my-rounds">
+          <caption class="visually-hidden">Your lab’s rounds</caption>
+          <thead>
+            <tr><th scope="col">Round</th><th scope="col">Participant code</th><th scope="col">Status</th><th scope="col">Results due</th><th scope="col">Locks at</th><th scope="col" class="num">Version</th></tr>
+          </thead>
+          <tbody>
+            @for (r of rounds(); track r.roundId) {
+              <tr [attr.data-status]="r.status">
+                <td>
+                  @if (r.status !== 'invited') {
+                    <a [routerLink]="['/bench/rounds', r.roundId]">{{ r.code }} · {{ r.title }}</a>
+                  } @else {
+                    {{ r.code }} · {{ r.title }}
+                  }
+                </td>
+                <td>{{ r.participantCode ?? '—' }}</td>
+                <td><span class="status status-{{ r.status }}">{{ labels[r.status] }}</span></td>
+                <td>{{ r.resultsDueAt ? (r.resultsDueAt | date: 'medium') : '—' }}</td>
+                <td>{{ r.locksAt ? (r.locksAt | date: 'medium') : '—' }}@if (r.extensionUntil) { <small> (extension)</small> }</td>
+                <td class="num">{{ r.submittedVersion || '—' }}</td>
+              </tr>
+            }
+          </tbody>
+        </table>
       }
     </section>
   `,
+  styles: `
+    .bench-table { border-collapse: collapse; width: 100%; font-size: 14px; }
+    .bench-table th, .bench-table td { text-align: left; padding: 6px 10px; border-bottom: 1px solid #d8dde3; }
+    .bench-table .num { text-align: right; }
+    .status { font-weight: 500; }
+    .status-due-soon { color: #b7791f; }
+    .status-submitted, .status-published { color: #1b7f79; }
+    .status-locked { color: #a4262c; }
+    .lab-pick { min-width: 280px; }
+    .visually-hidden { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); }
+  `,
 })
-export class LabBench {
-  protected readonly auth = inject(AuthService);
-  protected readonly labs = computed(() => this.auth.me()?.memberships.map((m) => m.organisationName) ?? []);
+export class LabBench implements OnInit {
+  protected readonly bench = inject(BenchService);
+  protected readonly rounds = signal<MyRound[]>([]);
+  protected readonly loading = signal(true);
+  protected readonly labels = STATUS_LABELS;
+
+  ngOnInit(): void {
+    this.load();
+  }
+
+  protected pick(id: string): void {
+    this.bench.chooseLab(id);
+    this.load();
+  }
+
+  private load(): void {
+    this.loading.set(true);
+    this.bench.myRounds().subscribe({
+      next: (r) => {
+        this.rounds.set(r);
+        this.loading.set(false);
+      },
+      error: () => this.loading.set(false),
+    });
+  }
 }

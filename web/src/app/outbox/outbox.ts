@@ -19,17 +19,19 @@ import { OutboxService } from './outbox.service';
         <button mat-button type="button" (click)="reload()"><mat-icon>refresh</mat-icon> Refresh</button>
       </div>
       <div class="panes">
-        <mat-selection-list [multiple]="false" aria-label="Captured e-mails" class="list" hideSingleSelectionIndicator>
-          @for (message of messages(); track message.id) {
-            <mat-list-option [value]="message.id" [selected]="message.id === selectedId()"
-              (click)="selectedId.set(message.id)" (keydown.enter)="selectedId.set(message.id)">
-              <span matListItemTitle>{{ message.subject }}</span>
-              <span matListItemLine>{{ message.to.join(', ') }} · {{ when(message.receivedAt) }}</span>
-            </mat-list-option>
-          } @empty {
-            <p class="empty">No e-mails yet.</p>
-          }
-        </mat-selection-list>
+        @if (messages().length === 0) {
+          <p class="empty list">No e-mails yet.</p>
+        } @else {
+          <mat-selection-list [multiple]="false" aria-label="Captured e-mails" class="list" hideSingleSelectionIndicator>
+            @for (message of messages(); track message.id) {
+              <mat-list-option [value]="message.id" [selected]="message.id === selectedId()"
+                (click)="selectedId.set(message.id)" (keydown.enter)="selectedId.set(message.id)">
+                <span matListItemTitle>{{ message.subject }}</span>
+                <span matListItemLine>{{ message.to.join(', ') }} · {{ when(message.receivedAt) }}</span>
+              </mat-list-option>
+            }
+          </mat-selection-list>
+        }
         @if (selected(); as message) {
           <article class="message" data-testid="outbox-message" aria-live="polite">
             <h2>{{ message.subject }}</h2>

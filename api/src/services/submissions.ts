@@ -1,0 +1,194 @@
+import type { EntityManager } from 'typeorm';
+import { Measurand, Submission, TestItem } from '../../../db/entities';
+import type { DraftSave, DraftSaved, SubmissionVersionDto, SubmissionView, SubmitRequest, SubmitResult } from '../../../shared/contracts/bench';
+import { SubmissionData } from '../../../shared/contracts/submission';
+import { checkResults, instrumentCheckNotice, type RoundRules } from '../../../shared/bench/submission-checks';
+import type { SessionUser } from '../auth/session-user';
+import { conflict, ruleBroken } from '../http/errors';
+import { audit } from './audit';
+import { findEnrolment, lockState } from './bench';
+import type { AppContext } from './context';
+import { latestCheckFor } from './instrument-checks';
+
+/** The round's items and measurands as the shared checks need them. */
+export async function roundRules(em: EntityManager, roundId: string, protocolTemperatureC: number): Promise<RoundRules> {
+  const [items, measurands] = await Promise.all([
+    em.find(TestItem, { where: { roundId }, order: { position: 'ASC', code: 'ASC' } }),
+    em.find(Measurand, { where: { roundId }, order: { position: 'ASC', key: 'ASC' } }),
+  ]);
+  return {
+    protocolTemperatureC,
+    items: items.map((i) => ({ id: i.id, code: i.code, nominalSizeNm: i.nominalSizeNm })),
+    measurands: measurands.map((m) => ({ id: m.id, key: m.key, name: m.name, unit: m.unit, replicatesRequired: m.replicatesRequired })),
+  };
+}
+
+/** TypeORM answers an UPDATE … RETURNING on PostgreSQL with [rows, affected]. */
+function returned<T>(result: unknown): T[] {
+  const r = result as unknown[];
+  return (Array.isArray(r[0]) ? r[0] : r) as T[];
+}
+
+interface VersionRow {
+  version: number;
+  data: unknown;
+  submitted_at: Date;
+  submitted_by_name: string | null;
+  note: string | null;
+  is_late: boolean;
+}
+
+const VERSION_SELECT = `SELECT v.version, v.data, v.submitted_at, u.name AS submitted_by_name, v.note, v.is_late
+  FROM submission_version v LEFT JOIN app_user u ON u.id = v.submitted_by`;
+
+function versionDto(r: VersionRow): SubmissionVersionDto {
+  return {
+    version: r.version,
+    data: SubmissionData.parse(r.data),
+    submittedAt: r.submitted_at.toISOString(),
+    submittedBy: r.submitted_by_name,
+    note: r.note,
+    isLate: r.is_late,
+  };
+}
+
+/** Creates the submission row if missing and locks it for this transaction (serialises saves and submits). */
+async function lockSubmission(em: EntityManager, enrolmentId: string): Promise<Submission> {
+  await em.query(`INSERT INTO submission (enrolment_id) VALUES ($1) ON CONFLICT (enrolment_id) DO NOTHING`, [enrolmentId]);
+  const sub = await em
+    .getRepository(Submission)
+    .createQueryBuilder('s')
+    .setLock('pessimistic_write')
+    .where('s.enrolment_id = :enrolmentId', { enrolmentId })
+    .getOne();
+  return sub!;
+}
+
+/** GET /rounds/{id}/submission: the draft, its revision and every submitted version (newest first). */
+export async function getSubmission(ctx: AppContext, labId: string, roundId: string): Promise<SubmissionView> {
+  const em = ctx.ds.manager;
+  const { round, enrolment } = await findEnrolment(em, labId, roundId);
+  const sub = await em.findOne(Submission, { where: { enrolmentId: enrolment.id } });
+  const lock = lockState(round, enrolment);
+  const versions: VersionRow[] = sub ? await em.query(`${VERSION_SELECT} WHERE v.submission_id = $1 ORDER BY v.version DESC`, [sub.id]) : [];
+  return {
+    state: sub ? sub.state : 'none',
+    draft: SubmissionData.parse(sub?.draft ?? {}),
+    draftRevision: sub?.draftRevision ?? 0,
+    savedAt: sub && sub.draftRevision > 0 ? sub.updatedAt.toISOString() : null,
+    currentVersion: sub?.currentVersion ?? 0,
+    isLocked: !lock.isOpen,
+    locksAt: lock.locksAt?.toISOString() ?? null,
+    versions: versions.map(versionDto),
+  };
+}
+
+function assertOpen(lock: ReturnType<typeof lockState>): void {
+  if (!lock.isOpen) throw conflict('submission_locked', `Results can no longer change: ${lock.reason}`);
+}
+
+/**
+ * PUT /rounds/{id}/submission: saves the working copy as the lab types. `baseRevision` must be the
+ * revision the client last saw; otherwise 409 draft_conflict (another tab or colleague saved since).
+ * Drafts keep what was typed, even a value the submit would refuse, so nothing is lost.
+ */
+export async function saveDraft(ctx: AppContext, actor: SessionUser, labId: string, roundId: string, input: DraftSave): Promise<DraftSaved> {
+  return ctx.ds.transaction(async (em) => {
+    const { round, enrolment } = await findEnrolment(em, labId, roundId);
+    assertOpen(lockState(round, enrolment));
+    const sub = await lockSubmission(em, enrolment.id);
+    if (sub.draftRevision !== input.baseRevision) {
+      throw conflict('draft_conflict', `The draft changed since revision ${input.baseRevision} (now ${sub.draftRevision}): reload it before saving.`);
+    }
+    const revision = sub.draftRevision + 1;
+    const rows = returned<{ updated_at: Date }>(
+      await em.query(`UPDATE submission SET draft = $2, draft_revision = $3, updated_at = now() WHERE id = $1 RETURNING updated_at`, [
+        sub.id,
+        JSON.stringify(input.data),
+        revision,
+      ]),
+    );
+    await audit(em, actor.id, 'submission.draft-saved', 'submission', sub.id, { roundId, revision });
+    return { draftRevision: revision, savedAt: rows[0]!.updated_at.toISOString() };
+  });
+}
+
+/** Saves a whole draft without the revision check (the workbook upload replaces the draft). */
+export async function replaceDraft(em: EntityManager, actor: SessionUser, submissionId: string, data: SubmissionData, source: string): Promise<number> {
+  const rows = returned<{ draft_revision: number }>(
+    await em.query(
+      `UPDATE submission SET draft = $2, draft_revision = draft_revision + 1, updated_at = now() WHERE id = $1 RETURNING draft_revision`,
+      [submissionId, JSON.stringify(data)],
+    ),
+  );
+  await audit(em, actor.id, 'submission.draft-replaced', 'submission', submissionId, { source, revision: rows[0]!.draft_revision });
+  return rows[0]!.draft_revision;
+}
+
+export { lockSubmission };
+
+/**
+ * POST /rounds/{id}/submission/submit: one new immutable version, atomically. A retry with the same
+ * idempotency key returns the version it made (even after the lock). Concurrent submits are
+ * serialised on the submission row, so each makes exactly one version. After the lock (due date, or
+ * a granted extension) nothing changes.
+ */
+export async function submit(ctx: AppContext, actor: SessionUser, labId: string, roundId: string, input: SubmitRequest): Promise<SubmitResult> {
+  return ctx.ds.transaction(async (em) => {
+    const { enrolment } = await findEnrolment(em, labId, roundId);
+    const sub = await lockSubmission(em, enrolment.id);
+    const earlier: VersionRow[] = await em.query(`${VERSION_SELECT} WHERE v.submission_id = $1 AND v.idempotency_key = $2`, [sub.id, input.idempotencyKey]);
+    if (earlier[0]) return { version: versionDto(earlier[0]), replayed: true };
+
+    // Re-read the round under a share lock: a state change waits for this submit, or this sees it.
+    const [roundRow] = await em.query(`SELECT id FROM round WHERE id = $1 FOR SHARE`, [roundId]);
+    if (!roundRow) throw conflict('submission_locked', 'The round is gone.');
+    const { round, enrolment: fresh } = await findEnrolment(em, labId, roundId);
+    const lock = lockState(round, fresh);
+    assertOpen(lock);
+
+    const data = input.data ?? SubmissionData.parse(sub.draft ?? {});
+    const rules = await roundRules(em, roundId, round.protocolTemperatureC);
+    const outcome = checkResults(data, rules, true);
+    if (outcome.errors.length) {
+      throw ruleBroken('results_invalid', `${outcome.errors[0]!.path}: ${outcome.errors[0]!.message}`, outcome.errors);
+    }
+    if (outcome.unacknowledged.length) {
+      throw ruleBroken(
+        'warnings_unacknowledged',
+        `acknowledgedWarnings: acknowledge ${outcome.unacknowledged.length} warning(s) before submitting: ${outcome.unacknowledged[0]!.message}`,
+        outcome.unacknowledged,
+      );
+    }
+    const instruments = [...new Set(data.items.map((i) => i.conditions.instrument).filter(Boolean))];
+    const check = await latestCheckFor(em, labId, instruments);
+    const notice = instrumentCheckNotice(check ? { passed: check.passed, instrument: check.instrument, checkedAt: check.checkedAt.toISOString() } : null);
+    if (notice && !data.explanation.trim()) {
+      throw ruleBroken('instrument_check_explanation_required', `explanation: ${notice}`, [{ path: 'explanation', message: notice }]);
+    }
+
+    const version = sub.currentVersion + 1;
+    await em.query(
+      `INSERT INTO submission_version (submission_id, version, data, submitted_by, note, idempotency_key, is_late, instrument_check_id)
+       VALUES ($1, $2, $3, $4, $5, $6, $7, $8)`,
+      [sub.id, version, JSON.stringify(data), actor.id, input.note ?? null, input.idempotencyKey, lock.isLate, check?.id ?? null],
+    );
+    await em.query(
+      `UPDATE submission SET state = 'submitted', current_version = $2, submitted_at = now(), updated_at = now()
+         ${input.data ? ', draft = $3, draft_revision = draft_revision + 1' : ''}
+       WHERE id = $1`,
+      [sub.id, version, ...(input.data ? [JSON.stringify(input.data)] : [])],
+    );
+    await audit(em, actor.id, version === 1 ? 'submission.submitted' : 'submission.amended', 'submission', sub.id, {
+      roundId,
+      version,
+      isLate: lock.isLate,
+      extensionUntil: fresh.extensionUntil?.toISOString() ?? null,
+      instrumentCheckId: check?.id ?? null,
+      instrumentCheckPassed: check?.passed ?? null,
+      acknowledgedWarnings: outcome.warnings.map((w) => w.code),
+    });
+    const [row] = (await em.query(`${VERSION_SELECT} WHERE v.submission_id = $1 AND v.version = $2`, [sub.id, version])) as VersionRow[];
+    return { version: versionDto(row!), replayed: false };
+  });
+}

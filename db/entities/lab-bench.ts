@@ -1,0 +1,44 @@
+import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+
+/** A lab's check of one instrument against a reference material (history per instrument). */
+@Entity({ name: 'instrument_check' })
+export class InstrumentCheck {
+  @PrimaryGeneratedColumn('uuid') id!: string;
+  @Column({ type: 'uuid', name: 'organisation_id' }) organisationId!: string;
+  @Column({ type: 'text' }) instrument!: string;
+  @Column({ type: 'text' }) material!: string;
+  @Column({ type: 'double precision', name: 'reference_value_nm' }) referenceValueNm!: number;
+  @Column({ type: 'double precision', name: 'tolerance_nm' }) toleranceNm!: number;
+  @Column({ type: 'double precision', name: 'pdi_limit' }) pdiLimit!: number;
+  @Column({ type: 'double precision', name: 'set_point_c' }) setPointC!: number;
+  @Column({ type: 'double precision', name: 'temperature_tolerance_c' }) temperatureToleranceC!: number;
+  @Column({ type: 'double precision', name: 'min_equilibration_min' }) minEquilibrationMin!: number;
+  /** shared/contracts/bench InstrumentCheckRun[] */
+  @Column({ type: 'jsonb' }) runs!: unknown[];
+  @Column({ type: 'boolean' }) passed!: boolean;
+  /** shared/bench InstrumentCheckVerdict */
+  @Column({ type: 'jsonb' }) verdict!: Record<string, unknown>;
+  @Column({ type: 'text', default: '' }) notes!: string;
+  @Column({ type: 'timestamptz', name: 'checked_at' }) checkedAt!: Date;
+  @Column({ type: 'uuid', name: 'recorded_by', nullable: true }) recordedBy!: string | null;
+  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
+}
+
+/** A raw-data file attached to a submission; the bytes live in PostgreSQL. */
+@Entity({ name: 'attachment' })
+export class Attachment {
+  @PrimaryGeneratedColumn('uuid') id!: string;
+  @Column({ type: 'uuid', name: 'submission_id' }) submissionId!: string;
+  @Column({ type: 'uuid', name: 'test_item_id', nullable: true }) testItemId!: string | null;
+  @Column({ type: 'text', name: 'file_name' }) fileName!: string;
+  /** Detected from the content, never taken from the client. */
+  @Column({ type: 'text', name: 'content_type' }) contentType!: string;
+  @Column({ type: 'text' }) kind!: 'correlation-csv' | 'text' | 'pdf' | 'xlsx';
+  @Column({ type: 'integer', name: 'size_bytes' }) sizeBytes!: number;
+  @Column({ type: 'text' }) sha256!: string;
+  @Column({ type: 'bytea', select: false }) data!: Buffer;
+  /** shared/contracts/bench Reanalysis (correlation CSVs only). */
+  @Column({ type: 'jsonb', nullable: true }) reanalysis!: Record<string, unknown> | null;
+  @Column({ type: 'uuid', name: 'uploaded_by', nullable: true }) uploadedBy!: string | null;
+  @CreateDateColumn({ type: 'timestamptz', name: 'uploaded_at' }) uploadedAt!: Date;
+}

@@ -1,0 +1,256 @@
+import * as z from 'zod';
+import { Id, Timestamp } from './common';
+import { RoundState } from './round-states';
+import { SubmissionData } from './submission';
+
+/** The lab a multi-lab user acts for: `?labId=` or the `x-lab-id` header (checked against memberships). */
+export const LabQuery = z.object({ labId: Id.optional() });
+export type LabQuery = z.infer<typeof LabQuery>;
+
+export const RoundIdParams = z.object({ id: Id });
+export const AttachmentParams = z.object({ id: Id, attachmentId: Id });
+
+// ---------------------------------------------------------------- dashboard
+
+/** Where a round stands for this lab (dashboard column). */
+export const MyRoundStatus = z.enum(['invited', 'enrolled', 'due-soon', 'submitted', 'locked', 'published', 'withdrawn']);
+export type MyRoundStatus = z.infer<typeof MyRoundStatus>;
+
+export const MyRound = z.object({
+  roundId: Id,
+  code: z.string(),
+  title: z.string(),
+  state: RoundState,
+  status: MyRoundStatus,
+  participantCode: z.string().nullable(),
+  resultsDueAt: Timestamp.nullable(),
+  extensionUntil: Timestamp.nullable(),
+  /** The later of the due date and the extension: when results lock. */
+  locksAt: Timestamp.nullable(),
+  submittedVersion: z.number().int(),
+  submittedAt: Timestamp.nullable(),
+});
+export type MyRound = z.infer<typeof MyRound>;
+
+// ---------------------------------------------------------------- round detail
+
+export const BenchItem = z.object({
+  id: Id,
+  code: z.string(),
+  material: z.string(),
+  nominalSizeNm: z.number().nullable(),
+  storageNotes: z.string(),
+  handlingNotes: z.string(),
+});
+export type BenchItem = z.infer<typeof BenchItem>;
+
+export const BenchMeasurand = z.object({
+  id: Id,
+  key: z.string(),
+  name: z.string(),
+  unit: z.string(),
+  decimals: z.number().int(),
+  replicatesRequired: z.number().int(),
+});
+export type BenchMeasurand = z.infer<typeof BenchMeasurand>;
+
+export const ShipmentCondition = z.enum(['intact', 'damaged', 'leaked', 'arrived-warm']);
+export type ShipmentCondition = z.infer<typeof ShipmentCondition>;
+
+export const Receipt = z.object({
+  dispatchedOn: z.iso.date().nullable(),
+  receivedOn: z.iso.date().nullable(),
+  condition: ShipmentCondition.nullable(),
+  notes: z.string().nullable(),
+  hasPhoto: z.boolean(),
+});
+export type Receipt = z.infer<typeof Receipt>;
+
+/** PUT /rounds/{id}/receipt (JSON or multipart with an optional `photo` file). */
+export const ReceiptInput = z.object({
+  receivedOn: z.iso.date({ message: 'Give the date the items arrived (YYYY-MM-DD).' }),
+  condition: ShipmentCondition,
+  notes: z.string().trim().max(2000).default(''),
+});
+export type ReceiptInput = z.infer<typeof ReceiptInput>;
+
+/** The usual cautions shown with every handling instruction (QUALITY.md, "Where the work can hurt someone"). */
+export const SAFETY_CAUTIONS: readonly string[] = [
+  'Wear eye protection and gloves when opening and diluting test items.',
+  'Never defeat or bypass the instrument\u2019s laser interlock.',
+  'Follow the safety data sheet of each test item and dispersant, and your lab\u2019s chemical-hygiene plan.',
+  'Local regulations and your lab\u2019s safety officer take precedence over these notes.',
+];
+
+export const SubmissionState = z.object({
+  state: z.enum(['none', 'draft', 'submitted']),
+  currentVersion: z.number().int(),
+  submittedAt: Timestamp.nullable(),
+  draftRevision: z.number().int(),
+});
+
+export const MyRoundDetail = MyRound.extend({
+  instructions: z.string(),
+  safetyCautions: z.array(z.string()),
+  protocolTemperatureC: z.number(),
+  acceptsResults: z.boolean(),
+  isLocked: z.boolean(),
+  items: z.array(BenchItem),
+  measurands: z.array(BenchMeasurand),
+  receipt: Receipt.nullable(),
+  submission: SubmissionState,
+});
+export type MyRoundDetail = z.infer<typeof MyRoundDetail>;
+
+// ---------------------------------------------------------------- instrument check
+
+export const InstrumentCheckRun = z.object({
+  zAverageNm: z.number().positive({ message: 'Z-average must be above 0 nm.' }),
+  pdi: z.number().min(0, { message: 'PDI must be between 0 and 1.' }).max(1, { message: 'PDI must be between 0 and 1.' }),
+  temperatureC: z.number().min(-5).max(95),
+  equilibrationMin: z.number().min(0).max(240),
+});
+export type InstrumentCheckRun = z.infer<typeof InstrumentCheckRun>;
+
+export const InstrumentCheckInput = z.object({
+  instrument: z.string().trim().min(1, { message: 'Name the instrument.' }).max(200),
+  material: z.string().trim().min(1, { message: 'Name the reference material.' }).max(200),
+  referenceValueNm: z.number().positive(),
+  toleranceNm: z.number().positive(),
+  pdiLimit: z.number().gt(0).max(1),
+  setPointC: z.number().min(-5).max(95),
+  temperatureToleranceC: z.number().positive().max(10),
+  minEquilibrationMin: z.number().min(0).max(240),
+  runs: z.array(InstrumentCheckRun).min(3, { message: 'Record at least three runs.' }).max(20),
+  checkedAt: Timestamp.optional(),
+  notes: z.string().trim().max(2000).default(''),
+});
+export type InstrumentCheckInput = z.infer<typeof InstrumentCheckInput>;
+
+export const InstrumentCheckReason = z.object({ code: z.string(), message: z.string() });
+export const InstrumentCheckVerdict = z.object({
+  passed: z.boolean(),
+  meanZAverageNm: z.number(),
+  meanPdi: z.number(),
+  maxPdi: z.number(),
+  /** Every failed criterion (empty when passed). */
+  reasons: z.array(InstrumentCheckReason),
+});
+export type InstrumentCheckVerdict = z.infer<typeof InstrumentCheckVerdict>;
+
+export const InstrumentCheck = InstrumentCheckInput.omit({ checkedAt: true }).extend({
+  id: Id,
+  checkedAt: Timestamp,
+  recordedBy: z.string().nullable(),
+  verdict: InstrumentCheckVerdict,
+});
+export type InstrumentCheck = z.infer<typeof InstrumentCheck>;
+
+export const InstrumentCheckQuery = LabQuery.extend({ instrument: z.string().trim().max(200).optional() });
+
+// ---------------------------------------------------------------- submission
+
+export const DraftSave = z.object({
+  data: SubmissionData,
+  /** The revision this draft was based on (0 for the first save): a mismatch answers 409. */
+  baseRevision: z.number().int().min(0),
+});
+export type DraftSave = z.infer<typeof DraftSave>;
+
+export const DraftSaved = z.object({ draftRevision: z.number().int(), savedAt: Timestamp });
+export type DraftSaved = z.infer<typeof DraftSaved>;
+
+export const SubmissionVersionDto = z.object({
+  version: z.number().int(),
+  data: SubmissionData,
+  submittedAt: Timestamp,
+  submittedBy: z.string().nullable(),
+  note: z.string().nullable(),
+  isLate: z.boolean(),
+});
+export type SubmissionVersionDto = z.infer<typeof SubmissionVersionDto>;
+
+export const SubmissionView = z.object({
+  state: z.enum(['none', 'draft', 'submitted']),
+  draft: SubmissionData,
+  draftRevision: z.number().int(),
+  savedAt: Timestamp.nullable(),
+  currentVersion: z.number().int(),
+  isLocked: z.boolean(),
+  locksAt: Timestamp.nullable(),
+  versions: z.array(SubmissionVersionDto),
+});
+export type SubmissionView = z.infer<typeof SubmissionView>;
+
+export const SubmitRequest = z.object({
+  /** A key the client makes once per submit intent (e.g. a UUID); a retry with it returns the same version. */
+  idempotencyKey: z.string().trim().min(8).max(100),
+  /** The results to submit; omitted means the saved draft. */
+  data: SubmissionData.optional(),
+  /** For an amendment: what changed and why. */
+  note: z.string().trim().max(2000).optional(),
+});
+export type SubmitRequest = z.infer<typeof SubmitRequest>;
+
+export const SubmitResult = z.object({
+  version: SubmissionVersionDto,
+  /** True when this request replayed an earlier submit with the same key. */
+  replayed: z.boolean(),
+});
+export type SubmitResult = z.infer<typeof SubmitResult>;
+
+// ---------------------------------------------------------------- attachments
+
+export const Reanalysis = z.object({
+  ok: z.boolean(),
+  /** Why the file could not be analysed (when ok is false). */
+  error: z.string().nullable(),
+  zAverageNm: z.number().nullable(),
+  pdi: z.number().nullable(),
+  labZAverageNm: z.number().nullable(),
+  labPdi: z.number().nullable(),
+  disagrees: z.boolean(),
+  messages: z.array(z.string()),
+  /** The physics the fit used (from the item's conditions, defaults where missing). */
+  parameters: z.object({
+    temperatureC: z.number(),
+    viscosityMPas: z.number(),
+    refractiveIndex: z.number(),
+    wavelengthNm: z.number(),
+    angleDeg: z.number(),
+  }),
+});
+export type Reanalysis = z.infer<typeof Reanalysis>;
+
+export const AttachmentKind = z.enum(['correlation-csv', 'text', 'pdf', 'xlsx']);
+export const AttachmentDto = z.object({
+  id: Id,
+  fileName: z.string(),
+  contentType: z.string(),
+  kind: AttachmentKind,
+  sizeBytes: z.number().int(),
+  sha256: z.string(),
+  testItemId: Id.nullable(),
+  uploadedBy: z.string().nullable(),
+  uploadedAt: Timestamp,
+  reanalysis: Reanalysis.nullable(),
+});
+export type AttachmentDto = z.infer<typeof AttachmentDto>;
+
+/** Multipart fields beside the `file` part. */
+export const AttachmentUploadFields = LabQuery.extend({ testItemId: Id.optional() });
+
+/** 20 MB per uploaded file. */
+export const MAX_ATTACHMENT_BYTES = 20 * 1024 * 1024;
+
+// ---------------------------------------------------------------- bulk entry
+
+export const SheetIssue = z.object({ sheet: z.string(), row: z.number().int(), column: z.string(), message: z.string() });
+export type SheetIssue = z.infer<typeof SheetIssue>;
+
+export const WorkbookUploadResult = z.object({
+  draftRevision: z.number().int(),
+  data: SubmissionData,
+  warnings: z.array(z.object({ code: z.string(), path: z.string(), message: z.string() })),
+});
+export type WorkbookUploadResult = z.infer<typeof WorkbookUploadResult>;

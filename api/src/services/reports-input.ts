@@ -1,0 +1,150 @@
+/**
+ * Gathers what the report builders read from the stored round and its stored evaluation
+ * (reports/model.ts). Nothing is recomputed: the numbers are the evaluation's record.
+ */
+import type { EntityManager } from 'typeorm';
+import type { ParticipantReportInput, ReportStudy, RoundReportInput } from '../../../reports/model';
+import type { TrackSeries } from '../../../shared/contracts/evaluation';
+import { rescaledSumZ, runRules } from '../../../shared/evaluation/run-rules';
+import { notFound } from '../http/errors';
+import { loadResults } from './evaluation';
+
+export interface EvaluationHead {
+  id: string;
+  round_id: string;
+  version: number;
+  state: 'draft' | 'committed' | 'published';
+  published_at: Date | null;
+  computed_at: Date;
+  reissue_reason: string | null;
+  software_version: string;
+}
+
+/** The newest evaluation of a round (published only, or any state), or null. */
+export async function evaluationHead(em: EntityManager, roundId: string, publishedOnly: boolean): Promise<EvaluationHead | null> {
+  const rows: EvaluationHead[] = await em.query(
+    `SELECT id, round_id, version, state, published_at, computed_at, reissue_reason, software_version FROM evaluation
+      WHERE round_id = $1 ${publishedOnly ? `AND state = 'published'` : ''} ORDER BY version DESC LIMIT 1`,
+    [roundId],
+  );
+  return rows[0] ?? null;
+}
+
+export async function roundReportInput(em: EntityManager, head: EvaluationHead): Promise<RoundReportInput> {
+  const rounds: {
+    id: string; code: string; title: string; kind: 'pt' | 'precision'; state: string; instructions: string; protocol_temperature_c: number;
+    results_due_at: Date | null; scheme_code: string; scheme_name: string; scheme_description: string;
+  }[] = await em.query(
+    `SELECT r.id, r.code, r.title, r.kind, r.state, r.instructions, r.protocol_temperature_c, r.results_due_at,
+            s.code AS scheme_code, s.name AS scheme_name, s.description AS scheme_description
+       FROM round r JOIN scheme s ON s.id = r.scheme_id WHERE r.id = $1`,
+    [head.round_id],
+  );
+  const r = rounds[0];
+  if (!r) throw notFound('The round');
+  const items: { id: string; code: string; material: string; nominal_size_nm: number | null; storage_notes: string; handling_notes: string }[] = await em.query(
+    'SELECT id, code, material, nominal_size_nm, storage_notes, handling_notes FROM test_item WHERE round_id = $1 ORDER BY position, code',
+    [r.id],
+  );
+  const measurands: { id: string; key: string; name: string; unit: string; decimals: number; replicates_required: number }[] = await em.query(
+    'SELECT id, key, name, unit, decimals, replicates_required FROM measurand WHERE round_id = $1 ORDER BY position, key',
+    [r.id],
+  );
+  // Read straight from the Round desk's table (its service has no plain reader for reports).
+  const studies: { item_code: string; measurand_key: string; kind: 'homogeneity' | 'stability'; sigma_pt: number; passes: boolean; decision: string | null; decision_reason: string | null; result: Record<string, unknown> }[] =
+    await em.query(
+      `SELECT ti.code AS item_code, m.key AS measurand_key, h.kind, h.sigma_pt, h.passes, h.decision, h.decision_reason, h.result
+         FROM homogeneity_study h JOIN test_item ti ON ti.id = h.test_item_id JOIN measurand m ON m.id = h.measurand_id
+        WHERE h.round_id = $1 ORDER BY ti.position, ti.code, m.position, h.kind`,
+      [r.id],
+    );
+  const { results, inputs } = await loadResults(em, head.id);
+  const groups = results.map((g) => {
+    const rows = inputs.find((i) => i.testItemId === g.testItemId && i.measurandId === g.measurandId)?.rows ?? [];
+    const replicates: Record<string, number[]> = {};
+    for (const row of rows) replicates[row.code] = row.values;
+    return { ...g, replicates };
+  });
+  return {
+    round: {
+      id: r.id,
+      code: r.code,
+      title: r.title,
+      kind: r.kind,
+      state: r.state,
+      schemeCode: r.scheme_code,
+      schemeName: r.scheme_name,
+      schemeDescription: r.scheme_description,
+      instructions: r.instructions,
+      protocolTemperatureC: r.protocol_temperature_c,
+      resultsDueAt: r.results_due_at?.toISOString() ?? null,
+    },
+    items: items.map((i) => ({ id: i.id, code: i.code, material: i.material, nominalSizeNm: i.nominal_size_nm, storageNotes: i.storage_notes, handlingNotes: i.handling_notes })),
+    measurands: measurands.map((m) => ({ id: m.id, key: m.key, name: m.name, unit: m.unit, decimals: m.decimals, replicatesRequired: m.replicates_required })),
+    studies: studies.map((s): ReportStudy => ({
+      itemCode: s.item_code,
+      measurandKey: s.measurand_key,
+      kind: s.kind,
+      sigmaPt: s.sigma_pt,
+      passes: s.passes,
+      decision: s.decision,
+      decisionReason: s.decision_reason,
+      result: s.result,
+    })),
+    evaluation: {
+      id: head.id,
+      version: head.version,
+      state: head.state,
+      publishedAt: head.published_at?.toISOString() ?? null,
+      computedAt: head.computed_at.toISOString(),
+      reissueReason: head.reissue_reason,
+      softwareVersion: head.software_version,
+    },
+    groups,
+    generatedAt: new Date().toISOString(),
+  };
+}
+
+/**
+ * A lab's Track record for its individual report. The Evaluation engineer's track-record
+ * service reads the signed-in lab member's own lab; reports also need it for an assessor's
+ * granting lab, so this is the same query keyed by the lab id.
+ */
+export async function labTrackRecord(em: EntityManager, labId: string): Promise<TrackSeries[]> {
+  const rows: { round_id: string; round_code: string; published_at: Date | null; item_code: string; measurand_key: string; measurand_name: string; z: number | null; zp: number | null; kind: string; signal: 'acceptable' | 'warning' | 'action' | null }[] =
+    await em.query(
+      `SELECT r.id AS round_id, r.code AS round_code, e.published_at, er.item_code, er.measurand_key,
+              COALESCE(er.constants->>'measurandName', er.measurand_key) AS measurand_name,
+              (p->>'z')::float8 AS z, (p->>'zPrime')::float8 AS zp, p->>'scoreKind' AS kind, p->>'signal' AS signal
+         FROM enrolment en
+         JOIN round r ON r.id = en.round_id
+         JOIN LATERAL (SELECT * FROM evaluation x WHERE x.round_id = r.id AND x.state = 'published' ORDER BY x.version DESC LIMIT 1) e ON true
+         JOIN evaluation_result er ON er.evaluation_id = e.id
+         CROSS JOIN LATERAL jsonb_array_elements(er.participants) p
+        WHERE en.organisation_id = $1 AND p->>'code' = en.participant_code
+        ORDER BY e.published_at, r.code, er.item_code`,
+      [labId],
+    );
+  const series = new Map<string, TrackSeries>();
+  for (const r of rows) {
+    const z = r.kind === 'zPrime' ? r.zp : r.z;
+    if (z === null || r.signal === null) continue;
+    let s = series.get(r.measurand_key);
+    if (!s) series.set(r.measurand_key, (s = { measurandKey: r.measurand_key, measurandName: r.measurand_name, points: [], rsz: null, findings: [] }));
+    s.points.push({ roundId: r.round_id, roundCode: r.round_code, publishedAt: r.published_at?.toISOString() ?? null, itemCode: r.item_code, z, signal: r.signal });
+  }
+  for (const s of series.values()) {
+    s.rsz = rescaledSumZ(s.points.map((p) => p.z));
+    s.findings = runRules(s.points.map((p) => ({ z: p.z, label: `${p.roundCode} ${p.itemCode}` })));
+  }
+  return [...series.values()];
+}
+
+export async function participantReportInput(
+  em: EntityManager,
+  head: EvaluationHead,
+  lab: { organisationId: string; participantCode: string; labName: string },
+): Promise<ParticipantReportInput> {
+  const base = await roundReportInput(em, head);
+  return { ...base, participantCode: lab.participantCode, labName: lab.labName, track: await labTrackRecord(em, lab.organisationId) };
+}

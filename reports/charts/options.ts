@@ -1,0 +1,158 @@
+/**
+ * Chart options for the reports, as pure functions of the stored record (ECharts option
+ * objects; the same library the browser uses). Colours and shapes follow VOCABULARY.md:
+ * acceptable teal circle, warning saffron triangle, action carmine diamond.
+ */
+import type { ParticipantScore, TrackSeries } from '../../shared/contracts/evaluation';
+import { mainScore, type ReportGroup } from '../model';
+import { PALETTE, SIGNAL_COLOURS } from '../text';
+
+type Option = Record<string, unknown>;
+
+const SHAPES = { acceptable: 'circle', warning: 'triangle', action: 'diamond' } as const;
+const BASE = { animation: false, textStyle: { fontFamily: 'sans-serif', color: PALETTE.ink } };
+
+function limitLines(values: { y: number; label: string; colour: string }[]): Option {
+  return {
+    silent: true,
+    symbol: 'none',
+    label: { show: true, position: 'end', formatter: '{b}', fontSize: 9 },
+    lineStyle: { type: 'dashed', width: 1 },
+    data: values.map((v) => ({ yAxis: v.y, name: v.label, lineStyle: { color: v.colour } })),
+  };
+}
+
+/**
+ * Scores of every participant in ascending order (bars coloured by signal), with the warning
+ * (±2) and action (±3) limits of ISO 13528:2015 §9. Scores beyond ±5 are drawn at ±5.
+ */
+export function scoreBarOption(g: ReportGroup, highlightCode?: string): Option {
+  const rows = g.participants
+    .map((p) => ({ p, s: mainScore(p) }))
+    .filter((r): r is { p: ParticipantScore; s: number } => r.s !== null)
+    .sort((a, b) => a.s - b.s);
+  const kind = g.uNegligible === false ? 'z′' : 'z';
+  return {
+    ...BASE,
+    grid: { left: 40, right: 40, top: 30, bottom: 30 },
+    title: { text: `${kind}-scores, item ${g.itemCode}, ${g.measurandName}`, left: 'center', textStyle: { fontSize: 12, color: PALETTE.ink } },
+    xAxis: { type: 'category', data: rows.map((r) => r.p.code), axisLabel: { show: rows.length <= 40, fontSize: 8, rotate: 90 }, axisTick: { show: false } },
+    yAxis: { type: 'value', min: -5, max: 5, interval: 1, axisLabel: { fontSize: 9 }, splitLine: { lineStyle: { color: '#e6e9ed' } } },
+    // Past 200 participants the sorted scores are one line (one SVG path instead of a bar each).
+    series: [
+      rows.length > 200
+        ? {
+            type: 'line',
+            symbol: 'none',
+            data: rows.map((r) => Math.max(-5, Math.min(5, r.s))),
+            lineStyle: { color: PALETTE.ink, width: 1.5 },
+            markLine: limitLines([
+              { y: 3, label: '+3', colour: PALETTE.carmine },
+              { y: 2, label: '+2', colour: PALETTE.saffron },
+              { y: -2, label: '−2', colour: PALETTE.saffron },
+              { y: -3, label: '−3', colour: PALETTE.carmine },
+            ]),
+            ...(highlightCode && rows.some((r) => r.p.code === highlightCode)
+              ? {
+                  markPoint: {
+                    symbol: 'pin',
+                    symbolSize: 24,
+                    itemStyle: { color: PALETTE.carmine },
+                    label: { fontSize: 8, formatter: 'you' },
+                    data: [{ coord: [rows.findIndex((r) => r.p.code === highlightCode), Math.max(-5, Math.min(5, rows.find((r) => r.p.code === highlightCode)!.s))] }],
+                  },
+                }
+              : {}),
+          }
+        : {
+        type: 'bar',
+        barCategoryGap: '20%',
+        data: rows.map((r) => ({
+          value: Math.max(-5, Math.min(5, r.s)),
+          itemStyle: {
+            color: r.p.code === highlightCode ? PALETTE.ink : SIGNAL_COLOURS[r.p.signal ?? 'acceptable'],
+          },
+        })),
+        markLine: limitLines([
+          { y: 3, label: '+3', colour: PALETTE.carmine },
+          { y: 2, label: '+2', colour: PALETTE.saffron },
+          { y: -2, label: '−2', colour: PALETTE.saffron },
+          { y: -3, label: '−3', colour: PALETTE.carmine },
+        ]),
+      },
+    ],
+  };
+}
+
+/**
+ * Histogram of the participants' means with the assigned value and x_pt ± 2σ_pt marked; the
+ * viewer's own result (individual report) as a marked line.
+ */
+export function distributionOption(g: ReportGroup, ownResult?: number): Option {
+  const values = g.participants.map((p) => p.result).filter((v) => Number.isFinite(v));
+  const x = g.assignedValue ?? values[0] ?? 0;
+  const s = g.sigmaPt ?? ((Math.max(...values) - Math.min(...values)) / 8 || 1);
+  const lo = x - 5 * s;
+  const hi = x + 5 * s;
+  const bins = 40;
+  const w = (hi - lo) / bins;
+  const counts = new Array<number>(bins).fill(0);
+  for (const v of values) counts[Math.max(0, Math.min(bins - 1, Math.floor((v - lo) / w)))]!++;
+  const centre = (i: number) => lo + (i + 0.5) * w;
+  const lines: Option[] = [{ xAxis: x, name: 'x_pt', lineStyle: { color: PALETTE.ink, type: 'solid', width: 1.5 } }];
+  if (g.sigmaPt !== null) {
+    lines.push({ xAxis: x - 2 * s, name: '−2σ', lineStyle: { color: PALETTE.saffron } }, { xAxis: x + 2 * s, name: '+2σ', lineStyle: { color: PALETTE.saffron } });
+  }
+  if (ownResult !== undefined) lines.push({ xAxis: Math.max(lo, Math.min(hi, ownResult)), name: 'you', lineStyle: { color: PALETTE.carmine, type: 'solid', width: 2 } });
+  const d = Math.max(0, g.decimals);
+  return {
+    ...BASE,
+    grid: { left: 40, right: 20, top: 30, bottom: 30 },
+    title: { text: `Results, item ${g.itemCode}, ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`, left: 'center', textStyle: { fontSize: 12, color: PALETTE.ink } },
+    xAxis: { type: 'value', min: lo, max: hi, axisLabel: { fontSize: 9, formatter: (v: number) => v.toFixed(d) } },
+    yAxis: { type: 'value', minInterval: 1, axisLabel: { fontSize: 9 }, splitLine: { lineStyle: { color: '#e6e9ed' } } },
+    series: [
+      {
+        type: 'bar',
+        barWidth: '95%',
+        data: counts.map((c, i) => [centre(i), c]),
+        itemStyle: { color: '#8fb3c9' },
+        markLine: { silent: true, symbol: 'none', label: { show: true, position: 'end', formatter: '{b}', fontSize: 9 }, lineStyle: { type: 'dashed' }, data: lines },
+      },
+    ],
+  };
+}
+
+/** A lab's Track record: its z (or z′) per round, one line per measurand, limits ±2 and ±3. */
+export function trackRecordOption(series: TrackSeries[]): Option {
+  const labels = [...new Set(series.flatMap((s) => s.points.map((p) => `${p.roundCode} ${p.itemCode}`)))];
+  return {
+    ...BASE,
+    grid: { left: 40, right: 40, top: 40, bottom: 50 },
+    title: { text: 'Track record', left: 'center', textStyle: { fontSize: 12, color: PALETTE.ink } },
+    legend: { top: 18, textStyle: { fontSize: 9 } },
+    xAxis: { type: 'category', data: labels, axisLabel: { fontSize: 8, rotate: 30 } },
+    yAxis: { type: 'value', min: -4, max: 4, interval: 1, axisLabel: { fontSize: 9 }, splitLine: { lineStyle: { color: '#e6e9ed' } } },
+    series: series.map((s, i) => ({
+      type: 'line',
+      name: s.measurandName,
+      lineStyle: { color: i === 0 ? PALETTE.ink : PALETTE.teal },
+      itemStyle: { color: i === 0 ? PALETTE.ink : PALETTE.teal },
+      data: labels.map((l) => {
+        const p = s.points.find((q) => `${q.roundCode} ${q.itemCode}` === l);
+        return p
+          ? { value: Math.max(-4, Math.min(4, p.z)), symbol: SHAPES[p.signal], symbolSize: 8, itemStyle: { color: SIGNAL_COLOURS[p.signal] } }
+          : null;
+      }),
+      markLine:
+        i === 0
+          ? limitLines([
+              { y: 3, label: '+3', colour: PALETTE.carmine },
+              { y: 2, label: '+2', colour: PALETTE.saffron },
+              { y: -2, label: '−2', colour: PALETTE.saffron },
+              { y: -3, label: '−3', colour: PALETTE.carmine },
+            ])
+          : undefined,
+    })),
+  };
+}

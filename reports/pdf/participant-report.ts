@@ -1,0 +1,98 @@
+/**
+ * A lab's individual report (PDF): its own results and scores per item × measurand with a
+ * plain explanation, its position in the distribution (rank and the histogram with its result
+ * marked), the score chart with its code marked, and its Track record. Other labs appear only
+ * as codes (in the charts, unnamed bars).
+ */
+import { explainScore } from '../../shared/evaluation/explain';
+import { distributionOption, scoreBarOption, trackRecordOption } from '../charts/options';
+import { renderChartSvg } from '../charts/render';
+import { mainScore, type ParticipantReportInput, type ReportGroup } from '../model';
+import { fixed, hintWords, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
+import { createDoc, finishDoc, heading, MARGIN, table, write, type Doc } from './document';
+import { CONFIDENTIALITY, cover, footerText } from './round-report';
+import { drawSvg } from './svg';
+
+/** Share of the other participants' results below this one (0–100 %), and the rank from the lowest. */
+export function position(g: ReportGroup, code: string): { rank: number; of: number; percentBelow: number } | null {
+  const own = g.participants.find((p) => p.code === code);
+  if (!own) return null;
+  const values = g.participants.map((p) => p.result).sort((a, b) => a - b);
+  const below = values.filter((v) => v < own.result).length;
+  return { rank: below + 1, of: values.length, percentBelow: values.length > 1 ? (100 * below) / (values.length - 1) : 0 };
+}
+
+function ownGroup(doc: Doc, input: ParticipantReportInput, g: ReportGroup, index: number): void {
+  const p = g.participants.find((x) => x.code === input.participantCode);
+  if (!p) return;
+  doc.addPage();
+  const u = g.unit ? ` ${g.unit}` : '';
+  heading(doc, `${index + 1} Item ${g.itemCode}: ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`);
+  write(doc, `Assigned value x_pt = ${fixed(g.assignedValue, g.decimals + 1)}${u}   u(x_pt) = ${fixed(g.uAssigned, g.decimals + 1)}${u}   σ_pt = ${fixed(g.sigmaPt, g.decimals + 1)}${u}   n = ${g.n}`, { size: 10, gap: 4 });
+  const reps = g.replicates[p.code] ?? [];
+  table(
+    doc,
+    [
+      { title: 'Your replicates', width: 150 },
+      { title: `Mean${u}`, width: 60, align: 'right' },
+      { title: 'z', width: 45, align: 'right' },
+      { title: 'z′', width: 45, align: 'right' },
+      { title: 'ζ', width: 45, align: 'right' },
+      { title: 'En', width: 45, align: 'right' },
+      { title: 'Signal', width: 100 },
+    ],
+    [[
+      reps.map((v) => fixed(v, g.decimals)).join('  '),
+      fixed(p.result, g.decimals),
+      fixed(p.z, SCORE_DECIMALS),
+      fixed(p.zPrime, SCORE_DECIMALS),
+      fixed(p.zeta, SCORE_DECIMALS),
+      fixed(p.en, SCORE_DECIMALS),
+      p.signal ? { text: SIGNAL_WORDS[p.signal], colour: SIGNAL_COLOURS[p.signal], bold: true } : '—',
+    ]],
+    9,
+  );
+  const pos = position(g, p.code);
+  if (pos) write(doc, `Position: your result is number ${pos.rank} of ${pos.of} from the lowest; ${pos.percentBelow.toFixed(0)} % of the other results are lower.`, { size: 9.5, gap: 3 });
+  const s = mainScore(p);
+  for (const line of explainScore(p, { measurandName: g.measurandName, unit: g.unit, decimals: g.decimals, assignedValue: g.assignedValue, sigmaPt: g.sigmaPt, uAssigned: g.uAssigned })) {
+    write(doc, line, { size: 9.5, gap: 2 });
+  }
+  for (const h of p.hints) write(doc, `Hint: ${hintWords(h.code)}.`, { size: 9.5, colour: PALETTE.saffron });
+  if (p.excluded) write(doc, `Your result was kept out of the assigned value (${p.excluded.rule}): ${p.excluded.reason}. It is still scored.`, { size: 9.5 });
+  const width = (doc.page.width - 2 * MARGIN - 10) / 2;
+  const y = doc.y + 6;
+  const h1 = drawSvg(doc, renderChartSvg(distributionOption(g, p.result), 400, 260), MARGIN, y, width);
+  const h2 = drawSvg(doc, renderChartSvg(scoreBarOption(g, p.code), 400, 260), MARGIN + width + 10, y, width);
+  doc.y = y + Math.max(h1, h2) + 4;
+  doc.x = MARGIN;
+  if (s !== null) write(doc, 'In the charts your result is the line marked “you” and your score is drawn darker (or pinned).', { size: 8, colour: PALETTE.grey });
+}
+
+/** Builds a lab's individual report; resolves to the PDF bytes. */
+export async function buildParticipantReportPdf(input: ParticipantReportInput): Promise<Buffer> {
+  const { doc, done } = createDoc({
+    title: `Individual report ${input.round.code} ${input.participantCode} v${input.evaluation.version}`,
+    subject: 'Proficiency-testing individual report',
+    footer: `${footerText(input, 'individual report')} · participant ${input.participantCode}`,
+  });
+  cover(doc, input, 'Individual report', [`Laboratory: ${input.labName}`, `Participant code: ${input.participantCode}`]);
+  input.groups.forEach((g, i) => ownGroup(doc, input, g, i));
+  doc.addPage();
+  heading(doc, `${input.groups.length + 1} Track record`);
+  const points = input.track.reduce((s, t) => s + t.points.length, 0);
+  if (points === 0) write(doc, 'No published score yet.', { size: 9.5 });
+  else {
+    const h = drawSvg(doc, renderChartSvg(trackRecordOption(input.track), 600, 280), MARGIN, doc.y + 4, doc.page.width - 2 * MARGIN);
+    doc.y += h + 8;
+    doc.x = MARGIN;
+    for (const t of input.track) {
+      write(doc, `${t.measurandName}: ${t.points.length} score(s); rescaled sum of z-scores RSZ = ${t.rsz === null ? '—' : t.rsz.toFixed(2)}.`, { size: 9.5 });
+      for (const f of t.findings) write(doc, `• ${f.roundCode}: ${f.message}`, { size: 9.5, colour: PALETTE.saffron });
+    }
+  }
+  doc.moveDown(1);
+  write(doc, CONFIDENTIALITY, { size: 9 });
+  finishDoc(doc);
+  return done;
+}

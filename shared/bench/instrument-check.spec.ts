@@ -1,9 +1,16 @@
-import { DEFAULT_CHECK, judgeInstrumentCheck } from './instrument-check';
+import { judgeInstrumentCheck } from './instrument-check';
 
 // Check values: common practice, no published source (issue 5): a nominal 92 nm latex whose three
 // runs average within 3 nm of 92 nm with PDI ≤ 0.025 at 25 °C after ≥ 5 min equilibration passes;
 // a reading of 115.7 nm with PDI 0.125 fails.
-const spec = { ...DEFAULT_CHECK };
+const spec = {
+  referenceValueNm: 92,
+  toleranceNm: 3,
+  pdiLimit: 0.025,
+  setPointC: 25,
+  temperatureToleranceC: 0.5,
+  minEquilibrationMin: 5,
+};
 const run = (zAverageNm: number, pdi: number, temperatureC = 25, equilibrationMin = 5) => ({ zAverageNm, pdi, temperatureC, equilibrationMin });
 
 describe('judgeInstrumentCheck (common practice values, no published source)', () => {

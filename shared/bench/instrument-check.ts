@@ -92,17 +92,16 @@ export function judgeInstrumentCheck(spec: InstrumentCheckSpec): InstrumentCheck
   return { passed: reasons.length === 0, meanZAverageNm: meanZ, meanPdi, maxPdi, reasons };
 }
 
-/** The check a lab is asked to record before measuring (the form's starting values). */
+/**
+ * The form's starting values. They are placeholders: the lab replaces them with the values on its
+ * own reference material's certificate and its own procedure (set point, equilibration).
+ */
 export const DEFAULT_CHECK = {
-  material: 'Polystyrene latex, nominal 92 nm',
-  referenceValueNm: 92,
-  /** ± 3 nm on the mean of three runs: common practice, no published source. */
-  toleranceNm: 3,
-  /** PDI ≤ 0.025 for a narrow latex: common practice, no published source. */
-  pdiLimit: 0.025,
+  material: '',
+  referenceValueNm: 100,
+  toleranceNm: 2,
+  pdiLimit: 0.05,
   setPointC: 25,
-  /** ± 0.5 K: common practice (project choice). */
   temperatureToleranceC: 0.5,
-  /** At least 5 min equilibration: common practice, no published source. */
-  minEquilibrationMin: 5,
+  minEquilibrationMin: 2,
 } as const;

@@ -28,9 +28,15 @@ describe('Lab bench in a real browser', () => {
     // Instrument check (common practice values: 92 nm latex, three runs within 3 nm, PDI ≤ 0.025)
     const check = passingCheck('Sizer One');
     await page.getByTestId('check-instrument').fill(check.instrument);
+    await page.getByLabel('Reference material').fill(check.material);
+    await page.getByLabel('Reference (nm)').fill(String(check.referenceValueNm));
+    await page.getByLabel('Tolerance (± nm)').fill(String(check.toleranceNm));
+    await page.getByLabel('PDI limit').fill(String(check.pdiLimit));
+    await page.getByLabel('Min. equilibration (min)').fill(String(check.minEquilibrationMin));
     for (const [k, run] of check.runs.entries()) {
       await page.getByLabel(`Check run ${k + 1} Z-average (nm)`).fill(String(run.zAverageNm));
       await page.getByLabel(`Check run ${k + 1} PDI`).fill(String(run.pdi));
+      await page.getByLabel(`Check run ${k + 1} equilibration (min)`).fill(String(run.equilibrationMin));
     }
     expect(await page.getByTestId('check-preview').textContent()).toContain('Passes');
     await page.getByTestId('record-check').click();

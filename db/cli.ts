@@ -24,7 +24,7 @@ async function main(cmd: string | undefined): Promise<void> {
     case 'seed': {
       const ds = await createDataSource(url).initialize();
       await ds.runMigrations({ transaction: 'each' });
-      await seedDemo(ds, password);
+      await seedDemo(ds, password, process.env['PUBLIC_URL']);
       console.log('demo data loaded');
       await ds.destroy();
       return;
@@ -38,7 +38,7 @@ async function main(cmd: string | undefined): Promise<void> {
       await c.end();
       const ds = await createDataSource(url).initialize();
       await ds.runMigrations({ transaction: 'each' });
-      await seedDemo(ds, password);
+      await seedDemo(ds, password, process.env['PUBLIC_URL']);
       await ds.destroy();
       console.log(`database ${name} reset to the demo scenario`);
       return;

@@ -16,7 +16,12 @@ import type { AppConfig } from './config';
 import type { Mailer } from './mail/mailer';
 import { adminRoutes } from './routes/admin';
 import { authRoutes } from './routes/auth';
+import { roundRoutes } from './routes/rounds';
+import { benchRoutes } from './routes/bench';
 import { systemRoutes } from './routes/system';
+import { evaluationRoutes } from './routes/evaluation';
+import { reportRoutes } from './routes/reports';
+import { assessorRoutes } from './routes/assessor';
 import type { AppContext } from './services/context';
 import { RateLimiter } from './services/rate-limit';
 import { VERSION } from './version';
@@ -95,6 +100,11 @@ export function createApp(deps: AppDeps): RingletApp {
   authRoutes(api, ctx, limiter, (req) => csrf.generateToken(req), passport);
   adminRoutes(api, ctx);
   // Feature routes: one line each, below this comment.
+  roundRoutes(api, ctx);
+  evaluationRoutes(api, ctx);
+  benchRoutes(api, ctx);
+  reportRoutes(api, ctx);
+  assessorRoutes(api, ctx);
 
   let openApi: object | undefined;
   const document = () => (openApi ??= buildOpenApi(api.routes, VERSION));

@@ -17,7 +17,7 @@ async function main(): Promise<void> {
   const demoPassword = config.demoPassword ?? DEFAULT_DEMO_PASSWORD;
   if (config.mode === 'demo' && (await isEmpty(ds))) {
     console.log('[ringlet] empty database: loading the demo scenario…');
-    await seedDemo(ds, demoPassword);
+    await seedDemo(ds, demoPassword, config.publicUrl);
   }
   const fake = hasOutbox(config.mode) && !config.smtp ? await startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
   const smtpMailer = createMailer(config, fake ?? undefined);

@@ -5,9 +5,17 @@ import { Organisation } from './organisation';
 import { PasswordToken } from './password-token';
 import { Enrolment, Invitation, Measurand, Round, RoundTransition, Scheme, Shipment, Submission, SubmissionVersion, TestItem } from './round';
 import { User } from './user';
+import { Attachment, InstrumentCheck } from './lab-bench';
+import { HomogeneityStudy, ReminderLog } from './round-desk';
+import { AssessorGrant, Evaluation, EvaluationResult, Investigation } from './evaluation';
+import { Report } from './report';
 
 export { AuditEvent, MailMessage, Membership, Organisation, PasswordToken, User };
 export { Enrolment, Invitation, Measurand, Round, RoundTransition, Scheme, Shipment, Submission, SubmissionVersion, TestItem };
+export { HomogeneityStudy, ReminderLog };
+export { Attachment, InstrumentCheck };
+export { AssessorGrant, Evaluation, EvaluationResult, Investigation };
+export { Report };
 
 /** Every entity, registered with the DataSource. Append new ones at the end. */
 export const entities = [
@@ -27,4 +35,13 @@ export const entities = [
   Shipment,
   Submission,
   SubmissionVersion,
+  HomogeneityStudy,
+  ReminderLog,
+  InstrumentCheck,
+  Attachment,
+  Evaluation,
+  EvaluationResult,
+  Investigation,
+  AssessorGrant,
+  Report,
 ];

@@ -11,6 +11,32 @@ export const DEMO_LABS = [
   { key: 'lab4', name: 'Dunmore Materials Testing', country: 'Southreach' },
 ] as const;
 
+/** The other labs of the scheme (no demo sign-in; they appear to others only by code). */
+export const OTHER_LABS = [
+  'Eskerfield Dispersion Lab',
+  'Fenwick Hollow Analytical',
+  'Glenmarsh Formulation QC',
+  'Harrowgate Surface Science',
+  'Ivybridge Colloid Core Facility',
+  'Juniper Point Instrument Service',
+  'Kestrel Ridge Contract Lab',
+  'Larchwood University Particle Centre',
+  'Millbrook Pharma Quality Lab',
+  'Northcliff Nanomaterials Unit',
+  'Oakhaven Measurement Services',
+  'Pinecrest Biologics Analytics',
+  'Quarry Lane Testing House',
+  'Rowan Heath Physics Core',
+  'Saltmarsh Applied Colloids',
+  'Thornbury Light Scattering Lab',
+  'Upperfold Quality Laboratory',
+  'Valemount Particle Lab',
+  'Westerholm Dispersions QC',
+  'Yarrowby Research Core',
+  'Zephyr Cove Analytical',
+  'Ashcombe Polymer Testing',
+] as const;
+
 export const DEMO_USERS = [
   { email: 'admin@ringlet.example', name: 'Ada Admin', roles: ['admin'], lab: null, manager: false },
   { email: 'coordinator@ringlet.example', name: 'Cora Coordinator', roles: ['coordinator'], lab: null, manager: false },

@@ -1,7 +1,8 @@
 import bcrypt from 'bcryptjs';
 import type { DataSource } from 'typeorm';
 import { Membership, Organisation, User } from '../entities';
-import { DEMO_LABS, DEMO_PROVIDER, DEMO_USERS } from './demo-people';
+import { DEMO_LABS, DEMO_PROVIDER, DEMO_USERS, OTHER_LABS } from './demo-people';
+import { seedScenario } from './demo-scenario';
 
 const BCRYPT_COST = 12;
 
@@ -9,17 +10,22 @@ const BCRYPT_COST = 12;
  * Loads the demo scenario. Idempotent: organisations and users are matched by name and e-mail,
  * so running it twice changes nothing.
  */
-export async function seedDemo(ds: DataSource, password: string): Promise<void> {
+export async function seedDemo(ds: DataSource, password: string, publicUrl?: string): Promise<void> {
   const hash = await bcrypt.hash(password, BCRYPT_COST);
-  await ds.transaction(async (em) => {
-    const orgId = async (name: string, kind: 'lab' | 'provider', country: string) => {
+  const allLabIds = await ds.transaction(async (em) => {
+    const orgId = async (name: string, kind: 'lab' | 'provider', country: string, contactEmail: string | null = null) => {
       const found = await em.findOne(Organisation, { where: { name } });
       if (found) return found.id;
-      return (await em.save(Organisation, em.create(Organisation, { name, kind, country, contactEmail: null }))).id;
+      return (await em.save(Organisation, em.create(Organisation, { name, kind, country, contactEmail }))).id;
     };
     await orgId(DEMO_PROVIDER.name, 'provider', DEMO_PROVIDER.country);
     const labIds = new Map<string, string>();
     for (const lab of DEMO_LABS) labIds.set(lab.key, await orgId(lab.name, 'lab', lab.country));
+    const others: string[] = [];
+    for (const [i, name] of OTHER_LABS.entries()) {
+      const slug = name.toLowerCase().replace(/[^a-z]+/g, '-').replace(/^-|-$/g, '');
+      others.push(await orgId(name, 'lab', ['Northland', 'Eastmark', 'Westvale', 'Southreach'][i % 4]!, `pt-contact@${slug}.example`));
+    }
 
     for (const u of DEMO_USERS) {
       let user = await em.findOne(User, { where: { email: u.email } });
@@ -40,7 +46,9 @@ export async function seedDemo(ds: DataSource, password: string): Promise<void> 
         if (!m) await em.insert(Membership, { userId: user.id, organisationId, isManager: u.manager });
       }
     }
+    return [...DEMO_LABS.map((l) => labIds.get(l.key)!), ...others];
   });
+  await seedScenario(ds, allLabIds, publicUrl);
 }
 
 /** True when the database holds no users yet (a fresh install). */

@@ -74,13 +74,7 @@ export const ReceiptInput = z.object({
 });
 export type ReceiptInput = z.infer<typeof ReceiptInput>;
 
-/** The usual cautions shown with every handling instruction (QUALITY.md, "Where the work can hurt someone"). */
-export const SAFETY_CAUTIONS: readonly string[] = [
-  'Wear eye protection and gloves when opening and diluting test items.',
-  'Never defeat or bypass the instrument\u2019s laser interlock.',
-  'Follow the safety data sheet of each test item and dispersant, and your lab\u2019s chemical-hygiene plan.',
-  'Local regulations and your lab\u2019s safety officer take precedence over these notes.',
-];
+export { SAFETY_CAUTIONS } from './safety';
 
 export const SubmissionState = z.object({
   state: z.enum(['none', 'draft', 'submitted']),

@@ -8,15 +8,9 @@ import { RoundState } from './round-states';
  * and the web forms validate with the same schemas.
  */
 
-/** The usual cautions every set of instructions starts with (QUALITY.md, "Where the work can hurt someone"). */
-export const SAFETY_CAUTIONS = [
-  'Safety: wear eye protection and gloves when handling the test items.',
-  "Never defeat or bypass an instrument's laser interlock.",
-  "Follow the safety data sheet supplied with each item and your lab's chemical-hygiene plan.",
-  "Local regulations and your lab's safety officer take precedence over these instructions.",
-].join('\n');
+import { DEFAULT_INSTRUCTIONS } from './safety';
 
-export const DEFAULT_INSTRUCTIONS = `${SAFETY_CAUTIONS}\n\nMeasure each test item as you would a routine sample, at the protocol temperature, and report every replicate.`;
+export { DEFAULT_INSTRUCTIONS, SAFETY_CAUTIONS } from './safety';
 
 // ---- σ_pt and assigned-value rules (shapes of shared/stats SigmaPtRule / AssignedValueRule) ----
 

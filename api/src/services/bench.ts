@@ -2,6 +2,7 @@ import type { EntityManager } from 'typeorm';
 import { Enrolment, Measurand, Round, Shipment, Submission, TestItem } from '../../../db/entities';
 import type { MyRound, MyRoundDetail, MyRoundStatus, ReceiptInput } from '../../../shared/contracts/bench';
 import { SAFETY_CAUTIONS } from '../../../shared/contracts/bench';
+import { withoutSafetyBlock } from '../../../shared/contracts/safety';
 import { acceptsResults } from '../../../shared/contracts/round-states';
 import type { SessionUser } from '../auth/session-user';
 import { badRequest, conflict, HttpError, notFound, ruleBroken } from '../http/errors';
@@ -144,7 +145,7 @@ export async function getMyRound(ctx: AppContext, labId: string, roundId: string
   const lock = lockState(round, enrolment, now);
   return {
     ...myRound(round, enrolment, sub, now),
-    instructions: round.instructions,
+    instructions: withoutSafetyBlock(round.instructions),
     safetyCautions: [...SAFETY_CAUTIONS],
     protocolTemperatureC: round.protocolTemperatureC,
     acceptsResults: acceptsResults(round.state),

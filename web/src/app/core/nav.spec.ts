@@ -9,9 +9,9 @@ describe('navEntries', () => {
   });
 
   it('gives each role its own entries', () => {
-    expect(labels(aMe({ roles: ['coordinator'] }), false)).toEqual(['Round desk']);
-    expect(labels(aMe({ roles: ['lab'] }), false)).toEqual(['Lab bench', 'Track record']);
-    expect(labels(aMe({ roles: ['assessor'] }), false)).toEqual(['Assessor']);
+    expect(labels(aMe({ roles: ['coordinator'] }), false)).toEqual(['Round desk', 'Consensus board']);
+    expect(labels(aMe({ roles: ['lab'] }), false)).toEqual(['Lab bench', 'Track record', 'Consensus board']);
+    expect(labels(aMe({ roles: ['assessor'] }), false)).toEqual(['Assessor', 'Consensus board']);
     expect(labels(aMe({ roles: ['admin'] }), false)).toEqual(['Users', 'Labs']);
   });
 
@@ -28,6 +28,6 @@ describe('navEntries', () => {
       ],
     });
     const entries = navEntries(manager, true);
-    expect(entries.map((e) => e.path)).toEqual(['/bench', '/bench/track-record', '/bench/lab-members', '/outbox']);
+    expect(entries.map((e) => e.path)).toEqual(['/bench', '/bench/track-record', '/bench/lab-members', '/board', '/outbox']);
   });
 });

@@ -24,6 +24,9 @@ export function navEntries(me: Me | null, hasOutbox: boolean): NavEntry[] {
     entries.push({ label: 'My lab', path: '/bench/lab-members', icon: 'groups' });
   }
   if (roles.has('assessor')) entries.push({ label: 'Assessor', path: '/assessor', icon: 'fact_check' });
+  if (roles.has('coordinator') || roles.has('lab') || roles.has('assessor')) {
+    entries.push({ label: 'Consensus board', path: '/board', icon: 'leaderboard' });
+  }
   if (roles.has('admin')) {
     entries.push({ label: 'Users', path: '/admin/users', icon: 'manage_accounts' });
     entries.push({ label: 'Labs', path: '/admin/labs', icon: 'domain' });

@@ -1,0 +1,107 @@
+/**
+ * Assessor grants: a lab manager lets an assessor read the lab's results, investigations and
+ * evidence for a period. The read rule everyone uses: `grantedLabIds` (active grants only).
+ */
+import { In, type EntityManager } from 'typeorm';
+import { AssessorGrant, Organisation, User } from '../../../db/entities';
+import type { AssessorGrantCreate, AssessorGrantDto } from '../../../shared/contracts/evaluation';
+import { managesLab, type SessionUser } from '../auth/session-user';
+import { notFound, ruleBroken } from '../http/errors';
+import { audit } from './audit';
+import type { AppContext } from './context';
+import { issuePasswordToken, sendLinkMail } from './passwords';
+
+/** Lab (organisation) ids whose active grant lets this assessor read them today. */
+export async function grantedLabIds(em: EntityManager, assessorId: string): Promise<string[]> {
+  const rows: { organisation_id: string }[] = await em.query(
+    `SELECT DISTINCT organisation_id FROM assessor_grant
+      WHERE assessor_id = $1 AND revoked_at IS NULL AND starts_on <= CURRENT_DATE AND (ends_on IS NULL OR ends_on >= CURRENT_DATE)`,
+    [assessorId],
+  );
+  return rows.map((r) => r.organisation_id);
+}
+
+const today = () => new Date().toISOString().slice(0, 10);
+
+function dto(g: AssessorGrant, u: User): AssessorGrantDto {
+  const t = today();
+  return {
+    id: g.id,
+    organisationId: g.organisationId,
+    assessorId: g.assessorId,
+    assessorEmail: u.email,
+    assessorName: u.name,
+    startsOn: g.startsOn,
+    endsOn: g.endsOn,
+    revokedAt: g.revokedAt?.toISOString() ?? null,
+    isActive: g.revokedAt === null && g.startsOn <= t && (g.endsOn === null || g.endsOn >= t),
+    createdAt: g.createdAt.toISOString(),
+  };
+}
+
+function assertMember(user: SessionUser, labId: string, manager: boolean): void {
+  const ok = manager ? managesLab(user, labId) : user.memberships.some((m) => m.organisationId === labId);
+  if (!ok) throw notFound('The lab');
+}
+
+export async function listGrants(ctx: AppContext, user: SessionUser, labId: string): Promise<AssessorGrantDto[]> {
+  assertMember(user, labId, false);
+  const grants = await ctx.ds.getRepository(AssessorGrant).find({ where: { organisationId: labId }, order: { createdAt: 'DESC' } });
+  const users = grants.length ? await ctx.ds.getRepository(User).find({ where: { id: In(grants.map((g) => g.assessorId)) } }) : [];
+  const byId = new Map(users.map((u) => [u.id, u]));
+  return grants.map((g) => dto(g, byId.get(g.assessorId)!));
+}
+
+/**
+ * Grants an assessor access (lab managers). A new e-mail gets an assessor account and a
+ * first-password link; an existing account must hold the assessor role.
+ */
+export async function createGrant(ctx: AppContext, actor: SessionUser, labId: string, input: AssessorGrantCreate): Promise<AssessorGrantDto> {
+  assertMember(actor, labId, true);
+  const startsOn = input.startsOn ?? today();
+  if (input.endsOn && input.endsOn < startsOn) throw ruleBroken('ends_before_start', 'endsOn: the grant cannot end before it starts.');
+  const out = await ctx.ds.transaction(async (em) => {
+    const lab = await em.findOne(Organisation, { where: { id: labId } });
+    if (!lab) throw notFound('The lab');
+    let user = await em.findOne(User, { where: { email: input.email } });
+    let token: string | null = null;
+    if (user && !user.roles.includes('assessor')) {
+      throw ruleBroken('not_an_assessor', `email: ${input.email} belongs to an account that is not an assessor's.`);
+    }
+    if (!user) {
+      user = await em.save(User, em.create(User, { email: input.email, name: input.name ?? input.email.split('@')[0]!, roles: ['assessor'], passwordHash: null }));
+      token = await issuePasswordToken(em, user.id, 'first-password');
+      await audit(em, actor.id, 'user.invited', 'user', user.id, { email: input.email, roles: ['assessor'], by: 'lab-manager' });
+    }
+    const g = await em.save(
+      AssessorGrant,
+      em.create(AssessorGrant, { organisationId: labId, assessorId: user.id, grantedBy: actor.id, startsOn, endsOn: input.endsOn ?? null, revokedAt: null }),
+    );
+    await audit(em, actor.id, 'assessor-grant.created', 'organisation', labId, { grantId: g.id, assessorId: user.id, startsOn, endsOn: g.endsOn });
+    return { g: await em.findOneOrFail(AssessorGrant, { where: { id: g.id } }), user, token, lab };
+  });
+  if (out.token) await sendLinkMail(ctx, out.user.email, out.user.name, out.token, 'first-password');
+  try {
+    await ctx.mailer.send({
+      to: out.user.email,
+      subject: `${out.lab.name} gave you access on Ringlet`,
+      text: `Hello ${out.user.name},\n\n${out.lab.name} lets you read its proficiency-testing results and investigations on Ringlet from ${out.g.startsOn}${
+        out.g.endsOn ? ` to ${out.g.endsOn}` : ''
+      }.\n\n${ctx.config.publicUrl}/assessor\n\nRinglet`,
+    });
+  } catch (err) {
+    ctx.log('grant mail failed', err);
+  }
+  return dto(out.g, out.user);
+}
+
+export async function revokeGrant(ctx: AppContext, actor: SessionUser, labId: string, grantId: string): Promise<void> {
+  assertMember(actor, labId, true);
+  await ctx.ds.transaction(async (em) => {
+    const g = await em.findOne(AssessorGrant, { where: { id: grantId, organisationId: labId } });
+    if (!g) throw notFound('The grant');
+    if (g.revokedAt) return;
+    await em.update(AssessorGrant, { id: grantId }, { revokedAt: new Date() });
+    await audit(em, actor.id, 'assessor-grant.revoked', 'organisation', labId, { grantId });
+  });
+}

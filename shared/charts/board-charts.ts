@@ -1,0 +1,341 @@
+/**
+ * ECharts option builders for the Consensus board and the reports: pure functions, no DOM, so
+ * the browser (ngx-echarts) and the server (echarts SSR, SVG) draw the same charts from the same
+ * data. Each builder has a text alternative beside it (for screen readers and the report text).
+ *
+ * Charts use our palette (VOCABULARY.md): signals acceptable teal, warning saffron, action
+ * carmine; x_pt ink blue; ±2σ_pt and ±3σ_pt bands in saffron and carmine tints.
+ * The option type is kept loose (Record) so this file imports nothing from echarts.
+ */
+import { kde } from '../stats/kde';
+
+export type ChartOption = Record<string, unknown>;
+export type ChartSignal = 'acceptable' | 'warning' | 'action';
+
+export const CHART_COLORS = {
+  ink: '#1f3a5f',
+  acceptable: '#1b7f79',
+  warning: '#b7791f',
+  action: '#a4262c',
+  own: '#1f3a5f',
+  band2: 'rgba(183, 121, 31, 0.10)',
+  band3: 'rgba(164, 38, 44, 0.08)',
+  grid: '#d5dbe3',
+  text: '#1b2430',
+} as const;
+
+const SYMBOLS: Record<ChartSignal, string> = { acceptable: 'circle', warning: 'triangle', action: 'diamond' };
+const WORDS: Record<ChartSignal, string> = { acceptable: 'acceptable', warning: 'warning signal', action: 'action signal' };
+
+const base = (title: string): ChartOption => ({
+  animation: false,
+  textStyle: { fontFamily: 'Noto Sans, sans-serif', color: CHART_COLORS.text },
+  title: { text: title, left: 8, top: 4, textStyle: { fontSize: 13, fontWeight: 600, color: CHART_COLORS.ink } },
+  grid: { left: 56, right: 24, top: 40, bottom: 48, containLabel: true },
+});
+
+const fmt = (v: number, d = 3) => (Number.isFinite(v) ? v.toFixed(d) : '–');
+
+/* ---------------------------------------------------------------- z-scores as ordered bars */
+
+export interface ScoreBar {
+  readonly code: string;
+  readonly score: number;
+  readonly signal: ChartSignal;
+  /** The viewer's own participant code: outlined. */
+  readonly own?: boolean;
+}
+
+/** Bars sorted by score, coloured by signal, reference lines at ±2 and ±3. */
+export function zBarsOption(bars: readonly ScoreBar[], title: string, scoreName = 'z'): ChartOption {
+  const sorted = [...bars].sort((a, b) => a.score - b.score);
+  const lim = Math.max(3.5, ...sorted.map((b) => Math.min(Math.abs(b.score), 10) + 0.5));
+  return {
+    ...base(title),
+    tooltip: { trigger: 'axis', axisPointer: { type: 'shadow' } },
+    xAxis: { type: 'category', name: 'participant code', nameLocation: 'middle', nameGap: 32, data: sorted.map((b) => b.code), axisLabel: { show: sorted.length <= 60, rotate: 90, fontSize: 10 } },
+    yAxis: { type: 'value', name: scoreName, min: -lim, max: lim, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+    series: [
+      {
+        type: 'bar',
+        name: scoreName,
+        barCategoryGap: sorted.length > 200 ? '0%' : '20%',
+        data: sorted.map((b) => ({
+          value: Math.max(-lim, Math.min(lim, b.score)),
+          itemStyle: { color: CHART_COLORS[b.signal], borderColor: b.own ? CHART_COLORS.ink : undefined, borderWidth: b.own ? 2 : 0 },
+        })),
+        markLine: {
+          silent: true,
+          symbol: 'none',
+          label: { formatter: '{b}', position: 'insideEndTop', fontSize: 10 },
+          data: [
+            { yAxis: 2, name: '+2', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
+            { yAxis: -2, name: '−2', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
+            { yAxis: 3, name: '+3', lineStyle: { color: CHART_COLORS.action, type: 'solid' } },
+            { yAxis: -3, name: '−3', lineStyle: { color: CHART_COLORS.action, type: 'solid' } },
+          ],
+        },
+      },
+    ],
+  };
+}
+
+export function zBarsText(bars: readonly ScoreBar[], title: string, scoreName = 'z'): string {
+  const n = bars.length;
+  const count = (s: ChartSignal) => bars.filter((b) => b.signal === s).length;
+  const sorted = [...bars].sort((a, b) => a.score - b.score);
+  const own = bars.find((b) => b.own);
+  return (
+    `${title}: ${scoreName}-scores of ${n} participants ordered from lowest to highest` +
+    (n ? ` (${fmt(sorted[0]!.score, 2)} for ${sorted[0]!.code} to ${fmt(sorted[n - 1]!.score, 2)} for ${sorted[n - 1]!.code}). ` : '. ') +
+    `${count('acceptable')} acceptable, ${count('warning')} warning signals, ${count('action')} action signals.` +
+    (own ? ` Your code ${own.code}: ${fmt(own.score, 2)}, ${WORDS[own.signal]}.` : '')
+  );
+}
+
+/* ---------------------------------------------------------------- kernel density with bands */
+
+export interface DensityInput {
+  readonly results: readonly number[];
+  readonly assignedValue: number;
+  readonly sigmaPt: number;
+  readonly unit: string;
+  /** The viewer's own result, marked on the axis. */
+  readonly own?: number;
+}
+
+/** Gaussian kernel density (Silverman bandwidth, shared/stats kde) with x_pt, ±2σ_pt, ±3σ_pt. */
+export function densityOption(d: DensityInput, title: string): ChartOption {
+  const xs = d.results.filter((v) => Number.isFinite(v));
+  const lo = d.assignedValue - 4 * d.sigmaPt;
+  const hi = d.assignedValue + 4 * d.sigmaPt;
+  // Density over the central region (outliers far away would flatten the curve).
+  const central = xs.filter((v) => v >= lo && v <= hi);
+  const k = central.length >= 2 ? kde(central, { points: 200 }) : { x: [], density: [] };
+  const scale = central.length / Math.max(1, xs.length);
+  const unit = d.unit ? ` (${d.unit})` : '';
+  const band = (a: number, b: number, color: string) => [{ xAxis: a, itemStyle: { color } }, { xAxis: b }];
+  const x = d.assignedValue;
+  const s = d.sigmaPt;
+  return {
+    ...base(title),
+    tooltip: { trigger: 'axis' },
+    xAxis: { type: 'value', name: `result${unit}`, nameLocation: 'middle', nameGap: 28, min: lo, max: hi, axisLabel: { formatter: (v: number) => v.toPrecision(4) } },
+    yAxis: { type: 'value', name: 'density', axisLabel: { show: false }, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+    series: [
+      {
+        type: 'line',
+        name: 'kernel density',
+        showSymbol: false,
+        smooth: false,
+        lineStyle: { color: CHART_COLORS.ink, width: 2 },
+        areaStyle: { color: 'rgba(31, 58, 95, 0.08)' },
+        data: k.x.map((xv, i) => [xv, k.density[i]! * scale]),
+        markArea: {
+          silent: true,
+          data: [
+            band(x - 3 * s, x - 2 * s, CHART_COLORS.band3),
+            band(x + 2 * s, x + 3 * s, CHART_COLORS.band3),
+            band(x - 2 * s, x + 2 * s, CHART_COLORS.band2),
+          ],
+        },
+        markLine: {
+          silent: true,
+          symbol: 'none',
+          label: { formatter: '{b}', fontSize: 10 },
+          data: [
+            { xAxis: x, name: 'x_pt', lineStyle: { color: CHART_COLORS.ink, width: 2 } },
+            { xAxis: x - 2 * s, name: '−2σ_pt', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
+            { xAxis: x + 2 * s, name: '+2σ_pt', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
+            { xAxis: x - 3 * s, name: '−3σ_pt', lineStyle: { color: CHART_COLORS.action } },
+            { xAxis: x + 3 * s, name: '+3σ_pt', lineStyle: { color: CHART_COLORS.action } },
+            ...(d.own !== undefined ? [{ xAxis: d.own, name: 'your result', lineStyle: { color: CHART_COLORS.acceptable, width: 2, type: 'dotted' } }] : []),
+          ],
+        },
+      },
+    ],
+  };
+}
+
+export function densityText(d: DensityInput, title: string): string {
+  const within2 = d.results.filter((v) => Math.abs(v - d.assignedValue) <= 2 * d.sigmaPt).length;
+  const beyond3 = d.results.filter((v) => Math.abs(v - d.assignedValue) >= 3 * d.sigmaPt).length;
+  const u = d.unit ? ` ${d.unit}` : '';
+  return (
+    `${title}: distribution of ${d.results.length} results around the assigned value x_pt = ${d.assignedValue.toPrecision(5)}${u} ` +
+    `with σ_pt = ${d.sigmaPt.toPrecision(4)}${u}. ${within2} results lie within ±2σ_pt, ${beyond3} at or beyond ±3σ_pt.` +
+    (d.own !== undefined ? ` Your result: ${d.own.toPrecision(5)}${u}.` : '')
+  );
+}
+
+/* ---------------------------------------------------------------- results with uncertainty bars */
+
+export interface UncertaintyPoint {
+  readonly code: string;
+  readonly result: number;
+  /** Expanded uncertainty U (k = 2), same unit; null when none was reported. */
+  readonly expandedU: number | null;
+  readonly signal: ChartSignal;
+  readonly own?: boolean;
+}
+
+/** Results ordered by value with ±U bars, against x_pt and x_pt ± 2σ_pt. */
+export function uncertaintyOption(points: readonly UncertaintyPoint[], assignedValue: number, sigmaPt: number, unit: string, title: string): ChartOption {
+  const sorted = [...points].sort((a, b) => a.result - b.result);
+  const codes = sorted.map((p) => p.code);
+  return {
+    ...base(title),
+    tooltip: { trigger: 'item' },
+    xAxis: { type: 'category', data: codes, name: 'participant code', nameLocation: 'middle', nameGap: 32, axisLabel: { show: codes.length <= 60, rotate: 90, fontSize: 10 } },
+    yAxis: { type: 'value', name: unit ? `result (${unit})` : 'result', scale: true, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+    series: [
+      {
+        type: 'custom',
+        name: 'U (k = 2)',
+        silent: true,
+        data: sorted.map((p, i) => (p.expandedU === null ? [i, p.result, p.result] : [i, p.result - p.expandedU, p.result + p.expandedU])),
+        renderItem: (_params: unknown, api: { value: (i: number) => number; coord: (v: number[]) => number[] }) => {
+          const i = api.value(0);
+          const a = api.coord([i, api.value(1)]);
+          const b = api.coord([i, api.value(2)]);
+          return {
+            type: 'group',
+            children: [
+              { type: 'line', shape: { x1: a[0], y1: a[1], x2: b[0], y2: b[1] }, style: { stroke: CHART_COLORS.ink, lineWidth: 1 } },
+              { type: 'line', shape: { x1: a[0]! - 3, y1: a[1], x2: a[0]! + 3, y2: a[1] }, style: { stroke: CHART_COLORS.ink, lineWidth: 1 } },
+              { type: 'line', shape: { x1: b[0]! - 3, y1: b[1], x2: b[0]! + 3, y2: b[1] }, style: { stroke: CHART_COLORS.ink, lineWidth: 1 } },
+            ],
+          };
+        },
+      },
+      {
+        type: 'scatter',
+        name: 'result',
+        symbolSize: 7,
+        data: sorted.map((p) => ({ value: [p.code, p.result], symbol: SYMBOLS[p.signal], itemStyle: { color: CHART_COLORS[p.signal], borderColor: p.own ? CHART_COLORS.ink : undefined, borderWidth: p.own ? 2 : 0 } })),
+        markLine: {
+          silent: true,
+          symbol: 'none',
+          label: { formatter: '{b}', fontSize: 10 },
+          data: [
+            { yAxis: assignedValue, name: 'x_pt', lineStyle: { color: CHART_COLORS.ink, width: 2 } },
+            { yAxis: assignedValue - 2 * sigmaPt, name: '−2σ_pt', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
+            { yAxis: assignedValue + 2 * sigmaPt, name: '+2σ_pt', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
+          ],
+        },
+      },
+    ],
+  };
+}
+
+export function uncertaintyText(points: readonly UncertaintyPoint[], assignedValue: number, sigmaPt: number, unit: string, title: string): string {
+  const withU = points.filter((p) => p.expandedU !== null);
+  const covering = withU.filter((p) => Math.abs(p.result - assignedValue) <= p.expandedU!).length;
+  const u = unit ? ` ${unit}` : '';
+  return (
+    `${title}: ${points.length} results with their expanded uncertainties against x_pt = ${assignedValue.toPrecision(5)}${u} ` +
+    `(dashed lines at ±2σ_pt = ±${(2 * sigmaPt).toPrecision(3)}${u}). ${withU.length} labs reported an uncertainty; ` +
+    `for ${covering} of them the interval result ± U contains x_pt.`
+  );
+}
+
+/* ---------------------------------------------------------------- Youden plot */
+
+export interface YoudenPoint {
+  readonly code: string;
+  readonly a: number;
+  readonly b: number;
+  readonly own?: boolean;
+}
+
+/**
+ * Youden plot of two paired items: each lab's result on item A against item B, with the two
+ * assigned values and the ±2σ_pt box. Points along the diagonal show a systematic (lab) effect,
+ * points off it a random one.
+ */
+export function youdenOption(points: readonly YoudenPoint[], xA: number, xB: number, sA: number, sB: number, labels: [string, string], unit: string, title: string): ChartOption {
+  const u = unit ? ` (${unit})` : '';
+  const inRange = (p: YoudenPoint) => Math.abs(p.a - xA) <= 5 * sA && Math.abs(p.b - xB) <= 5 * sB;
+  return {
+    ...base(title),
+    tooltip: { trigger: 'item' },
+    xAxis: { type: 'value', name: `${labels[0]}${u}`, nameLocation: 'middle', nameGap: 28, min: xA - 5 * sA, max: xA + 5 * sA, axisLabel: { formatter: (v: number) => v.toPrecision(4) } },
+    yAxis: { type: 'value', name: `${labels[1]}${u}`, min: xB - 5 * sB, max: xB + 5 * sB, axisLabel: { formatter: (v: number) => v.toPrecision(4) } },
+    series: [
+      {
+        type: 'scatter',
+        name: 'labs',
+        symbolSize: 6,
+        data: points.filter(inRange).map((p) => ({ value: [p.a, p.b], name: p.code, itemStyle: { color: p.own ? CHART_COLORS.action : CHART_COLORS.acceptable } })),
+        markArea: { silent: true, data: [[{ coord: [xA - 2 * sA, xB - 2 * sB], itemStyle: { color: CHART_COLORS.band2 } }, { coord: [xA + 2 * sA, xB + 2 * sB] }]] },
+        markLine: {
+          silent: true,
+          symbol: 'none',
+          data: [
+            { xAxis: xA, name: `x_pt ${labels[0]}`, lineStyle: { color: CHART_COLORS.ink } },
+            { yAxis: xB, name: `x_pt ${labels[1]}`, lineStyle: { color: CHART_COLORS.ink } },
+          ],
+        },
+      },
+    ],
+  };
+}
+
+export function youdenText(points: readonly YoudenPoint[], xA: number, xB: number, sA: number, sB: number, labels: [string, string], title: string): string {
+  const box = points.filter((p) => Math.abs(p.a - xA) <= 2 * sA && Math.abs(p.b - xB) <= 2 * sB).length;
+  const same = points.filter((p) => Math.sign(p.a - xA) === Math.sign(p.b - xB)).length;
+  const own = points.find((p) => p.own);
+  return (
+    `${title}: results on ${labels[0]} against ${labels[1]} for ${points.length} labs. ${box} lie inside the ±2σ_pt box; ` +
+    `${same} are on the same side of both assigned values (a lab effect shows as points along the diagonal).` +
+    (own ? ` Your code ${own.code}: ${own.a.toPrecision(5)} and ${own.b.toPrecision(5)}.` : '')
+  );
+}
+
+/* ---------------------------------------------------------------- Track record */
+
+export interface TrackChartPoint {
+  readonly label: string;
+  readonly z: number;
+  readonly signal: ChartSignal;
+}
+
+/** z-scores across rounds (oldest first) with ±2 and ±3 lines; symbols by signal. */
+export function trackOption(points: readonly TrackChartPoint[], title: string): ChartOption {
+  const lim = Math.max(3.5, ...points.map((p) => Math.min(Math.abs(p.z), 10) + 0.5));
+  return {
+    ...base(title),
+    tooltip: { trigger: 'axis' },
+    xAxis: { type: 'category', data: points.map((p) => p.label), axisLabel: { rotate: points.length > 8 ? 45 : 0, fontSize: 10 } },
+    yAxis: { type: 'value', name: 'z', min: -lim, max: lim, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+    series: [
+      {
+        type: 'line',
+        name: 'z',
+        lineStyle: { color: CHART_COLORS.ink },
+        data: points.map((p) => ({ value: Math.max(-lim, Math.min(lim, p.z)), symbol: SYMBOLS[p.signal], symbolSize: 9, itemStyle: { color: CHART_COLORS[p.signal] } })),
+        markLine: {
+          silent: true,
+          symbol: 'none',
+          data: [
+            { yAxis: 2, lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
+            { yAxis: -2, lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
+            { yAxis: 3, lineStyle: { color: CHART_COLORS.action } },
+            { yAxis: -3, lineStyle: { color: CHART_COLORS.action } },
+            { yAxis: 0, lineStyle: { color: CHART_COLORS.grid } },
+          ],
+        },
+      },
+    ],
+  };
+}
+
+export function trackText(points: readonly TrackChartPoint[], rsz: number | null, title: string): string {
+  if (points.length === 0) return `${title}: no scores yet.`;
+  const last = points[points.length - 1]!;
+  return (
+    `${title}: ${points.length} z-scores from ${points[0]!.label} to ${last.label}; latest ${last.z.toFixed(2)} (${WORDS[last.signal]}). ` +
+    `${points.filter((p) => p.signal !== 'acceptable').length} outside ±2.` +
+    (rsz !== null ? ` Rescaled sum of z-scores RSZ = ${rsz.toFixed(2)}.` : '')
+  );
+}

@@ -1,0 +1,292 @@
+/**
+ * The round evaluation as a pure function: stored replicates + the measurands' rules + the
+ * coordinator's settings (σ_pt overrides, exclusions) → the record per item × measurand.
+ * The server stores its output; the browser runs the same code for the σ_pt preview.
+ *
+ * Sources (via shared/stats): ISO 13528:2015 §7 (x_pt, u(x_pt)), §8 (σ_pt), §9 (z, z′, ζ, En,
+ * D, D%, signals). For the consensus rule the numbers come from shared/stats `evaluateRound`,
+ * the same function the offline evaluate command runs, so the command reproduces them from the
+ * exported replicates.
+ */
+import type {
+  AssignedValueRuleInput,
+  EvaluationSettings,
+  ItemMeasurandEvaluation,
+  ParticipantScore,
+  SigmaPtRuleInput,
+} from '../contracts/evaluation';
+import { algorithmA } from '../stats/algorithm-a';
+import { assignedValue as assignedValueByRule, isUncertaintyNegligible } from '../stats/assigned-value';
+import { blunderHints } from '../stats/blunder-hints';
+import { evaluateRound, type ResultRow } from '../stats/evaluate-round';
+import { enNumber, signalFor, zetaScore } from '../stats/scores';
+import { sigmaPt as sigmaPtByRule, type SigmaPtRule } from '../stats/sigma-pt';
+
+/** Coverage factor used for U(x_pt) = k·u(x_pt) in En (common practice: k = 2, about 95 %). */
+export const ASSIGNED_COVERAGE_FACTOR = 2;
+
+/** Constants stored with every record so it can be reproduced and explained. */
+export const EVALUATION_CONSTANTS = {
+  algorithmA: { winsorizeFactor: 1.5, sdFactor: 1.134, madeFactor: 1.483, relativeTolerance: 1e-12, maxIterations: 1000 },
+  consensusUncertaintyFactor: 1.25,
+  negligibleRatio: 0.3,
+  assignedCoverageFactor: ASSIGNED_COVERAGE_FACTOR,
+  signalLimits: { warning: 2, action: 3, en: 1 },
+  source: 'ISO 13528:2015 §7–9; ISO/IEC 17043',
+} as const;
+
+export interface ItemInfo {
+  readonly id: string;
+  readonly code: string;
+}
+
+export interface MeasurandInfo {
+  readonly id: string;
+  readonly key: string;
+  readonly name: string;
+  readonly unit: string;
+  readonly decimals: number;
+  readonly sigmaPtRule: SigmaPtRuleInput;
+  readonly assignedValueRule: AssignedValueRuleInput;
+  readonly minParticipants: number;
+}
+
+export interface ReplicateUncertainty {
+  readonly kind: 'standard' | 'expanded';
+  readonly value: number;
+  readonly k: number | null;
+}
+
+/** One participant's replicates for one item × measurand (values in the measurand's unit). */
+export interface ReplicateInput {
+  readonly code: string;
+  readonly testItemId: string;
+  readonly measurandId: string;
+  readonly values: readonly number[];
+  readonly uncertainty: ReplicateUncertainty | null;
+}
+
+export interface EvaluationInput {
+  readonly items: readonly ItemInfo[];
+  readonly measurands: readonly MeasurandInfo[];
+  readonly replicates: readonly ReplicateInput[];
+  readonly settings?: Partial<EvaluationSettings>;
+}
+
+/** Mean and SD of replicates exactly as shared/stats evaluateRound computes them. */
+export function replicateStats(vs: readonly number[]): { mean: number; sd: number | null } {
+  const m = vs.length;
+  const x0 = vs[0]!;
+  let s = 0;
+  for (let j = 0; j < m; j++) s += vs[j]! - x0;
+  const dm = s / m;
+  if (m < 2) return { mean: x0 + dm, sd: null };
+  let ss = 0;
+  for (let j = 0; j < m; j++) {
+    const d = vs[j]! - x0 - dm;
+    ss += d * d;
+  }
+  return { mean: x0 + dm, sd: Math.sqrt(ss / (m - 1)) };
+}
+
+/** The σ_pt rule in force for an item × measurand: the most specific override, else the measurand's. */
+export function sigmaRuleFor(m: MeasurandInfo, itemCode: string, settings: Partial<EvaluationSettings> | undefined): SigmaPtRuleInput {
+  const overrides = settings?.sigmaPtOverrides ?? [];
+  const exact = overrides.find((o) => o.measurandKey === m.key && o.itemCode === itemCode);
+  const any = overrides.find((o) => o.measurandKey === m.key && (o.itemCode === null || o.itemCode === undefined));
+  return (exact ?? any)?.rule ?? m.sigmaPtRule;
+}
+
+function standardU(u: ReplicateUncertainty | null): { u: number; U: number } | null {
+  if (!u || !(u.value > 0)) return null;
+  if (u.kind === 'standard') return { u: u.value, U: ASSIGNED_COVERAGE_FACTOR * u.value };
+  const k = u.k && u.k > 0 ? u.k : ASSIGNED_COVERAGE_FACTOR;
+  return { u: u.value / k, U: u.value };
+}
+
+interface Core {
+  method: ItemMeasurandEvaluation['method'];
+  iterations: number;
+  assignedValue: number | null;
+  robustSd: number | null;
+  uAssigned: number | null;
+  sigmaPt: number | null;
+  uNegligible: boolean | null;
+  warnings: string[];
+}
+
+/** x_pt, u(x_pt), s*, σ_pt for the included results by the measurand's rules. */
+function core(
+  codes: readonly string[],
+  valuesByCode: ReadonlyMap<string, readonly number[]>,
+  av: AssignedValueRuleInput,
+  sigmaRule: SigmaPtRuleInput,
+  minResults: number,
+): Core {
+  const p = codes.length;
+  if (av.kind === 'consensus') {
+    if (p === 0) {
+      return { method: 'none', iterations: 0, assignedValue: null, robustSd: null, uAssigned: null, sigmaPt: null, uNegligible: null, warnings: ['no-results'] };
+    }
+    const rows: ResultRow[] = [];
+    for (const code of codes) {
+      const vs = valuesByCode.get(code)!;
+      for (let r = 0; r < vs.length; r++) rows.push({ participant: code, item: 'i', measurand: 'm', replicate: r + 1, value: vs[r]! });
+    }
+    const e = evaluateRound(rows, { sigmaPt: sigmaRule as SigmaPtRule, minResults }).evaluations[0]!;
+    return {
+      method: 'algorithm-a',
+      iterations: e.iterations,
+      assignedValue: e.assignedValue,
+      robustSd: e.robustSd,
+      uAssigned: e.uAssigned,
+      sigmaPt: e.sigmaPt,
+      uNegligible: e.uNegligible,
+      warnings: [...e.warnings],
+    };
+  }
+  const results = codes.map((c) => replicateStats(valuesByCode.get(c)!).mean);
+  const warnings: string[] = [];
+  if (av.kind !== 'reference' && p === 0) {
+    return { method: 'none', iterations: 0, assignedValue: null, robustSd: null, uAssigned: null, sigmaPt: null, uNegligible: null, warnings: ['no-results'] };
+  }
+  if (p < minResults) warnings.push('few-results');
+  const a = assignedValueByRule(results, av);
+  // s* of the round for the robust-sd σ_pt rule: MADe for the median rule, Algorithm A otherwise.
+  const robustSd = a.robustSd ?? (results.length > 0 ? algorithmA(results).robustSd : undefined);
+  let sigma: number | null = null;
+  try {
+    sigma = sigmaPtByRule(sigmaRule as SigmaPtRule, { assignedValue: a.value, robustSd });
+  } catch {
+    warnings.push('sigma-pt-unavailable');
+  }
+  const uNegligible = sigma === null ? null : isUncertaintyNegligible(a.u, sigma);
+  if (uNegligible === false) warnings.push('u-not-negligible');
+  return {
+    method: a.method,
+    iterations: a.algorithmA?.iterations ?? 0,
+    assignedValue: a.value,
+    robustSd: robustSd ?? null,
+    uAssigned: a.u,
+    sigmaPt: sigma,
+    uNegligible,
+    warnings,
+  };
+}
+
+/**
+ * Evaluates a round (see the file comment). Groups in item order × measurand order;
+ * participants sorted by code. Excluded results are kept out of x_pt and s* but still scored
+ * against them and marked. Values that are not finite numbers are ignored (a draft never
+ * reaches here: only submitted versions are evaluated).
+ */
+export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[] {
+  const settings = input.settings;
+  const excluded = new Map<string, { rule: NonNullable<ParticipantScore['excluded']>['rule']; reason: string }>();
+  for (const x of settings?.exclusions ?? []) {
+    excluded.set(`${x.participantCode}\u0000${x.itemCode}\u0000${x.measurandKey}`, { rule: x.rule, reason: x.reason });
+  }
+  const byGroup = new Map<string, ReplicateInput[]>();
+  for (const r of input.replicates) {
+    const key = r.testItemId + '\u0000' + r.measurandId;
+    let list = byGroup.get(key);
+    if (!list) byGroup.set(key, (list = []));
+    list.push(r);
+  }
+
+  const out: ItemMeasurandEvaluation[] = [];
+  for (const item of input.items) {
+    for (const m of input.measurands) {
+      const rows = (byGroup.get(item.id + '\u0000' + m.id) ?? [])
+        .map((r) => ({ ...r, values: r.values.filter((v) => typeof v === 'number' && Number.isFinite(v)) }))
+        .filter((r) => r.values.length > 0)
+        .sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
+      const valuesByCode = new Map(rows.map((r) => [r.code, r.values] as const));
+      const included = rows.filter((r) => !excluded.has(`${r.code}\u0000${item.code}\u0000${m.key}`)).map((r) => r.code);
+      const sigmaRule = sigmaRuleFor(m, item.code, settings);
+      const c = core(included, valuesByCode, m.assignedValueRule, sigmaRule, m.minParticipants);
+      const xpt = c.assignedValue;
+      const sigma = c.sigmaPt;
+      const u = c.uAssigned;
+      const scoreKind = c.uNegligible === false ? 'zPrime' : 'z';
+      const zpDen = sigma === null || u === null ? null : Math.sqrt(sigma * sigma + u * u);
+      const participants: ParticipantScore[] = rows.map((r) => {
+        const { mean: x, sd } = replicateStats(r.values);
+        const z = xpt === null || sigma === null ? null : (x - xpt) / sigma;
+        const zPrime = xpt === null || zpDen === null ? null : (x - xpt) / zpDen;
+        const lab = standardU(r.uncertainty);
+        let zeta: number | null = null;
+        let en: number | null = null;
+        if (lab && xpt !== null && u !== null) {
+          zeta = zetaScore(x, xpt, lab.u, u);
+          en = enNumber(x, xpt, lab.U, ASSIGNED_COVERAGE_FACTOR * u);
+        }
+        const governing = scoreKind === 'z' ? z : zPrime;
+        const ex = excluded.get(`${r.code}\u0000${item.code}\u0000${m.key}`) ?? null;
+        return {
+          code: r.code,
+          result: x,
+          replicates: r.values.length,
+          replicateSd: sd,
+          u: lab?.u ?? null,
+          z,
+          zPrime,
+          zeta,
+          en,
+          d: xpt === null ? null : x - xpt,
+          dPct: xpt === null || xpt === 0 ? null : (100 * (x - xpt)) / xpt,
+          scoreKind,
+          signal: governing === null ? null : signalFor(governing, scoreKind),
+          hints: [],
+          excluded: ex,
+        };
+      });
+      out.push({
+        testItemId: item.id,
+        itemCode: item.code,
+        measurandId: m.id,
+        measurandKey: m.key,
+        measurandName: m.name,
+        unit: m.unit,
+        decimals: m.decimals,
+        n: included.length,
+        method: c.method,
+        iterations: c.iterations,
+        assignedValue: xpt,
+        robustSd: c.robustSd,
+        uAssigned: u,
+        sigmaPt: sigma,
+        uNegligible: c.uNegligible,
+        sigmaPtRule: sigmaRule,
+        assignedValueRule: m.assignedValueRule,
+        constants: { ...EVALUATION_CONSTANTS, minResults: m.minParticipants },
+        warnings: c.warnings,
+        participants,
+      });
+    }
+  }
+  addHints(out);
+  return out;
+}
+
+/**
+ * Blunder hints (shared/stats blunderHints) for size measurands (unit nm), with the lab's PDI
+ * and the consensus PDI of the same item where the round has a 'pdi' measurand.
+ */
+function addHints(groups: ItemMeasurandEvaluation[]): void {
+  for (const g of groups) {
+    if (g.unit !== 'nm' || g.assignedValue === null) continue;
+    const pdiGroup = groups.find((o) => o.testItemId === g.testItemId && o.measurandKey === 'pdi');
+    const pdiByCode = new Map(pdiGroup?.participants.map((p) => [p.code, p.result]) ?? []);
+    for (const p of g.participants) {
+      const hints = blunderHints({
+        result: p.result,
+        assignedValue: g.assignedValue,
+        sigmaPt: g.sigmaPt ?? undefined,
+        pdi: pdiByCode.get(p.code),
+        assignedPdi: pdiGroup?.assignedValue ?? undefined,
+      });
+      (p as { hints: ParticipantScore['hints'] }).hints = hints.map((h) => ({ code: h.code, message: h.message }));
+    }
+  }
+}

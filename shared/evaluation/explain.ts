@@ -1,0 +1,71 @@
+/**
+ * Plain-language explanation of one lab's scores for one item × measurand, for the lab's score
+ * page and reports. Thresholds: ISO 13528:2015 §9 / ISO/IEC 17043 (|z| ≤ 2 acceptable,
+ * 2 < |z| < 3 warning, |z| ≥ 3 action; |En| ≤ 1 acceptable).
+ */
+import type { ParticipantScore } from '../contracts/evaluation';
+
+export interface ExplainContext {
+  readonly measurandName: string;
+  readonly unit: string;
+  readonly decimals: number;
+  readonly assignedValue: number | null;
+  readonly sigmaPt: number | null;
+  readonly uAssigned: number | null;
+}
+
+const fmt = (v: number, decimals: number) => v.toFixed(Math.max(0, Math.min(6, decimals)));
+
+export function explainScore(s: ParticipantScore, c: ExplainContext): string[] {
+  const out: string[] = [];
+  const unit = c.unit ? ` ${c.unit}` : '';
+  if (c.assignedValue === null || c.sigmaPt === null) {
+    out.push('No score could be given for this measurand: the assigned value or σ_pt could not be set (see the round report).');
+    return out;
+  }
+  const d = s.result - c.assignedValue;
+  out.push(
+    `Your result ${fmt(s.result, c.decimals)}${unit} (mean of ${s.replicates} replicate${s.replicates === 1 ? '' : 's'}) is ` +
+      `${fmt(Math.abs(d), c.decimals)}${unit} ${d >= 0 ? 'above' : 'below'} the assigned value ${fmt(c.assignedValue, c.decimals)}${unit}` +
+      (s.dPct !== null ? ` (${s.dPct >= 0 ? '+' : ''}${s.dPct.toFixed(1)} %).` : '.'),
+  );
+  const main = s.scoreKind === 'z' ? s.z : s.zPrime;
+  const name = s.scoreKind === 'z' ? 'z-score' : 'z′-score';
+  if (main !== null) {
+    out.push(
+      `Your ${name} is ${main.toFixed(2)}: the difference is ${Math.abs(main).toFixed(1)} times the standard deviation for proficiency assessment ` +
+        `(σ_pt = ${fmt(c.sigmaPt, c.decimals + 1)}${unit})` +
+        (s.scoreKind === 'zPrime' ? ', widened by the uncertainty of the assigned value because it is not negligible.' : '.'),
+    );
+  }
+  if (s.signal === 'acceptable') out.push('Acceptable: within ±2, as most competent labs are. No action is needed.');
+  if (s.signal === 'warning') {
+    out.push(
+      'Warning signal: between 2 and 3 in size. One in about twenty results lands here by chance, so look for a cause, and watch the next rounds: two warnings in a row call for action.',
+    );
+  }
+  if (s.signal === 'action') {
+    out.push(
+      'Action signal: 3 or more in size, which chance alone rarely gives. Investigate the cause, correct it and check that the correction works (an investigation has been opened for you).',
+    );
+  }
+  if (s.zeta !== null) {
+    out.push(
+      `Your ζ-score is ${s.zeta.toFixed(2)}: it compares the difference with your own reported uncertainty and that of the assigned value. ` +
+        (Math.abs(s.zeta) > 2
+          ? 'Above 2 in size: your uncertainty may be too small for the agreement you achieve.'
+          : 'Within ±2: your reported uncertainty covers the difference.'),
+    );
+  }
+  if (s.en !== null) {
+    out.push(
+      `Your En number is ${s.en.toFixed(2)} (expanded uncertainties): ` +
+        (Math.abs(s.en) <= 1 ? 'within ±1, consistent with the assigned value.' : 'beyond ±1, the difference is not covered by the uncertainties.'),
+    );
+  }
+  for (const h of s.hints) out.push(`Hint: ${h.message}`);
+  if (s.excluded) {
+    out.push(`This result was kept out of the assigned value (${s.excluded.reason}); it is still scored against it.`);
+  }
+  return out;
+}

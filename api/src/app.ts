@@ -74,10 +74,18 @@ export function createApp(deps: AppDeps): RingletApp {
     session({
       name: 'ringlet.sid',
       secret: deps.config.sessionSecret,
-      store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: deps.config.mode === 'test' ? false : 900 }),
+      // disableTouch + no rolling: a session lasts 8 hours from sign-in (an absolute timeout), and a
+      // request costs one session read instead of a read and a write.
+      store: new PgStore({
+        pool,
+        tableName: 'session',
+        createTableIfMissing: false,
+        disableTouch: true,
+        pruneSessionInterval: deps.config.mode === 'test' ? false : 900,
+      }),
       resave: false,
       saveUninitialized: false,
-      rolling: true,
+      rolling: false,
       cookie: {
         httpOnly: true,
         sameSite: 'lax',

@@ -35,6 +35,7 @@ export function detectAttachmentType(buf: Buffer): { kind: AttachmentKind; conte
   }
   const text = new TextDecoder('utf-8', { fatal: false }).decode(buf);
   if (text.includes('\uFFFD')) return null; // not valid UTF-8
+  // eslint-disable-next-line no-control-regex -- looking for control bytes is the point
   if (/[\u0000-\u0008\u000B\u000E-\u001F\u007F]/.test(text)) return null; // binary control bytes
   try {
     parseCorrelationCsv(text);
@@ -117,6 +118,7 @@ function dto(a: AttachmentRow, uploadedBy: string | null): AttachmentDto {
 /** A safe display name: no path, no control characters, at most 200 characters. */
 export function cleanFileName(name: string): string {
   const base = name.split(/[\\/]/).pop() ?? 'file';
+  // eslint-disable-next-line no-control-regex -- strip control characters from file names
   const cleaned = base.replace(/[\u0000-\u001F\u007F"]/g, '').trim().slice(0, 200);
   return cleaned || 'file';
 }

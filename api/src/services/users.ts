@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import type { Role } from '../../../shared/contracts/auth';
+import type { GlobalRole, Role } from '../../../shared/contracts/auth';
 import type {
   Membership as MembershipDto,
   MembershipCreate,
@@ -16,26 +16,36 @@ import { audit } from './audit';
 import type { AppContext } from './context';
 import { issuePasswordToken, sendLinkMail } from './passwords';
 
-/** Loads the request's user with its lab memberships; null when missing or deactivated. */
+/**
+ * Loads the request's user with its lab memberships; null when missing or deactivated. Runs on
+ * every signed-in request, so it is one plain query.
+ */
 export async function loadSessionUser(em: EntityManager, id: string): Promise<SessionUser | null> {
-  const user = await em.findOne(User, {
-    where: { id, isActive: true },
-    relations: { memberships: { organisation: true } },
-  });
+  const rows: {
+    id: string;
+    email: string;
+    name: string;
+    roles: GlobalRole[];
+    memberships: { id: string; organisationId: string; organisationName: string; isManager: boolean }[];
+  }[] = await em.query(
+    `SELECT u.id, u.email, u.name, u.roles,
+            COALESCE(json_agg(json_build_object('id', m.id, 'organisationId', m.organisation_id,
+                       'organisationName', o.name, 'isManager', m.is_manager) ORDER BY o.name)
+                     FILTER (WHERE m.id IS NOT NULL), '[]') AS memberships
+       FROM app_user u
+       LEFT JOIN membership m ON m.user_id = u.id
+       LEFT JOIN organisation o ON o.id = m.organisation_id
+      WHERE u.id = $1 AND u.is_active
+      GROUP BY u.id`,
+    [id],
+  );
+  const user = rows[0];
   if (!user) return null;
-  const memberships = (user.memberships ?? [])
-    .map((m) => ({
-      id: m.id,
-      organisationId: m.organisationId,
-      organisationName: m.organisation?.name ?? '',
-      isManager: m.isManager,
-    }))
-    .sort((a, b) => a.organisationName.localeCompare(b.organisationName));
   const roles: Role[] = [...user.roles];
-  if (memberships.length > 0) roles.push('lab');
+  if (user.memberships.length > 0) roles.push('lab');
   const order: Role[] = ['admin', 'coordinator', 'lab', 'assessor'];
   roles.sort((a, b) => order.indexOf(a) - order.indexOf(b));
-  return { id: user.id, email: user.email, name: user.name, roles, memberships };
+  return { id: user.id, email: user.email, name: user.name, roles, memberships: user.memberships };
 }
 
 function membershipDto(m: Membership): MembershipDto {

@@ -366,8 +366,8 @@ export async function publishEvaluation(
         `Every other lab appears only by its participant code.\n\nRinglet`,
     }));
   // The publication is recorded; the mail goes out after it, 8 at a time, without holding the
-  // request (a failed message is logged; the lab also sees the scores on its Lab bench).
-  // TODO: move to a durable job queue (pg-boss) once api/src/jobs exists, for retries.
+  // request. The server's mailer is the queued one (api/src/jobs): a message SMTP refuses is put
+  // on the PostgreSQL-backed queue and retried with back-off; the lab also sees the scores on its Lab bench.
   const sent = mails.length;
   void (async () => {
     let next = 0;

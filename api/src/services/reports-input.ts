@@ -4,10 +4,9 @@
  */
 import type { EntityManager } from 'typeorm';
 import type { ParticipantReportInput, ReportStudy, RoundReportInput } from '../../../reports/model';
-import type { TrackSeries } from '../../../shared/contracts/evaluation';
-import { rescaledSumZ, runRules } from '../../../shared/evaluation/run-rules';
 import { notFound } from '../http/errors';
 import { loadResults } from './evaluation';
+import { labTrackRecord } from './track-record';
 
 export interface EvaluationHead {
   id: string;
@@ -105,40 +104,6 @@ export async function roundReportInput(em: EntityManager, head: EvaluationHead):
   };
 }
 
-/**
- * A lab's Track record for its individual report. The Evaluation engineer's track-record
- * service reads the signed-in lab member's own lab; reports also need it for an assessor's
- * granting lab, so this is the same query keyed by the lab id.
- */
-export async function labTrackRecord(em: EntityManager, labId: string): Promise<TrackSeries[]> {
-  const rows: { round_id: string; round_code: string; published_at: Date | null; item_code: string; measurand_key: string; measurand_name: string; z: number | null; zp: number | null; kind: string; signal: 'acceptable' | 'warning' | 'action' | null }[] =
-    await em.query(
-      `SELECT r.id AS round_id, r.code AS round_code, e.published_at, er.item_code, er.measurand_key,
-              COALESCE(er.constants->>'measurandName', er.measurand_key) AS measurand_name,
-              (p->>'z')::float8 AS z, (p->>'zPrime')::float8 AS zp, p->>'scoreKind' AS kind, p->>'signal' AS signal
-         FROM enrolment en
-         JOIN round r ON r.id = en.round_id
-         JOIN LATERAL (SELECT * FROM evaluation x WHERE x.round_id = r.id AND x.state = 'published' ORDER BY x.version DESC LIMIT 1) e ON true
-         JOIN evaluation_result er ON er.evaluation_id = e.id
-         CROSS JOIN LATERAL jsonb_array_elements(er.participants) p
-        WHERE en.organisation_id = $1 AND p->>'code' = en.participant_code
-        ORDER BY e.published_at, r.code, er.item_code`,
-      [labId],
-    );
-  const series = new Map<string, TrackSeries>();
-  for (const r of rows) {
-    const z = r.kind === 'zPrime' ? r.zp : r.z;
-    if (z === null || r.signal === null) continue;
-    let s = series.get(r.measurand_key);
-    if (!s) series.set(r.measurand_key, (s = { measurandKey: r.measurand_key, measurandName: r.measurand_name, points: [], rsz: null, findings: [] }));
-    s.points.push({ roundId: r.round_id, roundCode: r.round_code, publishedAt: r.published_at?.toISOString() ?? null, itemCode: r.item_code, z, signal: r.signal });
-  }
-  for (const s of series.values()) {
-    s.rsz = rescaledSumZ(s.points.map((p) => p.z));
-    s.findings = runRules(s.points.map((p) => ({ z: p.z, label: `${p.roundCode} ${p.itemCode}` })));
-  }
-  return [...series.values()];
-}
 
 export async function participantReportInput(
   em: EntityManager,

@@ -6,6 +6,7 @@ import type { TrackRecord, TrackSeries } from '../../../shared/contracts/evaluat
 import { runRules, rescaledSumZ } from '../../../shared/evaluation/run-rules';
 import { labIds, type SessionUser } from '../auth/session-user';
 import { notFound } from '../http/errors';
+import type { EntityManager } from 'typeorm';
 import type { AppContext } from './context';
 
 export async function trackRecord(ctx: AppContext, user: SessionUser, labId?: string): Promise<TrackRecord> {
@@ -13,6 +14,14 @@ export async function trackRecord(ctx: AppContext, user: SessionUser, labId?: st
   const lab = labId ?? labs[0];
   if (!lab || !labs.includes(lab)) throw notFound('The lab');
   const org: { name: string }[] = await ctx.ds.query('SELECT name FROM organisation WHERE id = $1', [lab]);
+  return { labId: lab, labName: org[0]?.name ?? '', series: await labTrackRecord(ctx.ds.manager, lab) };
+}
+
+/**
+ * The Track record of one lab, by id (its own members, its individual report, and assessors it
+ * granted access): z or z′ per published round, per measurand, with run rules and RSZ.
+ */
+export async function labTrackRecord(em: EntityManager, labId: string): Promise<TrackSeries[]> {
   const rows: {
     round_id: string;
     round_code: string;
@@ -24,7 +33,7 @@ export async function trackRecord(ctx: AppContext, user: SessionUser, labId?: st
     zp: number | null;
     kind: string;
     signal: 'acceptable' | 'warning' | 'action' | null;
-  }[] = await ctx.ds.query(
+  }[] = await em.query(
     `SELECT r.id AS round_id, r.code AS round_code, e.published_at, er.item_code, er.measurand_key,
             COALESCE(er.constants->>'measurandName', er.measurand_key) AS measurand_name,
             (p->>'z')::float8 AS z, (p->>'zPrime')::float8 AS zp, p->>'scoreKind' AS kind, p->>'signal' AS signal
@@ -35,7 +44,7 @@ export async function trackRecord(ctx: AppContext, user: SessionUser, labId?: st
        CROSS JOIN LATERAL jsonb_array_elements(er.participants) p
       WHERE en.organisation_id = $1 AND p->>'code' = en.participant_code
       ORDER BY e.published_at, r.code, er.item_code`,
-    [lab],
+    [labId],
   );
   const series = new Map<string, TrackSeries>();
   for (const r of rows) {
@@ -49,5 +58,5 @@ export async function trackRecord(ctx: AppContext, user: SessionUser, labId?: st
     s.rsz = rescaledSumZ(s.points.map((p) => p.z));
     s.findings = runRules(s.points.map((p) => ({ z: p.z, label: `${p.roundCode} ${p.itemCode}` })));
   }
-  return { labId: lab, labName: org[0]?.name ?? '', series: [...series.values()] };
+  return [...series.values()];
 }

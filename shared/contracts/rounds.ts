@@ -15,12 +15,18 @@ export { DEFAULT_INSTRUCTIONS, SAFETY_CAUTIONS } from './safety';
 // ---- σ_pt and assigned-value rules (shapes of shared/stats SigmaPtRule / AssignedValueRule) ----
 
 export const SigmaPtRuleInput = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('fixed'), value: z.number().positive({ message: 'σ_pt must be above 0.' }) }),
-  z.object({ kind: z.literal('percent'), percent: z.number().positive().max(100) }),
+  z.object({ kind: z.literal('fixed'), value: z.number({ error: 'Enter σ_pt.' }).positive({ message: 'σ_pt must be above 0.' }) }),
+  z.object({
+    kind: z.literal('percent'),
+    percent: z
+      .number({ error: 'Enter the percentage of x_pt.' })
+      .positive({ message: 'The percentage must be above 0.' })
+      .max(100, { message: 'The percentage is at most 100.' }),
+  }),
   z.object({ kind: z.literal('robust-sd') }),
   z.object({
     kind: z.literal('precision'),
-    sigmaR: z.number().positive(),
+    sigmaR: z.number({ error: 'Enter σ_R from the precision study.' }).positive({ message: 'σ_R must be above 0.' }),
     sigmaRepeatability: z.number().positive().optional(),
     replicates: z.number().int().min(1).max(20).optional(),
     source: z.string().max(500).optional(),
@@ -31,7 +37,12 @@ export type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleInput>;
 export const AssignedValueRuleInput = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('consensus') }),
   z.object({ kind: z.literal('median') }),
-  z.object({ kind: z.literal('reference'), value: z.number().finite(), u: z.number().min(0), source: z.string().min(1).max(500) }),
+  z.object({
+    kind: z.literal('reference'),
+    value: z.number({ error: 'Enter the reference value.' }).finite(),
+    u: z.number({ error: 'Enter its standard uncertainty u.' }).min(0, { message: 'u cannot be negative.' }),
+    source: z.string().trim().min(1, { message: 'Name the source (e.g. the certificate).' }).max(500),
+  }),
 ]);
 export type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleInput>;
 
@@ -95,6 +106,22 @@ export const Measurand = z.object({
 });
 export type Measurand = z.infer<typeof Measurand>;
 
+/** PATCH of one measurand: any of its fields; a rule is replaced whole. */
+export const MeasurandUpdate = z
+  .object({
+    key: MeasurandInput.shape.key,
+    name: MeasurandInput.shape.name,
+    unit: MeasurandInput.shape.unit,
+    decimals: MeasurandInput.shape.decimals,
+    replicatesRequired: MeasurandInput.shape.replicatesRequired,
+    sigmaPtRule: SigmaPtRuleInput,
+    assignedValueRule: AssignedValueRuleInput,
+    minParticipants: MeasurandInput.shape.minParticipants.unwrap(),
+  })
+  .partial()
+  .refine((m) => Object.keys(m).length > 0, { message: 'Change at least one field.' });
+export type MeasurandUpdate = z.input<typeof MeasurandUpdate>;
+
 // ---- schemes ----
 
 export const SchemeCreate = z.object({
@@ -146,7 +173,35 @@ export const TestItem = z.object({
 });
 export type TestItem = z.infer<typeof TestItem>;
 
+const changeSomething = { message: 'Change at least one field.' };
+
+/** PATCH of one test item: any of its fields (no defaults, so an absent field stays as it is). */
+export const TestItemUpdate = z
+  .object({
+    code: TestItemInput.shape.code,
+    material: TestItemInput.shape.material,
+    nominalSizeNm: TestItemInput.shape.nominalSizeNm.unwrap(),
+    storageNotes: TestItemInput.shape.storageNotes.unwrap(),
+    handlingNotes: TestItemInput.shape.handlingNotes.unwrap(),
+  })
+  .partial()
+  .refine((i) => Object.keys(i).length > 0, changeSomething);
+export type TestItemUpdate = z.input<typeof TestItemUpdate>;
+
+export const ItemParams = z.object({ id: Id, itemId: Id });
+export const MeasurandParams = z.object({ id: Id, measurandId: Id });
+
 // ---- rounds ----
+
+/** States in which a round's test items and measurands may change (the server enforces it). */
+export const ROUND_DESIGN_STATES: readonly RoundState[] = ['draft', 'enrolling'];
+/** A published round does not change in place (a reissue reopens its description). */
+export const ROUND_LOCKED_STATES: readonly RoundState[] = ['published'];
+
+export const isDesignOpen = (state: RoundState): boolean => ROUND_DESIGN_STATES.includes(state);
+export const isDescriptionOpen = (state: RoundState): boolean => !ROUND_LOCKED_STATES.includes(state);
+/** The participation fee is fixed once enrolment has opened. */
+export const isFeeOpen = (state: RoundState): boolean => state === 'draft';
 
 /** A calendar date, YYYY-MM-DD. */
 export const DateOnly = z.iso.date({ message: 'Use a date like 2026-03-31.' });

@@ -116,6 +116,123 @@ describe('Round desk API', () => {
     });
   });
 
+  describe('one test item or measurand at a time', () => {
+    const patch = (path: string, body: unknown) => coord.agent.patch(`/api/v1${path}`).set('x-csrf-token', coord.csrf).send(body as object);
+    const del = (path: string) => coord.agent.delete(`/api/v1${path}`).set('x-csrf-token', coord.csrf);
+    const detail = async (id: string) => (await coord.agent.get(`/api/v1/rounds/${id}`).expect(200)).body;
+    const auditCount = (action: string) => t.ds.getRepository(AuditEvent).countBy({ action });
+
+    it('edits an item in draft (audited); a taken code is 409 item_code_taken and a bad size is 400 naming the field; nothing half-saved', async () => {
+      const id = await newRound('R-ITEM-EDIT');
+      const [a, b] = (await detail(id)).items;
+      const before = await auditCount('round.item-updated');
+      const res = await patch(`/rounds/${id}/items/${b.id}`, { material: 'Silica in 10 mM NaCl', nominalSizeNm: 62.5, storageNotes: 'Keep at 4 °C' }).expect(200);
+      expect(res.body).toMatchObject({ id: b.id, code: 'B', material: 'Silica in 10 mM NaCl', nominalSizeNm: 62.5, storageNotes: 'Keep at 4 °C', handlingNotes: '' });
+      expect(await auditCount('round.item-updated')).toBe(before + 1);
+
+      const taken = await patch(`/rounds/${id}/items/${b.id}`, { code: 'a', material: 'Changed too' }).expect(409);
+      expect(taken.body.error.code).toBe('item_code_taken');
+      const bad = await patch(`/rounds/${id}/items/${a.id}`, { material: 'Changed', nominalSizeNm: -1 }).expect(400);
+      expect(bad.body.error.details.map((d: { path: string }) => d.path)).toEqual(['nominalSizeNm']);
+      await patch(`/rounds/${id}/items/${a.id}`, {}).expect(400);
+      const after = (await detail(id)).items;
+      expect(after.map((i: { code: string; material: string }) => [i.code, i.material])).toEqual([['A', 'Polystyrene latex in water'], ['B', 'Silica in 10 mM NaCl']]);
+      expect(await auditCount('round.item-updated')).toBe(before + 1);
+    });
+
+    it('removes an item in draft; an item of another round answers 404; the last item of an enrolling round stays (422)', async () => {
+      const id = await newRound('R-ITEM-DEL');
+      const other = await newRound('R-ITEM-OTHER');
+      const [a, b] = (await detail(id)).items;
+      const [foreign] = (await detail(other)).items;
+      await del(`/rounds/${id}/items/${foreign.id}`).expect(404);
+      await patch(`/rounds/${id}/items/${foreign.id}`, { material: 'x' }).expect(404);
+      await del(`/rounds/${id}/items/${a.id}`).expect(204);
+      expect((await detail(id)).items.map((i: { code: string }) => i.code)).toEqual(['B']);
+      expect((await detail(other)).items).toHaveLength(2);
+      await moveTo(id, 'enrolling').expect(200);
+      const last = await del(`/rounds/${id}/items/${b.id}`).expect(422);
+      expect(last.body.error.code).toBe('round_incomplete');
+      expect((await detail(id)).items).toHaveLength(1);
+    });
+
+    it('refuses to remove an item or measurand with a recorded homogeneity check (409)', async () => {
+      const id = await newRound('R-ITEM-CHECK');
+      const d = await detail(id);
+      await post(coord, `/rounds/${id}/homogeneity`, {
+        kind: 'homogeneity', testItemId: d.items[0].id, measurandId: d.measurands[0].id, sigmaPt: 2,
+        data: { items: [[100, 100.2], [100.1, 100.3]] },
+      }).expect(201);
+      expect((await del(`/rounds/${id}/items/${d.items[0].id}`).expect(409)).body.error.code).toBe('item_has_checks');
+      expect((await del(`/rounds/${id}/measurands/${d.measurands[0].id}`).expect(409)).body.error.code).toBe('measurand_has_checks');
+      expect((await detail(id)).items).toHaveLength(2);
+    });
+
+    it('changes the Z-average σ_pt rule to 4 % of x_pt and the assigned value to a reference value, audited', async () => {
+      const id = await newRound('R-MEAS-EDIT');
+      const [z, pdi] = (await detail(id)).measurands;
+      const before = await auditCount('round.measurand-updated');
+      const res = await patch(`/rounds/${id}/measurands/${z.id}`, {
+        sigmaPtRule: { kind: 'percent', percent: 4 },
+        assignedValueRule: { kind: 'reference', value: 101.8, u: 0.9, source: 'Certificate of the reference material, lot 7' },
+        minParticipants: 8,
+      }).expect(200);
+      expect(res.body).toMatchObject({
+        key: 'z_average', decimals: 1, replicatesRequired: 3, minParticipants: 8,
+        sigmaPtRule: { kind: 'percent', percent: 4 },
+        assignedValueRule: { kind: 'reference', value: 101.8, u: 0.9 },
+      });
+      expect(await auditCount('round.measurand-updated')).toBe(before + 1);
+      const stored = (await detail(id)).measurands;
+      expect(stored[0].sigmaPtRule).toEqual({ kind: 'percent', percent: 4 });
+      expect(stored[1]).toMatchObject({ id: pdi.id, sigmaPtRule: { kind: 'robust-sd' } });
+    });
+
+    it('names the field of a bad rule (400), refuses a taken key (409), and saves nothing', async () => {
+      const id = await newRound('R-MEAS-BAD');
+      const [z] = (await detail(id)).measurands;
+      const percent = await patch(`/rounds/${id}/measurands/${z.id}`, { name: 'Changed', sigmaPtRule: { kind: 'percent', percent: 0 } }).expect(400);
+      expect(percent.body.error.details[0].path).toBe('sigmaPtRule.percent');
+      const source = await patch(`/rounds/${id}/measurands/${z.id}`, { assignedValueRule: { kind: 'reference', value: 100, u: 1, source: '' } }).expect(400);
+      expect(source.body.error.details[0].path).toBe('assignedValueRule.source');
+      const key = await patch(`/rounds/${id}/measurands/${z.id}`, { key: 'pdi', name: 'Changed' }).expect(409);
+      expect(key.body.error.code).toBe('measurand_key_taken');
+      expect(key.body.error.message).toMatch(/^key: /);
+      expect((await detail(id)).measurands[0]).toMatchObject({ key: 'z_average', name: 'Z-average diameter', sigmaPtRule: { kind: 'robust-sd' } });
+    });
+
+    it('removes a measurand in draft; the last measurand of an enrolling round stays (422)', async () => {
+      const id = await newRound('R-MEAS-DEL');
+      const [z, pdi] = (await detail(id)).measurands;
+      const before = await auditCount('round.measurand-removed');
+      await del(`/rounds/${id}/measurands/${pdi.id}`).expect(204);
+      expect((await detail(id)).measurands.map((m: { key: string }) => m.key)).toEqual(['z_average']);
+      expect(await auditCount('round.measurand-removed')).toBe(before + 1);
+      await moveTo(id, 'enrolling').expect(200);
+      expect((await del(`/rounds/${id}/measurands/${z.id}`).expect(422)).body.error.code).toBe('round_incomplete');
+    });
+
+    it('after enrolment, items and measurands are fixed: 409 round_not_editable, nothing changes', async () => {
+      const id = await newRound('R-DESIGN-LOCK', { resultsDueAt: PLUS_DAYS(20) });
+      await moveTo(id, 'enrolling').expect(200);
+      await inviteAndAccept(id, labA, 'alice@a.test', await signedIn(t, 'alice@a.test'));
+      await moveTo(id, 'in-transit').expect(200);
+      const d = await detail(id);
+      for (const res of [
+        await patch(`/rounds/${id}/items/${d.items[0].id}`, { material: 'Changed' }),
+        await del(`/rounds/${id}/items/${d.items[0].id}`),
+        await patch(`/rounds/${id}/measurands/${d.measurands[0].id}`, { sigmaPtRule: { kind: 'percent', percent: 4 } }),
+        await del(`/rounds/${id}/measurands/${d.measurands[0].id}`),
+      ]) {
+        expect(res.status).toBe(409);
+        expect(res.body.error.code).toBe('round_not_editable');
+      }
+      const after = await detail(id);
+      expect(after.items).toEqual(d.items);
+      expect(after.measurands).toEqual(d.measurands);
+    });
+  });
+
   describe('lifecycle', () => {
     it('refuses enrolment without items and measurands (422 round_incomplete)', async () => {
       const res = await post(coord, '/rounds', { schemeId, code: 'R-EMPTY', title: 'Empty', useSchemeMeasurands: false }).expect(201);

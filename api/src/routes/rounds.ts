@@ -11,8 +11,11 @@ import {
   InvitationAcceptResult,
   InvitationInfo,
   InvitationsCreate,
+  ItemParams,
   Measurand,
   MeasurandInput,
+  MeasurandParams,
+  MeasurandUpdate,
   RoundCreate,
   RoundDetail,
   RoundSummary,
@@ -25,6 +28,7 @@ import {
   StudyParams,
   TestItem,
   TestItemInput,
+  TestItemUpdate,
   TokenParams,
   TransitionRequest,
   Withdrawal,
@@ -111,6 +115,32 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
     method: 'post', path: '/rounds/{id}/measurands', tag, summary: 'Add measurands (draft or enrolling)',
     access: coordinator, params: IdParams, body: z.object({ measurands: z.array(MeasurandInput).min(1).max(20) }), status: 201, response: z.array(Measurand),
     handler: ({ params, body, user }) => rounds.addMeasurands(ctx, user, params.id, body.measurands),
+  });
+  const designRules =
+    '409 round_not_editable once the round has left enrolling (items and measurands change only in draft or enrolling); ';
+  api.add({
+    method: 'patch', path: '/rounds/{id}/items/{itemId}', tag, summary: 'Change one test item (draft or enrolling)',
+    description: designRules + '409 item_code_taken for a code the round already has.',
+    access: coordinator, params: ItemParams, body: TestItemUpdate, response: TestItem,
+    handler: ({ params, body, user }) => rounds.updateItem(ctx, user, params.id, params.itemId, body),
+  });
+  api.add({
+    method: 'delete', path: '/rounds/{id}/items/{itemId}', tag, summary: 'Remove one test item (draft or enrolling)',
+    description: designRules + '409 item_has_checks while homogeneity/stability checks are recorded for it; 422 round_incomplete for the last item of an enrolling round.',
+    access: coordinator, params: ItemParams, status: 204,
+    handler: ({ params, user }) => rounds.deleteItem(ctx, user, params.id, params.itemId),
+  });
+  api.add({
+    method: 'patch', path: '/rounds/{id}/measurands/{measurandId}', tag, summary: 'Change one measurand, its σ_pt or assigned-value rule (draft or enrolling)',
+    description: designRules + '409 measurand_key_taken for a key the round already has.',
+    access: coordinator, params: MeasurandParams, body: MeasurandUpdate, response: Measurand,
+    handler: ({ params, body, user }) => rounds.updateMeasurand(ctx, user, params.id, params.measurandId, body),
+  });
+  api.add({
+    method: 'delete', path: '/rounds/{id}/measurands/{measurandId}', tag, summary: 'Remove one measurand (draft or enrolling)',
+    description: designRules + '409 measurand_has_checks while homogeneity/stability checks are recorded for it; 422 round_incomplete for the last measurand of an enrolling round.',
+    access: coordinator, params: MeasurandParams, status: 204,
+    handler: ({ params, user }) => rounds.deleteMeasurand(ctx, user, params.id, params.measurandId),
   });
 
   // ---- invitations and enrolment ----

@@ -1,8 +1,12 @@
 import type { EntityManager } from 'typeorm';
-import { Measurand, Round, RoundTransition, Scheme, TestItem, User } from '../../../db/entities';
+import { HomogeneityStudy, Measurand, Round, RoundTransition, Scheme, TestItem, User } from '../../../db/entities';
 import {
+  isDescriptionOpen,
+  isDesignOpen,
+  isFeeOpen,
   MeasurandInput,
   type Measurand as MeasurandDto,
+  MeasurandUpdate,
   RoundCreate,
   type RoundDetail,
   type RoundSummary,
@@ -11,6 +15,7 @@ import {
   SchemeCreate,
   type TestItem as TestItemDto,
   TestItemInput,
+  TestItemUpdate,
 } from '../../../shared/contracts/rounds';
 import type { RoundState } from '../../../shared/contracts/round-states';
 import type * as z from 'zod';
@@ -22,10 +27,6 @@ import { hasOpenHomogeneityFailure, lockRound } from './round-lifecycle';
 
 type Out<T extends z.ZodType> = z.output<T>;
 
-/** States in which the round's items and measurands may still change. */
-const DESIGN_STATES: readonly RoundState[] = ['draft', 'enrolling'];
-/** States in which the round's description (dates, instructions, fee) may still change. */
-const LOCKED_STATES: readonly RoundState[] = ['published'];
 
 function schemeDto(s: Scheme): SchemeDto {
   return {
@@ -221,10 +222,10 @@ export async function createRound(ctx: AppContext, actor: SessionUser, input: Ou
 export async function updateRound(ctx: AppContext, actor: SessionUser, id: string, patch: Out<typeof RoundUpdate>): Promise<RoundDetail> {
   return ctx.ds.transaction(async (em) => {
     const round = await lockRound(em, id);
-    if (LOCKED_STATES.includes(round.state)) {
+    if (!isDescriptionOpen(round.state)) {
       throw conflict('round_locked', 'A published round does not change in place; reissue it.');
     }
-    if (patch.feeMinor !== undefined && patch.feeMinor !== round.feeMinor && round.state !== 'draft') {
+    if (patch.feeMinor !== undefined && patch.feeMinor !== round.feeMinor && !isFeeOpen(round.state)) {
       throw conflict('fee_locked', 'feeMinor: the participation fee is fixed once enrolment has opened.');
     }
     const next = {
@@ -250,7 +251,7 @@ export async function updateRound(ctx: AppContext, actor: SessionUser, id: strin
 
 async function lockDesignable(em: EntityManager, id: string): Promise<Round> {
   const round = await lockRound(em, id);
-  if (!DESIGN_STATES.includes(round.state)) {
+  if (!isDesignOpen(round.state)) {
     throw conflict('round_not_editable', 'Test items and measurands change only while the round is a draft or enrolling.');
   }
   return round;
@@ -271,5 +272,84 @@ export async function addMeasurands(ctx: AppContext, actor: SessionUser, roundId
     await insertMeasurands(em, roundId, measurands);
     await audit(em, actor.id, 'round.measurands-added', 'round', roundId, { keys: measurands.map((m) => m.key) });
     return (await em.find(Measurand, { where: { roundId }, order: { position: 'ASC' } })).map(measurandDto);
+  });
+}
+
+/**
+ * Changes one test item (draft or enrolling). The code stays unique within the round
+ * (case-insensitive, as when adding).
+ */
+export async function updateItem(ctx: AppContext, actor: SessionUser, roundId: string, itemId: string, patch: Out<typeof TestItemUpdate>): Promise<TestItemDto> {
+  return ctx.ds.transaction(async (em) => {
+    await lockDesignable(em, roundId);
+    const item = await em.findOne(TestItem, { where: { id: itemId, roundId } });
+    if (!item) throw notFound('The test item');
+    if (patch.code !== undefined && patch.code.toLowerCase() !== item.code.toLowerCase()) {
+      const others = await em.find(TestItem, { where: { roundId } });
+      if (others.some((o) => o.id !== itemId && o.code.toLowerCase() === patch.code!.toLowerCase())) {
+        throw conflict('item_code_taken', `code: the round already has a test item ${patch.code}.`);
+      }
+    }
+    await em.update(TestItem, { id: itemId }, patch);
+    await audit(em, actor.id, 'round.item-updated', 'round', roundId, { itemId, code: item.code, changes: { ...patch } });
+    return itemDto(await em.findOneOrFail(TestItem, { where: { id: itemId } }));
+  });
+}
+
+/**
+ * Removes one test item (draft or enrolling). Refused while homogeneity/stability checks are
+ * recorded for it (they are evidence), and for the last item of an enrolling round (labs were
+ * invited to measure something).
+ */
+export async function deleteItem(ctx: AppContext, actor: SessionUser, roundId: string, itemId: string): Promise<void> {
+  await ctx.ds.transaction(async (em) => {
+    const round = await lockDesignable(em, roundId);
+    const item = await em.findOne(TestItem, { where: { id: itemId, roundId } });
+    if (!item) throw notFound('The test item');
+    if (await em.count(HomogeneityStudy, { where: { testItemId: itemId } })) {
+      throw conflict('item_has_checks', `Item ${item.code} has homogeneity or stability checks recorded; it cannot be removed.`);
+    }
+    if (round.state === 'enrolling' && (await em.count(TestItem, { where: { roundId } })) === 1) {
+      throw ruleBroken('round_incomplete', 'An enrolling round keeps at least one test item.');
+    }
+    await em.delete(TestItem, { id: itemId });
+    await audit(em, actor.id, 'round.item-removed', 'round', roundId, { itemId, code: item.code });
+  });
+}
+
+/** Changes one measurand (draft or enrolling); a σ_pt or assigned-value rule is replaced whole. */
+export async function updateMeasurand(ctx: AppContext, actor: SessionUser, roundId: string, measurandId: string, patch: Out<typeof MeasurandUpdate>): Promise<MeasurandDto> {
+  return ctx.ds.transaction(async (em) => {
+    await lockDesignable(em, roundId);
+    const m = await em.findOne(Measurand, { where: { id: measurandId, roundId } });
+    if (!m) throw notFound('The measurand');
+    if (patch.key !== undefined && patch.key !== m.key && (await em.count(Measurand, { where: { roundId, key: patch.key } }))) {
+      throw conflict('measurand_key_taken', `key: the round already measures ${patch.key}.`);
+    }
+    const { sigmaPtRule, assignedValueRule, ...rest } = patch;
+    const key = m.key;
+    Object.assign(m, rest);
+    if (sigmaPtRule) m.sigmaPtRule = sigmaPtRule as Record<string, unknown>;
+    if (assignedValueRule) m.assignedValueRule = assignedValueRule as Record<string, unknown>;
+    const saved = await em.save(Measurand, m);
+    await audit(em, actor.id, 'round.measurand-updated', 'round', roundId, { measurandId, key, changes: { ...patch } });
+    return measurandDto(saved);
+  });
+}
+
+/** Removes one measurand (draft or enrolling), with the same guards as removing a test item. */
+export async function deleteMeasurand(ctx: AppContext, actor: SessionUser, roundId: string, measurandId: string): Promise<void> {
+  await ctx.ds.transaction(async (em) => {
+    const round = await lockDesignable(em, roundId);
+    const m = await em.findOne(Measurand, { where: { id: measurandId, roundId } });
+    if (!m) throw notFound('The measurand');
+    if (await em.count(HomogeneityStudy, { where: { measurandId } })) {
+      throw conflict('measurand_has_checks', `${m.name} has homogeneity or stability checks recorded; it cannot be removed.`);
+    }
+    if (round.state === 'enrolling' && (await em.count(Measurand, { where: { roundId } })) === 1) {
+      throw ruleBroken('round_incomplete', 'An enrolling round keeps at least one measurand.');
+    }
+    await em.delete(Measurand, { id: measurandId });
+    await audit(em, actor.id, 'round.measurand-removed', 'round', roundId, { measurandId, key: m.key });
   });
 }

@@ -23,7 +23,9 @@ import { localToIso } from './round-dialog';
 
 /** What a desk dialog asks for; `send` performs the call with the parsed value. */
 export interface DeskDialogData<T> {
-  readonly kind: 'transition' | 'withdrawal' | 'extension' | 'dispatch' | 'decision';
+  readonly kind: 'transition' | 'withdrawal' | 'extension' | 'dispatch' | 'decision' | 'confirm';
+  /** For 'confirm': the button's label (e.g. "Remove item C"). */
+  readonly confirmLabel?: string;
   readonly title: string;
   readonly intro?: string;
   /** For a transition: the target state and whether the move may need force (closing early). */
@@ -39,7 +41,7 @@ const DECISION_LABELS: Record<z.infer<typeof HomogeneityDecisionKind>, string> =
   'exclude-item': 'Exclude the item from scoring',
 };
 
-/** One dialog for the Round desk's small actions: transitions, withdrawal, extension, dispatch, decision. */
+/** One dialog for the Round desk's small actions: transitions, withdrawal, extension, dispatch, decision, confirming a removal. */
 @Component({
   selector: 'app-desk-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -68,7 +70,7 @@ const DECISION_LABELS: Record<z.infer<typeof HomogeneityDecisionKind>, string> =
             </mat-select>
             <mat-error>{{ errorMessage(form.controls.decision) }}</mat-error></mat-form-field>
         }
-        @if (data.kind !== 'dispatch') {
+        @if (data.kind !== 'dispatch' && data.kind !== 'confirm') {
           <mat-form-field>
             <mat-label>Reason{{ data.reasonRequired || data.kind !== 'transition' ? '' : ' (optional)' }}</mat-label>
             <textarea matInput formControlName="reason" rows="3"></textarea>
@@ -95,7 +97,7 @@ export class DeskDialog<T> {
   protected readonly failure = signal<string | null>(null);
   protected readonly decisions = Object.entries(DECISION_LABELS);
   protected readonly confirmLabel =
-    this.data.kind === 'transition' && this.data.to ? `Move to ${ROUND_STATE_LABELS[this.data.to]}` : 'Confirm';
+    this.data.kind === 'transition' && this.data.to ? `Move to ${ROUND_STATE_LABELS[this.data.to]}` : (this.data.confirmLabel ?? 'Confirm');
   protected readonly form = inject(NonNullableFormBuilder).group({
     reason: [''],
     force: [false],
@@ -120,6 +122,8 @@ export class DeskDialog<T> {
         return parseWith(this.form, DispatchInput, { courier: v.courier, trackingNumber: v.trackingNumber, dispatchedOn: v.dispatchedOn }, this.failure);
       case 'decision':
         return parseWith(this.form, StudyDecision, { decision: v.decision, reason: v.reason }, this.failure);
+      case 'confirm':
+        return {};
     }
   }
 

@@ -12,9 +12,12 @@ import type { ColDef } from 'ag-grid-community';
 import type { Observable } from 'rxjs';
 import type { Organisation } from '@ringlet/shared/contracts/admin';
 import {
+  DLS_DEFAULT_MEASURANDS,
   type Enrolment,
   type Invitation,
   InvitationsCreate,
+  isDescriptionOpen,
+  isDesignOpen,
   type Measurand,
   type ReceiptStatus,
   type RoundDetail as RoundDetailDto,
@@ -23,10 +26,15 @@ import {
   type TestItem,
 } from '@ringlet/shared/contracts/rounds';
 import { ROUND_STATE_LABELS, ROUND_TRANSITIONS, type RoundState } from '@ringlet/shared/contracts/round-states';
+import { problemMessage } from '../core/problem';
 import { SignalBadge } from '../core/signal-badge';
 import { errorMessage } from '../core/zod-form-errors';
 import { ActionCell, type RowAction } from '../grid/action-cell';
 import { DeskDialog, type DeskDialogData } from './desk-dialogs';
+import { ItemDialog, type ItemDialogData } from './item-dialog';
+import { MeasurandDialog, type MeasurandDialogData } from './measurand-dialog';
+import { assignedRuleText, sigmaRuleText } from './measurand-rules';
+import { RoundEditDialog } from './round-edit-dialog';
 import { parseWith, showServerError } from './form-errors';
 import { formatDate, formatMoney, ringletGridTheme } from './rounds-grid';
 import { RoundsService } from './rounds.service';
@@ -58,6 +66,9 @@ const BOARD_TARGETS: readonly RoundState[] = ['evaluated', 'published'];
           · Results due {{ formatDate(r.resultsDueAt, true) }} · Fee {{ formatMoney(r.feeMinor, r.currency) }}
         </p>
         <div class="page-actions">
+          @if (descriptionOpen()) {
+            <button mat-stroked-button type="button" data-testid="edit-round" (click)="editRound()"><mat-icon>edit</mat-icon> Edit round</button>
+          }
           @for (to of nextStates(); track to) {
             <button mat-flat-button type="button" [attr.data-testid]="'move-' + to" (click)="move(to)">Move to {{ stateLabel(to) }}</button>
           }
@@ -74,12 +85,27 @@ const BOARD_TARGETS: readonly RoundState[] = ['evaluated', 'published'];
         <pre class="instructions">{{ r.instructions }}</pre>
 
         <h2>Test items</h2>
+        @if (designOpen()) {
+          <div class="page-actions">
+            <button mat-stroked-button type="button" data-testid="add-test-item" (click)="editItem()"><mat-icon>add</mat-icon> Add test item</button>
+          </div>
+        } @else {
+          <p>Test items and measurands are fixed once the round has left enrolling.</p>
+        }
         <ag-grid-angular class="grid-small" [theme]="theme" [loadThemeGoogleFonts]="false" domLayout="autoHeight"
-          [rowData]="r.items" [columnDefs]="itemColumns" aria-label="Test items" />
+          [rowData]="r.items" [columnDefs]="itemColumns()" [getRowId]="rowId" aria-label="Test items" />
 
         <h2>Measurands</h2>
+        @if (designOpen()) {
+          <div class="page-actions">
+            <button mat-stroked-button type="button" data-testid="add-measurand" (click)="editMeasurand()"><mat-icon>add</mat-icon> Add measurand</button>
+            @if (lacksDlsDefaults()) {
+              <button mat-stroked-button type="button" data-testid="add-dls-defaults" [disabled]="busy()" (click)="addDlsDefaults()">Add Z-average and PDI</button>
+            }
+          </div>
+        }
         <ag-grid-angular class="grid-small" [theme]="theme" [loadThemeGoogleFonts]="false" domLayout="autoHeight"
-          [rowData]="r.measurands" [columnDefs]="measurandColumns" aria-label="Measurands" />
+          [rowData]="r.measurands" [columnDefs]="measurandColumns()" [getRowId]="rowId" aria-label="Measurands" />
 
         <h2>Invitations</h2>
         @if (r.state === 'enrolling') {
@@ -215,7 +241,14 @@ export class RoundDetail implements OnInit {
   protected readonly message = signal<string | null>(null);
   protected readonly inviteFailure = signal<string | null>(null);
   protected readonly studyFailure = signal<string | null>(null);
-  protected readonly rowId = (p: { data: Enrolment }) => p.data.id;
+  protected readonly rowId = (p: { data: { id: string } }) => p.data.id;
+  protected readonly designOpen = computed(() => !!this.round() && isDesignOpen(this.round()!.state));
+  protected readonly descriptionOpen = computed(() => !!this.round() && isDescriptionOpen(this.round()!.state));
+  /** Offer the DLS defaults in one click while the round measures neither of them. */
+  protected readonly lacksDlsDefaults = computed(() => {
+    const keys = new Set(this.round()?.measurands.map((m) => m.key));
+    return DLS_DEFAULT_MEASURANDS.every((m) => !keys.has(m.key));
+  });
 
   protected readonly nextStates = computed(() => {
     const r = this.round();
@@ -237,22 +270,37 @@ export class RoundDetail implements OnInit {
     text: [''],
   });
 
-  protected readonly itemColumns: ColDef<TestItem>[] = [
+  private readonly itemActions: RowAction<TestItem>[] = [
+    { label: 'Edit', ariaLabel: (i) => `Edit item ${i.code}`, run: (i) => this.editItem(i) },
+    { label: 'Remove', ariaLabel: (i) => `Remove item ${i.code}`, run: (i) => this.removeItem(i) },
+  ];
+  protected readonly itemColumns = computed<ColDef<TestItem>[]>(() => [
     { field: 'code', headerName: 'Item', width: 90 },
     { field: 'material', headerName: 'Material', flex: 1, minWidth: 180 },
     { field: 'nominalSizeNm', headerName: 'Nominal size (nm)', width: 160, type: 'rightAligned' },
     { field: 'storageNotes', headerName: 'Storage', flex: 1 },
     { field: 'handlingNotes', headerName: 'Handling', flex: 1 },
+    ...(this.designOpen()
+      ? [{ colId: 'actions', headerName: '', width: 180, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.itemActions } }]
+      : []),
+  ]);
+  private readonly measurandActions: RowAction<Measurand>[] = [
+    { label: 'Edit', ariaLabel: (m) => `Edit measurand ${m.name}`, run: (m) => this.editMeasurand(m) },
+    { label: 'Remove', ariaLabel: (m) => `Remove measurand ${m.name}`, run: (m) => this.removeMeasurand(m) },
   ];
-  protected readonly measurandColumns: ColDef<Measurand>[] = [
+  protected readonly measurandColumns = computed<ColDef<Measurand>[]>(() => [
     { field: 'name', headerName: 'Measurand', flex: 1, minWidth: 180 },
+    { field: 'key', headerName: 'Key', width: 110 },
     { field: 'unit', headerName: 'Unit', width: 80, valueFormatter: ({ value }) => (value as string) || '–' },
     { field: 'decimals', headerName: 'Decimals', width: 100, type: 'rightAligned' },
     { field: 'replicatesRequired', headerName: 'Replicates', width: 110, type: 'rightAligned' },
-    { colId: 'sigma', headerName: 'σ_pt rule', width: 150, valueGetter: ({ data }) => sigmaRuleText(data?.sigmaPtRule) },
-    { colId: 'xpt', headerName: 'Assigned value', width: 150, valueGetter: ({ data }) => data?.assignedValueRule.kind ?? '' },
+    { colId: 'sigma', headerName: 'σ_pt rule', width: 170, valueGetter: ({ data }) => (data ? sigmaRuleText(data.sigmaPtRule, data.unit) : '') },
+    { colId: 'xpt', headerName: 'Assigned value', flex: 1, minWidth: 170, valueGetter: ({ data }) => (data ? assignedRuleText(data.assignedValueRule, data.unit) : '') },
     { field: 'minParticipants', headerName: 'Min. participants', width: 150, type: 'rightAligned' },
-  ];
+    ...(this.designOpen()
+      ? [{ colId: 'actions', headerName: '', width: 180, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.measurandActions } }]
+      : []),
+  ]);
   protected readonly invitationColumns: ColDef<Invitation>[] = [
     { field: 'email', headerName: 'E-mail', flex: 1, minWidth: 200 },
     { colId: 'lab', headerName: 'Lab', flex: 1, valueGetter: ({ data }) => data?.organisationName ?? (data?.labName ? `${data.labName} (new)` : '') },
@@ -334,6 +382,62 @@ export class RoundDetail implements OnInit {
         this.reload();
       },
     );
+  }
+
+  protected editRound(): void {
+    const r = this.round();
+    if (!r) return;
+    this.dialog
+      .open(RoundEditDialog, { data: r, width: '720px', maxWidth: '95vw' })
+      .afterClosed()
+      .subscribe((updated?: RoundDetailDto) => {
+        if (updated) this.round.set(updated);
+      });
+  }
+
+  /** Add a test item (no argument) or edit one. */
+  protected editItem(item?: TestItem): void {
+    const data: ItemDialogData = { roundId: this.id(), item };
+    this.dialog.open(ItemDialog, { data, width: '560px', maxWidth: '95vw' }).afterClosed().subscribe((saved?: true) => {
+      if (saved) this.reload();
+    });
+  }
+
+  private removeItem(item: TestItem): void {
+    this.open(
+      { kind: 'confirm', title: `Remove test item ${item.code}?`, intro: `${item.code} · ${item.material}`, confirmLabel: `Remove item ${item.code}`, send: () => this.api.deleteItem(this.id(), item.id) },
+      () => this.reload(),
+    );
+  }
+
+  /** Add a measurand (no argument) or edit one with its σ_pt and assigned-value rules. */
+  protected editMeasurand(measurand?: Measurand): void {
+    const data: MeasurandDialogData = { roundId: this.id(), measurand };
+    this.dialog.open(MeasurandDialog, { data, width: '720px', maxWidth: '95vw' }).afterClosed().subscribe((saved?: true) => {
+      if (saved) this.reload();
+    });
+  }
+
+  private removeMeasurand(m: Measurand): void {
+    this.open(
+      { kind: 'confirm', title: `Remove measurand ${m.name}?`, confirmLabel: `Remove ${m.name}`, send: () => this.api.deleteMeasurand(this.id(), m.id) },
+      () => this.reload(),
+    );
+  }
+
+  protected addDlsDefaults(): void {
+    this.message.set(null);
+    this.busy.set(true);
+    this.api.addMeasurands(this.id(), [...DLS_DEFAULT_MEASURANDS]).subscribe({
+      next: () => {
+        this.busy.set(false);
+        this.reload();
+      },
+      error: (e: unknown) => {
+        this.busy.set(false);
+        this.message.set(problemMessage(e));
+      },
+    });
   }
 
   private inviteRow() {
@@ -432,12 +536,3 @@ export class RoundDetail implements OnInit {
   }
 }
 
-function sigmaRuleText(rule: Measurand['sigmaPtRule'] | undefined): string {
-  if (!rule) return '';
-  switch (rule.kind) {
-    case 'fixed': return `fixed ${rule.value}`;
-    case 'percent': return `${rule.percent} % of x_pt`;
-    case 'robust-sd': return 'robust SD s*';
-    case 'precision': return `precision σ_R ${rule.sigmaR}`;
-  }
-}

@@ -13,6 +13,7 @@ import {
   InvitationInfo,
   Measurand,
   type MeasurandInput,
+  type MeasurandUpdate,
   type RoundCreate,
   RoundDetail,
   RoundSummary,
@@ -24,6 +25,7 @@ import {
   type StudyInput,
   TestItem,
   type TestItemInput,
+  type TestItemUpdate,
   type TransitionRequest,
 } from '@ringlet/shared/contracts/rounds';
 import { API, HANDLED_STATUSES } from '../core/api';
@@ -64,6 +66,22 @@ export class RoundsService {
     return this.http
       .post<unknown>(`${API}/rounds/${id}/measurands`, { measurands }, formCall)
       .pipe(map((b) => z.array(Measurand).parse(b)));
+  }
+  updateItem(id: string, itemId: string, body: TestItemUpdate): Observable<TestItem> {
+    return this.http.patch<unknown>(`${API}/rounds/${id}/items/${itemId}`, body, formCall).pipe(map((b) => TestItem.parse(b)));
+  }
+  /** Emits true once removed (the server answers 204). */
+  deleteItem(id: string, itemId: string): Observable<true> {
+    return this.http.delete(`${API}/rounds/${id}/items/${itemId}`, formCall).pipe(map(() => true as const));
+  }
+  updateMeasurand(id: string, measurandId: string, body: MeasurandUpdate): Observable<Measurand> {
+    return this.http
+      .patch<unknown>(`${API}/rounds/${id}/measurands/${measurandId}`, body, formCall)
+      .pipe(map((b) => Measurand.parse(b)));
+  }
+  /** Emits true once removed (the server answers 204). */
+  deleteMeasurand(id: string, measurandId: string): Observable<true> {
+    return this.http.delete(`${API}/rounds/${id}/measurands/${measurandId}`, formCall).pipe(map(() => true as const));
   }
   labs(): Observable<Organisation[]> {
     return this.http.get<unknown>(`${API}/lab-directory`).pipe(map((b) => z.array(Organisation).parse(b)));

@@ -13,9 +13,10 @@ import { Email } from '@ringlet/shared/contracts/common';
 import { AuthService } from '../../core/auth.service';
 import { fieldIssuesOf, problemMessage } from '../../core/problem';
 import { applyServerIssues, applyZodIssues, errorMessage, zodValidator } from '../../core/zod-form-errors';
+import { AssessorGrants } from './assessor-grants';
 import { LabMembersService } from './lab-members.service';
 
-/** For lab managers: who belongs to the lab, invite a colleague, remove one. */
+/** For lab managers: who belongs to the lab, invite a colleague, remove one; assessor access. */
 @Component({
   selector: 'app-lab-members',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -27,6 +28,7 @@ import { LabMembersService } from './lab-members.service';
     MatInputModule,
     MatSelectModule,
     MatCheckboxModule,
+    AssessorGrants,
   ],
   template: `
     <section class="page">
@@ -90,6 +92,8 @@ import { LabMembersService } from './lab-members.service';
         @if (failure(); as message) {
           <p class="form-error" role="alert">{{ message }}</p>
         }
+
+        <app-assessor-grants [labId]="labId()!" />
       }
     </section>
   `,

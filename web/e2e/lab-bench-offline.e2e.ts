@@ -37,7 +37,7 @@ describe('Lab bench with a dropped connection', () => {
     await page.context().setOffline(true);
     const aP = [0.051, 0.055, 0.049];
     for (const [k, v] of aP.entries()) await page.getByTestId(`rep-A-pdi-${k + 1}`).fill(String(v));
-    await state.filter({ hasText: 'Offline — will retry' }).waitFor({ timeout: 15_000 });
+    await state.filter({ hasText: 'Offline — will retry' }).waitFor({ timeout: 45_000 });
     expect(await state.getAttribute('data-state')).toBe('offline');
     await page.getByRole('button', { name: 'Retry now' }).waitFor();
     await e.shot(page, 'lab-bench-offline');
@@ -50,7 +50,7 @@ describe('Lab bench with a dropped connection', () => {
 
     // Back online: the 'online' event triggers the save at once
     await page.context().setOffline(false);
-    await state.filter({ hasText: 'Saved' }).waitFor({ timeout: 15_000 });
+    await state.filter({ hasText: 'Saved' }).waitFor({ timeout: 45_000 });
     expect(await state.getAttribute('data-state')).toBe('saved');
 
     // A reload shows every value typed, online and offline

@@ -65,6 +65,9 @@ export async function startE2E(): Promise<E2E> {
     async page() {
       const ctx = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 860 }, acceptDownloads: true });
       contexts.push(ctx);
+      // A loaded 2-core CI machine runs browser and API tests side by side: be patient, not flaky.
+      ctx.setDefaultTimeout(60_000);
+      ctx.setDefaultNavigationTimeout(60_000);
       const p = await ctx.newPage();
       p.on('console', (m) => {
         if (m.type() === 'error') consoleErrors.push(m.text());
@@ -77,8 +80,8 @@ export async function startE2E(): Promise<E2E> {
       await page.getByLabel('E-mail').fill(email);
       await page.getByLabel('Password', { exact: true }).fill(password);
       await page.getByRole('button', { name: 'Sign in' }).click();
-      await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'), { timeout: 15000 });
-      await page.getByTestId('page-heading').first().waitFor({ timeout: 15000 });
+      await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'), { timeout: 60_000 });
+      await page.getByTestId('page-heading').first().waitFor({ timeout: 60_000 });
     },
     async shot(page, name) {
       await page.screenshot({ path: join(ARTIFACTS, `${name}.png`), fullPage: true });

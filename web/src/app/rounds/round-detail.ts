@@ -324,7 +324,7 @@ export class RoundDetail implements OnInit {
     { colId: 'condition', headerName: 'Condition', width: 120, valueGetter: ({ data }) => data?.shipment?.condition ?? '' },
     { field: 'extensionUntil', headerName: 'Extension until', width: 170, valueFormatter: ({ value }) => (value ? formatDate(value as string, true) : '') },
     { field: 'submitted', headerName: 'Submitted', width: 100, valueFormatter: ({ value }) => (value ? 'Yes' : 'No') },
-    { colId: 'actions', headerName: '', width: 260, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.enrolmentActions } },
+    { colId: 'actions', headerName: 'Actions', pinned: 'right', width: 260, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.enrolmentActions } },
   ];
   private readonly studyActions: RowAction<Study>[] = [
     { label: 'Decide', ariaLabel: (s) => `Record a decision on ${s.kind} of ${s.testItemCode}`, run: (s) => this.decide(s) },

@@ -44,7 +44,8 @@ find_bin() {
 
 # Run a command as the cluster's owner: ourselves, or `postgres` when we are root.
 as_owner() {
-  if [ "$(id -u)" = 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi
+  # (from / so that postgres need not reach the caller's working directory)
+  if [ "$(id -u)" = 0 ]; then (cd / && runuser -u postgres -- "$@"); else "$@"; fi
 }
 
 # Where the cluster lives: .data/postgres in the repo, unless the `postgres` user cannot reach it
@@ -54,7 +55,7 @@ data_dir() {
   if [ "$(id -u)" = 0 ]; then
     mkdir -p "$dir"
     chown postgres:postgres "$dir"
-    if ! runuser -u postgres -- test -w "$dir"; then
+    if ! (cd / && runuser -u postgres -- test -w "$dir"); then
       local hash
       hash=$(printf '%s' "$repo" | sha1sum | cut -c1-12)
       dir="/var/tmp/ringlet-pg-$hash"

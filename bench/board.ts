@@ -62,6 +62,20 @@ async function signIn(port: number, agent: http.Agent, email: string): Promise<S
 }
 
 /** Closed-loop load: CLIENTS workers, each with its own session and keep-alive socket. */
+/** Like `request`, but only counts the body's bytes: a load generator (as wrk) does not decode. */
+function fetchCounting(port: number, agent: http.Agent, path: string, headers: Record<string, string>): Promise<{ status: number; bytes: number }> {
+  return new Promise((resolve, reject) => {
+    const req = http.request({ host: '127.0.0.1', port, method: 'GET', path, agent, headers }, (res) => {
+      let bytes = 0;
+      res.on('data', (c: Buffer) => (bytes += c.length));
+      res.on('end', () => resolve({ status: res.statusCode ?? 0, bytes }));
+      res.on('error', reject);
+    });
+    req.on('error', reject);
+    req.end();
+  });
+}
+
 async function load(port: number, sessions: Session[], path: string, total: number): Promise<{ latencies: number[]; seconds: number; bytes: number }> {
   const latencies: number[] = [];
   let issued = 0;
@@ -73,10 +87,10 @@ async function load(port: number, sessions: Session[], path: string, total: numb
       while (issued < total && performance.now() - started < TIME_LIMIT_MS) {
         issued++;
         const t0 = performance.now();
-        const r = await request(port, agent, 'GET', path, { cookie: s.cookie });
+        const r = await fetchCounting(port, agent, path, { cookie: s.cookie });
         latencies.push(performance.now() - t0);
         if (r.status !== 200) throw new Error(`${path}: ${r.status}`);
-        bytes = r.body.length;
+        bytes = r.bytes;
       }
       agent.destroy();
     }),

@@ -23,11 +23,32 @@ export function createPassport(ds: DataSource): Authenticator {
   );
   p.serializeUser((user, done) => done(null, (user as Express.User).id));
   p.deserializeUser((id: string, done) => {
+    const hit = sessionUsers.get(id);
+    if (hit && hit.until > Date.now()) {
+      done(null, hit.user);
+      return;
+    }
     loadSessionUser(ds.manager, id)
-      .then((u) => done(null, u ?? false))
+      .then((u) => {
+        if (u) sessionUsers.set(id, { user: u, until: Date.now() + SESSION_USER_TTL_MS });
+        done(null, u ?? false);
+      })
       .catch(done);
   });
   return p;
+}
+
+/**
+ * The signed-in user is read on every request; reads within a second reuse it. Any
+ * state-changing request on this instance forgets them all (ApiRouter calls forgetSessionUsers),
+ * so a change of roles or memberships shows at once here and within a second on other instances.
+ * Signing a user out everywhere deletes their sessions, which no cache outlives.
+ */
+export const SESSION_USER_TTL_MS = 1000;
+const sessionUsers = new Map<string, { user: Express.User; until: number }>();
+
+export function forgetSessionUsers(): void {
+  sessionUsers.clear();
 }
 
 /** Runs the local strategy on the (already validated) body: the matching user, or null. */

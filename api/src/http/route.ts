@@ -1,6 +1,7 @@
 import { Router, type NextFunction, type Request, type Response } from 'express';
 import type { ZodType, z } from 'zod';
 import type { Role } from '../../../shared/contracts/auth';
+import { forgetSessionUsers } from '../auth/passport';
 import type { SessionUser } from '../auth/session-user';
 import { describe, fieldIssues, forbidden, HttpError, unauthorized } from './errors';
 
@@ -102,6 +103,7 @@ export class ApiRouter {
         const params = parsePart(def.params, req.params, 'params');
         const query = parsePart(def.query, req.query, 'query');
         const body = parsePart(def.body, req.body, 'body');
+        if (stateChanging) forgetSessionUsers();
         const result = await def.handler({
           req,
           res,
@@ -110,6 +112,7 @@ export class ApiRouter {
           query: query as never,
           user: req.user as SessionUser,
         });
+        if (stateChanging) forgetSessionUsers();
         if (res.headersSent) return;
         const status = def.status ?? 200;
         if (status === 204 || result === undefined) res.status(status === 200 ? 204 : status).end();

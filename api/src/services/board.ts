@@ -57,13 +57,7 @@ export async function boardJson(ctx: AppContext, user: SessionUser, roundId: str
   const viewer = viewerOf(user);
   let ownCodes: string[] = [];
   let labNames: Record<string, string> = {};
-  if (viewer === 'lab' || (viewer === 'assessor' && user.roles.includes('lab'))) {
-    const rows: { participant_code: string }[] = await em.query(
-      'SELECT participant_code FROM enrolment WHERE round_id = $1 AND organisation_id = ANY($2)',
-      [roundId, labIds(user)],
-    );
-    ownCodes = rows.map((r) => r.participant_code);
-  }
+  const ownLabs = viewer === 'lab' || (viewer === 'assessor' && user.roles.includes('lab')) ? labIds(user) : [];
   if (viewer === 'assessor') {
     const granted = await grantedLabIds(em, user.id);
     const rows: { participant_code: string; name: string }[] = granted.length
@@ -74,18 +68,22 @@ export async function boardJson(ctx: AppContext, user: SessionUser, roundId: str
         )
       : [];
     for (const r of rows) labNames[r.participant_code] = r.name;
-    if (rows.length === 0 && ownCodes.length === 0) throw notFound('The board');
   }
-  if (viewer === 'lab' && ownCodes.length === 0) throw notFound('The board');
 
-  const heads: Head[] = await em.query(
-    `SELECT e.id, e.version, e.state, e.published_at, e.computed_at, r.code AS round_code, r.title AS round_title
+  // One round trip: the newest visible evaluation and the viewer's own participant codes.
+  const heads: (Head & { own_codes: string[] })[] = await em.query(
+    `SELECT e.id, e.version, e.state, e.published_at, e.computed_at, r.code AS round_code, r.title AS round_title,
+            ARRAY(SELECT en.participant_code FROM enrolment en WHERE en.round_id = r.id AND en.organisation_id = ANY($2::uuid[])) AS own_codes
        FROM evaluation e JOIN round r ON r.id = e.round_id
       WHERE e.round_id = $1 ${viewer === 'coordinator' ? '' : `AND e.state = 'published'`}
       ORDER BY e.version DESC LIMIT 1`,
-    [roundId],
+    [roundId, ownLabs],
   );
   const head = heads[0];
+  if (head) ownCodes = head.own_codes;
+  // A lab sees only rounds it took part in; an assessor only rounds of labs that granted access.
+  if (viewer === 'lab' && ownCodes.length === 0) throw notFound('The board');
+  if (viewer === 'assessor' && Object.keys(labNames).length === 0 && ownCodes.length === 0) throw notFound('The board');
   if (!head) throw notFound('The board');
 
   if (viewer === 'coordinator' && revealNames) {

@@ -9,6 +9,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { DEFAULT_INSTRUCTIONS, RoundCreate, type Scheme } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../core/zod-form-errors';
 import { parseWith, showServerError } from './form-errors';
+import { RoundScheduleFields } from './round-schedule-fields';
 import { RoundsService } from './rounds.service';
 
 export interface RoundDialogData {
@@ -26,7 +27,7 @@ export function localToIso(value: string): string | null {
 @Component({
   selector: 'app-round-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatButtonModule, MatIconModule],
+  imports: [ReactiveFormsModule, RoundScheduleFields, MatDialogModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatButtonModule, MatIconModule],
   template: `
     <h2 mat-dialog-title>New round</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
@@ -50,23 +51,7 @@ export function localToIso(value: string): string | null {
           <input matInput formControlName="title" />
           <mat-error>{{ errorMessage(form.controls.title) }}</mat-error>
         </mat-form-field>
-        <div class="row">
-          <mat-form-field>
-            <mat-label>Enrolment closes</mat-label>
-            <input matInput type="date" formControlName="enrolmentClosesOn" />
-            <mat-error>{{ errorMessage(form.controls.enrolmentClosesOn) }}</mat-error>
-          </mat-form-field>
-          <mat-form-field>
-            <mat-label>Dispatch</mat-label>
-            <input matInput type="date" formControlName="dispatchOn" />
-            <mat-error>{{ errorMessage(form.controls.dispatchOn) }}</mat-error>
-          </mat-form-field>
-          <mat-form-field>
-            <mat-label>Results due</mat-label>
-            <input matInput type="datetime-local" formControlName="resultsDueAt" />
-            <mat-error>{{ errorMessage(form.controls.resultsDueAt) }}</mat-error>
-          </mat-form-field>
-        </div>
+        <app-round-schedule-fields [group]="form" />
         <div class="row">
           <mat-form-field>
             <mat-label>Participation fee</mat-label>

@@ -10,6 +10,7 @@ import { SAFETY_BLOCK, withoutSafetyBlock } from '@ringlet/shared/contracts/safe
 import { errorMessage } from '../core/zod-form-errors';
 import { parseWith, pathMap, showServerError } from './form-errors';
 import { localToIso } from './round-dialog';
+import { RoundScheduleFields } from './round-schedule-fields';
 import { RoundsService } from './rounds.service';
 
 /** ISO 8601 → the value a datetime-local input shows, in the user's time zone ("2026-06-30T14:00"). */
@@ -42,7 +43,7 @@ export function changedFields(round: RoundDetail, next: Required<RoundUpdate>): 
 @Component({
   selector: 'app-round-edit-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatCheckboxModule, MatButtonModule],
+  imports: [ReactiveFormsModule, RoundScheduleFields, MatDialogModule, MatFormFieldModule, MatInputModule, MatCheckboxModule, MatButtonModule],
   template: `
     <h2 mat-dialog-title>Edit round {{ round.code }}</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
@@ -52,23 +53,7 @@ export function changedFields(round: RoundDetail, next: Required<RoundUpdate>): 
           <input matInput formControlName="title" />
           <mat-error>{{ errorMessage(form.controls.title) }}</mat-error>
         </mat-form-field>
-        <div class="row">
-          <mat-form-field>
-            <mat-label>Enrolment closes</mat-label>
-            <input matInput type="date" formControlName="enrolmentClosesOn" />
-            <mat-error>{{ errorMessage(form.controls.enrolmentClosesOn) }}</mat-error>
-          </mat-form-field>
-          <mat-form-field>
-            <mat-label>Dispatch</mat-label>
-            <input matInput type="date" formControlName="dispatchOn" />
-            <mat-error>{{ errorMessage(form.controls.dispatchOn) }}</mat-error>
-          </mat-form-field>
-          <mat-form-field>
-            <mat-label>Results due</mat-label>
-            <input matInput type="datetime-local" formControlName="resultsDueAt" />
-            <mat-error>{{ errorMessage(form.controls.resultsDueAt) }}</mat-error>
-          </mat-form-field>
-        </div>
+        <app-round-schedule-fields [group]="form" />
         <div class="row">
           <mat-form-field>
             <mat-label>Protocol temperature (°C)</mat-label>

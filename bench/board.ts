@@ -1,5 +1,5 @@
 /**
- * Consensus board API under load (QUALITY.md: 1,000 participants, 20 concurrent clients on
+ * Consensus board API under load (docs/QUALITY.md: 1,000 participants, 20 concurrent clients on
  * loopback, p95 ≤ 60 ms and ≥ 30 % of the throughput of a trivial JSON endpoint in the same run).
  *
  * Builds a 1,000 × 2 × 2 × 3 round (api/src/testing/evaluation-fixtures, seeded, invented data)
@@ -130,7 +130,7 @@ export async function benchBoard(): Promise<BoardBenchRow[]> {
     await createUser(db.ds, { email: 'coordinator@bench.test', roles: ['coordinator'] });
     await createUser(db.ds, { email: 'lab@bench.test', lab: fx.labs[0]!.id, manager: true });
 
-    // The evaluation itself, in process (QUALITY.md target ≤ 20 ms).
+    // The evaluation itself, in process (docs/QUALITY.md target ≤ 20 ms).
     const loaded = await loadRoundInput(db.ds.manager, fx.round.id);
     const evalTimes: number[] = [];
     for (let i = 0; i < 40; i++) {

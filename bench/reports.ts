@@ -1,5 +1,5 @@
 /**
- * Report speed (design/QUALITY.md): the round workbook (≤ 2 s) and the round PDF with charts
+ * Report speed (docs/QUALITY.md): the round workbook (≤ 2 s) and the round PDF with charts
  * (≤ 6 s) for a 1,000-participant round × 2 items × 2 measurands × 3 replicates. The input is
  * built directly (reports/testing/synthetic-input.ts, seeded, invented values), as the API's
  * report service would gather it from the stored evaluation; one untimed warm-up run each.

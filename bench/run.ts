@@ -1,5 +1,5 @@
 /**
- * npm run bench: the speed goals of QUALITY.md, measured on this machine (not timed tests).
+ * npm run bench: the speed goals of docs/QUALITY.md, measured on this machine (not timed tests).
  * Each area exports a function returning rows; this prints them as one table.
  */
 import { benchStats } from './stats';

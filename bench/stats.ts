@@ -1,5 +1,5 @@
 /**
- * Benchmarks of the statistics engine (not timed tests; see design/QUALITY.md "Performance
+ * Benchmarks of the statistics engine (not timed tests; see docs/QUALITY.md "Performance
  * targets": full evaluation of a 1,000 × 2 × 2 × 3 round ≤ 20 ms median).
  * Data: deterministic synthetic round (seeded PRNG), invented values.
  */

@@ -28,14 +28,14 @@ export function numberFormat(decimals: number): string {
 /** Scores (z, z′, ζ, En) are shown with two decimals (common practice). */
 export const SCORE_DECIMALS = 2;
 
-/** Words for a signal, ISO 13528 thresholds (see VOCABULARY.md). */
+/** Words for a signal, ISO 13528 thresholds (see docs/STATISTICS.md; words: docs/GLOSSARY.md). */
 export const SIGNAL_WORDS: Record<'acceptable' | 'warning' | 'action', string> = {
   acceptable: 'acceptable',
   warning: 'warning signal',
   action: 'action signal',
 };
 
-/** Our palette (VOCABULARY.md "Look"). */
+/** Our palette (docs/QUALITY.md "Look"). */
 export const PALETTE = {
   ink: '#1f3a5f',
   teal: '#1b7f79',

@@ -49,7 +49,7 @@ export class Evaluation1764648000000 implements MigrationInterface {
         CONSTRAINT evaluation_result_unique UNIQUE (evaluation_id, test_item_id, measurand_id)
       );
 
-      -- Published evaluations never change in place (QUALITY.md: a correction is a new version).
+      -- Published evaluations never change in place (docs/QUALITY.md: a correction is a new version).
       CREATE FUNCTION evaluation_refuse_published_change() RETURNS trigger AS $$
       BEGIN
         IF OLD.state = 'published' THEN

@@ -1,6 +1,6 @@
 /**
  * Chart options for the reports, as pure functions of the stored record (ECharts option
- * objects; the same library the browser uses). Colours and shapes follow VOCABULARY.md:
+ * objects; the same library the browser uses). Colours and shapes follow docs/QUALITY.md "Look":
  * acceptable teal circle, warning saffron triangle, action carmine diamond.
  */
 import type { ParticipantScore, TrackSeries } from '../../shared/contracts/evaluation';

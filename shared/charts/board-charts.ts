@@ -3,7 +3,7 @@
  * the browser (ngx-echarts) and the server (echarts SSR, SVG) draw the same charts from the same
  * data. Each builder has a text alternative beside it (for screen readers and the report text).
  *
- * Charts use our palette (VOCABULARY.md): signals acceptable teal, warning saffron, action
+ * Charts use our palette (docs/QUALITY.md "Look"): signals acceptable teal, warning saffron, action
  * carmine; x_pt ink blue; ±2σ_pt and ±3σ_pt bands in saffron and carmine tints.
  * The option type is kept loose (Record) so this file imports nothing from echarts.
  */

@@ -10,7 +10,7 @@ export const IdParams = z.object({ id: Id });
 /** ISO 8601 UTC timestamp on the wire. */
 export const Timestamp = z.iso.datetime({ offset: true });
 
-/** Problem-style error body used by every error response (see ARCHITECTURE.md). */
+/** Problem-style error body used by every error response (see docs/ARCHITECTURE.md, "API conventions"). */
 export const ProblemBody = z.object({
   error: z.object({
     code: z.string(),

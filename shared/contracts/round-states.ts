@@ -1,6 +1,6 @@
 import * as z from 'zod';
 
-/** The round lifecycle (VOCABULARY.md): draft → enrolling → in transit → collecting → closed → evaluated → published (→ reissued). */
+/** The round lifecycle (docs/ARCHITECTURE.md, "Where each rule lives"): draft → enrolling → in transit → collecting → closed → evaluated → published (→ reissued). */
 export const ROUND_STATES = ['draft', 'enrolling', 'in-transit', 'collecting', 'closed', 'evaluated', 'published', 'reissued'] as const;
 export const RoundState = z.enum(ROUND_STATES);
 export type RoundState = z.infer<typeof RoundState>;

@@ -1,5 +1,5 @@
 /**
- * The usual cautions shown wherever Ringlet tells labs how to handle a test item (QUALITY.md,
+ * The usual cautions shown wherever Ringlet tells labs how to handle a test item (docs/QUALITY.md,
  * "Where the work can hurt someone"). One list for the round instructions, the Lab bench, the
  * results workbook and the e-mails.
  */

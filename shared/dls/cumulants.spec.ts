@@ -2,7 +2,7 @@ import { cumulantsFit, type CumulantsInput } from './cumulants';
 import { celsiusToKelvin } from './constants';
 import { decayRate, diffusionFromDiameter, scatteringVector } from './stokes-einstein';
 
-// Conditions of the worked example in design/DLS.md: 25 °C, η = 0.890023 mPa s, n = 1.332, 633 nm.
+// Conditions of the worked example in docs/DLS.md: 25 °C, η = 0.890023 mPa s, n = 1.332, 633 nm.
 const T_C = 25;
 const ETA = 0.890023e-3;
 const N = 1.332;
@@ -46,7 +46,7 @@ function normalNoise(seed: number): () => number {
   return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
 }
 
-describe('monodisperse 100 nm (Γ from the design/DLS.md worked example)', () => {
+describe('monodisperse 100 nm (Γ from the docs/DLS.md worked example)', () => {
   it.each([
     [173, 3418.6],
     [90, 1715.7],
@@ -73,10 +73,10 @@ describe('monodisperse 100 nm (Γ from the design/DLS.md worked example)', () =>
   });
 });
 
-describe('exact test vector: equal-intensity 60/100 nm mix → 75 nm, PDI 0.0625 (design/DLS.md, derivation)', () => {
+describe('exact test vector: equal-intensity 60/100 nm mix → 75 nm, PDI 0.0625 (docs/DLS.md, derivation)', () => {
   // g1 = ½e^(−Γ60τ) + ½e^(−Γ100τ); Γ̄ = (Γ60 + Γ100)/2; x = 2/(1/60 + 1/100) = 75 nm;
   // PDI = ((100 − 60)/(100 + 60))² = 0.0625, whatever T, η, n, λ, θ. Truncation of the cumulant
-  // series biases a finite fit: tolerances 0.1 % on Γ̄ and x, 10 % on PDI (design/DLS.md).
+  // series biases a finite fit: tolerances 0.1 % on Γ̄ and x, 10 % on PDI (docs/DLS.md).
   it.each([
     [173, 2],
     [173, 3],
@@ -90,7 +90,7 @@ describe('exact test vector: equal-intensity 60/100 nm mix → 75 nm, PDI 0.0625
     expect(Math.abs(r.gammaBar / ((g60 + g100) / 2) - 1)).toBeLessThan(1e-3);
     expect(Math.abs(r.zAverageNm / 75 - 1)).toBeLessThan(1e-3);
     expect(Math.abs(r.pdi / 0.0625 - 1)).toBeLessThan(0.1);
-    // The fit over g1 ≥ 0.32 lands where design/DLS.md says: PDI ≈ 0.061–0.064.
+    // The fit over g1 ≥ 0.32 lands where docs/DLS.md says: PDI ≈ 0.061–0.064.
     expect(r.pdi).toBeGreaterThan(0.061);
     expect(r.pdi).toBeLessThan(0.064);
     expect(r.mu3 === null).toBe(order === 2);

@@ -29,7 +29,7 @@ export interface CumulantsInput {
   order?: 2 | 3;
   /**
    * Fit only the leading points whose g2 − 1 is at least this fraction of the fitted intercept β.
-   * Default 0.1 (g1 ≥ 0.32). Common practice: a few percent to 10 % (design/DLS.md; the value
+   * Default 0.1 (g1 ≥ 0.32). Common practice: a few percent to 10 % (docs/DLS.md; the value
    * in ISO 22412 was not checked: from memory).
    */
   cutoffFraction?: number;
@@ -81,7 +81,7 @@ export const NEGATIVE_PDI_TOLERANCE = 0.005;
  *   g2 − 1 = β·g1² (Berne & Pecora 2000). Γ̄ is therefore the decay rate of g1 (not of g2 − 1).
  * - Weights w ∝ (g2 − 1)²: if g2 − 1 carries noise of constant variance σ², then
  *   var(y) ≈ σ²/(4·(g2 − 1)²), and the inverse-variance weight is ∝ (g2 − 1)² (first-order error
- *   propagation; matches "weights falling as g1 falls", design/DLS.md; the exact weights of
+ *   propagation; matches "weights falling as g1 falls", docs/DLS.md; the exact weights of
  *   ISO 22412 were not checked: from memory).
  * - Range: the leading points down to the first one whose g2 − 1 falls below
  *   `cutoffFraction`·β. β is first estimated from the first point and then re-estimated from the
@@ -89,7 +89,7 @@ export const NEGATIVE_PDI_TOLERANCE = 0.005;
  * - The least-squares problem is solved by Householder QR on the scaled design matrix
  *   (τ divided by the last lag used), which keeps it well conditioned.
  * - Outputs: Γ̄ = −a1, μ2 = 2a2, μ3 = −6a3, PDI = μ2/Γ̄², β = e^(2a0),
- *   x = k_B·T·q²/(3π·η·Γ̄) with q = (4πn/λ₀)·sin(θ/2) (ISO 22412:2017; design/DLS.md).
+ *   x = k_B·T·q²/(3π·η·Γ̄) with q = (4πn/λ₀)·sin(θ/2) (ISO 22412:2017; docs/DLS.md).
  *
  * @throws RangeError on inconsistent input (lengths, non-finite values, lag times not increasing,
  *   non-positive physics) or when fewer than order + 2 usable points precede the cut-off.

@@ -6,7 +6,7 @@ import {
   scatteringVector,
 } from './stokes-einstein';
 
-// Worked example of design/DLS.md (computed there from the relations; 25 °C, η = 0.890023 mPa s,
+// Worked example of docs/DLS.md (computed there from the relations; 25 °C, η = 0.890023 mPa s,
 // n = 1.332, λ₀ = 633 nm). Printed to 5 significant figures.
 const T = celsiusToKelvin(25);
 const ETA = 0.890023e-3;
@@ -17,7 +17,7 @@ function rel(a: number, b: number): number {
   return Math.abs(a / b - 1);
 }
 
-describe('Stokes–Einstein worked example (source: design/DLS.md table)', () => {
+describe('Stokes–Einstein worked example (source: docs/DLS.md table)', () => {
   it.each([
     [100, 173, 4.9073e-12, 2.63937e7, 3418.6],
     [100, 90, 4.9073e-12, 1.8698e7, 1715.7],
@@ -34,7 +34,7 @@ describe('Stokes–Einstein worked example (source: design/DLS.md table)', () =>
   it('diameter form, not radius: D·d_H = k_B·T/(3πη), round trip exact', () => {
     const D = diffusionFromDiameter(100e-9, T, ETA);
     expect(diameterFromDiffusion(D, T, ETA)).toBeCloseTo(100e-9, 20);
-    // Radius form D = k_B·T/(6π·η·a) with a = 50 nm gives the same D (design/DLS.md).
+    // Radius form D = k_B·T/(6π·η·a) with a = 50 nm gives the same D (docs/DLS.md).
     expect(rel(D, (1.380649e-23 * T) / (6 * Math.PI * ETA * 50e-9))).toBeLessThan(1e-15);
   });
 

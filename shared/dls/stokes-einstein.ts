@@ -53,7 +53,7 @@ export function diameterFromDiffusion(
 
 /**
  * Magnitude of the scattering vector: q = (4π·n/λ₀)·sin(θ/2).
- * Source: Berne & Pecora, Dynamic Light Scattering (2000), ch. 3; design/DLS.md.
+ * Source: Berne & Pecora, Dynamic Light Scattering (2000), ch. 3; docs/DLS.md.
  * @param refractiveIndex refractive index of the medium n (dimensionless)
  * @param wavelengthM vacuum wavelength of the laser λ₀, m (e.g. 633e-9)
  * @param angleDeg scattering angle θ, degrees (0 < θ ≤ 180)
@@ -75,7 +75,7 @@ export function scatteringVector(
 /**
  * Decay rate of the FIELD autocorrelation g1(τ) = exp(−Γτ) of monodisperse spheres: Γ = D·q².
  * The intensity correlation g2 − 1 = β·g1² decays with 2Γ (Siegert relation): do not confuse them.
- * Source: Berne & Pecora (2000); design/DLS.md.
+ * Source: Berne & Pecora (2000); docs/DLS.md.
  * @param diffusionM2PerS diffusion coefficient D, m²/s
  * @param qPerM scattering vector q, 1/m
  * @returns Γ, 1/s

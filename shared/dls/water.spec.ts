@@ -9,7 +9,7 @@ describe('waterViscosityIapws (source: IAPWS R12-08 / Huber et al. 2009)', () =>
   });
 });
 
-describe('waterDensity (source: Tanaka et al., Metrologia 38, 301–309, 2001; values as quoted in design/DLS.md)', () => {
+describe('waterDensity (source: Tanaka et al., Metrologia 38, 301–309, 2001; values as quoted in docs/DLS.md)', () => {
   it.each([
     [15, 999.1026],
     [20, 998.2067],
@@ -31,7 +31,7 @@ describe('waterDensity (source: Tanaka et al., Metrologia 38, 301–309, 2001; v
   });
 });
 
-describe('waterViscosity at atmospheric pressure (source: design/DLS.md table, IAPWS 2008 with Tanaka density)', () => {
+describe('waterViscosity at atmospheric pressure (source: docs/DLS.md table, IAPWS 2008 with Tanaka density)', () => {
   it.each([
     [15, 1.1376],
     [20, 1.0016],
@@ -43,19 +43,19 @@ describe('waterViscosity at atmospheric pressure (source: design/DLS.md table, I
     expect(waterViscosity(t) * 1e3).toBeCloseTo(eta, 4);
   });
 
-  it('agrees with η = A·10^(B/(T − C)) within 0.2 % over 15–40 °C (design/DLS.md plausibility correlation)', () => {
+  it('agrees with η = A·10^(B/(T − C)) within 0.2 % over 15–40 °C (docs/DLS.md plausibility correlation)', () => {
     for (let t = 15; t <= 40; t += 1) {
       const simple = 2.414e-5 * 10 ** (247.8 / (t + 273.15 - 140));
       expect(Math.abs(waterViscosity(t) / simple - 1)).toBeLessThan(0.002);
     }
   });
 
-  it('20 °C sample analysed with the 25 °C viscosity: size ratio η20/η25 ≈ 1.1254 (design/DLS.md)', () => {
+  it('20 °C sample analysed with the 25 °C viscosity: size ratio η20/η25 ≈ 1.1254 (docs/DLS.md)', () => {
     expect(waterViscosity(20) / waterViscosity(25)).toBeCloseTo(1.1254, 3);
   });
 });
 
-describe('waterRefractiveIndex (source: IAPWS R9-97; values quoted in design/DLS.md, Daimon & Masumura 2007)', () => {
+describe('waterRefractiveIndex (source: IAPWS R9-97; values quoted in docs/DLS.md, Daimon & Masumura 2007)', () => {
   it.each([
     [20, 633, 1.3321],
     [25, 633, 1.33161],

@@ -82,7 +82,7 @@ export function waterViscosityIapws(kelvin: number, densityKgM3: number): number
 /**
  * Dynamic viscosity of water at atmospheric pressure: IAPWS 2008 ({@link waterViscosityIapws})
  * evaluated at the Tanaka et al. (2001) density ({@link waterDensity}).
- * Values: design/DLS.md table (15–40 °C), e.g. 25 °C → 0.8900 mPa s.
+ * Values: docs/DLS.md table (15–40 °C), e.g. 25 °C → 0.8900 mPa s.
  * @param celsius temperature, °C (0–40 °C, the range of the density formula)
  * @returns viscosity, Pa s
  */
@@ -107,7 +107,7 @@ const LAMBDA_IR = 5.432937;
  * Source: IAPWS R9-97, "Release on the Refractive Index of Ordinary Water Substance as a Function
  * of Wavelength, Temperature and Pressure" (Harvey, Gallagher & Levelt Sengers, J. Phys. Chem. Ref.
  * Data 27, 761, 1998). Coefficients from memory of the release, verified in water.spec.ts against
- * the values quoted in design/DLS.md (633, 532, 658 nm at 20 and 25 °C, all six to 5 decimals).
+ * the values quoted in docs/DLS.md (633, 532, 658 nm at 20 and 25 °C, all six to 5 decimals).
  * @param celsius temperature, °C (−12…500 °C in the release; density default needs 0–40 °C)
  * @param wavelengthNm vacuum wavelength, nm (200–1100 nm)
  * @param densityKgM3 density, kg/m³ (default: Tanaka et al. 2001 at `celsius`)

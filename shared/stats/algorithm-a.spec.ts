@@ -13,7 +13,7 @@ describe('algorithmA: ISO 5725-5 creosote data', () => {
     expect(r.converged).toBe(true);
     expect(r.robustMean).toBeCloseTo(20.4121428571, 9);
     expect(r.robustSd).toBeCloseTo(1.069839703, 9);
-    // Slow convergence is expected (design/STATISTICS.md: ~100 iterations).
+    // Slow convergence is expected (docs/STATISTICS.md: ~100 iterations).
     expect(r.iterations).toBeGreaterThan(20);
     expect(r.iterations).toBeLessThan(1000);
     expect(r.n).toBe(9);
@@ -29,7 +29,7 @@ describe('algorithmA: ISO 5725-5 creosote data', () => {
     }
   });
 
-  it('stopping early moves s* in its 3rd–4th figure (design/STATISTICS.md)', () => {
+  it('stopping early moves s* in its 3rd–4th figure (docs/STATISTICS.md)', () => {
     const early = algorithmA(xs, { maxIterations: 3 });
     const full = algorithmA(xs);
     expect(Math.abs(early.robustSd - full.robustSd)).toBeGreaterThan(0.01);

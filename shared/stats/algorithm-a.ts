@@ -2,7 +2,7 @@
  * ISO 13528 Algorithm A: robust mean x* and robust standard deviation s*.
  *
  * Source: ISO 13528:2015 Annex C.3 (2005 edition eqs C.1–C.6), as summarised in
- * design/STATISTICS.md. Constants 1.483 (MAD → SD) and 1.134 (correction for winsorizing at
+ * docs/STATISTICS.md. Constants 1.483 (MAD → SD) and 1.134 (correction for winsorizing at
  * 1.5 s*). Ringlet iterates to full convergence instead of the standard's "third significant
  * figure" stop, and reports the iteration count.
  */

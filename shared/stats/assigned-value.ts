@@ -1,7 +1,7 @@
 /**
  * Assigned value x_pt and its standard uncertainty u(x_pt).
  *
- * Source: ISO 13528:2015 §7 (from memory, as summarised in design/STATISTICS.md):
+ * Source: ISO 13528:2015 §7 (from memory, as summarised in docs/STATISTICS.md):
  * consensus x_pt = x* (Algorithm A) with u(x_pt) = 1.25 · s* / √p; a reference value with its
  * stated uncertainty; or the median with u(x_pt) = 1.25 · MADe / √p (§7.7.3, from memory).
  */
@@ -40,7 +40,7 @@ export interface AssignedValue {
 
 /**
  * Standard uncertainty of a consensus value, u(x_pt) = 1.25 · s* / √p, unit of s*.
- * Source: ISO 13528:2015 §7.7.3 (from memory; design/STATISTICS.md).
+ * Source: ISO 13528:2015 §7.7.3 (from memory; docs/STATISTICS.md).
  * @param robustSd s* (or MADe for the median), ≥ 0.
  * @param p number of results, ≥ 1.
  */

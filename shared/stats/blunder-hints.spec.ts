@@ -2,7 +2,7 @@ import { blunderHints, VISCOSITY_20_25_RATIO } from './blunder-hints';
 
 const codes = (h: ReturnType<typeof blunderHints>) => h.map((x) => x.code);
 
-describe('blunderHints (signatures from design/DLS.md; tolerances common practice)', () => {
+describe('blunderHints (signatures from docs/DLS.md; tolerances common practice)', () => {
   it('no hint for an ordinary result', () => {
     expect(blunderHints({ result: 101, assignedValue: 100, sigmaPt: 3 })).toEqual([]);
     expect(blunderHints({ result: 103, assignedValue: 100 })).toEqual([]);
@@ -21,7 +21,7 @@ describe('blunderHints (signatures from design/DLS.md; tolerances common practic
     expect(blunderHints({ result: 0.1002, assignedValue: 100 })[0]).toMatchObject({ code: 'unit-slip', factor: 0.001 });
   });
 
-  it('20 °C sample analysed with 25 °C viscosity: ×1.1254 (IAPWS 2008 via design/DLS.md)', () => {
+  it('20 °C sample analysed with 25 °C viscosity: ×1.1254 (IAPWS 2008 via docs/DLS.md)', () => {
     expect(VISCOSITY_20_25_RATIO).toBeCloseTo(1.1254, 4);
     const h = blunderHints({ result: 112.5, assignedValue: 100, sigmaPt: 3 });
     expect(h[0]).toMatchObject({ code: 'viscosity-temperature' });
@@ -29,7 +29,7 @@ describe('blunderHints (signatures from design/DLS.md; tolerances common practic
     expect(blunderHints({ result: 88.9, assignedValue: 100, sigmaPt: 3 })[0].code).toBe('viscosity-temperature');
   });
 
-  it('a few % off reads as a temperature offset at 2.6 %/K compounded: ×1.08 ≈ 3.0 K (design/DLS.md sensitivity)', () => {
+  it('a few % off reads as a temperature offset at 2.6 %/K compounded: ×1.08 ≈ 3.0 K (docs/DLS.md sensitivity)', () => {
     const h = blunderHints({ result: 108, assignedValue: 100, sigmaPt: 3 });
     expect(codes(h)).toEqual(['viscosity-temperature']);
     expect(h[0].message).toMatch(/about 3\.0 K/);

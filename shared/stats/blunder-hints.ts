@@ -1,5 +1,5 @@
 /**
- * Hints about likely blunders in a DLS result compared with the consensus (design/DLS.md,
+ * Hints about likely blunders in a DLS result compared with the consensus (docs/DLS.md,
  * "Blunders worth detecting"). A hint is a question for the coordinator and the lab: it never
  * changes a value and never excludes a result.
  *
@@ -10,8 +10,8 @@
  * - hints are only looked for when the result is not acceptable: |x − x_pt| > 2σ_pt when σ_pt
  *   is given, else |r − 1| > MIN_RELATIVE_DEVIATION (5 %);
  * - viscosity/temperature: the 20 °C-vs-25 °C water viscosity ratio 1.0016/0.8900 = 1.1254
- *   (IAPWS 2008 values in design/DLS.md) within ±VISCOSITY_TOLERANCE (2.5 %, about 1 K), or a
- *   smaller bias of 2–10 % read as a temperature offset at ≈ 2.6 %/K (design/DLS.md);
+ *   (IAPWS 2008 values in docs/DLS.md) within ±VISCOSITY_TOLERANCE (2.5 %, about 1 K), or a
+ *   smaller bias of 2–10 % read as a temperature offset at ≈ 2.6 %/K (docs/DLS.md);
  * - dust/aggregates: PDI > max(DUST_PDI_MIN = 0.25, 2 × the consensus PDI) together with a
  *   size above the consensus by more than 5 %.
  */
@@ -41,10 +41,10 @@ export interface BlunderInput {
 
 export const FACTOR_TOLERANCE = 0.1;
 export const MIN_RELATIVE_DEVIATION = 0.05;
-/** η(20 °C)/η(25 °C) of water, IAPWS 2008 values 1.0016 / 0.8900 mPa s (design/DLS.md). */
+/** η(20 °C)/η(25 °C) of water, IAPWS 2008 values 1.0016 / 0.8900 mPa s (docs/DLS.md). */
 export const VISCOSITY_20_25_RATIO = 1.0016 / 0.89;
 export const VISCOSITY_TOLERANCE = 0.025;
-/** Size change per kelvin of unnoticed temperature offset near 25 °C (design/DLS.md). */
+/** Size change per kelvin of unnoticed temperature offset near 25 °C (docs/DLS.md). */
 export const SIZE_CHANGE_PER_KELVIN = 0.026;
 export const DUST_PDI_MIN = 0.25;
 

@@ -32,7 +32,7 @@ function assertInteger(v: number, min: number, what: string, fn: string): void {
  *
  * G_crit = ((p − 1)/√p)·√(t²/(p − 2 + t²)), t = t(1 − α/(tails·p); p − 2)
  * Source: Grubbs (1950), Technometrics; closed form as in the NIST/SEMATECH e-Handbook of
- * Statistical Methods §1.3.5.17.1 and design/STATISTICS.md. `tails = 2` (default) gives the
+ * Statistical Methods §1.3.5.17.1 and docs/STATISTICS.md. `tails = 2` (default) gives the
  * two-sided levels tabulated in ISO 5725-2 Table 5; `tails = 1` gives the one-sided value the
  * e-Handbook uses for a test of the maximum only.
  * @param p number of values (cell means), ≥ 3
@@ -50,7 +50,7 @@ export function grubbsSingleCritical(p: number, alpha: number, tails: 1 | 2 = 2)
  * Critical value of Cochran's C = s²_max / Σ s_i² for p cells of n replicates (dimensionless).
  *
  * C_crit = 1/(1 + (p − 1)/F), F = F(1 − α/p; n − 1, (p − 1)(n − 1))
- * Source: the F-distribution form of Cochran's (1941) test, as given in design/STATISTICS.md;
+ * Source: the F-distribution form of Cochran's (1941) test, as given in docs/STATISTICS.md;
  * checked against the published tables (shared/stats/fixtures/critical-values-tables.json).
  * @param p number of cells, ≥ 2
  * @param n replicates per cell, ≥ 2

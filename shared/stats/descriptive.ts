@@ -3,7 +3,7 @@
  * robust scale estimators MADe and nIQR.
  *
  * Pure functions, no I/O: this file runs on the server and in the browser.
- * Numerical care (see design/STATISTICS.md, "Numerical care"): sums of squares are taken about
+ * Numerical care (see docs/STATISTICS.md, "Numerical care"): sums of squares are taken about
  * the mean (two-pass, with the corrected two-pass term of Chan, Golub & LeVeque 1983, "Algorithms
  * for computing the sample variance", Am. Stat. 37, 242-247), so large offsets do not cost digits.
  */
@@ -153,7 +153,7 @@ export const NIQR_FACTOR = 0.7413;
 
 /**
  * Scaled MAD, MADe = 1.483 · median|x_i − median(x)|, same unit as the data.
- * Source: ISO 13528:2015 Annex C.2 (from memory; constant as in design/STATISTICS.md).
+ * Source: ISO 13528:2015 Annex C.2 (from memory; constant as in docs/STATISTICS.md).
  * @throws RangeError on empty input or non-finite values.
  */
 export function madE(xs: readonly number[]): number {
@@ -163,7 +163,7 @@ export function madE(xs: readonly number[]): number {
 /**
  * Normalised interquartile range, nIQR = 0.7413 · (Q3 − Q1), same unit as the data.
  * Quartiles by linear interpolation, R type 7 (see {@link quantile}).
- * Source: ISO 13528:2015 Annex C.2 (from memory; constant as in design/STATISTICS.md).
+ * Source: ISO 13528:2015 Annex C.2 (from memory; constant as in docs/STATISTICS.md).
  * @throws RangeError on empty input or non-finite values.
  */
 export function nIqr(xs: readonly number[]): number {

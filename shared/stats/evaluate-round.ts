@@ -4,7 +4,7 @@
  * the signal.
  *
  * Sources: ISO 13528:2015 §7 (x_pt, u(x_pt) = 1.25 s* / √p), §8 (σ_pt), §9 (z, z′, signals),
- * as summarised in design/STATISTICS.md. Pure and fast: one pass to group the rows, no sort
+ * as summarised in docs/STATISTICS.md. Pure and fast: one pass to group the rows, no sort
  * in the hot path except the two Algorithm A starts per group.
  */
 import { algorithmAUnchecked, type AlgorithmAOutcome } from './algorithm-a';

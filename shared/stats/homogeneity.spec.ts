@@ -1,7 +1,7 @@
 import { homogeneityCheck, homogeneityFactors, stabilityCheck } from './homogeneity';
 
 describe('homogeneityFactors', () => {
-  it('g = 10: F1 = 1.88, F2 = 1.01 (ISO 13528:2015 Table B.1 as quoted in design/STATISTICS.md, from memory)', () => {
+  it('g = 10: F1 = 1.88, F2 = 1.01 (ISO 13528:2015 Table B.1 as quoted in docs/STATISTICS.md, from memory)', () => {
     const { f1, f2 } = homogeneityFactors(10);
     expect(f1).toBeCloseTo(1.88, 2);
     expect(f2).toBeCloseTo(1.01, 2);

@@ -1,6 +1,6 @@
 /**
  * Homogeneity and stability checks of PT items, ISO 13528:2015 Annex B (from memory, with the
- * 2022 corrections; formulas as in design/STATISTICS.md). Units: those of the measurand.
+ * 2022 corrections; formulas as in docs/STATISTICS.md). Units: those of the measurand.
  */
 import { jStat } from 'jstat';
 import { meanUnchecked, varianceAbout, assertFiniteSample } from './descriptive';
@@ -40,7 +40,7 @@ export interface HomogeneityResult {
 /**
  * The factors of the extended homogeneity criterion, dimensionless:
  * F1 = χ²_{0.95; g−1}/(g − 1), F2 = (F_{0.95; g−1, g(m−1)} − 1)/2, from jStat quantiles.
- * Source: ISO 13528:2015 B.2.3 (from memory; design/STATISTICS.md). With m = 2 the F
+ * Source: ISO 13528:2015 B.2.3 (from memory; docs/STATISTICS.md). With m = 2 the F
  * denominator degrees of freedom are g, as in the standard's table (g = 10: F1 = 1.88, F2 = 1.01).
  */
 export function homogeneityFactors(g: number, m = 2): { f1: number; f2: number } {

@@ -65,7 +65,7 @@ describe('precisionAnalysis against NIST StRD ANOVA (source: NIST Statistical Re
     },
   );
 
-  it('keeps the digits when SiRstv is moved onto a 1e6 offset (numerical care, design/STATISTICS.md)', () => {
+  it('keeps the digits when SiRstv is moved onto a 1e6 offset (numerical care, docs/STATISTICS.md)', () => {
     const shifted = sets.SiRstv.groups.map((g) => g.map((v) => String(Number(v) + 1e6)));
     const r = precisionAnalysis(cellsOf(shifted));
     expect(relErr(r.sr, 0.104076068334656)).toBeLessThan(1e-8);
@@ -103,7 +103,7 @@ describe('Grubbs on cell means: NIST/SEMATECH e-Handbook §1.3.5.17.1 uranium ex
   });
 });
 
-describe('precisionAnalysis by hand (unequal n; ISO 5725-2 formulas as in design/STATISTICS.md)', () => {
+describe('precisionAnalysis by hand (unequal n; ISO 5725-2 formulas as in docs/STATISTICS.md)', () => {
   // Cells: A = [1, 2, 3], B = [4, 6], C = [5]. Means 2, 5, 5; N = 6; ŷ = 3.5.
   // s_d² = [3·2.25 + 2·2.25 + 2.25]/2 = 6.75; s_r² = (2·1 + 1·2)/3 = 4/3;
   // n̄ = (6 − 14/6)/2 = 11/6; s_L² = (6.75 − 4/3)/(11/6) = 65/22; s_R² = 283/66.

@@ -4,7 +4,7 @@
  * Grubbs' tests.
  *
  * Pure functions, no I/O: this file runs on the server and in the browser.
- * Formulas: ISO 5725-2:1994 §7 (as summarised in design/STATISTICS.md); critical values in
+ * Formulas: ISO 5725-2:1994 §7 (as summarised in docs/STATISTICS.md); critical values in
  * ./critical-values.ts. Numerical care: every sum of squares is taken about a mean (corrected
  * two-pass), so data sitting on a large offset keep their digits (checked against the NIST StRD
  * ANOVA sets in precision.spec.ts).
@@ -125,7 +125,7 @@ export interface PrecisionResult {
 
 /**
  * Factor turning a standard deviation into a 95 % limit for the difference of two results:
- * 2.8 ≈ 1.96·√2 (ISO 5725-6:1994 §4.1.4; value as in design/STATISTICS.md).
+ * 2.8 ≈ 1.96·√2 (ISO 5725-6:1994 §4.1.4; value as in docs/STATISTICS.md).
  */
 export const PRECISION_LIMIT_FACTOR = 2.8;
 
@@ -141,7 +141,7 @@ const BOUND_SLACK = 1e-12;
  *
  * - s_r² = Σ(n_i − 1)s_i² / Σ(n_i − 1); ŷ = Σn_iȳ_i/Σn_i; s_d² = Σn_i(ȳ_i − ŷ)²/(p − 1);
  *   n̄ = [Σn_i − Σn_i²/Σn_i]/(p − 1); s_L² = max(0, (s_d² − s_r²)/n̄); s_R² = s_L² + s_r²;
- *   r = 2.8·s_r, R = 2.8·s_R (ISO 5725-2:1994 §7.4, eqs as in design/STATISTICS.md).
+ *   r = 2.8·s_r, R = 2.8·s_R (ISO 5725-2:1994 §7.4, eqs as in docs/STATISTICS.md).
  * - Mandel h_i = (ȳ_i − ȳ)/SD(cell means), ȳ the unweighted mean of the cell means;
  *   k_i = s_i·√p/√Σs_j² over the cells with n ≥ 2 (ISO 5725-2 §7.3.1). Indicator values:
  *   h_crit = (p − 1)t/√(p(t² + p − 2)), t = t(1 − α/2; p − 2);

@@ -77,7 +77,7 @@ describe('scores: definitions (ISO 13528:2015 §9)', () => {
   });
 });
 
-describe('signals (ISO 13528:2015 §9; thresholds in design/VOCABULARY.md)', () => {
+describe('signals (ISO 13528:2015 §9; thresholds in docs/STATISTICS.md)', () => {
   it.each([
     [0, 'acceptable'],
     [2, 'acceptable'],

@@ -1,7 +1,7 @@
 /**
  * Performance scores of ISO 13528:2015 §9 and their signals.
  *
- * Formulas as in design/STATISTICS.md; the same formulas and thresholds are printed in the
+ * Formulas as in docs/STATISTICS.md; the same formulas and thresholds are printed in the
  * NIST Dataplot Reference Manual (zscore, zprime, zetascor, enscore pages). All scores are
  * dimensionless; x, x_pt, σ_pt and the uncertainties share the unit of the measurand.
  */

@@ -1,6 +1,6 @@
 /**
  * σ_pt, the standard deviation for proficiency assessment, by the coordinator's rule.
- * Source: ISO 13528:2015 §8 (from memory, as summarised in design/STATISTICS.md).
+ * Source: ISO 13528:2015 §8 (from memory, as summarised in docs/STATISTICS.md).
  */
 
 /** The coordinator's rule for σ_pt for one measurand. */
@@ -63,7 +63,7 @@ export function sigmaPt(rule: SigmaPtRule, ctx: SigmaPtContext): number {
 
 /**
  * σ_pt widened for an inhomogeneous item: σ_pt′ = √(σ_pt² + s_s²), unit of the measurand.
- * Source: ISO 13528:2015 B.2 (from memory; design/STATISTICS.md "Homogeneity and stability").
+ * Source: ISO 13528:2015 B.2 (from memory; docs/STATISTICS.md "Homogeneity and stability").
  */
 export function widenSigmaPt(sigma: number, betweenSampleSd: number): number {
   return Math.hypot(sigma, betweenSampleSd);

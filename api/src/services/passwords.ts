@@ -7,7 +7,7 @@ import type { AppContext } from './context';
 import { audit } from './audit';
 import { HttpError } from '../http/errors';
 
-/** bcrypt work factor: 2^12 rounds (QUALITY.md asks for ≥ 12). */
+/** bcrypt work factor: 2^12 rounds (docs/QUALITY.md asks for ≥ 12). */
 export const BCRYPT_COST = 12;
 
 /** How long an e-mailed link stays valid. */

@@ -26,7 +26,7 @@ const CONDITION_COLUMNS: { key: keyof MeasurementConditions | 'methodNotes'; hea
   { key: 'methodNotes', header: 'Method notes', numeric: false },
 ];
 
-/** Spreadsheet formulas in user text are neutralised on export (QUALITY.md). */
+/** Spreadsheet formulas in user text are neutralised on export (docs/QUALITY.md). */
 export function safeText(s: string): string {
   return /^[=+\-@\t\r]/.test(s) ? `'${s}` : s;
 }

@@ -4,7 +4,7 @@
  * Feature pages, which are lazy anyway, import the contracts directly.
  *
  * Why: `import { z } from 'zod'` (as in shared/contracts) makes esbuild keep every zod locale
- * (~450 kB raw); see the web report.
+ * (~450 kB raw); see docs/TOOLCHAIN.md.
  */
 let loading: Promise<typeof import('@ringlet/shared/contracts')> | null = null;
 

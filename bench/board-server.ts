@@ -1,6 +1,7 @@
 /**
  * The real app on a given database, listening on loopback, in its own process so the load
- * generator does not share its event loop. Prints `PORT <n>` when ready. Used by bench/board.ts.
+ * generator does not share its event loop. Prints `PORT <n>` when ready. Used by bench/board.ts
+ * and, with the built web app's folder as a second argument, by bench/first-visit.ts.
  */
 import { createApp } from '../api/src/app';
 import { createMailer } from '../api/src/mail/mailer';
@@ -13,7 +14,8 @@ async function main(): Promise<void> {
   const ds = createDataSource(url);
   await ds.initialize();
   const smtp = await startSmtpFake(ds);
-  const config = testConfig();
+  const staticDir = process.argv[3];
+  const config = testConfig(staticDir ? { staticDir, mode: 'demo' } : {});
   const mailer = createMailer(config, smtp);
   const { app } = createApp({ ds, config, mailer, log: () => undefined });
   const server = app.listen(0, '127.0.0.1', () => {

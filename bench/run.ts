@@ -28,7 +28,10 @@ async function optional(title: string, path: string, fn: string): Promise<void> 
 }
 
 async function main(): Promise<void> {
+  await optional('engine growth', './engine-scaling', 'benchEngineScaling');
+  await optional('offline command', './cli', 'benchCli');
   await optional('consensus board API', './board', 'benchBoard');
+  await optional('browser', './first-visit', 'benchFirstVisit');
   await optional('reports', './reports', 'benchReports');
   const rows: (BenchRow & { area: string })[] = [];
   for (const b of benches) {

@@ -48,6 +48,7 @@ export function buildWebIfStale() {
   }
   log('building the web app (production)…');
   run(bin('ng'), ['build', '--configuration', 'production']);
+  run(process.execPath, [join(root, 'scripts/precompress.mjs')]);
 }
 
 export function startPostgres() {

@@ -3,7 +3,6 @@ import { csrfSync } from 'csrf-sync';
 import express, { type Express } from 'express';
 import session from 'express-session';
 import helmet from 'helmet';
-import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Pool } from 'pg';
 import type { DataSource } from 'typeorm';
@@ -12,6 +11,7 @@ import { API_REFERENCE_CSS, renderApiReference } from './http/api-reference';
 import { errorHandler, notFound } from './http/errors';
 import { buildOpenApi } from './http/openapi';
 import { ApiRouter, type AnyRoute } from './http/route';
+import { webApp } from './http/static-files';
 import type { AppConfig } from './config';
 import type { Mailer } from './mail/mailer';
 import { adminRoutes } from './routes/admin';
@@ -134,16 +134,9 @@ export function createApp(deps: AppDeps): RingletApp {
   });
   app.use('/api', (_req, _res, next) => next(notFound('That API route')));
 
-  // The built web app, with the SPA fallback for its client-side routes.
-  const staticDir = deps.config.staticDir ?? join(__dirname, '../../dist/web/browser');
-  if (existsSync(join(staticDir, 'index.html'))) {
-    app.use(express.static(staticDir, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (req, res, next) => {
-      if (!req.accepts('html')) return next();
-      res.setHeader('Cache-Control', 'no-cache');
-      res.sendFile(join(staticDir, 'index.html'));
-    });
-  }
+  // The built web app (precompressed, cache headers by file kind), with the SPA fallback.
+  const web = webApp(deps.config.staticDir ?? join(__dirname, '../../dist/web/browser'));
+  if (web) app.use(web);
 
   app.use(errorHandler(log));
   return { app, routes: api.routes, context: ctx };

@@ -98,6 +98,57 @@ export function medianOfSorted(a: ArrayLike<number>): number {
 }
 
 /**
+ * Median of `a` in linear expected time, reordering `a` in place (Hoare's selection with a
+ * median-of-three pivot). Same value as `medianOfSorted` of the sorted values: even n gives the
+ * mean of the two middle values. No input checks; `a` must not be empty.
+ */
+export function medianInPlace(a: Float64Array): number {
+  const n = a.length;
+  const h = n >> 1;
+  const upper = selectInPlace(a, h);
+  if (n % 2 === 1) return upper;
+  // The lower middle value is the largest of a[0..h-1], all ≤ a[h] after selection.
+  let lower = a[0];
+  for (let i = 1; i < h; i++) if (a[i] > lower) lower = a[i];
+  return (lower + upper) / 2;
+}
+
+/** k-th smallest value (0-based) of `a`, partially ordering `a` in place around it. */
+function selectInPlace(a: Float64Array, k: number): number {
+  let lo = 0;
+  let hi = a.length - 1;
+  while (hi > lo) {
+    const mid = (lo + hi) >> 1;
+    // Median of three as the pivot: sorted data (the common case here) stays linear.
+    if (a[mid] < a[lo]) swap(a, mid, lo);
+    if (a[hi] < a[lo]) swap(a, hi, lo);
+    if (a[hi] < a[mid]) swap(a, hi, mid);
+    const pivot = a[mid];
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (a[i] < pivot) i++;
+      while (a[j] > pivot) j--;
+      if (i <= j) {
+        swap(a, i, j);
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else return a[k];
+  }
+  return a[k];
+}
+
+function swap(a: Float64Array, i: number, j: number): void {
+  const t = a[i];
+  a[i] = a[j];
+  a[j] = t;
+}
+
+/**
  * Median, same unit as the data. Even n: mean of the two middle values
  * (equals the type-7 quantile at p = 0.5).
  * @throws RangeError on empty input or non-finite values.

@@ -4,8 +4,8 @@
  */
 import { readFile } from 'node:fs/promises';
 import { extname } from 'node:path';
-import ExcelJS from 'exceljs';
 import type { ResultRow } from '../../../shared/stats/evaluate-round';
+import type { Cell } from 'exceljs';
 import { CliInputError } from './cli-error';
 import { parseCsv } from './csv';
 
@@ -53,6 +53,8 @@ function csvTable(file: string, text: string): RawTable {
 }
 
 async function xlsxTable(file: string, bytes: Buffer): Promise<RawTable> {
+  // Loaded only for workbooks: exceljs takes longer to load than a CSV round takes to evaluate.
+  const { default: ExcelJS } = await import('exceljs');
   const wb = new ExcelJS.Workbook();
   try {
     await wb.xlsx.load(bytes as unknown as ArrayBuffer);
@@ -74,7 +76,7 @@ async function xlsxTable(file: string, bytes: Buffer): Promise<RawTable> {
 }
 
 /** Numbers stay numbers; formulas give their cached result; everything else its text. */
-function cellContent(cell: ExcelJS.Cell): string | number | null {
+function cellContent(cell: Cell): string | number | null {
   const v = cell.value;
   if (v === null || v === undefined) return null;
   if (typeof v === 'number') return v;

@@ -1,0 +1,42 @@
+/**
+ * The built web app: precompressed files (brotli, then gzip, as the browser accepts; written by
+ * scripts/precompress.mjs at build time) and cache headers by kind of file. Angular's output
+ * names carry a content hash (`main-ABCD1234.js`), so those are cached for a year and never
+ * revalidated; anything else is revalidated after an hour, and index.html on every visit.
+ */
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import express, { type Router } from 'express';
+import expressStaticGzip from 'express-static-gzip';
+
+/** `name-HASH.ext` as Angular's production build writes it, or its precompressed copy. */
+const HASHED = /-[A-Z0-9]{8}\.(js|css|woff2?|ttf|svg|png|jpg|webp)(\.br|\.gz)?$/;
+
+export const IMMUTABLE = 'public, max-age=31536000, immutable';
+
+export function cacheControlFor(path: string): string {
+  return HASHED.test(path) ? IMMUTABLE : 'public, max-age=3600';
+}
+
+/** Serves `dir` (a built app) with its SPA fallback; null when there is no build there. */
+export function webApp(dir: string): Router | null {
+  if (!existsSync(join(dir, 'index.html'))) return null;
+  const router = express.Router();
+  router.use(
+    expressStaticGzip(dir, {
+      enableBrotli: true,
+      orderPreference: ['br', 'gz'],
+      index: false,
+      serveStatic: {
+        index: false,
+        setHeaders: (res, path) => res.setHeader('Cache-Control', cacheControlFor(path)),
+      },
+    }),
+  );
+  router.get('/{*splat}', (req, res, next) => {
+    if (!req.accepts('html')) return next();
+    res.setHeader('Cache-Control', 'no-cache');
+    res.sendFile(join(dir, 'index.html'));
+  });
+  return router;
+}

@@ -1,0 +1,107 @@
+/**
+ * What a person waits for in a real browser (headless Debian chromium on loopback): from
+ * navigation start until the page shows its data, on the demo scenario.
+ * - first visit: a new browser profile (empty cache), already signed in;
+ * - revisit: the same page again in that profile (files from the cache).
+ * Pages: the Consensus board of a published round (coordinator; "data" = grid rows) and a lab's
+ * round on the Lab bench (a demo lab; "data" = the results form). Targets (docs/QUALITY.md):
+ * first visit < 1 s, revisit < 300 ms. Needs the production web build (npm run build).
+ */
+import { spawn, type ChildProcess } from 'node:child_process';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import { chromium, type Browser, type BrowserContext } from 'playwright-core';
+import { createTestDatabase } from '../db/testing';
+import { DEFAULT_DEMO_PASSWORD } from '../db/seed/demo-people';
+import { seedDemo } from '../db/seed/demo';
+import type { Row } from './stats';
+
+const WEB = join(__dirname, '..', 'dist', 'web', 'browser');
+const VISITS = 7;
+
+function startServer(url: string): Promise<{ child: ChildProcess; port: number }> {
+  const child = spawn(process.execPath, ['--import', 'tsx', join(__dirname, 'board-server.ts'), url, WEB], { stdio: ['ignore', 'pipe', 'inherit'] });
+  return new Promise((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error('server did not start in 60 s')), 60_000);
+    child.stdout!.on('data', (b: Buffer) => {
+      const m = /PORT (\d+)/.exec(b.toString());
+      if (m) {
+        clearTimeout(timer);
+        resolve({ child, port: Number(m[1]) });
+      }
+    });
+    child.on('exit', (code) => reject(new Error(`server exited (${code})`)));
+  });
+}
+
+async function signedInContext(browser: Browser, base: string, email: string): Promise<BrowserContext> {
+  const ctx = await browser.newContext({ baseURL: base, viewport: { width: 1280, height: 860 } });
+  const token = ((await (await ctx.request.get('/api/v1/auth/csrf-token')).json()) as { token: string }).token;
+  const r = await ctx.request.post('/api/v1/auth/sign-in', { data: { email, password: DEFAULT_DEMO_PASSWORD }, headers: { 'x-csrf-token': token } });
+  if (!r.ok()) throw new Error(`sign-in ${email}: ${r.status()}`);
+  return ctx;
+}
+
+function summary(name: string, t: number[], target: string): Row & { target: string } {
+  const s = [...t].sort((a, b) => a - b);
+  const rank = (q: number) => s[Math.min(s.length - 1, Math.ceil(q * s.length) - 1)]!;
+  return { name, median_ms: rank(0.5), p95_ms: rank(0.95), runs: s.length, target };
+}
+
+export async function benchFirstVisit(): Promise<(Row & { target?: string; extra?: string })[]> {
+  if (!existsSync(join(WEB, 'index.html'))) {
+    return [{ name: 'first visit (browser)', median_ms: NaN, p95_ms: NaN, runs: 0, extra: 'no web build: run npm run build first' }];
+  }
+  const db = await createTestDatabase();
+  let server: ChildProcess | undefined;
+  let browser: Browser | undefined;
+  try {
+    process.env['RINGLET_DEMO_PASSWORD'] = DEFAULT_DEMO_PASSWORD;
+    await seedDemo(db.ds, DEFAULT_DEMO_PASSWORD);
+    const [published] = (await db.ds.query(`SELECT id FROM round WHERE state = 'published' ORDER BY results_due_at DESC LIMIT 1`)) as { id: string }[];
+    const [collecting] = (await db.ds.query(`SELECT id FROM round WHERE state = 'collecting' LIMIT 1`)) as { id: string }[];
+    const started = await startServer(db.url);
+    server = started.child;
+    const base = `http://127.0.0.1:${started.port}`;
+    browser = await chromium.launch({
+      executablePath: process.env['CHROMIUM_PATH'] || '/usr/bin/chromium',
+      headless: true,
+      args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-quic'],
+    });
+    const pages = [
+      { name: 'Consensus board, published round (coordinator)', email: 'coordinator@ringlet.example', path: `/board/rounds/${published!.id}`, ready: '.ag-row' },
+      { name: "a lab's round on the Lab bench (lab)", email: 'lab1@ringlet.example', path: `/bench/rounds/${collecting!.id}`, ready: '.mat-mdc-form-field input' },
+    ];
+    const rows: (Row & { target?: string })[] = [];
+    for (const p of pages) {
+      const first: number[] = [];
+      const again: number[] = [];
+      for (let i = 0; i < VISITS; i++) {
+        const ctx = await signedInContext(browser, base, p.email);
+        const page = await ctx.newPage();
+        const s1 = performance.now();
+        await page.goto(p.path, { waitUntil: 'commit' });
+        await page
+          .locator(p.ready)
+          .first()
+          .waitFor({ state: 'visible', timeout: 30_000 })
+          .catch(async (err: unknown) => {
+            await page.screenshot({ path: join(__dirname, '..', 'test-artifacts', 'bench-first-visit-failed.png') });
+            throw err;
+          });
+        first.push(performance.now() - s1);
+        const s2 = performance.now();
+        await page.goto(p.path, { waitUntil: 'commit' });
+        await page.locator(p.ready).first().waitFor({ state: 'visible', timeout: 30_000 });
+        again.push(performance.now() - s2);
+        await ctx.close();
+      }
+      rows.push(summary(`first visit: ${p.name}`, first, '< 1000 ms'), summary(`revisit: ${p.name}`, again, '< 300 ms'));
+    }
+    return rows;
+  } finally {
+    await browser?.close();
+    server?.kill('SIGTERM');
+    await db.drop();
+  }
+}

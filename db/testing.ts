@@ -65,6 +65,19 @@ export async function createTestDatabase(): Promise<TestDatabase> {
   };
 }
 
+/** An empty database (no schema) owned by the owner role, e.g. to restore a backup into. */
+export async function createEmptyDatabase(): Promise<Omit<TestDatabase, 'ds'>> {
+  const name = `ringlet_t_${randomBytes(6).toString('hex')}`;
+  await admin(async (c) => c.query(`CREATE DATABASE ${name} TEMPLATE template0${await ownerClause(c)}`));
+  return {
+    url: withDatabase(databaseUrl(), name),
+    ownerUrl: withDatabase(ownerDatabaseUrl(), name),
+    async drop() {
+      await admin((c) => c.query(`DROP DATABASE IF EXISTS ${name} WITH (FORCE)`));
+    },
+  };
+}
+
 /** Drops test databases left by interrupted runs. */
 export async function dropStaleTestDatabases(): Promise<number> {
   return admin(async (c) => {

@@ -1,11 +1,10 @@
 import { spawn } from 'node:child_process';
 import { existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
-import { grantRuntimeRole, migrateDatabase } from './migrate';
-import { createDataSource } from './data-source';
+import { migrateDatabase } from './migrate';
 
-/** pg_dump / pg_restore: PATH first, else the newest Debian PostgreSQL install (db/postgres.sh uses the same). */
-export function pgTool(name: 'pg_dump' | 'pg_restore'): string {
+/** pg_dump / pg_restore / psql: the newest Debian PostgreSQL install first (db/postgres.sh uses the same), else PATH. */
+export function pgTool(name: 'pg_dump' | 'pg_restore' | 'psql'): string {
   const root = '/usr/lib/postgresql';
   if (existsSync(root)) {
     const versions = readdirSync(root).filter((v) => /^\d+$/.test(v)).sort((a, b) => Number(b) - Number(a));
@@ -50,22 +49,42 @@ export async function backupDatabase(ownerUrl: string, file: string): Promise<vo
 }
 
 /**
- * Restores a backup into the database at `ownerUrl` as the owner role. `clean` first drops the
- * objects the backup holds (restoring over an existing database); without it the database should be
- * empty. Afterwards pending migrations run (a backup from an older version) and the runtime role's
- * grants are renewed. Stop the servers first.
+ * Restores a backup into the database at `ownerUrl` as the owner role, in one transaction: the
+ * app's schemas (public, and pgboss for the job queue) are dropped and rebuilt from the backup, so
+ * either the whole backup is in place or nothing changed. Afterwards pending migrations run (a
+ * backup from an older version) and the runtime role's grants are renewed. Stop the servers first.
  */
-export async function restoreDatabase(ownerUrl: string, file: string, opts: { clean?: boolean } = {}): Promise<void> {
+export async function restoreDatabase(ownerUrl: string, file: string): Promise<void> {
   if (!existsSync(file)) throw new Error(`no such backup file: ${file}`);
   const c = connection(ownerUrl);
-  const args = [...c.args, '--no-owner', '--no-privileges', '--single-transaction', '--exit-on-error'];
-  if (opts.clean) args.push('--clean', '--if-exists');
-  await run(pgTool('pg_restore'), [...args, file], c.env);
-  await migrateDatabase(ownerUrl);
-  const ds = await createDataSource(ownerUrl).initialize();
-  try {
-    await grantRuntimeRole(ds);
-  } finally {
-    await ds.destroy();
+  // pg_restore writes the restore as SQL; psql runs it after the drop inside one transaction, which
+  // is committed only when pg_restore read the whole file (else psql is killed: nothing changes).
+  const psql = spawn(pgTool('psql'), [...c.args, '--quiet', '-v', 'ON_ERROR_STOP=1', '--file', '-'], {
+    env: c.env,
+    stdio: ['pipe', 'ignore', 'pipe'],
+  });
+  const restore = spawn(pgTool('pg_restore'), ['--no-owner', '--no-privileges', '--file', '-', file], { env: c.env, stdio: ['ignore', 'pipe', 'pipe'] });
+  let err = '';
+  psql.stderr!.on('data', (d: Buffer) => (err += d.toString()));
+  restore.stderr!.on('data', (d: Buffer) => (err += d.toString()));
+  const exited = (p: ReturnType<typeof spawn>) =>
+    new Promise<number>((resolve, reject) => {
+      p.on('error', reject);
+      p.on('exit', (code) => resolve(code ?? 1));
+    });
+  const psqlDone = exited(psql);
+  psql.stdin!.on('error', () => undefined); // psql stopped on an error: its exit code tells
+  psql.stdin!.write('BEGIN;\nDROP SCHEMA IF EXISTS pgboss CASCADE;\nDROP SCHEMA IF EXISTS public CASCADE;\nCREATE SCHEMA public;\n');
+  restore.stdout!.pipe(psql.stdin!, { end: false });
+  const restoreCode = await exited(restore);
+  await new Promise<void>((resolve) => (restore.stdout!.readableEnded ? resolve() : restore.stdout!.once('end', () => resolve())));
+  if (restoreCode !== 0) {
+    psql.kill('SIGKILL');
+    await psqlDone;
+    throw new Error(`pg_restore exited ${restoreCode} (the database is unchanged): ${err.trim()}`);
   }
+  psql.stdin!.end('COMMIT;\n');
+  const psqlCode = await psqlDone;
+  if (psqlCode !== 0) throw new Error(`restore failed (the database is unchanged): ${err.trim()}`);
+  await migrateDatabase(ownerUrl); // also renews the runtime role's grants
 }

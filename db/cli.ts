@@ -59,7 +59,7 @@ async function main(cmd: string | undefined, arg: string | undefined): Promise<v
     }
     case 'restore': {
       if (!arg) throw new Error('usage: npm run db:restore FILE (stop the servers first)');
-      await restoreDatabase(url, arg, { clean: true });
+      await restoreDatabase(url, arg);
       console.log(`database ${databaseName(url)} restored from ${arg}`);
       return;
     }

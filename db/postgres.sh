@@ -137,12 +137,14 @@ DO \$\$ DECLARE r record; BEGIN
     EXECUTE format('ALTER SEQUENCE %I.%I OWNER TO $owner_role', r.s, r.t);
   END LOOP;
   FOR r IN SELECT p.oid::regprocedure AS f FROM pg_proc p JOIN pg_namespace n ON n.oid = p.pronamespace
-           WHERE n.nspname IN ('public', 'pgboss') AND pg_get_userbyid(p.proowner) = '$db_user' LOOP
+           WHERE n.nspname IN ('public', 'pgboss') AND pg_get_userbyid(p.proowner) = '$db_user'
+             AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = p.oid AND d.deptype = 'e') LOOP
     EXECUTE format('ALTER ROUTINE %s OWNER TO $owner_role', r.f);
   END LOOP;
   FOR r IN SELECT t.oid::regtype AS ty FROM pg_type t JOIN pg_namespace n ON n.oid = t.typnamespace
            WHERE n.nspname IN ('public', 'pgboss') AND t.typtype IN ('e', 'd', 'c') AND t.typrelid = 0
-             AND pg_get_userbyid(t.typowner) = '$db_user' LOOP
+             AND pg_get_userbyid(t.typowner) = '$db_user'
+             AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = t.oid AND d.deptype = 'e') LOOP
     EXECUTE format('ALTER TYPE %s OWNER TO $owner_role', r.ty);
   END LOOP;
   IF EXISTS (SELECT 1 FROM pg_namespace WHERE nspname = 'pgboss' AND pg_get_userbyid(nspowner) = '$db_user') THEN

@@ -12,15 +12,24 @@ export const JOB_SCHEMA = 'pgboss';
  */
 export async function migrateDatabase(ownerUrl = ownerDatabaseUrl()): Promise<number> {
   const ds = await createDataSource(ownerUrl).initialize();
+  // Several instances starting at once: one migrates, the others wait on this lock and find nothing to do.
+  const lock = ds.createQueryRunner();
   try {
+    await lock.connect();
+    await lock.query(`SELECT pg_advisory_lock(${MIGRATION_LOCK})`);
     const done = await ds.runMigrations({ transaction: 'each' });
     await installJobSchema(ownerUrl);
     await grantRuntimeRole(ds);
     return done.length;
   } finally {
+    await lock.query(`SELECT pg_advisory_unlock(${MIGRATION_LOCK})`).catch(() => undefined);
+    await lock.release();
     await ds.destroy();
   }
 }
+
+/** Advisory lock key held while migrating (an arbitrary constant: "ringlet" in ASCII, 0x72696e676c6574). */
+const MIGRATION_LOCK = '32204070247490932';
 
 /** Installs or upgrades pg-boss's schema without starting its maintenance or cron. */
 export async function installJobSchema(ownerUrl: string): Promise<void> {

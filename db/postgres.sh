@@ -4,7 +4,13 @@
 #   bash db/postgres.sh start    # idempotent: init the cluster if needed, start it, create the app database
 #   bash db/postgres.sh stop     # idempotent
 #   bash db/postgres.sh status
-#   bash db/postgres.sh url      # prints the DATABASE_URL of the local cluster
+#   bash db/postgres.sh url      # prints the DATABASE_URL of the local cluster (the runtime role)
+#
+# Roles (see README, "Database roles"):
+#   ringlet        the cluster's superuser; only this script and the test harness use it, to create
+#                  roles and databases
+#   ringlet_owner  owns the app database and every table in it; migrations and the demo seed run as it
+#   ringlet_app    the running server: SELECT/INSERT/UPDATE/DELETE only, no superuser, no DDL
 #
 # Uses Debian's PostgreSQL binaries (installs the `postgresql` package when missing and run as root).
 # Listens on 127.0.0.1 only (port RINGLET_PG_PORT, default 5433). PostgreSQL refuses to run as root,
@@ -17,6 +23,8 @@ repo=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
 port=${RINGLET_PG_PORT:-5433}
 db_user=ringlet
 db_password=ringlet
+owner_role=ringlet_owner
+app_role=ringlet_app
 db_name=${RINGLET_PG_DB:-ringlet}
 
 log() { printf '[postgres] %s\n' "$*" >&2; }
@@ -69,7 +77,7 @@ data_dir() {
   printf '%s' "$dir"
 }
 
-url() { printf 'postgres://%s:%s@127.0.0.1:%s/%s\n' "$db_user" "$db_password" "$port" "$db_name"; }
+url() { printf 'postgres://%s:%s@127.0.0.1:%s/%s\n' "$app_role" "$app_role" "$port" "$db_name"; }
 
 case "$cmd" in
   url) url; exit 0 ;;
@@ -98,11 +106,52 @@ case "$cmd" in
       log "started on 127.0.0.1:$port (data in $pgdata)"
     fi
     export PGPASSWORD=$db_password
-    if ! "$bin/psql" -h 127.0.0.1 -p "$port" -U "$db_user" -d postgres -tAc \
-      "SELECT 1 FROM pg_database WHERE datname = '$db_name'" | grep -q 1; then
-      "$bin/psql" -h 127.0.0.1 -p "$port" -U "$db_user" -d postgres -qc "CREATE DATABASE $db_name" >/dev/null
+    psql_su() { "$bin/psql" -h 127.0.0.1 -p "$port" -U "$db_user" -v ON_ERROR_STOP=1 -q "$@"; }
+    # The owner and runtime roles (local passwords = role names; the cluster listens on loopback only).
+    psql_su -d postgres >/dev/null <<SQL
+DO \$\$ BEGIN
+  IF NOT EXISTS (SELECT 1 FROM pg_roles WHERE rolname = '$owner_role') THEN
+    CREATE ROLE $owner_role LOGIN PASSWORD '$owner_role' NOSUPERUSER NOCREATEDB NOCREATEROLE;
+  END IF;
+  IF NOT EXISTS (SELECT 1 FROM pg_roles WHERE rolname = '$app_role') THEN
+    CREATE ROLE $app_role LOGIN PASSWORD '$app_role' NOSUPERUSER NOCREATEDB NOCREATEROLE NOINHERIT;
+  END IF;
+END \$\$;
+SQL
+    if ! psql_su -d postgres -tAc "SELECT 1 FROM pg_database WHERE datname = '$db_name'" | grep -q 1; then
+      psql_su -d postgres -c "CREATE DATABASE $db_name OWNER $owner_role" >/dev/null
       log "created database $db_name"
     fi
+    # A database made before the roles existed: hand it and its objects to the owner role.
+    psql_su -d "$db_name" >/dev/null <<SQL
+ALTER DATABASE $db_name OWNER TO $owner_role;
+DO \$\$ DECLARE r record; BEGIN
+  FOR r IN SELECT n.nspname AS s, c.relname AS t FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
+           WHERE n.nspname IN ('public', 'pgboss') AND c.relkind IN ('r', 'p', 'v', 'm')
+             AND pg_get_userbyid(c.relowner) = '$db_user' LOOP
+    EXECUTE format('ALTER TABLE %I.%I OWNER TO $owner_role', r.s, r.t);
+  END LOOP;
+  FOR r IN SELECT n.nspname AS s, c.relname AS t FROM pg_class c JOIN pg_namespace n ON n.oid = c.relnamespace
+           WHERE n.nspname IN ('public', 'pgboss') AND c.relkind = 'S' AND pg_get_userbyid(c.relowner) = '$db_user'
+             AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = c.oid AND d.deptype IN ('a', 'i')) LOOP
+    EXECUTE format('ALTER SEQUENCE %I.%I OWNER TO $owner_role', r.s, r.t);
+  END LOOP;
+  FOR r IN SELECT p.oid::regprocedure AS f FROM pg_proc p JOIN pg_namespace n ON n.oid = p.pronamespace
+           WHERE n.nspname IN ('public', 'pgboss') AND pg_get_userbyid(p.proowner) = '$db_user'
+             AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = p.oid AND d.deptype = 'e') LOOP
+    EXECUTE format('ALTER ROUTINE %s OWNER TO $owner_role', r.f);
+  END LOOP;
+  FOR r IN SELECT t.oid::regtype AS ty FROM pg_type t JOIN pg_namespace n ON n.oid = t.typnamespace
+           WHERE n.nspname IN ('public', 'pgboss') AND t.typtype IN ('e', 'd', 'c') AND t.typrelid = 0
+             AND pg_get_userbyid(t.typowner) = '$db_user'
+             AND NOT EXISTS (SELECT 1 FROM pg_depend d WHERE d.objid = t.oid AND d.deptype = 'e') LOOP
+    EXECUTE format('ALTER TYPE %s OWNER TO $owner_role', r.ty);
+  END LOOP;
+  IF EXISTS (SELECT 1 FROM pg_namespace WHERE nspname = 'pgboss' AND pg_get_userbyid(nspowner) = '$db_user') THEN
+    ALTER SCHEMA pgboss OWNER TO $owner_role;
+  END IF;
+END \$\$;
+SQL
     ;;
   stop)
     if as_owner "$bin/pg_ctl" -D "$pgdata" status >/dev/null 2>&1; then

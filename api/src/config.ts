@@ -10,6 +10,8 @@ const ConfigSchema = z
     HOST: z.string().default('127.0.0.1'),
     RINGLET_MODE: Mode.default('development'),
     DATABASE_URL: z.string().optional(),
+    DATABASE_OWNER_URL: z.string().optional(),
+    MIGRATION_DATABASE_URL: z.string().optional(),
     SESSION_SECRET: z.string().min(32).optional(),
     PUBLIC_URL: z.url().optional(),
     SMTP_HOST: z.string().optional(),
@@ -37,7 +39,10 @@ export interface AppConfig {
   port: number;
   host: string;
   mode: Mode;
+  /** The runtime role's connection (DATABASE_URL; default: the local cluster's ringlet_app). */
   databaseUrl?: string;
+  /** The owner role's connection for migrations and the seed (DATABASE_OWNER_URL or MIGRATION_DATABASE_URL). */
+  databaseOwnerUrl?: string;
   sessionSecret: string;
   publicUrl: string;
   smtp: { host: string; port: number; user?: string; password?: string; secure: boolean } | null;
@@ -60,6 +65,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     host: c.HOST,
     mode: c.RINGLET_MODE,
     databaseUrl: c.DATABASE_URL,
+    databaseOwnerUrl: c.DATABASE_OWNER_URL ?? c.MIGRATION_DATABASE_URL ?? (c.DATABASE_URL ? c.DATABASE_URL : undefined),
     sessionSecret: c.SESSION_SECRET ?? 'ringlet-development-secret-not-for-production',
     publicUrl: (c.PUBLIC_URL ?? `http://localhost:${c.PORT}`).replace(/\/$/, ''),
     smtp: c.SMTP_HOST

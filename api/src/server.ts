@@ -1,5 +1,6 @@
 import 'reflect-metadata';
-import { createDataSource, databaseUrl } from '../../db/data-source';
+import { createDataSource, databaseUrl, ownerDatabaseUrl } from '../../db/data-source';
+import { migrateDatabase } from '../../db/migrate';
 import { createApp } from './app';
 import { hasOutbox, readConfig } from './config';
 import { startJobs } from './jobs/queue';
@@ -11,13 +12,16 @@ import { isEmpty, seedDemo } from '../../db/seed/demo';
 /** Reads the config, connects, migrates, starts the local mail fake outside production, listens. */
 async function main(): Promise<void> {
   const config = readConfig();
+  // Migrations (and the demo seed) run as the owner role; the server itself connects as the runtime role.
+  const ownerUrl = config.databaseOwnerUrl ?? ownerDatabaseUrl();
+  await migrateDatabase(ownerUrl);
   const ds = createDataSource(config.databaseUrl ?? databaseUrl());
   await ds.initialize();
-  await ds.runMigrations({ transaction: 'each' });
   const demoPassword = config.demoPassword ?? DEFAULT_DEMO_PASSWORD;
   if (config.mode === 'demo' && (await isEmpty(ds))) {
     console.log('[ringlet] empty database: loading the demo scenario…');
-    await seedDemo(ds, demoPassword, config.publicUrl);
+    const owner = await createDataSource(ownerUrl).initialize();
+    await seedDemo(owner, demoPassword, config.publicUrl).finally(() => owner.destroy());
   }
   const fake = hasOutbox(config.mode) && !config.smtp ? await startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
   const smtpMailer = createMailer(config, fake ?? undefined);

@@ -245,13 +245,15 @@ export async function seedScenario(ds: DataSource, labIds: string[], publicUrl =
       await commitEvaluation(ctx, actor, roundId);
       await publishEvaluation(ctx, actor, roundId);
       // The story happened in the past: the round was evaluated and published three weeks after the due date.
-      // Back-dating a published evaluation passes its immutability trigger only for this demo load
-      // (session_replication_role needs the local cluster's superuser; elsewhere the dates stay "now").
+      // Back-dating a published evaluation passes its immutability trigger only for this demo load:
+      // the seed runs as the owner role, which may switch the table's trigger off inside this one
+      // transaction (the server's runtime role cannot). Run as any other role, the dates stay "now".
       const at = addDays(new Date(spec.dueAt), 21);
       await ds
         .transaction(async (em) => {
-          await em.query(`SET LOCAL session_replication_role = replica`);
+          await em.query(`ALTER TABLE evaluation DISABLE TRIGGER evaluation_published_immutable`);
           await em.query(`UPDATE evaluation SET computed_at = $2, committed_at = $2, published_at = $2, created_at = $2 WHERE round_id = $1`, [roundId, at]);
+          await em.query(`ALTER TABLE evaluation ENABLE TRIGGER evaluation_published_immutable`);
           await em.query(`UPDATE investigation SET created_at = $2, updated_at = $2 WHERE round_id = $1`, [roundId, at]);
           await em.query(`UPDATE round_transition SET at = $2 WHERE round_id = $1`, [roundId, at]);
         })

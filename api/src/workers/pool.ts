@@ -145,7 +145,8 @@ export async function runInWorker<T>(job: FileJob, label: string, timeoutMs = UP
 
 /** A copy of the bytes that can be handed to a worker (transferred, not copied again). */
 export function transferable(buf: Buffer): Uint8Array {
-  return new Uint8Array(buf);
+  // ArrayBuffer.slice is one memcpy; `new Uint8Array(buffer)` copies element by element (seconds for 20 MB).
+  return new Uint8Array(buf.buffer.slice(buf.byteOffset, buf.byteOffset + buf.byteLength) as ArrayBuffer);
 }
 
 /** Ends every upload worker (tests, shutdown). */

@@ -1,9 +1,10 @@
 import ExcelJS from 'exceljs';
-import { randomBytes } from 'node:crypto';
+import { createHash, randomBytes } from 'node:crypto';
 import request from 'supertest';
 import { ATTACHMENT_LIMIT, RESULTS_WORKBOOK_LIMIT, STUDY_FILE_LIMIT } from '../../../shared/contracts/upload-limits';
 import { cleanResults, createBenchRound, enrol, type BenchRound } from '../testing/bench-fixtures';
 import { createLab, createUser, signedIn, startTestApp, type Client, type TestApp } from '../testing/test-app';
+import type { TextJobResult } from '../workers/file-jobs';
 import { closeUploadWorkers, runInWorker, UPLOAD_WORKER_LIMITS } from '../workers/pool';
 import { HttpError } from './errors';
 import { cleanFileName } from './uploads';
@@ -228,6 +229,9 @@ describe('Uploads: one rule at the edge, limits before parsing, heavy work off t
       const res = await a.agent.post(api(`/rounds/${r.round.id}/submission/attachments`)).set('x-csrf-token', a.csrf).attach('file', csv, 'long.csv').expect(201);
       expect(res.body.kind).toBe('correlation-csv');
       expect(res.body.sizeBytes).toBe(csv.length);
+      expect(res.body.sha256).toBe(createHash('sha256').update(csv).digest('hex'));
+      const stored = await a.agent.get(api(`/rounds/${r.round.id}/submission/attachments/${res.body.id}`)).buffer(true).parse(binary).expect(200);
+      expect((stored.body as Buffer).equals(csv)).toBe(true); // the bytes went to the worker and back intact
       expect(res.body.reanalysis.ok).toBe(false);
       expect(res.body.reanalysis.error).toBe('not re-analysed: the file has 10,002 lines and a correlation function is read up to 10,000 lag times. The file is stored as sent.');
     });
@@ -252,16 +256,18 @@ describe('Uploads: one rule at the edge, limits before parsing, heavy work off t
       expect((err as HttpError).status).toBe(413);
       expect((err as HttpError).message).toBe('file: reading the test file needs more than 192 MB of memory; send a smaller file.');
       await request(t.app).get(api('/health')).expect(200);
-      const again = await runInWorker<{ kind: string }>({ type: 'text', data: new Uint8Array(Buffer.from('hello\n')), maxCorrelationRows: 10 }, 'test file');
-      expect(again.kind).toBe('text');
+      const again = await runInWorker<TextJobResult>({ type: 'text', data: new Uint8Array(Buffer.from('hello\n')), maxCorrelationRows: 10 }, 'test file');
+      expect(again.class.kind).toBe('text');
+      expect(Buffer.from(again.bytes).toString()).toBe('hello\n'); // the bytes come back
+      expect(again.sha256).toBe(createHash('sha256').update('hello\n').digest('hex'));
     });
 
     it('ends a job that runs past its time limit with 422', async () => {
       const err = await runInWorker({ type: 'spin' }, 'test file', 1500).catch((e: unknown) => e);
       expect((err as HttpError).status).toBe(422);
       expect((err as HttpError).code).toBe('file_too_complex');
-      const again = await runInWorker<{ kind: string }>({ type: 'text', data: new Uint8Array(Buffer.from('1e-6,0.9\n2e-6,0.8\n')), maxCorrelationRows: 10 }, 'test file');
-      expect(again.kind).toBe('correlation-csv');
+      const again = await runInWorker<TextJobResult>({ type: 'text', data: new Uint8Array(Buffer.from('1e-6,0.9\n2e-6,0.8\n')), maxCorrelationRows: 10 }, 'test file');
+      expect(again.class.kind).toBe('correlation-csv');
     });
   });
 });

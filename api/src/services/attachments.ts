@@ -8,8 +8,8 @@ import { mean } from '../../../shared/stats/descriptive';
 import type { SessionUser } from '../auth/session-user';
 import { badRequest, conflict, HttpError, notFound } from '../http/errors';
 import { cleanFileName } from '../http/uploads';
-import { classifyText, type TextClass } from '../workers/file-jobs';
-import { runInWorker, transferable } from '../workers/pool';
+import { classifyText, type TextJobResult } from '../workers/file-jobs';
+import { handOver, runInWorker } from '../workers/pool';
 import { listZipEntries } from '../workers/zip';
 import { audit } from './audit';
 import { findEnrolment, lockState } from './bench';
@@ -52,21 +52,28 @@ export interface DetectedType {
 /**
  * The file's type from its bytes, never from its name or the client's header: PDF, XLSX, or UTF-8
  * text without control bytes (a two-column lag time / g2 − 1 table is a correlation CSV). Anything
- * else is refused (null). Text is decoded and parsed in an upload worker thread, its lines counted
- * before it is parsed (ATTACHMENT_LIMIT.maxCorrelationRows).
+ * else is refused (type null). Text above 256 KB is decoded, hashed and parsed in an upload worker
+ * thread, its lines counted before it is parsed (ATTACHMENT_LIMIT.maxCorrelationRows); the bytes
+ * move to the thread and back without a copy, so use the `bytes` answered, not `buf`.
  */
-export async function detectAttachmentType(buf: Buffer): Promise<DetectedType | null> {
-  if (buf.length === 0) return null;
+export async function inspectAttachment(buf: Buffer): Promise<{ type: DetectedType | null; bytes: Buffer; sha256: string }> {
+  const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+  if (buf.length === 0) return { type: null, bytes: buf, sha256: sha(buf) };
   const packaged = detectPackagedType(buf);
-  if (packaged) return packaged;
-  if (buf[0] === 0x50 && buf[1] === 0x4b && buf[2] === 0x03 && buf[3] === 0x04) return null; // another zip
-  const c =
-    buf.length <= INLINE_TEXT_BYTES
-      ? classifyText(buf, ATTACHMENT_LIMIT.maxCorrelationRows)
-      : await runInWorker<TextClass>({ type: 'text', data: transferable(buf), maxCorrelationRows: ATTACHMENT_LIMIT.maxCorrelationRows }, ATTACHMENT_LIMIT.label);
-  if (c.kind === 'binary') return null;
-  if (c.kind === 'text') return { kind: 'text', contentType: 'text/plain' };
-  return { kind: 'correlation-csv', contentType: 'text/csv', correlation: c.data ?? { lines: c.lines } };
+  if (packaged) return { type: packaged, bytes: buf, sha256: sha(buf) };
+  if (buf[0] === 0x50 && buf[1] === 0x4b && buf[2] === 0x03 && buf[3] === 0x04) return { type: null, bytes: buf, sha256: sha(buf) }; // another zip
+  let c: TextJobResult;
+  if (buf.length <= INLINE_TEXT_BYTES) c = { class: classifyText(buf, ATTACHMENT_LIMIT.maxCorrelationRows), sha256: sha(buf), bytes: buf };
+  else c = await runInWorker<TextJobResult>({ type: 'text', data: handOver(buf), maxCorrelationRows: ATTACHMENT_LIMIT.maxCorrelationRows }, ATTACHMENT_LIMIT.label);
+  const bytes = Buffer.isBuffer(c.bytes) ? c.bytes : Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength);
+  const k = c.class;
+  const type: DetectedType | null =
+    k.kind === 'binary'
+      ? null
+      : k.kind === 'text'
+        ? { kind: 'text', contentType: 'text/plain' }
+        : { kind: 'correlation-csv', contentType: 'text/csv', correlation: k.data ?? { lines: k.lines } };
+  return { type, bytes, sha256: c.sha256 };
 }
 
 /**
@@ -157,13 +164,12 @@ export async function uploadAttachment(
 ): Promise<AttachmentDto> {
   if (!file) throw badRequest('file: attach a file (multipart field "file").', [{ path: 'file', message: 'Attach a file.' }]);
   if (file.buffer.length > ATTACHMENT_LIMIT.maxBytes) throw new HttpError(413, 'file_too_large', `file: the limit is ${formatBytes(ATTACHMENT_LIMIT.maxBytes)} per file.`);
-  const type = await detectAttachmentType(file.buffer);
+  const { type, bytes, sha256 } = await inspectAttachment(file.buffer);
   if (!type) {
     throw new HttpError(415, 'file_type_refused', 'file: only CSV or TXT text, PDF or XLSX files are accepted (checked by content).', [
       { path: 'file', message: 'CSV, TXT, PDF or XLSX only.' },
     ]);
   }
-  const sha256 = createHash('sha256').update(file.buffer).digest('hex');
   return ctx.ds.transaction(async (em) => {
     const { round, enrolment } = await findEnrolment(em, labId, roundId);
     const lock = lockState(round, enrolment);
@@ -183,7 +189,7 @@ export async function uploadAttachment(
         return xs.length ? mean(xs) : null;
       };
       reanalysis = reanalyse(
-        type.correlation ?? file.buffer.toString('utf8'),
+        type.correlation ?? bytes.toString('utf8'),
         item?.conditions ?? { temperatureC: null, viscosityMPas: null, refractiveIndex: null, laserWavelengthNm: null, scatteringAngleDeg: null },
         round.protocolTemperatureC,
         { zAverageNm: meanOf('z_average'), pdi: meanOf('pdi') },
@@ -197,9 +203,9 @@ export async function uploadAttachment(
         fileName: cleanFileName(file.originalname),
         contentType: type.contentType,
         kind: type.kind,
-        sizeBytes: file.buffer.length,
+        sizeBytes: bytes.length,
         sha256,
-        data: file.buffer,
+        data: bytes,
         reanalysis: reanalysis as unknown as Record<string, unknown> | null,
         uploadedBy: actor.id,
       }),

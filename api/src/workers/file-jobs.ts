@@ -1,4 +1,5 @@
 import ExcelJS from 'exceljs';
+import { createHash } from 'node:crypto';
 import { parseCorrelationCsv, type CorrelationData } from '../../../shared/dls';
 import type { SheetLimit } from '../../../shared/contracts/upload-limits';
 import { FileRefusal } from './refusal';
@@ -33,12 +34,23 @@ export type TextClass =
   /** Looks like a correlation function but has more lines than the re-analysis reads. */
   | { kind: 'correlation-csv'; data: null; lines: number };
 
+export interface TextJobResult {
+  class: TextClass;
+  sha256: string;
+  /** The job's bytes, handed back. */
+  bytes: Uint8Array;
+}
+
 export async function runJob(job: FileJob): Promise<unknown> {
   switch (job.type) {
     case 'xlsx':
       return readXlsx(Buffer.from(job.data.buffer, job.data.byteOffset, job.data.byteLength), job.limit);
-    case 'text':
-      return classifyText(Buffer.from(job.data.buffer, job.data.byteOffset, job.data.byteLength), job.maxCorrelationRows);
+    case 'text': {
+      // The bytes go back with the answer (transferred, not copied), with their checksum.
+      const buf = Buffer.from(job.data.buffer, job.data.byteOffset, job.data.byteLength);
+      const result: TextJobResult = { class: classifyText(buf, job.maxCorrelationRows), sha256: createHash('sha256').update(buf).digest('hex'), bytes: job.data };
+      return result;
+    }
     case 'exhaust-memory': {
       const hold: number[][] = [];
       for (;;) hold.push(new Array(1_000_000).fill(hold.length));

@@ -9,7 +9,10 @@ import { FileRefusal } from './refusal';
  */
 parentPort!.on('message', (msg: { id: number; job: FileJob }) => {
   runJob(msg.job).then(
-    (result) => parentPort!.postMessage({ id: msg.id, ok: true, result }),
+    (result) => {
+      const bytes = (result as { bytes?: unknown } | null)?.bytes;
+      parentPort!.postMessage({ id: msg.id, ok: true, result }, bytes instanceof Uint8Array ? [bytes.buffer as ArrayBuffer] : []);
+    },
     (err: unknown) => {
       const refusal =
         err instanceof FileRefusal

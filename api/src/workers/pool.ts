@@ -149,6 +149,15 @@ export function transferable(buf: Buffer): Uint8Array {
   return new Uint8Array(buf.buffer.slice(buf.byteOffset, buf.byteOffset + buf.byteLength) as ArrayBuffer);
 }
 
+/**
+ * The bytes for a worker without copying them when the Buffer owns its whole memory (as a large
+ * upload's does): the memory moves to the worker and `buf` is empty afterwards, so the caller must
+ * use the bytes the job hands back. A pooled (small) Buffer is copied.
+ */
+export function handOver(buf: Buffer): Uint8Array {
+  return buf.byteOffset === 0 && buf.byteLength === buf.buffer.byteLength && buf.byteLength > 0 ? new Uint8Array(buf.buffer, 0, buf.byteLength) : transferable(buf);
+}
+
 /** Ends every upload worker (tests, shutdown). */
 export async function closeUploadWorkers(): Promise<void> {
   await Promise.all(slots.map((s) => s.worker.terminate()));

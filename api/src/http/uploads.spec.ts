@@ -207,6 +207,14 @@ describe('Uploads: one rule at the edge, limits before parsing, heavy work off t
       expect(res.body.error.message).toBe('file: the results workbook unpacks to more than 32 MB; the limit is 32 MB unpacked.');
     });
 
+    it('states the limits in the API description', async () => {
+      const doc = (await request(t.app).get(api('/openapi.json')).expect(200)).body;
+      expect(doc.paths['/api/v1/rounds/{id}/submission/upload.xlsx'].post.description).toContain('Limit 2 MB, 1,000 rows per sheet, 50,000 cells. Multipart field `file` (one file)');
+      expect(doc.paths['/api/v1/rounds/{id}/homogeneity/upload'].post.description).toContain('Limit 2 MB, 500 rows per sheet');
+      expect(doc.paths['/api/v1/rounds/{id}/submission/attachments'].post.description).toContain('Limit 20 MB.');
+      expect(doc.paths['/api/v1/rounds/{id}/receipt'].put.description).toContain('Limit 8 MB. Multipart field `photo`');
+    });
+
     it('names the cell of a formula instead of reading its cached result', async () => {
       const wb = await template();
       wb.getWorksheet('Results')!.getCell('F2').value = { formula: 'E2*1.01', result: 103.02 };

@@ -37,7 +37,8 @@ let nextId = 1;
 function spawnWorker(): Worker {
   const ext = extname(__filename);
   const entry = join(__dirname, `file-worker${ext}`);
-  const code = ext === '.ts' ? `require('tsx/cjs/api').register(); require(${JSON.stringify(entry)});` : `require(${JSON.stringify(entry)});`;
+  // Resolved here, so the thread finds tsx whatever the working directory.
+  const code = ext === '.ts' ? `require(${JSON.stringify(require.resolve('tsx/cjs/api'))}).register(); require(${JSON.stringify(entry)});` : `require(${JSON.stringify(entry)});`;
   return new Worker(code, { eval: true, execArgv: [], resourceLimits: UPLOAD_WORKER_LIMITS });
 }
 

@@ -33,6 +33,7 @@ async function main(): Promise<void> {
   await optional('consensus board API', './board', 'benchBoard');
   await optional('browser', './first-visit', 'benchFirstVisit');
   await optional('reports', './reports', 'benchReports');
+  await optional('uploads', './uploads', 'benchUploads');
   const rows: (BenchRow & { area: string })[] = [];
   for (const b of benches) {
     process.stderr.write(`running ${b.title}…\n`);

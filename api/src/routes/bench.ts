@@ -1,5 +1,4 @@
-import type { NextFunction, Request, Response } from 'express';
-import multer from 'multer';
+import type { Request, Response } from 'express';
 import * as z from 'zod';
 import {
   AttachmentDto,
@@ -11,7 +10,6 @@ import {
   InstrumentCheckInput,
   InstrumentCheckQuery,
   LabQuery,
-  MAX_ATTACHMENT_BYTES,
   MyRound,
   MyRoundDetail,
   ReceiptInput,
@@ -22,8 +20,10 @@ import {
   WorkbookUploadResult,
 } from '../../../shared/contracts/bench';
 import { Id } from '../../../shared/contracts/common';
+import { ATTACHMENT_LIMIT, describeLimit, RECEIPT_PHOTO_LIMIT, RESULTS_WORKBOOK_LIMIT } from '../../../shared/contracts/upload-limits';
 import type { SessionUser } from '../auth/session-user';
-import { badRequest, HttpError, unauthorized } from '../http/errors';
+import { badRequest } from '../http/errors';
+import { uploadedFile, uploadRule } from '../http/uploads';
 import type { ApiRouter } from '../http/route';
 import * as attachments from '../services/attachments';
 import * as bench from '../services/bench';
@@ -42,26 +42,6 @@ function labOf(req: Request, user: SessionUser, query: { labId?: string }): stri
     throw badRequest('x-lab-id: not a valid lab id.', [{ path: 'x-lab-id', message: 'Not a valid lab id.' }]);
   }
   return bench.resolveLab(user, query.labId ?? header);
-}
-
-/**
- * Multipart parsing for one file field, in memory (the bytes go to PostgreSQL). Signed-in callers
- * only, so an anonymous request never gets its body read; the route itself checks role and CSRF.
- */
-function fileUpload(field: string, maxBytes: number) {
-  const parse = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 20 } }).single(field);
-  return (req: Request, res: Response, next: NextFunction) => {
-    if (!req.user) return next(unauthorized());
-    parse(req, res, (err: unknown) => {
-      if (err instanceof multer.MulterError) {
-        if (err.code === 'LIMIT_FILE_SIZE') {
-          return next(new HttpError(413, 'file_too_large', `${field}: the limit is ${Math.round(maxBytes / 1024 / 1024)} MB per file.`, [{ path: field, message: 'Too large.' }]));
-        }
-        return next(badRequest(`${field}: ${err.message}`, [{ path: err.field ?? field, message: err.message }]));
-      }
-      next(err);
-    });
-  };
 }
 
 function sendFile(res: Response, data: Buffer, contentType: string, fileName: string, sha256?: string): void {
@@ -87,12 +67,13 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
   });
 
   // Receipt (JSON, or multipart with an optional `photo`).
-  api.router.put('/rounds/:id/receipt', fileUpload('photo', bench.MAX_PHOTO_BYTES));
+  // Uploads: every multipart route goes through the one upload rule (api/src/http/uploads.ts).
+  api.router.put('/rounds/:id/receipt', uploadRule(RECEIPT_PHOTO_LIMIT, lab));
   api.add({
     method: 'put', path: '/rounds/{id}/receipt', tag: 'lab bench', summary: 'Record the arrival of the test items: date, condition, notes, optional photo (multipart field `photo`, JPEG/PNG/WebP)',
-    description: LAB_DESCRIPTION, access: lab, params: RoundIdParams, query: LabQuery, body: ReceiptInput, response: MyRoundDetail,
+    description: `${LAB_DESCRIPTION} ${describeLimit(RECEIPT_PHOTO_LIMIT)}`, access: lab, params: RoundIdParams, query: LabQuery, body: ReceiptInput, response: MyRoundDetail,
     handler: ({ req, user, query, params, body }) =>
-      bench.saveReceipt(ctx, user, labOf(req, user, query), params.id, body, (req as Request & { file?: Express.Multer.File }).file?.buffer ?? null),
+      bench.saveReceipt(ctx, user, labOf(req, user, query), params.id, body, uploadedFile(req)?.buffer ?? null),
   });
   api.add({
     method: 'get', path: '/rounds/{id}/receipt/photo', tag: 'lab bench', summary: 'The receipt photo', access: lab,
@@ -138,14 +119,14 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
   });
 
   // Attachments.
-  api.router.post('/rounds/:id/submission/attachments', fileUpload('file', MAX_ATTACHMENT_BYTES));
+  api.router.post('/rounds/:id/submission/attachments', uploadRule(ATTACHMENT_LIMIT, lab));
   api.add({
     method: 'post', path: '/rounds/{id}/submission/attachments', tag: 'lab bench',
-    summary: 'Attach a raw-data file (multipart field `file`; CSV/TXT/PDF/XLSX by content; 20 MB); a correlation CSV is re-analysed by cumulants',
-    description: LAB_DESCRIPTION, access: lab, params: RoundIdParams, query: LabQuery, body: AttachmentUploadFields, status: 201, response: AttachmentDto,
+    summary: 'Attach a raw-data file (multipart field `file`; CSV/TXT/PDF/XLSX by content); a correlation CSV is re-analysed by cumulants',
+    description: `${LAB_DESCRIPTION} ${describeLimit(ATTACHMENT_LIMIT)} A correlation CSV of more than ${ATTACHMENT_LIMIT.maxCorrelationRows.toLocaleString('en-GB')} lines is stored but not re-analysed.`,
+    access: lab, params: RoundIdParams, query: LabQuery, body: AttachmentUploadFields, status: 201, response: AttachmentDto,
     handler: ({ req, user, query, params, body }) => {
-      const file = (req as Request & { file?: Express.Multer.File }).file;
-      return attachments.uploadAttachment(ctx, user, labOf(req, user, { labId: query.labId ?? body.labId }), params.id, file, body.testItemId);
+      return attachments.uploadAttachment(ctx, user, labOf(req, user, { labId: query.labId ?? body.labId }), params.id, uploadedFile(req), body.testItemId);
     },
   });
   api.add({
@@ -175,12 +156,13 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
       sendFile(res, buffer, 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet', fileName);
     },
   });
-  api.router.post('/rounds/:id/submission/upload.xlsx', fileUpload('file', MAX_ATTACHMENT_BYTES));
+  api.router.post('/rounds/:id/submission/upload.xlsx', uploadRule(RESULTS_WORKBOOK_LIMIT, lab));
   api.add({
     method: 'post', path: '/rounds/{id}/submission/upload.xlsx', tag: 'lab bench',
     summary: 'Upload the filled workbook (multipart field `file`) into the draft; problems name sheet, row and column',
-    description: LAB_DESCRIPTION, access: lab, params: RoundIdParams, query: LabQuery, response: WorkbookUploadResult,
+    description: `${LAB_DESCRIPTION} ${describeLimit(RESULTS_WORKBOOK_LIMIT)} More answers 413 naming the limit; a formula cell answers 422 naming the cell.`,
+    access: lab, params: RoundIdParams, query: LabQuery, response: WorkbookUploadResult,
     handler: ({ req, user, query, params }) =>
-      workbook.uploadWorkbook(ctx, user, labOf(req, user, query), params.id, (req as Request & { file?: Express.Multer.File }).file?.buffer),
+      workbook.uploadWorkbook(ctx, user, labOf(req, user, query), params.id, uploadedFile(req)?.buffer),
   });
 }

@@ -1,4 +1,3 @@
-import multer from 'multer';
 import * as z from 'zod';
 import { Organisation } from '../../../shared/contracts/admin';
 import { IdParams } from '../../../shared/contracts/common';
@@ -34,8 +33,10 @@ import {
   Withdrawal,
 } from '../../../shared/contracts/rounds';
 import { ROUND_STATE_LABELS } from '../../../shared/contracts/round-states';
+import { describeLimit, STUDY_FILE_LIMIT } from '../../../shared/contracts/upload-limits';
 import { conflict, describe, fieldIssues, HttpError, ruleBroken } from '../http/errors';
 import type { ApiRouter } from '../http/route';
+import { uploadedFile, uploadRule } from '../http/uploads';
 import type { AppContext } from '../services/context';
 import * as enrolment from '../services/enrolment';
 import * as homogeneity from '../services/homogeneity';
@@ -44,9 +45,6 @@ import { isCoordinatorTransition, lockRound, transitionRound } from '../services
 import * as rounds from '../services/rounds';
 import { recordDispatch } from '../services/shipments';
 import { listOrganisations } from '../services/users';
-
-/** Largest homogeneity/stability upload. */
-const MAX_UPLOAD_BYTES = 2 * 1024 * 1024;
 
 const UploadFields = z.object({
   kind: z.enum(['homogeneity', 'stability']),
@@ -204,22 +202,15 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
     access: coordinator, params: IdParams, body: StudyInput, status: 201, response: Study,
     handler: ({ params, body, user }) => homogeneity.recordStudy(ctx, user, params.id, body),
   });
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: 1 } }).single('file');
+  api.router.post('/rounds/:id/homogeneity/upload', uploadRule(STUDY_FILE_LIMIT, coordinator));
   api.add({
     method: 'post', path: '/rounds/{id}/homogeneity/upload', tag, summary: 'Upload a homogeneity or stability study as CSV or XLSX (multipart: file, kind, testItemId, measurandId, sigmaPt)',
     description:
       'Homogeneity: one row per item, first cell the item label, then its replicate results. Stability: rows "first|second, result". ' +
-      'A header row is skipped. Limit 2 MB; the type is checked by content.',
+      `A header row is skipped. The type is checked by content. ${describeLimit(STUDY_FILE_LIMIT)}`,
     access: coordinator, params: IdParams, status: 201, response: Study,
-    handler: async ({ params, req, res, user }) => {
-      await new Promise<void>((resolve, reject) =>
-        upload(req, res, (err: unknown) => {
-          if (!err) return resolve();
-          const tooLarge = (err as { code?: string }).code === 'LIMIT_FILE_SIZE';
-          reject(tooLarge ? new HttpError(413, 'payload_too_large', 'file: the file is larger than 2 MB.') : err);
-        }),
-      );
-      const file = (req as unknown as { file?: { buffer: Buffer; originalname: string } }).file;
+    handler: async ({ params, req, user }) => {
+      const file = uploadedFile(req);
       if (!file) throw new HttpError(400, 'validation_failed', 'file: attach a CSV or XLSX file.', [{ path: 'file', message: 'Attach a CSV or XLSX file.' }]);
       const fields = UploadFields.safeParse(req.body ?? {});
       if (!fields.success) {

@@ -1,12 +1,16 @@
 import { createHash } from 'node:crypto';
 import { Attachment, Submission, TestItem } from '../../../db/entities';
 import type { AttachmentDto, Reanalysis } from '../../../shared/contracts/bench';
-import { MAX_ATTACHMENT_BYTES } from '../../../shared/contracts/bench';
 import { SubmissionData } from '../../../shared/contracts/submission';
-import { cumulantsFit, parseCorrelationCsv, waterRefractiveIndex, waterViscosity } from '../../../shared/dls';
+import { ATTACHMENT_LIMIT, formatBytes, formatCount } from '../../../shared/contracts/upload-limits';
+import { cumulantsFit, parseCorrelationCsv, waterRefractiveIndex, waterViscosity, type CorrelationData } from '../../../shared/dls';
 import { mean } from '../../../shared/stats/descriptive';
 import type { SessionUser } from '../auth/session-user';
 import { badRequest, conflict, HttpError, notFound } from '../http/errors';
+import { cleanFileName } from '../http/uploads';
+import { classifyText, type TextJobResult } from '../workers/file-jobs';
+import { handOver, runInWorker } from '../workers/pool';
+import { listZipEntries } from '../workers/zip';
 import { audit } from './audit';
 import { findEnrolment, lockState } from './bench';
 import type { AppContext } from './context';
@@ -21,28 +25,55 @@ export const REANALYSIS_PDI_TOLERANCE = 0.1;
 
 const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
 
-/**
- * The file's type from its bytes, never from its name or the client's header: PDF (`%PDF-`), XLSX (a
- * zip with `[Content_Types].xml` and an `xl/` part), or UTF-8 text without control bytes (a
- * two-column lag time / g2 − 1 table is a correlation CSV). Anything else is refused.
- */
-export function detectAttachmentType(buf: Buffer): { kind: AttachmentKind; contentType: string } | null {
-  if (buf.length === 0) return null;
+/** PDF (`%PDF-`) or XLSX (a readable zip with `[Content_Types].xml` and `xl/` parts) from the bytes, else null. */
+export function detectPackagedType(buf: Buffer): { kind: 'pdf' | 'xlsx'; contentType: string } | null {
   if (buf.subarray(0, 5).toString('latin1') === '%PDF-') return { kind: 'pdf', contentType: 'application/pdf' };
-  if (buf[0] === 0x50 && buf[1] === 0x4b && buf[2] === 0x03 && buf[3] === 0x04) {
-    const names = buf.toString('latin1');
-    return names.includes('[Content_Types].xml') && names.includes('xl/') ? { kind: 'xlsx', contentType: XLSX_TYPE } : null;
+  if (buf.length >= 4 && buf[0] === 0x50 && buf[1] === 0x4b && buf[2] === 0x03 && buf[3] === 0x04) {
+    try {
+      const names = listZipEntries(buf).map((e) => e.name);
+      if (names.includes('[Content_Types].xml') && names.some((n) => n.startsWith('xl/'))) return { kind: 'xlsx', contentType: XLSX_TYPE };
+    } catch {
+      // not a readable zip
+    }
   }
-  const text = new TextDecoder('utf-8', { fatal: false }).decode(buf);
-  if (text.includes('\uFFFD')) return null; // not valid UTF-8
-  // eslint-disable-next-line no-control-regex -- looking for control bytes is the point
-  if (/[\u0000-\u0008\u000B\u000E-\u001F\u007F]/.test(text)) return null; // binary control bytes
-  try {
-    parseCorrelationCsv(text);
-    return { kind: 'correlation-csv', contentType: 'text/csv' };
-  } catch {
-    return { kind: 'text', contentType: 'text/plain' };
-  }
+  return null;
+}
+
+/** Text up to this size is classified on the request's own thread (a few milliseconds); larger text in a worker. */
+const INLINE_TEXT_BYTES = 256 * 1024;
+
+export interface DetectedType {
+  kind: AttachmentKind;
+  contentType: string;
+  /** For a correlation CSV: the parsed data, or the line count when it is longer than the re-analysis reads. */
+  correlation?: CorrelationData | { lines: number };
+}
+
+/**
+ * The file's type from its bytes, never from its name or the client's header: PDF, XLSX, or UTF-8
+ * text without control bytes (a two-column lag time / g2 − 1 table is a correlation CSV). Anything
+ * else is refused (type null). Text above 256 KB is decoded, hashed and parsed in an upload worker
+ * thread, its lines counted before it is parsed (ATTACHMENT_LIMIT.maxCorrelationRows); the bytes
+ * move to the thread and back without a copy, so use the `bytes` answered, not `buf`.
+ */
+export async function inspectAttachment(buf: Buffer): Promise<{ type: DetectedType | null; bytes: Buffer; sha256: string }> {
+  const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
+  if (buf.length === 0) return { type: null, bytes: buf, sha256: sha(buf) };
+  const packaged = detectPackagedType(buf);
+  if (packaged) return { type: packaged, bytes: buf, sha256: sha(buf) };
+  if (buf[0] === 0x50 && buf[1] === 0x4b && buf[2] === 0x03 && buf[3] === 0x04) return { type: null, bytes: buf, sha256: sha(buf) }; // another zip
+  let c: TextJobResult;
+  if (buf.length <= INLINE_TEXT_BYTES) c = { class: classifyText(buf, ATTACHMENT_LIMIT.maxCorrelationRows), sha256: sha(buf), bytes: buf };
+  else c = await runInWorker<TextJobResult>({ type: 'text', data: handOver(buf), maxCorrelationRows: ATTACHMENT_LIMIT.maxCorrelationRows }, ATTACHMENT_LIMIT.label);
+  const bytes = Buffer.isBuffer(c.bytes) ? c.bytes : Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength);
+  const k = c.class;
+  const type: DetectedType | null =
+    k.kind === 'binary'
+      ? null
+      : k.kind === 'text'
+        ? { kind: 'text', contentType: 'text/plain' }
+        : { kind: 'correlation-csv', contentType: 'text/csv', correlation: k.data ?? { lines: k.lines } };
+  return { type, bytes, sha256: c.sha256 };
 }
 
 /**
@@ -51,7 +82,7 @@ export function detectAttachmentType(buf: Buffer): { kind: AttachmentKind; conte
  * sets the result beside the lab's mean Z-average and PDI.
  */
 export function reanalyse(
-  text: string,
+  source: string | CorrelationData | { lines: number },
   conditions: { temperatureC: number | null; viscosityMPas: number | null; refractiveIndex: number | null; laserWavelengthNm: number | null; scatteringAngleDeg: number | null },
   protocolTemperatureC: number,
   lab: { zAverageNm: number | null; pdi: number | null },
@@ -68,7 +99,12 @@ export function reanalyse(
   };
   const base = { labZAverageNm: lab.zAverageNm, labPdi: lab.pdi, parameters };
   try {
-    const data = parseCorrelationCsv(text);
+    if (typeof source === 'object' && 'lines' in source) {
+      throw new Error(
+        `not re-analysed: the file has ${formatCount(source.lines)} lines and a correlation function is read up to ${formatCount(ATTACHMENT_LIMIT.maxCorrelationRows)} lag times. The file is stored as sent.`,
+      );
+    }
+    const data = typeof source === 'string' ? parseCorrelationCsv(source) : source;
     const fit = cumulantsFit({
       lagTimesS: data.lagTimesS,
       g2Minus1: data.g2Minus1,
@@ -115,13 +151,7 @@ function dto(a: AttachmentRow, uploadedBy: string | null): AttachmentDto {
   };
 }
 
-/** A safe display name: no path, no control characters, at most 200 characters. */
-export function cleanFileName(name: string): string {
-  const base = name.split(/[\\/]/).pop() ?? 'file';
-  // eslint-disable-next-line no-control-regex -- strip control characters from file names
-  const cleaned = base.replace(/[\u0000-\u001F\u007F"]/g, '').trim().slice(0, 200);
-  return cleaned || 'file';
-}
+export { cleanFileName };
 
 /** POST /rounds/{id}/submission/attachments: stores a raw-data file (bytes in PostgreSQL) with its checksum. */
 export async function uploadAttachment(
@@ -133,14 +163,13 @@ export async function uploadAttachment(
   testItemId: string | undefined,
 ): Promise<AttachmentDto> {
   if (!file) throw badRequest('file: attach a file (multipart field "file").', [{ path: 'file', message: 'Attach a file.' }]);
-  if (file.buffer.length > MAX_ATTACHMENT_BYTES) throw new HttpError(413, 'file_too_large', 'file: the limit is 20 MB per file.');
-  const type = detectAttachmentType(file.buffer);
+  if (file.buffer.length > ATTACHMENT_LIMIT.maxBytes) throw new HttpError(413, 'file_too_large', `file: the limit is ${formatBytes(ATTACHMENT_LIMIT.maxBytes)} per file.`);
+  const { type, bytes, sha256 } = await inspectAttachment(file.buffer);
   if (!type) {
     throw new HttpError(415, 'file_type_refused', 'file: only CSV or TXT text, PDF or XLSX files are accepted (checked by content).', [
       { path: 'file', message: 'CSV, TXT, PDF or XLSX only.' },
     ]);
   }
-  const sha256 = createHash('sha256').update(file.buffer).digest('hex');
   return ctx.ds.transaction(async (em) => {
     const { round, enrolment } = await findEnrolment(em, labId, roundId);
     const lock = lockState(round, enrolment);
@@ -160,7 +189,7 @@ export async function uploadAttachment(
         return xs.length ? mean(xs) : null;
       };
       reanalysis = reanalyse(
-        file.buffer.toString('utf8'),
+        type.correlation ?? bytes.toString('utf8'),
         item?.conditions ?? { temperatureC: null, viscosityMPas: null, refractiveIndex: null, laserWavelengthNm: null, scatteringAngleDeg: null },
         round.protocolTemperatureC,
         { zAverageNm: meanOf('z_average'), pdi: meanOf('pdi') },
@@ -174,9 +203,9 @@ export async function uploadAttachment(
         fileName: cleanFileName(file.originalname),
         contentType: type.contentType,
         kind: type.kind,
-        sizeBytes: file.buffer.length,
+        sizeBytes: bytes.length,
         sha256,
-        data: file.buffer,
+        data: bytes,
         reanalysis: reanalysis as unknown as Record<string, unknown> | null,
         uploadedBy: actor.id,
       }),

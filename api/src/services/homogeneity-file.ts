@@ -1,26 +1,30 @@
-import ExcelJS from 'exceljs';
-import { ruleBroken } from '../http/errors';
+import { formatCount, STUDY_FILE_LIMIT } from '../../../shared/contracts/upload-limits';
+import { HttpError, ruleBroken } from '../http/errors';
+import { countLines, type SheetOut } from '../workers/file-jobs';
+import { runInWorker, transferable } from '../workers/pool';
 
-/** Rows of cells from an uploaded CSV or XLSX file (first worksheet). */
+/**
+ * Rows of cells from an uploaded CSV or XLSX file (first worksheet). Limits first
+ * (STUDY_FILE_LIMIT): a CSV's lines are counted on the bytes before it is split; an XLSX is checked
+ * and read in an upload worker thread.
+ */
 export async function readRows(buffer: Buffer, filename: string): Promise<string[][]> {
   const isXlsx = buffer.subarray(0, 4).equals(Buffer.from([0x50, 0x4b, 0x03, 0x04]));
   if (isXlsx) {
-    const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load(buffer as unknown as ArrayBuffer);
-    const ws = wb.worksheets[0];
+    const { sheets } = await runInWorker<{ sheets: SheetOut[] }>({ type: 'xlsx', data: transferable(buffer), limit: STUDY_FILE_LIMIT }, STUDY_FILE_LIMIT.label);
+    const ws = sheets[0];
     if (!ws) throw ruleBroken('file_empty', 'file: the workbook has no worksheet.');
-    const rows: string[][] = [];
-    ws.eachRow((row) => {
-      const cells: string[] = [];
-      row.eachCell({ includeEmpty: true }, (cell) => {
-        const v = cell.value;
-        cells.push(v === null || v === undefined ? '' : typeof v === 'object' && 'result' in v ? String(v.result) : String(v));
-      });
-      rows.push(cells);
-    });
-    return rows;
+    return ws.rows.map(([, cells]) =>
+      cells.map((v) => (v === null ? '' : typeof v === 'object' ? (v.result === null ? '' : String(v.result)) : String(v))),
+    );
   }
   if (buffer.includes(0)) throw ruleBroken('file_type', `file: ${filename} is neither CSV text nor an XLSX workbook.`);
+  const lines = countLines(buffer);
+  if (lines > STUDY_FILE_LIMIT.maxRows) {
+    throw new HttpError(413, 'too_many_rows', `file: ${formatCount(lines)} lines; a ${STUDY_FILE_LIMIT.label} has at most ${formatCount(STUDY_FILE_LIMIT.maxRows)} rows.`, [
+      { path: 'file', message: `At most ${formatCount(STUDY_FILE_LIMIT.maxRows)} rows.` },
+    ]);
+  }
   const text = buffer.toString('utf8').replace(/^\uFEFF/, '');
   const sep = text.includes(';') && !text.includes(',') ? ';' : text.includes('\t') && !text.includes(',') ? '\t' : ',';
   return text

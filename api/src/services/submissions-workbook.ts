@@ -7,7 +7,10 @@ import type { SessionUser } from '../auth/session-user';
 import { conflict, HttpError, ruleBroken } from '../http/errors';
 import { findEnrolment, lockState } from './bench';
 import type { AppContext } from './context';
-import { detectAttachmentType } from './attachments';
+import { formatBytes, RESULTS_WORKBOOK_LIMIT } from '../../../shared/contracts/upload-limits';
+import type { CellOut, SheetOut } from '../workers/file-jobs';
+import { runInWorker, transferable } from '../workers/pool';
+import { detectPackagedType } from './attachments';
 import { lockSubmission, replaceDraft, roundRules } from './submissions';
 
 /** Condition columns of the "Conditions" sheet, in order (B onwards; A is the item code). */
@@ -92,15 +95,27 @@ export async function buildTemplate(ctx: AppContext, labId: string, roundId: str
   return { buffer, fileName: `${round.code}-${enrolment.participantCode}-results.xlsx` };
 }
 
-function cellValue(v: ExcelJS.CellValue): unknown {
-  if (v === null || v === undefined) return null;
-  if (typeof v === 'object') {
-    if ('result' in v) return (v as { result?: unknown }).result ?? null;
-    if ('richText' in v) return (v as ExcelJS.CellRichTextValue).richText.map((t) => t.text).join('');
-    if ('text' in v) return (v as { text: string }).text;
-    if (v instanceof Date) return v.toISOString();
+/** A worksheet as the upload worker read it, addressed by row and column (1-based). */
+class Sheet {
+  private readonly byRow = new Map<number, CellOut[]>();
+  constructor(readonly data: SheetOut) {
+    for (const [r, cells] of data.rows) this.byRow.set(r, cells);
   }
-  return v;
+  get name(): string {
+    return this.data.name;
+  }
+  cell(row: number, col: number): CellOut {
+    return col < 1 ? null : (this.byRow.get(row)?.[col - 1] ?? null);
+  }
+  /** The header cells of row 1 as text, indexed by column (1-based). */
+  headers(): string[] {
+    const out: string[] = [];
+    (this.byRow.get(1) ?? []).forEach((v, i) => (out[i + 1] = asText(typeof v === 'object' && v !== null ? v.result : v)));
+    return out;
+  }
+  eachRow(fn: (r: number) => void): void {
+    for (const [r] of this.data.rows) fn(r);
+  }
 }
 
 function asText(v: unknown): string {
@@ -115,29 +130,39 @@ function asText(v: unknown): string {
  */
 export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId: string, roundId: string, file: Buffer | undefined): Promise<WorkbookUploadResult> {
   if (!file) throw new HttpError(400, 'validation_failed', 'file: attach the filled workbook (multipart field "file").', [{ path: 'file', message: 'Attach a file.' }]);
-  if (detectAttachmentType(file)?.kind !== 'xlsx') {
+  if (file.length > RESULTS_WORKBOOK_LIMIT.maxBytes) {
+    throw new HttpError(413, 'file_too_large', `file: the limit is ${formatBytes(RESULTS_WORKBOOK_LIMIT.maxBytes)} for a ${RESULTS_WORKBOOK_LIMIT.label}.`, [{ path: 'file', message: 'Too large.' }]);
+  }
+  if (detectPackagedType(file)?.kind !== 'xlsx') {
     throw new HttpError(415, 'file_type_refused', 'file: upload the .xlsx workbook downloaded from this round.', [{ path: 'file', message: 'XLSX only.' }]);
   }
   const em = ctx.ds.manager;
   const { round } = await findEnrolment(em, labId, roundId);
   const rules = await roundRules(em, roundId, round.protocolTemperatureC);
-  const wb = new ExcelJS.Workbook();
-  try {
-    await wb.xlsx.load(file as unknown as ArrayBuffer);
-  } catch {
-    throw ruleBroken('workbook_unreadable', 'file: the workbook could not be read.');
-  }
+  // Row, cell and unpacked-size limits first, then the reading: both in an upload worker thread.
+  const { sheets } = await runInWorker<{ sheets: SheetOut[] }>({ type: 'xlsx', data: transferable(file), limit: RESULTS_WORKBOOK_LIMIT }, RESULTS_WORKBOOK_LIMIT.label);
   const issues: SheetIssue[] = [];
   /** Where each value of the results came from, to name the cell of a check's message. */
   const cells = new Map<string, { sheet: string; row: number; column: string }>();
   const at = (sheet: string, row: number, col: number) => ({ sheet, row, column: `${colLetter(col)}` });
-  const resultsWs = wb.getWorksheet('Results');
-  const condWs = wb.getWorksheet('Conditions');
+  const sheetNamed = (name: string) => {
+    const data = sheets.find((x) => x.name === name);
+    return data ? new Sheet(data) : undefined;
+  };
+  const resultsWs = sheetNamed('Results');
+  const condWs = sheetNamed('Conditions');
   if (!resultsWs) throw ruleBroken('workbook_invalid', 'file: the workbook has no "Results" sheet; start from the template.', [{ sheet: 'Results', row: 0, column: '', message: 'Sheet missing.' }]);
 
-  const headerRow = resultsWs.getRow(1);
-  const headers: string[] = [];
-  headerRow.eachCell({ includeEmpty: true }, (c, col) => (headers[col] = asText(cellValue(c.value))));
+  const headers = resultsWs.headers();
+  /** A cell's value; a formula is refused with a message naming the cell (results are typed, never computed here). */
+  const value = (ws: Sheet, r: number, c: number, header: string | undefined): unknown => {
+    const v = ws.cell(r, c);
+    if (v !== null && typeof v === 'object') {
+      issues.push({ ...at(ws.name, r, c), message: `${ws.name} row ${r}, column ${colLetter(c)}${header ? ` (${header})` : ''}: the cell holds a formula (${v.formula.slice(0, 60)}); type the value itself.` });
+      return null;
+    }
+    return v;
+  };
   const runCols = headers.map((h, i) => (/^Run \d+$/.test(h ?? '') ? i : -1)).filter((i) => i > 0);
   const col = (name: string) => headers.indexOf(name);
   const items = rules.items.map((i) => ({ testItemId: i.id, results: [] as ItemResults['results'], conditions: MeasurementConditions.parse({}), methodNotes: '' }));
@@ -152,10 +177,10 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
     return n;
   };
 
-  resultsWs.eachRow((row, r) => {
+  resultsWs.eachRow((r) => {
     if (r === 1) return;
-    const code = asText(cellValue(row.getCell(1).value));
-    const key = asText(cellValue(row.getCell(2).value));
+    const code = asText(value(resultsWs, r, 1, headers[1]));
+    const key = asText(value(resultsWs, r, 2, headers[2]));
     if (!code && !key) return;
     const ii = rules.items.findIndex((i) => i.code === code);
     const m = rules.measurands.find((x) => x.key === key);
@@ -165,14 +190,14 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
     const ri = target.results.length;
     const replicates = runCols.slice(0, Math.max(m.replicatesRequired, runCols.length)).map((c, k) => {
       cells.set(`items.${ii}.results.${ri}.replicates.${k}`, at('Results', r, c));
-      return num('Results', r, c, cellValue(row.getCell(c).value));
+      return num('Results', r, c, value(resultsWs, r, c, headers[c]));
     });
     while (replicates.length && replicates[replicates.length - 1] === null && replicates.length > m.replicatesRequired) replicates.pop();
     cells.set(`items.${ii}.results.${ri}.replicates`, at('Results', r, runCols[0] ?? 5));
     let uncertainty: Uncertainty | null = null;
-    const kindRaw = asText(cellValue(row.getCell(col('Uncertainty type')).value)).toLowerCase();
-    const uVal = num('Results', r, col('Uncertainty'), cellValue(row.getCell(col('Uncertainty')).value));
-    const kVal = num('Results', r, col('k'), cellValue(row.getCell(col('k')).value));
+    const kindRaw = asText(value(resultsWs, r, col('Uncertainty type'), 'Uncertainty type')).toLowerCase();
+    const uVal = num('Results', r, col('Uncertainty'), value(resultsWs, r, col('Uncertainty'), 'Uncertainty'));
+    const kVal = num('Results', r, col('k'), value(resultsWs, r, col('k'), 'k'));
     if (kindRaw || uVal !== null) {
       const parsed = Uncertainty.safeParse({ kind: kindRaw || 'standard', value: uVal, k: kVal });
       if (parsed.success) uncertainty = parsed.data;
@@ -186,11 +211,10 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
   });
 
   if (condWs) {
-    const condHeaders: string[] = [];
-    condWs.getRow(1).eachCell({ includeEmpty: true }, (c, i) => (condHeaders[i] = asText(cellValue(c.value))));
-    condWs.eachRow((row, r) => {
+    const condHeaders = condWs.headers();
+    condWs.eachRow((r) => {
       if (r === 1) return;
-      const code = asText(cellValue(row.getCell(1).value));
+      const code = asText(value(condWs, r, 1, condHeaders[1]));
       if (!code) return;
       const ii = rules.items.findIndex((i) => i.code === code);
       if (ii < 0) return void issues.push({ ...at('Conditions', r, 1), message: `Conditions row ${r}, column A: "${code}" is not a test item of this round.` });
@@ -198,7 +222,7 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
       CONDITION_COLUMNS.forEach((cc, k) => {
         const c = condHeaders.indexOf(cc.header) > 0 ? condHeaders.indexOf(cc.header) : k + 2;
         cells.set(`items.${ii}.conditions.${cc.key}`, at('Conditions', r, c));
-        const v = cellValue(row.getCell(c).value);
+        const v = value(condWs, r, c, condHeaders[c]);
         raw[cc.key] = cc.numeric ? num('Conditions', r, c, v) : asText(v);
       });
       const { methodNotes, ...conditions } = raw;

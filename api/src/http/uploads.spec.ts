@@ -124,7 +124,7 @@ describe('Uploads: one rule at the edge, limits before parsing, heavy work off t
       }
     });
 
-    it('answers a corrupt zip with 415 or 422 naming the file, never 500', async () => {
+    it('answers a corrupt zip with 415 (not a workbook by content) or 400 (unreadable workbook) naming the file, never 500', async () => {
       const corrupt = Buffer.concat([Buffer.from('PK\x03\x04', 'latin1'), randomBytes(2000), Buffer.from('[Content_Types].xml xl/worksheets/sheet1.xml')]);
       const wb = await a.agent.post(api(`/rounds/${r.round.id}/submission/upload.xlsx`)).set('x-csrf-token', a.csrf).attach('file', corrupt, 'results.xlsx').expect(415);
       expect(wb.body.error.message).toBe('file: upload the .xlsx workbook downloaded from this round.');
@@ -133,7 +133,7 @@ describe('Uploads: one rule at the edge, limits before parsing, heavy work off t
         .set('x-csrf-token', coord.csrf)
         .field('kind', 'homogeneity').field('testItemId', r.items[0]!.id).field('measurandId', r.zAverage.id)
         .attach('file', corrupt, 'study.xlsx')
-        .expect(422);
+        .expect(400);
       expect(study.body.error.code).toBe('workbook_unreadable');
       expect(study.body.error.message).toMatch(/^file: the workbook could not be read \(the zip has no end record/);
     });

@@ -92,7 +92,7 @@ export async function readXlsx(buf: Buffer, limit: SheetLimit): Promise<{ sheets
   try {
     await wb.xlsx.load(buf as unknown as ArrayBuffer);
   } catch {
-    throw new FileRefusal(422, 'workbook_unreadable', 'file: the workbook could not be read. Save it again as .xlsx and upload that file.');
+    throw new FileRefusal(400, 'workbook_unreadable', 'file: the workbook could not be read. Save it again as .xlsx and upload that file.');
   }
   const sheets = wb.worksheets.map((ws) => {
     const rows: [number, CellOut[]][] = [];

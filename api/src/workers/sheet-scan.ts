@@ -133,7 +133,7 @@ async function sheetNames(buf: Buffer, entries: ZipEntry[]): Promise<Map<string,
 
 function unreadable(err: unknown): FileRefusal {
   const why = err instanceof ZipError ? ` (${err.message})` : '';
-  return new FileRefusal(422, 'workbook_unreadable', `file: the workbook could not be read${why}. Save it again as .xlsx and upload that file.`);
+  return new FileRefusal(400, 'workbook_unreadable', `file: the workbook could not be read${why}. Save it again as .xlsx and upload that file.`);
 }
 
 function tooBigUnpacked(limit: SheetLimit): FileRefusal {

@@ -1,6 +1,6 @@
 import { Membership } from '../../db/entities';
 import { createBenchRound, enrol } from '../../api/src/testing/bench-fixtures';
-import { createLab, createUser, mailTo } from '../../api/src/testing/test-app';
+import { createLab, createUser, mailTo, TEST_PASSWORD } from '../../api/src/testing/test-app';
 import { startE2E, type E2E } from './support/harness';
 
 jest.setTimeout(240_000);
@@ -8,7 +8,8 @@ jest.setTimeout(240_000);
 /**
  * A lab manager invites a person who already has an account in another lab; the person reads
  * the mail on their own Outbox page, accepts, and then chooses the lab they act for in the
- * header; the Lab bench follows the choice, which the session keeps.
+ * header; the Lab bench follows the choice, which the session keeps. A password change in one
+ * browser signs the other out.
  */
 describe('lab invitation accepted, then the lab chooser', () => {
   let e: E2E;
@@ -87,6 +88,21 @@ describe('lab invitation accepted, then the lab chooser', () => {
     await again.goto('/bench');
     await again.getByTestId('choose-lab').waitFor();
     await again.locator('mat-toolbar [data-testid=lab-chooser]').selectOption({ label: BIRCH });
+    await again.getByTestId('my-rounds').getByText('BIR-1').waitFor();
+
+    // A password change in this browser signs the other browser out
+    await again.getByTestId('user-name').click();
+    await again.getByTestId('page-heading').filter({ hasText: 'Change password' }).waitFor();
+    await again.getByLabel('Current password').fill('wrong password here');
+    await again.getByLabel('New password').fill('bert new password 2027');
+    await again.getByRole('button', { name: 'Change password' }).click();
+    await again.getByText('That is not your current password.').waitFor();
+    await again.getByLabel('Current password').fill(TEST_PASSWORD);
+    await again.getByRole('button', { name: 'Change password' }).click();
+    await again.getByTestId('password-changed').waitFor();
+    await bert.goto('/bench');
+    await bert.waitForURL((url) => url.pathname.startsWith('/sign-in'));
+    await again.goto('/bench');
     await again.getByTestId('my-rounds').getByText('BIR-1').waitFor();
     expect(e.consoleErrors.filter((m) => /Content Security Policy|NG0/.test(m))).toEqual([]);
   });

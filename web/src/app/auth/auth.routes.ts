@@ -18,6 +18,12 @@ export const AUTH_ROUTES: Routes = [
     loadComponent: () => import('./set-password').then((m) => m.SetPassword),
   },
   {
+    path: 'account/password',
+    title: 'Change password · Ringlet',
+    canActivate: [authGuard],
+    loadComponent: () => import('./change-password').then((m) => m.ChangePassword),
+  },
+  {
     path: 'lab-invitations',
     title: 'Lab invitations · Ringlet',
     canActivate: [authGuard],

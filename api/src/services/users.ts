@@ -151,6 +151,7 @@ export async function updateUser(ctx: AppContext, actor: SessionUser, id: string
     if (patch.isActive === false) {
       // sign the user out everywhere
       await em.query(`DELETE FROM session WHERE sess -> 'passport' ->> 'user' = $1`, [id]);
+      forgetSessionUser(id);
     }
     return getUserDto(em, id);
   });

@@ -6,7 +6,7 @@ import helmet from 'helmet';
 import { join } from 'node:path';
 import type { Pool } from 'pg';
 import type { DataSource } from 'typeorm';
-import { createPassport } from './auth/passport';
+import { actingLab, createPassport } from './auth/passport';
 import { API_REFERENCE_CSS, renderApiReference } from './http/api-reference';
 import { errorHandler, notFound } from './http/errors';
 import { buildOpenApi } from './http/openapi';
@@ -56,6 +56,9 @@ export const CONTENT_SECURITY_POLICY = {
   upgradeInsecureRequests: null,
 };
 
+/** Strict-Transport-Security on HTTPS answers (helmet's default value). */
+export const HSTS = 'max-age=31536000; includeSubDomains';
+
 /** Builds the Express app without listening (server.ts listens; tests use supertest). */
 export function createApp(deps: AppDeps): RingletApp {
   const log = deps.log ?? ((msg: string, err?: unknown) => console.error(`[ringlet] ${msg}`, err ?? ''));
@@ -64,7 +67,13 @@ export function createApp(deps: AppDeps): RingletApp {
   app.disable('x-powered-by');
   if (deps.config.trustProxy) app.set('trust proxy', 1);
 
-  app.use(helmet({ contentSecurityPolicy: { useDefaults: false, directives: CONTENT_SECURITY_POLICY } }));
+  // HSTS only on answers that went out over HTTPS (directly, or behind a trusted proxy that says
+  // so in X-Forwarded-Proto): over plain http the header is meaningless and would pin a dev host.
+  app.use(helmet({ contentSecurityPolicy: { useDefaults: false, directives: CONTENT_SECURITY_POLICY }, strictTransportSecurity: false }));
+  app.use((req, res, next) => {
+    if (req.secure) res.setHeader('Strict-Transport-Security', HSTS);
+    next();
+  });
   app.use(express.json({ limit: '1mb' }));
 
   // Sessions live in PostgreSQL so several server instances share them.
@@ -99,6 +108,7 @@ export function createApp(deps: AppDeps): RingletApp {
   const passport = createPassport(deps.ds);
   app.use(passport.initialize());
   app.use(passport.session());
+  app.use(actingLab);
 
   const csrf = csrfSync({ getTokenFromRequest: (req) => req.get('x-csrf-token') ?? undefined });
   const api = new ApiRouter({ isCsrfValid: (req) => csrf.isRequestValid(req) });

@@ -82,6 +82,35 @@ export const LabMemberInvite = z.object({
 export type LabMemberInvite = z.input<typeof LabMemberInvite>;
 export const LabMemberParams = z.object({ id: Id, membershipId: Id });
 
+/**
+ * A lab's invitation to an existing account: no membership until the person accepts.
+ * Staff accounts (admin, coordinator, assessor) cannot be invited by a lab.
+ */
+export const LabInvitation = z.object({
+  id: Id,
+  organisationId: Id,
+  organisationName: z.string(),
+  email: z.string(),
+  name: z.string(),
+  invitedByName: z.string().nullable(),
+  isManager: z.boolean(),
+  createdAt: Timestamp,
+  expiresAt: Timestamp,
+});
+export type LabInvitation = z.infer<typeof LabInvitation>;
+export const LabInvitationParams = z.object({ id: Id, invitationId: Id });
+
+/**
+ * What adding a colleague did: a new address gets an account and the membership at once (the
+ * person accepts by choosing a password); an existing account gets an invitation to accept.
+ */
+export const LabMemberInviteResult = z.object({
+  outcome: z.enum(['member-added', 'invitation-sent']),
+  membership: Membership.nullable(),
+  invitation: LabInvitation.nullable(),
+});
+export type LabMemberInviteResult = z.infer<typeof LabMemberInviteResult>;
+
 export const OutboxMessage = z.object({
   id: Id,
   to: z.array(z.string()),

@@ -23,8 +23,24 @@ export const Me = z.object({
   name: z.string(),
   roles: z.array(Role),
   memberships: z.array(MembershipSummary),
+  /**
+   * The lab this session acts for: the one chosen (PUT /auth/acting-lab), or the only lab of a
+   * user in one lab; null for a user in several labs who has not chosen yet (and for non-members).
+   */
+  actingLabId: Id.nullable().optional(),
 });
 export type Me = z.infer<typeof Me>;
+
+/** Choosing the lab a person in several labs acts for (kept in the session). */
+export const ActingLabRequest = z.object({ labId: Id });
+export type ActingLabRequest = z.infer<typeof ActingLabRequest>;
+
+/** Changing one's own password while signed in; ends every other session of the user. */
+export const ChangePasswordRequest = z.object({
+  currentPassword: z.string().min(1, { message: 'Enter your current password.' }).max(200),
+  password: NewPassword,
+});
+export type ChangePasswordRequest = z.infer<typeof ChangePasswordRequest>;
 
 export const SignInRequest = z.object({
   email: Email,

@@ -192,24 +192,28 @@ describe('the whole loop in a real browser', () => {
     await expect(lena.getByTestId('accepted').textContent()).resolves.toMatch(/participant code/);
     await lena.close();
 
-    // Ridge (a new lab): the link is read on the Outbox page and opened by someone without an account
+    // Ridge (a new lab): the admin reads the link on the Outbox page; it is opened by someone without an account
+    // (the demo Outbox shows each user their own mail; the admin sees every message)
     await mailTo(e.ds, 'contact@ridge.test');
-    await coordPage.goto('/outbox');
-    await coordPage.getByRole('option').filter({ hasText: 'contact@ridge.test' }).click();
-    const invitationHref = await coordPage.getByTestId('outbox-message').locator('a[href*="/invitations/"]').getAttribute('href');
+    const adminPage = await e.page();
+    await e.signIn(adminPage, 'ada@wl.test');
+    await adminPage.goto('/outbox');
+    await adminPage.getByRole('option').filter({ hasText: 'contact@ridge.test' }).click();
+    const invitationHref = await adminPage.getByTestId('outbox-message').locator('a[href*="/invitations/"]').getAttribute('href');
     const ridge = await e.page();
     await ridge.goto(invitationHref!);
     await ridge.getByTestId('accept').click();
     await ridge.getByTestId('accepted').waitFor();
     await mailTo(e.ds, 'contact@ridge.test', 2);
-    await coordPage.getByRole('button', { name: 'Refresh' }).click();
-    await coordPage.getByRole('option').filter({ hasText: 'contact@ridge.test' }).filter({ hasText: 'Your Ringlet account' }).click();
-    const passwordHref = await coordPage.getByTestId('outbox-message').locator('a[href*="/set-password/"]').getAttribute('href');
+    await adminPage.getByRole('button', { name: 'Refresh' }).click();
+    await adminPage.getByRole('option').filter({ hasText: 'contact@ridge.test' }).filter({ hasText: 'Your Ringlet account' }).click();
+    const passwordHref = await adminPage.getByTestId('outbox-message').locator('a[href*="/set-password/"]').getAttribute('href');
     await ridge.goto(passwordHref!);
     await ridge.getByLabel('New password').fill('ridge lab password 2027');
     await ridge.getByLabel('Confirm password').fill('ridge lab password 2027');
     await ridge.getByRole('button', { name: 'Save password' }).click();
     await ridge.getByTestId('password-set').waitFor();
+    await adminPage.close();
     await ridge.close();
 
     // the eleven API labs accept with the token from their mail

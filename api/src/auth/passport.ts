@@ -7,6 +7,10 @@ import type { DataSource } from 'typeorm';
 import type { User } from '../../../db/entities';
 import { verifyPassword } from '../services/passwords';
 import { loadSessionUser } from '../services/users';
+import { actingFor } from './session-user';
+import { SESSION_USER_TTL_MS, sessionUsers } from './session-cache';
+
+export { forgetSessionUser, forgetSessionUsers, SESSION_USER_TTL_MS } from './session-cache';
 
 /**
  * One passport instance per app (not the global singleton, so several apps can live in one
@@ -38,17 +42,17 @@ export function createPassport(ds: DataSource): Authenticator {
   return p;
 }
 
-/**
- * The signed-in user is read on every request; reads within a second reuse it. Any
- * state-changing request on this instance forgets them all (ApiRouter calls forgetSessionUsers),
- * so a change of roles or memberships shows at once here and within a second on other instances.
- * Signing a user out everywhere deletes their sessions, which no cache outlives.
- */
-export const SESSION_USER_TTL_MS = 1000;
-const sessionUsers = new Map<string, { user: Express.User; until: number }>();
+declare module 'express-session' {
+  interface SessionData {
+    /** The lab a person in several labs chose to act for. */
+    actingLabId?: string;
+  }
+}
 
-export function forgetSessionUsers(): void {
-  sessionUsers.clear();
+/** After passport.session(): the request's user acts for the lab chosen in the session. */
+export function actingLab(req: Request, _res: Response, next: () => void): void {
+  if (req.user) req.user = actingFor(req.user, req.session.actingLabId);
+  next();
 }
 
 /** Runs the local strategy on the (already validated) body: the matching user, or null. */

@@ -7,6 +7,11 @@ export interface SessionUser {
   name: string;
   roles: Role[];
   memberships: MembershipSummary[];
+  /**
+   * The lab this request acts for: the lab chosen in the session (PUT /auth/acting-lab), else the
+   * only lab of a user in one lab; null for a user in several labs who has not chosen.
+   */
+  actingLabId: string | null;
 }
 
 declare global {
@@ -18,12 +23,22 @@ declare global {
 }
 
 export function toMe(u: SessionUser): Me {
-  return { id: u.id, email: u.email, name: u.name, roles: u.roles, memberships: u.memberships };
+  return { id: u.id, email: u.email, name: u.name, roles: u.roles, memberships: u.memberships, actingLabId: u.actingLabId };
 }
 
-/** Lab ids the user belongs to. */
+/**
+ * Lab ids the request acts for: the chosen (or only) lab; all of the user's labs only when a
+ * person in several labs has not chosen yet.
+ */
 export function labIds(u: SessionUser): string[] {
+  if (u.actingLabId) return [u.actingLabId];
   return u.memberships.map((m) => m.organisationId);
+}
+
+/** The same user acting for `labId` when it is one of their labs (a copy: cached users are shared). */
+export function actingFor(u: SessionUser, labId: string | undefined): SessionUser {
+  if (!labId || labId === u.actingLabId || !u.memberships.some((m) => m.organisationId === labId)) return u;
+  return { ...u, actingLabId: labId };
 }
 
 export function managesLab(u: SessionUser, organisationId: string): boolean {

@@ -91,7 +91,7 @@ describe('admin: users, labs, memberships', () => {
     expect((await mailTo(t.ds, 'intern@a.test'))[0]!.subject).toBe('Your Ringlet account');
     await boss.agent.get(`/api/v1/labs/${labB}/members`).expect(404);
     await boss.agent.post(`/api/v1/labs/${labB}/members`).set('x-csrf-token', boss.csrf).send({ email: 'spy@b.test', name: 'Spy' }).expect(404);
-    await boss.agent.delete(`/api/v1/labs/${labA}/members/${added.body.id}`).set('x-csrf-token', boss.csrf).expect(204);
+    await boss.agent.delete(`/api/v1/labs/${labA}/members/${added.body.membership.id}`).set('x-csrf-token', boss.csrf).expect(204);
     const analyst = await signedIn(t, 'analyst@a.test');
     await analyst.agent.get(`/api/v1/labs/${labA}/members`).expect(404);
   });

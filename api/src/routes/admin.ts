@@ -1,6 +1,10 @@
 import * as z from 'zod';
+import { Me } from '../../../shared/contracts/auth';
 import {
+  LabInvitation,
+  LabInvitationParams,
   LabMemberInvite,
+  LabMemberInviteResult,
   LabMemberParams,
   Membership,
   MembershipCreate,
@@ -13,7 +17,7 @@ import {
   UserUpdate,
 } from '../../../shared/contracts/admin';
 import { IdParams } from '../../../shared/contracts/common';
-import { managesLab } from '../auth/session-user';
+import { actingFor, managesLab, toMe } from '../auth/session-user';
 import { notFound } from '../http/errors';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../services/context';
@@ -87,7 +91,11 @@ export function adminRoutes(api: ApiRouter, ctx: AppContext): void {
   });
   api.add({
     method: 'post', path: '/labs/{id}/members', tag: 'labs', summary: 'Invite a colleague into my lab (lab managers)',
-    access: labAccess, params: IdParams, body: LabMemberInvite, status: 201, response: Membership,
+    description:
+      'A new address gets an account, the membership and a first-password link (outcome member-added). An existing account gets an invitation ' +
+      'it accepts or declines, and no membership until it accepts (outcome invitation-sent). A PT provider staff account (admin, coordinator, ' +
+      'assessor) answers 422 staff_account; a member already, 409.',
+    access: labAccess, params: IdParams, body: LabMemberInvite, status: 201, response: LabMemberInviteResult,
     handler: ({ params, body, user }) => {
       assertManager(user, params.id);
       return users.inviteLabMember(ctx, user, params.id, body);
@@ -100,5 +108,45 @@ export function adminRoutes(api: ApiRouter, ctx: AppContext): void {
       assertManager(user, params.id);
       return users.deleteMembership(ctx, user, params.membershipId, params.id);
     },
+  });
+  api.add({
+    method: 'get', path: '/labs/{id}/invitations', tag: 'labs', summary: 'Open invitations of my lab (lab managers)',
+    access: labAccess, params: IdParams, response: z.array(LabInvitation),
+    handler: ({ params, user }) => {
+      assertManager(user, params.id);
+      return users.listLabInvitations(ctx.ds.manager, params.id);
+    },
+  });
+  api.add({
+    method: 'delete', path: '/labs/{id}/invitations/{invitationId}', tag: 'labs', summary: 'Withdraw an open invitation of my lab (lab managers)',
+    access: labAccess, params: LabInvitationParams, status: 204,
+    handler: ({ params, user }) => {
+      assertManager(user, params.id);
+      return users.withdrawLabInvitation(ctx, user, params.id, params.invitationId);
+    },
+  });
+
+  // The invited person answers. Any signed-in account may hold invitations (it has no lab yet).
+  api.add({
+    method: 'get', path: '/my/lab-invitations', tag: 'labs', summary: 'Labs that invited me, open invitations only',
+    access: 'signed-in', response: z.array(LabInvitation),
+    handler: ({ user }) => users.listMyInvitations(ctx.ds.manager, user.id),
+  });
+  api.add({
+    method: 'post', path: '/my/lab-invitations/{id}/accept', tag: 'labs', summary: 'Accept a lab\u2019s invitation: I become a member',
+    description: 'Answers my updated account. The lab I acted for stays chosen; a person in several labs can switch with PUT /auth/acting-lab.',
+    access: 'signed-in', params: IdParams, response: Me,
+    handler: async ({ req, params, user }) => {
+      await users.answerInvitation(ctx, user, params.id, true);
+      if (!req.session.actingLabId && user.actingLabId) req.session.actingLabId = user.actingLabId;
+      const fresh = await users.loadSessionUser(ctx.ds.manager, user.id);
+      if (!fresh) throw notFound('The user');
+      return toMe(actingFor(fresh, req.session.actingLabId));
+    },
+  });
+  api.add({
+    method: 'post', path: '/my/lab-invitations/{id}/decline', tag: 'labs', summary: 'Decline a lab\u2019s invitation',
+    access: 'signed-in', params: IdParams, status: 204,
+    handler: ({ params, user }) => users.answerInvitation(ctx, user, params.id, false),
   });
 }

@@ -1,6 +1,8 @@
 import type { Request } from 'express';
 import * as z from 'zod';
 import {
+  ActingLabRequest,
+  ChangePasswordRequest,
   CsrfTokenResponse,
   Me,
   PasswordResetRequest,
@@ -13,12 +15,12 @@ import {
 import { User } from '../../../db/entities';
 import type { Authenticator } from '../auth/passport';
 import { authenticateLocal } from '../auth/passport';
-import { toMe } from '../auth/session-user';
-import { HttpError } from '../http/errors';
+import { actingFor, toMe } from '../auth/session-user';
+import { HttpError, notFound } from '../http/errors';
 import type { ApiRouter } from '../http/route';
 import { audit } from '../services/audit';
 import type { AppContext } from '../services/context';
-import { passwordTokenInfo, requestPasswordReset, setPasswordWithToken } from '../services/passwords';
+import { changePassword, passwordTokenInfo, requestPasswordReset, setPasswordWithToken } from '../services/passwords';
 import type { RateLimiter } from '../services/rate-limit';
 import { loadSessionUser } from '../services/users';
 
@@ -42,6 +44,19 @@ export function authRoutes(
   csrfToken: (req: Request) => string,
   passport: Authenticator,
 ): void {
+  /**
+   * A refused sign-in in the audit trail: the account's id when the address has one (the typed
+   * address either way, so attempts on unknown addresses show too) and the client address.
+   */
+  const auditFailure = async (action: string, email: string, ip: string | undefined, details: Record<string, unknown>) => {
+    try {
+      const known = await ctx.ds.getRepository(User).findOne({ where: { email }, select: { id: true } });
+      await audit(ctx.ds.manager, null, action, 'user', known?.id ?? null, { email, ip, ...details });
+    } catch (err) {
+      ctx.log('audit of a refused sign-in failed', err);
+    }
+  };
+
   api.add({
     method: 'get',
     path: '/auth/csrf-token',
@@ -66,21 +81,28 @@ export function authRoutes(
     handler: async ({ req, res, body }) => {
       const ipKey = `sign-in:ip:${req.ip}`;
       const emailKey = `sign-in:email:${body.email}`;
-      if ((await limiter.hit(ipKey, SIGN_IN_LIMITS.windowSeconds)) > SIGN_IN_LIMITS.perIp) {
+      const ipHits = await limiter.hit(ipKey, SIGN_IN_LIMITS.windowSeconds);
+      if (ipHits > SIGN_IN_LIMITS.perIp) {
+        // audited once, when the address first goes over the limit
+        if (ipHits === SIGN_IN_LIMITS.perIp + 1) await auditFailure('auth.rate-limited', body.email, req.ip, { reason: 'address' });
         throw new HttpError(429, 'rate_limited', 'Too many sign-in attempts from this address. Wait 15 minutes and try again.');
       }
       if ((await limiter.count(emailKey, SIGN_IN_LIMITS.windowSeconds)) >= SIGN_IN_LIMITS.perEmail) {
+        await auditFailure('auth.sign-in-refused', body.email, req.ip, { reason: 'locked' });
         throw new HttpError(429, 'locked', 'Too many failed attempts for this account. Wait 15 minutes or reset your password.');
       }
       req.body = body; // the normalised e-mail goes to the strategy
       const user = await authenticateLocal(passport, req, res);
-      if (!user) {
-        await limiter.hit(emailKey, SIGN_IN_LIMITS.windowSeconds);
-        throw new HttpError(401, 'invalid_credentials', INVALID);
-      }
-      if (ctx.config.mode === 'production' && user.isDemo) {
-        throw new HttpError(401, 'invalid_credentials', INVALID);
-      }
+      const refuse = async (reason: string) => {
+        const failures = await limiter.hit(emailKey, SIGN_IN_LIMITS.windowSeconds);
+        await auditFailure('auth.sign-in-failed', body.email, req.ip, { reason, failures });
+        if (failures === SIGN_IN_LIMITS.perEmail) {
+          await auditFailure('auth.locked-out', body.email, req.ip, { failures, minutes: SIGN_IN_LIMITS.windowSeconds / 60 });
+        }
+        return new HttpError(401, 'invalid_credentials', INVALID);
+      };
+      if (!user) throw await refuse('invalid_credentials');
+      if (ctx.config.mode === 'production' && user.isDemo) throw await refuse('demo_account');
       await limiter.clear(emailKey);
       const sessionUser = await loadSessionUser(ctx.ds.manager, user.id);
       if (!sessionUser) throw new HttpError(401, 'invalid_credentials', INVALID);
@@ -154,8 +176,44 @@ export function authRoutes(
     access: 'public',
     body: SetPasswordRequest,
     status: 204,
-    handler: async ({ body }) => {
-      await setPasswordWithToken(ctx, body.token, body.password);
+    description: 'Every session of the account ends, except the one this request comes from.',
+    handler: async ({ req, body }) => {
+      await setPasswordWithToken(ctx, body.token, body.password, req.sessionID);
+    },
+  });
+
+  api.add({
+    method: 'post',
+    path: '/auth/password/change',
+    tag: 'auth',
+    summary: 'Change my password (the current one must match)',
+    description: 'Every other session of the account ends (other browsers are signed out); this one stays. A wrong current password answers 422.',
+    access: 'signed-in',
+    body: ChangePasswordRequest,
+    status: 204,
+    handler: async ({ req, body, user }) => {
+      if ((await limiter.hit(`password-change:${user.id}`, SIGN_IN_LIMITS.windowSeconds)) > SIGN_IN_LIMITS.perEmail * 2) {
+        throw new HttpError(429, 'rate_limited', 'Too many attempts. Wait 15 minutes and try again.');
+      }
+      await changePassword(ctx, user.id, body.currentPassword, body.password, req.sessionID);
+    },
+  });
+
+  api.add({
+    method: 'put',
+    path: '/auth/acting-lab',
+    tag: 'auth',
+    summary: 'Choose the lab I act for (people in several labs)',
+    description:
+      'Kept in the session: Lab bench, Track record, Consensus board, investigations and reports then act for this lab. A lab that is not one of mine answers 404.',
+    access: ['lab'],
+    body: ActingLabRequest,
+    response: Me,
+    handler: async ({ req, body, user }) => {
+      if (!user.memberships.some((m) => m.organisationId === body.labId)) throw notFound('The lab');
+      req.session.actingLabId = body.labId;
+      await new Promise<void>((resolve, reject) => req.session.save((err) => (err ? reject(err) : resolve())));
+      return toMe(actingFor(user, body.labId));
     },
   });
 }

@@ -56,13 +56,19 @@ export function systemRoutes(api: ApiRouter, ctx: AppContext): void {
     method: 'get',
     path: '/dev/outbox',
     tag: 'system',
-    summary: 'Mail captured by the local mail fake, newest first',
+    summary: 'Mail captured by the local mail fake, newest first: mail addressed to me (an admin sees all)',
+    description:
+      'Each user sees only the messages with their own address among the recipients, so nobody reads another person\u2019s password link or lab mail. An admin sees every message.',
     availability: 'Development, demo and test modes only; 404 in production.',
     access: 'signed-in',
     response: z.array(OutboxMessage),
-    handler: async () => {
+    handler: async ({ user }) => {
       if (!hasOutbox(ctx.config.mode)) throw notFound('The outbox');
-      const rows = await ctx.ds.getRepository(MailMessage).find({ order: { receivedAt: 'DESC' }, take: 200 });
+      const q = ctx.ds.getRepository(MailMessage).createQueryBuilder('m').orderBy('m.received_at', 'DESC').take(200);
+      if (!user.roles.includes('admin')) {
+        q.where('EXISTS (SELECT 1 FROM unnest(m.mail_to) AS t(address) WHERE lower(t.address) = lower(:email))', { email: user.email });
+      }
+      const rows = await q.getMany();
       return rows.map((m) => ({ ...m, receivedAt: m.receivedAt.toISOString() }));
     },
   });

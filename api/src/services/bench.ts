@@ -14,9 +14,11 @@ export const DUE_SOON_DAYS = 7;
 
 /**
  * The lab a request acts for: the one given (query `labId` or header `x-lab-id`), which must be
- * one of the user's labs (else 404, as for any other lab's object), or the user's only lab.
+ * one of the user's labs (else 404, as for any other lab's object), else the lab chosen in the
+ * session (PUT /auth/acting-lab), else the user's only lab.
  */
 export function resolveLab(user: SessionUser, requested: string | undefined): string {
+  requested ??= user.actingLabId ?? undefined; // the lab chosen in the session
   const mine = user.memberships.map((m) => m.organisationId);
   if (requested) {
     if (!mine.includes(requested)) throw notFound('The lab');

@@ -12,6 +12,7 @@ import { hasAnyRole } from '../http/route';
 import { labIds, type SessionUser } from '../auth/session-user';
 import { notFound } from '../http/errors';
 import type { AppContext } from './context';
+import { audit } from './audit';
 import { grantedLabIds } from './grants';
 
 const CACHE_LIMIT = 32;
@@ -93,6 +94,7 @@ export async function boardJson(ctx: AppContext, user: SessionUser, roundId: str
     );
     labNames = {};
     for (const r of rows) labNames[r.participant_code] = r.name;
+    await audit(em, user.id, 'board.names-revealed', 'round', roundId, { evaluationId: head.id, version: head.version, labs: rows.length });
   }
   const body = await bodyBytes(em, head);
   const prefix = (

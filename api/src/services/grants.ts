@@ -53,23 +53,26 @@ export async function listGrants(ctx: AppContext, user: SessionUser, labId: stri
 }
 
 /**
- * Grants an assessor access (lab managers). A new e-mail gets an assessor account and a
- * first-password link; an existing account must hold the assessor role.
+ * Grants an assessor access (lab managers). The answer is the same whether or not the e-mail has
+ * an account, and whatever that account's roles (it is built from what the manager typed), so
+ * the form cannot be used to find out who has an account:
+ * - a new e-mail gets an assessor account and a first-password link;
+ * - an assessor's account gets the grant;
+ * - another account gets the grant too, which counts only once that person holds the assessor
+ *   role (every assessor read checks the role); the mail tells them to ask the provider for it.
  */
 export async function createGrant(ctx: AppContext, actor: SessionUser, labId: string, input: AssessorGrantCreate): Promise<AssessorGrantDto> {
   assertMember(actor, labId, true);
   const startsOn = input.startsOn ?? today();
   if (input.endsOn && input.endsOn < startsOn) throw ruleBroken('ends_before_start', 'endsOn: the grant cannot end before it starts.');
+  const typedName = input.name ?? input.email.split('@')[0]!;
   const out = await ctx.ds.transaction(async (em) => {
     const lab = await em.findOne(Organisation, { where: { id: labId } });
     if (!lab) throw notFound('The lab');
     let user = await em.findOne(User, { where: { email: input.email } });
     let token: string | null = null;
-    if (user && !user.roles.includes('assessor')) {
-      throw ruleBroken('not_an_assessor', `email: ${input.email} belongs to an account that is not an assessor's.`);
-    }
     if (!user) {
-      user = await em.save(User, em.create(User, { email: input.email, name: input.name ?? input.email.split('@')[0]!, roles: ['assessor'], passwordHash: null }));
+      user = await em.save(User, em.create(User, { email: input.email, name: typedName, roles: ['assessor'], passwordHash: null }));
       token = await issuePasswordToken(em, user.id, 'first-password');
       await audit(em, actor.id, 'user.invited', 'user', user.id, { email: input.email, roles: ['assessor'], by: 'lab-manager' });
     }
@@ -81,18 +84,24 @@ export async function createGrant(ctx: AppContext, actor: SessionUser, labId: st
     return { g: await em.findOneOrFail(AssessorGrant, { where: { id: g.id } }), user, token, lab };
   });
   if (out.token) await sendLinkMail(ctx, out.user.email, out.user.name, out.token, 'first-password');
+  const isAssessor = out.user.roles.includes('assessor');
   try {
     await ctx.mailer.send({
       to: out.user.email,
       subject: `${out.lab.name} gave you access on Ringlet`,
       text: `Hello ${out.user.name},\n\n${out.lab.name} lets you read its proficiency-testing results and investigations on Ringlet from ${out.g.startsOn}${
         out.g.endsOn ? ` to ${out.g.endsOn}` : ''
-      }.\n\n${ctx.config.publicUrl}/assessor\n\nRinglet`,
+      }.\n\n${
+        isAssessor
+          ? `${ctx.config.publicUrl}/assessor`
+          : 'Your account is not an assessor\u2019s account, so this access counts only once the PT provider gives your account the assessor role. If you did not expect this, ignore this e-mail.'
+      }\n\nRinglet`,
     });
   } catch (err) {
     ctx.log('grant mail failed', err);
   }
-  return dto(out.g, out.user);
+  // Built from the input, not from the account, so a known and an unknown address answer alike.
+  return dto(out.g, { email: input.email, name: typedName } as User);
 }
 
 export async function revokeGrant(ctx: AppContext, actor: SessionUser, labId: string, grantId: string): Promise<void> {

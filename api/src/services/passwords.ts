@@ -6,6 +6,7 @@ import { PasswordToken, User } from '../../../db/entities';
 import type { AppContext } from './context';
 import { audit } from './audit';
 import { HttpError } from '../http/errors';
+import { forgetSessionUser } from '../auth/session-cache';
 
 /** bcrypt work factor: 2^12 rounds (docs/QUALITY.md asks for ≥ 12). */
 export const BCRYPT_COST = 12;
@@ -65,9 +66,55 @@ export async function passwordTokenInfo(ctx: AppContext, token: string): Promise
   return { email: user.email, purpose: row.purpose, expiresAt: row.expiresAt.toISOString() };
 }
 
-/** Sets the password with a link token: atomically marks the token used, so it works once. */
-export async function setPasswordWithToken(ctx: AppContext, token: string, password: string): Promise<void> {
+/**
+ * Ends every session of the user except `keepSid` (the request's own, when there is one) and
+ * forgets the cached user. Other instances need no message: a request whose session row is gone
+ * is signed out before any cached user is read.
+ */
+export async function endOtherSessions(em: EntityManager, userId: string, keepSid: string | undefined): Promise<number> {
+  const res: unknown = await em.query(
+    `DELETE FROM session WHERE sess -> 'passport' ->> 'user' = $1 AND sid <> $2`,
+    [userId, keepSid ?? ''],
+  );
+  forgetSessionUser(userId);
+  // TypeORM answers [rows, count] for a DELETE on postgres
+  return Array.isArray(res) && typeof res[1] === 'number' ? res[1] : 0;
+}
+
+/**
+ * A signed-in user changes their own password (the current one must match). Every other session
+ * of the user ends; this one stays.
+ */
+export async function changePassword(
+  ctx: AppContext,
+  userId: string,
+  currentPassword: string,
+  password: string,
+  keepSid: string,
+): Promise<void> {
+  const user = await ctx.ds.getRepository(User).findOneOrFail({ where: { id: userId } });
+  const ok = await bcrypt.compare(currentPassword, user.passwordHash ?? DUMMY_HASH);
+  if (!ok || !user.passwordHash) {
+    throw new HttpError(422, 'wrong_password', 'currentPassword: that is not your current password.', [
+      { path: 'currentPassword', message: 'That is not your current password.' },
+    ]);
+  }
   const hash = await hashPassword(password);
+  await ctx.ds.transaction(async (em) => {
+    await em.update(User, { id: userId }, { passwordHash: hash });
+    const ended = await endOtherSessions(em, userId, keepSid);
+    await audit(em, userId, 'password.changed', 'user', userId, { otherSessionsEnded: ended });
+  });
+  forgetSessionUser(userId);
+}
+
+/**
+ * Sets the password with a link token: atomically marks the token used, so it works once. Every
+ * session of the user ends, except the request's own (`keepSid`).
+ */
+export async function setPasswordWithToken(ctx: AppContext, token: string, password: string, keepSid?: string): Promise<void> {
+  const hash = await hashPassword(password);
+  let userId: string | null = null;
   await ctx.ds.transaction(async (em) => {
     const rows: { user_id: string; purpose: string }[] = await em.query(
       `UPDATE password_token SET used_at = now()
@@ -80,8 +127,11 @@ export async function setPasswordWithToken(ctx: AppContext, token: string, passw
     const hit = list[0];
     if (!hit) throw invalidLink();
     await em.update(User, { id: hit.user_id }, { passwordHash: hash });
-    await audit(em, hit.user_id, 'password.set', 'user', hit.user_id, { purpose: hit.purpose });
+    const ended = await endOtherSessions(em, hit.user_id, keepSid);
+    await audit(em, hit.user_id, 'password.set', 'user', hit.user_id, { purpose: hit.purpose, otherSessionsEnded: ended });
+    userId = hit.user_id;
   });
+  if (userId) forgetSessionUser(userId);
 }
 
 /** Sends a reset link when the address belongs to an active account; says nothing either way. */

@@ -1,6 +1,8 @@
 import type { EntityManager } from 'typeorm';
 import type { GlobalRole, Role } from '../../../shared/contracts/auth';
 import type {
+  LabInvitation as LabInvitationDto,
+  LabMemberInviteResult,
   Membership as MembershipDto,
   MembershipCreate,
   Organisation as OrganisationDto,
@@ -10,6 +12,7 @@ import type {
   UserUpdate,
 } from '../../../shared/contracts/admin';
 import { Membership, Organisation, User } from '../../../db/entities';
+import { forgetSessionUser } from '../auth/session-cache';
 import type { SessionUser } from '../auth/session-user';
 import { conflict, notFound, ruleBroken } from '../http/errors';
 import { audit } from './audit';
@@ -45,7 +48,8 @@ export async function loadSessionUser(em: EntityManager, id: string): Promise<Se
   if (user.memberships.length > 0) roles.push('lab');
   const order: Role[] = ['admin', 'coordinator', 'lab', 'assessor'];
   roles.sort((a, b) => order.indexOf(a) - order.indexOf(b));
-  return { id: user.id, email: user.email, name: user.name, roles, memberships: user.memberships };
+  const actingLabId = user.memberships.length === 1 ? user.memberships[0]!.organisationId : null;
+  return { id: user.id, email: user.email, name: user.name, roles, memberships: user.memberships, actingLabId };
 }
 
 function membershipDto(m: Membership): MembershipDto {
@@ -147,6 +151,7 @@ export async function updateUser(ctx: AppContext, actor: SessionUser, id: string
     if (patch.isActive === false) {
       // sign the user out everywhere
       await em.query(`DELETE FROM session WHERE sess -> 'passport' ->> 'user' = $1`, [id]);
+      forgetSessionUser(id);
     }
     return getUserDto(em, id);
   });
@@ -238,31 +243,177 @@ export async function deleteMembership(ctx: AppContext, actor: SessionUser, id: 
   });
 }
 
+/** Staff roles: a lab cannot make these accounts lab members (the provider's people stay neutral). */
+export const STAFF_ROLES: readonly GlobalRole[] = ['admin', 'coordinator', 'assessor'];
+
+/** How long a lab's invitation to an existing account stays open. */
+export const LAB_INVITATION_DAYS = 14;
+
+interface InvitationRow {
+  id: string;
+  organisation_id: string;
+  organisation_name: string;
+  user_id: string;
+  email: string;
+  name: string;
+  invited_by_name: string | null;
+  is_manager: boolean;
+  created_at: Date;
+  expires_at: Date;
+}
+
+const INVITATION_SELECT = `
+  SELECT i.id, i.organisation_id, o.name AS organisation_name, i.user_id, u.email, u.name,
+         b.name AS invited_by_name, i.is_manager, i.created_at, i.expires_at
+    FROM lab_invitation i
+    JOIN organisation o ON o.id = i.organisation_id
+    JOIN app_user u ON u.id = i.user_id
+    LEFT JOIN app_user b ON b.id = i.invited_by`;
+
+function invitationDto(r: InvitationRow): LabInvitationDto {
+  return {
+    id: r.id,
+    organisationId: r.organisation_id,
+    organisationName: r.organisation_name,
+    email: r.email,
+    name: r.name,
+    invitedByName: r.invited_by_name,
+    isManager: r.is_manager,
+    createdAt: r.created_at.toISOString(),
+    expiresAt: r.expires_at.toISOString(),
+  };
+}
+
+async function getInvitation(em: EntityManager, id: string): Promise<InvitationRow | null> {
+  const rows: InvitationRow[] = await em.query(`${INVITATION_SELECT} WHERE i.id = $1`, [id]);
+  return rows[0] ?? null;
+}
+
 /**
- * A lab manager adds a colleague: an existing account gets the membership, a new address gets an
- * account and a first-password link.
+ * A lab manager adds a colleague. A new address gets an account, the membership and a
+ * first-password link (choosing the password is the consent). An existing account gets an
+ * invitation it accepts or declines: no membership until then. Staff accounts cannot be added.
  */
 export async function inviteLabMember(
   ctx: AppContext,
   actor: SessionUser,
   organisationId: string,
   input: { email: string; name: string; isManager: boolean },
-): Promise<MembershipDto> {
-  const { membership, mail } = await ctx.ds.transaction(async (em) => {
-    if (!(await em.findOne(Organisation, { where: { id: organisationId } }))) throw notFound('The lab');
-    let user = await em.findOne(User, { where: { email: input.email } });
-    let token: string | null = null;
+): Promise<LabMemberInviteResult> {
+  const { result, mail } = await ctx.ds.transaction(async (em) => {
+    const lab = await em.findOne(Organisation, { where: { id: organisationId } });
+    if (!lab) throw notFound('The lab');
+    const user = await em.findOne(User, { where: { email: input.email } });
     if (!user) {
-      user = await em.save(User, em.create(User, { email: input.email, name: input.name, roles: [], passwordHash: null }));
-      token = await issuePasswordToken(em, user.id, 'first-password');
-      await audit(em, actor.id, 'user.invited', 'user', user.id, { email: input.email, organisationId });
-    } else if (await em.findOne(Membership, { where: { userId: user.id, organisationId } })) {
+      const created = await em.save(User, em.create(User, { email: input.email, name: input.name, roles: [], passwordHash: null }));
+      const token = await issuePasswordToken(em, created.id, 'first-password');
+      await audit(em, actor.id, 'user.invited', 'user', created.id, { email: input.email, organisationId });
+      const m = await em.save(Membership, em.create(Membership, { userId: created.id, organisationId, isManager: input.isManager }));
+      await audit(em, actor.id, 'membership.created', 'membership', m.id, { userId: created.id, organisationId });
+      return {
+        result: { outcome: 'member-added' as const, membership: await getMembershipDto(em, m.id), invitation: null },
+        mail: { kind: 'account' as const, user: created, token },
+      };
+    }
+    if (user.roles.some((r) => STAFF_ROLES.includes(r))) {
+      throw ruleBroken('staff_account', 'email: this address belongs to a PT provider staff account (admin, coordinator or assessor), which cannot be a lab member.', [
+        { path: 'email', message: 'A PT provider staff account cannot be a lab member.' },
+      ]);
+    }
+    if (await em.findOne(Membership, { where: { userId: user.id, organisationId } })) {
       throw conflict('already_member', `${input.email} is already a member of this lab.`);
     }
-    const m = await em.save(Membership, em.create(Membership, { userId: user.id, organisationId, isManager: input.isManager }));
-    await audit(em, actor.id, 'membership.created', 'membership', m.id, { userId: user.id, organisationId });
-    return { membership: await getMembershipDto(em, m.id), mail: token ? { user, token } : null };
+    // One open invitation per lab and person: inviting again renews it.
+    await em.query(
+      `UPDATE lab_invitation SET answered_at = now(), answer = 'withdrawn' WHERE organisation_id = $1 AND user_id = $2 AND answered_at IS NULL`,
+      [organisationId, user.id],
+    );
+    const inserted: { id: string }[] = await em.query(
+      `INSERT INTO lab_invitation (organisation_id, user_id, is_manager, invited_by, expires_at)
+       VALUES ($1, $2, $3, $4, now() + make_interval(days => $5)) RETURNING id`,
+      [organisationId, user.id, input.isManager, actor.id, LAB_INVITATION_DAYS],
+    );
+    const invitationId = inserted[0]!.id;
+    await audit(em, actor.id, 'lab-invitation.created', 'organisation', organisationId, { invitationId, userId: user.id, isManager: input.isManager });
+    return {
+      result: { outcome: 'invitation-sent' as const, membership: null, invitation: invitationDto((await getInvitation(em, invitationId))!) },
+      mail: { kind: 'invitation' as const, user, lab, inviter: actor.name },
+    };
   });
-  if (mail) await sendLinkMail(ctx, mail.user.email, mail.user.name, mail.token, 'first-password');
-  return membership;
+  if (mail.kind === 'account') {
+    await sendLinkMail(ctx, mail.user.email, mail.user.name, mail.token, 'first-password');
+  } else {
+    try {
+      await ctx.mailer.send({
+        to: mail.user.email,
+        subject: `${mail.lab.name} invites you to join the lab on Ringlet`,
+        text:
+          `Hello ${mail.user.name},\n\n${mail.inviter} invites you to join ${mail.lab.name} on Ringlet, the proficiency-testing service.\n` +
+          `You become a member only if you accept. Sign in and answer here (the invitation is open for ${LAB_INVITATION_DAYS} days):\n\n` +
+          `${ctx.config.publicUrl}/lab-invitations\n\nIf you did not expect this e-mail, decline the invitation or ignore it.\n\nRinglet`,
+      });
+    } catch (err) {
+      ctx.log(`mail to ${mail.user.email} failed; invite again to resend`, err);
+    }
+  }
+  return result;
+}
+
+/** The open invitations of one lab (lab managers see whom they invited). */
+export async function listLabInvitations(em: EntityManager, organisationId: string): Promise<LabInvitationDto[]> {
+  const rows: InvitationRow[] = await em.query(
+    `${INVITATION_SELECT} WHERE i.organisation_id = $1 AND i.answered_at IS NULL AND i.expires_at > now() ORDER BY i.created_at DESC`,
+    [organisationId],
+  );
+  return rows.map(invitationDto);
+}
+
+/** A lab manager withdraws an open invitation of their lab. */
+export async function withdrawLabInvitation(ctx: AppContext, actor: SessionUser, organisationId: string, id: string): Promise<void> {
+  await ctx.ds.transaction(async (em) => {
+    const rows: unknown = await em.query(
+      `UPDATE lab_invitation SET answered_at = now(), answer = 'withdrawn' WHERE id = $1 AND organisation_id = $2 AND answered_at IS NULL RETURNING id`,
+      [id, organisationId],
+    );
+    const list = Array.isArray(rows) && Array.isArray(rows[0]) ? rows[0] : rows;
+    if (!Array.isArray(list) || list.length === 0) throw notFound('The invitation');
+    await audit(em, actor.id, 'lab-invitation.withdrawn', 'organisation', organisationId, { invitationId: id });
+  });
+}
+
+/** My open lab invitations. */
+export async function listMyInvitations(em: EntityManager, userId: string): Promise<LabInvitationDto[]> {
+  const rows: InvitationRow[] = await em.query(
+    `${INVITATION_SELECT} WHERE i.user_id = $1 AND i.answered_at IS NULL AND i.expires_at > now() ORDER BY i.created_at DESC`,
+    [userId],
+  );
+  return rows.map(invitationDto);
+}
+
+/**
+ * Accepts or declines one of my open invitations (another person's, an answered or an expired
+ * one answers 404). Accepting creates the membership.
+ */
+export async function answerInvitation(ctx: AppContext, user: SessionUser, id: string, accept: boolean): Promise<void> {
+  await ctx.ds.transaction(async (em) => {
+    const rows: (InvitationRow & { answered_at: Date | null })[] = await em.query(
+      `SELECT i.*, NULL AS organisation_name FROM lab_invitation i WHERE i.id = $1 AND i.user_id = $2 FOR UPDATE`,
+      [id, user.id],
+    );
+    const inv = rows[0];
+    if (!inv || inv.answered_at || inv.expires_at.getTime() <= Date.now()) throw notFound('The invitation');
+    if (accept) {
+      const account = await em.findOneOrFail(User, { where: { id: user.id } });
+      if (account.roles.some((r) => STAFF_ROLES.includes(r))) {
+        throw ruleBroken('staff_account', 'A PT provider staff account (admin, coordinator or assessor) cannot be a lab member.');
+      }
+      if (!(await em.findOne(Membership, { where: { userId: user.id, organisationId: inv.organisation_id } }))) {
+        const m = await em.save(Membership, em.create(Membership, { userId: user.id, organisationId: inv.organisation_id, isManager: inv.is_manager }));
+        await audit(em, user.id, 'membership.created', 'membership', m.id, { userId: user.id, organisationId: inv.organisation_id, invitationId: id });
+      }
+    }
+    await em.query(`UPDATE lab_invitation SET answered_at = now(), answer = $2 WHERE id = $1`, [id, accept ? 'accepted' : 'declined']);
+    await audit(em, user.id, accept ? 'lab-invitation.accepted' : 'lab-invitation.declined', 'organisation', inv.organisation_id, { invitationId: id });
+  });
+  forgetSessionUser(user.id);
 }

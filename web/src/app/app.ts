@@ -11,6 +11,7 @@ import { Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/rou
 import { map } from 'rxjs';
 import { AuthService } from './core/auth.service';
 import { HealthService } from './core/health.service';
+import { LabChooser } from './core/lab-chooser';
 import { navEntries } from './core/nav';
 
 /** The shell: toolbar, role-dependent navigation, and the routed page. */
@@ -27,6 +28,7 @@ import { navEntries } from './core/nav';
     MatButtonModule,
     MatIconModule,
     MatTooltipModule,
+    LabChooser,
   ],
   templateUrl: './app.html',
   styleUrl: './app.scss',

@@ -1,5 +1,5 @@
 import { HttpClient, HttpContext, HttpParams } from '@angular/common/http';
-import { Injectable, computed, inject, signal } from '@angular/core';
+import { Injectable, computed, inject } from '@angular/core';
 import { Observable, map } from 'rxjs';
 import * as z from 'zod';
 import {
@@ -26,15 +26,13 @@ const handled = (...statuses: number[]) => ({ context: new HttpContext().set(HAN
 export class BenchService {
   private readonly http = inject(HttpClient);
   private readonly auth = inject(AuthService);
-  private readonly chosen = signal<string | null>(null);
 
-  /** The labs the user belongs to, and the one the bench acts for. */
+  /**
+   * The labs the user belongs to, and the one the bench acts for: the lab chosen in the session
+   * (the header's lab chooser), or the only lab; null until a person in several labs chooses.
+   */
   readonly labs = computed(() => this.auth.me()?.memberships ?? []);
-  readonly labId = computed(() => this.chosen() ?? this.labs()[0]?.organisationId ?? null);
-
-  chooseLab(id: string): void {
-    this.chosen.set(id);
-  }
+  readonly labId = this.auth.actingLabId;
 
   private params(): HttpParams {
     const id = this.labId();

@@ -1,9 +1,8 @@
 import { DatePipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatSelectModule } from '@angular/material/select';
+import { ChangeDetectionStrategy, Component, effect, inject, signal } from '@angular/core';
 import { RouterLink } from '@angular/router';
 import type { MyRound, MyRoundStatus } from '@ringlet/shared/contracts/bench';
+import { LabChooser } from '../core/lab-chooser';
 import { BenchService } from './bench.service';
 
 export const STATUS_LABELS: Record<MyRoundStatus, string> = {
@@ -20,21 +19,14 @@ export const STATUS_LABELS: Record<MyRoundStatus, string> = {
 @Component({
   selector: 'app-lab-bench',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, RouterLink, MatFormFieldModule, MatSelectModule],
+  imports: [DatePipe, RouterLink, LabChooser],
   template: `
     <section class="page">
       <h1 data-testid="page-heading">Lab bench</h1>
-      @if (bench.labs().length > 1) {
-        <mat-form-field class="lab-pick">
-          <mat-label>Acting for lab</mat-label>
-          <mat-select [value]="bench.labId()" (valueChange)="pick($event)" data-testid="lab-picker">
-            @for (m of bench.labs(); track m.organisationId) {
-              <mat-option [value]="m.organisationId">{{ m.organisationName }}</mat-option>
-            }
-          </mat-select>
-        </mat-form-field>
-      }
-      @if (loading()) {
+      @if (bench.labs().length > 1 && !bench.labId()) {
+        <p data-testid="choose-lab">You belong to several labs. Choose the lab you act for:</p>
+        <app-lab-chooser />
+      } @else if (loading()) {
         <p>Loading your rounds…</p>
       } @else if (rounds().length === 0) {
         <p data-testid="no-rounds">Your lab has no rounds yet. Invitations from the PT provider appear here.</p>
@@ -74,23 +66,20 @@ export const STATUS_LABELS: Record<MyRoundStatus, string> = {
     .status-due-soon { color: #b7791f; }
     .status-submitted, .status-published { color: #1b7f79; }
     .status-locked { color: #a4262c; }
-    .lab-pick { min-width: 280px; }
     .visually-hidden { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); }
   `,
 })
-export class LabBench implements OnInit {
+export class LabBench {
   protected readonly bench = inject(BenchService);
   protected readonly rounds = signal<MyRound[]>([]);
   protected readonly loading = signal(true);
   protected readonly labels = STATUS_LABELS;
 
-  ngOnInit(): void {
-    this.load();
-  }
-
-  protected pick(id: string): void {
-    this.bench.chooseLab(id);
-    this.load();
+  constructor() {
+    // Loads the rounds of the lab acted for, again whenever the lab chooser changes it.
+    effect(() => {
+      if (this.bench.labId()) this.load();
+    });
   }
 
   private load(): void {

@@ -32,6 +32,12 @@ export class AuthService {
     () => this.current()?.memberships.filter((membership) => membership.isManager) ?? [],
   );
 
+  /**
+   * The lab this session acts for: the one chosen (kept in the server's session), or the only lab;
+   * null for a person in several labs who has not chosen yet.
+   */
+  readonly actingLabId = computed(() => this.current()?.actingLabId ?? null);
+
   hasRole(role: Role): boolean {
     return this.roles().includes(role);
   }
@@ -88,6 +94,35 @@ export class AuthService {
       map(() => undefined),
       tap({ next: clear, error: clear }),
     );
+  }
+
+  /**
+   * PUT /auth/acting-lab: a person in several labs chooses the lab they act for. The server keeps
+   * the choice in the session; the page shows the new lab at once.
+   */
+  chooseLab(labId: string): Observable<Me> {
+    const me = this.current();
+    if (me) this.current.set({ ...me, actingLabId: labId });
+    return this.http.put<unknown>(`${API}/auth/acting-lab`, { labId }).pipe(
+      switchMap((body) => from(loadContracts()).pipe(map((c) => c.Me.parse(body)))),
+      tap({
+        next: (updated) => this.current.set(updated),
+        error: () => this.current.set(me),
+      }),
+    );
+  }
+
+  /** Takes the account as the server answered it (after accepting a lab invitation). */
+  setMe(me: Me): void {
+    this.current.set(me);
+    this.loading = Promise.resolve(me);
+  }
+
+  /** POST /auth/password/change: other sessions of the account end; this one stays. */
+  changePassword(request: { currentPassword: string; password: string }): Observable<void> {
+    return this.http
+      .post(`${API}/auth/password/change`, request, { context: handled(400, 422, 429) })
+      .pipe(map(() => undefined));
   }
 
   /** POST /auth/password-reset: always answers 202 (no user enumeration). */

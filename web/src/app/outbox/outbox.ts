@@ -3,6 +3,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatListModule } from '@angular/material/list';
 import type { OutboxMessage } from '@ringlet/shared/contracts/admin';
+import { AuthService } from '../core/auth.service';
 import { linkify } from './linkify';
 import { OutboxService } from './outbox.service';
 
@@ -15,7 +16,10 @@ import { OutboxService } from './outbox.service';
     <section class="page outbox">
       <h1 data-testid="page-heading">Outbox</h1>
       <div class="page-actions">
-        <p class="note">Mail the server captured instead of sending. Only in demo and development mode.</p>
+        <p class="note" data-testid="outbox-scope">
+          Mail the server captured instead of sending{{ isAdmin() ? ': every message (you are an admin).' : ', addressed to you.' }}
+          Only in demo and development mode.
+        </p>
         <button mat-button type="button" (click)="reload()"><mat-icon>refresh</mat-icon> Refresh</button>
       </div>
       <div class="panes">
@@ -61,6 +65,8 @@ import { OutboxService } from './outbox.service';
 })
 export class Outbox implements OnInit {
   private readonly outbox = inject(OutboxService);
+  private readonly auth = inject(AuthService);
+  protected readonly isAdmin = computed(() => this.auth.hasRole('admin'));
   protected readonly messages = signal<OutboxMessage[]>([]);
   protected readonly selectedId = signal<string | null>(null);
   protected readonly selected = computed(

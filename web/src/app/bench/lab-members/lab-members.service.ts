@@ -2,7 +2,7 @@ import { HttpClient, HttpContext } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable, map } from 'rxjs';
 import * as z from 'zod';
-import { type LabMemberInvite, Membership } from '@ringlet/shared/contracts/admin';
+import { LabInvitation, type LabMemberInvite, LabMemberInviteResult, Membership } from '@ringlet/shared/contracts/admin';
 import { type AssessorGrantCreate, AssessorGrantDto } from '@ringlet/shared/contracts/evaluation';
 import { API, HANDLED_STATUSES } from '../../core/api';
 
@@ -15,13 +15,25 @@ export class LabMembersService {
     return this.http.get<unknown>(`${API}/labs/${labId}/members`).pipe(map((body) => z.array(Membership).parse(body)));
   }
 
-  /** Creates the colleague's account if needed and e-mails a first-password link. */
-  invite(labId: string, invite: LabMemberInvite): Observable<Membership> {
+  /**
+   * A new address gets an account and the membership (with a first-password link); an existing
+   * account gets an invitation it must accept. The form shows 400, 409 and 422 itself.
+   */
+  invite(labId: string, invite: LabMemberInvite): Observable<LabMemberInviteResult> {
     return this.http
       .post<unknown>(`${API}/labs/${labId}/members`, invite, {
-        context: new HttpContext().set(HANDLED_STATUSES, [400]),
+        context: new HttpContext().set(HANDLED_STATUSES, [400, 409, 422]),
       })
-      .pipe(map((body) => Membership.parse(body)));
+      .pipe(map((body) => LabMemberInviteResult.parse(body)));
+  }
+
+  /** Invitations of the lab not answered yet. */
+  invitations(labId: string): Observable<LabInvitation[]> {
+    return this.http.get<unknown>(`${API}/labs/${labId}/invitations`).pipe(map((body) => z.array(LabInvitation).parse(body)));
+  }
+
+  withdrawInvitation(labId: string, invitationId: string): Observable<void> {
+    return this.http.delete(`${API}/labs/${labId}/invitations/${invitationId}`).pipe(map(() => undefined));
   }
 
   remove(labId: string, membershipId: string): Observable<void> {

@@ -8,10 +8,11 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
-import { LabMemberInvite, type Membership } from '@ringlet/shared/contracts/admin';
-import { Email } from '@ringlet/shared/contracts/common';
+import { type LabInvitation, LabMemberInvite, type Membership } from '@ringlet/shared/contracts/admin';
 import { AuthService } from '../../core/auth.service';
-import { fieldIssuesOf, problemMessage } from '../../core/problem';
+import * as z from 'zod';
+import { Email, FieldIssue } from '@ringlet/shared/contracts/common';
+import { fieldIssuesOf, problemMessage, problemOf } from '../../core/problem';
 import { applyServerIssues, applyZodIssues, errorMessage, zodValidator } from '../../core/zod-form-errors';
 import { AssessorGrants } from './assessor-grants';
 import { LabMembersService } from './lab-members.service';
@@ -73,8 +74,24 @@ import { LabMembersService } from './lab-members.service';
         <tr mat-row *matRowDef="let row; columns: columns"></tr>
       </table>
 
+      @if (invitations().length) {
+        <h2>Invited, not answered yet</h2>
+        <ul class="pending" data-testid="pending-invitations">
+          @for (i of invitations(); track i.id) {
+            <li>
+              {{ i.name }} ({{ i.email }}){{ i.isManager ? ', as manager' : '' }}: open until {{ i.expiresAt.slice(0, 10) }}
+              <button mat-button type="button" (click)="withdraw(i)" [attr.aria-label]="'Withdraw the invitation to ' + i.name">Withdraw</button>
+            </li>
+          }
+        </ul>
+      }
+
       @if (labId()) {
         <h2>Invite a colleague</h2>
+        <p class="hint">
+          Someone new gets an account and a link to choose a password. Someone who already has an account
+          gets an invitation and joins only after accepting it. PT provider staff cannot be lab members.
+        </p>
         <form [formGroup]="form" (ngSubmit)="invite()" class="invite" novalidate>
           <mat-form-field>
             <mat-label>E-mail</mat-label>
@@ -101,6 +118,8 @@ import { LabMembersService } from './lab-members.service';
     .members { max-width: 900px; margin-bottom: 8px; }
     .invite { display: flex; flex-wrap: wrap; gap: 12px; align-items: flex-start; }
     .invite mat-checkbox, .invite button { margin-top: 8px; }
+    .pending { padding-left: 18px; }
+    .hint { color: #4a5663; max-width: 760px; }
   `,
 })
 export class LabMembers {
@@ -116,6 +135,7 @@ export class LabMembers {
     () => this.labs().find((lab) => lab.organisationId === this.labId())?.organisationName ?? null,
   );
   protected readonly members = signal<Membership[]>([]);
+  protected readonly invitations = signal<LabInvitation[]>([]);
   protected readonly busy = signal(false);
   protected readonly failure = signal<string | null>(null);
   protected readonly errorMessage = errorMessage;
@@ -129,7 +149,11 @@ export class LabMembers {
     effect(() => {
       const labId = this.labId();
       this.members.set([]);
-      if (labId) this.service.members(labId).subscribe((members) => this.members.set(members));
+      this.invitations.set([]);
+      if (labId) {
+        this.service.members(labId).subscribe((members) => this.members.set(members));
+        this.service.invitations(labId).subscribe((invitations) => this.invitations.set(invitations));
+      }
     });
   }
 
@@ -146,22 +170,37 @@ export class LabMembers {
     }
     this.busy.set(true);
     this.service.invite(labId, parsed.data).subscribe({
-      next: (membership) => {
+      next: (result) => {
         this.busy.set(false);
-        this.members.update((members) => [...members, membership]);
+        const { membership, invitation } = result;
+        if (membership) this.members.update((members) => [...members, membership]);
+        if (invitation) this.invitations.update((list) => [invitation, ...list.filter((i) => i.id !== invitation.id)]);
         this.form.reset({ email: '', name: '', isManager: false });
-        this.snackBar.open(`Invitation sent to ${membership.userEmail}.`, 'Close', { duration: 5000 });
+        const message = membership
+          ? `Account opened for ${membership.userEmail}; a link to choose a password is on its way.`
+          : `Invitation sent to ${parsed.data.email}. They join once they accept it.`;
+        this.snackBar.open(message, 'Close', { duration: 5000 });
       },
       error: (error: unknown) => {
         this.busy.set(false);
-        if (error instanceof HttpErrorResponse && error.status === 400) {
-          const unplaced = applyServerIssues(this.form, fieldIssuesOf(error));
+        // 400 field errors, and 422 rule breaks that name a field (a staff account), go under the field
+        const ruleIssues = error instanceof HttpErrorResponse && error.status === 422 ? z.array(FieldIssue).safeParse(problemOf(error)?.details) : null;
+        if (error instanceof HttpErrorResponse && (error.status === 400 || ruleIssues?.success)) {
+          const unplaced = applyServerIssues(this.form, ruleIssues?.success ? ruleIssues.data : fieldIssuesOf(error));
           this.failure.set(unplaced.length ? unplaced.join(' ') : null);
         } else {
           this.failure.set(problemMessage(error));
         }
       },
     });
+  }
+
+  protected withdraw(invitation: LabInvitation): void {
+    const labId = this.labId();
+    if (!labId) return;
+    this.service.withdrawInvitation(labId, invitation.id).subscribe(() =>
+      this.invitations.update((list) => list.filter((i) => i.id !== invitation.id)),
+    );
   }
 
   protected remove(membership: Membership): void {

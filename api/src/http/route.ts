@@ -91,7 +91,8 @@ export function findTextProblem(value: unknown, where: string): FieldIssue | nul
     }
     if (v === null || typeof v !== 'object') continue;
     if (depth >= MAX_DEPTH) return { path: name(path), message: `Nested more than ${MAX_DEPTH} levels deep.` };
-    for (const [k, child] of Object.entries(v as Record<string, unknown>)) {
+    // Pushed in reverse so the first offending field in document order is the one named.
+    for (const [k, child] of Object.entries(v as Record<string, unknown>).reverse()) {
       const p = textProblem(k);
       if (p) return { path: name([...path, '(a field name)']), message: p };
       stack.push({ v: child, path: [...path, k], depth: depth + 1 });

@@ -1,6 +1,8 @@
 import fc from 'fast-check';
 import type { ZodType } from 'zod';
 import type { Role } from '../../../shared/contracts/auth';
+import { createBenchRound, enrol } from '../testing/bench-fixtures';
+import { buildEvaluationFixture } from '../testing/evaluation-fixtures';
 import { client, createLab, createUser, signedIn, startTestApp, type Client, type TestApp } from '../testing/test-app';
 import type { AnyRoute } from './route';
 
@@ -167,9 +169,8 @@ describe('fuzzing every request schema', () => {
   const failures: string[] = [];
 
   /** Sends one request; checks no 5xx, a named field on 400, and no change after a refusal. */
-  async function probe(r: AnyRoute, where: 'body' | 'query', value: unknown, expectField?: string): Promise<number> {
+  async function probe(r: AnyRoute, where: 'body' | 'query', value: unknown, expectField?: string, url = fill(r.path)): Promise<number> {
     const c = callerOf(r);
-    const url = fill(r.path);
     let req = c.agent[r.method](url).set('x-csrf-token', c.csrf);
     if (where === 'query') req = req.query(value as Record<string, string>);
     const res = where === 'body' ? await req.send(value as object) : await req;
@@ -192,6 +193,34 @@ describe('fuzzing every request schema', () => {
   }
 
   let routes: AnyRoute[] = [];
+  /** Real objects for the second pass, so hostile values reach the services and not only a 404. */
+  const real: Record<string, string> = {};
+
+  /** The path with real ids: a draft round for design routes, a collecting round for lab and enrolment routes, a closed one for the evaluation. */
+  function fillReal(path: string): string {
+    const round = /\/(evaluation|publish|reissue|board)/.test(path)
+      ? real['closedRound']
+      : /^\/my\/|\/(submission|receipt|enrolments)/.test(path)
+        ? real['collectingRound']
+        : real['draftRound'];
+    const byName: Record<string, string | undefined> = {
+      itemId: real['itemId'],
+      measurandId: real['measurandId'],
+      enrolmentId: real['enrolmentId'],
+      token: 'x'.repeat(43),
+    };
+    return (
+      '/api/v1' +
+      path.replace(/\{(\w+)\}/g, (_m, name: string) => {
+        if (name !== 'id') return byName[name] ?? UUID;
+        if (path.startsWith('/rounds/') || path.startsWith('/my/rounds/')) return round!;
+        if (path.startsWith('/labs/')) return real['labId']!;
+        if (path.startsWith('/admin/users/')) return real['victimUser']!;
+        if (path.startsWith('/admin/organisations/')) return real['victimOrg']!;
+        return UUID;
+      })
+    );
+  }
 
   beforeAll(async () => {
     t = await startTestApp();
@@ -200,6 +229,17 @@ describe('fuzzing every request schema', () => {
     coordinatorId = (await createUser(t.ds, { email: 'coordinator@fuzz.test', roles: ['coordinator'] })).id;
     await createUser(t.ds, { email: 'assessor@fuzz.test', roles: ['assessor'] });
     await createUser(t.ds, { email: 'lab@fuzz.test', lab: lab.id, manager: true });
+    real['labId'] = lab.id;
+    real['victimUser'] = (await createUser(t.ds, { email: 'victim@fuzz.test', roles: ['assessor'] })).id;
+    real['victimOrg'] = (await createLab(t.ds, 'Victim Lab')).id;
+    const draft = await createBenchRound(t.ds, { state: 'draft' });
+    real['draftRound'] = draft.round.id;
+    real['itemId'] = draft.items[0]!.id;
+    real['measurandId'] = draft.zAverage.id;
+    const collecting = await createBenchRound(t.ds, { state: 'collecting' });
+    real['collectingRound'] = collecting.round.id;
+    real['enrolmentId'] = (await enrol(t.ds, collecting.round.id, lab.id, 'P01')).id;
+    real['closedRound'] = (await buildEvaluationFixture(t.ds, { participants: 12, seed: 3, withUncertainty: true })).round.id;
     for (const role of ['admin', 'coordinator', 'assessor', 'lab'] as const) clients.set(role, await signedIn(t, `${role}@fuzz.test`));
     clients.set('anonymous', await client(t));
     const tables = (await t.ds.query(
@@ -289,6 +329,70 @@ describe('fuzzing every request schema', () => {
     expect(failures).toEqual([]);
     expect(checked).toBeGreaterThan(200);
   }, 120_000);
+
+  it('never answers 5xx against real rounds, items, enrolments and users; refusals store nothing', async () => {
+    let checked = 0;
+    const tally = new Map<number, number>();
+    for (const [ri, r] of routes.entries()) {
+      const url = fillReal(r.path);
+      if (r.body) {
+        const base = sample(r.body);
+        const paths = leaves(base);
+        const cases = fc.sample(fc.tuple(fc.nat({ max: paths.length - 1 }), fc.oneof(alwaysInvalid, maybeInvalid)), { numRuns: 8, seed: 99 + ri });
+        // The valid request first (it reaches the service), then one hostile field at a time.
+        const baseStatus = await probe(r, 'body', base, undefined, url);
+        tally.set(baseStatus, (tally.get(baseStatus) ?? 0) + 1);
+        for (const [pi, v] of cases) {
+          const status = await probe(r, 'body', withValue(base, paths[pi]!, v), undefined, url);
+          tally.set(status, (tally.get(status) ?? 0) + 1);
+          checked++;
+        }
+      } else if (r.query) {
+        const base = (sample(r.query) ?? {}) as Record<string, unknown>;
+        for (const v of fc.sample(fc.oneof(fc.string({ maxLength: 20 }), fc.constantFrom('\u0000', 'x'.repeat(5000), '-1', '1e308')), { numRuns: 4, seed: 5 + ri })) {
+          for (const k of Object.keys(base)) {
+            await probe(r, 'query', { ...base, [k]: v }, undefined, url);
+            checked++;
+          }
+        }
+      }
+    }
+    if (process.env['FUZZ_VERBOSE']) console.log([...tally].sort().map(([k, n]) => `${k}: ${n}`).join(', '));
+    expect(failures).toEqual([]);
+    expect(checked).toBeGreaterThan(250);
+    // The values reached the services: some were accepted, some refused by a rule there.
+    expect([...tally].filter(([k]) => k < 300).reduce((a, [, n]) => a + n, 0)).toBeGreaterThan(8);
+  }, 180_000);
+
+  it('shows the declared ranges in the OpenAPI document', async () => {
+    const doc = (await clients.get('anonymous')!.agent.get('/api/v1/openapi.json').expect(200)).body as {
+      paths: Record<string, Record<string, { requestBody?: unknown }>>;
+    };
+    const bodies = Object.values(doc.paths).flatMap((ops) => Object.values(ops).map((op) => op.requestBody).filter(Boolean));
+    /** The first schema of a property with this name in a request body (nullable unwrapped). */
+    const prop = (name: string): Record<string, unknown> => {
+      const stack: unknown[] = [...bodies].reverse();
+      while (stack.length) {
+        const v = stack.pop();
+        if (!v || typeof v !== 'object') continue;
+        const props = (v as { properties?: Record<string, unknown> }).properties;
+        if (props && props[name]) {
+          const p = props[name] as { anyOf?: Record<string, unknown>[] };
+          return p.anyOf ? p.anyOf.find((x) => x['type'] !== 'null')! : (p as Record<string, unknown>);
+        }
+        stack.push(...Object.values(v));
+      }
+      throw new Error(`no property ${name}`);
+    };
+    expect(prop('pdi')).toMatchObject({ minimum: 0, maximum: 1 });
+    expect(prop('zAverageNm')).toMatchObject({ minimum: 0.3, maximum: 10_000 });
+    expect(prop('viscosityMPas')).toMatchObject({ minimum: 0.2, maximum: 100 });
+    expect(prop('temperatureC')).toMatchObject({ minimum: 0, maximum: 95 });
+    expect(prop('nominalSizeNm')).toMatchObject({ minimum: 0.3, maximum: 10_000 });
+    expect(prop('value')['description']).toEqual(expect.stringContaining('between') as unknown);
+    expect(String(prop('resultsDueAt')['description'])).toContain('2000-01-01');
+    expect(String(prop('endsOn')['description'])).toContain('2100-12-31');
+  });
 
   it('answers PATCH of a user with an empty body with 400, not 500', async () => {
     const admin = clients.get('admin')!;

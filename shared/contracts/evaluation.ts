@@ -1,6 +1,6 @@
 import * as z from 'zod';
 import { Id } from './common';
-import { boundedNumber, dateOnly, daysBetween, GRANT_MAX_YEARS, multiLine, singleLine } from './ranges';
+import { boundedNumber, DATE_MAX, DATE_MIN, dateOnly, daysBetween, GRANT_MAX_YEARS, multiLine, singleLine } from './ranges';
 
 /**
  * Evaluation, Consensus board, lab scores, Track record, investigations and assessor grants.
@@ -382,7 +382,8 @@ export const AssessorGrantCreate = z
     endsOn: dateOnly('End date').nullable().optional(),
   })
   .superRefine((g, ctx) => {
-    if (!g.endsOn) return;
+    // Dates outside DATE_MIN…DATE_MAX are already named by the field itself.
+    if (!g.endsOn || g.endsOn > DATE_MAX || g.endsOn < DATE_MIN || (g.startsOn && (g.startsOn > DATE_MAX || g.startsOn < DATE_MIN))) return;
     const start = g.startsOn ?? new Date().toISOString().slice(0, 10);
     if (g.endsOn < start) ctx.addIssue({ code: 'custom', path: ['endsOn'], message: 'The access must end on or after its start.' });
     else if (daysBetween(start, g.endsOn) > GRANT_MAX_YEARS * 366) {

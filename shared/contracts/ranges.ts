@@ -96,13 +96,20 @@ export function rangeText(r: NumberRange): string {
  * A number field with the named range: finite, within bounds, with a message naming the bound and
  * an OpenAPI description saying the range and its source.
  */
-export function boundedNumber(name: RangeName, opts: { label?: string; required?: string } = {}): z.ZodNumber {
+export function boundedNumber(
+  name: RangeName,
+  opts: { label?: string; required?: string; tooSmall?: string; tooLarge?: string } = {},
+): z.ZodNumber {
   const r: NumberRange = RANGES[name];
   const label = opts.label ?? r.label;
   const message = `${label} must be ${rangeText(r)}.`;
-  let s = z.number({ error: (iss) => (iss.input === undefined ? (opts.required ?? `Enter the ${label.toLowerCase()}.`) : `${label} must be a number.`) });
-  s = r.minExclusive ? s.gt(r.min, { message }) : s.min(r.min, { message });
-  s = s.max(r.max, { message });
+  const empty = (v: unknown) => v === undefined || v === null || v === '';
+  let s = z.number({ error: (iss) => (empty(iss.input) ? (opts.required ?? `Enter the ${label.toLowerCase()}.`) : `${label} must be a number.`) });
+  // A value at or below 0 for a strictly positive quantity reads best as "must be above 0".
+  const small = opts.tooSmall ?? message;
+  const tooSmall = (iss: { input?: unknown }) => (typeof iss.input === 'number' && iss.input <= 0 && r.min >= 0 && !opts.tooSmall ? `${label} must be above 0.` : small);
+  s = r.minExclusive ? s.gt(r.min, { error: tooSmall }) : s.min(r.min, { error: r.min > 0 ? tooSmall : small });
+  s = s.max(r.max, { message: opts.tooLarge ?? message });
   return s.describe(`${label}${r.unit && !r.unit.includes(' ') ? ` in ${r.unit}` : r.unit ? ` in the ${r.unit}` : ''}, ${rangeText(r)} (${r.source}).`);
 }
 

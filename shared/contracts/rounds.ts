@@ -19,7 +19,11 @@ export const SigmaPtRuleInput = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('fixed'), value: boundedNumber('sigmaPt', { required: 'Enter σ_pt.' }) }),
   z.object({
     kind: z.literal('percent'),
-    percent: boundedNumber('sigmaPtPercent', { required: 'Enter the percentage of x_pt.' }),
+    percent: boundedNumber('sigmaPtPercent', {
+      required: 'Enter the percentage of x_pt.',
+      tooSmall: 'The percentage must be above 0.',
+      tooLarge: 'The percentage is at most 100.',
+    }),
   }),
   z.object({ kind: z.literal('robust-sd') }),
   z.object({

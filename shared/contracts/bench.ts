@@ -148,7 +148,7 @@ export const InstrumentCheckQuery = LabQuery.extend({ instrument: singleLine(200
 export const DraftSave = z.object({
   data: SubmissionData,
   /** The revision this draft was based on (0 for the first save): a mismatch answers 409. */
-  baseRevision: z.number().int().min(0),
+  baseRevision: z.number().int().min(0).max(1_000_000_000),
 });
 export type DraftSave = z.infer<typeof DraftSave>;
 

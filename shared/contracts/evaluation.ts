@@ -213,6 +213,8 @@ export const BoardCell = z.object({
   hints: z.array(z.string()).optional(),
   /** True when kept out of x_pt; absent otherwise. */
   excluded: z.literal(true).optional(),
+  /** Why stored data could not be scored (ParticipantScore.notScored message); absent otherwise. */
+  notScored: z.string().optional(),
 });
 export type BoardCell = z.infer<typeof BoardCell>;
 

@@ -185,7 +185,10 @@ describe('absurd values and duplicates', () => {
       await coord.agent.get(api(`/rounds/${fx.round.id}/evaluation`)).expect(200);
       await coord.agent.post(api(`/rounds/${fx.round.id}/evaluation/commit`)).set('x-csrf-token', coord.csrf).send({}).expect(200);
       await coord.agent.post(api(`/rounds/${fx.round.id}/publish`)).set('x-csrf-token', coord.csrf).send({}).expect(200);
-      await coord.agent.get(api(`/rounds/${fx.round.id}/board`)).expect(200);
+      const board = await coord.agent.get(api(`/rounds/${fx.round.id}/board`)).expect(200);
+      const gi = (board.body.groups as { itemCode: string; measurandKey: string }[]).findIndex((g) => g.itemCode === 'B' && g.measurandKey === 'z_average');
+      const row = (board.body.rows as { code: string; cells: ({ notScored?: string } | null)[] }[]).find((x) => x.code === code(1))!;
+      expect(row.cells[gi]!.notScored).toMatch(/^Not scored: the result/);
       await createUser(t.ds, { email: 'one@range.test', lab: fx.labs[1]!.id });
       const one = await signedIn(t, 'one@range.test');
       const res = await one.agent.get(api(`/my/rounds/${fx.round.id}/scores`)).expect(200);

@@ -124,7 +124,8 @@ function assertOpen(lock: ReturnType<typeof lockState>): void {
 /**
  * PUT /rounds/{id}/submission: saves the working copy as the lab types. `baseRevision` must be the
  * revision the client last saw; otherwise 409 draft_conflict (another tab or colleague saved since).
- * Drafts keep what was typed, even a value the submit would refuse, so nothing is lost.
+ * Drafts keep what was typed, even a value the submit would refuse by the round's rules, so nothing
+ * is lost; a value outside the plausible ranges (shared/contracts/ranges.ts) is refused already here.
  */
 export async function saveDraft(ctx: AppContext, actor: SessionUser, labId: string, roundId: string, input: DraftSave): Promise<DraftSaved> {
   return ctx.ds.transaction(async (em) => {

@@ -1,6 +1,9 @@
 import * as z from 'zod';
 import { Email, Id, Timestamp } from './common';
 import { GlobalRole } from './auth';
+import { singleLine } from './ranges';
+
+const changeSomething = { message: 'Change at least one field.' };
 
 export const OrganisationKind = z.enum(['lab', 'provider']);
 export type OrganisationKind = z.infer<typeof OrganisationKind>;
@@ -16,13 +19,21 @@ export const Organisation = z.object({
 export type Organisation = z.infer<typeof Organisation>;
 
 export const OrganisationCreate = z.object({
-  name: z.string().trim().min(2, { message: 'Enter the organisation name.' }).max(200),
+  name: singleLine(200, { min: 2, required: 'Enter the organisation name.' }),
   kind: OrganisationKind.default('lab'),
-  country: z.string().trim().max(100).nullable().optional(),
+  country: singleLine(100).nullable().optional(),
   contactEmail: Email.nullable().optional(),
 });
 export type OrganisationCreate = z.input<typeof OrganisationCreate>;
-export const OrganisationUpdate = OrganisationCreate.partial();
+export const OrganisationUpdate = z
+  .object({
+    name: OrganisationCreate.shape.name,
+    kind: OrganisationKind,
+    country: OrganisationCreate.shape.country,
+    contactEmail: OrganisationCreate.shape.contactEmail,
+  })
+  .partial()
+  .refine((o) => Object.values(o).some((v) => v !== undefined), changeSomething);
 
 export const Membership = z.object({
   id: Id,
@@ -51,18 +62,20 @@ export type User = z.infer<typeof User>;
 /** Inviting a user creates the account and e-mails a first-password link. */
 export const UserInvite = z.object({
   email: Email,
-  name: z.string().trim().min(1, { message: 'Enter the person\'s name.' }).max(200),
+  name: singleLine(200, { min: 1, required: 'Enter the person\'s name.' }),
   roles: z.array(GlobalRole).default([]),
   organisationId: Id.optional(),
   isManager: z.boolean().default(false),
 });
 export type UserInvite = z.input<typeof UserInvite>;
 
-export const UserUpdate = z.object({
-  name: z.string().trim().min(1).max(200).optional(),
-  roles: z.array(GlobalRole).optional(),
-  isActive: z.boolean().optional(),
-});
+export const UserUpdate = z
+  .object({
+    name: singleLine(200, { min: 1, required: 'Enter the person\'s name.' }).optional(),
+    roles: z.array(GlobalRole).max(3).optional(),
+    isActive: z.boolean().optional(),
+  })
+  .refine((u) => u.name !== undefined || u.roles !== undefined || u.isActive !== undefined, changeSomething);
 export type UserUpdate = z.infer<typeof UserUpdate>;
 
 export const MembershipCreate = z.object({
@@ -76,7 +89,7 @@ export const MembershipUpdate = z.object({ isManager: z.boolean() });
 /** A lab manager invites a colleague into the lab. */
 export const LabMemberInvite = z.object({
   email: Email,
-  name: z.string().trim().min(1, { message: 'Enter the person\'s name.' }).max(200),
+  name: singleLine(200, { min: 1, required: 'Enter the person\'s name.' }),
   isManager: z.boolean().default(false),
 });
 export type LabMemberInvite = z.input<typeof LabMemberInvite>;

@@ -1,7 +1,8 @@
 import * as z from 'zod';
 import { Id, Timestamp } from './common';
+import { boundedNumber, boundedTimestamp, dateOnly, multiLine, singleLine } from './ranges';
 import { RoundState } from './round-states';
-import { SubmissionData } from './submission';
+import { StoredSubmissionData, SubmissionData } from './submission';
 
 /** The lab a multi-lab user acts for: `?labId=` or the `x-lab-id` header (checked against memberships). */
 export const LabQuery = z.object({ labId: Id.optional() });
@@ -68,9 +69,9 @@ export type Receipt = z.infer<typeof Receipt>;
 
 /** PUT /rounds/{id}/receipt (JSON or multipart with an optional `photo` file). */
 export const ReceiptInput = z.object({
-  receivedOn: z.iso.date({ message: 'Give the date the items arrived (YYYY-MM-DD).' }),
+  receivedOn: dateOnly('Date of arrival'),
   condition: ShipmentCondition,
-  notes: z.string().trim().max(2000).default(''),
+  notes: multiLine(2000, { trim: true }).default(''),
 });
 export type ReceiptInput = z.infer<typeof ReceiptInput>;
 
@@ -99,25 +100,25 @@ export type MyRoundDetail = z.infer<typeof MyRoundDetail>;
 // ---------------------------------------------------------------- instrument check
 
 export const InstrumentCheckRun = z.object({
-  zAverageNm: z.number().positive({ message: 'Z-average must be above 0 nm.' }),
-  pdi: z.number().min(0, { message: 'PDI must be between 0 and 1.' }).max(1, { message: 'PDI must be between 0 and 1.' }),
-  temperatureC: z.number().min(-5).max(95),
-  equilibrationMin: z.number().min(0).max(240),
+  zAverageNm: boundedNumber('diameterNm', { label: 'Z-average' }),
+  pdi: boundedNumber('pdi'),
+  temperatureC: boundedNumber('temperatureC'),
+  equilibrationMin: boundedNumber('equilibrationMin'),
 });
 export type InstrumentCheckRun = z.infer<typeof InstrumentCheckRun>;
 
 export const InstrumentCheckInput = z.object({
-  instrument: z.string().trim().min(1, { message: 'Name the instrument.' }).max(200),
-  material: z.string().trim().min(1, { message: 'Name the reference material.' }).max(200),
-  referenceValueNm: z.number().positive(),
-  toleranceNm: z.number().positive(),
-  pdiLimit: z.number().gt(0).max(1),
-  setPointC: z.number().min(-5).max(95),
-  temperatureToleranceC: z.number().positive().max(10),
-  minEquilibrationMin: z.number().min(0).max(240),
+  instrument: singleLine(200, { min: 1, required: 'Name the instrument.' }),
+  material: singleLine(200, { min: 1, required: 'Name the reference material.' }),
+  referenceValueNm: boundedNumber('diameterNm', { label: 'Reference value' }),
+  toleranceNm: boundedNumber('toleranceNm'),
+  pdiLimit: boundedNumber('pdiLimit'),
+  setPointC: boundedNumber('temperatureC', { label: 'Set-point temperature' }),
+  temperatureToleranceC: boundedNumber('temperatureToleranceC'),
+  minEquilibrationMin: boundedNumber('equilibrationMin', { label: 'Minimum equilibration time' }),
   runs: z.array(InstrumentCheckRun).min(3, { message: 'Record at least three runs.' }).max(20),
-  checkedAt: Timestamp.optional(),
-  notes: z.string().trim().max(2000).default(''),
+  checkedAt: boundedTimestamp('Time of the check').optional(),
+  notes: multiLine(2000, { trim: true }).default(''),
 });
 export type InstrumentCheckInput = z.infer<typeof InstrumentCheckInput>;
 
@@ -140,14 +141,14 @@ export const InstrumentCheck = InstrumentCheckInput.omit({ checkedAt: true }).ex
 });
 export type InstrumentCheck = z.infer<typeof InstrumentCheck>;
 
-export const InstrumentCheckQuery = LabQuery.extend({ instrument: z.string().trim().max(200).optional() });
+export const InstrumentCheckQuery = LabQuery.extend({ instrument: singleLine(200).optional() });
 
 // ---------------------------------------------------------------- submission
 
 export const DraftSave = z.object({
   data: SubmissionData,
   /** The revision this draft was based on (0 for the first save): a mismatch answers 409. */
-  baseRevision: z.number().int().min(0),
+  baseRevision: z.number().int().min(0).max(1_000_000_000),
 });
 export type DraftSave = z.infer<typeof DraftSave>;
 
@@ -156,7 +157,7 @@ export type DraftSaved = z.infer<typeof DraftSaved>;
 
 export const SubmissionVersionDto = z.object({
   version: z.number().int(),
-  data: SubmissionData,
+  data: StoredSubmissionData,
   submittedAt: Timestamp,
   submittedBy: z.string().nullable(),
   note: z.string().nullable(),
@@ -166,7 +167,7 @@ export type SubmissionVersionDto = z.infer<typeof SubmissionVersionDto>;
 
 export const SubmissionView = z.object({
   state: z.enum(['none', 'draft', 'submitted']),
-  draft: SubmissionData,
+  draft: StoredSubmissionData,
   draftRevision: z.number().int(),
   savedAt: Timestamp.nullable(),
   currentVersion: z.number().int(),
@@ -178,11 +179,11 @@ export type SubmissionView = z.infer<typeof SubmissionView>;
 
 export const SubmitRequest = z.object({
   /** A key the client makes once per submit intent (e.g. a UUID); a retry with it returns the same version. */
-  idempotencyKey: z.string().trim().min(8).max(100),
+  idempotencyKey: singleLine(100, { min: 8 }),
   /** The results to submit; omitted means the saved draft. */
   data: SubmissionData.optional(),
   /** For an amendment: what changed and why. */
-  note: z.string().trim().max(2000).optional(),
+  note: multiLine(2000, { trim: true }).optional(),
 });
 export type SubmitRequest = z.infer<typeof SubmitRequest>;
 
@@ -244,7 +245,7 @@ export type SheetIssue = z.infer<typeof SheetIssue>;
 
 export const WorkbookUploadResult = z.object({
   draftRevision: z.number().int(),
-  data: SubmissionData,
+  data: StoredSubmissionData,
   warnings: z.array(z.object({ code: z.string(), path: z.string(), message: z.string() })),
 });
 export type WorkbookUploadResult = z.infer<typeof WorkbookUploadResult>;

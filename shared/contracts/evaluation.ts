@@ -1,5 +1,6 @@
 import * as z from 'zod';
 import { Id } from './common';
+import { boundedNumber, DATE_MAX, DATE_MIN, dateOnly, daysBetween, GRANT_MAX_YEARS, multiLine, singleLine } from './ranges';
 
 /**
  * Evaluation, Consensus board, lab scores, Track record, investigations and assessor grants.
@@ -9,15 +10,15 @@ import { Id } from './common';
 
 /** σ_pt rule (shared/stats SigmaPtRule). */
 export const SigmaPtRuleSchema = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('fixed'), value: z.number().positive().finite() }),
-  z.object({ kind: z.literal('percent'), percent: z.number().positive().max(100) }),
+  z.object({ kind: z.literal('fixed'), value: boundedNumber('sigmaPt') }),
+  z.object({ kind: z.literal('percent'), percent: boundedNumber('sigmaPtPercent') }),
   z.object({ kind: z.literal('robust-sd') }),
   z.object({
     kind: z.literal('precision'),
-    sigmaR: z.number().positive().finite(),
-    sigmaRepeatability: z.number().nonnegative().finite().optional(),
+    sigmaR: boundedNumber('sigmaPt', { label: 'σ_R' }),
+    sigmaRepeatability: boundedNumber('sigmaPt', { label: 'σ_r' }).optional(),
     replicates: z.number().int().min(1).max(20).optional(),
-    source: z.string().max(500).optional(),
+    source: singleLine(500).optional(),
   }),
 ]);
 export type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;
@@ -26,7 +27,12 @@ export type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;
 export const AssignedValueRuleSchema = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('consensus') }),
   z.object({ kind: z.literal('median') }),
-  z.object({ kind: z.literal('reference'), value: z.number().finite(), u: z.number().nonnegative().finite(), source: z.string().max(500) }),
+  z.object({
+    kind: z.literal('reference'),
+    value: boundedNumber('measuredValue', { label: 'Reference value' }),
+    u: boundedNumber('referenceUncertainty'),
+    source: singleLine(500),
+  }),
 ]);
 export type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleSchema>;
 
@@ -41,21 +47,21 @@ export const EXCLUSION_RULE_LABELS: Record<(typeof EXCLUSION_RULES)[number], str
   other: 'Other (see reason)',
 };
 
-const Reason = z.string().trim().min(3, { message: 'Give a reason (at least 3 characters).' }).max(1000);
+const Reason = multiLine(1000, { trim: true }).min(3, { message: 'Give a reason (at least 3 characters).' });
 
 export const SigmaPtOverride = z.object({
-  measurandKey: z.string().min(1).max(100),
+  measurandKey: singleLine(100, { min: 1 }),
   /** null: every item of the round. */
-  itemCode: z.string().min(1).max(100).nullable().default(null),
+  itemCode: singleLine(100, { min: 1 }).nullable().default(null),
   rule: SigmaPtRuleSchema,
   reason: Reason,
 });
 export type SigmaPtOverride = z.infer<typeof SigmaPtOverride>;
 
 export const Exclusion = z.object({
-  participantCode: z.string().min(1).max(50),
-  itemCode: z.string().min(1).max(100),
-  measurandKey: z.string().min(1).max(100),
+  participantCode: singleLine(50, { min: 1 }),
+  itemCode: singleLine(100, { min: 1 }),
+  measurandKey: singleLine(100, { min: 1 }),
   rule: ExclusionRule,
   reason: Reason,
 });
@@ -94,6 +100,11 @@ export const ParticipantScore = z.object({
   signal: Signal.nullable(),
   hints: z.array(Hint),
   excluded: z.object({ rule: ExclusionRule, reason: z.string() }).nullable(),
+  /**
+   * Set when stored data could not be scored (e.g. an uncertainty too large to compute En): the
+   * scores it names stay null and the reason says why. Absent on records made before it existed.
+   */
+  notScored: z.object({ code: z.string(), message: z.string() }).nullable().optional(),
 });
 export type ParticipantScore = z.infer<typeof ParticipantScore>;
 
@@ -202,6 +213,8 @@ export const BoardCell = z.object({
   hints: z.array(z.string()).optional(),
   /** True when kept out of x_pt; absent otherwise. */
   excluded: z.literal(true).optional(),
+  /** Why stored data could not be scored (ParticipantScore.notScored message); absent otherwise. */
+  notScored: z.string().optional(),
 });
 export type BoardCell = z.infer<typeof BoardCell>;
 
@@ -350,21 +363,35 @@ export type InvestigationDto = z.infer<typeof InvestigationDto>;
 export const InvestigationUpdate = z
   .object({
     causeCategory: CauseCategory.nullable(),
-    rootCause: z.string().trim().max(4000),
-    correctiveAction: z.string().trim().max(4000),
-    effectivenessCheck: z.string().trim().max(4000),
+    rootCause: multiLine(4000, { trim: true }),
+    correctiveAction: multiLine(4000, { trim: true }),
+    effectivenessCheck: multiLine(4000, { trim: true }),
   })
   .partial();
 export type InvestigationUpdate = z.infer<typeof InvestigationUpdate>;
 
 /* ---------------------------------------------------------------- Assessor grants */
 
-export const AssessorGrantCreate = z.object({
-  email: z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address.' })),
-  name: z.string().trim().min(1).max(200).optional(),
-  startsOn: z.iso.date().optional(),
-  endsOn: z.iso.date().nullable().optional(),
-});
+/**
+ * An assessor's access: starts today unless given, ends on or after its start and at most
+ * GRANT_MAX_YEARS later (common practice: one accreditation cycle), or stays open (null).
+ */
+export const AssessorGrantCreate = z
+  .object({
+    email: z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address.' })),
+    name: singleLine(200, { min: 1 }).optional(),
+    startsOn: dateOnly('Start date').optional(),
+    endsOn: dateOnly('End date').nullable().optional(),
+  })
+  .superRefine((g, ctx) => {
+    // Dates outside DATE_MIN…DATE_MAX are already named by the field itself.
+    if (!g.endsOn || g.endsOn > DATE_MAX || g.endsOn < DATE_MIN || (g.startsOn && (g.startsOn > DATE_MAX || g.startsOn < DATE_MIN))) return;
+    const start = g.startsOn ?? new Date().toISOString().slice(0, 10);
+    if (g.endsOn < start) ctx.addIssue({ code: 'custom', path: ['endsOn'], message: 'The access must end on or after its start.' });
+    else if (daysBetween(start, g.endsOn) > GRANT_MAX_YEARS * 366) {
+      ctx.addIssue({ code: 'custom', path: ['endsOn'], message: `The access may run for at most ${GRANT_MAX_YEARS} years.` });
+    }
+  });
 export type AssessorGrantCreate = z.infer<typeof AssessorGrantCreate>;
 
 export const AssessorGrantDto = z.object({

@@ -1,5 +1,6 @@
 import * as z from 'zod';
 import { Email, Id, Timestamp } from './common';
+import { boundedNumber, boundedTimestamp, dateOnly, multiLine, singleLine } from './ranges';
 import { RoundState } from './round-states';
 
 /**
@@ -15,21 +16,22 @@ export { DEFAULT_INSTRUCTIONS, SAFETY_CAUTIONS } from './safety';
 // ---- σ_pt and assigned-value rules (shapes of shared/stats SigmaPtRule / AssignedValueRule) ----
 
 export const SigmaPtRuleInput = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('fixed'), value: z.number({ error: 'Enter σ_pt.' }).positive({ message: 'σ_pt must be above 0.' }) }),
+  z.object({ kind: z.literal('fixed'), value: boundedNumber('sigmaPt', { required: 'Enter σ_pt.' }) }),
   z.object({
     kind: z.literal('percent'),
-    percent: z
-      .number({ error: 'Enter the percentage of x_pt.' })
-      .positive({ message: 'The percentage must be above 0.' })
-      .max(100, { message: 'The percentage is at most 100.' }),
+    percent: boundedNumber('sigmaPtPercent', {
+      required: 'Enter the percentage of x_pt.',
+      tooSmall: 'The percentage must be above 0.',
+      tooLarge: 'The percentage is at most 100.',
+    }),
   }),
   z.object({ kind: z.literal('robust-sd') }),
   z.object({
     kind: z.literal('precision'),
-    sigmaR: z.number({ error: 'Enter σ_R from the precision study.' }).positive({ message: 'σ_R must be above 0.' }),
-    sigmaRepeatability: z.number().positive().optional(),
+    sigmaR: boundedNumber('sigmaPt', { label: 'σ_R', required: 'Enter σ_R from the precision study.' }),
+    sigmaRepeatability: boundedNumber('sigmaPt', { label: 'σ_r' }).optional(),
     replicates: z.number().int().min(1).max(20).optional(),
-    source: z.string().max(500).optional(),
+    source: singleLine(500).optional(),
   }),
 ]);
 export type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleInput>;
@@ -39,9 +41,9 @@ export const AssignedValueRuleInput = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('median') }),
   z.object({
     kind: z.literal('reference'),
-    value: z.number({ error: 'Enter the reference value.' }).finite(),
-    u: z.number({ error: 'Enter its standard uncertainty u.' }).min(0, { message: 'u cannot be negative.' }),
-    source: z.string().trim().min(1, { message: 'Name the source (e.g. the certificate).' }).max(500),
+    value: boundedNumber('measuredValue', { label: 'Reference value', required: 'Enter the reference value.' }),
+    u: boundedNumber('referenceUncertainty', { required: 'Enter its standard uncertainty u.' }),
+    source: singleLine(500, { min: 1, required: 'Name the source (e.g. the certificate).' }),
   }),
 ]);
 export type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleInput>;
@@ -53,8 +55,8 @@ export const MeasurandInput = z.object({
     .string()
     .trim()
     .regex(/^[a-z][a-z0-9_]{0,39}$/, { message: 'Use lower-case letters, digits and _ (e.g. z_average).' }),
-  name: z.string().trim().min(1, { message: 'Enter the measurand name.' }).max(100),
-  unit: z.string().trim().max(20),
+  name: singleLine(100, { min: 1, required: 'Enter the measurand name.' }),
+  unit: singleLine(20),
   decimals: z.number().int().min(0).max(6),
   replicatesRequired: z.number().int().min(1).max(20),
   sigmaPtRule: SigmaPtRuleInput.default({ kind: 'robust-sd' }),
@@ -129,9 +131,9 @@ export const SchemeCreate = z.object({
     .string()
     .trim()
     .regex(/^[A-Z0-9][A-Z0-9-]{1,29}$/, { message: 'Use 2–30 capital letters, digits or dashes (e.g. NANO-DLS).' }),
-  name: z.string().trim().min(2, { message: 'Enter the scheme name.' }).max(200),
-  description: z.string().trim().max(4000).default(''),
-  rules: z.string().trim().max(8000).default(''),
+  name: singleLine(200, { min: 2, required: 'Enter the scheme name.' }),
+  description: multiLine(4000, { trim: true }).default(''),
+  rules: multiLine(8000, { trim: true }).default(''),
   defaultMeasurands: z.array(MeasurandInput).max(20).default([...DLS_DEFAULT_MEASURANDS]),
 });
 export type SchemeCreate = z.input<typeof SchemeCreate>;
@@ -154,10 +156,10 @@ export const TestItemInput = z.object({
     .string()
     .trim()
     .regex(/^[A-Za-z0-9][A-Za-z0-9-]{0,19}$/, { message: 'Use up to 20 letters, digits or dashes (e.g. A).' }),
-  material: z.string().trim().min(1, { message: 'Enter the material.' }).max(200),
-  nominalSizeNm: z.number().positive({ message: 'Nominal size must be above 0 nm.' }).max(1e5).nullable().default(null),
-  storageNotes: z.string().trim().max(2000).default(''),
-  handlingNotes: z.string().trim().max(2000).default(''),
+  material: singleLine(200, { min: 1, required: 'Enter the material.' }),
+  nominalSizeNm: boundedNumber('diameterNm', { label: 'Nominal size' }).nullable().default(null),
+  storageNotes: multiLine(2000, { trim: true }).default(''),
+  handlingNotes: multiLine(2000, { trim: true }).default(''),
 });
 export type TestItemInput = z.input<typeof TestItemInput>;
 
@@ -204,15 +206,15 @@ export const isDescriptionOpen = (state: RoundState): boolean => !ROUND_LOCKED_S
 export const isFeeOpen = (state: RoundState): boolean => state === 'draft';
 
 /** A calendar date, YYYY-MM-DD. */
-export const DateOnly = z.iso.date({ message: 'Use a date like 2026-03-31.' });
+export const DateOnly = dateOnly();
 
 const roundFields = {
-  title: z.string().trim().min(2, { message: 'Enter the round title.' }).max(200),
-  enrolmentClosesOn: DateOnly.nullable().default(null),
-  dispatchOn: DateOnly.nullable().default(null),
-  resultsDueAt: Timestamp.nullable().default(null),
-  instructions: z.string().max(20000).default(DEFAULT_INSTRUCTIONS),
-  protocolTemperatureC: z.number().min(-5).max(95).default(25),
+  title: singleLine(200, { min: 2, required: 'Enter the round title.' }),
+  enrolmentClosesOn: dateOnly('Enrolment closing date').nullable().default(null),
+  dispatchOn: dateOnly('Dispatch date').nullable().default(null),
+  resultsDueAt: boundedTimestamp('Results due').nullable().default(null),
+  instructions: multiLine(20000).default(DEFAULT_INSTRUCTIONS),
+  protocolTemperatureC: boundedNumber('temperatureC', { label: 'Protocol temperature' }).default(25),
   feeMinor: z.number().int().min(0).max(100_000_000).default(0),
   currency: z
     .string()
@@ -247,16 +249,17 @@ export type RoundCreate = z.input<typeof RoundCreate>;
 export const RoundUpdate = z
   .object({
     title: roundFields.title,
-    enrolmentClosesOn: DateOnly.nullable(),
-    dispatchOn: DateOnly.nullable(),
-    resultsDueAt: Timestamp.nullable(),
-    instructions: z.string().max(20000),
+    enrolmentClosesOn: roundFields.enrolmentClosesOn.unwrap(),
+    dispatchOn: roundFields.dispatchOn.unwrap(),
+    resultsDueAt: roundFields.resultsDueAt.unwrap(),
+    instructions: roundFields.instructions.unwrap(),
     protocolTemperatureC: roundFields.protocolTemperatureC.unwrap(),
     feeMinor: z.number().int().min(0).max(100_000_000),
     currency: z.string().trim().regex(/^[A-Z]{3}$/, { message: 'Use a 3-letter currency code (e.g. EUR).' }),
   })
   .partial()
-  .refine((r) => Object.keys(r).length > 0, { message: 'Change at least one field.' });
+  .refine((r) => Object.keys(r).length > 0, { message: 'Change at least one field.' })
+  .refine(datesInOrder, datesMessage);
 export type RoundUpdate = z.input<typeof RoundUpdate>;
 
 export const RoundSummary = z.object({
@@ -301,7 +304,7 @@ export type RoundDetail = z.infer<typeof RoundDetail>;
 
 export const TransitionRequest = z.object({
   to: RoundState,
-  reason: z.string().trim().max(2000).optional(),
+  reason: multiLine(2000, { trim: true }).optional(),
   /** Overrides a date rule (e.g. closing before results are due); needs a reason. */
   force: z.boolean().default(false),
 }).refine((t) => !t.force || (t.reason?.length ?? 0) >= 5, {
@@ -318,7 +321,7 @@ export const InvitationCreate = z
     organisationId: Id.nullable().default(null),
     email: Email,
     /** For a new lab: its name. */
-    labName: z.string().trim().min(2).max(200).nullable().default(null),
+    labName: singleLine(200, { min: 2, required: 'Enter the lab name.' }).nullable().default(null),
   })
   .refine((i) => i.organisationId !== null || i.labName !== null, {
     message: 'Name the new lab (or choose an existing one).',
@@ -402,20 +405,20 @@ export type Enrolment = z.infer<typeof Enrolment>;
 export const EnrolmentParams = z.object({ id: Id, enrolmentId: Id });
 
 export const Withdrawal = z.object({
-  reason: z.string().trim().min(5, { message: 'Give the reason (at least 5 characters).' }).max(2000),
+  reason: multiLine(2000, { trim: true }).min(5, { message: 'Give the reason (at least 5 characters).' }),
 });
 export type Withdrawal = z.input<typeof Withdrawal>;
 
 export const ExtensionGrant = z.object({
-  until: Timestamp,
-  reason: z.string().trim().min(5, { message: 'Give the reason (at least 5 characters).' }).max(2000),
+  until: boundedTimestamp('Extension'),
+  reason: multiLine(2000, { trim: true }).min(5, { message: 'Give the reason (at least 5 characters).' }),
 });
 export type ExtensionGrant = z.input<typeof ExtensionGrant>;
 
 export const DispatchInput = z.object({
-  courier: z.string().trim().min(1, { message: 'Enter the courier.' }).max(100),
-  trackingNumber: z.string().trim().min(1, { message: 'Enter the tracking number.' }).max(100),
-  dispatchedOn: DateOnly,
+  courier: singleLine(100, { min: 1, required: 'Enter the courier.' }),
+  trackingNumber: singleLine(100, { min: 1, required: 'Enter the tracking number.' }),
+  dispatchedOn: dateOnly('Dispatch date'),
 });
 export type DispatchInput = z.input<typeof DispatchInput>;
 
@@ -424,7 +427,7 @@ export type DispatchInput = z.input<typeof DispatchInput>;
 /** g items, each with m ≥ 2 replicate results in the measurand's unit. */
 export const HomogeneityData = z.object({
   items: z
-    .array(z.array(z.number().finite()).min(2, { message: 'Each item needs at least 2 replicates.' }).max(20))
+    .array(z.array(boundedNumber('measuredValue', { label: 'Result' })).min(2, { message: 'Each item needs at least 2 replicates.' }).max(20))
     .min(2, { message: 'At least 2 items are needed.' })
     .max(100)
     .refine((items) => items.every((r) => r.length === items[0]?.length), {
@@ -433,8 +436,8 @@ export const HomogeneityData = z.object({
 });
 
 export const StabilityData = z.object({
-  first: z.array(z.number().finite()).min(2, { message: 'At least 2 results before.' }).max(200),
-  second: z.array(z.number().finite()).min(2, { message: 'At least 2 results after.' }).max(200),
+  first: z.array(boundedNumber('measuredValue', { label: 'Result' })).min(2, { message: 'At least 2 results before.' }).max(200),
+  second: z.array(boundedNumber('measuredValue', { label: 'Result' })).min(2, { message: 'At least 2 results after.' }).max(200),
 });
 
 export const StudyInput = z.discriminatedUnion('kind', [
@@ -443,14 +446,14 @@ export const StudyInput = z.discriminatedUnion('kind', [
     testItemId: Id,
     measurandId: Id,
     /** σ_pt for the check; when omitted, taken from the measurand's fixed or percent rule. */
-    sigmaPt: z.number().positive({ message: 'σ_pt must be above 0.' }).nullable().default(null),
+    sigmaPt: boundedNumber('sigmaPt').nullable().default(null),
     data: HomogeneityData,
   }),
   z.object({
     kind: z.literal('stability'),
     testItemId: Id,
     measurandId: Id,
-    sigmaPt: z.number().positive({ message: 'σ_pt must be above 0.' }).nullable().default(null),
+    sigmaPt: boundedNumber('sigmaPt').nullable().default(null),
     data: StabilityData,
   }),
 ]);
@@ -484,6 +487,6 @@ export const StudyParams = z.object({ id: Id, studyId: Id });
 
 export const StudyDecision = z.object({
   decision: HomogeneityDecisionKind,
-  reason: z.string().trim().min(5, { message: 'Give the reason (at least 5 characters).' }).max(2000),
+  reason: multiLine(2000, { trim: true }).min(5, { message: 'Give the reason (at least 5 characters).' }),
 });
 export type StudyDecision = z.input<typeof StudyDecision>;

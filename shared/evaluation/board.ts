@@ -46,6 +46,7 @@ export function buildBoard(results: readonly ItemMeasurandEvaluation[]): BoardBo
       };
       if (p.hints.length > 0) cell.hints = p.hints.map((h) => h.code);
       if (p.excluded !== null) cell.excluded = true;
+      if (p.notScored) cell.notScored = p.notScored.message;
       row.cells[gi] = cell;
     }
   });

@@ -15,6 +15,8 @@ import type {
   ParticipantScore,
   SigmaPtRuleInput,
 } from '../contracts/evaluation';
+import { RANGES, type NumberRange } from '../contracts/ranges';
+import { replicateRange } from '../contracts/submission';
 import { algorithmA } from '../stats/algorithm-a';
 import { assignedValue as assignedValueByRule, isUncertaintyNegligible } from '../stats/assigned-value';
 import { blunderHints } from '../stats/blunder-hints';
@@ -102,6 +104,88 @@ function standardU(u: ReplicateUncertainty | null): { u: number; U: number } | n
   if (u.kind === 'standard') return { u: u.value, U: ASSIGNED_COVERAGE_FACTOR * u.value };
   const k = u.k && u.k > 0 ? u.k : ASSIGNED_COVERAGE_FACTOR;
   return { u: u.value / k, U: u.value };
+}
+
+/** Why a participant's stored data cannot be scored (shown with the participant, never a 500). */
+export type NotScored = NonNullable<ParticipantScore['notScored']>;
+
+const fmtValue = (v: number): string => (Number.isFinite(v) && Math.abs(v) < 1e6 && Math.abs(v) >= 1e-3 ? String(v) : v.toExponential(3));
+const inRange = (v: number, r: NumberRange): boolean =>
+  Number.isFinite(v) && v <= r.max && (r.minExclusive ? v > r.min : v >= r.min);
+const finiteOrNull = (v: number | null | undefined): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+
+/**
+ * The stored replicates of one participant that cannot enter the evaluation: a value outside the
+ * measurand's plausible range (shared/contracts/ranges.ts), e.g. data stored before a bound existed.
+ */
+function valueProblem(values: readonly number[], m: MeasurandInfo): NotScored | null {
+  const range = replicateRange(m) ?? RANGES.measuredValue;
+  const bad = values.find((v) => !inRange(v, range));
+  if (bad === undefined) return null;
+  return {
+    code: 'value-out-of-range',
+    message: `Not scored: the result ${fmtValue(bad)}${m.unit ? ' ' + m.unit : ''} is outside the plausible range (${range.label} ${range.min}–${range.max}); it is kept out of the assigned value.`,
+  };
+}
+
+/** The lab's uncertainty when it can enter ζ and En; otherwise why not. */
+function labUncertainty(u: ReplicateUncertainty | null): { lab: { u: number; U: number } | null; problem: NotScored | null } {
+  if (!u) return { lab: null, problem: null };
+  const lab = standardU(u);
+  const r = RANGES.uncertainty;
+  if (!lab || !inRange(u.value, r) || !Number.isFinite(lab.U) || !Number.isFinite(lab.u) || (u.k !== null && !inRange(u.k, RANGES.coverageFactor))) {
+    return {
+      lab: null,
+      problem: {
+        code: 'uncertainty-out-of-range',
+        message: `ζ and En not computed: the reported uncertainty ${fmtValue(u.value)}${u.k !== null ? ` (k = ${fmtValue(u.k)})` : ''} is outside the plausible range (above 0, at most ${r.max.toExponential()}).`,
+      },
+    };
+  }
+  return { lab, problem: null };
+}
+
+/** A score that is a finite number, else null (with the reason recorded by the caller). */
+function safeScore(f: () => number): number | null {
+  try {
+    return finiteOrNull(f());
+  } catch {
+    return null;
+  }
+}
+
+const NONE_CORE = (warning: string): Core => ({
+  method: 'none',
+  iterations: 0,
+  assignedValue: null,
+  robustSd: null,
+  uAssigned: null,
+  sigmaPt: null,
+  uNegligible: null,
+  warnings: [warning],
+});
+
+/** core() that never throws: a failure of the statistics leaves the group without x_pt and says so. */
+function safeCore(...args: Parameters<typeof core>): Core {
+  try {
+    const c = core(...args);
+    const xpt = finiteOrNull(c.assignedValue);
+    const sigma = finiteOrNull(c.sigmaPt);
+    return {
+      ...c,
+      assignedValue: xpt,
+      robustSd: finiteOrNull(c.robustSd),
+      uAssigned: finiteOrNull(c.uAssigned),
+      sigmaPt: sigma !== null && inRange(sigma, RANGES.sigmaPt) ? sigma : null,
+      warnings: [
+        ...c.warnings,
+        ...(c.assignedValue !== null && xpt === null ? ['assigned-value-not-finite'] : []),
+        ...(c.sigmaPt !== null && (sigma === null || !inRange(sigma, RANGES.sigmaPt)) ? ['sigma-pt-out-of-range'] : []),
+      ],
+    };
+  } catch {
+    return NONE_CORE('evaluation-failed');
+  }
 }
 
 interface Core {
@@ -197,48 +281,73 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
   const out: ItemMeasurandEvaluation[] = [];
   for (const item of input.items) {
     for (const m of input.measurands) {
+      const seen = new Set<string>();
+      let duplicates = 0;
       const rows = (byGroup.get(item.id + '\u0000' + m.id) ?? [])
         .map((r) => ({ ...r, values: r.values.filter((v) => typeof v === 'number' && Number.isFinite(v)) }))
         .filter((r) => r.values.length > 0)
-        .sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
+        .sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0))
+        // One result per participant: a repeated item or measurand in old stored data counts once (the first).
+        .filter((r) => (seen.has(r.code) ? (duplicates++, false) : (seen.add(r.code), true)));
       const valuesByCode = new Map(rows.map((r) => [r.code, r.values] as const));
-      const included = rows.filter((r) => !excluded.has(`${r.code}\u0000${item.code}\u0000${m.key}`)).map((r) => r.code);
+      const problems = new Map<string, NotScored>();
+      for (const r of rows) {
+        const p = valueProblem(r.values, m);
+        if (p) problems.set(r.code, p);
+      }
+      const included = rows
+        .filter((r) => !excluded.has(`${r.code}\u0000${item.code}\u0000${m.key}`) && !problems.has(r.code))
+        .map((r) => r.code);
       const sigmaRule = sigmaRuleFor(m, item.code, settings);
-      const c = core(included, valuesByCode, m.assignedValueRule, sigmaRule, m.minParticipants);
+      const c = safeCore(included, valuesByCode, m.assignedValueRule, sigmaRule, m.minParticipants);
+      if (duplicates > 0) c.warnings.push('duplicate-results-ignored');
       const xpt = c.assignedValue;
       const sigma = c.sigmaPt;
       const u = c.uAssigned;
-      const scoreKind = c.uNegligible === false ? 'zPrime' : 'z';
+      const scoreKind: ParticipantScore['scoreKind'] = c.uNegligible === false ? 'zPrime' : 'z';
       const zpDen = sigma === null || u === null ? null : Math.sqrt(sigma * sigma + u * u);
       const participants: ParticipantScore[] = rows.map((r) => {
-        const { mean: x, sd } = replicateStats(r.values);
-        const z = xpt === null || sigma === null ? null : (x - xpt) / sigma;
-        const zPrime = xpt === null || zpDen === null ? null : (x - xpt) / zpDen;
-        const lab = standardU(r.uncertainty);
+        const stats = replicateStats(r.values);
+        const x = Number.isFinite(stats.mean) ? stats.mean : r.values[0]!;
+        const sd = finiteOrNull(stats.sd);
+        const ex = excluded.get(`${r.code}\u0000${item.code}\u0000${m.key}`) ?? null;
+        const valueIssue = problems.get(r.code) ?? null;
+        const { lab, problem: uIssue } = labUncertainty(r.uncertainty);
+        const base = { code: r.code, result: x, replicates: r.values.length, replicateSd: sd, scoreKind, hints: [] as ParticipantScore['hints'], excluded: ex };
+        if (valueIssue) {
+          return { ...base, u: lab?.u ?? null, z: null, zPrime: null, zeta: null, en: null, d: null, dPct: null, signal: null, notScored: valueIssue };
+        }
+        const z = xpt === null || sigma === null ? null : safeScore(() => (x - xpt) / sigma);
+        const zPrime = xpt === null || zpDen === null ? null : safeScore(() => (x - xpt) / zpDen);
         let zeta: number | null = null;
         let en: number | null = null;
         if (lab && xpt !== null && u !== null) {
-          zeta = zetaScore(x, xpt, lab.u, u);
-          en = enNumber(x, xpt, lab.U, ASSIGNED_COVERAGE_FACTOR * u);
+          zeta = safeScore(() => zetaScore(x, xpt, lab.u, u));
+          en = safeScore(() => enNumber(x, xpt, lab.U, ASSIGNED_COVERAGE_FACTOR * u));
+        }
+        let notScored: NotScored | null = uIssue;
+        if (!notScored && lab && xpt !== null && u !== null && (zeta === null || en === null)) {
+          notScored = { code: 'score-not-computable', message: 'ζ and En not computed: the uncertainties give no finite score.' };
         }
         const governing = scoreKind === 'z' ? z : zPrime;
-        const ex = excluded.get(`${r.code}\u0000${item.code}\u0000${m.key}`) ?? null;
+        if (!notScored && xpt !== null && sigma === null && c.warnings.includes('sigma-pt-out-of-range')) {
+          notScored = { code: 'sigma-pt-out-of-range', message: `Not scored: σ_pt is outside the plausible range (${RANGES.sigmaPt.min}–${RANGES.sigmaPt.max}); check the σ_pt rule.` };
+        }
+        if (!notScored && xpt !== null && (scoreKind === 'z' ? sigma : zpDen) !== null && governing === null) {
+          notScored = { code: 'score-not-computable', message: 'Not scored: the result and σ_pt give no finite score.' };
+        }
+        const d = xpt === null ? null : finiteOrNull(x - xpt);
         return {
-          code: r.code,
-          result: x,
-          replicates: r.values.length,
-          replicateSd: sd,
+          ...base,
           u: lab?.u ?? null,
           z,
           zPrime,
           zeta,
           en,
-          d: xpt === null ? null : x - xpt,
-          dPct: xpt === null || xpt === 0 ? null : (100 * (x - xpt)) / xpt,
-          scoreKind,
+          d,
+          dPct: xpt === null || xpt === 0 || d === null ? null : finiteOrNull((100 * d) / xpt),
           signal: governing === null ? null : signalFor(governing, scoreKind),
-          hints: [],
-          excluded: ex,
+          ...(notScored ? { notScored } : {}),
         };
       });
       out.push({
@@ -279,13 +388,19 @@ function addHints(groups: ItemMeasurandEvaluation[]): void {
     const pdiGroup = groups.find((o) => o.testItemId === g.testItemId && o.measurandKey === 'pdi');
     const pdiByCode = new Map(pdiGroup?.participants.map((p) => [p.code, p.result]) ?? []);
     for (const p of g.participants) {
-      const hints = blunderHints({
+      if (p.notScored?.code === 'value-out-of-range') continue;
+      let hints: ReturnType<typeof blunderHints> = [];
+      try {
+        hints = blunderHints({
         result: p.result,
         assignedValue: g.assignedValue,
         sigmaPt: g.sigmaPt ?? undefined,
         pdi: pdiByCode.get(p.code),
         assignedPdi: pdiGroup?.assignedValue ?? undefined,
-      });
+        });
+      } catch {
+        hints = [];
+      }
       (p as { hints: ParticipantScore['hints'] }).hints = hints.map((h) => ({ code: h.code, message: h.message }));
     }
   }

@@ -92,3 +92,54 @@ describe('run rules for the Track record', () => {
     expect(runRules(pts([3.1])).map((f) => f.rule)).toEqual(['action-signal']);
   });
 });
+
+describe('evaluateRecord on stored data outside the bounds (never throws, reasons per participant)', () => {
+  it('counts a participant named twice for one item × measurand once, and says so', () => {
+    const inp = input(20);
+    const first = inp.replicates.find((r) => r.testItemId === 'T1' && r.measurandId === 'z-average')!;
+    const twice = { ...inp, replicates: [...inp.replicates, { ...first, values: first.values.map((v) => v * 5) }] };
+    const g = evaluateRecord(twice).find((x) => x.itemCode === 'T1' && x.measurandKey === 'z-average')!;
+    const ref = evaluateRecord(inp).find((x) => x.itemCode === 'T1' && x.measurandKey === 'z-average')!;
+    expect(g.n).toBe(20);
+    expect(g.participants).toHaveLength(20);
+    expect(g.assignedValue).toBe(ref.assignedValue);
+    expect(g.warnings).toContain('duplicate-results-ignored');
+  });
+
+  it('reports ζ and En as not computed for an uncertainty of 1e308 and keeps z', () => {
+    const inp = input(20);
+    const replicates = inp.replicates.map((r) => ({ ...r, uncertainty: { kind: 'expanded' as const, value: 4, k: 2 } }));
+    const target = replicates.find((r) => r.testItemId === 'T1' && r.measurandId === 'z-average')!;
+    (target as { uncertainty: unknown }).uncertainty = { kind: 'standard', value: 1e308, k: null };
+    const g = evaluateRecord({ ...inp, replicates }).find((x) => x.itemCode === 'T1' && x.measurandKey === 'z-average')!;
+    const p = g.participants.find((x) => x.code === target.code)!;
+    expect([p.zeta, p.en, p.notScored?.code]).toEqual([null, null, 'uncertainty-out-of-range']);
+    expect(p.z).not.toBeNull();
+    expect(g.participants.filter((x) => x.en === null)).toHaveLength(1);
+  });
+
+  it('keeps a diameter of 1e308 nm and one of 1e-300 nm out of x_pt, each with a reason', () => {
+    const inp = input(20);
+    const group = inp.replicates.filter((r) => r.testItemId === 'T2' && r.measurandId === 'z-average');
+    const [a, b] = group;
+    const replicates = inp.replicates.map((r) => (r === a ? { ...r, values: [1e308, 1e308, -1e308] } : r === b ? { ...r, values: [1e-300] } : r));
+    const g = evaluateRecord({ ...inp, replicates }).find((x) => x.itemCode === 'T2' && x.measurandKey === 'z-average')!;
+    expect(g.n).toBe(18);
+    expect(Number.isFinite(g.assignedValue!)).toBe(true);
+    for (const code of [a!.code, b!.code]) {
+      const p = g.participants.find((x) => x.code === code)!;
+      expect([p.z, p.signal, p.notScored?.code]).toEqual([null, null, 'value-out-of-range']);
+      expect(Number.isFinite(p.result)).toBe(true);
+    }
+    expect(() => buildBoard(evaluateRecord({ ...inp, replicates }))).not.toThrow();
+  });
+
+  it('reports a stored σ_pt of 1e-320 per participant instead of throwing', () => {
+    const inp = input(20);
+    const measurands = inp.measurands.map((m) => (m.key === 'pdi' ? { ...m, sigmaPtRule: { kind: 'fixed' as const, value: 1e-320 } } : m));
+    const g = evaluateRecord({ ...inp, measurands }).find((x) => x.itemCode === 'T1' && x.measurandKey === 'pdi')!;
+    expect(g.sigmaPt).toBeNull();
+    expect(g.warnings).toContain('sigma-pt-out-of-range');
+    expect(g.participants.every((p) => p.z === null && p.notScored?.code === 'sigma-pt-out-of-range')).toBe(true);
+  });
+});

@@ -19,6 +19,7 @@ const fmt = (v: number, decimals: number) => v.toFixed(Math.max(0, Math.min(6, d
 export function explainScore(s: ParticipantScore, c: ExplainContext): string[] {
   const out: string[] = [];
   const unit = c.unit ? ` ${c.unit}` : '';
+  if (s.notScored?.code === 'value-out-of-range') return [s.notScored.message];
   if (c.assignedValue === null || c.sigmaPt === null) {
     out.push('No score could be given for this measurand: the assigned value or σ_pt could not be set (see the round report).');
     return out;
@@ -63,6 +64,7 @@ export function explainScore(s: ParticipantScore, c: ExplainContext): string[] {
         (Math.abs(s.en) <= 1 ? 'within ±1, consistent with the assigned value.' : 'beyond ±1, the difference is not covered by the uncertainties.'),
     );
   }
+  if (s.notScored) out.push(s.notScored.message);
   for (const h of s.hints) out.push(`Hint: ${h.message}`);
   if (s.excluded) {
     out.push(`This result was kept out of the assigned value (${s.excluded.reason}); it is still scored against it.`);

@@ -1,6 +1,8 @@
 import { Router, type NextFunction, type Request, type Response } from 'express';
 import type { ZodType, z } from 'zod';
 import type { Role } from '../../../shared/contracts/auth';
+import type { FieldIssue } from '../../../shared/contracts/common';
+import { textProblem } from '../../../shared/contracts/ranges';
 import { forgetSessionUsers } from '../auth/passport';
 import type { SessionUser } from '../auth/session-user';
 import { describe, fieldIssues, forbidden, HttpError, unauthorized } from './errors';
@@ -68,6 +70,42 @@ function checkAccess(access: Access, req: Request): void {
   if (!hasAnyRole(user, access)) throw forbidden();
 }
 
+/** Depth past which a request is refused rather than walked (no request schema nests this deep). */
+const MAX_DEPTH = 32;
+
+/**
+ * The one text rule at the edge: no string anywhere in the body, query or path (values and keys)
+ * may hold a control character other than tab, line feed and carriage return, or a lone UTF-16
+ * surrogate (shared/contracts/ranges.ts textProblem). Answers the first offending field's path.
+ * Iterative, so a deeply nested body cannot exhaust the stack.
+ */
+export function findTextProblem(value: unknown, where: string): FieldIssue | null {
+  const stack: { v: unknown; path: string[]; depth: number }[] = [{ v: value, path: [], depth: 0 }];
+  const name = (path: string[]) => [where === 'body' ? undefined : where, ...path].filter(Boolean).join('.') || '(body)';
+  while (stack.length > 0) {
+    const { v, path, depth } = stack.pop()!;
+    if (typeof v === 'string') {
+      const p = textProblem(v);
+      if (p) return { path: name(path), message: p };
+      continue;
+    }
+    if (v === null || typeof v !== 'object') continue;
+    if (depth >= MAX_DEPTH) return { path: name(path), message: `Nested more than ${MAX_DEPTH} levels deep.` };
+    // Pushed in reverse so the first offending field in document order is the one named.
+    for (const [k, child] of Object.entries(v as Record<string, unknown>).reverse()) {
+      const p = textProblem(k);
+      if (p) return { path: name([...path, '(a field name)']), message: p };
+      stack.push({ v: child, path: [...path, k], depth: depth + 1 });
+    }
+  }
+  return null;
+}
+
+function checkText(value: unknown, where: string): void {
+  const issue = findTextProblem(value, where);
+  if (issue) throw new HttpError(400, 'validation_failed', describe([issue]), [issue]);
+}
+
 function parsePart(schema: ZodType | undefined, value: unknown, where: string): unknown {
   if (!schema) return undefined;
   const r = schema.safeParse(value ?? {});
@@ -100,6 +138,9 @@ export class ApiRouter {
         if (stateChanging && !def.csrfExempt && !this.deps.isCsrfValid(req)) {
           throw new HttpError(403, 'csrf_invalid', 'The form expired. Reload the page and try again.');
         }
+        checkText(req.params, 'params');
+        checkText(req.query, 'query');
+        checkText(req.body, 'body');
         const params = parsePart(def.params, req.params, 'params');
         const query = parsePart(def.query, req.query, 'query');
         const body = parsePart(def.body, req.body, 'body');

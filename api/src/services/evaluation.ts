@@ -45,6 +45,22 @@ interface VersionRow {
   data: { items?: { testItemId: string; results?: { measurandId: string; replicates?: (number | null)[]; uncertainty?: ReplicateInput['uncertainty'] }[] }[] };
 }
 
+/** A stored uncertainty in the shape the evaluation reads (anything else: none). */
+function storedUncertainty(u: unknown): ReplicateInput['uncertainty'] {
+  if (!u || typeof u !== 'object') return null;
+  const { kind, value, k } = u as { kind?: unknown; value?: unknown; k?: unknown };
+  if ((kind !== 'standard' && kind !== 'expanded') || typeof value !== 'number') return null;
+  return { kind, value, k: typeof k === 'number' ? k : null };
+}
+
+/** Stored settings as the view shows them; settings stored before a bound existed are shown as stored. */
+function storedSettings(raw: unknown): EvaluationSettings {
+  const r = EvaluationSettings.safeParse(raw ?? {});
+  if (r.success) return r.data;
+  const o = (raw ?? {}) as Partial<EvaluationSettings>;
+  return { sigmaPtOverrides: Array.isArray(o.sigmaPtOverrides) ? o.sigmaPtOverrides : [], exclusions: Array.isArray(o.exclusions) ? o.exclusions : [] };
+}
+
 /**
  * The round's items, measurands and the replicates of every enrolled lab's current submitted
  * version (drafts are never evaluated).
@@ -65,14 +81,20 @@ export async function loadRoundInput(em: EntityManager, roundId: string): Promis
   const itemIds = new Set(items.map((i) => i.id));
   const measurandIds = new Set(measurands.map((m) => m.id));
   const replicates: ReplicateInput[] = [];
+  // One result per participant × item × measurand: versions stored before duplicates were refused
+  // may name an item or a measurand twice; the first counts (never an extra participant).
+  const seen = new Set<string>();
   for (const r of rows) {
-    for (const it of r.data.items ?? []) {
-      if (!itemIds.has(it.testItemId)) continue;
-      for (const res of it.results ?? []) {
-        if (!measurandIds.has(res.measurandId)) continue;
-        const values = (res.replicates ?? []).filter((v): v is number => typeof v === 'number' && Number.isFinite(v));
+    for (const it of Array.isArray(r.data?.items) ? r.data.items : []) {
+      if (!it || !itemIds.has(it.testItemId)) continue;
+      for (const res of Array.isArray(it.results) ? it.results : []) {
+        if (!res || !measurandIds.has(res.measurandId)) continue;
+        const key = `${r.participant_code}/${it.testItemId}/${res.measurandId}`;
+        if (seen.has(key)) continue;
+        seen.add(key);
+        const values = (Array.isArray(res.replicates) ? res.replicates : []).filter((v): v is number => typeof v === 'number' && Number.isFinite(v));
         if (values.length === 0) continue;
-        replicates.push({ code: r.participant_code, testItemId: it.testItemId, measurandId: res.measurandId, values, uncertainty: res.uncertainty ?? null });
+        replicates.push({ code: r.participant_code, testItemId: it.testItemId, measurandId: res.measurandId, values, uncertainty: storedUncertainty(res.uncertainty) });
       }
     }
   }
@@ -237,7 +259,7 @@ async function view(em: EntityManager, e: Evaluation): Promise<EvaluationView> {
     roundState: round.state,
     version: e.version,
     state: e.state,
-    settings: EvaluationSettings.parse(e.settings ?? {}),
+    settings: storedSettings(e.settings),
     softwareVersion: e.softwareVersion,
     reissueReason: e.reissueReason,
     createdAt: e.createdAt.toISOString(),

@@ -1,10 +1,12 @@
 import type { EntityManager } from 'typeorm';
 import { Measurand, Submission, TestItem } from '../../../db/entities';
 import type { DraftSave, DraftSaved, SubmissionVersionDto, SubmissionView, SubmitRequest, SubmitResult } from '../../../shared/contracts/bench';
-import { SubmissionData } from '../../../shared/contracts/submission';
+import type { FieldIssue } from '../../../shared/contracts/common';
+import { rangeText } from '../../../shared/contracts/ranges';
+import { readStoredSubmission, replicateRange, SubmissionData } from '../../../shared/contracts/submission';
 import { checkResults, instrumentCheckNotice, type RoundRules } from '../../../shared/bench/submission-checks';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, ruleBroken } from '../http/errors';
+import { badRequest, conflict, fieldIssues, ruleBroken } from '../http/errors';
 import { audit } from './audit';
 import { findEnrolment, lockState } from './bench';
 import type { AppContext } from './context';
@@ -44,7 +46,7 @@ const VERSION_SELECT = `SELECT v.version, v.data, v.submitted_at, u.name AS subm
 function versionDto(r: VersionRow): SubmissionVersionDto {
   return {
     version: r.version,
-    data: SubmissionData.parse(r.data),
+    data: readStoredSubmission(r.data),
     submittedAt: r.submitted_at.toISOString(),
     submittedBy: r.submitted_by_name,
     note: r.note,
@@ -73,7 +75,7 @@ export async function getSubmission(ctx: AppContext, labId: string, roundId: str
   const versions: VersionRow[] = sub ? await em.query(`${VERSION_SELECT} WHERE v.submission_id = $1 ORDER BY v.version DESC`, [sub.id]) : [];
   return {
     state: sub ? sub.state : 'none',
-    draft: SubmissionData.parse(sub?.draft ?? {}),
+    draft: readStoredSubmission(sub?.draft),
     draftRevision: sub?.draftRevision ?? 0,
     savedAt: sub && sub.draftRevision > 0 ? sub.updatedAt.toISOString() : null,
     currentVersion: sub?.currentVersion ?? 0,
@@ -83,6 +85,38 @@ export async function getSubmission(ctx: AppContext, labId: string, roundId: str
   };
 }
 
+/** The saved draft as the submit reads it: a draft saved before a bound existed is refused with 400 naming the field. */
+function savedDraft(raw: unknown): SubmissionData {
+  const r = SubmissionData.safeParse(raw ?? {});
+  if (!r.success) {
+    const details = fieldIssues(r.error, 'data');
+    throw badRequest(`${details[0]!.path}: ${details[0]!.message} (in the saved draft; correct it and save again)`, details);
+  }
+  return r.data;
+}
+
+/**
+ * Replicates outside their measurand's plausible range (diameters in nm, PDI 0–1; see
+ * shared/contracts/ranges.ts), as 400 field issues naming `data.items.i.results.j.replicates.k`.
+ */
+export function replicatesOutOfRange(data: SubmissionData, rules: RoundRules): FieldIssue[] {
+  const byId = new Map(rules.measurands.map((m) => [m.id, m] as const));
+  const issues: FieldIssue[] = [];
+  data.items.forEach((it, i) =>
+    it.results.forEach((res, j) => {
+      const m = byId.get(res.measurandId);
+      const range = m ? replicateRange(m) : null;
+      if (!range) return;
+      res.replicates.forEach((v, k) => {
+        if (v === null) return;
+        const ok = v <= range.max && ('minExclusive' in range && range.minExclusive ? v > range.min : v >= range.min);
+        if (!ok) issues.push({ path: `data.items.${i}.results.${j}.replicates.${k}`, message: `${m!.name} must be ${rangeText(range)}.` });
+      });
+    }),
+  );
+  return issues;
+}
+
 function assertOpen(lock: ReturnType<typeof lockState>): void {
   if (!lock.isOpen) throw conflict('submission_locked', `Results can no longer change: ${lock.reason}`);
 }
@@ -90,7 +124,8 @@ function assertOpen(lock: ReturnType<typeof lockState>): void {
 /**
  * PUT /rounds/{id}/submission: saves the working copy as the lab types. `baseRevision` must be the
  * revision the client last saw; otherwise 409 draft_conflict (another tab or colleague saved since).
- * Drafts keep what was typed, even a value the submit would refuse, so nothing is lost.
+ * Drafts keep what was typed, even a value the submit would refuse by the round's rules, so nothing
+ * is lost; a value outside the plausible ranges (shared/contracts/ranges.ts) is refused already here.
  */
 export async function saveDraft(ctx: AppContext, actor: SessionUser, labId: string, roundId: string, input: DraftSave): Promise<DraftSaved> {
   return ctx.ds.transaction(async (em) => {
@@ -147,12 +182,14 @@ export async function submit(ctx: AppContext, actor: SessionUser, labId: string,
     const lock = lockState(round, fresh);
     assertOpen(lock);
 
-    const data = input.data ?? SubmissionData.parse(sub.draft ?? {});
+    const data = input.data ?? savedDraft(sub.draft);
     const rules = await roundRules(em, roundId, round.protocolTemperatureC);
     const outcome = checkResults(data, rules, true);
     if (outcome.errors.length) {
       throw ruleBroken('results_invalid', `${outcome.errors[0]!.path}: ${outcome.errors[0]!.message}`, outcome.errors);
     }
+    const outOfRange = replicatesOutOfRange(data, rules);
+    if (outOfRange.length) throw badRequest(`${outOfRange[0]!.path}: ${outOfRange[0]!.message}`, outOfRange);
     if (outcome.unacknowledged.length) {
       throw ruleBroken(
         'warnings_unacknowledged',

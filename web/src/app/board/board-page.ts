@@ -164,7 +164,7 @@ export class BoardPage implements OnInit {
             valueGetter: (p) => {
               const c = cell(p.data);
               if (!c) return '';
-              return [...(c.hints ?? []).map((h) => HINT_WORDS[h] ?? h), ...(c.excluded ? ['excluded from x_pt'] : [])].join('; ');
+              return [...(c.notScored ? [c.notScored] : []), ...(c.hints ?? []).map((h) => HINT_WORDS[h] ?? h), ...(c.excluded ? ['excluded from x_pt'] : [])].join('; ');
             },
           },
         ],

@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { Attachment, Submission, TestItem } from '../../../db/entities';
 import type { AttachmentDto, Reanalysis } from '../../../shared/contracts/bench';
-import { SubmissionData } from '../../../shared/contracts/submission';
+import { readStoredSubmission } from '../../../shared/contracts/submission';
 import { ATTACHMENT_LIMIT, formatBytes, formatCount } from '../../../shared/contracts/upload-limits';
 import { cumulantsFit, parseCorrelationCsv, waterRefractiveIndex, waterViscosity, type CorrelationData } from '../../../shared/dls';
 import { mean } from '../../../shared/stats/descriptive';
@@ -180,7 +180,7 @@ export async function uploadAttachment(
     const sub = await lockSubmission(em, enrolment.id);
     let reanalysis: Reanalysis | null = null;
     if (type.kind === 'correlation-csv') {
-      const draft = SubmissionData.parse(sub.draft ?? {});
+      const draft = readStoredSubmission(sub.draft);
       const item = draft.items.find((i) => i.testItemId === testItemId) ?? (testItemId ? undefined : draft.items[0]);
       const ids: { id: string; key: string }[] = await em.query(`SELECT id, key FROM measurand WHERE round_id = $1`, [roundId]);
       const meanOf = (key: string) => {

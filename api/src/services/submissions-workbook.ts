@@ -1,7 +1,7 @@
 import ExcelJS from 'exceljs';
 import type { SheetIssue, WorkbookUploadResult } from '../../../shared/contracts/bench';
 import { SAFETY_CAUTIONS } from '../../../shared/contracts/bench';
-import { ItemResults, MeasurementConditions, SubmissionData, Uncertainty } from '../../../shared/contracts/submission';
+import { ItemResults, MeasurementConditions, readStoredSubmission, SubmissionData, Uncertainty } from '../../../shared/contracts/submission';
 import { checkResults } from '../../../shared/bench/submission-checks';
 import type { SessionUser } from '../auth/session-user';
 import { conflict, HttpError, ruleBroken } from '../http/errors';
@@ -46,7 +46,7 @@ export async function buildTemplate(ctx: AppContext, labId: string, roundId: str
   const { round, enrolment } = await findEnrolment(em, labId, roundId);
   const rules = await roundRules(em, roundId, round.protocolTemperatureC);
   const sub = await em.query(`SELECT draft FROM submission WHERE enrolment_id = $1`, [enrolment.id]);
-  const draft = SubmissionData.parse(sub[0]?.draft ?? {});
+  const draft = readStoredSubmission(sub[0]?.draft);
   const runs = Math.max(1, ...rules.measurands.map((m) => m.replicatesRequired));
 
   const wb = new ExcelJS.Workbook();
@@ -242,7 +242,7 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
     const lock = lockState(r2, enrolment);
     if (!lock.isOpen) throw conflict('submission_locked', `Results can no longer change: ${lock.reason}`);
     const sub = await lockSubmission(tx, enrolment.id);
-    const previous = SubmissionData.parse(sub.draft ?? {});
+    const previous = readStoredSubmission(sub.draft);
     const data: SubmissionData = SubmissionData.parse({
       items: items.filter((i) => i.results.length > 0),
       acknowledgedWarnings: previous.acknowledgedWarnings,

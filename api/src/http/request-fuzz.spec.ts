@@ -247,9 +247,13 @@ describe('fuzzing every request schema', () => {
         WHERE table_schema = 'public' AND table_type = 'BASE TABLE' AND table_name NOT IN ('session', 'rate_limit', 'migrations')
         ORDER BY table_name`,
     )) as { t: string }[];
+    // A refused sign-in is meant to leave a trace: the audit rows of refusals are left out.
+    const refusals = `r.action NOT IN ('auth.sign-in-failed', 'auth.sign-in-refused', 'auth.locked-out', 'auth.rate-limited')`;
     checksumSql =
       'SELECT md5(' +
-      tables.map((x) => `coalesce((SELECT md5(string_agg(r::text, '|' ORDER BY r::text)) FROM ${x.t} r), '-')`).join(` || `) +
+      tables
+        .map((x) => `coalesce((SELECT md5(string_agg(r::text, '|' ORDER BY r::text)) FROM ${x.t} r${x.t === 'audit_event' ? ` WHERE ${refusals}` : ''}), '-')`)
+        .join(` || `) +
       ') AS sum';
     last = await checksum();
     routes = t.routes.filter((r) => !isMultipart(r) && !r.produces && (r.body || r.query));

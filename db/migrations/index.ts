@@ -4,6 +4,7 @@ import { RoundDesk1764640800000 } from './1764640800000-round-desk';
 import { LabBench1764644400000 } from './1764644400000-lab-bench';
 import { Evaluation1764648000000 } from './1764648000000-evaluation';
 import { Reports1764651600000 } from './1764651600000-reports';
+import { ProviderProfile1764900000600 } from './1764900000600-provider-profile';
 
 /** Every migration in order. Add new ones at the end (see DEVELOPERS.md, "Migrations"). */
-export const migrations = [Foundation1764633600000, Rounds1764637200000, RoundDesk1764640800000, LabBench1764644400000, Evaluation1764648000000, Reports1764651600000];
+export const migrations = [Foundation1764633600000, Rounds1764637200000, RoundDesk1764640800000, LabBench1764644400000, Evaluation1764648000000, Reports1764651600000, ProviderProfile1764900000600];

@@ -1,4 +1,5 @@
 import 'reflect-metadata';
+import { providerName } from './services/provider';
 import { createDataSource, databaseUrl } from '../../db/data-source';
 import { createApp } from './app';
 import { hasOutbox, readConfig } from './config';
@@ -20,7 +21,7 @@ async function main(): Promise<void> {
     await seedDemo(ds, demoPassword, config.publicUrl);
   }
   const fake = hasOutbox(config.mode) && !config.smtp ? await startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
-  const smtpMailer = createMailer(config, fake ?? undefined);
+  const smtpMailer = createMailer(config, fake ?? undefined, { providerName: () => providerName(ds.manager) });
   // The PostgreSQL-backed job queue: mail retries and round reminders (shared by every instance).
   const jobs = await startJobs({
     connectionString: config.databaseUrl ?? databaseUrl(),

@@ -38,7 +38,7 @@ export async function buildCertificatePdf(input: ParticipantReportInput): Promis
   const items = input.items.map((i) => i.code).join(', ');
   const measurands = input.measurands.map((m) => m.name).join(', ');
   write(doc, `Test items: ${items}. Measurands: ${measurands}.`, { ...c, size: 10.5, gap: 4 });
-  write(doc, `Evaluation version ${input.evaluation.version}${input.evaluation.publishedAt ? `, published ${input.evaluation.publishedAt.slice(0, 10)}` : ''}. Issued ${input.generatedAt.slice(0, 10)}.`, { ...c, size: 10.5, gap: 14 });
+  write(doc, `Evaluation version ${input.evaluation.version}. Issued ${input.evaluation.publishedAt ? input.evaluation.publishedAt.slice(0, 10) : 'not yet (preview)'}; this file made ${input.generatedAt.slice(0, 10)}.`, { ...c, size: 10.5, gap: 14 });
   if (input.evaluation.reissueReason) write(doc, `Reissued: ${input.evaluation.reissueReason}`, { ...c, size: 10, colour: PALETTE.carmine, gap: 8 });
   write(doc, 'This certificate confirms participation only; the laboratory’s performance is shown in its individual report.', { ...c, size: 9.5, colour: PALETTE.grey, gap: 4 });
   if (p.authoriserName) write(doc, `Authorised by ${p.authoriserName}${p.authoriserRole ? `, ${p.authoriserRole}` : ''}.`, { ...c, size: 10, gap: 4 });

@@ -30,7 +30,8 @@ export async function buildCertificatePdf(input: ParticipantReportInput): Promis
     });
   }
   write(doc, p.name || 'PT provider (name not yet set in the provider profile)', { ...c, y: 90, size: 13, bold: true, colour: PALETTE.teal, gap: 10 });
-  write(doc, 'Certificate of participation', { ...c, size: 30, bold: true, colour: PALETTE.ink, gap: 18 });
+  doc.outline.addItem('Certificate of participation');
+  write(doc, 'Certificate of participation', { ...c, size: 30, bold: true, colour: PALETTE.ink, gap: 18, tag: 'H1' });
   write(doc, 'This certifies that', { ...c, size: 12, gap: 6 });
   write(doc, input.labName, { ...c, size: 20, bold: true, gap: 6 });
   write(doc, `took part, with participant code ${input.participantCode}, in round ${input.round.code} (${input.round.title})`, { ...c, size: 12, gap: 4 });

@@ -155,9 +155,37 @@ export function heading(doc: Doc, text: string, level: 1 | 2 | 3 = 1): void {
   write(doc, text, { size, bold: true, colour: PALETTE.ink, gap: 4, tag: `H${level}` });
 }
 
-/** A chart or picture: a Figure with its text alternative. */
-export function figure(doc: Doc, alt: string, draw: () => void): void {
+export interface PlotArea {
+  /** 0-based page index. */
+  page: number;
+  x: number;
+  y: number;
+  width: number;
+  height: number;
+}
+
+/**
+ * Where the charts' plot areas landed (PDF points from the top left), recorded only while a
+ * test turns it on: the page-rendering test checks that no flowing text lands inside one.
+ */
+export const layoutProbe: { enabled: boolean; plots: PlotArea[] } = { enabled: false, plots: [] };
+
+/** A chart or picture: a Figure with its text alternative (and, for a chart, its plot area). */
+export function figure(doc: Doc, alt: string, draw: () => void, plot?: Omit<PlotArea, 'page'>): void {
   tagged(doc, 'Figure', draw, { alt: printable(alt) });
+  if (plot && layoutProbe.enabled) {
+    const range = doc.bufferedPageRange();
+    layoutProbe.plots.push({ page: range.start + range.count - 1, ...plot });
+  }
+}
+
+/** The plot area (inside the axes) of an ECharts option drawn at (x, y), `width` points wide from an svgW × svgH rendering. */
+export function plotArea(option: Record<string, unknown>, svgW: number, svgH: number, x: number, y: number, width: number): Omit<PlotArea, 'page'> {
+  const g = (option['grid'] ?? {}) as { left?: number; right?: number; top?: number; bottom?: number };
+  const k = width / svgW;
+  const left = g.left ?? 0;
+  const top = g.top ?? 0;
+  return { x: x + left * k, y: y + top * k, width: (svgW - left - (g.right ?? 0)) * k, height: (svgH - top - (g.bottom ?? 0)) * k };
 }
 
 /** Starts a new page when less than `points` of height remain. */

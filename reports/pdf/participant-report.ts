@@ -9,7 +9,7 @@ import { trackRecordOption } from '../charts/options';
 import { renderChartSvg } from '../charts/render';
 import { mainScore, type ParticipantReportInput, type ReportGroup } from '../model';
 import { fixed, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
-import { createDoc, figure, finishDoc, heading, MARGIN, table, write, type Doc } from './document';
+import { createDoc, figure, finishDoc, heading, MARGIN, plotArea, table, write, type Doc } from './document';
 import { closingSections, cover, docDates, drawGroupCharts, footerText } from './round-report';
 import { drawSvg } from './svg';
 
@@ -87,9 +87,11 @@ export async function buildParticipantReportPdf(input: ParticipantReportInput): 
   else {
     const y = doc.y + 4;
     let h = 0;
+    const option = trackRecordOption(input.track);
+    const width = doc.page.width - 2 * MARGIN;
     figure(doc, `Track record of participant ${input.participantCode}: its z-scores per round and item, with the warning (±2) and action (±3) limits.`, () => {
-      h = drawSvg(doc, renderChartSvg(trackRecordOption(input.track), 600, 280), MARGIN, y, doc.page.width - 2 * MARGIN);
-    });
+      h = drawSvg(doc, renderChartSvg(option, 600, 280), MARGIN, y, width);
+    }, plotArea(option, 600, 280, MARGIN, y, width));
     doc.y = y + h + 8;
     doc.x = MARGIN;
     const far = input.track.flatMap((t) => t.points.filter((p) => Math.abs(p.z) > 4).map((p) => `${p.roundCode} ${p.itemCode} ${t.measurandName} ${p.z.toFixed(SCORE_DECIMALS)}`));

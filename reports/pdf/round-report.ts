@@ -10,7 +10,7 @@ import { renderChartSvg } from '../charts/render';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
 import { METHOD_WORDS, recordChecksum, reportStatusWords, sigmaPtRuleWords, type ReportGroup, type ReportStudy, type RoundReportInput } from '../model';
 import { fixed, hintWords, HINT_WORDS, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
-import { artifact, banner, createDoc, ensureSpace, figure, finishDoc, heading, MARGIN, table, wrapTable, write, type Doc } from './document';
+import { artifact, banner, createDoc, ensureSpace, figure, finishDoc, heading, MARGIN, plotArea, table, wrapTable, write, type Doc } from './document';
 import { drawSvg } from './svg';
 
 export const CONFIDENTIALITY =
@@ -263,12 +263,14 @@ export function drawGroupCharts(doc: Doc, g: ReportGroup, highlight?: string, ow
   let h1 = 0;
   let h2 = 0;
   const u = g.unit ? ` ${g.unit}` : '';
+  const dist = distributionOption(g, ownResult);
+  const bars = scoreBarOption(g, highlight);
   figure(doc, `Histogram of the participants’ results for item ${g.itemCode}, ${g.measurandName}, with x_pt = ${fixed(g.assignedValue, g.decimals + 1)}${u} and x_pt ± 2σ_pt marked.`, () => {
-    h1 = drawSvg(doc, renderChartSvg(distributionOption(g, ownResult), 400, 260), MARGIN, y, width);
-  });
+    h1 = drawSvg(doc, renderChartSvg(dist, 400, 260), MARGIN, y, width);
+  }, plotArea(dist, 400, 260, MARGIN, y, width));
   figure(doc, `Scores of every participant for item ${g.itemCode}, ${g.measurandName}, in ascending order, with the warning (±2) and action (±3) limits.`, () => {
-    h2 = drawSvg(doc, renderChartSvg(scoreBarOption(g, highlight), 400, 260), MARGIN + width + 10, y, width);
-  });
+    h2 = drawSvg(doc, renderChartSvg(bars, 400, 260), MARGIN + width + 10, y, width);
+  }, plotArea(bars, 400, 260, MARGIN + width + 10, y, width));
   doc.y = y + Math.max(h1, h2) + 6;
   doc.x = MARGIN;
   const off = offScale(g);

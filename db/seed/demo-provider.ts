@@ -16,8 +16,8 @@ export const DEMO_PROVIDER_PROFILE = {
   authoriserName: 'Dr Imogen Vale',
   authoriserRole: 'Technical manager, proficiency testing',
   subcontracting:
-    'The homogeneity and stability measurements of the test items were subcontracted to an accredited calibration laboratory ' +
-    'under the provider’s supervision; the provider remains responsible for them. No other work was subcontracted.',
+    'No part of the scheme is subcontracted: the provider prepares, tests and ships the test items and evaluates the results itself. ' +
+    'Transport is by courier under the provider’s instructions.',
 };
 
 function chunk(type: string, data: Buffer): Buffer {

@@ -132,13 +132,13 @@ export function distributionOption(g: ReportGroup, ownResult?: number): Option {
     lines.push({ xAxis: Math.max(lo, Math.min(hi, ownResult)), name: off ? 'you (off scale)' : 'you', lineStyle: { color: PALETTE.carmine, type: 'solid', width: 2 } });
   }
   const d = Math.max(0, g.decimals);
-  const notes: Option[] = [];
-  if (below.length) notes.push({ type: 'text', left: 44, top: 40, style: { text: `← ${below.length} below the axis`, fontSize: 9, fill: PALETTE.carmine } });
-  if (above.length) notes.push({ type: 'text', right: 24, top: 40, style: { text: `${above.length} above the axis →`, fontSize: 9, fill: PALETTE.carmine } });
+  // Below the axis labels, outside the plot area: how many results the axis leaves out (listed under the chart).
+  const off = [below.length ? `${below.length} below` : '', above.length ? `${above.length} above` : ''].filter(Boolean).join(', ');
+  const notes: Option[] = off ? [{ type: 'text', left: 40, bottom: 3, style: { text: `Off the axis: ${off} (listed under the chart)`, fontSize: 9, fill: PALETTE.carmine } }] : [];
   return {
     ...BASE,
     // The title sits above the limit-line labels (x_pt, ±2σ), which sit above the plot area.
-    grid: { left: 40, right: 20, top: 52, bottom: 30 },
+    grid: { left: 40, right: 20, top: 52, bottom: off ? 42 : 30 },
     title: { text: `Results, item ${g.itemCode}, ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`, left: 'center', top: 2, textStyle: { fontSize: 12, color: PALETTE.ink } },
     graphic: notes,
     xAxis: { type: 'value', min: lo, max: hi, axisLabel: { fontSize: 9, formatter: (v: number) => v.toFixed(d) } },

@@ -78,7 +78,7 @@ describe('demo round report', () => {
     ['statistical methods with references', /3 Statistical methods.*ISO 13528/],
     ['confidentiality', /Confidentiality: participants appear in this report only by their participant codes/],
     ['caution on the use of the results', /Use of these results: /],
-    ['subcontracting statement', /Subcontracting: The homogeneity and stability measurements of the test items were subcontracted/],
+    ['subcontracting statement', /Subcontracting: No part of the scheme is subcontracted/],
     ['coordinator’s comments', /6 Comments of the coordinator/],
   ];
 

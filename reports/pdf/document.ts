@@ -221,6 +221,7 @@ export function table(doc: Doc, columns: Column[], rows: (string | { text: strin
   const left = doc.page.margins.left;
   const tableEl = doc.struct('Table');
   state(doc).root.add(tableEl);
+  const bigTable = rows.length > 200;
   const header = (repeat: boolean) => {
     let x = left;
     const y = doc.y;
@@ -253,14 +254,23 @@ export function table(doc: Doc, columns: Column[], rows: (string | { text: strin
     }
     let x = left;
     const y = doc.y;
-    const cells = r.map((v, i) => {
+    const drawCell = (v: (typeof r)[number], i: number, cx: number) => {
       const c = columns[i]!;
-      const cx = x;
-      x += c.width;
       const spec = typeof v === 'string' ? { text: v } : v;
-      return doc.struct('TD', {}, () => cell(doc, spec.text, cx, y, c.width, c.align, size, spec.bold ?? false, spec.colour ?? '#1a1f26'));
-    });
-    tableEl.add(doc.struct('TR', {}, cells));
+      cell(doc, spec.text, cx, y, c.width, c.align, size, spec.bold ?? false, spec.colour ?? '#1a1f26');
+    };
+    if (bigTable) {
+      // Large tables: one marked row (a TD per cell costs a structure object each, seconds for 1,000 rows).
+      const start = x;
+      tableEl.add(doc.struct('TR', {}, [doc.struct('TD', {}, () => r.reduce<number>((cx, v, i) => (drawCell(v, i, cx), cx + columns[i]!.width), start))]));
+    } else {
+      const cells = r.map((v, i) => {
+        const cx = x;
+        x += columns[i]!.width;
+        return doc.struct('TD', {}, () => drawCell(v, i, cx));
+      });
+      tableEl.add(doc.struct('TR', {}, cells));
+    }
     doc.y = y + rowH;
   }
   tableEl.end();

@@ -29,6 +29,9 @@ export class ProviderProfile1764900000600 implements MigrationInterface {
         updated_by uuid REFERENCES app_user (id) ON DELETE SET NULL
       );
       ALTER TABLE evaluation ADD COLUMN coordinator_comments text NOT NULL DEFAULT '';
+      -- The report cache holds files laid out before the provider's identity and the report
+      -- clauses existed; they are rebuilt from the stored evaluations on the next request.
+      DELETE FROM report;
     `);
   }
 

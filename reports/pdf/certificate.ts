@@ -8,7 +8,7 @@ export async function buildCertificatePdf(input: ParticipantReportInput): Promis
   const { doc, done } = createDoc({
     title: `Certificate of participation ${input.round.code} ${input.participantCode}`,
     subject: 'Certificate of participation',
-    footer: `${footerText(input, 'certificate')} · participant ${input.participantCode}`,
+    footer: footerText(input, 'certificate', input.participantCode),
     landscape: true,
     author: input.provider.name,
     ...docDates(input),

@@ -69,7 +69,7 @@ export async function buildParticipantReportPdf(input: ParticipantReportInput): 
   const { doc, done } = createDoc({
     title: `Individual report ${input.round.code}, participant ${input.participantCode}, version ${input.evaluation.version}`,
     subject: `Proficiency-testing individual report: ${input.round.title} (${input.round.schemeName})`,
-    footer: `${footerText(input, 'individual report')} · participant ${input.participantCode}`,
+    footer: footerText(input, 'individual report', input.participantCode),
     author: input.provider.name,
     ...docDates(input),
   });

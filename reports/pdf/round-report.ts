@@ -31,9 +31,10 @@ function providerName(input: RoundReportInput): string {
   return input.provider.name || 'PT provider (name not yet set in the provider profile)';
 }
 
-export function footerText(input: RoundReportInput, kind: string): string {
+export function footerText(input: RoundReportInput, kind: string, participantCode?: string): string {
   const status = input.evaluation.state === 'published' ? (input.evaluation.version > 1 ? 'corrected' : 'final') : 'preview';
-  return `${input.provider.name || 'PT provider'} · ${kind} (${status}) · round ${input.round.code} · version ${input.evaluation.version} · record SHA-256 ${recordChecksum(input).slice(0, 16)}`;
+  const who = participantCode ? ` · participant ${participantCode}` : '';
+  return `${input.provider.name || 'PT provider'} · ${kind} (${status}) · ${input.round.code} v${input.evaluation.version}${who} · record ${recordChecksum(input).slice(0, 16)}`;
 }
 
 export function reissueNotice(input: RoundReportInput): string | null {

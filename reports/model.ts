@@ -20,6 +20,30 @@ export interface ReportRound {
   instructions: string;
   protocolTemperatureC: number;
   resultsDueAt: string | null;
+  /** When the test items were dispatched (the round's move to in transit), else the planned date. */
+  dispatchedAt: string | null;
+  dispatchPlanned: boolean;
+}
+
+/** The PT provider as printed on the cover and in the footer (ISO/IEC 17043 §7.4, from memory). */
+export interface ReportProviderInfo {
+  name: string;
+  address: string;
+  contactEmail: string;
+  contactPhone: string;
+  website: string;
+  accreditationBody: string;
+  accreditationNumber: string;
+  authoriserName: string;
+  authoriserRole: string;
+  subcontracting: string;
+  logo: { type: 'image/png' | 'image/jpeg'; data: Buffer } | null;
+}
+
+/** A participant that enrolled but has no result in the evaluation. */
+export interface ReportNonReporter {
+  code: string;
+  withdrawn: boolean;
 }
 
 export interface ReportItem {
@@ -61,6 +85,8 @@ export interface ReportEvaluation {
   computedAt: string;
   reissueReason: string | null;
   softwareVersion: string;
+  /** The coordinator's comments on the round ('' for none). */
+  comments: string;
 }
 
 /** One stored item × measurand result with the replicates it was computed from, by code. */
@@ -75,15 +101,30 @@ export interface RoundReportInput {
   studies: ReportStudy[];
   evaluation: ReportEvaluation;
   groups: ReportGroup[];
+  provider: ReportProviderInfo;
+  /** Enrolled participant codes without a result in this evaluation. */
+  nonReporters: ReportNonReporter[];
   /** When the file was made (ISO 8601 UTC). */
   generatedAt: string;
+}
+
+export const NO_PROVIDER: ReportProviderInfo = {
+  name: '', address: '', contactEmail: '', contactPhone: '', website: '', accreditationBody: '', accreditationNumber: '',
+  authoriserName: '', authoriserRole: '', subcontracting: '', logo: null,
+};
+
+/** The report's status as ISO/IEC 17043 asks it to be stated: final, corrected (replacing a version) or a preview. */
+export function reportStatusWords(e: ReportEvaluation): string {
+  if (e.state !== 'published') return `Preview (evaluation ${e.state === 'committed' ? 'approved for publication' : 'draft'}, not issued)`;
+  if (e.version > 1 || e.reissueReason) return `Corrected report: version ${e.version}, replaces version ${e.version - 1}`;
+  return `Final report, version ${e.version}`;
 }
 
 export interface ParticipantReportInput extends RoundReportInput {
   participantCode: string;
   /** The lab's own name (its own file only). */
   labName: string;
-  /** The lab's Track record across published rounds. */
+  /** The lab's Track record up to this report's issue (rounds published no later than this evaluation). */
   track: TrackSeries[];
 }
 

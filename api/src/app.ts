@@ -21,6 +21,7 @@ import { benchRoutes } from './routes/bench';
 import { systemRoutes } from './routes/system';
 import { evaluationRoutes } from './routes/evaluation';
 import { reportRoutes } from './routes/reports';
+import { providerRoutes } from './routes/provider';
 import { assessorRoutes } from './routes/assessor';
 import type { AppContext } from './services/context';
 import { RateLimiter } from './services/rate-limit';
@@ -122,6 +123,7 @@ export function createApp(deps: AppDeps): RingletApp {
   evaluationRoutes(api, ctx);
   benchRoutes(api, ctx);
   reportRoutes(api, ctx);
+  providerRoutes(api, ctx);
   assessorRoutes(api, ctx);
 
   let openApi: object | undefined;

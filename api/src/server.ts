@@ -1,6 +1,7 @@
 import 'reflect-metadata';
 import { createDataSource, databaseUrl, ownerDatabaseUrl } from '../../db/data-source';
 import { migrateDatabase } from '../../db/migrate';
+import { providerName } from './services/provider';
 import { createApp } from './app';
 import { hasOutbox, readConfig } from './config';
 import { startJobs } from './jobs/queue';
@@ -24,7 +25,7 @@ async function main(): Promise<void> {
     await seedDemo(owner, demoPassword, config.publicUrl).finally(() => owner.destroy());
   }
   const fake = hasOutbox(config.mode) && !config.smtp ? await startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
-  const smtpMailer = createMailer(config, fake ?? undefined);
+  const smtpMailer = createMailer(config, fake ?? undefined, { providerName: () => providerName(ds.manager) });
   // The PostgreSQL-backed job queue: mail retries and round reminders (shared by every instance).
   const jobs = await startJobs({
     connectionString: config.databaseUrl ?? databaseUrl(),

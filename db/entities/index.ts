@@ -9,6 +9,7 @@ import { Attachment, InstrumentCheck } from './lab-bench';
 import { HomogeneityStudy, ReminderLog } from './round-desk';
 import { AssessorGrant, Evaluation, EvaluationResult, Investigation } from './evaluation';
 import { Report } from './report';
+import { ProviderProfile } from './provider-profile';
 
 export { AuditEvent, MailMessage, Membership, Organisation, PasswordToken, User };
 export { Enrolment, Invitation, Measurand, Round, RoundTransition, Scheme, Shipment, Submission, SubmissionVersion, TestItem };
@@ -16,6 +17,7 @@ export { HomogeneityStudy, ReminderLog };
 export { Attachment, InstrumentCheck };
 export { AssessorGrant, Evaluation, EvaluationResult, Investigation };
 export { Report };
+export { ProviderProfile };
 
 /** Every entity, registered with the DataSource. Append new ones at the end. */
 export const entities = [
@@ -44,4 +46,5 @@ export const entities = [
   Investigation,
   AssessorGrant,
   Report,
+  ProviderProfile,
 ];

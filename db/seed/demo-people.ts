@@ -2,7 +2,7 @@
  * The demo scenario: an invented PT provider and invented labs. No real organisation, person or
  * brand. Every demo account shares the demo password printed at start.
  */
-export const DEMO_PROVIDER = { name: 'Ringlet Demo PT Provider', country: 'Nowhere' };
+export const DEMO_PROVIDER = { name: 'Larkspur Interlaboratory Services', country: 'Nowhere' };
 
 export const DEMO_LABS = [
   { key: 'lab1', name: 'Aldergrove Colloid Laboratory', country: 'Northland' },

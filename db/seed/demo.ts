@@ -1,4 +1,5 @@
 import bcrypt from 'bcryptjs';
+import { seedProviderProfile } from './demo-provider';
 import type { DataSource } from 'typeorm';
 import { Membership, Organisation, User } from '../entities';
 import { DEMO_LABS, DEMO_PROVIDER, DEMO_USERS, OTHER_LABS } from './demo-people';
@@ -19,6 +20,7 @@ export async function seedDemo(ds: DataSource, password: string, publicUrl?: str
       return (await em.save(Organisation, em.create(Organisation, { name, kind, country, contactEmail }))).id;
     };
     await orgId(DEMO_PROVIDER.name, 'provider', DEMO_PROVIDER.country);
+    await seedProviderProfile(em);
     const labIds = new Map<string, string>();
     for (const lab of DEMO_LABS) labIds.set(lab.key, await orgId(lab.name, 'lab', lab.country));
     const others: string[] = [];

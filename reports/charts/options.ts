@@ -34,8 +34,8 @@ export function scoreBarOption(g: ReportGroup, highlightCode?: string): Option {
   const kind = g.uNegligible === false ? 'z′' : 'z';
   return {
     ...BASE,
-    grid: { left: 40, right: 40, top: 30, bottom: 30 },
-    title: { text: `${kind}-scores, item ${g.itemCode}, ${g.measurandName}`, left: 'center', textStyle: { fontSize: 12, color: PALETTE.ink } },
+    grid: { left: 40, right: 40, top: 34, bottom: 30 },
+    title: { text: `${kind}-scores, item ${g.itemCode}, ${g.measurandName}`, left: 'center', top: 2, textStyle: { fontSize: 12, color: PALETTE.ink } },
     xAxis: { type: 'category', data: rows.map((r) => r.p.code), axisLabel: { show: rows.length <= 40, fontSize: 8, rotate: 90 }, axisTick: { show: false } },
     yAxis: { type: 'value', min: -5, max: 5, interval: 1, axisLabel: { fontSize: 9 }, splitLine: { lineStyle: { color: '#e6e9ed' } } },
     // Past 200 participants the sorted scores are one line (one SVG path instead of a bar each).
@@ -72,6 +72,10 @@ export function scoreBarOption(g: ReportGroup, highlightCode?: string): Option {
           itemStyle: {
             color: r.p.code === highlightCode ? PALETTE.ink : SIGNAL_COLOURS[r.p.signal ?? 'acceptable'],
           },
+          // A score beyond the axis is drawn at ±5 with its value written across the bar.
+          ...(Math.abs(r.s) > 5
+            ? { label: { show: true, position: r.s > 0 ? 'insideTop' : 'insideBottom', rotate: 90, fontSize: 7, color: '#ffffff', formatter: r.s.toFixed(1) } }
+            : {}),
         })),
         markLine: limitLines([
           { y: 3, label: '+3', colour: PALETTE.carmine },
@@ -82,6 +86,23 @@ export function scoreBarOption(g: ReportGroup, highlightCode?: string): Option {
       },
     ],
   };
+}
+
+/** Results outside the histogram's axis (x_pt ± 5σ_pt), lowest and highest, with their codes. */
+export function offScale(g: ReportGroup): { below: { code: string; result: number }[]; above: { code: string; result: number }[] } {
+  const values = g.participants.filter((p) => Number.isFinite(p.result));
+  if (g.assignedValue === null || g.sigmaPt === null) return { below: [], above: [] };
+  const lo = g.assignedValue - 5 * g.sigmaPt;
+  const hi = g.assignedValue + 5 * g.sigmaPt;
+  const pick = (f: (v: number) => boolean) => values.filter((p) => f(p.result)).map((p) => ({ code: p.code, result: p.result })).sort((a, b) => a.result - b.result);
+  return { below: pick((v) => v < lo), above: pick((v) => v > hi) };
+}
+
+/** Scores the score chart draws at its ±5 edge (their true value is written on the bar and listed in the report). */
+export function scoresOffScale(g: ReportGroup): { code: string; score: number }[] {
+  return g.participants
+    .map((p) => ({ code: p.code, score: mainScore(p) }))
+    .filter((r): r is { code: string; score: number } => r.score !== null && Math.abs(r.score) > 5);
 }
 
 /**
@@ -97,18 +118,29 @@ export function distributionOption(g: ReportGroup, ownResult?: number): Option {
   const bins = 40;
   const w = (hi - lo) / bins;
   const counts = new Array<number>(bins).fill(0);
-  for (const v of values) counts[Math.max(0, Math.min(bins - 1, Math.floor((v - lo) / w)))]!++;
+  // Results outside x_pt ± 5σ_pt are not put into an edge bin (that would show them at a value
+  // they do not have): the chart notes how many lie beyond each end, and the report lists them.
+  const { below, above } = offScale(g);
+  for (const v of values) if (v >= lo && v <= hi) counts[Math.min(bins - 1, Math.floor((v - lo) / w))]!++;
   const centre = (i: number) => lo + (i + 0.5) * w;
   const lines: Option[] = [{ xAxis: x, name: 'x_pt', lineStyle: { color: PALETTE.ink, type: 'solid', width: 1.5 } }];
   if (g.sigmaPt !== null) {
     lines.push({ xAxis: x - 2 * s, name: '−2σ', lineStyle: { color: PALETTE.saffron } }, { xAxis: x + 2 * s, name: '+2σ', lineStyle: { color: PALETTE.saffron } });
   }
-  if (ownResult !== undefined) lines.push({ xAxis: Math.max(lo, Math.min(hi, ownResult)), name: 'you', lineStyle: { color: PALETTE.carmine, type: 'solid', width: 2 } });
+  if (ownResult !== undefined) {
+    const off = ownResult < lo || ownResult > hi;
+    lines.push({ xAxis: Math.max(lo, Math.min(hi, ownResult)), name: off ? 'you (off scale)' : 'you', lineStyle: { color: PALETTE.carmine, type: 'solid', width: 2 } });
+  }
   const d = Math.max(0, g.decimals);
+  // Below the axis labels, outside the plot area: how many results the axis leaves out (listed under the chart).
+  const off = [below.length ? `${below.length} below` : '', above.length ? `${above.length} above` : ''].filter(Boolean).join(', ');
+  const notes: Option[] = off ? [{ type: 'text', left: 40, bottom: 3, style: { text: `Off the axis: ${off} (listed under the chart)`, fontSize: 9, fill: PALETTE.carmine } }] : [];
   return {
     ...BASE,
-    grid: { left: 40, right: 20, top: 30, bottom: 30 },
-    title: { text: `Results, item ${g.itemCode}, ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`, left: 'center', textStyle: { fontSize: 12, color: PALETTE.ink } },
+    // The title sits above the limit-line labels (x_pt, ±2σ), which sit above the plot area.
+    grid: { left: 40, right: 20, top: 52, bottom: off ? 42 : 30 },
+    title: { text: `Results, item ${g.itemCode}, ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`, left: 'center', top: 2, textStyle: { fontSize: 12, color: PALETTE.ink } },
+    graphic: notes,
     xAxis: { type: 'value', min: lo, max: hi, axisLabel: { fontSize: 9, formatter: (v: number) => v.toFixed(d) } },
     yAxis: { type: 'value', minInterval: 1, axisLabel: { fontSize: 9 }, splitLine: { lineStyle: { color: '#e6e9ed' } } },
     series: [
@@ -128,9 +160,9 @@ export function trackRecordOption(series: TrackSeries[]): Option {
   const labels = [...new Set(series.flatMap((s) => s.points.map((p) => `${p.roundCode} ${p.itemCode}`)))];
   return {
     ...BASE,
-    grid: { left: 40, right: 40, top: 40, bottom: 50 },
-    title: { text: 'Track record', left: 'center', textStyle: { fontSize: 12, color: PALETTE.ink } },
-    legend: { top: 18, textStyle: { fontSize: 9 } },
+    grid: { left: 40, right: 40, top: 48, bottom: 50 },
+    title: { text: 'Track record', left: 'center', top: 2, textStyle: { fontSize: 12, color: PALETTE.ink } },
+    legend: { top: 22, textStyle: { fontSize: 9 } },
     xAxis: { type: 'category', data: labels, axisLabel: { fontSize: 8, rotate: 30 } },
     yAxis: { type: 'value', min: -4, max: 4, interval: 1, axisLabel: { fontSize: 9 }, splitLine: { lineStyle: { color: '#e6e9ed' } } },
     series: series.map((s, i) => ({
@@ -141,7 +173,14 @@ export function trackRecordOption(series: TrackSeries[]): Option {
       data: labels.map((l) => {
         const p = s.points.find((q) => `${q.roundCode} ${q.itemCode}` === l);
         return p
-          ? { value: Math.max(-4, Math.min(4, p.z)), symbol: SHAPES[p.signal], symbolSize: 8, itemStyle: { color: SIGNAL_COLOURS[p.signal] } }
+          ? {
+              value: Math.max(-4, Math.min(4, p.z)),
+              symbol: SHAPES[p.signal],
+              symbolSize: 8,
+              itemStyle: { color: SIGNAL_COLOURS[p.signal] },
+              // Drawn at the ±4 edge: the true score is written beside the mark.
+              ...(Math.abs(p.z) > 4 ? { label: { show: true, position: p.z > 0 ? 'bottom' : 'top', fontSize: 8, color: PALETTE.carmine, formatter: p.z.toFixed(1) } } : {}),
+            }
           : null;
       }),
       markLine:

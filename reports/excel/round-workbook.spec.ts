@@ -17,7 +17,7 @@ describe('round workbook', () => {
     expect(wb.worksheets.map((w) => w.name)).toEqual(['Summary', 'A Z-average', 'A PDI', 'B Z-average', 'B PDI', 'Homogeneity and stability']);
     const summary = wb.getWorksheet('Summary')!;
     const g = input.groups[0]!;
-    const row = summary.getRow(9);
+    const row = summary.getRow(15); // 12 report rows, a blank row, the header
     expect(row.getCell(1).value).toBe('A');
     expect(row.getCell(6).value).toBe(g.assignedValue);
     expect(row.getCell(7).value).toBe(g.uAssigned);
@@ -48,7 +48,7 @@ describe('round workbook', () => {
   it('lists the homogeneity and stability studies', async () => {
     const wb = await read(await buildRoundWorkbook(input));
     const ws = wb.getWorksheet('Homogeneity and stability')!;
-    expect(ws.getRow(3).getCell(3).value).toBe('homogeneity');
+    expect(ws.getRow(3).getCell(3).value).toBe('Homogeneity study');
     expect(ws.getRow(3).getCell(10).value).toBe(0.12);
     expect(ws.getRow(4).getCell(13).value).toBe(0.2);
   });
@@ -57,9 +57,9 @@ describe('round workbook', () => {
     const hostile = '=HYPERLINK("http://x.test","click")';
     const wb = await read(await buildRoundWorkbook(syntheticReportInput({ participants: 15, hostileText: hostile, reissueReason: '+1 corrected σ_pt' })));
     const summary = wb.getWorksheet('Summary')!;
-    expect(summary.getRow(5).getCell(2).value).toBe(`'+1 corrected σ_pt`);
+    expect(summary.getRow(7).getCell(2).value).toBe(`'+1 corrected σ_pt`);
     expect(summary.getRow(1).getCell(2).value).toBe(`SYN-2025-1 · ${hostile}`); // starts with the code: stays text
-    expect(wb.getWorksheet('B PDI')!.getRow(5).getCell(17).value).toBe(`other: ${hostile}`);
+    expect(wb.getWorksheet('B PDI')!.getRow(5).getCell(17).value).toBe(`Other (see reason): ${hostile}`);
     expect(neutraliseFormula('@SUM(A1)')).toBe(`'@SUM(A1)`);
     expect(neutraliseFormula('-2+3')).toBe(`'-2+3`);
     expect(neutraliseFormula('P001')).toBe('P001');
@@ -73,5 +73,27 @@ describe('round workbook', () => {
     expect(sheetName('A: size/[x]?', taken)).toBe('A size x');
     expect(sheetName('A: size/[x]?', taken)).toBe('A size x 2');
     expect(sheetName('x'.repeat(40), taken).length).toBeLessThanOrEqual(31);
+  });
+
+  it('stores dates as dates, filters every table, colours signals by rule and prints fitted to the page width', async () => {
+    const wb = await read(await buildRoundWorkbook(input));
+    const summary = wb.getWorksheet('Summary')!;
+    const issue = summary.getRow(6);
+    expect(issue.getCell(1).value).toBe('Issue date (published)');
+    expect(issue.getCell(2).value).toBeInstanceOf(Date);
+    expect((issue.getCell(2).value as Date).toISOString()).toBe(input.evaluation.publishedAt);
+    expect(summary.getRow(9).getCell(2).value).toBeInstanceOf(Date); // results due
+    // No label is wider than its column (the Summary cut its labels before).
+    for (let r = 1; r <= 12; r++) expect(String(summary.getRow(r).getCell(1).value).length).toBeLessThanOrEqual(summary.getColumn(1).width!);
+    const sheet = wb.getWorksheet('A Z-average')!;
+    expect(sheet.autoFilter).toBeTruthy();
+    expect(summary.autoFilter).toBeTruthy();
+    for (const ws of wb.worksheets) expect(ws.pageSetup).toMatchObject({ fitToPage: true, fitToWidth: 1, fitToHeight: 0, orientation: 'landscape' });
+    const cf = (sheet as unknown as { conditionalFormattings: { ref: string; rules: { formulae: string[] }[] }[] }).conditionalFormattings;
+    const words = cf.flatMap((c) => c.rules.map((r) => /SEARCH\("([^"]+)"/.exec(r.formulae[0]!)?.[1]));
+    expect(words.sort()).toEqual(['acceptable', 'action signal', 'warning signal']);
+    // One wording: "warning signal" and "action signal" everywhere, never a bare "Warning"/"Action" header.
+    const heads = summary.getRow(14).values as unknown[];
+    expect(heads).toEqual(expect.arrayContaining(['Warning signal', 'Action signal']));
   });
 });

@@ -6,7 +6,8 @@
  * through neutraliseFormula so no formula runs when the file is opened.
  */
 import ExcelJS from 'exceljs';
-import { METHOD_WORDS, recordChecksum, sigmaPtRuleWords, type ReportGroup, type RoundReportInput } from '../model';
+import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
+import { METHOD_WORDS, recordChecksum, reportStatusWords, sigmaPtRuleWords, type ReportGroup, type RoundReportInput } from '../model';
 import { hintWords, neutraliseFormula as t, numberFormat, SCORE_DECIMALS, SCORE_LABEL, SIGNAL_WORDS } from '../text';
 
 const HEADER_FILL: ExcelJS.Fill = { type: 'pattern', pattern: 'solid', fgColor: { argb: 'FF1F3A5F' } };
@@ -31,23 +32,35 @@ function unitSuffix(unit: string): string {
   return unit ? ` (${unit})` : '';
 }
 
+/** Rows of the Summary's report block (label, value); dates are real dates. */
+export const SUMMARY_INFO_ROWS = 12;
+
 function summarySheet(wb: ExcelJS.Workbook, input: RoundReportInput): void {
-  const ws = wb.addWorksheet('Summary', { views: [{ state: 'frozen', ySplit: 8 }] });
-  const { round, evaluation } = input;
-  const info: [string, string | number][] = [
+  const ws = wb.addWorksheet('Summary', { views: [{ state: 'frozen', ySplit: SUMMARY_INFO_ROWS + 2 }] });
+  const { round, evaluation, provider } = input;
+  const date = (iso: string | null) => (iso ? new Date(iso) : '—');
+  const info: [string, string | number | Date][] = [
     ['Round', t(`${round.code} · ${round.title}`)],
     ['Scheme', t(`${round.schemeCode} · ${round.schemeName}`)],
+    ['PT provider', t(provider.name || 'not set in the provider profile')],
+    ['Report status', reportStatusWords(evaluation)],
     ['Evaluation version', evaluation.version],
-    ['Published', evaluation.publishedAt ?? 'not published'],
+    ['Issue date (published)', evaluation.publishedAt ? new Date(evaluation.publishedAt) : 'not published'],
     ['Reissue reason', t(evaluation.reissueReason ?? '—')],
+    ['Test items dispatched', date(round.dispatchedAt)],
+    ['Results due', date(round.resultsDueAt)],
+    ['Authorised by', t([provider.authoriserName, provider.authoriserRole].filter(Boolean).join(', ') || '—')],
+    ['Enrolled, did not report', input.nonReporters.map((n) => `${n.code}${n.withdrawn ? ' (withdrew)' : ''}`).join(', ') || 'none'],
     ['Record checksum (SHA-256)', recordChecksum(input)],
   ];
   for (const [k, v] of info) {
     const r = ws.addRow([k, v]);
     r.getCell(1).font = { bold: true };
+    if (v instanceof Date) r.getCell(2).numFmt = 'yyyy-mm-dd hh:mm';
+    r.getCell(2).alignment = { horizontal: 'left' };
   }
   ws.addRow([]);
-  const header = ws.addRow(['Item', 'Material', 'Measurand', 'Unit', 'Method', 'x_pt', 'u(x_pt)', 'σ_pt', 'σ_pt rule', 'n', 'Robust SD', 'Score used', 'Acceptable', 'Warning', 'Action', 'Warnings']);
+  const header = ws.addRow(['Item', 'Material', 'Measurand', 'Unit', 'Method', 'x_pt', 'u(x_pt)', 'σ_pt', 'σ_pt rule', 'n', 'Robust SD', 'Score used', 'Acceptable', 'Warning signal', 'Action signal', 'Warnings']);
   styleHeader(header);
   const items = new Map(input.items.map((i) => [i.code, i]));
   for (const g of input.groups) {
@@ -73,7 +86,34 @@ function summarySheet(wb: ExcelJS.Workbook, input: RoundReportInput): void {
     const fmt = numberFormat(g.decimals + 1);
     for (const c of [6, 7, 8, 11]) r.getCell(c).numFmt = fmt;
   }
-  ws.columns.forEach((c, i) => (c.width = [10, 30, 16, 8, 34, 12, 12, 12, 40, 6, 12, 10, 11, 9, 8, 40][i] ?? 12));
+  ws.columns.forEach((c, i) => (c.width = [26, 30, 16, 8, 34, 12, 12, 12, 40, 6, 12, 10, 11, 14, 13, 40][i] ?? 12));
+  ws.autoFilter = { from: { row: header.number, column: 1 }, to: { row: header.number, column: 16 } };
+  printSetup(ws, header.number);
+}
+
+/** Landscape A4, fitted to the page width (as many pages down as needed), header row repeated. */
+function printSetup(ws: ExcelJS.Worksheet, headerRow: number): void {
+  ws.pageSetup = { paperSize: 9, orientation: 'landscape', fitToPage: true, fitToWidth: 1, fitToHeight: 0, printTitlesRow: `${headerRow}:${headerRow}` };
+}
+
+/** The board's code for signals: shape, word and colour (teal circle, saffron triangle, carmine diamond). */
+const SIGNAL_SHAPES = { acceptable: '●', warning: '▲', action: '◆' } as const;
+const SIGNAL_ARGB = { acceptable: 'FF1B7F79', warning: 'FFB7791F', action: 'FFA4262C' } as const;
+
+/** Colours the signal cells of a column by conditional formatting (the word decides the colour). */
+function signalFormatting(ws: ExcelJS.Worksheet, column: number, fromRow: number, toRow: number): void {
+  if (toRow < fromRow) return;
+  const letter = ws.getColumn(column).letter;
+  const ref = `${letter}${fromRow}:${letter}${toRow}`;
+  ws.addConditionalFormatting({
+    ref,
+    rules: (['action', 'warning', 'acceptable'] as const).map((s, i) => ({
+      type: 'expression',
+      formulae: [`NOT(ISERROR(SEARCH("${SIGNAL_WORDS[s]}",${letter}${fromRow})))`],
+      priority: i + 1,
+      style: { font: { color: { argb: 'FFFFFFFF' }, bold: true }, fill: { type: 'pattern', pattern: 'solid', bgColor: { argb: SIGNAL_ARGB[s] } } },
+    })),
+  });
 }
 
 function groupSheet(wb: ExcelJS.Workbook, g: ReportGroup, taken: Set<string>): void {
@@ -86,7 +126,7 @@ function groupSheet(wb: ExcelJS.Workbook, g: ReportGroup, taken: Set<string>): v
   r1.font = { bold: true };
   for (const c of [4, 6, 8]) r1.getCell(c).numFmt = numberFormat(g.decimals + 1);
   ws.addRow([`Method: ${METHOD_WORDS[g.method] ?? g.method}`, null, null, null, null, null, null, null, null, null]);
-  ws.addRow([`Signal follows ${g.uNegligible === false ? 'z′ (u(x_pt) not negligible)' : 'z'}; |score| ≤ 2 acceptable, 2 < |score| < 3 warning, ≥ 3 action (ISO 13528:2015 §9)`]);
+  ws.addRow([`Signal follows ${g.uNegligible === false ? 'z′ (u(x_pt) not negligible)' : 'z'}; |score| ≤ 2 acceptable, 2 < |score| < 3 warning signal, ≥ 3 action signal (ISO 13528:2015 §9)`]);
   const heads = [
     'Participant',
     ...Array.from({ length: reps }, (_, i) => `Replicate ${i + 1}${u}`),
@@ -124,13 +164,19 @@ function groupSheet(wb: ExcelJS.Workbook, g: ReportGroup, taken: Set<string>): v
       SCORE_LABEL[p.scoreKind] ?? p.scoreKind,
       p.signal ? SIGNAL_WORDS[p.signal] : '—',
       t(p.hints.map((h) => hintWords(h.code)).join(' · ')),
-      p.excluded ? t(`${p.excluded.rule}: ${p.excluded.reason}`) : '',
+      p.excluded ? t(`${EXCLUSION_RULE_LABELS[p.excluded.rule] ?? 'Other'}: ${p.excluded.reason}`) : '',
     ]);
+    // The shape before the word, as on the board (a text format: the cell's value stays the word).
+    if (p.signal) row.getCell(meanCol + 10).numFmt = `"${SIGNAL_SHAPES[p.signal]} "@`;
     for (let c = repStart; c <= meanCol + 2; c++) row.getCell(c).numFmt = vfmt;
     for (let c = meanCol + 3; c <= meanCol + 6; c++) row.getCell(c).numFmt = sfmt;
     row.getCell(meanCol + 7).numFmt = vfmt;
     row.getCell(meanCol + 8).numFmt = '0.0';
   }
+  const headerRow = 4;
+  ws.autoFilter = { from: { row: headerRow, column: 1 }, to: { row: headerRow, column: heads.length } };
+  signalFormatting(ws, meanCol + 10, headerRow + 1, headerRow + g.participants.length);
+  printSetup(ws, headerRow);
   ws.getColumn(1).width = 13;
   for (let c = 2; c <= meanCol + 8; c++) ws.getColumn(c).width = 12;
   ws.getColumn(meanCol + 10).width = 16;
@@ -152,7 +198,7 @@ function studySheet(wb: ExcelJS.Workbook, input: RoundReportInput): void {
     const row = ws.addRow([
       t(s.itemCode),
       t(m?.name ?? s.measurandKey),
-      s.kind,
+      s.kind === 'homogeneity' ? 'Homogeneity study' : 'Stability study',
       s.sigmaPt,
       num('g'),
       num('m'),
@@ -164,22 +210,26 @@ function studySheet(wb: ExcelJS.Workbook, input: RoundReportInput): void {
       num('meanSecond'),
       num('difference'),
       num('limit'),
-      s.passes ? 'yes' : 'no',
+      s.passes ? 'Pass' : 'Fail',
       t(s.decision ?? '—'),
       t(s.decisionReason ?? ''),
     ]);
     const fmt = numberFormat((m?.decimals ?? 3) + 1);
     for (const c of [4, 7, 8, 9, 10, 11, 12, 13, 14]) row.getCell(c).numFmt = fmt;
   }
-  if (input.studies.length === 0) ws.addRow(['No homogeneity or stability study is recorded for this round.']);
-  ws.columns.forEach((c, i) => (c.width = i < 3 ? 14 : i >= 15 ? 30 : 12));
+  if (input.studies.length === 0) ws.addRow(['No homogeneity study and no stability study is recorded for the test items of this round.']);
+  ws.columns.forEach((c, i) => (c.width = i < 3 ? 18 : i >= 15 ? 30 : 12));
+  ws.autoFilter = { from: { row: 2, column: 1 }, to: { row: 2, column: 17 } };
+  printSetup(ws, 2);
 }
 
 /** Builds the round workbook; resolves to the .xlsx bytes. */
 export async function buildRoundWorkbook(input: RoundReportInput): Promise<Buffer> {
   const wb = new ExcelJS.Workbook();
-  wb.creator = 'Ringlet';
-  wb.created = new Date(input.generatedAt);
+  wb.creator = input.provider.name || 'Ringlet';
+  wb.company = input.provider.name;
+  wb.created = new Date(input.evaluation.publishedAt ?? input.generatedAt);
+  wb.modified = new Date(input.generatedAt);
   wb.title = `Round ${input.round.code} v${input.evaluation.version}`;
   summarySheet(wb, input);
   const taken = new Set(['summary', 'homogeneity and stability']);

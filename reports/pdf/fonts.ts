@@ -51,5 +51,6 @@ export function fontRuns(text: string): { text: string; subset: '' | '-ext' | '-
 const REPLACE: Record<string, string> = { '≤': '<=', '≥': '>=', '√': 'sqrt', '₁': '1', '₂': '2', 'ȳ': 'y' };
 
 export function printable(text: string): string {
-  return text.replace(/[≤≥√₁₂ȳ]/g, (c) => REPLACE[c] ?? c);
+  // "√p" would print as "sqrtp": a root over a bare symbol gets parentheses, sqrt(p).
+  return text.replace(/√([\p{L}\p{N}_*]+)/gu, 'sqrt($1)').replace(/[≤≥√₁₂ȳ]/g, (c) => REPLACE[c] ?? c);
 }

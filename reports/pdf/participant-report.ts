@@ -5,12 +5,12 @@
  * as codes (in the charts, unnamed bars).
  */
 import { explainScore } from '../../shared/evaluation/explain';
-import { distributionOption, scoreBarOption, trackRecordOption } from '../charts/options';
+import { trackRecordOption } from '../charts/options';
 import { renderChartSvg } from '../charts/render';
 import { mainScore, type ParticipantReportInput, type ReportGroup } from '../model';
-import { fixed, hintWords, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
-import { createDoc, finishDoc, heading, MARGIN, table, write, type Doc } from './document';
-import { CONFIDENTIALITY, cover, footerText } from './round-report';
+import { fixed, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
+import { createDoc, figure, finishDoc, heading, MARGIN, plotArea, table, write, type Doc } from './document';
+import { closingSections, cover, docDates, drawGroupCharts, footerText } from './round-report';
 import { drawSvg } from './svg';
 
 /** Share of the other participants' results below this one (0–100 %), and the rank from the lowest. */
@@ -58,41 +58,50 @@ function ownGroup(doc: Doc, input: ParticipantReportInput, g: ReportGroup, index
   for (const line of explainScore(p, { measurandName: g.measurandName, unit: g.unit, decimals: g.decimals, assignedValue: g.assignedValue, sigmaPt: g.sigmaPt, uAssigned: g.uAssigned })) {
     write(doc, line, { size: 9.5, gap: 2 });
   }
-  for (const h of p.hints) write(doc, `Hint: ${hintWords(h.code)}.`, { size: 9.5, colour: PALETTE.saffron });
+  // explainScore already gives each hint in the lab's own terms; the general wording is in the round report.
   if (p.excluded) write(doc, `Your result was kept out of the assigned value (${p.excluded.rule}): ${p.excluded.reason}. It is still scored.`, { size: 9.5 });
-  const width = (doc.page.width - 2 * MARGIN - 10) / 2;
-  const y = doc.y + 6;
-  const h1 = drawSvg(doc, renderChartSvg(distributionOption(g, p.result), 400, 260), MARGIN, y, width);
-  const h2 = drawSvg(doc, renderChartSvg(scoreBarOption(g, p.code), 400, 260), MARGIN + width + 10, y, width);
-  doc.y = y + Math.max(h1, h2) + 4;
-  doc.x = MARGIN;
+  drawGroupCharts(doc, g, p.code, p.result);
   if (s !== null) write(doc, 'In the charts your result is the line marked “you” and your score is drawn darker (or pinned).', { size: 8, colour: PALETTE.grey });
 }
 
 /** Builds a lab's individual report; resolves to the PDF bytes. */
 export async function buildParticipantReportPdf(input: ParticipantReportInput): Promise<Buffer> {
   const { doc, done } = createDoc({
-    title: `Individual report ${input.round.code} ${input.participantCode} v${input.evaluation.version}`,
-    subject: 'Proficiency-testing individual report',
-    footer: `${footerText(input, 'individual report')} · participant ${input.participantCode}`,
+    title: `Individual report ${input.round.code}, participant ${input.participantCode}, version ${input.evaluation.version}`,
+    subject: `Proficiency-testing individual report: ${input.round.title} (${input.round.schemeName})`,
+    footer: footerText(input, 'individual report', input.participantCode),
+    author: input.provider.name,
+    ...docDates(input),
   });
   cover(doc, input, 'Individual report', [`Laboratory: ${input.labName}`, `Participant code: ${input.participantCode}`]);
   input.groups.forEach((g, i) => ownGroup(doc, input, g, i));
   doc.addPage();
-  heading(doc, `${input.groups.length + 1} Track record`);
+  const n = input.groups.length;
+  heading(doc, `${n + 1} Track record`);
+  const issued = input.evaluation.publishedAt;
+  write(doc, issued
+    ? `Scores of rounds published up to this report’s issue date (${issued.slice(0, 10)}); later rounds are not shown.`
+    : 'Scores of every round published so far (this is a preview, not an issued report).', { size: 9, colour: PALETTE.grey, gap: 4 });
   const points = input.track.reduce((s, t) => s + t.points.length, 0);
   if (points === 0) write(doc, 'No published score yet.', { size: 9.5 });
   else {
-    const h = drawSvg(doc, renderChartSvg(trackRecordOption(input.track), 600, 280), MARGIN, doc.y + 4, doc.page.width - 2 * MARGIN);
-    doc.y += h + 8;
+    const y = doc.y + 4;
+    let h = 0;
+    const option = trackRecordOption(input.track);
+    const width = doc.page.width - 2 * MARGIN;
+    figure(doc, `Track record of participant ${input.participantCode}: its z-scores per round and item, with the warning (±2) and action (±3) limits.`, () => {
+      h = drawSvg(doc, renderChartSvg(option, 600, 280), MARGIN, y, width);
+    }, plotArea(option, 600, 280, MARGIN, y, width));
+    doc.y = y + h + 8;
     doc.x = MARGIN;
+    const far = input.track.flatMap((t) => t.points.filter((p) => Math.abs(p.z) > 4).map((p) => `${p.roundCode} ${p.itemCode} ${t.measurandName} ${p.z.toFixed(SCORE_DECIMALS)}`));
+    if (far.length) write(doc, `Scores beyond ±4 are drawn at the chart’s edge with their value beside the mark: ${far.join(', ')}.`, { size: 8.5, colour: PALETTE.carmine, gap: 3 });
     for (const t of input.track) {
       write(doc, `${t.measurandName}: ${t.points.length} score(s); rescaled sum of z-scores RSZ = ${t.rsz === null ? '—' : t.rsz.toFixed(2)}.`, { size: 9.5 });
       for (const f of t.findings) write(doc, `• ${f.roundCode}: ${f.message}`, { size: 9.5, colour: PALETTE.saffron });
     }
   }
-  doc.moveDown(1);
-  write(doc, CONFIDENTIALITY, { size: 9 });
+  closingSections(doc, input, n + 2);
   finishDoc(doc);
   return done;
 }

@@ -14,7 +14,7 @@ describe('round report PDF', () => {
       expect(text).toContain(`σ_pt = ${g.sigmaPt!.toFixed(g.decimals + 1)}`);
     }
     for (const p of input.groups[0]!.participants) expect(text).toContain(p.code);
-    expect(text).toContain('Reissued report: evaluation version 2 replaces the earlier version. Reason: corrected σ_pt of item B');
+    expect(text).toContain('Corrected report: evaluation version 2 replaces version 1. Reason: corrected σ_pt of item B');
     expect(text).toContain(recordChecksum(input).slice(0, 16)); // footer
     expect(text).toMatch(/ISO 13528:2015/);
     expect(text).toMatch(/radius may have been reported as a diameter/); // blunder hint in general words

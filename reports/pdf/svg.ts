@@ -3,8 +3,14 @@
  * own vector primitives (pdfkit has no SVG import and `svg-to-pdfkit` is not installed). It
  * understands what that renderer emits: <rect>, <path> (pdfkit parses SVG path data), <circle>,
  * <line>, <text> and <g> groups, with `transform`, fill/stroke colours and opacities, stroke
- * width and dash arrays. Clip paths and CSS hover rules are ignored (a printed chart needs
- * neither).
+ * width and dash arrays, and clip paths (`<g clip-path="url(#id)">` clips to the path in
+ * <defs>). Nothing inside <defs> or <style> is drawn: ECharts writes `<defs >` with a space and
+ * puts it after the shapes, and a clip path's own shape is filled black (drawing it painted the
+ * black box over the Track record chart). CSS hover rules are ignored.
+ *
+ * svg-to-pdfkit was considered: it draws text with one font per element, while our PDFs switch
+ * between Noto Sans subset files inside one string (σ, ζ live in the greek file), so the small
+ * drawer below stays.
  */
 import type PDFDocument from 'pdfkit';
 import { FONT, fontRuns, printable } from './fonts';
@@ -134,7 +140,15 @@ export function drawSvg(doc: Doc, svg: string, x: number, y: number, width: numb
   const scale = width / vw;
   doc.save();
   doc.transform(scale, 0, 0, scale, x, y);
-  const body = svg.replace(/<defs>[\s\S]*?<\/defs>/g, '').replace(/<style[\s\S]*?<\/style>/g, '');
+  const clips = new Map<string, string>();
+  for (const c of svg.matchAll(/<clipPath\b([^>]*)>([\s\S]*?)<\/clipPath>/g)) {
+    const id = attrs(c[1]!)['id'];
+    const d = /<path\b[^>]*\bd="([^"]*)"/.exec(c[2]!)?.[1];
+    if (id && d) clips.set(id, d);
+  }
+  const body = svg.replace(/<defs\b[\s\S]*?<\/defs\s*>/g, '').replace(/<style\b[\s\S]*?<\/style\s*>/g, '');
+  const keepX = doc.x;
+  const keepY = doc.y;
   const re = /<(\/?)(g|rect|path|circle|ellipse|line|polyline|polygon|text)\b([^>]*?)(\/?)>(?:([^<]*)<\/text>)?/g;
   let depth = 0;
   for (const m of body.matchAll(re)) {
@@ -148,8 +162,12 @@ export function drawSvg(doc: Doc, svg: string, x: number, y: number, width: numb
       } else if (!selfClose) {
         doc.save();
         depth++;
-        const t = parseTransform(attrs(src!)['transform']);
+        const ga = attrs(src!);
+        const t = parseTransform(ga['transform']);
         if (t) doc.transform(...t);
+        const clipId = /url\(#([^)]+)\)/.exec(ga['clip-path'] ?? '')?.[1];
+        const clip = clipId ? clips.get(clipId) : undefined;
+        if (clip) doc.path(clip).clip();
       }
       continue;
     }
@@ -187,5 +205,8 @@ export function drawSvg(doc: Doc, svg: string, x: number, y: number, width: numb
   while (depth-- > 0) doc.restore();
   doc.restore();
   doc.undash();
+  // Text drawn inside the chart moved pdfkit's cursor; the caller flows on below the chart.
+  doc.x = keepX;
+  doc.y = keepY;
   return vh * scale;
 }

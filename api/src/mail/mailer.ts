@@ -13,6 +13,16 @@ export interface Mailer {
   close(): void;
 }
 
+export interface MailerOptions {
+  /** The PT provider's name from its profile ('' when none is set): From display name and signature. */
+  providerName?: () => Promise<string>;
+}
+
+/** The bare address of a From value written as `Name <address>` or `address`. */
+export function mailAddress(from: string): string {
+  return /<([^>]+)>/.exec(from)?.[1]?.trim() ?? from.trim();
+}
+
 /**
  * Mail through SMTP with nodemailer: the configured server in production, or the local SMTP fake
  * (started by the project itself) in development, demo and tests.
@@ -20,6 +30,7 @@ export interface Mailer {
 export function createMailer(
   config: Pick<AppConfig, 'smtp' | 'mailFrom'>,
   fallbackSmtp?: { host: string; port: number },
+  options: MailerOptions = {},
 ): Mailer {
   const smtp = config.smtp ?? (fallbackSmtp ? { ...fallbackSmtp, secure: false } : null);
   if (!smtp) throw new Error('No SMTP server configured (set SMTP_HOST) and no local mail fake running.');
@@ -32,7 +43,13 @@ export function createMailer(
   });
   return {
     async send(mail) {
-      await transport.sendMail({ from: config.mailFrom, ...mail });
+      const name = (await (options.providerName?.() ?? Promise.resolve('')).catch(() => '')).trim();
+      if (!name) {
+        await transport.sendMail({ from: config.mailFrom, ...mail });
+        return;
+      }
+      // The PT provider's name (its profile) is the From display name and signs the message.
+      await transport.sendMail({ ...mail, from: { name, address: mailAddress(config.mailFrom) }, text: `${mail.text}\n\n-- \n${name}\n` });
     },
     close() {
       transport.close();

@@ -51,7 +51,7 @@ describe('reports and assessor access', () => {
     const wb = new ExcelJS.Workbook();
     await wb.xlsx.load(res.body);
     const g = evaluation.results[0]!;
-    const summary = wb.getWorksheet('Summary')!.getRow(9);
+    const summary = wb.getWorksheet('Summary')!.getRow(15); // 12 report rows, a blank row, the header
     expect(summary.getCell(1).value).toBe(g.itemCode);
     expect(summary.getCell(6).value).toBe(g.assignedValue);
     expect(summary.getCell(8).value).toBe(g.sigmaPt);
@@ -114,8 +114,16 @@ describe('reports and assessor access', () => {
     const manifest = JSON.parse(await zip.file('manifest.json')!.async('string')) as { files: { path: string; sha256: string; bytes: number }[] };
     const paths = Object.keys(zip.files).filter((p) => !zip.files[p]!.dir && p !== 'manifest.json').sort();
     expect(manifest.files.map((f) => f.path).sort()).toEqual(paths);
-    expect(paths.filter((p) => p.endsWith('.pdf'))).toHaveLength(3);
-    expect(paths).toEqual(expect.arrayContaining(['investigations.json', 'instrument-checks.json', 'audit-extract.json', 'README.txt']));
+    // Round report, individual report, certificate, and the readable investigations and instrument checks.
+    expect(paths.filter((p) => p.endsWith('.pdf'))).toHaveLength(5);
+    expect(paths).toEqual(expect.arrayContaining(['investigations.pdf', 'investigations.json', 'instrument-checks.pdf', 'instrument-checks.json', 'audit-extract.json', 'README.txt']));
+    // README, manifest and zip agree: the README names the zip's file count and the manifest's.
+    const readme = await zip.file('README.txt')!.async('string');
+    const allInZip = Object.keys(zip.files).filter((p) => !zip.files[p]!.dir);
+    expect(allInZip).toHaveLength(manifest.files.length + 1);
+    expect(readme).toContain(`The zip holds ${allInZip.length} files: the ${manifest.files.length} listed in manifest.json`);
+    for (const p of paths.filter((x) => !x.includes('/'))) expect(readme).toContain(`- ${p}:`);
+    expect((await pdfParse(await zip.file('investigations.pdf')!.async('nodebuffer'))).text).toContain('Investigations');
     for (const f of manifest.files) {
       const data = await zip.file(f.path)!.async('nodebuffer');
       expect({ path: f.path, sha256: createHash('sha256').update(data).digest('hex'), bytes: data.length }).toEqual(f);

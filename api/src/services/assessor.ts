@@ -4,6 +4,8 @@
  */
 import type { EntityManager } from 'typeorm';
 import { buildEvidencePack, type EvidenceFile } from '../../../reports/evidence/evidence-pack';
+import { buildInstrumentChecksPdf, buildInvestigationsPdf } from '../../../reports/evidence/lab-records';
+import { reportProvider } from './provider';
 import { fileSafe } from '../../../reports/text';
 import type { AssessorInstrumentCheck, AssessorInvestigation, AssessorLab, AssessorLabDetail, AssessorRound } from '../../../shared/contracts/reports';
 import type { SessionUser } from '../auth/session-user';
@@ -164,11 +166,14 @@ export async function evidencePack(ctx: AppContext, user: SessionUser, labId: st
     }
   }
   const detail = { investigations: await labInvestigations(em, labId), instrumentChecks: await labInstrumentChecks(em, labId) };
+  const generatedAt = new Date().toISOString();
+  const recordsMeta = { lab: lab.name, provider: await reportProvider(em), generatedFor: `${user.name} <${user.email}>`, generatedAt };
   files.push({ path: 'rounds.json', data: Buffer.from(JSON.stringify(rounds, null, 2)) });
+  files.push({ path: 'investigations.pdf', data: await buildInvestigationsPdf(detail.investigations, recordsMeta) });
   files.push({ path: 'investigations.json', data: Buffer.from(JSON.stringify(detail.investigations, null, 2)) });
+  files.push({ path: 'instrument-checks.pdf', data: await buildInstrumentChecksPdf(detail.instrumentChecks, recordsMeta) });
   files.push({ path: 'instrument-checks.json', data: Buffer.from(JSON.stringify(detail.instrumentChecks, null, 2)) });
   files.push({ path: 'audit-extract.json', data: Buffer.from(JSON.stringify(await auditExtract(em, labId, rounds.map((r) => r.roundId)), null, 2)) });
-  const generatedAt = new Date().toISOString();
   const file = await buildEvidencePack(files, { lab: lab.name, generatedFor: `${user.name} <${user.email}>`, generatedAt });
   await ctx.ds.transaction((tx) => audit(tx, user.id, 'evidence-pack.downloaded', 'organisation', labId, { rounds: published.map((r) => r.roundCode), files: files.length }));
   return { file, fileName: `evidence-${fileSafe(lab.name)}-${generatedAt.slice(0, 10)}.zip` };

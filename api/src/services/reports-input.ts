@@ -4,8 +4,11 @@
  */
 import type { EntityManager } from 'typeorm';
 import type { ParticipantReportInput, ReportStudy, RoundReportInput } from '../../../reports/model';
+import type { TrackSeries } from '../../../shared/contracts/evaluation';
+import { rescaledSumZ, runRules } from '../../../shared/evaluation/run-rules';
 import { notFound } from '../http/errors';
 import { loadResults } from './evaluation';
+import { reportProvider } from './provider';
 import { labTrackRecord } from './track-record';
 
 export interface EvaluationHead {
@@ -17,12 +20,13 @@ export interface EvaluationHead {
   computed_at: Date;
   reissue_reason: string | null;
   software_version: string;
+  coordinator_comments: string;
 }
 
 /** The newest evaluation of a round (published only, or any state), or null. */
 export async function evaluationHead(em: EntityManager, roundId: string, publishedOnly: boolean): Promise<EvaluationHead | null> {
   const rows: EvaluationHead[] = await em.query(
-    `SELECT id, round_id, version, state, published_at, computed_at, reissue_reason, software_version FROM evaluation
+    `SELECT id, round_id, version, state, published_at, computed_at, reissue_reason, software_version, coordinator_comments FROM evaluation
       WHERE round_id = $1 ${publishedOnly ? `AND state = 'published'` : ''} ORDER BY version DESC LIMIT 1`,
     [roundId],
   );
@@ -32,9 +36,10 @@ export async function evaluationHead(em: EntityManager, roundId: string, publish
 export async function roundReportInput(em: EntityManager, head: EvaluationHead): Promise<RoundReportInput> {
   const rounds: {
     id: string; code: string; title: string; kind: 'pt' | 'precision'; state: string; instructions: string; protocol_temperature_c: number;
-    results_due_at: Date | null; scheme_code: string; scheme_name: string; scheme_description: string;
+    results_due_at: Date | null; scheme_code: string; scheme_name: string; scheme_description: string; dispatch_on: string | null; dispatched_at: Date | null;
   }[] = await em.query(
-    `SELECT r.id, r.code, r.title, r.kind, r.state, r.instructions, r.protocol_temperature_c, r.results_due_at,
+    `SELECT r.id, r.code, r.title, r.kind, r.state, r.instructions, r.protocol_temperature_c, r.results_due_at, r.dispatch_on::text AS dispatch_on,
+            (SELECT min(t.at) FROM round_transition t WHERE t.round_id = r.id AND t.to_state = 'in-transit') AS dispatched_at,
             s.code AS scheme_code, s.name AS scheme_name, s.description AS scheme_description
        FROM round r JOIN scheme s ON s.id = r.scheme_id WHERE r.id = $1`,
     [head.round_id],
@@ -64,6 +69,11 @@ export async function roundReportInput(em: EntityManager, head: EvaluationHead):
     for (const row of rows) replicates[row.code] = row.values;
     return { ...g, replicates };
   });
+  const reported = new Set(groups.flatMap((g) => g.participants.map((p) => p.code)));
+  const enrolled: { participant_code: string; state: string }[] = await em.query(
+    'SELECT participant_code, state FROM enrolment WHERE round_id = $1 ORDER BY participant_code',
+    [r.id],
+  );
   return {
     round: {
       id: r.id,
@@ -77,6 +87,8 @@ export async function roundReportInput(em: EntityManager, head: EvaluationHead):
       instructions: r.instructions,
       protocolTemperatureC: r.protocol_temperature_c,
       resultsDueAt: r.results_due_at?.toISOString() ?? null,
+      dispatchedAt: r.dispatched_at?.toISOString() ?? r.dispatch_on ?? null,
+      dispatchPlanned: !r.dispatched_at && !!r.dispatch_on,
     },
     items: items.map((i) => ({ id: i.id, code: i.code, material: i.material, nominalSizeNm: i.nominal_size_nm, storageNotes: i.storage_notes, handlingNotes: i.handling_notes })),
     measurands: measurands.map((m) => ({ id: m.id, key: m.key, name: m.name, unit: m.unit, decimals: m.decimals, replicatesRequired: m.replicates_required })),
@@ -98,8 +110,11 @@ export async function roundReportInput(em: EntityManager, head: EvaluationHead):
       computedAt: head.computed_at.toISOString(),
       reissueReason: head.reissue_reason,
       softwareVersion: head.software_version,
+      comments: head.coordinator_comments ?? '',
     },
     groups,
+    provider: await reportProvider(em),
+    nonReporters: enrolled.filter((e) => !reported.has(e.participant_code)).map((e) => ({ code: e.participant_code, withdrawn: e.state === 'withdrawn' })),
     generatedAt: new Date().toISOString(),
   };
 }
@@ -111,5 +126,27 @@ export async function participantReportInput(
   lab: { organisationId: string; participantCode: string; labName: string },
 ): Promise<ParticipantReportInput> {
   const base = await roundReportInput(em, head);
-  return { ...base, participantCode: lab.participantCode, labName: lab.labName, track: await labTrackRecord(em, lab.organisationId) };
+  const track = trackUntil(await labTrackRecord(em, lab.organisationId), head.published_at);
+  return { ...base, participantCode: lab.participantCode, labName: lab.labName, track };
+}
+
+/**
+ * The Track record as it stood when a report was issued: only rounds published no later than
+ * `issuedAt` (a report shows what was known then), with RSZ and run rules recomputed on those.
+ * An unpublished preview shows everything published so far.
+ */
+export function trackUntil(series: TrackSeries[], issuedAt: Date | null): TrackSeries[] {
+  if (!issuedAt) return series;
+  const limit = issuedAt.getTime();
+  return series
+    .map((s) => {
+      const points = s.points.filter((p) => p.publishedAt !== null && new Date(p.publishedAt).getTime() <= limit);
+      return {
+        ...s,
+        points,
+        rsz: rescaledSumZ(points.map((p) => p.z)),
+        findings: runRules(points.map((p) => ({ z: p.z, label: `${p.roundCode} ${p.itemCode}` }))),
+      };
+    })
+    .filter((s) => s.points.length > 0);
 }

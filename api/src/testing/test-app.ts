@@ -1,4 +1,5 @@
 import bcrypt from 'bcryptjs';
+import { providerName } from '../services/provider';
 import request from 'supertest';
 import type { DataSource } from 'typeorm';
 import { createTestDatabase, type TestDatabase } from '../../../db/testing';
@@ -44,7 +45,7 @@ export async function startTestApp(overrides: Partial<AppConfig> = {}): Promise<
   const db = await createTestDatabase();
   const smtp = await startSmtpFake(db.ds);
   const config = testConfig(overrides);
-  const mailer = createMailer(config, smtp);
+  const mailer = createMailer(config, smtp, { providerName: () => providerName(db.ds.manager) });
   const app = createApp({ ds: db.ds, config, mailer, log: process.env['RINGLET_TEST_LOG'] ? undefined : () => undefined });
   return {
     ...app,

@@ -30,6 +30,11 @@ export const routes: Routes = [
     loadChildren: () => import('./admin/admin.routes').then((m) => m.ADMIN_ROUTES),
   },
   {
+    path: 'provider',
+    canActivate: [authGuard],
+    loadChildren: () => import('./provider/provider.routes').then((m) => m.PROVIDER_ROUTES),
+  },
+  {
     path: 'outbox',
     canActivate: [authGuard, outboxGuard],
     loadChildren: () => import('./outbox/outbox.routes').then((m) => m.OUTBOX_ROUTES),

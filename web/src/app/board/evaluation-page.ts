@@ -20,6 +20,7 @@ import { ROUND_STATE_LABELS, type RoundState } from '@ringlet/shared/contracts/r
 import { evaluateRecord, type ReplicateInput } from '@ringlet/shared/evaluation/evaluate';
 import { problemMessage } from '../core/problem';
 import { BoardService } from './board.service';
+import { ProviderService } from '../provider/provider.service';
 
 type Counts = { acceptable: number; warning: number; action: number };
 const count = (r: ItemMeasurandEvaluation): Counts => {
@@ -138,6 +139,15 @@ const ruleText = (r: SigmaPtRuleInput): string =>
               <button mat-icon-button type="button" [attr.aria-label]="'Remove exclusion of ' + x.participantCode" (click)="removeExclusion($index)"><mat-icon>close</mat-icon></button></p>
           }
         }
+        <h2>Comments on the round</h2>
+        <p class="note">Printed in the round report. They can be changed until the evaluation is published.</p>
+        <div class="form-row">
+          <mat-form-field appearance="outline" subscriptSizing="dynamic" class="wide"><mat-label>Coordinator’s comments on the round</mat-label>
+            <textarea matInput rows="3" maxlength="4000" [(ngModel)]="comments" [readonly]="!commentsEditable()" data-testid="round-comments"></textarea></mat-form-field>
+          @if (commentsEditable()) {
+            <button mat-stroked-button type="button" (click)="saveComments()" data-testid="save-comments">Save comments</button>
+          }
+        </div>
         @if (v.roundState === 'published') {
           <h2>Reissue</h2>
           <p class="note">A published evaluation never changes. A correction is a new version with a reason; publishing it e-mails the labs again.</p>
@@ -173,6 +183,9 @@ export class EvaluationPage implements OnInit {
   protected xRule: Exclusion['rule'] = 'confirmed-blunder';
   protected xReason = '';
   protected reissueReason = '';
+  private readonly provider = inject(ProviderService);
+  protected comments = '';
+  protected readonly commentsEditable = signal(false);
 
   private readonly replicates = computed<ReplicateInput[]>(() => {
     const v = this.view();
@@ -217,6 +230,13 @@ export class EvaluationPage implements OnInit {
   }
 
   private show(v: EvaluationView): void {
+    this.provider.comments(this.id()).subscribe({
+      next: (c) => {
+        this.comments = c.comments;
+        this.commentsEditable.set(c.editable);
+      },
+      error: () => this.commentsEditable.set(false),
+    });
     this.view.set(v);
     this.missing.set(false);
     this.overrides.set(v.settings.sigmaPtOverrides);
@@ -309,6 +329,17 @@ export class EvaluationPage implements OnInit {
       next: (r) => {
         this.message.set(`Published version ${r.version}: ${r.labsNotified} labs e-mailed, ${r.investigationsOpened} investigations opened.`);
         this.service.evaluation(this.id()).subscribe((v) => this.show(v));
+      },
+      error: (e: unknown) => this.error.set(problemMessage(e)),
+    });
+  }
+  protected saveComments(): void {
+    this.provider.saveComments(this.id(), this.comments).subscribe({
+      next: (c) => {
+        this.comments = c.comments;
+        this.commentsEditable.set(c.editable);
+        this.error.set(null);
+        this.message.set('Comments saved; the round report prints them.');
       },
       error: (e: unknown) => this.error.set(problemMessage(e)),
     });

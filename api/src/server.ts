@@ -6,7 +6,6 @@ import { createLogger, logFunction } from './http/logging';
 import { gracefulShutdown } from './http/shutdown';
 import { startJobs } from './jobs/queue';
 import { createMailer } from './mail/mailer';
-import { startSmtpFake } from './mail/smtp-fake';
 import { runQueuedBuild } from './services/reports';
 import { DEFAULT_DEMO_PASSWORD, DEMO_USERS } from '../../db/seed/demo-people';
 import { isEmpty, seedDemo } from '../../db/seed/demo';
@@ -22,16 +21,25 @@ const JOB_GRACE_MS = Number(process.env['RINGLET_SHUTDOWN_JOB_MS'] ?? 20_000);
  * job queue, listens; on SIGTERM or SIGINT shuts down gracefully (in-flight requests, then jobs).
  */
 async function main(): Promise<void> {
+  const phases: Record<string, number> = { modules: Math.round(performance.now()) };
+  let mark = performance.now();
+  const phase = (name: string) => {
+    phases[name] = Math.round(performance.now() - mark);
+    mark = performance.now();
+  };
   const config = readConfig();
   const ds = createDataSource(config.databaseUrl ?? databaseUrl());
   await ds.initialize();
+  phase('database');
   await ds.runMigrations({ transaction: 'each' });
+  phase('migrations');
   const demoPassword = config.demoPassword ?? DEFAULT_DEMO_PASSWORD;
   if (config.mode === 'demo' && (await isEmpty(ds))) {
     logger.info('empty database: loading the demo scenario');
     await seedDemo(ds, demoPassword, config.publicUrl);
   }
-  const fake = hasOutbox(config.mode) && !config.smtp ? await startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
+  // The local SMTP fake (and mailparser behind it) loads only where it runs: never in production.
+  const fake = hasOutbox(config.mode) && !config.smtp ? await (await import('./mail/smtp-fake')).startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
   const smtpMailer = createMailer(config, fake ?? undefined);
   // The PostgreSQL-backed job queue: mail retries, publication mail, report builds, round
   // reminders (shared by every instance; jobs survive a restart).
@@ -43,13 +51,15 @@ async function main(): Promise<void> {
     log,
     workers: process.env['RINGLET_JOB_WORKERS'] !== 'off',
   });
+  phase('jobQueue');
   const mailer = jobs.mailer;
   const { app, context } = createApp({ ds, config, mailer, log, logger, queue: jobs.queue });
   await jobs.attach(context, runQueuedBuild);
+  phase('app');
   const server = app.listen(config.port, config.host, () => {
     const addr = server.address();
     const port = typeof addr === 'object' && addr ? addr.port : config.port;
-    logger.info({ port, mode: config.mode }, `listening on http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${port} (${config.mode} mode)`);
+    logger.info({ port, mode: config.mode, startupMs: { ...phases, total: Math.round(performance.now()) } }, `listening on http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${port} (${config.mode} mode)`);
     if (fake) logger.info({ smtpPort: fake.port }, `local mail fake on smtp://127.0.0.1:${fake.port}; mail shows on the Outbox page`);
     if (config.mode === 'demo') printDemoBanner(`http://localhost:${port}`, demoPassword);
   });

@@ -12,11 +12,7 @@
  */
 import type { EntityManager } from 'typeorm';
 import { Report, type ReportKind } from '../../../db/entities/report';
-import { buildRoundWorkbook } from '../../../reports/excel/round-workbook';
 import { sha256 } from '../../../reports/model';
-import { buildCertificatePdf } from '../../../reports/pdf/certificate';
-import { buildParticipantReportPdf } from '../../../reports/pdf/participant-report';
-import { buildRoundReportPdf } from '../../../reports/pdf/round-report';
 import type { ReportStatus } from '../../../shared/contracts/reports';
 import { labIds, type SessionUser } from '../auth/session-user';
 import { notFound } from '../http/errors';
@@ -140,12 +136,17 @@ async function buildFile(ctx: AppContext, k: CacheKey, lab: LabInRound | null, p
   if (k.kind === 'round.xlsx' || k.kind === 'round.pdf') {
     const input = await roundReportInput(em, k.head);
     await progress(30);
-    return k.kind === 'round.xlsx' ? buildRoundWorkbook(input) : buildRoundReportPdf(input);
+    // The builders (and pdfkit, ECharts, ExcelJS behind them) load at the first build, not at server start.
+    return k.kind === 'round.xlsx'
+      ? (await import('../../../reports/excel/round-workbook')).buildRoundWorkbook(input)
+      : (await import('../../../reports/pdf/round-report')).buildRoundReportPdf(input);
   }
   if (!lab) throw new Error('a lab file needs its lab');
   const input = await participantReportInput(em, k.head, lab);
   await progress(30);
-  return k.kind === 'participant.pdf' ? buildParticipantReportPdf(input) : buildCertificatePdf(input);
+  return k.kind === 'participant.pdf'
+    ? (await import('../../../reports/pdf/participant-report')).buildParticipantReportPdf(input)
+    : (await import('../../../reports/pdf/certificate')).buildCertificatePdf(input);
 }
 
 function fileName(k: CacheKey, roundCode: string, lab: LabInRound | null): string {

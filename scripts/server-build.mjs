@@ -1,0 +1,45 @@
+// The server's production build: api/src/server.ts bundled by esbuild into one CommonJS file,
+// dist/api/server.js (plus a source map), started with plain `node`. Our code (api/, db/,
+// reports/, shared/ through the @ringlet/shared/* alias of tsconfig.json) is bundled; packages
+// stay in node_modules. dist/api/ sits two folders below the repository like api/src/, so the
+// path to the built web app (dist/web/browser) is the same in both.
+import { existsSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { log, newestMtime, root } from './lib.mjs';
+
+export const SERVER_OUT = join(root, 'dist/api/server.js');
+const SOURCES = ['api/src', 'db', 'reports', 'shared', 'tsconfig.json', 'tsconfig.node.json', 'package-lock.json', 'scripts/server-build.mjs'];
+
+export async function buildServer() {
+  const { build } = await import('esbuild');
+  const t0 = Date.now();
+  await build({
+    absWorkingDir: root,
+    entryPoints: ['api/src/server.ts'],
+    outfile: SERVER_OUT,
+    bundle: true,
+    platform: 'node',
+    target: 'node20',
+    format: 'cjs',
+    packages: 'external',
+    tsconfig: 'tsconfig.node.json',
+    sourcemap: true,
+    logLevel: 'warning',
+  });
+  log(`server built: dist/api/server.js (${Date.now() - t0} ms)`);
+}
+
+/** Builds the server unless dist/api/server.js is newer than every source it comes from. */
+export async function buildServerIfStale() {
+  const built = existsSync(SERVER_OUT) ? statSync(SERVER_OUT).mtimeMs : 0;
+  if (built > newestMtime(SOURCES) && !process.env.RINGLET_FORCE_BUILD) {
+    log('server is up to date (dist/api)');
+    return;
+  }
+  log('building the server…');
+  await buildServer();
+}
+
+if (process.argv[1] && import.meta.url.endsWith(process.argv[1].replace(/^.*\//, '/'))) {
+  await buildServer();
+}

@@ -30,6 +30,7 @@ async function optional(title: string, path: string, fn: string): Promise<void> 
 async function main(): Promise<void> {
   await optional('consensus board API', './board', 'benchBoard');
   await optional('reports', './reports', 'benchReports');
+  await optional('compiled server', './runtime', 'benchRuntime');
   const rows: (BenchRow & { area: string })[] = [];
   for (const b of benches) {
     process.stderr.write(`running ${b.title}…\n`);

@@ -10,6 +10,33 @@ import { log, newestMtime, root } from './lib.mjs';
 export const SERVER_OUT = join(root, 'dist/api/server.js');
 const SOURCES = ['api/src', 'db', 'reports', 'shared', 'tsconfig.json', 'tsconfig.node.json', 'package-lock.json', 'scripts/server-build.mjs'];
 
+/**
+ * Packages the server needs only for some requests (spreadsheets, zip files), loaded at their
+ * first use instead of at start: each is replaced by a stand-in that requires the package when a
+ * property is read, or it is called or constructed. Only for packages imported as a default
+ * import (`import ExcelJS from 'exceljs'`), which is how the code uses them.
+ */
+const LAZY_PACKAGES = ['exceljs', 'archiver'];
+
+export const lazyPackages = {
+  name: 'lazy-packages',
+  setup(b) {
+    const filter = new RegExp(`^(${LAZY_PACKAGES.join('|')})$`);
+    b.onResolve({ filter }, (args) => (args.namespace === 'lazy' ? { path: args.path, external: true } : { path: args.path, namespace: 'lazy' }));
+    b.onLoad({ filter: /.*/, namespace: 'lazy' }, (args) => ({
+      loader: 'js',
+      contents: `let m;
+const load = () => (m ??= require(${JSON.stringify(args.path)}));
+module.exports = new Proxy(function () {}, {
+  get: (_t, p) => (p === '__esModule' ? undefined : load()[p]),
+  has: (_t, p) => p in load(),
+  apply: (_t, self, args) => load().apply(self, args),
+  construct: (_t, args) => new (load())(...args),
+});`,
+    }));
+  },
+};
+
 export async function buildServer() {
   const { build } = await import('esbuild');
   const t0 = Date.now();
@@ -25,6 +52,7 @@ export async function buildServer() {
     tsconfig: 'tsconfig.node.json',
     sourcemap: true,
     logLevel: 'warning',
+    plugins: [lazyPackages],
   });
   log(`server built: dist/api/server.js (${Date.now() - t0} ms)`);
 }

@@ -34,6 +34,7 @@ async function main(): Promise<void> {
   await optional('browser', './first-visit', 'benchFirstVisit');
   await optional('reports', './reports', 'benchReports');
   await optional('uploads', './uploads', 'benchUploads');
+  await optional('compiled server', './runtime', 'benchRuntime');
   const rows: (BenchRow & { area: string })[] = [];
   for (const b of benches) {
     process.stderr.write(`running ${b.title}…\n`);

@@ -9,10 +9,12 @@ import type { DataSource } from 'typeorm';
 import { actingLab, createPassport } from './auth/passport';
 import { API_REFERENCE_CSS, renderApiReference } from './http/api-reference';
 import { errorHandler, notFound } from './http/errors';
+import { requestLogging, silentLogger, type Logger } from './http/logging';
 import { buildOpenApi } from './http/openapi';
 import { ApiRouter, type AnyRoute } from './http/route';
 import { webApp } from './http/static-files';
 import type { AppConfig } from './config';
+import type { JobQueue } from './jobs/queue';
 import type { Mailer } from './mail/mailer';
 import { adminRoutes } from './routes/admin';
 import { authRoutes } from './routes/auth';
@@ -32,6 +34,10 @@ export interface AppDeps {
   config: AppConfig;
   mailer: Mailer;
   log?: (msg: string, err?: unknown) => void;
+  /** The job queue for background work (report builds, publication mail); server.ts passes it. */
+  queue?: JobQueue;
+  /** Structured log (pino) for the per-request lines with their request id; tests get a silent one. */
+  logger?: Logger;
 }
 
 export interface RingletApp {
@@ -63,9 +69,10 @@ export const HSTS = 'max-age=31536000; includeSubDomains';
 /** Builds the Express app without listening (server.ts listens; tests use supertest). */
 export function createApp(deps: AppDeps): RingletApp {
   const log = deps.log ?? ((msg: string, err?: unknown) => console.error(`[ringlet] ${msg}`, err ?? ''));
-  const ctx: AppContext = { ds: deps.ds, config: deps.config, mailer: deps.mailer, log };
+  const ctx: AppContext = { ds: deps.ds, config: deps.config, mailer: deps.mailer, log, queue: deps.queue };
   const app = express();
   app.disable('x-powered-by');
+  app.use(requestLogging(deps.logger ?? silentLogger()));
   if (deps.config.trustProxy) app.set('trust proxy', 1);
 
   // HSTS only on answers that went out over HTTPS (directly, or behind a trusted proxy that says

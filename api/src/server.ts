@@ -4,55 +4,92 @@ import { migrateDatabase } from '../../db/migrate';
 import { providerName } from './services/provider';
 import { createApp } from './app';
 import { hasOutbox, readConfig } from './config';
+import { createLogger, logFunction } from './http/logging';
+import { gracefulShutdown } from './http/shutdown';
 import { startJobs } from './jobs/queue';
 import { createMailer } from './mail/mailer';
-import { startSmtpFake } from './mail/smtp-fake';
+import { runQueuedBuild } from './services/reports';
 import { DEFAULT_DEMO_PASSWORD, DEMO_USERS } from '../../db/seed/demo-people';
 import { isEmpty, seedDemo } from '../../db/seed/demo';
 
-/** Reads the config, connects, migrates, starts the local mail fake outside production, listens. */
+const logger = createLogger({ level: process.env['LOG_LEVEL'] || 'info' });
+const log = logFunction(logger);
+/** In-flight requests get this long to finish at shutdown; jobs in progress get JOB_GRACE_MS more. */
+const REQUEST_GRACE_MS = Number(process.env['RINGLET_SHUTDOWN_REQUEST_MS'] ?? 20_000);
+const JOB_GRACE_MS = Number(process.env['RINGLET_SHUTDOWN_JOB_MS'] ?? 20_000);
+
+/**
+ * Reads the config, connects, migrates, starts the local mail fake outside production and the
+ * job queue, listens; on SIGTERM or SIGINT shuts down gracefully (in-flight requests, then jobs).
+ */
 async function main(): Promise<void> {
+  const phases: Record<string, number> = { modules: Math.round(performance.now()) };
+  let mark = performance.now();
+  const phase = (name: string) => {
+    phases[name] = Math.round(performance.now() - mark);
+    mark = performance.now();
+  };
   const config = readConfig();
   // Migrations (and the demo seed) run as the owner role; the server itself connects as the runtime role.
   const ownerUrl = config.databaseOwnerUrl ?? ownerDatabaseUrl();
   await migrateDatabase(ownerUrl);
+  phase('migrations');
   const ds = createDataSource(config.databaseUrl ?? databaseUrl());
   await ds.initialize();
+  phase('database');
   const demoPassword = config.demoPassword ?? DEFAULT_DEMO_PASSWORD;
   if (config.mode === 'demo' && (await isEmpty(ds))) {
-    console.log('[ringlet] empty database: loading the demo scenario…');
+    logger.info('empty database: loading the demo scenario');
     const owner = await createDataSource(ownerUrl).initialize();
     await seedDemo(owner, demoPassword, config.publicUrl).finally(() => owner.destroy());
   }
-  const fake = hasOutbox(config.mode) && !config.smtp ? await startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
+  // The local SMTP fake (and mailparser behind it) loads only where it runs: never in production.
+  const fake = hasOutbox(config.mode) && !config.smtp ? await (await import('./mail/smtp-fake')).startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
   const smtpMailer = createMailer(config, fake ?? undefined, { providerName: () => providerName(ds.manager) });
-  // The PostgreSQL-backed job queue: mail retries and round reminders (shared by every instance).
+  // The PostgreSQL-backed job queue: mail retries, publication mail, report builds, round
+  // reminders (shared by every instance; jobs survive a restart).
   const jobs = await startJobs({
     connectionString: config.databaseUrl ?? databaseUrl(),
     ds,
     mailer: smtpMailer,
     publicUrl: config.publicUrl,
-    log: (msg, err) => console.error(`[ringlet] ${msg}`, err ?? ''),
+    log,
+    workers: process.env['RINGLET_JOB_WORKERS'] !== 'off',
   });
+  phase('jobQueue');
   const mailer = jobs.mailer;
-  const { app } = createApp({ ds, config, mailer });
+  const { app, context } = createApp({ ds, config, mailer, log, logger, queue: jobs.queue });
+  await jobs.attach(context, runQueuedBuild);
+  phase('app');
   const server = app.listen(config.port, config.host, () => {
     const addr = server.address();
     const port = typeof addr === 'object' && addr ? addr.port : config.port;
-    console.log(`[ringlet] listening on http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${port} (${config.mode} mode)`);
-    if (fake) console.log(`[ringlet] local mail fake on smtp://127.0.0.1:${fake.port}; mail shows on the Outbox page`);
+    logger.info({ port, mode: config.mode, startupMs: { ...phases, total: Math.round(performance.now()) } }, `listening on http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${port} (${config.mode} mode)`);
+    if (fake) logger.info({ smtpPort: fake.port }, `local mail fake on smtp://127.0.0.1:${fake.port}; mail shows on the Outbox page`);
     if (config.mode === 'demo') printDemoBanner(`http://localhost:${port}`, demoPassword);
   });
-  const stop = async () => {
-    server.close();
-    await jobs.stop();
-    mailer.close();
-    await fake?.close();
-    await ds.destroy();
-    process.exit(0);
+  const shutdown = gracefulShutdown(
+    server,
+    [
+      () => jobs.stop(JOB_GRACE_MS),
+      () => mailer.close(),
+      async () => void (await fake?.close()),
+      () => ds.destroy(),
+    ],
+    { requestTimeoutMs: REQUEST_GRACE_MS, log: (m) => logger.info(m) },
+  );
+  const stop = (signal: string) => {
+    logger.info({ signal }, `${signal} received`);
+    shutdown().then(
+      () => logger.flush(() => process.exit(0)),
+      (err: unknown) => {
+        logger.error({ err }, 'shutdown failed');
+        logger.flush(() => process.exit(1));
+      },
+    );
   };
-  process.on('SIGTERM', stop);
-  process.on('SIGINT', stop);
+  process.on('SIGTERM', () => stop('SIGTERM'));
+  process.on('SIGINT', () => stop('SIGINT'));
 }
 
 function printDemoBanner(url: string, password: string): void {
@@ -71,6 +108,6 @@ function printDemoBanner(url: string, password: string): void {
 }
 
 main().catch((err: unknown) => {
-  console.error(err instanceof Error ? err.message : err);
-  process.exit(1);
+  logger.fatal({ err }, err instanceof Error ? err.message : String(err));
+  logger.flush(() => process.exit(1));
 });

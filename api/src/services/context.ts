@@ -1,5 +1,6 @@
 import type { DataSource } from 'typeorm';
 import type { AppConfig } from '../config';
+import type { JobQueue } from '../jobs/queue';
 import type { Mailer } from '../mail/mailer';
 
 /** What every service needs; built once in createApp(). */
@@ -8,4 +9,6 @@ export interface AppContext {
   config: AppConfig;
   mailer: Mailer;
   log: (msg: string, err?: unknown) => void;
+  /** The PostgreSQL-backed job queue (api/src/jobs); absent when the app runs without one (most tests). */
+  queue?: JobQueue;
 }

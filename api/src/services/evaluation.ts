@@ -21,6 +21,7 @@ import {
   type ItemMeasurandEvaluation,
   type SigmaPtRuleInput,
 } from '../../../shared/contracts/evaluation';
+import { enqueuePublicationMails } from '../jobs/publication';
 import { ROUND_STATE_LABELS } from '../../../shared/contracts/round-states';
 import { buildBoard } from '../../../shared/evaluation/board';
 import { evaluateRecord, type EvaluationInput, type ReplicateInput } from '../../../shared/evaluation/evaluate';
@@ -373,38 +374,25 @@ export async function publishEvaluation(
     const opened = await openInvestigations(em, roundId, e.id, results);
     const addresses = await labAddresses(em, roundId);
     await audit(em, actor.id, 'evaluation.published', 'round', roundId, { evaluationId: e.id, version: e.version, investigationsOpened: opened });
-    return { e, round, opened, addresses };
+    const link = `${ctx.config.publicUrl}/board/rounds/${roundId}/scores`;
+    const reissue = e.reissueReason ? `\nThis is a corrected version (version ${e.version}): ${e.reissueReason}\n` : '';
+    const mails = addresses
+      .filter((a) => a.to.length > 0)
+      .map((a) => ({
+        to: a.to,
+        subject: `Results of round ${round.code} are published`,
+        text:
+          `Hello ${a.labName},\n\nThe results of round ${round.code} (${round.title}) are published.\n` +
+          `Your participant code is ${a.code}. Read your scores with a plain explanation here:\n\n${link}\n${reissue}\n` +
+          `Every other lab appears only by its participant code.\n\nRinglet`,
+      }));
+    // One queued mail per lab, committed with the publication (api/src/jobs/publication.ts): sent
+    // after it by the job queue's worker, retried with back-off, never lost with this process.
+    const deliver = await enqueuePublicationMails(ctx, em, mails);
+    return { e, opened, sent: mails.length, deliver };
   });
-  const link = `${ctx.config.publicUrl}/board/rounds/${roundId}/scores`;
-  const reissue = out.e.reissueReason ? `\nThis is a corrected version (version ${out.e.version}): ${out.e.reissueReason}\n` : '';
-  const mails = out.addresses
-    .filter((a) => a.to.length > 0)
-    .map((a) => ({
-      to: a.to,
-      subject: `Results of round ${out.round.code} are published`,
-      text:
-        `Hello ${a.labName},\n\nThe results of round ${out.round.code} (${out.round.title}) are published.\n` +
-        `Your participant code is ${a.code}. Read your scores with a plain explanation here:\n\n${link}\n${reissue}\n` +
-        `Every other lab appears only by its participant code.\n\nRinglet`,
-    }));
-  // The publication is recorded; the mail goes out after it, 8 at a time, without holding the
-  // request. The server's mailer is the queued one (api/src/jobs): a message SMTP refuses is put
-  // on the PostgreSQL-backed queue and retried with back-off; the lab also sees the scores on its Lab bench.
-  const sent = mails.length;
-  void (async () => {
-    let next = 0;
-    const worker = async () => {
-      while (next < mails.length) {
-        const m = mails[next++]!;
-        try {
-          await ctx.mailer.send(m);
-        } catch (err) {
-          ctx.log(`publication mail to ${m.to.join(', ')} failed`, err);
-        }
-      }
-    };
-    await Promise.all(Array.from({ length: Math.min(8, mails.length) }, worker));
-  })();
+  out.deliver();
+  const sent = out.sent;
   return { evaluationId: out.e.id, version: out.e.version, labsNotified: sent, investigationsOpened: out.opened };
 }
 

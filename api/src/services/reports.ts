@@ -2,20 +2,17 @@
  * Report files: who may fetch which, and the shared cache. A file is built from the stored
  * evaluation once per round × kind × lab × evaluation version and kept in the `report` table
  * (bytes + SHA-256), so every server instance serves the same bytes. Small rounds are built
- * inside the request; rounds above BACKGROUND_MIN_PARTICIPANTS are built in the background by
- * this process (status row in PostgreSQL, progress 0–100) and the request answers 202 with the
- * status — the caller polls GET /reports/{reportId} and fetches the same URL again when done.
- * (No pg-boss queue is set up in api/src/jobs yet; when one exists, the build function below is
- * the job's handler.) A 'running' row older than STALE_MINUTES (an instance that died) is
- * rebuilt.
+ * inside the request; rounds above backgroundMinParticipants() (300) are built by a `report-build` job
+ * on the PostgreSQL-backed queue (api/src/jobs): the status row (queued → running → done or
+ * failed, progress 0–100) and the job are inserted in one transaction, so a build survives a
+ * restart, is retried (REPORT_RETRY) and shows 'failed' only after its last attempt. The request
+ * answers 202 with the status — the caller polls GET /reports/{reportId} and fetches the same URL
+ * again when done. Without a queue (tests and benches that start the app alone) the build runs
+ * in this process. A 'running' row older than STALE_MINUTES (an instance that died) is rebuilt.
  */
 import type { EntityManager } from 'typeorm';
 import { Report, type ReportKind } from '../../../db/entities/report';
-import { buildRoundWorkbook } from '../../../reports/excel/round-workbook';
 import { sha256 } from '../../../reports/model';
-import { buildCertificatePdf } from '../../../reports/pdf/certificate';
-import { buildParticipantReportPdf } from '../../../reports/pdf/participant-report';
-import { buildRoundReportPdf } from '../../../reports/pdf/round-report';
 import type { ReportStatus } from '../../../shared/contracts/reports';
 import { labIds, type SessionUser } from '../auth/session-user';
 import { notFound } from '../http/errors';
@@ -24,7 +21,8 @@ import type { AppContext } from './context';
 import { grantedLabIds } from './grants';
 import { evaluationHead, participantReportInput, roundReportInput, type EvaluationHead } from './reports-input';
 
-export const BACKGROUND_MIN_PARTICIPANTS = Number(process.env['RINGLET_REPORT_BACKGROUND_MIN'] ?? 300);
+/** Above this many participants a file is built in the background (RINGLET_REPORT_BACKGROUND_MIN, read at each request). */
+export const backgroundMinParticipants = (): number => Number(process.env['RINGLET_REPORT_BACKGROUND_MIN'] ?? 300);
 const STALE_MINUTES = 10;
 
 export const CONTENT_TYPES: Record<ReportKind, string> = {
@@ -138,12 +136,17 @@ async function buildFile(ctx: AppContext, k: CacheKey, lab: LabInRound | null, p
   if (k.kind === 'round.xlsx' || k.kind === 'round.pdf') {
     const input = await roundReportInput(em, k.head);
     await progress(30);
-    return k.kind === 'round.xlsx' ? buildRoundWorkbook(input) : buildRoundReportPdf(input);
+    // The builders (and pdfkit, ECharts, ExcelJS behind them) load at the first build, not at server start.
+    return k.kind === 'round.xlsx'
+      ? (await import('../../../reports/excel/round-workbook')).buildRoundWorkbook(input)
+      : (await import('../../../reports/pdf/round-report')).buildRoundReportPdf(input);
   }
   if (!lab) throw new Error('a lab file needs its lab');
   const input = await participantReportInput(em, k.head, lab);
   await progress(30);
-  return k.kind === 'participant.pdf' ? buildParticipantReportPdf(input) : buildCertificatePdf(input);
+  return k.kind === 'participant.pdf'
+    ? (await import('../../../reports/pdf/participant-report')).buildParticipantReportPdf(input)
+    : (await import('../../../reports/pdf/certificate')).buildCertificatePdf(input);
 }
 
 function fileName(k: CacheKey, roundCode: string, lab: LabInRound | null): string {
@@ -161,7 +164,7 @@ async function participantCount(em: EntityManager, evaluationId: string): Promis
   return rows[0]?.n ?? 0;
 }
 
-async function runBuild(ctx: AppContext, row: Report, k: CacheKey, lab: LabInRound | null): Promise<Buffer> {
+async function runBuild(ctx: AppContext, row: Report, k: CacheKey, lab: LabInRound | null, lastAttempt = true): Promise<Buffer> {
   const repo = ctx.ds.getRepository(Report);
   try {
     const file = await buildFile(ctx, k, lab, async (p) => void (await repo.update({ id: row.id }, { progress: p })));
@@ -169,7 +172,11 @@ async function runBuild(ctx: AppContext, row: Report, k: CacheKey, lab: LabInRou
     await repo.update({ id: row.id }, { file, sha256: sum, sizeBytes: file.length, status: 'done', progress: 100, finishedAt: new Date(), error: null });
     return file;
   } catch (err) {
-    ctx.log(`report build ${k.kind} for round ${k.roundId} failed`, err);
+    ctx.log(`report build ${k.kind} for round ${k.roundId} failed${lastAttempt ? '' : '; retried later'}`, err);
+    if (!lastAttempt) {
+      await repo.update({ id: row.id }, { status: 'queued', progress: 0 });
+      throw err;
+    }
     await repo.update({ id: row.id }, { status: 'failed', error: 'The file could not be built. Try again; if it fails again, tell the coordinator.', finishedAt: new Date() });
     throw err;
   }
@@ -199,9 +206,10 @@ export async function reportFile(
     }
     if (row?.status === 'done') return { file: await readFile(em, row.id), sha256: row.sha256!, ...meta };
     if (!row) {
-      const background = !wait && (await participantCount(em, k.head.id)) > BACKGROUND_MIN_PARTICIPANTS;
+      const background = !wait && (await participantCount(em, k.head.id)) > backgroundMinParticipants();
       try {
-        row = await em.save(
+        row = await saveAndEnqueue(ctx, background, (tx) =>
+          tx.save(
           Report,
           em.create(Report, {
             roundId: k.roundId,
@@ -209,17 +217,19 @@ export async function reportFile(
             organisationId: k.organisationId,
             evaluationId: k.head.id,
             evaluationVersion: k.head.version,
-            status: 'running',
-            progress: 5,
+            status: background ? 'queued' : 'running',
+            progress: background ? 0 : 5,
             requestedBy: user.id,
           }),
+          ),
         );
       } catch (err) {
         if ((err as { code?: string }).code === '23505') continue; // another request or instance started it
         throw err;
       }
       if (background) {
-        setImmediate(() => void runBuild(ctx, row!, k, lab).catch(() => undefined));
+        if (ctx.queue) ctx.queue.kick();
+        else setImmediate(() => void runBuild(ctx, row!, k, lab).catch(() => undefined));
         return { pending: statusOf(row, downloadUrl) };
       }
       const file = await runBuild(ctx, row, k, lab);
@@ -230,6 +240,45 @@ export async function reportFile(
     await new Promise((r) => setTimeout(r, 100));
   }
   throw new Error('report build did not finish in time');
+}
+
+/** Saves a new report row; for a background build with a queue, together with its job in one transaction. */
+async function saveAndEnqueue(ctx: AppContext, background: boolean, save: (em: EntityManager) => Promise<Report>): Promise<Report> {
+  const queue = ctx.queue;
+  if (!background || !queue) return save(ctx.ds.manager);
+  return ctx.ds.transaction(async (tx) => {
+    const row = await save(tx);
+    await queue.enqueueReportBuild(row.id, tx);
+    return row;
+  });
+}
+
+/**
+ * The `report-build` job's work: builds a queued report row. A failure before the last attempt
+ * puts the row back to 'queued' and throws, so the queue retries it; the last one leaves it
+ * 'failed' with a message for the reader. A row that is done or gone (rebuilt meanwhile) is left alone.
+ */
+export async function runQueuedBuild(ctx: AppContext, reportId: string, lastAttempt: boolean): Promise<void> {
+  const repo = ctx.ds.getRepository(Report);
+  const row = await repo.findOne({ where: { id: reportId } });
+  if (!row || row.status === 'done' || row.status === 'failed' || !row.roundId || !row.evaluationId) return;
+  const heads: EvaluationHead[] = await ctx.ds.query(
+    `SELECT id, round_id, version, state, published_at, computed_at, reissue_reason, software_version FROM evaluation WHERE id = $1`,
+    [row.evaluationId],
+  );
+  let lab: LabInRound | null = null;
+  if (row.organisationId) {
+    const labs: { participant_code: string; name: string }[] = await ctx.ds.query(
+      `SELECT e.participant_code, o.name FROM enrolment e JOIN organisation o ON o.id = e.organisation_id
+        WHERE e.round_id = $1 AND e.organisation_id = $2`,
+      [row.roundId, row.organisationId],
+    );
+    if (labs[0]) lab = { organisationId: row.organisationId, participantCode: labs[0].participant_code, labName: labs[0].name };
+  }
+  await repo.update({ id: row.id }, { status: 'running', progress: 5 });
+  const head = heads[0];
+  const k: CacheKey = { roundId: row.roundId, kind: row.kind, organisationId: row.organisationId, head: head ?? ({ id: row.evaluationId } as EvaluationHead) };
+  await runBuild(ctx, row, k, lab, lastAttempt || !head);
 }
 
 /** GET /reports/{reportId}: a build's status, for its requester, coordinators, or readers of its lab and round. */

@@ -3,6 +3,8 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { timer, switchMap, takeWhile, last } from 'rxjs';
+import type { ReportStatus } from '@ringlet/shared/contracts/reports';
+import { BuildState } from './build-state';
 import { ReportsService, saveFile } from './reports.service';
 
 /**
@@ -12,7 +14,7 @@ import { ReportsService, saveFile } from './reports.service';
 @Component({
   selector: 'app-download-button',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, MatIconModule, MatProgressBarModule],
+  imports: [MatButtonModule, MatIconModule, MatProgressBarModule, BuildState],
   template: `
     <span class="dl">
       <button mat-stroked-button type="button" [disabled]="busy()" (click)="start()" [attr.data-testid]="testId()">
@@ -26,6 +28,9 @@ import { ReportsService, saveFile } from './reports.service';
           data-testid="download-progress"
         />
         <span class="note">{{ note() }}</span>
+      }
+      @if (build(); as b) {
+        <app-build-state [status]="b" />
       }
       @if (error()) {
         <span class="note error" role="alert">{{ error() }}</span>
@@ -48,18 +53,22 @@ export class DownloadButton {
   protected readonly percent = signal<number | null>(null);
   protected readonly note = signal('');
   protected readonly error = signal('');
+  /** The background build's state (queued, running with progress, done, failed); null for a direct download. */
+  protected readonly build = signal<Pick<ReportStatus, 'status' | 'progress' | 'error'> | null>(null);
 
   protected start(): void {
     this.busy.set(true);
     this.error.set('');
     this.percent.set(null);
     this.note.set('Preparing…');
+    if (this.build()?.status !== 'done') this.build.set(null);
     const sub = this.reports.download(this.path()).subscribe({
       next: (step) => {
         if (step.kind === 'progress') {
           this.percent.set(step.percent);
           this.note.set(`${Math.round(step.loaded / 1024)} kB received`);
         } else if (step.kind === 'building') {
+          this.build.set(step.status);
           this.poll(step.status.id);
         } else {
           saveFile(step.blob, step.fileName);
@@ -84,6 +93,7 @@ export class DownloadButton {
       .pipe(last())
       .subscribe({
         next: (s) => {
+          this.build.set(s);
           if (s.status === 'done') this.start();
           else {
             this.busy.set(false);
@@ -98,6 +108,7 @@ export class DownloadButton {
     const progress = timer(0, 1000)
       .pipe(switchMap(() => this.reports.status(reportId)), takeWhile((s) => s.status === 'queued' || s.status === 'running'))
       .subscribe((s) => {
+        this.build.set(s);
         this.percent.set(s.progress);
         this.note.set(`Building the file on the server: ${s.progress} %`);
       });

@@ -1,0 +1,76 @@
+// The server's production build: api/src/server.ts bundled by esbuild into one CommonJS file,
+// dist/api/server.js (plus a source map), started with plain `node`. Our code (api/, db/,
+// reports/, shared/ through the @ringlet/shared/* alias of tsconfig.json) is bundled; packages
+// stay in node_modules. dist/api/ sits two folders below the repository like api/src/, so the
+// path to the built web app (dist/web/browser) is the same in both.
+import { existsSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { log, newestMtime, root } from './lib.mjs';
+
+export const SERVER_OUT = join(root, 'dist/api/server.js');
+const SOURCES = ['api/src', 'db', 'reports', 'shared', 'tsconfig.json', 'tsconfig.node.json', 'package-lock.json', 'scripts/server-build.mjs'];
+
+/**
+ * Packages the server needs only for some requests (spreadsheets, zip files), loaded at their
+ * first use instead of at start: each is replaced by a stand-in that requires the package when a
+ * property is read, or it is called or constructed. Only for packages imported as a default
+ * import (`import ExcelJS from 'exceljs'`), which is how the code uses them.
+ */
+const LAZY_PACKAGES = ['exceljs', 'archiver'];
+
+export const lazyPackages = {
+  name: 'lazy-packages',
+  setup(b) {
+    const filter = new RegExp(`^(${LAZY_PACKAGES.join('|')})$`);
+    b.onResolve({ filter }, (args) => (args.namespace === 'lazy' ? { path: args.path, external: true } : { path: args.path, namespace: 'lazy' }));
+    b.onLoad({ filter: /.*/, namespace: 'lazy' }, (args) => ({
+      loader: 'js',
+      contents: `let m;
+const load = () => (m ??= require(${JSON.stringify(args.path)}));
+module.exports = new Proxy(function () {}, {
+  get: (_t, p) => (p === '__esModule' ? undefined : load()[p]),
+  has: (_t, p) => p in load(),
+  apply: (_t, self, args) => load().apply(self, args),
+  construct: (_t, args) => new (load())(...args),
+});`,
+    }));
+  },
+};
+
+export async function buildServer() {
+  const { build } = await import('esbuild');
+  const t0 = Date.now();
+  await build({
+    absWorkingDir: root,
+    // The upload worker thread is its own entry: api/src/workers/pool.ts starts file-worker.js
+    // from the folder it runs in (dist/api/ once bundled).
+    entryPoints: ['api/src/server.ts', 'api/src/workers/file-worker.ts'],
+    outdir: join(root, 'dist/api'),
+    entryNames: '[name]',
+    bundle: true,
+    platform: 'node',
+    target: 'node20',
+    format: 'cjs',
+    packages: 'external',
+    tsconfig: 'tsconfig.node.json',
+    sourcemap: true,
+    logLevel: 'warning',
+    plugins: [lazyPackages],
+  });
+  log(`server built: dist/api/server.js and file-worker.js (${Date.now() - t0} ms)`);
+}
+
+/** Builds the server unless dist/api/server.js is newer than every source it comes from. */
+export async function buildServerIfStale() {
+  const built = existsSync(SERVER_OUT) ? statSync(SERVER_OUT).mtimeMs : 0;
+  if (built > newestMtime(SOURCES) && !process.env.RINGLET_FORCE_BUILD) {
+    log('server is up to date (dist/api)');
+    return;
+  }
+  log('building the server…');
+  await buildServer();
+}
+
+if (process.argv[1] && import.meta.url.endsWith(process.argv[1].replace(/^.*\//, '/'))) {
+  await buildServer();
+}

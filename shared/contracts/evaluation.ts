@@ -130,6 +130,13 @@ export const ItemMeasurandEvaluation = z.object({
 export type ItemMeasurandEvaluation = z.infer<typeof ItemMeasurandEvaluation>;
 
 export const EvaluationState = z.enum(['draft', 'committed', 'published']);
+export type EvaluationState = z.infer<typeof EvaluationState>;
+/** What a person reads for an evaluation state (docs/GLOSSARY.md: never "committed"). */
+export const EVALUATION_STATE_LABELS: Record<EvaluationState, string> = {
+  draft: 'Draft',
+  committed: 'Approved for publication',
+  published: 'Published',
+};
 
 /** GET/POST /rounds/{id}/evaluation: the coordinator's view (codes only, no lab names). */
 export const EvaluationView = z.object({

@@ -141,11 +141,14 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
   api.router.post('/rounds/:id/submission/attachments', fileUpload('file', MAX_ATTACHMENT_BYTES));
   api.add({
     method: 'post', path: '/rounds/{id}/submission/attachments', tag: 'lab bench',
-    summary: 'Attach a raw-data file (multipart field `file`; CSV/TXT/PDF/XLSX by content; 20 MB); a correlation CSV is re-analysed by cumulants',
+    summary: 'Attach a raw-data file (multipart field `file`; CSV/TXT/PDF/XLSX by content; 20 MB); a correlation CSV is re-analysed by cumulants with the optional fields `laserWavelengthNm` and `scatteringAngleDeg` (else the item\'s conditions, else 633 nm and 173°, reported as assumed)',
     description: LAB_DESCRIPTION, access: lab, params: RoundIdParams, query: LabQuery, body: AttachmentUploadFields, status: 201, response: AttachmentDto,
     handler: ({ req, user, query, params, body }) => {
       const file = (req as Request & { file?: Express.Multer.File }).file;
-      return attachments.uploadAttachment(ctx, user, labOf(req, user, { labId: query.labId ?? body.labId }), params.id, file, body.testItemId);
+      return attachments.uploadAttachment(ctx, user, labOf(req, user, { labId: query.labId ?? body.labId }), params.id, file, body.testItemId, {
+        laserWavelengthNm: body.laserWavelengthNm,
+        scatteringAngleDeg: body.scatteringAngleDeg,
+      });
     },
   });
   api.add({

@@ -7,6 +7,7 @@ import type { ParticipantReportInput, ReportStudy, RoundReportInput } from '../.
 import { notFound } from '../http/errors';
 import { loadResults } from './evaluation';
 import { labTrackRecord } from './track-record';
+import { withSafetyBlock } from '../../../shared/contracts/safety';
 
 export interface EvaluationHead {
   id: string;
@@ -74,7 +75,7 @@ export async function roundReportInput(em: EntityManager, head: EvaluationHead):
       schemeCode: r.scheme_code,
       schemeName: r.scheme_name,
       schemeDescription: r.scheme_description,
-      instructions: r.instructions,
+      instructions: withSafetyBlock(r.instructions),
       protocolTemperatureC: r.protocol_temperature_c,
       resultsDueAt: r.results_due_at?.toISOString() ?? null,
     },

@@ -56,6 +56,15 @@ export type BenchMeasurand = z.infer<typeof BenchMeasurand>;
 
 export const ShipmentCondition = z.enum(['intact', 'damaged', 'leaked', 'arrived-warm']);
 export type ShipmentCondition = z.infer<typeof ShipmentCondition>;
+/** What a person reads for a parcel's condition on arrival. */
+export const SHIPMENT_CONDITION_LABELS: Record<ShipmentCondition, string> = {
+  intact: 'Intact',
+  damaged: 'Damaged',
+  leaked: 'Leaked',
+  'arrived-warm': 'Arrived warm',
+};
+/** Conditions that call for the damaged-parcel cautions (shared/contracts/safety.ts). */
+export const DAMAGED_CONDITIONS: readonly ShipmentCondition[] = ['damaged', 'leaked'];
 
 export const Receipt = z.object({
   dispatchedOn: z.iso.date().nullable(),

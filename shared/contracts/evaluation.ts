@@ -243,6 +243,10 @@ export const BoardListEntry = z.object({
   evaluationState: EvaluationState.nullable(),
   version: z.number().int().nullable(),
   publishedAt: z.string().nullable(),
+  /** Signal counts over every score of the newest evaluation shown (zero without one). */
+  acceptable: z.number().int().default(0),
+  warning: z.number().int().default(0),
+  action: z.number().int().default(0),
 });
 export type BoardListEntry = z.infer<typeof BoardListEntry>;
 

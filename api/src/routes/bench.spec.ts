@@ -333,7 +333,7 @@ describe('Lab bench API', () => {
       const wb = new ExcelJS.Workbook();
       await wb.xlsx.load(tpl.body as unknown as ArrayBuffer);
       const ws = wb.getWorksheet('Results')!;
-      expect(ws.getRow(1).values).toEqual([undefined, 'Item', 'Measurand key', 'Measurand', 'Unit', 'Run 1', 'Run 2', 'Run 3', 'Uncertainty type', 'Uncertainty', 'k']);
+      expect(ws.getRow(1).values).toEqual([undefined, 'Item', 'Measurand file code', 'Measurand', 'Unit', 'Replicate 1', 'Replicate 2', 'Replicate 3', 'Uncertainty type', 'Uncertainty', 'k']);
       expect(ws.getRow(2).values).toEqual([undefined, 'A', 'z_average', 'Z-average', 'nm', 102, 102.5, 103, 'expanded', 2, 2]);
       ws.getCell('F2').value = 104; // item A Z-average, run 2
       wb.getWorksheet('Conditions')!.getCell('M2').value = '=HYPERLINK("x")';
@@ -348,7 +348,7 @@ describe('Lab bench API', () => {
       const bad = await a.agent.post(api(`/rounds/${rr.round.id}/submission/upload.xlsx`)).set('x-csrf-token', a.csrf).attach('file', Buffer.from(await wb.xlsx.writeBuffer()), 'results.xlsx').expect(422);
       const msgs = bad.body.error.details.map((d: { sheet: string; row: number; column: string; message: string }) => [d.sheet, d.row, d.column, d.message]);
       expect(msgs).toEqual([
-        ['Results', 4, 'G', 'Results row 4, column G (Run 3): "abc" is not a number.'],
+        ['Results', 4, 'G', 'Results row 4, column G (Replicate 3): "abc" is not a number.'],
         ['Results', 3, 'F', 'Results row 3, column F: A PDI, run 2: PDI must be between 0 and 1.'],
       ]);
       const view = await a.agent.get(api(`/rounds/${rr.round.id}/submission`)).expect(200);

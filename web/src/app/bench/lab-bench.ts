@@ -39,6 +39,7 @@ export const STATUS_LABELS: Record<MyRoundStatus, string> = {
       } @else if (rounds().length === 0) {
         <p data-testid="no-rounds">Your lab has no rounds yet. Invitations from the PT provider appear here.</p>
       } @else {
+        <div class="table-scroll">
         <table class="bench-table" data-testid="my-rounds">
           <caption class="visually-hidden">Your lab’s rounds</caption>
           <thead>
@@ -63,18 +64,19 @@ export const STATUS_LABELS: Record<MyRoundStatus, string> = {
             }
           </tbody>
         </table>
+        </div>
       }
     </section>
   `,
   styles: `
-    .bench-table { border-collapse: collapse; width: 100%; font-size: 14px; }
+    .bench-table { border-collapse: collapse; width: 100%; min-width: 640px; font-size: 14px; }
     .bench-table th, .bench-table td { text-align: left; padding: 6px 10px; border-bottom: 1px solid #d8dde3; }
     .bench-table .num { text-align: right; }
     .status { font-weight: 500; }
     .status-due-soon { color: #b7791f; }
     .status-submitted, .status-published { color: #1b7f79; }
     .status-locked { color: #a4262c; }
-    .lab-pick { min-width: 280px; }
+    .lab-pick { min-width: min(280px, 100%); }
     .visually-hidden { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); }
   `,
 })

@@ -34,7 +34,7 @@ export function evidenceReadme(meta: EvidenceMeta, manifest: EvidenceManifest): 
   return [
     `Ringlet Evidence pack`,
     ``,
-    `Laboratory: ${meta.lab}`,
+    `Lab: ${meta.lab}`,
     `Made for: ${meta.generatedFor}`,
     `Made at: ${meta.generatedAt} (UTC)`,
     ``,

@@ -48,7 +48,7 @@ describe('round workbook', () => {
   it('lists the homogeneity and stability studies', async () => {
     const wb = await read(await buildRoundWorkbook(input));
     const ws = wb.getWorksheet('Homogeneity and stability')!;
-    expect(ws.getRow(3).getCell(3).value).toBe('homogeneity');
+    expect(ws.getRow(3).getCell(3).value).toBe('Homogeneity study');
     expect(ws.getRow(3).getCell(10).value).toBe(0.12);
     expect(ws.getRow(4).getCell(13).value).toBe(0.2);
   });

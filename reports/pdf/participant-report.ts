@@ -4,6 +4,7 @@
  * marked), the score chart with its code marked, and its Track record. Other labs appear only
  * as codes (in the charts, unnamed bars).
  */
+import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
 import { explainScore } from '../../shared/evaluation/explain';
 import { distributionOption, scoreBarOption, trackRecordOption } from '../charts/options';
 import { renderChartSvg } from '../charts/render';
@@ -59,7 +60,7 @@ function ownGroup(doc: Doc, input: ParticipantReportInput, g: ReportGroup, index
     write(doc, line, { size: 9.5, gap: 2 });
   }
   for (const h of p.hints) write(doc, `Hint: ${hintWords(h.code)}.`, { size: 9.5, colour: PALETTE.saffron });
-  if (p.excluded) write(doc, `Your result was kept out of the assigned value (${p.excluded.rule}): ${p.excluded.reason}. It is still scored.`, { size: 9.5 });
+  if (p.excluded) write(doc, `Your result was kept out of the assigned value (${EXCLUSION_RULE_LABELS[p.excluded.rule as keyof typeof EXCLUSION_RULE_LABELS] ?? p.excluded.rule}): ${p.excluded.reason}. It is still scored.`, { size: 9.5 });
   const width = (doc.page.width - 2 * MARGIN - 10) / 2;
   const y = doc.y + 6;
   const h1 = drawSvg(doc, renderChartSvg(distributionOption(g, p.result), 400, 260), MARGIN, y, width);
@@ -76,7 +77,7 @@ export async function buildParticipantReportPdf(input: ParticipantReportInput): 
     subject: 'Proficiency-testing individual report',
     footer: `${footerText(input, 'individual report')} · participant ${input.participantCode}`,
   });
-  cover(doc, input, 'Individual report', [`Laboratory: ${input.labName}`, `Participant code: ${input.participantCode}`]);
+  cover(doc, input, 'Individual report', [`Lab: ${input.labName}`, `Participant code: ${input.participantCode}`]);
   input.groups.forEach((g, i) => ownGroup(doc, input, g, i));
   doc.addPage();
   heading(doc, `${input.groups.length + 1} Track record`);

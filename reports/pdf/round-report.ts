@@ -11,6 +11,10 @@ import { METHOD_WORDS, recordChecksum, sigmaPtRuleWords, type ReportGroup, type 
 import { fixed, hintWords, HINT_WORDS, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
 import { banner, createDoc, ensureSpace, finishDoc, heading, MARGIN, table, write, type Doc } from './document';
 import { drawSvg } from './svg';
+import { HOMOGENEITY_DECISION_LABELS, STUDY_KIND_LABELS, type HomogeneityDecisionKind } from '../../shared/contracts/rounds';
+
+/** A study decision as a person reads it (docs/GLOSSARY.md: no raw code values). */
+export const decisionLabel = (d: string | null): string => (d ? (HOMOGENEITY_DECISION_LABELS[d as HomogeneityDecisionKind] ?? d) : '—');
 
 export const CONFIDENTIALITY =
   'Confidentiality: participants appear in this report only by their participant codes. The PT provider keeps the ' +
@@ -87,7 +91,7 @@ function itemsSection(doc: Doc, input: RoundReportInput): void {
       { title: 'σ_pt', width: 55, align: 'right' },
       { title: 'Statistic', width: 80, align: 'right' },
       { title: '0.3 σ_pt', width: 55, align: 'right' },
-      { title: 'Verdict', width: 55 },
+      { title: 'Result', width: 55 },
       { title: 'Decision', width: 70 },
     ],
     input.studies.map((s) => {
@@ -96,17 +100,17 @@ function itemsSection(doc: Doc, input: RoundReportInput): void {
       return [
         s.itemCode,
         ms.get(s.measurandKey)?.name ?? s.measurandKey,
-        s.kind,
+        STUDY_KIND_LABELS[s.kind],
         fixed(s.sigmaPt, d),
         stat,
         fixed(s.result['limit'] as number, d),
-        { text: s.passes ? 'passes' : 'fails', colour: s.passes ? PALETTE.teal : PALETTE.carmine },
-        (s.decision ?? '—').slice(0, 16),
+        { text: s.passes ? 'Pass' : 'Fail', colour: s.passes ? PALETTE.teal : PALETTE.carmine },
+        decisionLabel(s.decision).slice(0, 28),
       ];
     }),
     8,
   );
-  for (const s of input.studies.filter((x) => x.decisionReason)) write(doc, `Item ${s.itemCode} ${s.kind}: ${s.decisionReason}`, { size: 9 });
+  for (const s of input.studies.filter((x) => x.decisionReason)) write(doc, `Item ${s.itemCode}, ${STUDY_KIND_LABELS[s.kind].toLowerCase()}: ${s.decisionReason}`, { size: 9 });
 }
 
 function methodsSection(doc: Doc, input: RoundReportInput): void {
@@ -152,7 +156,7 @@ function groupSection(doc: Doc, g: ReportGroup, index: number, highlight?: strin
     [
       { title: 'Code', width: 52 },
       { title: `Mean${u}`, width: 58, align: 'right' },
-      { title: 'Rep. SD', width: 50, align: 'right' },
+      { title: 'Replicate SD', width: 50, align: 'right' },
       { title: 'u(x)', width: 46, align: 'right' },
       { title: 'z', width: 38, align: 'right' },
       { title: 'z′', width: 38, align: 'right' },

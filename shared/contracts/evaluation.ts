@@ -131,6 +131,8 @@ export type ItemMeasurandEvaluation = z.infer<typeof ItemMeasurandEvaluation>;
 
 export const EvaluationState = z.enum(['draft', 'committed', 'published']);
 export type EvaluationState = z.infer<typeof EvaluationState>;
+/** What a person reads for an investigation's state. */
+export const INVESTIGATION_STATE_LABELS: Record<'open' | 'closed', string> = { open: 'Open', closed: 'Closed' };
 /** What a person reads for an evaluation state (docs/GLOSSARY.md: never "committed"). */
 export const EVALUATION_STATE_LABELS: Record<EvaluationState, string> = {
   draft: 'Draft',

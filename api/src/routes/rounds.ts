@@ -91,7 +91,7 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
     method: 'post', path: '/rounds/{id}/transitions', tag, summary: 'Move a round through its lifecycle',
     description:
       'Allowed moves come from ROUND_TRANSITIONS. 409 transition_not_allowed for a move the lifecycle does not have; ' +
-      '422 round_incomplete (enrolling needs an item and a measurand), no_participants, results_not_due (closing early needs force + reason), ' +
+      '422 round_incomplete (enrolling needs an item and a measurand), no_participants, results_not_due (closing before the due date needs `force: true`, shown as "Close early", and a reason), ' +
       'reason_required. Evaluation, publication and reissue run from the evaluation page (409 transition_owned_by_evaluation). ' +
       'Reopening for results (closed → collecting) e-mails every enrolled lab with the reason.',
     access: coordinator, params: IdParams, body: TransitionRequest, response: RoundDetail,
@@ -143,7 +143,7 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
   });
   api.add({
     method: 'delete', path: '/rounds/{id}/items/{itemId}', tag, summary: 'Remove one test item (draft or enrolling)',
-    description: designRules + '409 item_has_checks while homogeneity/stability checks are recorded for it; 422 round_incomplete for the last item of an enrolling round.',
+    description: designRules + '409 item_has_checks while homogeneity or stability studies are recorded for it; 422 round_incomplete for the last item of an enrolling round.',
     access: coordinator, params: ItemParams, status: 204,
     handler: ({ params, user }) => rounds.deleteItem(ctx, user, params.id, params.itemId),
   });
@@ -155,14 +155,14 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
   });
   api.add({
     method: 'delete', path: '/rounds/{id}/measurands/{measurandId}', tag, summary: 'Remove one measurand (draft or enrolling)',
-    description: designRules + '409 measurand_has_checks while homogeneity/stability checks are recorded for it; 422 round_incomplete for the last measurand of an enrolling round.',
+    description: designRules + '409 measurand_has_checks while homogeneity or stability studies are recorded for it; 422 round_incomplete for the last measurand of an enrolling round.',
     access: coordinator, params: MeasurandParams, status: 204,
     handler: ({ params, user }) => rounds.deleteMeasurand(ctx, user, params.id, params.measurandId),
   });
 
   // ---- invitations and enrolment ----
   api.add({
-    method: 'get', path: '/lab-directory', tag, summary: 'Participating labs the coordinator can invite',
+    method: 'get', path: '/lab-directory', tag, summary: 'Labs the coordinator can invite',
     access: coordinator, response: z.array(Organisation),
     handler: async () => (await listOrganisations(ctx)).filter((o) => o.kind === 'lab'),
   });
@@ -212,7 +212,7 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
 
   // ---- homogeneity and stability ----
   api.add({
-    method: 'get', path: '/rounds/{id}/homogeneity', tag, summary: 'Homogeneity and stability checks of a round',
+    method: 'get', path: '/rounds/{id}/homogeneity', tag, summary: 'Homogeneity and stability studies of a round',
     access: coordinator, params: IdParams, response: z.array(Study),
     handler: ({ params }) => homogeneity.listStudies(ctx.ds.manager, params.id),
   });
@@ -255,7 +255,7 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
     },
   });
   api.add({
-    method: 'post', path: '/rounds/{id}/homogeneity/{studyId}/decision', tag, summary: 'Record the decision on a failing homogeneity or stability check',
+    method: 'post', path: '/rounds/{id}/homogeneity/{studyId}/decision', tag, summary: 'Record the decision on a failing homogeneity or stability study',
     access: coordinator, params: StudyParams, body: StudyDecision, response: Study,
     handler: ({ params, body, user }) => homogeneity.decideStudy(ctx, user, params.id, params.studyId, body),
   });

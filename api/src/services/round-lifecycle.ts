@@ -68,7 +68,7 @@ export async function assertPublishable(em: EntityManager, roundId: string): Pro
   if (await hasOpenHomogeneityFailure(em, roundId)) {
     throw ruleBroken(
       'homogeneity_decision_missing',
-      'A homogeneity or stability check failed and has no recorded decision; record one on the Round desk before publishing.',
+      'A homogeneity or stability study failed and has no recorded decision; record one on the Round desk before publishing.',
     );
   }
   for (const guard of publicationGuards) await guard(em, round);

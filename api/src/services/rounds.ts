@@ -315,7 +315,7 @@ export async function deleteItem(ctx: AppContext, actor: SessionUser, roundId: s
     const item = await em.findOne(TestItem, { where: { id: itemId, roundId } });
     if (!item) throw notFound('The test item');
     if (await em.count(HomogeneityStudy, { where: { testItemId: itemId } })) {
-      throw conflict('item_has_checks', `Item ${item.code} has homogeneity or stability checks recorded; it cannot be removed.`);
+      throw conflict('item_has_checks', `Item ${item.code} has homogeneity or stability studies recorded; it cannot be removed.`);
     }
     if (round.state === 'enrolling' && (await em.count(TestItem, { where: { roundId } })) === 1) {
       throw ruleBroken('round_incomplete', 'An enrolling round keeps at least one test item.');
@@ -352,7 +352,7 @@ export async function deleteMeasurand(ctx: AppContext, actor: SessionUser, round
     const m = await em.findOne(Measurand, { where: { id: measurandId, roundId } });
     if (!m) throw notFound('The measurand');
     if (await em.count(HomogeneityStudy, { where: { measurandId } })) {
-      throw conflict('measurand_has_checks', `${m.name} has homogeneity or stability checks recorded; it cannot be removed.`);
+      throw conflict('measurand_has_checks', `${m.name} has homogeneity or stability studies recorded; it cannot be removed.`);
     }
     if (round.state === 'enrolling' && (await em.count(Measurand, { where: { roundId } })) === 1) {
       throw ruleBroken('round_incomplete', 'An enrolling round keeps at least one measurand.');

@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
 import { RouterLink } from '@angular/router';
-import { CAUSE_CATEGORY_LABELS, type InvestigationDto } from '@ringlet/shared/contracts/evaluation';
+import { CAUSE_CATEGORY_LABELS, INVESTIGATION_STATE_LABELS, type InvestigationDto } from '@ringlet/shared/contracts/evaluation';
 import { AuthService } from '../core/auth.service';
 import { SignalBadge } from '../core/signal-badge';
 import { BoardService } from './board.service';
@@ -29,7 +29,7 @@ import { BoardService } from './board.service';
                 <td><app-signal-badge [signal]="i.signal" /></td>
                 <td class="num">{{ i.score.toFixed(2) }}</td>
                 <td>{{ i.causeCategory ? causes[i.causeCategory] : '—' }}</td>
-                <td>{{ i.state }}</td>
+                <td>{{ stateLabels[i.state] }}</td>
               </tr>
             }
           </tbody>
@@ -39,6 +39,7 @@ import { BoardService } from './board.service';
   `,
 })
 export class InvestigationList implements OnInit {
+  protected readonly stateLabels = INVESTIGATION_STATE_LABELS;
   private readonly service = inject(BoardService);
   private readonly auth = inject(AuthService);
   protected readonly items = signal<InvestigationDto[]>([]);

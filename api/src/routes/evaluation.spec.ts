@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { Evaluation, Round } from '../../../db/entities';
 import type { EvaluationView, InvestigationDto } from '../../../shared/contracts/evaluation';
 import { runEvaluate } from '../cli/run-evaluate';
+import { transitionRound } from '../services/round-lifecycle';
 import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evaluation-fixtures';
 import { createUser, mailTo, signedIn, startTestApp, type Client, type TestApp } from '../testing/test-app';
 
@@ -260,6 +261,22 @@ describe('evaluation, board, scores and investigations', () => {
     expect((await labA.agent.get(api(`/rounds/${roundId()}/board`)).expect(200)).body.version).toBe(2);
     const scores = await labB.agent.get(api(`/my/rounds/${roundId()}/scores`)).expect(200);
     expect(scores.body.reissueReason).toContain('radius');
+  });
+
+  it('a correction starts only on the evaluation page and always leads back to Published', async () => {
+    expect((await t.ds.getRepository(Round).findOneByOrFail({ id: roundId() })).state).toBe('published');
+    const desk = await coord.agent.post(api(`/rounds/${roundId()}/transitions`)).set('x-csrf-token', coord.csrf)
+      .send({ to: 'reissued', reason: 'Correcting a unit' }).expect(409);
+    expect(desk.body.error.code).toBe('transition_owned_by_evaluation');
+    expect((await t.ds.getRepository(Round).findOneByOrFail({ id: roundId() })).state).toBe('published');
+    // A round an older desk move left in Reissued (no new version) is reissued and published again.
+    await t.ds.transaction((em) => transitionRound(em, roundId(), 'reissued', { id: null }, { reason: 'older desk move' }));
+    const again = await coord.agent.post(api(`/rounds/${roundId()}/reissue`)).set('x-csrf-token', coord.csrf)
+      .send({ reason: 'Completing the correction the desk move began' }).expect(201);
+    expect(again.body).toMatchObject({ version: 3, state: 'committed' });
+    const pub = await coord.agent.post(api(`/rounds/${roundId()}/publish`)).set('x-csrf-token', coord.csrf).expect(200);
+    expect(pub.body.version).toBe(3);
+    expect((await t.ds.getRepository(Round).findOneByOrFail({ id: roundId() })).state).toBe('published');
   });
 
   it('track record: z-scores per measurand with RSZ and run rules', async () => {

@@ -273,6 +273,11 @@ describe('Round desk API', () => {
       expect((await moveTo(id, 'collecting').expect(422)).body.error.code).toBe('reason_required');
       // evaluation and publication belong to the Consensus board
       expect((await moveTo(id, 'evaluated').expect(409)).body.error.code).toBe('transition_owned_by_evaluation');
+      // "Reopen for results" tells every enrolled lab, with the reason
+      await moveTo(id, 'collecting', { reason: 'Lab P asked to correct a typing slip' }).expect(200);
+      const mails = await mailTo(t.ds, 'alice@a.test', 2);
+      const reopened = mails.find((m) => /accepts results again/.test(m.subject));
+      expect(reopened?.text).toContain('Lab P asked to correct a typing slip');
     });
 
     it('closes without force once results are due', async () => {

@@ -78,23 +78,23 @@ export class BoardList implements OnInit {
 
   private count(kind: SignalKind, header: string): ColDef<BoardListEntry> {
     return {
-      field: kind, headerName: header, width: 130, type: 'rightAligned', filter: 'agNumberColumnFilter',
+      field: kind, headerName: header, width: 100, type: 'rightAligned',
       cellRenderer: SignalCountCell, cellRendererParams: { kind },
     };
   }
 
   protected readonly columns: ColDef<BoardListEntry>[] = [
-    { field: 'roundCode', headerName: 'Round', width: 140, filter: 'agTextColumnFilter' },
-    { field: 'roundTitle', headerName: 'Title', flex: 1, minWidth: 200, filter: 'agTextColumnFilter' },
-    { field: 'roundState', headerName: 'State', width: 120, valueFormatter: ({ value }) => ROUND_STATE_LABELS[value as RoundState] ?? String(value) },
+    { field: 'roundCode', headerName: 'Round', width: 110, pinned: 'left', filter: 'agTextColumnFilter' },
+    { field: 'roundTitle', headerName: 'Title', flex: 1, minWidth: 140, filter: 'agTextColumnFilter' },
+    { field: 'roundState', headerName: 'State', width: 100, valueFormatter: ({ value }) => ROUND_STATE_LABELS[value as RoundState] ?? String(value) },
     {
-      colId: 'evaluation', headerName: 'Evaluation', width: 230,
-      valueGetter: ({ data }) => (data?.evaluationState ? `${EVALUATION_STATE_LABELS[data.evaluationState]} · version ${data.version}` : 'Not evaluated yet'),
+      colId: 'evaluation', headerName: 'Evaluation', width: 170,
+      valueGetter: ({ data }) => (data?.evaluationState ? `${EVALUATION_STATE_LABELS[data.evaluationState]}, v${data.version}` : 'Not evaluated yet'),
     },
     this.count('acceptable', 'Acceptable'),
     this.count('warning', 'Warning'),
     this.count('action', 'Action'),
-    { colId: 'actions', headerName: '', width: 300, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.actions } },
+    { colId: 'actions', headerName: '', width: 200, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.actions } },
   ];
 
   private open(r: BoardListEntry, tail: string[]): void {

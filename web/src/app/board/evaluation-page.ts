@@ -73,7 +73,7 @@ const ruleText = (r: SigmaPtRuleInput): string =>
         <p class="note">Computed here in your browser with the same engine as the server; nothing is stored until you save.</p>
         <table class="rl-table" aria-label="Evaluation preview" data-testid="preview">
           <thead>
-            <tr><th>Item</th><th>Measurand</th><th class="num">p</th><th class="num">x_pt</th><th class="num">u(x_pt)</th><th>σ_pt rule</th><th class="num">σ_pt</th><th class="num">acceptable</th><th class="num">warning</th><th class="num">action</th><th>Notes</th></tr>
+            <tr><th>Item</th><th>Measurand</th><th class="num">p</th><th class="num">x_pt</th><th class="num">u(x_pt)</th><th>σ_pt rule</th><th class="num">σ_pt</th><th class="num">Acceptable</th><th class="num">Warning</th><th class="num">Action</th><th>Notes</th></tr>
           </thead>
           <tbody>
             @for (r of preview(); track $index) {

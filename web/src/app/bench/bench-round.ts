@@ -86,10 +86,15 @@ export class BenchRound implements OnInit {
   protected readonly sharpsCautions = SHARPS_CAUTIONS;
   protected readonly damagedCautions = DAMAGED_PARCEL_CAUTIONS;
   protected readonly conditionLabel = (c: ShipmentCondition | null | undefined) => (c ? SHIPMENT_CONDITION_LABELS[c] : '');
-  /** The sharps cautions join the list when the instructions or an item's notes mention syringes, needles or filters. */
+  /**
+   * The sharps cautions join the list when the instructions or an item's notes mention syringes,
+   * needles or filters, or when the lab states a filter pore size (filtering means a syringe filter).
+   */
   protected readonly usesSharps = computed(() => {
     const r = this.round();
-    return !!r && mentionsSharps([r.instructions, ...r.items.map((i) => `${i.handlingNotes ?? ''} ${i.storageNotes ?? ''}`)].join(' '));
+    if (!r) return false;
+    const filtered = (this.data()?.items ?? []).some((i) => i.conditions.filterPoreUm !== null && i.conditions.filterPoreUm !== undefined);
+    return filtered || mentionsSharps([r.instructions, ...r.items.map((i) => `${i.handlingNotes ?? ''} ${i.storageNotes ?? ''}`)].join(' '));
   });
   protected readonly conditionFields = CONDITION_FIELDS;
   protected readonly saveLabels = SAVE_STATE_LABELS;

@@ -42,6 +42,8 @@ const FIELD_LABELS: Record<string, string> = {
   scatteringAngleDeg: 'Scattering angle (°)',
   replicates: 'Replicate',
   runs: 'Replicate',
+  items: 'Item',
+  results: 'Measurand',
   k: 'Coverage factor k',
 };
 

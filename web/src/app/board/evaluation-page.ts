@@ -71,6 +71,7 @@ const ruleText = (r: SigmaPtRuleInput): string =>
 
         <h2>Preview</h2>
         <p class="note">Computed here in your browser with the same engine as the server; nothing is stored until you save.</p>
+        <div class="table-scroll">
         <table class="rl-table" aria-label="Evaluation preview" data-testid="preview">
           <thead>
             <tr><th>Item</th><th>Measurand</th><th class="num">p</th><th class="num">x_pt</th><th class="num">u(x_pt)</th><th>σ_pt rule</th><th class="num">σ_pt</th><th class="num">Acceptable</th><th class="num">Warning</th><th class="num">Action</th><th>Notes</th></tr>
@@ -93,6 +94,7 @@ const ruleText = (r: SigmaPtRuleInput): string =>
             }
           </tbody>
         </table>
+        </div>
         @if (changes().length) {
           <p data-testid="signal-changes">Signals that change against the stored version: {{ changes().join('; ') }}</p>
         }

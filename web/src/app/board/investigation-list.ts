@@ -14,11 +14,12 @@ import { BoardService } from './board.service';
   template: `
     <section class="page">
       <h1 data-testid="page-heading">Investigations</h1>
-      <p class="note">Each warning or action signal opens an investigation: cause, root cause, corrective action and a check that it worked. The lab manager closes it.</p>
+      <p class="note">Each warning or action signal opens an investigation: cause, root cause, corrective action and an effectiveness check. The lab manager closes it.</p>
       @if (items().length === 0) { <p>{{ loading() ? 'Loading…' : 'No investigations.' }}</p> }
       @else {
+        <div class="table-scroll">
         <table class="rl-table" aria-label="Investigations">
-          <thead><tr><th>Round</th><th>Lab</th><th>Code</th><th>Item · measurand</th><th>Signal</th><th class="num">Score</th><th>Cause</th><th>State</th></tr></thead>
+          <thead><tr><th>Round</th><th>Lab</th><th>Participant code</th><th>Item · measurand</th><th>Signal</th><th class="num">Score</th><th>Cause</th><th>State</th></tr></thead>
           <tbody>
             @for (i of items(); track i.id) {
               <tr>
@@ -34,6 +35,7 @@ import { BoardService } from './board.service';
             }
           </tbody>
         </table>
+        </div>
       }
     </section>
   `,

@@ -15,6 +15,8 @@ export const SCANNED: readonly { dir: string; ext: readonly string[] }[] = [
   { dir: 'shared/contracts', ext: ['.ts'] },
   { dir: 'shared/bench', ext: ['.ts'] },
   { dir: 'shared/evaluation', ext: ['.ts'] },
+  { dir: 'shared/stats', ext: ['.ts'] },
+  { dir: 'shared/dls', ext: ['.ts'] },
   { dir: 'api/src/mail', ext: ['.ts'] },
   { dir: 'api/src/routes', ext: ['.ts'] },
   { dir: 'api/src/services', ext: ['.ts'] },
@@ -35,6 +37,7 @@ export const RETIRED: readonly { pattern: RegExp; use: string }[] = [
   { pattern: /\bLaborator(y|ies)\b/, use: 'Lab' },
   { pattern: /\bcheck of effectiveness\b/i, use: 'Effectiveness check' },
   { pattern: /\b(homogeneity|stability) checks?\b/i, use: 'Homogeneity study / Stability study' },
+  { pattern: /\bthe consensus\b(?! (value|[Bb]oard))/i, use: 'the assigned value (a consensus value is one way to derive it)' },
   { pattern: /\bwiden-sigma-pt\b|\bin-transit\b|\barrived-warm\b|\bconfirmed-blunder\b/, use: 'a label for the code value' },
 ];
 
@@ -113,6 +116,8 @@ describe('retired words (docs/GLOSSARY.md)', () => {
     expect(findRetired('the participant report of lab P07')[0]?.use).toBe('Individual report');
     expect(findRetired('Check of effectiveness')[0]?.use).toBe('Effectiveness check');
     expect(findRetired('Decision: widen-sigma-pt')[0]?.use).toMatch(/label/);
+    expect(findRetired('The result is about half the consensus: a radius?')[0]?.use).toMatch(/assigned value/);
+    expect(findRetired('the consensus value of the round')).toEqual([]);
     // code in a template is not text
     expect(findRetired(`@if (v.state === 'committed') { <button (click)="commit()" data-testid="commit">Approve</button> }`)).toEqual([]);
     expect(findRetired("{{ t.forced ? ' (closed early)' : '' }}")).toEqual([]);

@@ -176,7 +176,7 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
     if (meanSize !== undefined && sizeAt && roundItem.nominalSizeNm) {
       // The nominal size is not a consensus: only the factor-like slips (radius for diameter, a unit
       // slip) and dust are worth a hint here; small offsets are left to the temperature/viscosity checks.
-      const hints = blunderHints({ result: meanSize, assignedValue: roundItem.nominalSizeNm, pdi: meanPdi }).filter(
+      const hints = blunderHints({ result: meanSize, assignedValue: roundItem.nominalSizeNm, pdi: meanPdi, reference: 'the nominal size' }).filter(
         (h) => h.code !== 'viscosity-temperature',
       );
       for (const hint of hints) {

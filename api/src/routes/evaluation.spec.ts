@@ -175,6 +175,13 @@ describe('evaluation, board, scores and investigations', () => {
     expectNoLabNames((await stranger.agent.get(api('/boards')).expect(200)).body);
     expectNoLabNames((await stranger.agent.get(api('/investigations')).expect(200)).body);
     expect((await labA.agent.get(api('/boards')).expect(200)).body.map((b: { roundId: string }) => b.roundId)).toEqual([roundId()]);
+    // The landing grid's signal counts are the board's: every score of the published version, by signal.
+    const [entry] = (await labA.agent.get(api('/boards')).expect(200)).body;
+    const board = (await labA.agent.get(api(`/rounds/${roundId()}/board`)).expect(200)).body;
+    const count = (s: string) =>
+      (board.rows as { cells: ({ signal: string | null } | null)[] }[]).flatMap((r) => r.cells).filter((c) => c?.signal === s).length;
+    expect(entry).toMatchObject({ acceptable: count('acceptable'), warning: count('warning'), action: count('action') });
+    expect(entry.action).toBeGreaterThan(0); // the blunder lab
   });
 
   it('a lab reads its own scores with a plain explanation, and nothing of the others', async () => {

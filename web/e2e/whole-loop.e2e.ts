@@ -56,7 +56,9 @@ async function focusState(page: Page): Promise<{ testid: string | null; tag: str
     const s = getComputedStyle(el);
     const outline = s.outlineStyle !== 'none' && parseFloat(s.outlineWidth) > 0;
     const shadow = !!s.boxShadow && s.boxShadow !== 'none';
-    return { testid: el.getAttribute('data-testid'), tag: el.tagName, visible: outline || shadow };
+    // a Material field shows focus on its own outline (thicker, in the primary colour)
+    const field = !!el.closest('.mat-mdc-form-field.mat-focused');
+    return { testid: el.getAttribute('data-testid'), tag: el.tagName, visible: outline || shadow || field };
   });
 }
 

@@ -431,7 +431,7 @@ describe('the whole loop in a real browser', () => {
     expect(after).toBeLessThan(10.5);
     await e.shot(page, 'loop-06-evaluation-preview');
     // back to the stored rule: the round's robust SD
-    await page.getByRole('button', { name: /Remove σ_pt rule for z_average/ }).click();
+    await page.getByRole('button', { name: /Remove σ_pt rule for Z-average/ }).click();
     await expect(sigma.textContent()).resolves.toBe(String(before));
 
     await page.getByTestId('save-draft').click();

@@ -432,6 +432,7 @@ describe('the whole loop in a real browser', () => {
     await e.shot(page, 'loop-06-evaluation-preview');
     // back to the stored rule: the round's robust SD
     await page.getByRole('button', { name: /Remove σ_pt rule for Z-average/ }).click();
+    await sigma.filter({ hasText: String(before) }).waitFor({ timeout: 10_000 });
     await expect(sigma.textContent()).resolves.toBe(String(before));
 
     await page.getByTestId('save-draft').click();

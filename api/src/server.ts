@@ -64,9 +64,11 @@ async function main(): Promise<void> {
   const server = app.listen(config.port, config.host, () => {
     const addr = server.address();
     const port = typeof addr === 'object' && addr ? addr.port : config.port;
-    logger.info({ port, mode: config.mode, startupMs: { ...phases, total: Math.round(performance.now()) } }, `listening on http://${config.host === '0.0.0.0' ? 'localhost' : config.host}:${port} (${config.mode} mode)`);
+    // The address the socket is bound to ("localhost" may resolve to ::1 while the server listens on 127.0.0.1 only).
+    const url = listenUrl(typeof addr === 'object' && addr ? addr.address : config.host, port);
+    logger.info({ port, mode: config.mode, startupMs: { ...phases, total: Math.round(performance.now()) } }, `listening on ${url} (${config.mode} mode)`);
     if (fake) logger.info({ smtpPort: fake.port }, `local mail fake on smtp://127.0.0.1:${fake.port}; mail shows on the Outbox page`);
-    if (config.mode === 'demo') printDemoBanner(`http://localhost:${port}`, demoPassword);
+    if (config.mode === 'demo') printDemoBanner(url, demoPassword);
   });
   const shutdown = gracefulShutdown(
     server,
@@ -90,6 +92,13 @@ async function main(): Promise<void> {
   };
   process.on('SIGTERM', () => stop('SIGTERM'));
   process.on('SIGINT', () => stop('SIGINT'));
+}
+
+/** A URL a browser on this machine reaches for the bound address (any-address binds → the loopback of the same family). */
+export function listenUrl(address: string, port: number): string {
+  if (address === '0.0.0.0') return `http://127.0.0.1:${port}`;
+  if (address === '::') return `http://[::1]:${port}`;
+  return address.includes(':') ? `http://[${address}]:${port}` : `http://${address}:${port}`;
 }
 
 function printDemoBanner(url: string, password: string): void {

@@ -44,6 +44,8 @@ interface ItemSpec {
 }
 
 interface RoundSpec {
+  /** The part the round plays in the story (its code follows from its dates). */
+  story: 'first' | 'second' | 'blunders' | 'current';
   code: string;
   title: string;
   dueAt: string;
@@ -51,11 +53,12 @@ interface RoundSpec {
   items: ItemSpec[];
 }
 
-const ROUNDS: RoundSpec[] = [
+const ROUND_TEMPLATES: RoundSpec[] = [
   {
-    code: 'NPS-2025-A',
+    story: 'first',
+    code: '',
     title: 'Polystyrene latex, two sizes',
-    dueAt: '2025-04-30T17:00:00Z',
+    dueAt: '',
     state: 'published',
     items: [
       { code: 'A', material: 'Polystyrene latex in 10 mM NaCl, nominal 60 nm', nominal: 60, trueZ: 64.2, truePdi: 0.035 },
@@ -63,9 +66,10 @@ const ROUNDS: RoundSpec[] = [
     ],
   },
   {
-    code: 'NPS-2025-B',
+    story: 'second',
+    code: '',
     title: 'Latex and colloidal silica',
-    dueAt: '2025-10-31T17:00:00Z',
+    dueAt: '',
     state: 'published',
     items: [
       { code: 'A', material: 'Polystyrene latex in 10 mM NaCl, nominal 200 nm', nominal: 200, trueZ: 206.3, truePdi: 0.02 },
@@ -73,9 +77,10 @@ const ROUNDS: RoundSpec[] = [
     ],
   },
   {
-    code: 'NPS-2026-A',
+    story: 'blunders',
+    code: '',
     title: 'Polystyrene latex, paired items',
-    dueAt: '2026-04-30T17:00:00Z',
+    dueAt: '',
     state: 'published',
     items: [
       { code: 'A', material: 'Polystyrene latex in 10 mM NaCl, nominal 100 nm', nominal: 100, trueZ: 103.9, truePdi: 0.03 },
@@ -83,9 +88,10 @@ const ROUNDS: RoundSpec[] = [
     ],
   },
   {
-    code: 'NPS-2026-B',
-    title: 'Silica and latex, autumn round',
-    dueAt: '2026-12-18T17:00:00Z',
+    story: 'current',
+    code: '',
+    title: 'Silica and latex, current round',
+    dueAt: '',
     state: 'collecting',
     items: [
       { code: 'A', material: 'Colloidal silica in water, nominal 50 nm', nominal: 50, trueZ: 57.4, truePdi: 0.11 },
@@ -94,11 +100,30 @@ const ROUNDS: RoundSpec[] = [
   },
 ];
 
+/**
+ * Days from "today" (the clock at seeding time) to each round's results-due date: the demo's past
+ * lies in the past and the collecting round is due in a little over two weeks, whenever it is loaded.
+ */
+const DUE_IN_DAYS: Record<RoundSpec['story'], number> = { first: -581, second: -397, blunders: -216, current: 16 };
+
+/** The story's rounds dated from `now`; codes are NPS-<year of the due date>-<A, B, … in that year>. */
+export function demoRounds(now: Date): RoundSpec[] {
+  const perYear = new Map<number, number>();
+  return ROUND_TEMPLATES.map((t) => {
+    const due = addDays(now, DUE_IN_DAYS[t.story]);
+    due.setUTCHours(17, 0, 0, 0);
+    const year = due.getUTCFullYear();
+    const n = perYear.get(year) ?? 0;
+    perYear.set(year, n + 1);
+    return { ...t, code: `NPS-${year}-${String.fromCharCode(65 + n)}`, dueAt: due.toISOString() };
+  });
+}
+
 /** Roles the invented labs play in the story (index into the lab list). */
-const LAB1 = 0; // Aldergrove: viscosity slip in NPS-2026-A → open investigation
-const RADIUS_LAB = 6; // reports the radius for item A in NPS-2026-A
-const DUST_LAB = 10; // dust-inflated item B in NPS-2026-A
-const LATE_LAB = 13; // late in NPS-2026-A (extension), not yet submitted in NPS-2026-B
+const LAB1 = 0; // Aldergrove: viscosity slip in the 'blunders' round → open investigation
+const RADIUS_LAB = 6; // reports the radius for item A in the 'blunders' round
+const DUST_LAB = 10; // dust-inflated item B in the 'blunders' round
+const LATE_LAB = 13; // late in the 'blunders' round (extension), not yet submitted in the current one
 
 const INSTRUMENTS = [
   'DLS sizer, 633 nm, backscatter 173°',
@@ -114,8 +139,9 @@ export async function hasDemoScenario(ds: DataSource): Promise<boolean> {
 }
 
 /** Loads the rounds, results, evaluations, investigations, instrument checks and grants. */
-export async function seedScenario(ds: DataSource, labIds: string[], publicUrl = 'http://localhost:3000'): Promise<void> {
+export async function seedScenario(ds: DataSource, labIds: string[], publicUrl = 'http://localhost:3000', now = new Date()): Promise<void> {
   if (await hasDemoScenario(ds)) return;
+  const ROUNDS = demoRounds(now);
   const rnd = mulberry32(20261201);
   const normal = (): number => Math.sqrt(-2 * Math.log(1 - rnd())) * Math.cos(2 * Math.PI * rnd());
   const coordinator = await ds.getRepository(User).findOneByOrFail({ email: 'coordinator@ringlet.example' });
@@ -221,7 +247,10 @@ export async function seedScenario(ds: DataSource, labIds: string[], publicUrl =
           normal,
           instrument: INSTRUMENTS[li % INSTRUMENTS.length]!,
         });
-        const submittedAt = addDays(new Date(spec.dueAt), li === LATE_LAB ? 3 : -5 - (li % 9));
+        // (in the collecting round every submission lies before "today")
+        const submittedAt = collecting
+          ? addDays(now, -1 - (li % 9) - 0.1 * (li % 5))
+          : addDays(new Date(spec.dueAt), li === LATE_LAB ? 3 : -5 - (li % 9));
         const sub = await em.save(Submission, em.create(Submission, {
           enrolmentId: enrolment.id,
           state: submits ? 'submitted' : 'draft',
@@ -261,9 +290,9 @@ export async function seedScenario(ds: DataSource, labIds: string[], publicUrl =
     }
   }
   await ds.transaction(async (em) => {
-    await storyInvestigations(em, labIds[LAB1]!);
-    await instrumentChecks(em, labIds, rnd);
-    await grants(em, labIds);
+    await storyInvestigations(em, labIds[LAB1]!, addDays(new Date(ROUNDS[2]!.dueAt), 33));
+    await instrumentChecks(em, labIds, rnd, now);
+    await grants(em, labIds, now);
   });
 }
 
@@ -282,7 +311,7 @@ function labResults(
       let pdi = Math.max(0.005, it.truePdi * (1 + 0.15 * lab.normal()));
       let viscosity = 0.8900;
       let note = '';
-      if (spec.code === 'NPS-2026-A') {
+      if (spec.story === 'blunders') {
         if (li === RADIUS_LAB && ii === 0) z = z / 2; // the hydrodynamic radius, reported as a diameter
         if (li === DUST_LAB && ii === 1) {
           z *= 1.24; // aggregates and dust inflate the mean …
@@ -328,7 +357,7 @@ function labResults(
 }
 
 /** Aldergrove has started on its action signal; an older investigation of another lab is closed. */
-async function storyInvestigations(em: EntityManager, lab1Id: string): Promise<void> {
+async function storyInvestigations(em: EntityManager, lab1Id: string, closedAt: Date): Promise<void> {
   const open = await em.find(Investigation, { where: { organisationId: lab1Id, state: 'open' } });
   for (const inv of open) {
     await em.update(Investigation, { id: inv.id }, {
@@ -345,17 +374,20 @@ async function storyInvestigations(em: EntityManager, lab1Id: string): Promise<v
       correctiveAction: 'Diluent now filtered through 0.2 µm; cuvettes rinsed with filtered water.',
       effectivenessCheck: 'Repeat of the retained sample within 2 % of the assigned value.',
       state: 'closed',
-      closedAt: new Date('2026-06-02T10:00:00Z'),
+      closedAt,
     });
   }
 }
 
 /** A history of instrument checks for every lab; the dust lab has one failure. */
-async function instrumentChecks(em: EntityManager, labIds: string[], rnd: () => number): Promise<void> {
+async function instrumentChecks(em: EntityManager, labIds: string[], rnd: () => number, now: Date): Promise<void> {
   const rows = [];
   for (const [li, labId] of labIds.entries()) {
-    for (const when of ['2026-03-20T09:00:00Z', '2026-09-18T09:00:00Z', '2026-11-20T09:00:00Z']) {
-      const failing = li === DUST_LAB && when.startsWith('2026-03');
+    // about eight and a half months, two and a half months and twelve days before "today"
+    for (const [k, daysAgo] of [257, 75, 12].entries()) {
+      const when = addDays(now, -daysAgo);
+      when.setUTCHours(9, 0, 0, 0);
+      const failing = li === DUST_LAB && k === 0;
       const spec = { referenceValueNm: 100, toleranceNm: 2, pdiLimit: 0.05, setPointC: 25, temperatureToleranceC: 0.5, minEquilibrationMin: 2 };
       const runs = [0, 1, 2].map(() => ({
         zAverageNm: round(failing ? 109 + 4 * rnd() : 100 + 2.4 * (rnd() - 0.5), 1),
@@ -373,7 +405,7 @@ async function instrumentChecks(em: EntityManager, labIds: string[], rnd: () => 
         passed: verdict.passed,
         verdict: verdict as unknown as Record<string, unknown>,
         notes: failing ? 'Cuvette holder not cleaned after the previous user.' : '',
-        checkedAt: new Date(when),
+        checkedAt: when,
         recordedBy: null,
       });
     }
@@ -381,11 +413,14 @@ async function instrumentChecks(em: EntityManager, labIds: string[], rnd: () => 
   await em.insert(InstrumentCheck, rows as never);
 }
 
-/** The assessor may read Aldergrove's and Birchmere's records until mid-2027. */
-async function grants(em: EntityManager, labIds: string[]): Promise<void> {
+/** The assessor may read Aldergrove's and Birchmere's records from eleven months ago to seven months ahead. */
+async function grants(em: EntityManager, labIds: string[], now: Date): Promise<void> {
   const assessor = await em.findOneByOrFail(User, { email: 'assessor@ringlet.example' });
   for (const labId of labIds.slice(0, 2)) {
-    await em.insert(AssessorGrant, { organisationId: labId, assessorId: assessor.id, grantedBy: null, startsOn: '2026-01-01', endsOn: '2027-06-30' });
+    await em.insert(AssessorGrant, {
+      organisationId: labId, assessorId: assessor.id, grantedBy: null,
+      startsOn: isoDate(addDays(now, -335)), endsOn: isoDate(addDays(now, 210)),
+    });
   }
 }
 

@@ -51,7 +51,7 @@ export function evidenceReadme(meta: EvidenceMeta, listed: string[]): string {
   return [
     `Evidence pack`,
     ``,
-    `Laboratory: ${meta.lab}`,
+    `Lab: ${meta.lab}`,
     `Made for: ${meta.generatedFor}`,
     `Made at: ${meta.generatedAt} (UTC)`,
     ``,

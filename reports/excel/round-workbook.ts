@@ -7,6 +7,7 @@
  */
 import ExcelJS from 'exceljs';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
+import { HOMOGENEITY_DECISION_LABELS, STUDY_KIND_LABELS, type HomogeneityDecisionKind } from '../../shared/contracts/rounds';
 import { METHOD_WORDS, recordChecksum, reportStatusWords, sigmaPtRuleWords, type ReportGroup, type RoundReportInput } from '../model';
 import { hintWords, neutraliseFormula as t, numberFormat, SCORE_DECIMALS, SCORE_LABEL, SIGNAL_WORDS } from '../text';
 
@@ -188,7 +189,7 @@ function studySheet(wb: ExcelJS.Workbook, input: RoundReportInput): void {
   const ws = wb.addWorksheet('Homogeneity and stability', { views: [{ state: 'frozen', ySplit: 2 }] });
   ws.addRow(['Criteria: homogeneity s_s ≤ 0.3 σ_pt (ISO 13528:2015 B.2.2); stability |ȳ₁ − ȳ₂| ≤ 0.3 σ_pt (B.5); extended criteria allow for the sampling error.']);
   styleHeader(
-    ws.addRow(['Item', 'Measurand', 'Study', 'σ_pt', 'g', 'm', 'General mean', 's_x', 's_w', 's_s', 'Mean before', 'Mean after', '|difference|', '0.3 σ_pt', 'Passes', 'Decision', 'Reason']),
+    ws.addRow(['Item', 'Measurand', 'Study', 'σ_pt', 'g', 'm', 'General mean', 's_x', 's_w', 's_s', 'Mean before', 'Mean after', '|difference|', '0.3 σ_pt', 'Result', 'Decision', 'Reason']),
   );
   const ms = new Map(input.measurands.map((m) => [m.key, m]));
   for (const s of input.studies) {
@@ -198,7 +199,7 @@ function studySheet(wb: ExcelJS.Workbook, input: RoundReportInput): void {
     const row = ws.addRow([
       t(s.itemCode),
       t(m?.name ?? s.measurandKey),
-      s.kind === 'homogeneity' ? 'Homogeneity study' : 'Stability study',
+      STUDY_KIND_LABELS[s.kind],
       s.sigmaPt,
       num('g'),
       num('m'),
@@ -211,7 +212,7 @@ function studySheet(wb: ExcelJS.Workbook, input: RoundReportInput): void {
       num('difference'),
       num('limit'),
       s.passes ? 'Pass' : 'Fail',
-      t(s.decision ?? '—'),
+      t(s.decision ? (HOMOGENEITY_DECISION_LABELS[s.decision as HomogeneityDecisionKind] ?? s.decision) : '—'),
       t(s.decisionReason ?? ''),
     ]);
     const fmt = numberFormat((m?.decimals ?? 3) + 1);

@@ -4,6 +4,7 @@
  * marked), the score chart with its code marked, and its Track record. Other labs appear only
  * as codes (in the charts, unnamed bars).
  */
+import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
 import { explainScore } from '../../shared/evaluation/explain';
 import { trackRecordOption } from '../charts/options';
 import { renderChartSvg } from '../charts/render';
@@ -59,7 +60,7 @@ function ownGroup(doc: Doc, input: ParticipantReportInput, g: ReportGroup, index
     write(doc, line, { size: 9.5, gap: 2 });
   }
   // explainScore already gives each hint in the lab's own terms; the general wording is in the round report.
-  if (p.excluded) write(doc, `Your result was kept out of the assigned value (${p.excluded.rule}): ${p.excluded.reason}. It is still scored.`, { size: 9.5 });
+  if (p.excluded) write(doc, `Your result was kept out of the assigned value (${EXCLUSION_RULE_LABELS[p.excluded.rule as keyof typeof EXCLUSION_RULE_LABELS] ?? p.excluded.rule}): ${p.excluded.reason}. It is still scored.`, { size: 9.5 });
   drawGroupCharts(doc, g, p.code, p.result);
   if (s !== null) write(doc, 'In the charts your result is the line marked “you” and your score is drawn darker (or pinned).', { size: 8, colour: PALETTE.grey });
 }
@@ -73,7 +74,7 @@ export async function buildParticipantReportPdf(input: ParticipantReportInput): 
     author: input.provider.name,
     ...docDates(input),
   });
-  cover(doc, input, 'Individual report', [`Laboratory: ${input.labName}`, `Participant code: ${input.participantCode}`]);
+  cover(doc, input, 'Individual report', [`Lab: ${input.labName}`, `Participant code: ${input.participantCode}`]);
   input.groups.forEach((g, i) => ownGroup(doc, input, g, i));
   doc.addPage();
   const n = input.groups.length;

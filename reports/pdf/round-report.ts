@@ -12,6 +12,10 @@ import { METHOD_WORDS, recordChecksum, reportStatusWords, sigmaPtRuleWords, type
 import { fixed, hintWords, HINT_WORDS, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
 import { artifact, banner, createDoc, ensureSpace, figure, finishDoc, heading, MARGIN, plotArea, table, wrapTable, write, type Doc } from './document';
 import { drawSvg } from './svg';
+import { HOMOGENEITY_DECISION_LABELS, STUDY_KIND_LABELS, type HomogeneityDecisionKind } from '../../shared/contracts/rounds';
+
+/** A study decision as a person reads it (docs/GLOSSARY.md: no raw code values). */
+export const decisionLabel = (d: string | null): string => (d ? (HOMOGENEITY_DECISION_LABELS[d as HomogeneityDecisionKind] ?? d) : '—');
 
 export const CONFIDENTIALITY =
   'Confidentiality: participants appear in this report only by their participant codes. The PT provider keeps the ' +
@@ -147,11 +151,11 @@ function itemsSection(doc: Doc, input: RoundReportInput): void {
     for (const m of input.measurands) {
       for (const kind of ['homogeneity', 'stability'] as const) {
         const st = input.studies.find((x) => x.itemCode === item.code && x.measurandKey === m.key && x.kind === kind);
-        const label = kind === 'homogeneity' ? 'Homogeneity study' : 'Stability study';
+        const label = STUDY_KIND_LABELS[kind];
         if (!st) rows.push([item.code, m.name, label, 'none recorded', '—', '']);
         else {
           const d = (ms.get(st.measurandKey)?.decimals ?? 3) + 1;
-          rows.push([item.code, m.name, label, studyLine(st, d), st.passes ? 'Pass' : 'Fail', [st.decision, st.decisionReason].filter(Boolean).join(': ')]);
+          rows.push([item.code, m.name, label, studyLine(st, d), st.passes ? 'Pass' : 'Fail', [st.decision ? decisionLabel(st.decision) : '', st.decisionReason].filter(Boolean).join(': ')]);
         }
       }
     }
@@ -306,7 +310,7 @@ function groupSection(doc: Doc, g: ReportGroup, index: number, highlight?: strin
     [
       { title: 'Code', width: 52 },
       { title: `Mean${u}`, width: 58, align: 'right' },
-      { title: 'Rep. SD', width: 50, align: 'right' },
+      { title: 'Replicate SD', width: 50, align: 'right' },
       { title: 'u(x)', width: 46, align: 'right' },
       { title: 'z', width: 38, align: 'right' },
       { title: 'z′', width: 38, align: 'right' },

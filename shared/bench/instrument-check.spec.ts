@@ -41,13 +41,13 @@ describe('judgeInstrumentCheck (common practice values, no published source)', (
     expect(v.passed).toBe(false);
     expect(v.meanZAverageNm).toBeCloseTo(99.9333, 3);
     expect(v.reasons.map((r) => r.code)).toEqual(['mean-out-of-tolerance', 'pdi-above-limit']);
-    expect(v.reasons[1]!.message).toContain('run 3');
+    expect(v.reasons[1]!.message).toContain('replicate 3');
   });
 
   it('fails a run off the set point or not equilibrated long enough', () => {
     const v = judgeInstrumentCheck({ ...spec, runs: [run(92, 0.02, 25), run(92, 0.02, 26.2), run(92, 0.02, 25, 2)] });
     expect(v.reasons.map((r) => r.code)).toEqual(['temperature-off-set-point', 'equilibration-too-short']);
-    expect(v.reasons[0]!.message).toContain('run 2');
-    expect(v.reasons[1]!.message).toContain('run 3');
+    expect(v.reasons[0]!.message).toContain('replicate 2');
+    expect(v.reasons[1]!.message).toContain('replicate 3');
   });
 });

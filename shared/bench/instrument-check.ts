@@ -72,21 +72,21 @@ export function judgeInstrumentCheck(spec: InstrumentCheckSpec): InstrumentCheck
   if (highPdi.length) {
     reasons.push({
       code: 'pdi-above-limit',
-      message: `PDI above the limit ${spec.pdiLimit} in run ${highPdi.map(({ i }) => i + 1).join(', ')} (highest ${n(maxPdi, 3)}).`,
+      message: `PDI above the limit ${spec.pdiLimit} in replicate ${highPdi.map(({ i }) => i + 1).join(', ')} (highest ${n(maxPdi, 3)}).`,
     });
   }
   const offTemp = runs.map((r, i) => ({ r, i })).filter(({ r }) => !(Math.abs(r.temperatureC - spec.setPointC) <= spec.temperatureToleranceC));
   if (offTemp.length) {
     reasons.push({
       code: 'temperature-off-set-point',
-      message: `Temperature outside ${n(spec.setPointC)} ± ${spec.temperatureToleranceC} °C in run ${offTemp.map(({ i }) => i + 1).join(', ')}.`,
+      message: `Temperature outside ${n(spec.setPointC)} ± ${spec.temperatureToleranceC} °C in replicate ${offTemp.map(({ i }) => i + 1).join(', ')}.`,
     });
   }
   const short = runs.map((r, i) => ({ r, i })).filter(({ r }) => !(r.equilibrationMin >= spec.minEquilibrationMin));
   if (short.length) {
     reasons.push({
       code: 'equilibration-too-short',
-      message: `Equilibration shorter than ${spec.minEquilibrationMin} min in run ${short.map(({ i }) => i + 1).join(', ')}.`,
+      message: `Equilibration shorter than ${spec.minEquilibrationMin} min in replicate ${short.map(({ i }) => i + 1).join(', ')}.`,
     });
   }
   return { passed: reasons.length === 0, meanZAverageNm: meanZ, meanPdi, maxPdi, reasons };

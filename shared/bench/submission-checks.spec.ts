@@ -44,7 +44,7 @@ describe('checkResults', () => {
     const data = { items: [item(I1, [101, null, 101], [0.05, 0.05, 0.05])] };
     expect(checkResults(data, round, false).errors).toEqual([]);
     const r = checkResults(data, round, true);
-    expect(r.errors.map((e) => e.message)).toEqual(['A Z-average: run 2 of 3 is missing.', 'B: no results given.']);
+    expect(r.errors.map((e) => e.message)).toEqual(['A Z-average: replicate 2 of 3 is missing.', 'B: no results given.']);
   });
 
   it('flags a temperature more than 1 K from the protocol (common practice)', () => {

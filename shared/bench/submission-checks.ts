@@ -104,16 +104,16 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
       res.replicates.forEach((v, vi) => {
         if (v === null || v === undefined) return;
         if (isPdiMeasurand(m) && !(v >= 0 && v <= 1)) {
-          errors.push({ path: `${base}.replicates.${vi}`, code: 'pdi-out-of-range', message: `${label}, run ${vi + 1}: PDI must be between 0 and 1.` });
+          errors.push({ path: `${base}.replicates.${vi}`, code: 'pdi-out-of-range', message: `${label}, replicate ${vi + 1}: PDI must be between 0 and 1.` });
         } else if (isDiameterMeasurand(m) && !(v > 0)) {
-          errors.push({ path: `${base}.replicates.${vi}`, code: 'diameter-not-positive', message: `${label}, run ${vi + 1}: a diameter must be above 0 ${m.unit}.` });
+          errors.push({ path: `${base}.replicates.${vi}`, code: 'diameter-not-positive', message: `${label}, replicate ${vi + 1}: a diameter must be above 0 ${m.unit}.` });
         }
       });
       if (complete) {
         for (let vi = 0; vi < m.replicatesRequired; vi++) {
           const v = res.replicates[vi];
           if (v === null || v === undefined) {
-            errors.push({ path: `${base}.replicates.${vi}`, code: 'missing-replicate', message: `${label}: run ${vi + 1} of ${m.replicatesRequired} is missing.` });
+            errors.push({ path: `${base}.replicates.${vi}`, code: 'missing-replicate', message: `${label}: replicate ${vi + 1} of ${m.replicatesRequired} is missing.` });
           }
         }
       }
@@ -127,14 +127,14 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
             code: `wide-spread:${item.testItemId}:${m.id}`,
             kind: 'wide-spread',
             path: `${base}.replicates`,
-            message: `${label}: the runs differ by ${(hi - lo).toFixed(3)} (more than ${PDI_SPREAD_WARN}). Check for settling, dust or a drifting temperature.`,
+            message: `${label}: the replicates differ by ${(hi - lo).toFixed(3)} (more than ${PDI_SPREAD_WARN}). Check for settling, dust or a drifting temperature.`,
           });
         } else if (isDiameterMeasurand(m) && mu > 0 && (hi - lo) / mu > DIAMETER_SPREAD_WARN) {
           warnings.push({
             code: `wide-spread:${item.testItemId}:${m.id}`,
             kind: 'wide-spread',
             path: `${base}.replicates`,
-            message: `${label}: the runs spread over ${((100 * (hi - lo)) / mu).toFixed(1)} % of their mean (more than ${100 * DIAMETER_SPREAD_WARN} %). Check for settling, dust or a drifting temperature.`,
+            message: `${label}: the replicates spread over ${((100 * (hi - lo)) / mu).toFixed(1)} % of their mean (more than ${100 * DIAMETER_SPREAD_WARN} %). Check for settling, dust or a drifting temperature.`,
           });
         }
       }
@@ -176,7 +176,7 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
     if (meanSize !== undefined && sizeAt && roundItem.nominalSizeNm) {
       // The nominal size is not a consensus: only the factor-like slips (radius for diameter, a unit
       // slip) and dust are worth a hint here; small offsets are left to the temperature/viscosity checks.
-      const hints = blunderHints({ result: meanSize, assignedValue: roundItem.nominalSizeNm, pdi: meanPdi }).filter(
+      const hints = blunderHints({ result: meanSize, assignedValue: roundItem.nominalSizeNm, pdi: meanPdi, reference: 'the nominal size' }).filter(
         (h) => h.code !== 'viscosity-temperature',
       );
       for (const hint of hints) {

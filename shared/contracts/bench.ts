@@ -57,6 +57,15 @@ export type BenchMeasurand = z.infer<typeof BenchMeasurand>;
 
 export const ShipmentCondition = z.enum(['intact', 'damaged', 'leaked', 'arrived-warm']);
 export type ShipmentCondition = z.infer<typeof ShipmentCondition>;
+/** What a person reads for a parcel's condition on arrival. */
+export const SHIPMENT_CONDITION_LABELS: Record<ShipmentCondition, string> = {
+  intact: 'Intact',
+  damaged: 'Damaged',
+  leaked: 'Leaked',
+  'arrived-warm': 'Arrived warm',
+};
+/** Conditions that call for the damaged-parcel cautions (shared/contracts/safety.ts). */
+export const DAMAGED_CONDITIONS: readonly ShipmentCondition[] = ['damaged', 'leaked'];
 
 export const Receipt = z.object({
   dispatchedOn: z.iso.date().nullable(),
@@ -206,7 +215,12 @@ export const Reanalysis = z.object({
   labPdi: z.number().nullable(),
   disagrees: z.boolean(),
   messages: z.array(z.string()),
-  /** The physics the fit used (from the item's conditions, defaults where missing). */
+  /**
+   * Which of `parameters` were assumed because neither the upload nor the item's conditions gave
+   * them (older stored analyses lack the list).
+   */
+  assumed: z.array(z.enum(['temperatureC', 'viscosityMPas', 'refractiveIndex', 'wavelengthNm', 'angleDeg'])).default([]),
+  /** The physics the fit used (from the upload's fields, the item's conditions, defaults where missing). */
   parameters: z.object({
     temperatureC: z.number(),
     viscosityMPas: z.number(),
@@ -233,7 +247,15 @@ export const AttachmentDto = z.object({
 export type AttachmentDto = z.infer<typeof AttachmentDto>;
 
 /** Multipart fields beside the `file` part. */
-export const AttachmentUploadFields = LabQuery.extend({ testItemId: Id.optional() });
+export const AttachmentUploadFields = LabQuery.extend({
+  testItemId: Id.optional(),
+  /** For the re-analysis of a correlation CSV: this file's laser wavelength (else the item's conditions, else 633 nm). */
+  laserWavelengthNm: z.coerce.number().min(200).max(2000).optional(),
+  /** For the re-analysis of a correlation CSV: this file's scattering angle (else the item's conditions, else 173°). */
+  scatteringAngleDeg: z.coerce.number().gt(0).lt(180).optional(),
+});
+/** What the re-analysis assumes when neither the upload nor the item's conditions say (common practice for DLS instruments). */
+export const REANALYSIS_DEFAULTS = { wavelengthNm: 633, angleDeg: 173 } as const;
 
 /** 20 MB per uploaded file. */
 export const MAX_ATTACHMENT_BYTES = 20 * 1024 * 1024;

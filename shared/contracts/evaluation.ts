@@ -141,6 +141,15 @@ export const ItemMeasurandEvaluation = z.object({
 export type ItemMeasurandEvaluation = z.infer<typeof ItemMeasurandEvaluation>;
 
 export const EvaluationState = z.enum(['draft', 'committed', 'published']);
+export type EvaluationState = z.infer<typeof EvaluationState>;
+/** What a person reads for an investigation's state. */
+export const INVESTIGATION_STATE_LABELS: Record<'open' | 'closed', string> = { open: 'Open', closed: 'Closed' };
+/** What a person reads for an evaluation state (docs/GLOSSARY.md: never "committed"). */
+export const EVALUATION_STATE_LABELS: Record<EvaluationState, string> = {
+  draft: 'Draft',
+  committed: 'Approved for publication',
+  published: 'Published',
+};
 
 /** GET/POST /rounds/{id}/evaluation: the coordinator's view (codes only, no lab names). */
 export const EvaluationView = z.object({
@@ -249,6 +258,10 @@ export const BoardListEntry = z.object({
   evaluationState: EvaluationState.nullable(),
   version: z.number().int().nullable(),
   publishedAt: z.string().nullable(),
+  /** Signal counts over every score of the newest evaluation shown (zero without one). */
+  acceptable: z.number().int().default(0),
+  warning: z.number().int().default(0),
+  action: z.number().int().default(0),
 });
 export type BoardListEntry = z.infer<typeof BoardListEntry>;
 

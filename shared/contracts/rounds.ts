@@ -461,6 +461,17 @@ export type StudyInput = z.input<typeof StudyInput>;
 
 export const HomogeneityDecisionKind = z.enum(['accept', 'widen-sigma-pt', 'exclude-item']);
 export type HomogeneityDecisionKind = z.infer<typeof HomogeneityDecisionKind>;
+/** What a person reads for a decision on a failing study (docs/GLOSSARY.md: every code gets a label). */
+export const HOMOGENEITY_DECISION_LABELS: Record<HomogeneityDecisionKind, string> = {
+  accept: 'Accept the items as they are',
+  'widen-sigma-pt': 'Widen σ_pt to include s_s',
+  'exclude-item': 'Exclude the item from scoring',
+};
+export type StudyKind = 'homogeneity' | 'stability';
+export const STUDY_KIND_LABELS: Record<StudyKind, string> = {
+  homogeneity: 'Homogeneity study',
+  stability: 'Stability study',
+};
 
 export const Study = z.object({
   id: Id,

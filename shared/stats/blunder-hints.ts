@@ -37,6 +37,8 @@ export interface BlunderInput {
   readonly pdi?: number;
   /** The consensus PDI of the item, optional. */
   readonly assignedPdi?: number;
+  /** What the result is compared with, as the message names it (default "the assigned value"; the Lab bench compares with "the nominal size"). */
+  readonly reference?: string;
 }
 
 export const FACTOR_TOLERANCE = 0.1;
@@ -57,6 +59,7 @@ const near = (r: number, f: number, tol: number) => Math.abs(r / f - 1) <= tol;
  */
 export function blunderHints(input: BlunderInput): BlunderHint[] {
   const { result: x, assignedValue: xpt, sigmaPt, pdi, assignedPdi } = input;
+  const ref = input.reference ?? 'the assigned value';
   if (!Number.isFinite(x) || !Number.isFinite(xpt) || !(x > 0) || !(xpt > 0)) return [];
   const r = x / xpt;
   const isUnusual =
@@ -70,26 +73,26 @@ export function blunderHints(input: BlunderInput): BlunderHint[] {
       code: 'radius-diameter',
       factor: 0.5,
       message:
-        'The result is about half the consensus: was a radius reported instead of a diameter, or the decay rate of g2 − 1 (which is 2Γ) used as Γ?',
+        `The result is about half ${ref}: was a radius reported instead of a diameter, or the decay rate of g2 − 1 (which is 2Γ) used as Γ?`,
     });
   } else if (near(r, 2, FACTOR_TOLERANCE)) {
     hints.push({
       code: 'radius-diameter',
       factor: 2,
-      message: 'The result is about twice the consensus: was a diameter doubled, or a radius formula used for a diameter?',
+      message: `The result is about twice ${ref}: was a diameter doubled, or a radius formula used for a diameter?`,
     });
   }
   if (near(r, 1000, FACTOR_TOLERANCE)) {
     hints.push({
       code: 'unit-slip',
       factor: 1000,
-      message: 'The result is about 1000 times the consensus: was it entered in the wrong unit (e.g. pm or nm where µm/nm was asked)?',
+      message: `The result is about 1000 times ${ref}: was it entered in the wrong unit (e.g. pm or nm where µm/nm was asked)?`,
     });
   } else if (near(r, 0.001, FACTOR_TOLERANCE)) {
     hints.push({
       code: 'unit-slip',
       factor: 0.001,
-      message: 'The result is about 1/1000 of the consensus: was it entered in µm instead of nm?',
+      message: `The result is about 1/1000 of ${ref}: was it entered in µm instead of nm?`,
     });
   }
   if (near(r, VISCOSITY_20_25_RATIO, VISCOSITY_TOLERANCE) || near(r, 1 / VISCOSITY_20_25_RATIO, VISCOSITY_TOLERANCE)) {
@@ -98,15 +101,15 @@ export function blunderHints(input: BlunderInput): BlunderHint[] {
       code: 'viscosity-temperature',
       factor: high ? VISCOSITY_20_25_RATIO : 1 / VISCOSITY_20_25_RATIO,
       message: high
-        ? 'The result is about 12.5 % above the consensus: was a sample at 20 °C analysed with the 25 °C water viscosity?'
-        : 'The result is about 11 % below the consensus: was a sample at 25 °C analysed with the 20 °C water viscosity?',
+        ? `The result is about 12.5 % above ${ref}: was a sample at 20 °C analysed with the 25 °C water viscosity?`
+        : `The result is about 11 % below ${ref}: was a sample at 25 °C analysed with the 20 °C water viscosity?`,
     });
   } else if (Math.abs(r - 1) >= 0.02 && Math.abs(r - 1) <= 0.1) {
     const kelvin = Math.log(r) / Math.log(1 + SIZE_CHANGE_PER_KELVIN);
     hints.push({
       code: 'viscosity-temperature',
       factor: r,
-      message: `The result differs from the consensus by ${pct(r - 1)}, as an unnoticed temperature offset of about ${Math.abs(
+      message: `The result differs from ${ref} by ${pct(r - 1)}, as an unnoticed temperature offset of about ${Math.abs(
         kelvin,
       ).toFixed(1)} K (or the matching viscosity error) would: check equilibration time, cell temperature and the dispersant viscosity entered.`,
     });
@@ -116,7 +119,7 @@ export function blunderHints(input: BlunderInput): BlunderHint[] {
     if (pdi > pdiLimit) {
       hints.push({
         code: 'dust-aggregates',
-        message: `Both size (${pct(r - 1)} above the consensus) and PDI (${pdi.toFixed(
+        message: `Both size (${pct(r - 1)} above ${ref}) and PDI (${pdi.toFixed(
           2,
         )}) are high: dust or aggregates in the cell? Filter the dispersant, check the cuvette and repeat after mixing.`,
       });

@@ -269,7 +269,7 @@ export function precisionAnalysis(cells: readonly PrecisionCellInput[]): Precisi
   const nRef = referenceReplicates(withSpread.map((c) => c.n));
   if (pk >= 1 && new Set(withSpread.map((c) => c.n)).size > 1) {
     warnings.push(
-      `Laboratories report different numbers of results: the critical values of Cochran's C and Mandel's k use n = ${nRef} (the most frequent).`,
+      `Labs report different numbers of results: the critical values of Cochran's C and Mandel's k use n = ${nRef} (the most frequent).`,
     );
   }
   if (pk >= 2 && pk < p) {

@@ -43,7 +43,7 @@ describe('Consensus board in a real browser', () => {
     await page.getByTestId('save-draft').click();
     await page.getByTestId('evaluation-message').getByText('Draft saved.').waitFor();
     await page.getByTestId('commit').click();
-    await page.getByTestId('evaluation-message').getByText('committed').waitFor();
+    await page.getByTestId('evaluation-message').getByText('approved for publication').waitFor();
     await page.getByTestId('publish').click();
     await page.getByTestId('evaluation-message').getByText(/Published version 1: 40 labs e-mailed/).waitFor();
 

@@ -34,13 +34,13 @@ describe('Lab bench in a real browser', () => {
     await page.getByLabel('PDI limit').fill(String(check.pdiLimit));
     await page.getByLabel('Min. equilibration (min)').fill(String(check.minEquilibrationMin));
     for (const [k, run] of check.runs.entries()) {
-      await page.getByLabel(`Check run ${k + 1} Z-average (nm)`).fill(String(run.zAverageNm));
-      await page.getByLabel(`Check run ${k + 1} PDI`).fill(String(run.pdi));
-      await page.getByLabel(`Check run ${k + 1} equilibration (min)`).fill(String(run.equilibrationMin));
+      await page.getByLabel(`Check replicate ${k + 1} Z-average (nm)`).fill(String(run.zAverageNm));
+      await page.getByLabel(`Check replicate ${k + 1} PDI`).fill(String(run.pdi));
+      await page.getByLabel(`Check replicate ${k + 1} equilibration (min)`).fill(String(run.equilibrationMin));
     }
-    expect(await page.getByTestId('check-preview').textContent()).toContain('Passes');
+    expect(await page.getByTestId('check-preview').textContent()).toContain('Pass');
     await page.getByTestId('record-check').click();
-    await page.getByTestId('check-history').getByText('Passed').waitFor();
+    await page.getByTestId('check-history').getByText('● Pass').waitFor();
 
     // Results: keyboard through the runs of item A, typed into item B
     const values: Record<string, { z: number[]; p: number[] }> = { A: { z: [101.8, 102.4, 102.1], p: [0.051, 0.055, 0.049] }, B: { z: [61.3, 61.0, 61.6], p: [0.08, 0.082, 0.079] } };
@@ -60,7 +60,7 @@ describe('Lab bench in a real browser', () => {
 
     // A PDI outside 0–1 is refused as typed, and a radius-like value raises a hint to acknowledge
     await page.getByTestId('rep-B-pdi-1').fill('1.4');
-    await page.getByText('B PDI, run 1: PDI must be between 0 and 1.').waitFor();
+    await page.getByText('B PDI, replicate 1: PDI must be between 0 and 1.').waitFor();
     await page.getByTestId('rep-B-pdi-1').fill('0.08');
     await page.getByTestId('save-state').filter({ hasText: 'Saved' }).waitFor();
     await e.shot(page, 'lab-bench-results-entered');

@@ -44,8 +44,9 @@ describe('Editing a round in a real browser', () => {
     const edit = page.getByRole('dialog');
     await edit.getByLabel('Results due').fill('2026-11-20T12:00');
     await edit.getByLabel('Participation fee').fill('450');
-    // the safety cautions stay by default
-    await edit.getByText('Never defeat or bypass the instrument').waitFor();
+    // the basic safety cautions are fixed: shown, and nothing to untick
+    await edit.getByTestId('fixed-cautions').getByText('Never defeat or bypass the instrument').waitFor();
+    expect(await edit.getByTestId('keep-cautions').count()).toBe(0);
     await e.shot(page, 'round-edit-dialog');
     await edit.getByTestId('save-round').click();
     await edit.waitFor({ state: 'detached' });

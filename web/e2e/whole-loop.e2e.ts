@@ -56,7 +56,9 @@ async function focusState(page: Page): Promise<{ testid: string | null; tag: str
     const s = getComputedStyle(el);
     const outline = s.outlineStyle !== 'none' && parseFloat(s.outlineWidth) > 0;
     const shadow = !!s.boxShadow && s.boxShadow !== 'none';
-    return { testid: el.getAttribute('data-testid'), tag: el.tagName, visible: outline || shadow };
+    // a Material field shows focus on its own outline (thicker, in the primary colour)
+    const field = !!el.closest('.mat-mdc-form-field.mat-focused');
+    return { testid: el.getAttribute('data-testid'), tag: el.tagName, visible: outline || shadow || field };
   });
 }
 
@@ -268,7 +270,7 @@ describe('the whole loop in a real browser', () => {
     await page.getByRole('link', { name: new RegExp(ROUND) }).click();
     await page.getByTestId('page-heading').filter({ hasText: ROUND }).waitFor();
     await page.getByRole('button', { name: 'Record receipt' }).click();
-    await page.getByTestId('receipt-state').filter({ hasText: 'intact' }).waitFor();
+    await page.getByTestId('receipt-state').filter({ hasText: 'Intact' }).waitFor();
     const check = passingCheck('Sizer One');
     await page.getByTestId('check-instrument').fill(check.instrument);
     await page.getByLabel('Reference material').fill(check.material);
@@ -277,14 +279,14 @@ describe('the whole loop in a real browser', () => {
     await page.getByLabel('PDI limit').fill(String(check.pdiLimit));
     await page.getByLabel('Min. equilibration (min)').fill(String(check.minEquilibrationMin));
     for (const [k, run] of check.runs.entries()) {
-      await page.getByLabel(`Check run ${k + 1} Z-average (nm)`).fill(String(run.zAverageNm));
-      await page.getByLabel(`Check run ${k + 1} PDI`).fill(String(run.pdi));
-      await page.getByLabel(`Check run ${k + 1} temperature (°C)`).fill(String(run.temperatureC));
-      await page.getByLabel(`Check run ${k + 1} equilibration (min)`).fill(String(run.equilibrationMin));
+      await page.getByLabel(`Check replicate ${k + 1} Z-average (nm)`).fill(String(run.zAverageNm));
+      await page.getByLabel(`Check replicate ${k + 1} PDI`).fill(String(run.pdi));
+      await page.getByLabel(`Check replicate ${k + 1} temperature (°C)`).fill(String(run.temperatureC));
+      await page.getByLabel(`Check replicate ${k + 1} equilibration (min)`).fill(String(run.equilibrationMin));
     }
-    await page.getByTestId('check-preview').filter({ hasText: 'Passes' }).waitFor();
+    await page.getByTestId('check-preview').filter({ hasText: 'Pass:' }).waitFor();
     await page.getByTestId('record-check').click();
-    await page.getByTestId('check-history').getByText('Passed').waitFor();
+    await page.getByTestId('check-history').getByText('● Pass').waitFor();
   }
 
   step('4. Harbour: receipt, instrument check, and results typed with the keyboard only', async () => {
@@ -405,7 +407,7 @@ describe('the whole loop in a real browser', () => {
     await page.goto(`/desk/rounds/${roundId}`);
     await page.getByTestId('move-closed').click();
     await page.getByRole('dialog').getByRole('textbox', { name: 'Reason' }).fill('All thirteen labs have submitted.');
-    await page.getByRole('dialog').getByRole('checkbox', { name: /Force: close before results are due/ }).check();
+    await page.getByRole('dialog').getByRole('checkbox', { name: /Close early, before results are due/ }).check();
     await page.getByTestId('dialog-confirm').click();
     await page.getByTestId('round-state').getByText('Closed').waitFor();
     const closed = await e.ds.getRepository(Round).findOneByOrFail({ id: roundId });
@@ -433,13 +435,14 @@ describe('the whole loop in a real browser', () => {
     expect(after).toBeLessThan(10.5);
     await e.shot(page, 'loop-06-evaluation-preview');
     // back to the stored rule: the round's robust SD
-    await page.getByRole('button', { name: /Remove σ_pt rule for z_average/ }).click();
+    await page.getByRole('button', { name: /Remove σ_pt rule for Z-average/ }).click();
+    await sigma.filter({ hasText: String(before) }).waitFor({ timeout: 10_000 });
     await expect(sigma.textContent()).resolves.toBe(String(before));
 
     await page.getByTestId('save-draft').click();
     await page.getByTestId('evaluation-message').getByText('Draft saved.').waitFor();
     await page.getByTestId('commit').click();
-    await page.getByTestId('evaluation-message').getByText('committed').waitFor();
+    await page.getByTestId('evaluation-message').getByText('approved for publication').waitFor();
     await page.getByTestId('publish').click();
     await page.getByTestId('evaluation-message').getByText(/Published version 1: 13 labs e-mailed/).waitFor();
 

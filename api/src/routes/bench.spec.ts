@@ -297,6 +297,22 @@ describe('Lab bench API', () => {
       expect(far.body.reanalysis.messages.join(' ')).toContain('differs from the re-analysis');
     });
 
+    it('re-analyses with the wavelength and angle given for the file, and says which values were assumed', async () => {
+      const post = (fields: Record<string, string>) => {
+        let req = a.agent.post(api(`/rounds/${r.round.id}/submission/attachments`)).set('x-csrf-token', a.csrf).field('testItemId', r.items[0]!.id);
+        for (const [k, v] of Object.entries(fields)) req = req.field(k, v);
+        return req.attach('file', Buffer.from(correlationCsv(100)), 'angle.csv');
+      };
+      const at90 = await post({ laserWavelengthNm: '633', scatteringAngleDeg: '90' }).expect(201);
+      expect(at90.body.reanalysis.parameters).toMatchObject({ wavelengthNm: 633, angleDeg: 90 });
+      expect(at90.body.reanalysis.assumed).not.toContain('angleDeg');
+      expect(at90.body.reanalysis.assumed).not.toContain('wavelengthNm');
+      // The decay rate is fixed by the data; the size scales with q² ∝ sin²(θ/2): 100 nm × sin²45° / sin²86.5°.
+      expect(at90.body.reanalysis.zAverageNm).toBeCloseTo((100 * Math.sin(Math.PI / 4) ** 2) / Math.sin((86.5 * Math.PI) / 180) ** 2, 0);
+      const bad = await post({ scatteringAngleDeg: '200' }).expect(400);
+      expect(bad.body.error.details[0].path).toBe('scatteringAngleDeg');
+    });
+
     it('checks type by content and the 20 MB limit', async () => {
       const up = (buf: Buffer, name: string) => a.agent.post(api(`/rounds/${r.round.id}/submission/attachments`)).set('x-csrf-token', a.csrf).attach('file', buf, name);
       const pdf = await up(Buffer.from('%PDF-1.7\n1 0 obj\n<<>>\nendobj\n%%EOF'), 'report.pdf').expect(201);
@@ -333,7 +349,7 @@ describe('Lab bench API', () => {
       const wb = new ExcelJS.Workbook();
       await wb.xlsx.load(tpl.body as unknown as ArrayBuffer);
       const ws = wb.getWorksheet('Results')!;
-      expect(ws.getRow(1).values).toEqual([undefined, 'Item', 'Measurand key', 'Measurand', 'Unit', 'Run 1', 'Run 2', 'Run 3', 'Uncertainty type', 'Uncertainty', 'k']);
+      expect(ws.getRow(1).values).toEqual([undefined, 'Item', 'Measurand file code', 'Measurand', 'Unit', 'Replicate 1', 'Replicate 2', 'Replicate 3', 'Uncertainty type', 'Uncertainty', 'k']);
       expect(ws.getRow(2).values).toEqual([undefined, 'A', 'z_average', 'Z-average', 'nm', 102, 102.5, 103, 'expanded', 2, 2]);
       ws.getCell('F2').value = 104; // item A Z-average, run 2
       wb.getWorksheet('Conditions')!.getCell('M2').value = '=HYPERLINK("x")';
@@ -348,8 +364,8 @@ describe('Lab bench API', () => {
       const bad = await a.agent.post(api(`/rounds/${rr.round.id}/submission/upload.xlsx`)).set('x-csrf-token', a.csrf).attach('file', Buffer.from(await wb.xlsx.writeBuffer()), 'results.xlsx').expect(422);
       const msgs = bad.body.error.details.map((d: { sheet: string; row: number; column: string; message: string }) => [d.sheet, d.row, d.column, d.message]);
       expect(msgs).toEqual([
-        ['Results', 4, 'G', 'Results row 4, column G (Run 3): "abc" is not a number.'],
-        ['Results', 3, 'F', 'Results row 3, column F: A PDI, run 2: PDI must be between 0 and 1.'],
+        ['Results', 4, 'G', 'Results row 4, column G (Replicate 3): "abc" is not a number.'],
+        ['Results', 3, 'F', 'Results row 3, column F: A PDI, replicate 2: PDI must be between 0 and 1.'],
       ]);
       const view = await a.agent.get(api(`/rounds/${rr.round.id}/submission`)).expect(200);
       expect(view.body.draftRevision).toBe(2); // nothing half-saved

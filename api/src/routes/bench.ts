@@ -122,11 +122,14 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
   api.router.post('/rounds/:id/submission/attachments', uploadRule(ATTACHMENT_LIMIT, lab));
   api.add({
     method: 'post', path: '/rounds/{id}/submission/attachments', tag: 'lab bench',
-    summary: 'Attach a raw-data file (multipart field `file`; CSV/TXT/PDF/XLSX by content); a correlation CSV is re-analysed by cumulants',
+    summary: 'Attach a raw-data file (multipart field `file`; CSV/TXT/PDF/XLSX by content); a correlation CSV is re-analysed by cumulants with the optional fields `laserWavelengthNm` and `scatteringAngleDeg` (else the item\'s conditions, else 633 nm and 173°, reported as assumed)',
     description: `${LAB_DESCRIPTION} ${describeLimit(ATTACHMENT_LIMIT)} A correlation CSV of more than ${ATTACHMENT_LIMIT.maxCorrelationRows.toLocaleString('en-GB')} lines is stored but not re-analysed.`,
     access: lab, params: RoundIdParams, query: LabQuery, body: AttachmentUploadFields, status: 201, response: AttachmentDto,
     handler: ({ req, user, query, params, body }) => {
-      return attachments.uploadAttachment(ctx, user, labOf(req, user, { labId: query.labId ?? body.labId }), params.id, uploadedFile(req), body.testItemId);
+      return attachments.uploadAttachment(ctx, user, labOf(req, user, { labId: query.labId ?? body.labId }), params.id, uploadedFile(req), body.testItemId, {
+        laserWavelengthNm: body.laserWavelengthNm,
+        scatteringAngleDeg: body.scatteringAngleDeg,
+      });
     },
   });
   api.add({

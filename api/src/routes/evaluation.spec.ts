@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { Evaluation, Round } from '../../../db/entities';
 import type { EvaluationView, InvestigationDto } from '../../../shared/contracts/evaluation';
 import { runEvaluate } from '../cli/run-evaluate';
+import { transitionRound } from '../services/round-lifecycle';
 import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evaluation-fixtures';
 import { createUser, mailTo, signedIn, startTestApp, type Client, type TestApp } from '../testing/test-app';
 
@@ -174,6 +175,13 @@ describe('evaluation, board, scores and investigations', () => {
     expectNoLabNames((await stranger.agent.get(api('/boards')).expect(200)).body);
     expectNoLabNames((await stranger.agent.get(api('/investigations')).expect(200)).body);
     expect((await labA.agent.get(api('/boards')).expect(200)).body.map((b: { roundId: string }) => b.roundId)).toEqual([roundId()]);
+    // The landing grid's signal counts are the board's: every score of the published version, by signal.
+    const [entry] = (await labA.agent.get(api('/boards')).expect(200)).body;
+    const board = (await labA.agent.get(api(`/rounds/${roundId()}/board`)).expect(200)).body;
+    const count = (s: string) =>
+      (board.rows as { cells: ({ signal: string | null } | null)[] }[]).flatMap((r) => r.cells).filter((c) => c?.signal === s).length;
+    expect(entry).toMatchObject({ acceptable: count('acceptable'), warning: count('warning'), action: count('action') });
+    expect(entry.action).toBeGreaterThan(0); // the blunder lab
   });
 
   it('a lab reads its own scores with a plain explanation, and nothing of the others', async () => {
@@ -260,6 +268,22 @@ describe('evaluation, board, scores and investigations', () => {
     expect((await labA.agent.get(api(`/rounds/${roundId()}/board`)).expect(200)).body.version).toBe(2);
     const scores = await labB.agent.get(api(`/my/rounds/${roundId()}/scores`)).expect(200);
     expect(scores.body.reissueReason).toContain('radius');
+  });
+
+  it('a correction starts only on the evaluation page and always leads back to Published', async () => {
+    expect((await t.ds.getRepository(Round).findOneByOrFail({ id: roundId() })).state).toBe('published');
+    const desk = await coord.agent.post(api(`/rounds/${roundId()}/transitions`)).set('x-csrf-token', coord.csrf)
+      .send({ to: 'reissued', reason: 'Correcting a unit' }).expect(409);
+    expect(desk.body.error.code).toBe('transition_owned_by_evaluation');
+    expect((await t.ds.getRepository(Round).findOneByOrFail({ id: roundId() })).state).toBe('published');
+    // A round an older desk move left in Reissued (no new version) is reissued and published again.
+    await t.ds.transaction((em) => transitionRound(em, roundId(), 'reissued', { id: null }, { reason: 'older desk move' }));
+    const again = await coord.agent.post(api(`/rounds/${roundId()}/reissue`)).set('x-csrf-token', coord.csrf)
+      .send({ reason: 'Completing the correction the desk move began' }).expect(201);
+    expect(again.body).toMatchObject({ version: 3, state: 'committed' });
+    const pub = await coord.agent.post(api(`/rounds/${roundId()}/publish`)).set('x-csrf-token', coord.csrf).expect(200);
+    expect(pub.body.version).toBe(3);
+    expect((await t.ds.getRepository(Round).findOneByOrFail({ id: roundId() })).state).toBe('published');
   });
 
   it('track record: z-scores per measurand with RSZ and run rules', async () => {

@@ -23,13 +23,13 @@ export function evaluationRoutes(api: ApiRouter, ctx: AppContext): void {
     handler: ({ params }) => evaluation.getEvaluation(ctx, params.id),
   });
   api.add({
-    method: 'post', path: '/rounds/{id}/evaluation/commit', tag: 'evaluation', summary: 'Commit the draft evaluation (closed → evaluated)',
+    method: 'post', path: '/rounds/{id}/evaluation/commit', tag: 'evaluation', summary: 'Approve the draft evaluation for publication (closed → evaluated)',
     access: coordinator, params: IdParams, response: EvaluationView,
     handler: ({ user, params }) => evaluation.commitEvaluation(ctx, user, params.id),
   });
   api.add({
     method: 'post', path: '/rounds/{id}/publish', tag: 'evaluation',
-    summary: 'Publish the committed evaluation, e-mail every enrolled lab and open investigations for signals',
+    summary: 'Publish the evaluation approved for publication, e-mail every enrolled lab and open investigations for signals',
     access: coordinator, params: IdParams, response: PublishResponse,
     handler: ({ user, params }) => evaluation.publishEvaluation(ctx, user, params.id),
   });

@@ -1,5 +1,6 @@
 import ExcelJS from 'exceljs';
 import { AuditEvent, Enrolment, Organisation, Round, RoundTransition, Shipment, User } from '../../../db/entities';
+import { DAMAGED_PARCEL_CAUTIONS, SAFETY_BLOCK, SAFETY_CAUTIONS } from '../../../shared/contracts/safety';
 import { CODE_ALPHABET, freshParticipantCode, randomParticipantCode } from '../services/enrolment';
 import { assertPublishable, transitionRound } from '../services/round-lifecycle';
 import { client, createLab, createUser, linkToken, mailTo, signedIn, startTestApp, type Client, type TestApp } from '../testing/test-app';
@@ -109,6 +110,12 @@ describe('Round desk API', () => {
       expect(dup.body.error.code).toBe('measurand_key_taken');
       const patched = await coord.agent.patch(`/api/v1/rounds/${id}`).set('x-csrf-token', coord.csrf).send({ title: 'Renamed', feeMinor: 45000 }).expect(200);
       expect(patched.body).toMatchObject({ title: 'Renamed', feeMinor: 45000 });
+      // The basic cautions cannot be removed: text without them gets them back in front; own cautions stay.
+      const own = 'Measure at 25 °C.\n- Use a fume hood for the silica item.';
+      const stripped = await coord.agent.patch(`/api/v1/rounds/${id}`).set('x-csrf-token', coord.csrf).send({ instructions: own }).expect(200);
+      expect(stripped.body.instructions).toBe(`${SAFETY_BLOCK}\n\n${own}`);
+      const stored = await t.ds.getRepository(Round).findOneByOrFail({ id });
+      for (const c of SAFETY_CAUTIONS) expect(stored.instructions).toContain(c);
     });
 
     it('answers 404 for an unknown round', async () => {
@@ -273,6 +280,11 @@ describe('Round desk API', () => {
       expect((await moveTo(id, 'collecting').expect(422)).body.error.code).toBe('reason_required');
       // evaluation and publication belong to the Consensus board
       expect((await moveTo(id, 'evaluated').expect(409)).body.error.code).toBe('transition_owned_by_evaluation');
+      // "Reopen for results" tells every enrolled lab, with the reason
+      await moveTo(id, 'collecting', { reason: 'Lab P asked to correct a typing slip' }).expect(200);
+      const mails = await mailTo(t.ds, 'alice@a.test', 2);
+      const reopened = mails.find((m) => /accepts results again/.test(m.subject));
+      expect(reopened?.text).toContain('Lab P asked to correct a typing slip');
     });
 
     it('closes without force once results are due', async () => {
@@ -453,7 +465,8 @@ describe('Round desk API', () => {
       const mail = mails.find((m) => m.subject === 'Test items for round R-SHIP are on their way')!;
       expect(mail.to).toEqual(['bob@b.test']);
       expect(mail.text).toContain('SP-123');
-      expect(mail.text).toContain('eye protection and gloves');
+      // every caution from the one shared list, and what to do with a leaked or damaged parcel
+      for (const c of [...SAFETY_CAUTIONS, ...DAMAGED_PARCEL_CAUTIONS]) expect(mail.text).toContain(c);
     });
 
     it('shows the receipt the lab recorded; no re-dispatch after receipt', async () => {

@@ -32,12 +32,13 @@ import {
   TransitionRequest,
   Withdrawal,
 } from '../../../shared/contracts/rounds';
-import { ROUND_STATE_LABELS } from '../../../shared/contracts/round-states';
+import { EVALUATION_TARGETS, ROUND_STATE_LABELS } from '../../../shared/contracts/round-states';
 import { describeLimit, STUDY_FILE_LIMIT } from '../../../shared/contracts/upload-limits';
 import { conflict, describe, fieldIssues, HttpError, ruleBroken } from '../http/errors';
 import type { ApiRouter } from '../http/route';
 import { uploadedFile, uploadRule } from '../http/uploads';
 import type { AppContext } from '../services/context';
+import { labAddresses } from '../services/evaluation';
 import * as enrolment from '../services/enrolment';
 import * as homogeneity from '../services/homogeneity';
 import { homogeneityFromRows, readRows, stabilityFromRows } from '../services/homogeneity-file';
@@ -88,21 +89,37 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
     method: 'post', path: '/rounds/{id}/transitions', tag, summary: 'Move a round through its lifecycle',
     description:
       'Allowed moves come from ROUND_TRANSITIONS. 409 transition_not_allowed for a move the lifecycle does not have; ' +
-      '422 round_incomplete (enrolling needs an item and a measurand), no_participants, results_not_due (closing early needs force + reason), ' +
-      'reason_required. Evaluation and publication run from the Consensus board (409 transition_owned_by_evaluation).',
+      '422 round_incomplete (enrolling needs an item and a measurand), no_participants, results_not_due (closing before the due date needs `force: true`, shown as "Close early", and a reason), ' +
+      'reason_required. Evaluation, publication and reissue run from the evaluation page (409 transition_owned_by_evaluation). ' +
+      'Reopening for results (closed → collecting) e-mails every enrolled lab with the reason.',
     access: coordinator, params: IdParams, body: TransitionRequest, response: RoundDetail,
-    handler: async ({ params, body, user }) =>
-      ctx.ds.transaction(async (em) => {
+    handler: async ({ params, body, user }) => {
+      const out = await ctx.ds.transaction(async (em) => {
         const round = await lockRound(em, params.id);
-        if (!isCoordinatorTransition(round.state, body.to) && ['evaluated', 'published'].includes(body.to)) {
+        if (!isCoordinatorTransition(round.state, body.to) && EVALUATION_TARGETS.includes(body.to)) {
           throw conflict(
             'transition_owned_by_evaluation',
-            `${ROUND_STATE_LABELS[body.to]}: evaluation and publication are done from the Consensus board.`,
+            `${ROUND_STATE_LABELS[body.to]}: evaluation, publication and reissue are done from the evaluation page.`,
           );
         }
+        const reopening = round.state === 'closed' && body.to === 'collecting';
         await transitionRound(em, params.id, body.to, { id: user.id }, { reason: body.reason, force: body.force });
-        return rounds.getRoundDetail(em, params.id);
-      }),
+        const addresses = reopening ? await labAddresses(em, params.id) : [];
+        return { detail: await rounds.getRoundDetail(em, params.id), addresses };
+      });
+      // Reopen for results: every enrolled lab hears of it, with the reason (after the commit).
+      for (const a of out.addresses.filter((x) => x.to.length > 0)) {
+        await enrolment.sendSafely(ctx, {
+          to: a.to,
+          subject: `Round ${out.detail.code} accepts results again`,
+          text:
+            `Hello ${a.labName},\n\nRound ${out.detail.code} (${out.detail.title}) was reopened for results.\n` +
+            `Reason: ${body.reason ?? ''}\n\nYour participant code is ${a.code}. You can enter, change and submit replicates on your Lab bench again:\n\n` +
+            `${ctx.config.publicUrl}/bench\n\nRinglet`,
+        });
+      }
+      return out.detail;
+    },
   });
   api.add({
     method: 'post', path: '/rounds/{id}/items', tag, summary: 'Add test items (draft or enrolling)',
@@ -124,7 +141,7 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
   });
   api.add({
     method: 'delete', path: '/rounds/{id}/items/{itemId}', tag, summary: 'Remove one test item (draft or enrolling)',
-    description: designRules + '409 item_has_checks while homogeneity/stability checks are recorded for it; 422 round_incomplete for the last item of an enrolling round.',
+    description: designRules + '409 item_has_checks while homogeneity or stability studies are recorded for it; 422 round_incomplete for the last item of an enrolling round.',
     access: coordinator, params: ItemParams, status: 204,
     handler: ({ params, user }) => rounds.deleteItem(ctx, user, params.id, params.itemId),
   });
@@ -136,14 +153,14 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
   });
   api.add({
     method: 'delete', path: '/rounds/{id}/measurands/{measurandId}', tag, summary: 'Remove one measurand (draft or enrolling)',
-    description: designRules + '409 measurand_has_checks while homogeneity/stability checks are recorded for it; 422 round_incomplete for the last measurand of an enrolling round.',
+    description: designRules + '409 measurand_has_checks while homogeneity or stability studies are recorded for it; 422 round_incomplete for the last measurand of an enrolling round.',
     access: coordinator, params: MeasurandParams, status: 204,
     handler: ({ params, user }) => rounds.deleteMeasurand(ctx, user, params.id, params.measurandId),
   });
 
   // ---- invitations and enrolment ----
   api.add({
-    method: 'get', path: '/lab-directory', tag, summary: 'Participating labs the coordinator can invite',
+    method: 'get', path: '/lab-directory', tag, summary: 'Labs the coordinator can invite',
     access: coordinator, response: z.array(Organisation),
     handler: async () => (await listOrganisations(ctx)).filter((o) => o.kind === 'lab'),
   });
@@ -193,7 +210,7 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
 
   // ---- homogeneity and stability ----
   api.add({
-    method: 'get', path: '/rounds/{id}/homogeneity', tag, summary: 'Homogeneity and stability checks of a round',
+    method: 'get', path: '/rounds/{id}/homogeneity', tag, summary: 'Homogeneity and stability studies of a round',
     access: coordinator, params: IdParams, response: z.array(Study),
     handler: ({ params }) => homogeneity.listStudies(ctx.ds.manager, params.id),
   });
@@ -229,7 +246,7 @@ export function roundRoutes(api: ApiRouter, ctx: AppContext): void {
     },
   });
   api.add({
-    method: 'post', path: '/rounds/{id}/homogeneity/{studyId}/decision', tag, summary: 'Record the decision on a failing homogeneity or stability check',
+    method: 'post', path: '/rounds/{id}/homogeneity/{studyId}/decision', tag, summary: 'Record the decision on a failing homogeneity or stability study',
     access: coordinator, params: StudyParams, body: StudyDecision, response: Study,
     handler: ({ params, body, user }) => homogeneity.decideStudy(ctx, user, params.id, params.studyId, body),
   });

@@ -4,6 +4,7 @@ import type { AttachmentDto, Reanalysis } from '../../../shared/contracts/bench'
 import { readStoredSubmission } from '../../../shared/contracts/submission';
 import { ATTACHMENT_LIMIT, formatBytes, formatCount } from '../../../shared/contracts/upload-limits';
 import { cumulantsFit, parseCorrelationCsv, waterRefractiveIndex, waterViscosity, type CorrelationData } from '../../../shared/dls';
+import { REANALYSIS_DEFAULTS } from '../../../shared/contracts/bench';
 import { mean } from '../../../shared/stats/descriptive';
 import type { SessionUser } from '../auth/session-user';
 import { badRequest, conflict, HttpError, notFound } from '../http/errors';
@@ -88,16 +89,22 @@ export function reanalyse(
   lab: { zAverageNm: number | null; pdi: number | null },
 ): Reanalysis {
   const temperatureC = conditions.temperatureC ?? protocolTemperatureC;
-  const wavelengthNm = conditions.laserWavelengthNm ?? 633;
+  const wavelengthNm = conditions.laserWavelengthNm ?? REANALYSIS_DEFAULTS.wavelengthNm;
+  const assumed: Reanalysis['assumed'] = [];
+  if (conditions.temperatureC === null) assumed.push('temperatureC');
+  if (conditions.viscosityMPas === null) assumed.push('viscosityMPas');
+  if (conditions.refractiveIndex === null) assumed.push('refractiveIndex');
+  if (conditions.laserWavelengthNm === null) assumed.push('wavelengthNm');
+  if (conditions.scatteringAngleDeg === null) assumed.push('angleDeg');
   const waterOk = temperatureC >= 0 && temperatureC <= 40;
   const parameters = {
     temperatureC,
     viscosityMPas: conditions.viscosityMPas ?? (waterOk ? waterViscosity(temperatureC) * 1000 : 0.89),
     refractiveIndex: conditions.refractiveIndex ?? (waterOk && wavelengthNm <= 1100 ? waterRefractiveIndex(temperatureC, wavelengthNm) : 1.332),
     wavelengthNm,
-    angleDeg: conditions.scatteringAngleDeg ?? 173,
+    angleDeg: conditions.scatteringAngleDeg ?? REANALYSIS_DEFAULTS.angleDeg,
   };
-  const base = { labZAverageNm: lab.zAverageNm, labPdi: lab.pdi, parameters };
+  const base = { labZAverageNm: lab.zAverageNm, labPdi: lab.pdi, parameters, assumed };
   try {
     if (typeof source === 'object' && 'lines' in source) {
       throw new Error(
@@ -161,6 +168,8 @@ export async function uploadAttachment(
   roundId: string,
   file: { buffer: Buffer; originalname: string } | undefined,
   testItemId: string | undefined,
+  /** This file's wavelength and angle for the re-analysis (they win over the item's conditions). */
+  optics: { laserWavelengthNm?: number; scatteringAngleDeg?: number } = {},
 ): Promise<AttachmentDto> {
   if (!file) throw badRequest('file: attach a file (multipart field "file").', [{ path: 'file', message: 'Attach a file.' }]);
   if (file.buffer.length > ATTACHMENT_LIMIT.maxBytes) throw new HttpError(413, 'file_too_large', `file: the limit is ${formatBytes(ATTACHMENT_LIMIT.maxBytes)} per file.`);
@@ -188,9 +197,14 @@ export async function uploadAttachment(
         const xs = item?.results.find((r) => r.measurandId === m?.id)?.replicates.filter((v): v is number => v !== null) ?? [];
         return xs.length ? mean(xs) : null;
       };
+      const stated = item?.conditions ?? { temperatureC: null, viscosityMPas: null, refractiveIndex: null, laserWavelengthNm: null, scatteringAngleDeg: null };
       reanalysis = reanalyse(
         type.correlation ?? bytes.toString('utf8'),
-        item?.conditions ?? { temperatureC: null, viscosityMPas: null, refractiveIndex: null, laserWavelengthNm: null, scatteringAngleDeg: null },
+        {
+          ...stated,
+          laserWavelengthNm: optics.laserWavelengthNm ?? stated.laserWavelengthNm,
+          scatteringAngleDeg: optics.scatteringAngleDeg ?? stated.scatteringAngleDeg,
+        },
         round.protocolTemperatureC,
         { zAverageNm: meanOf('z_average'), pdi: meanOf('pdi') },
       );

@@ -118,13 +118,23 @@ export async function listBoards(ctx: AppContext, user: SessionUser): Promise<Bo
     params.push(labs);
     where = `e.state = 'published' AND EXISTS (SELECT 1 FROM enrolment en WHERE en.round_id = r.id AND en.organisation_id = ANY($1))`;
   }
-  const rows: { id: string; code: string; title: string; state: string; ev_state: BoardListEntry['evaluationState']; version: number | null; published_at: Date | null }[] =
+  const rows: {
+    id: string; code: string; title: string; state: string; ev_state: BoardListEntry['evaluationState']; version: number | null; published_at: Date | null;
+    acceptable: number | null; warning: number | null; action: number | null;
+  }[] =
     await ctx.ds.query(
-      `SELECT r.id, r.code, r.title, r.state, e.state AS ev_state, e.version, e.published_at
+      `SELECT r.id, r.code, r.title, r.state, e.state AS ev_state, e.version, e.published_at,
+              c.acceptable::int AS acceptable, c.warning::int AS warning, c.action::int AS action
          FROM round r
          LEFT JOIN LATERAL (
            SELECT * FROM evaluation x WHERE x.round_id = r.id ${viewer === 'coordinator' ? '' : `AND x.state = 'published'`}
            ORDER BY x.version DESC LIMIT 1) e ON true
+         LEFT JOIN LATERAL (
+           SELECT count(*) FILTER (WHERE p->>'signal' = 'acceptable') AS acceptable,
+                  count(*) FILTER (WHERE p->>'signal' = 'warning') AS warning,
+                  count(*) FILTER (WHERE p->>'signal' = 'action') AS action
+             FROM evaluation_result er CROSS JOIN LATERAL jsonb_array_elements(er.participants) p
+            WHERE er.evaluation_id = e.id) c ON true
         WHERE ${where}
         ORDER BY r.created_at DESC LIMIT 500`,
       params,
@@ -137,5 +147,8 @@ export async function listBoards(ctx: AppContext, user: SessionUser): Promise<Bo
     evaluationState: r.ev_state ?? null,
     version: r.version ?? null,
     publishedAt: r.published_at?.toISOString() ?? null,
+    acceptable: r.acceptable ?? 0,
+    warning: r.warning ?? 0,
+    action: r.action ?? 0,
   }));
 }

@@ -321,7 +321,7 @@ export async function commitEvaluation(ctx: AppContext, actor: SessionUser, roun
   return ctx.ds.transaction(async (em) => {
     await lockRound(em, roundId);
     const draft = await latestEvaluation(em, roundId, 'draft');
-    if (!draft) throw conflict('no_draft', 'There is no draft evaluation to commit; evaluate the round first.');
+    if (!draft) throw conflict('no_draft', 'There is no draft evaluation to approve; evaluate the round first.');
     await transitionRound(em, roundId, 'evaluated', { id: actor.id });
     await em.update(Evaluation, { id: draft.id }, { state: 'committed', committedAt: new Date() });
     await audit(em, actor.id, 'evaluation.committed', 'round', roundId, { evaluationId: draft.id, version: draft.version });
@@ -330,7 +330,7 @@ export async function commitEvaluation(ctx: AppContext, actor: SessionUser, roun
 }
 
 /** E-mail addresses of an enrolled lab: its contact and its members. */
-async function labAddresses(em: EntityManager, roundId: string): Promise<{ labName: string; code: string; to: string[] }[]> {
+export async function labAddresses(em: EntityManager, roundId: string): Promise<{ labName: string; code: string; to: string[] }[]> {
   const enrolments = await em.find(Enrolment, { where: { roundId, state: 'enrolled' } });
   if (enrolments.length === 0) return [];
   const orgIds = enrolments.map((e) => e.organisationId);
@@ -367,7 +367,7 @@ export async function publishEvaluation(
       throw conflict('round_not_evaluated', `Only an evaluated (or reissued) round is published; this one is ${ROUND_STATE_LABELS[round.state]}.`);
     }
     const e = await latestEvaluation(em, roundId);
-    if (!e || e.state !== 'committed') throw conflict('no_committed_evaluation', 'Commit an evaluation before publishing.');
+    if (!e || e.state !== 'committed') throw conflict('no_committed_evaluation', 'Approve an evaluation for publication before publishing.');
     await transitionRound(em, roundId, 'published', { id: actor.id });
     await em.update(Evaluation, { id: e.id }, { state: 'published', publishedAt: new Date() });
     const { results } = await loadResults(em, e.id);
@@ -410,10 +410,13 @@ export async function reissueEvaluation(
 ): Promise<EvaluationView> {
   return ctx.ds.transaction(async (em) => {
     const round = await lockRound(em, roundId);
-    if (round.state !== 'published') throw conflict('round_not_published', 'Only a published round is reissued.');
+    // A round left in Reissued without an approved new version (an older desk move could do
+    // that) is corrected the same way, so it always leads back to Published.
+    const stranded = round.state === 'reissued' && (await latestEvaluation(em, roundId))?.state !== 'committed';
+    if (round.state !== 'published' && !stranded) throw conflict('round_not_published', 'Only a published round is reissued.');
     const prev = await latestEvaluation(em, roundId, 'published');
     const settings = EvaluationSettings.parse({ ...(prev?.settings ?? {}), ...(input ?? {}) });
-    await transitionRound(em, roundId, 'reissued', { id: actor.id }, { reason });
+    if (round.state === 'published') await transitionRound(em, roundId, 'reissued', { id: actor.id }, { reason });
     await em.delete(Evaluation, { roundId, state: 'draft' });
     const loaded = await loadRoundInput(em, roundId);
     const e = await storeEvaluation(em, actor, loaded, settings, 'committed', reason);

@@ -10,6 +10,7 @@ import { notFound } from '../http/errors';
 import { loadResults } from './evaluation';
 import { reportProvider } from './provider';
 import { labTrackRecord } from './track-record';
+import { withSafetyBlock } from '../../../shared/contracts/safety';
 
 export interface EvaluationHead {
   id: string;
@@ -84,7 +85,7 @@ export async function roundReportInput(em: EntityManager, head: EvaluationHead):
       schemeCode: r.scheme_code,
       schemeName: r.scheme_name,
       schemeDescription: r.scheme_description,
-      instructions: r.instructions,
+      instructions: withSafetyBlock(r.instructions),
       protocolTemperatureC: r.protocol_temperature_c,
       resultsDueAt: r.results_due_at?.toISOString() ?? null,
       dispatchedAt: r.dispatched_at?.toISOString() ?? r.dispatch_on ?? null,

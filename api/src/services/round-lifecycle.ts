@@ -1,6 +1,6 @@
 import type { EntityManager } from 'typeorm';
 import { Enrolment, HomogeneityStudy, Measurand, Round, RoundTransition, TestItem } from '../../../db/entities';
-import { canMove, ROUND_STATE_LABELS, type RoundState } from '../../../shared/contracts/round-states';
+import { canMove, isDeskMove, ROUND_STATE_LABELS, type RoundState } from '../../../shared/contracts/round-states';
 import { conflict, notFound, ruleBroken } from '../http/errors';
 import { audit } from './audit';
 
@@ -24,14 +24,12 @@ export type PublicationGuard = (em: EntityManager, round: Round) => Promise<void
 export const publicationGuards: PublicationGuard[] = [];
 
 /**
- * Transitions the coordinator may request on the Round desk. `closed → evaluated` and
- * `evaluated → published` (and `reissued → published`) are driven by the evaluation on the
- * Consensus board, which calls `transitionRound` itself.
+ * Transitions the coordinator may request on the Round desk. `closed → evaluated`,
+ * `evaluated → published`, `published → reissued` and `reissued → published` are driven by the
+ * evaluation page, which calls `transitionRound` itself (a reissue stores a new evaluation version).
  */
 export function isCoordinatorTransition(from: RoundState, to: RoundState): boolean {
-  if (to === 'evaluated') return false;
-  if (to === 'published') return false;
-  return canMove(from, to);
+  return isDeskMove(from, to);
 }
 
 /** Moves back (reopening) and reissues need a reason in the record. */
@@ -70,7 +68,7 @@ export async function assertPublishable(em: EntityManager, roundId: string): Pro
   if (await hasOpenHomogeneityFailure(em, roundId)) {
     throw ruleBroken(
       'homogeneity_decision_missing',
-      'A homogeneity or stability check failed and has no recorded decision; record one on the Round desk before publishing.',
+      'A homogeneity or stability study failed and has no recorded decision; record one on the Round desk before publishing.',
     );
   }
   for (const guard of publicationGuards) await guard(em, round);
@@ -99,9 +97,9 @@ export async function transitionRound(
       `A round cannot move from ${ROUND_STATE_LABELS[from]} to ${ROUND_STATE_LABELS[to]}.`,
     );
   }
-  if (force && !reason) throw ruleBroken('reason_required', 'reason: give a reason when forcing a transition.');
+  if (force && !reason) throw ruleBroken('reason_required', 'Give a reason for closing early.');
   if (needsReason(from, to) && !reason) {
-    throw ruleBroken('reason_required', `reason: moving from ${ROUND_STATE_LABELS[from]} to ${ROUND_STATE_LABELS[to]} needs a reason.`);
+    throw ruleBroken('reason_required', `Give a reason for moving from ${ROUND_STATE_LABELS[from]} back to ${ROUND_STATE_LABELS[to]}.`);
   }
 
   if (from === 'draft' && to === 'enrolling') {
@@ -129,8 +127,8 @@ export async function transitionRound(
       throw ruleBroken(
         'results_not_due',
         due
-          ? `Results are due ${due.toISOString()}; closing earlier needs force and a reason.`
-          : 'The round has no results-due date; closing needs force and a reason.',
+          ? `Results are due ${due.toISOString().slice(0, 16).replace('T', ' ')} UTC; closing earlier needs "Close early" and a reason.`
+          : 'The round has no results-due date; closing needs "Close early" and a reason.',
         { resultsDueAt: due?.toISOString() ?? null },
       );
     }

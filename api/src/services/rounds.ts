@@ -18,6 +18,7 @@ import {
   TestItemUpdate,
 } from '../../../shared/contracts/rounds';
 import type { RoundState } from '../../../shared/contracts/round-states';
+import { withSafetyBlock } from '../../../shared/contracts/safety';
 import type * as z from 'zod';
 import type { SessionUser } from '../auth/session-user';
 import { conflict, notFound, ruleBroken } from '../http/errors';
@@ -150,7 +151,7 @@ export async function getRoundDetail(em: EntityManager, id: string): Promise<Rou
   const names = new Map(actors.map((u) => [u.id, u.name]));
   return {
     ...summaryDto(row),
-    instructions: round.instructions,
+    instructions: withSafetyBlock(round.instructions),
     protocolTemperatureC: round.protocolTemperatureC,
     items: items.map(itemDto),
     measurands: measurands.map(measurandDto),
@@ -206,7 +207,12 @@ export async function createRound(ctx: AppContext, actor: SessionUser, input: Ou
     const { items, useSchemeMeasurands, resultsDueAt, ...fields } = input;
     const round = await em.save(
       Round,
-      em.create(Round, { ...fields, resultsDueAt: resultsDueAt ? new Date(resultsDueAt) : null, state: 'draft' }),
+      em.create(Round, {
+        ...fields,
+        instructions: withSafetyBlock(fields.instructions),
+        resultsDueAt: resultsDueAt ? new Date(resultsDueAt) : null,
+        state: 'draft',
+      }),
     );
     await insertItems(em, round.id, items);
     if (useSchemeMeasurands) {
@@ -242,6 +248,8 @@ export async function updateRound(ctx: AppContext, actor: SessionUser, id: strin
     const { resultsDueAt, ...rest } = patch;
     await em.update(Round, { id }, {
       ...rest,
+      // the basic cautions cannot be removed: the coordinator's text follows them
+      ...(rest.instructions !== undefined ? { instructions: withSafetyBlock(rest.instructions) } : {}),
       ...(resultsDueAt !== undefined ? { resultsDueAt: resultsDueAt ? new Date(resultsDueAt) : null } : {}),
     });
     await audit(em, actor.id, 'round.updated', 'round', id, { ...patch });
@@ -307,7 +315,7 @@ export async function deleteItem(ctx: AppContext, actor: SessionUser, roundId: s
     const item = await em.findOne(TestItem, { where: { id: itemId, roundId } });
     if (!item) throw notFound('The test item');
     if (await em.count(HomogeneityStudy, { where: { testItemId: itemId } })) {
-      throw conflict('item_has_checks', `Item ${item.code} has homogeneity or stability checks recorded; it cannot be removed.`);
+      throw conflict('item_has_checks', `Item ${item.code} has homogeneity or stability studies recorded; it cannot be removed.`);
     }
     if (round.state === 'enrolling' && (await em.count(TestItem, { where: { roundId } })) === 1) {
       throw ruleBroken('round_incomplete', 'An enrolling round keeps at least one test item.');
@@ -344,7 +352,7 @@ export async function deleteMeasurand(ctx: AppContext, actor: SessionUser, round
     const m = await em.findOne(Measurand, { where: { id: measurandId, roundId } });
     if (!m) throw notFound('The measurand');
     if (await em.count(HomogeneityStudy, { where: { measurandId } })) {
-      throw conflict('measurand_has_checks', `${m.name} has homogeneity or stability checks recorded; it cannot be removed.`);
+      throw conflict('measurand_has_checks', `${m.name} has homogeneity or stability studies recorded; it cannot be removed.`);
     }
     if (round.state === 'enrolling' && (await em.count(Measurand, { where: { roundId } })) === 1) {
       throw ruleBroken('round_incomplete', 'An enrolling round keeps at least one measurand.');

@@ -1,5 +1,6 @@
 import { Round, Shipment } from '../../../db/entities';
 import type { DispatchInput, Enrolment as EnrolmentDto } from '../../../shared/contracts/rounds';
+import { cautionLines, DAMAGED_PARCEL_CAUTIONS, SAFETY_CAUTIONS } from '../../../shared/contracts/safety';
 import type { SessionUser } from '../auth/session-user';
 import { conflict } from '../http/errors';
 import { audit } from './audit';
@@ -47,8 +48,8 @@ export async function recordDispatch(
         `Hello,\n\nThe test items for proficiency-testing round ${round.code} (${round.title}) were dispatched on ` +
         `${input.dispatchedOn} with ${input.courier}, tracking number ${input.trackingNumber}.\n\n` +
         `When they arrive, confirm receipt and their condition on your Lab bench: ${ctx.config.publicUrl}/bench\n\n` +
-        `Handle the items with eye protection and gloves, never defeat an instrument's laser interlock, follow the ` +
-        `safety data sheet, and follow your local regulations and your lab's safety officer.\n\nRinglet`,
+        `Safety:\n${cautionLines(SAFETY_CAUTIONS)}\n\n` +
+        `If the parcel arrives leaking or damaged:\n${cautionLines(DAMAGED_PARCEL_CAUTIONS)}\n\nRinglet`,
     });
   }
   return dto;

@@ -56,15 +56,15 @@ export async function buildTemplate(ctx: AppContext, labId: string, roundId: str
   [
     `Round ${round.code}: ${round.title}. Participant code ${enrolment.participantCode}.`,
     `Protocol temperature ${round.protocolTemperatureC} °C. Results lock at ${(round.resultsDueAt ?? enrolment.extensionUntil)?.toISOString() ?? 'the round close'}.`,
-    'Fill the "Results" sheet (one row per test item and measurand, one column per run) and the "Conditions" sheet, then upload this file on the Lab bench.',
-    'Do not change the item codes, measurand keys or sheet names. Uncertainty type: standard or expanded (give k for expanded).',
+    'Fill the "Results" sheet (one row per test item and measurand, one column per replicate) and the "Conditions" sheet, then upload this file on the Lab bench.',
+    'Do not change the item codes, measurand file codes or sheet names. Uncertainty type: standard or expanded (give k for expanded).',
     '',
     'Safety:',
     ...SAFETY_CAUTIONS,
   ].forEach((line) => readme.addRow([line]));
 
   const results = wb.addWorksheet('Results');
-  const header = ['Item', 'Measurand key', 'Measurand', 'Unit', ...Array.from({ length: runs }, (_, i) => `Run ${i + 1}`), 'Uncertainty type', 'Uncertainty', 'k'];
+  const header = ['Item', 'Measurand file code', 'Measurand', 'Unit', ...Array.from({ length: runs }, (_, i) => `Replicate ${i + 1}`), 'Uncertainty type', 'Uncertainty', 'k'];
   results.addRow(header).font = { bold: true };
   for (const item of rules.items) {
     const di = draft.items.find((i) => i.testItemId === item.id);
@@ -163,7 +163,8 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
     }
     return v;
   };
-  const runCols = headers.map((h, i) => (/^Run \d+$/.test(h ?? '') ? i : -1)).filter((i) => i > 0);
+  const runCols = headers.map((h, i) => (/^(Replicate|Run) \d+$/.test(h ?? '') ? i : -1)).filter((i) => i > 0);
+  // workbooks downloaded before the glossary say "Run n" instead of "Replicate n"; both are read
   const col = (name: string) => headers.indexOf(name);
   const items = rules.items.map((i) => ({ testItemId: i.id, results: [] as ItemResults['results'], conditions: MeasurementConditions.parse({}), methodNotes: '' }));
 

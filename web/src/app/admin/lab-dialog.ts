@@ -30,7 +30,7 @@ import { AdminService } from './admin.service';
         <mat-form-field>
           <mat-label>Kind</mat-label>
           <mat-select formControlName="kind">
-            <mat-option value="lab">Participating lab</mat-option>
+            <mat-option value="lab">Lab</mat-option>
             <mat-option value="provider">PT provider</mat-option>
           </mat-select>
         </mat-form-field>

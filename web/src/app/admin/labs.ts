@@ -17,7 +17,7 @@ import { LabDialog } from './lab-dialog';
   imports: [AgGridAngular, MatButtonModule, MatIconModule],
   template: `
     <section class="page">
-      <h1 data-testid="page-heading">Labs</h1>
+      <h1 data-testid="page-heading">Organisations</h1>
       <div class="page-actions">
         <button mat-flat-button type="button" data-testid="new-lab" (click)="create()">
           <mat-icon>add</mat-icon> New lab
@@ -31,7 +31,7 @@ import { LabDialog } from './lab-dialog';
         [columnDefs]="columns"
         [getRowId]="rowId"
         [loading]="loading()"
-        aria-label="Labs"
+        aria-label="Organisations"
       />
     </section>
   `,

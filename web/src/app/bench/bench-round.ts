@@ -12,26 +12,48 @@ import { checkResults, instrumentCheckNotice, type CheckOutcome } from '@ringlet
 import { DEFAULT_CHECK, judgeInstrumentCheck } from '@ringlet/shared/bench/instrument-check';
 import {
   type AttachmentDto,
+  DAMAGED_CONDITIONS,
   type InstrumentCheck,
   InstrumentCheckInput,
   type MyRoundDetail,
+  REANALYSIS_DEFAULTS,
+  type Reanalysis,
   ReceiptInput,
+  SHIPMENT_CONDITION_LABELS,
   type ShipmentCondition,
   type SubmissionVersionDto,
 } from '@ringlet/shared/contracts/bench';
 import type { SubmissionData } from '@ringlet/shared/contracts/submission';
-import { problemMessage, problemOf } from '../core/problem';
+import { DAMAGED_PARCEL_CAUTIONS, mentionsSharps, SHARPS_CAUTIONS } from '@ringlet/shared/contracts/safety';
+import { FileDrop } from '../core/file-drop';
+import { fieldLabel, problemMessage, problemOf } from '../core/problem';
 import { DraftAutosave, SAVE_STATE_LABELS } from './autosave';
 import { BenchService } from './bench.service';
 import { CONDITION_FIELDS, buildResultsForm, resultsFromForm, type ResultsForm } from './results-form';
 import { STATUS_LABELS } from './lab-bench';
 
-const CONDITIONS: { value: ShipmentCondition; label: string }[] = [
-  { value: 'intact', label: 'Intact' },
-  { value: 'damaged', label: 'Damaged' },
-  { value: 'leaked', label: 'Leaked' },
-  { value: 'arrived-warm', label: 'Arrived warm' },
-];
+const CONDITIONS = (Object.entries(SHIPMENT_CONDITION_LABELS) as [ShipmentCondition, string][]).map(([value, label]) => ({ value, label }));
+
+const UNCERTAINTY_KINDS = [
+  { value: 'none', label: 'None given' },
+  { value: 'standard', label: 'Standard u' },
+  { value: 'expanded', label: 'Expanded U' },
+] as const;
+
+const ATTACHMENT_KIND_LABELS: Record<AttachmentDto['kind'], string> = {
+  'correlation-csv': 'Correlation function (CSV)',
+  text: 'Text',
+  pdf: 'PDF',
+  xlsx: 'Workbook (XLSX)',
+};
+
+const PARAMETER_LABELS: Record<Reanalysis['assumed'][number], string> = {
+  temperatureC: 'temperature',
+  viscosityMPas: 'viscosity',
+  refractiveIndex: 'refractive index',
+  wavelengthNm: 'wavelength',
+  angleDeg: 'angle',
+};
 
 const run = () =>
   new FormGroup({
@@ -45,7 +67,7 @@ const run = () =>
 @Component({
   selector: 'app-bench-round',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, DecimalPipe, RouterLink, ReactiveFormsModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatInputModule, MatSelectModule],
+  imports: [DatePipe, DecimalPipe, RouterLink, ReactiveFormsModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatInputModule, MatSelectModule, FileDrop],
   templateUrl: './bench-round.html',
   styleUrl: './bench-round.scss',
 })
@@ -58,6 +80,22 @@ export class BenchRound implements OnInit {
   protected readonly loadError = signal<string | null>(null);
   protected readonly statusLabels = STATUS_LABELS;
   protected readonly conditions = CONDITIONS;
+  protected readonly uncertaintyKinds = UNCERTAINTY_KINDS;
+  protected readonly kindLabels = ATTACHMENT_KIND_LABELS;
+  protected readonly defaults = REANALYSIS_DEFAULTS;
+  protected readonly sharpsCautions = SHARPS_CAUTIONS;
+  protected readonly damagedCautions = DAMAGED_PARCEL_CAUTIONS;
+  protected readonly conditionLabel = (c: ShipmentCondition | null | undefined) => (c ? SHIPMENT_CONDITION_LABELS[c] : '');
+  /**
+   * The sharps cautions join the list when the instructions or an item's notes mention syringes,
+   * needles or filters, or when the lab states a filter pore size (filtering means a syringe filter).
+   */
+  protected readonly usesSharps = computed(() => {
+    const r = this.round();
+    if (!r) return false;
+    const filtered = (this.data()?.items ?? []).some((i) => i.conditions.filterPoreUm !== null && i.conditions.filterPoreUm !== undefined);
+    return filtered || mentionsSharps([r.instructions, ...r.items.map((i) => `${i.handlingNotes ?? ''} ${i.storageNotes ?? ''}`)].join(' '));
+  });
   protected readonly conditionFields = CONDITION_FIELDS;
   protected readonly saveLabels = SAVE_STATE_LABELS;
 
@@ -69,6 +107,12 @@ export class BenchRound implements OnInit {
   });
   private receiptPhoto: File | null = null;
   protected readonly receiptMessage = signal<string | null>(null);
+  private readonly chosenCondition = signal<ShipmentCondition>('intact');
+  /** The damaged-parcel cautions show while the form or the record says damaged or leaked. */
+  protected readonly parcelDamaged = computed(() => {
+    const stored = this.round()?.receipt?.condition ?? null;
+    return DAMAGED_CONDITIONS.includes(this.chosenCondition()) || (!!stored && DAMAGED_CONDITIONS.includes(stored));
+  });
 
   // Instrument check
   protected readonly checkForm = new FormGroup({
@@ -123,10 +167,26 @@ export class BenchRound implements OnInit {
   protected readonly attachments = signal<AttachmentDto[]>([]);
   protected readonly fileMessage = signal<string | null>(null);
   protected readonly fileItem = new FormControl<string | null>(null);
+  protected readonly fileWavelength = new FormControl<number | null>(null);
+  protected readonly fileAngle = new FormControl<number | null>(null);
+  protected readonly uploadProgress = signal<number | null>(null);
+  private readonly fileItemId = signal<string | null>(null);
+  /** What the re-analysis will use when the file's fields stay empty: the item's conditions, else the defaults. */
+  protected readonly opticsPlaceholder = computed(() => {
+    const d = this.data();
+    const id = this.fileItemId() ?? this.round()?.items[0]?.id;
+    const c = d?.items.find((i) => i.testItemId === id)?.conditions;
+    return {
+      wavelength: String(c?.laserWavelengthNm ?? REANALYSIS_DEFAULTS.wavelengthNm),
+      angle: String(c?.scatteringAngleDeg ?? REANALYSIS_DEFAULTS.angleDeg),
+    };
+  });
   protected readonly workbookMessage = signal<string[]>([]);
 
   ngOnInit(): void {
     this.checkForm.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe(() => this.checkValue.set(this.checkForm.getRawValue()));
+    this.receiptForm.controls.condition.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe((c) => this.chosenCondition.set(c));
+    this.fileItem.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe((id) => this.fileItemId.set(id));
     const online = () => this.autosave?.retry();
     window.addEventListener('online', online);
     this.destroyRef.onDestroy(() => {
@@ -217,8 +277,8 @@ export class BenchRound implements OnInit {
   }
 
   // ---------------------------------------------------------------- receipt
-  protected photoPicked(ev: Event): void {
-    this.receiptPhoto = (ev.target as HTMLInputElement).files?.[0] ?? null;
+  protected photoPicked(file: File): void {
+    this.receiptPhoto = file;
   }
   protected saveReceipt(): void {
     const parsed = ReceiptInput.safeParse(this.receiptForm.getRawValue());
@@ -243,7 +303,7 @@ export class BenchRound implements OnInit {
     const parsed = InstrumentCheckInput.safeParse(this.checkForm.getRawValue());
     if (!parsed.success) {
       const i = parsed.error.issues[0]!;
-      return this.checkMessage.set(`${i.path.join('.')}: ${i.message}`);
+      return this.checkMessage.set(`${fieldLabel(i.path.map(String).join('.'))}: ${i.message}`);
     }
     this.bench.recordCheck(parsed.data).subscribe({
       next: (c) => {
@@ -286,23 +346,50 @@ export class BenchRound implements OnInit {
   }
 
   // ---------------------------------------------------------------- files
-  protected filePicked(ev: Event): void {
-    const input = ev.target as HTMLInputElement;
-    const file = input.files?.[0];
-    if (!file) return;
+  protected filePicked(file: File): void {
     if (file.size > 20 * 1024 * 1024) {
       this.fileMessage.set(`${file.name} is larger than 20 MB.`);
       return;
     }
+    const wavelength = this.fileWavelength.value;
+    const angle = this.fileAngle.value;
+    if (wavelength !== null && !(wavelength >= 200 && wavelength <= 2000)) {
+      this.fileMessage.set('Laser wavelength: give a value from 200 to 2000 nm, or leave it empty.');
+      return;
+    }
+    if (angle !== null && !(angle > 0 && angle < 180)) {
+      this.fileMessage.set('Scattering angle: give a value above 0° and below 180°, or leave it empty.');
+      return;
+    }
     this.fileMessage.set(`Uploading ${file.name}…`);
-    this.bench.upload(this.id(), file, this.fileItem.value).subscribe({
-      next: (a) => {
-        this.attachments.update((list) => [...list, a]);
-        this.fileMessage.set(`${a.fileName} stored (SHA-256 ${a.sha256.slice(0, 12)}…).`);
-        input.value = '';
-      },
-      error: (e) => this.fileMessage.set(problemMessage(e)),
-    });
+    this.uploadProgress.set(0);
+    this.bench
+      .upload(this.id(), file, this.fileItem.value, { laserWavelengthNm: wavelength, scatteringAngleDeg: angle }, (p) => this.uploadProgress.set(p))
+      .subscribe({
+        next: (a) => {
+          this.uploadProgress.set(null);
+          this.attachments.update((list) => [...list, a]);
+          this.fileMessage.set(`${a.fileName} stored (SHA-256 ${a.sha256.slice(0, 12)}…).`);
+        },
+        error: (e) => {
+          this.uploadProgress.set(null);
+          this.fileMessage.set(problemMessage(e));
+        },
+      });
+  }
+  /** The physics a re-analysis used, naming the values Ringlet assumed. */
+  protected parametersText(ra: Reanalysis): string {
+    const p = ra.parameters;
+    const mark = (k: Reanalysis['assumed'][number]) => (ra.assumed.includes(k) ? ' (assumed)' : '');
+    const parts = [
+      `${p.wavelengthNm} nm${mark('wavelengthNm')}`,
+      `${p.angleDeg}°${mark('angleDeg')}`,
+      `${p.temperatureC} °C${mark('temperatureC')}`,
+      `viscosity ${p.viscosityMPas.toFixed(4)} mPa·s${mark('viscosityMPas')}`,
+      `refractive index ${p.refractiveIndex.toFixed(4)}${mark('refractiveIndex')}`,
+    ];
+    const assumed = ra.assumed.map((k) => PARAMETER_LABELS[k]);
+    return `Used: ${parts.join(', ')}.` + (assumed.length ? ` Assumed because not given: ${assumed.join(', ')}.` : '');
   }
   protected fileUrl(a: AttachmentDto): string {
     return this.bench.attachmentUrl(this.id(), a.id);
@@ -313,14 +400,10 @@ export class BenchRound implements OnInit {
   protected itemCode(id: string | null): string {
     return this.round()?.items.find((i) => i.id === id)?.code ?? '—';
   }
-  protected workbookPicked(ev: Event): void {
-    const input = ev.target as HTMLInputElement;
-    const file = input.files?.[0];
-    if (!file) return;
+  protected workbookPicked(file: File): void {
     this.bench.uploadWorkbook(this.id(), file).subscribe({
       next: (res) => {
         this.workbookMessage.set([`Workbook read into the draft (revision ${res.draftRevision}).`, ...res.warnings.map((w) => w.message)]);
-        input.value = '';
         this.reloadDraft();
       },
       error: (e) => {

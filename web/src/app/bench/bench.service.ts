@@ -1,6 +1,6 @@
-import { HttpClient, HttpContext, HttpParams } from '@angular/common/http';
-import { Injectable, computed, inject } from '@angular/core';
-import { Observable, map } from 'rxjs';
+import { HttpClient, HttpContext, HttpEventType, HttpParams, type HttpResponse } from '@angular/common/http';
+import { Injectable, computed, inject, signal } from '@angular/core';
+import { Observable, filter, map, tap } from 'rxjs';
 import * as z from 'zod';
 import {
   AttachmentDto,
@@ -91,13 +91,36 @@ export class BenchService {
       .pipe(map((b) => z.array(AttachmentDto).parse(b)));
   }
 
-  upload(id: string, file: File, testItemId: string | null): Observable<AttachmentDto> {
+  /**
+   * Uploads a raw-data file; `optics` are this file's laser wavelength and scattering angle for the
+   * re-analysis (empty: the item's conditions, else the stated defaults). `progress` hears 0–100.
+   */
+  upload(
+    id: string,
+    file: File,
+    testItemId: string | null,
+    optics: { laserWavelengthNm?: number | null; scatteringAngleDeg?: number | null } = {},
+    progress?: (percent: number) => void,
+  ): Observable<AttachmentDto> {
     const form = new FormData();
     form.set('file', file);
     if (testItemId) form.set('testItemId', testItemId);
+    if (optics.laserWavelengthNm != null) form.set('laserWavelengthNm', String(optics.laserWavelengthNm));
+    if (optics.scatteringAngleDeg != null) form.set('scatteringAngleDeg', String(optics.scatteringAngleDeg));
     return this.http
-      .post<unknown>(`${API}/rounds/${id}/submission/attachments`, form, { params: this.params(), ...handled(400, 409, 413, 415) })
-      .pipe(map((b) => AttachmentDto.parse(b)));
+      .post<unknown>(`${API}/rounds/${id}/submission/attachments`, form, {
+        params: this.params(),
+        ...handled(400, 409, 413, 415),
+        reportProgress: true,
+        observe: 'events',
+      })
+      .pipe(
+        tap((e) => {
+          if (e.type === HttpEventType.UploadProgress && e.total) progress?.(Math.round((100 * e.loaded) / e.total));
+        }),
+        filter((e): e is HttpResponse<unknown> => e.type === HttpEventType.Response),
+        map((e) => AttachmentDto.parse(e.body)),
+      );
   }
 
   uploadWorkbook(id: string, file: File): Observable<WorkbookUploadResult> {

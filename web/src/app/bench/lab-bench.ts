@@ -31,6 +31,7 @@ export const STATUS_LABELS: Record<MyRoundStatus, string> = {
       } @else if (rounds().length === 0) {
         <p data-testid="no-rounds">Your lab has no rounds yet. Invitations from the PT provider appear here.</p>
       } @else {
+        <div class="table-scroll">
         <table class="bench-table" data-testid="my-rounds">
           <caption class="visually-hidden">Your lab’s rounds</caption>
           <thead>
@@ -55,11 +56,12 @@ export const STATUS_LABELS: Record<MyRoundStatus, string> = {
             }
           </tbody>
         </table>
+        </div>
       }
     </section>
   `,
   styles: `
-    .bench-table { border-collapse: collapse; width: 100%; font-size: 14px; }
+    .bench-table { border-collapse: collapse; width: 100%; min-width: 640px; font-size: 14px; }
     .bench-table th, .bench-table td { text-align: left; padding: 6px 10px; border-bottom: 1px solid #d8dde3; }
     .bench-table .num { text-align: right; }
     .status { font-weight: 500; }

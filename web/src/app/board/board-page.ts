@@ -142,7 +142,7 @@ export class BoardPage implements OnInit {
         marryChildren: true,
         children: [
           { colId: `g${gi}-result`, headerName: `Result${unit}`, type: 'rightAligned', valueGetter: (p) => cell(p.data)?.result ?? null, valueFormatter: num(g.decimals) },
-          { colId: `g${gi}-sd`, headerName: 'Rep. SD', type: 'rightAligned', valueGetter: (p) => cell(p.data)?.sd ?? null, valueFormatter: num(g.decimals + 1) },
+          { colId: `g${gi}-sd`, headerName: 'Replicate SD', type: 'rightAligned', valueGetter: (p) => cell(p.data)?.sd ?? null, valueFormatter: num(g.decimals + 1) },
           {
             colId: `g${gi}-score`,
             headerName: scoreName,

@@ -10,6 +10,7 @@ import { RouterLink } from '@angular/router';
 import {
   EXCLUSION_RULES,
   EXCLUSION_RULE_LABELS,
+  EVALUATION_STATE_LABELS,
   Exclusion,
   SigmaPtOverride,
   type EvaluationView,
@@ -18,7 +19,7 @@ import {
 } from '@ringlet/shared/contracts/evaluation';
 import { ROUND_STATE_LABELS, type RoundState } from '@ringlet/shared/contracts/round-states';
 import { evaluateRecord, type ReplicateInput } from '@ringlet/shared/evaluation/evaluate';
-import { problemMessage } from '../core/problem';
+import { fieldLabel, problemMessage } from '../core/problem';
 import { BoardService } from './board.service';
 import { ProviderService } from '../provider/provider.service';
 
@@ -34,7 +35,7 @@ const ruleText = (r: SigmaPtRuleInput): string =>
 /**
  * The coordinator's evaluation: change the σ_pt rule or exclude a result (rule + reason) and see
  * the effect at once (the shared engine runs in the browser on the stored replicates), then save
- * the draft, commit, publish, or reissue with a reason.
+ * the draft, approve it for publication, publish, or reissue with a reason.
  */
 @Component({
   selector: 'app-evaluation-page',
@@ -52,14 +53,17 @@ const ruleText = (r: SigmaPtRuleInput): string =>
       }
       @if (view(); as v) {
         <p class="note" data-testid="evaluation-state">
-          Round {{ stateLabel(v.roundState) }} · version {{ v.version }} · {{ v.state }} · software {{ v.softwareVersion }}
-          @if (v.reissueReason) { · reissued: {{ v.reissueReason }} }
+          Round {{ stateLabel(v.roundState) }} · version {{ v.version }} · {{ evaluationStateLabels[v.state] }} · software {{ v.softwareVersion }}
+          @if (v.reissueReason) { · correction: {{ v.reissueReason }} }
         </p>
         <div class="page-actions">
           <a mat-button [routerLink]="['/board/rounds', v.roundId]">Consensus board</a>
           @if (v.roundState === 'closed') {
             <button mat-stroked-button type="button" (click)="save()" data-testid="save-draft">Save draft with these settings</button>
-            <button mat-flat-button type="button" (click)="commit()" [disabled]="v.state !== 'draft' || dirty()" data-testid="commit">Commit</button>
+            <button mat-flat-button type="button" (click)="commit()" [disabled]="v.state !== 'draft' || dirty()" data-testid="commit">Approve for publication</button>
+          }
+          @if (v.roundState === 'evaluated') {
+            <a mat-stroked-button [routerLink]="['/desk/rounds', v.roundId]" data-testid="reopen-evaluation-link">Reopen evaluation (on the Round desk)</a>
           }
           @if ((v.roundState === 'evaluated' || v.roundState === 'reissued') && v.state === 'committed') {
             <button mat-flat-button type="button" (click)="publish()" data-testid="publish">Publish and e-mail the labs</button>
@@ -68,9 +72,10 @@ const ruleText = (r: SigmaPtRuleInput): string =>
 
         <h2>Preview</h2>
         <p class="note">Computed here in your browser with the same engine as the server; nothing is stored until you save.</p>
+        <div class="table-scroll">
         <table class="rl-table" aria-label="Evaluation preview" data-testid="preview">
           <thead>
-            <tr><th>Item</th><th>Measurand</th><th class="num">p</th><th class="num">x_pt</th><th class="num">u(x_pt)</th><th>σ_pt rule</th><th class="num">σ_pt</th><th class="num">acceptable</th><th class="num">warning</th><th class="num">action</th><th>Notes</th></tr>
+            <tr><th>Item</th><th>Measurand</th><th class="num">p</th><th class="num">x_pt</th><th class="num">u(x_pt)</th><th>σ_pt rule</th><th class="num">σ_pt</th><th class="num">Acceptable</th><th class="num">Warning</th><th class="num">Action</th><th>Notes</th></tr>
           </thead>
           <tbody>
             @for (r of preview(); track $index) {
@@ -90,11 +95,12 @@ const ruleText = (r: SigmaPtRuleInput): string =>
             }
           </tbody>
         </table>
+        </div>
         @if (changes().length) {
           <p data-testid="signal-changes">Signals that change against the stored version: {{ changes().join('; ') }}</p>
         }
 
-        @if (v.roundState === 'closed' || v.roundState === 'published') {
+        @if (v.roundState === 'closed' || canReissue()) {
           <h2>σ_pt rule</h2>
           <div class="form-row">
             <mat-form-field appearance="outline" subscriptSizing="dynamic"><mat-label>Measurand</mat-label>
@@ -116,8 +122,8 @@ const ruleText = (r: SigmaPtRuleInput): string =>
             <button mat-stroked-button type="button" (click)="addOverride()" data-testid="add-override">Apply</button>
           </div>
           @for (o of overrides(); track $index) {
-            <p>{{ o.measurandKey }} · {{ o.itemCode ?? 'every item' }}: {{ rule(o.rule) }} — {{ o.reason }}
-              <button mat-icon-button type="button" [attr.aria-label]="'Remove σ_pt rule for ' + o.measurandKey" (click)="removeOverride($index)"><mat-icon>close</mat-icon></button></p>
+            <p>{{ measurandName(o.measurandKey) }} · {{ o.itemCode ?? 'every item' }}: {{ rule(o.rule) }} — {{ o.reason }}
+              <button mat-icon-button type="button" [attr.aria-label]="'Remove σ_pt rule for ' + measurandName(o.measurandKey)" (click)="removeOverride($index)"><mat-icon>close</mat-icon></button></p>
           }
 
           <h2>Exclusions from the assigned value</h2>
@@ -135,7 +141,7 @@ const ruleText = (r: SigmaPtRuleInput): string =>
             <button mat-stroked-button type="button" (click)="addExclusion()" data-testid="add-exclusion">Exclude</button>
           </div>
           @for (x of exclusions(); track $index) {
-            <p>{{ x.participantCode }} · {{ x.itemCode }} · {{ x.measurandKey }}: {{ exclusionLabels[x.rule] }} — {{ x.reason }}
+            <p>{{ x.participantCode }} · {{ x.itemCode }} · {{ measurandName(x.measurandKey) }}: {{ exclusionLabels[x.rule] }} — {{ x.reason }}
               <button mat-icon-button type="button" [attr.aria-label]="'Remove exclusion of ' + x.participantCode" (click)="removeExclusion($index)"><mat-icon>close</mat-icon></button></p>
           }
         }
@@ -148,9 +154,10 @@ const ruleText = (r: SigmaPtRuleInput): string =>
             <button mat-stroked-button type="button" (click)="saveComments()" data-testid="save-comments">Save comments</button>
           }
         </div>
-        @if (v.roundState === 'published') {
+        @if (canReissue()) {
           <h2>Reissue</h2>
-          <p class="note">A published evaluation never changes. A correction is a new version with a reason; publishing it e-mails the labs again.</p>
+          <p class="note">A published evaluation never changes. A correction is a new version with a reason, approved for publication at once;
+            publishing it e-mails every enrolled lab again with the reason, and the round is Published again.</p>
           <div class="form-row">
             <mat-form-field appearance="outline" subscriptSizing="dynamic" class="wide"><mat-label>Reason for the correction</mat-label>
               <input matInput [(ngModel)]="reissueReason" data-testid="reissue-reason" /></mat-form-field>
@@ -172,6 +179,12 @@ export class EvaluationPage implements OnInit {
   protected readonly exclusions = signal<Exclusion[]>([]);
   protected readonly exclusionRules = EXCLUSION_RULES;
   protected readonly exclusionLabels = EXCLUSION_RULE_LABELS;
+  protected readonly evaluationStateLabels = EVALUATION_STATE_LABELS;
+  /** A published round, or one left in Reissued without an approved new version, is corrected here. */
+  protected readonly canReissue = computed(() => {
+    const v = this.view();
+    return !!v && (v.roundState === 'published' || (v.roundState === 'reissued' && v.state !== 'committed'));
+  });
   protected oMeasurand = '';
   protected oItem: string | null = null;
   protected oKind: 'robust-sd' | 'percent' | 'fixed' = 'percent';
@@ -249,6 +262,9 @@ export class EvaluationPage implements OnInit {
   protected stateLabel(s: string): string {
     return ROUND_STATE_LABELS[s as RoundState] ?? s;
   }
+  protected measurandName(key: string): string {
+    return this.view()?.measurands.find((m) => m.key === key)?.name ?? key;
+  }
   protected rule(r: SigmaPtRuleInput): string {
     return ruleText(r);
   }
@@ -272,7 +288,7 @@ export class EvaluationPage implements OnInit {
     const parsed = SigmaPtOverride.safeParse(candidate);
     if (!parsed.success) {
       const i = parsed.error.issues[0];
-      this.error.set(`${i?.path.join('.') || 'σ_pt rule'}: ${i?.message ?? 'check the value'}`);
+      this.error.set(`${i?.path.length ? fieldLabel(i.path.map(String).join('.')) : 'σ_pt rule'}: ${i?.message ?? 'check the value'}`);
       return;
     }
     this.error.set(null);
@@ -291,11 +307,11 @@ export class EvaluationPage implements OnInit {
     });
     if (!parsed.success) {
       const i = parsed.error.issues[0];
-      this.error.set(`${i?.path.join('.') || 'exclusion'}: ${i?.message ?? 'check the fields'}`);
+      this.error.set(`${i?.path.length ? fieldLabel(i.path.map(String).join('.')) : 'Exclusion'}: ${i?.message ?? 'check the fields'}`);
       return;
     }
     if (!this.replicates().some((r) => r.code === parsed.data.participantCode)) {
-      this.error.set(`participantCode: no result from ${parsed.data.participantCode} in this round.`);
+      this.error.set(`Participant code: no result from ${parsed.data.participantCode} in this round.`);
       return;
     }
     this.error.set(null);
@@ -322,7 +338,7 @@ export class EvaluationPage implements OnInit {
     this.service.evaluate(this.id(), this.settings()).subscribe(this.done('Draft saved.'));
   }
   protected commit(): void {
-    this.service.commit(this.id()).subscribe(this.done('Evaluation committed: the round is evaluated.'));
+    this.service.commit(this.id()).subscribe(this.done('Evaluation approved for publication: the round is evaluated.'));
   }
   protected publish(): void {
     this.service.publish(this.id()).subscribe({

@@ -5,7 +5,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import { CAUSE_CATEGORIES, CAUSE_CATEGORY_LABELS, InvestigationUpdate, type CauseCategory, type InvestigationDto } from '@ringlet/shared/contracts/evaluation';
+import { CAUSE_CATEGORIES, CAUSE_CATEGORY_LABELS, INVESTIGATION_STATE_LABELS, InvestigationUpdate, type CauseCategory, type InvestigationDto } from '@ringlet/shared/contracts/evaluation';
 import { problemMessage } from '../core/problem';
 import { SignalBadge } from '../core/signal-badge';
 import { BoardService } from './board.service';
@@ -23,7 +23,7 @@ import { BoardService } from './board.service';
       @if (inv(); as i) {
         <p>
           Round {{ i.roundCode }} · {{ i.labName }} ({{ i.participantCode }}) · item {{ i.itemCode }} · {{ i.measurandName }}:
-          <app-signal-badge [signal]="i.signal" /> ({{ i.scoreKind === 'z' ? 'z' : 'z′' }} = {{ i.score.toFixed(2) }}) · {{ i.state }}
+          <app-signal-badge [signal]="i.signal" /> ({{ i.scoreKind === 'z' ? 'z' : 'z′' }} = {{ i.score.toFixed(2) }}) · {{ stateLabels[i.state] }}
           @if (i.closedAt) { — closed by {{ i.closedByName }} on {{ date(i.closedAt) }} }
         </p>
         <form class="form-stack" [formGroup]="form" (ngSubmit)="save()">
@@ -35,7 +35,7 @@ import { BoardService } from './board.service';
           </mat-form-field>
           <mat-form-field appearance="outline"><mat-label>Root cause</mat-label><textarea matInput rows="3" formControlName="rootCause"></textarea></mat-form-field>
           <mat-form-field appearance="outline"><mat-label>Corrective action</mat-label><textarea matInput rows="3" formControlName="correctiveAction"></textarea></mat-form-field>
-          <mat-form-field appearance="outline"><mat-label>Check of effectiveness</mat-label><textarea matInput rows="3" formControlName="effectivenessCheck"></textarea></mat-form-field>
+          <mat-form-field appearance="outline"><mat-label>Effectiveness check</mat-label><textarea matInput rows="3" formControlName="effectivenessCheck"></textarea></mat-form-field>
           @if (i.canEdit) {
             <div class="page-actions">
               <button mat-flat-button type="submit">Save</button>
@@ -50,6 +50,7 @@ import { BoardService } from './board.service';
   `,
 })
 export class InvestigationPage implements OnInit {
+  protected readonly stateLabels = INVESTIGATION_STATE_LABELS;
   readonly id = input.required<string>();
   private readonly service = inject(BoardService);
   protected readonly inv = signal<InvestigationDto | null>(null);

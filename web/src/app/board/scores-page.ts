@@ -21,6 +21,7 @@ import { BoardService } from './board.service';
           Evaluation version {{ d.version }}{{ d.publishedAt ? ', published ' + date(d.publishedAt) : '' }}.
         </p>
         @if (d.reissueReason) { <p class="note" data-testid="reissue-reason">Corrected version: {{ d.reissueReason }}</p> }
+        <div class="table-scroll">
         <table class="rl-table" aria-label="My scores">
           <thead>
             <tr><th>Item</th><th>Measurand</th><th class="num">Result</th><th class="num">x_pt</th><th class="num">σ_pt</th><th class="num">Score</th><th>Signal</th></tr>
@@ -39,6 +40,7 @@ import { BoardService } from './board.service';
             }
           </tbody>
         </table>
+        </div>
         @for (s of d.scores; track s.itemCode + s.measurandKey) {
           <article class="score-card" [attr.data-testid]="'score-' + s.itemCode + '-' + s.measurandKey">
             <h2>

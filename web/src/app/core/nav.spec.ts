@@ -12,7 +12,7 @@ describe('navEntries', () => {
     expect(labels(aMe({ roles: ['coordinator'] }), false)).toEqual(['Round desk', 'Consensus board', 'PT provider']);
     expect(labels(aMe({ roles: ['lab'] }), false)).toEqual(['Lab bench', 'Track record', 'Consensus board']);
     expect(labels(aMe({ roles: ['assessor'] }), false)).toEqual(['Assessor', 'Consensus board']);
-    expect(labels(aMe({ roles: ['admin'] }), false)).toEqual(['Users', 'Labs', 'PT provider']);
+    expect(labels(aMe({ roles: ['admin'] }), false)).toEqual(['Users', 'Organisations', 'PT provider']);
   });
 
   it('adds "My lab" for lab managers and the Outbox in demo/development mode', () => {

@@ -29,7 +29,7 @@ export function navEntries(me: Me | null, hasOutbox: boolean): NavEntry[] {
   }
   if (roles.has('admin')) {
     entries.push({ label: 'Users', path: '/admin/users', icon: 'manage_accounts' });
-    entries.push({ label: 'Labs', path: '/admin/labs', icon: 'domain' });
+    entries.push({ label: 'Organisations', path: '/admin/labs', icon: 'domain' });
   }
   if (roles.has('coordinator') || roles.has('admin')) entries.push({ label: 'PT provider', path: '/provider', icon: 'badge' });
   if (hasOutbox) entries.push({ label: 'Outbox', path: '/outbox', icon: 'outgoing_mail' });

@@ -16,6 +16,54 @@ function fallbackMessage(status: number): string {
   return 'The request failed.';
 }
 
+/** Field names whose label is not just the words of the name (docs/GLOSSARY.md). */
+const FIELD_LABELS: Record<string, string> = {
+  participantCode: 'Participant code',
+  measurandKey: 'Measurand',
+  measurandId: 'Measurand',
+  testItemId: 'Test item',
+  itemCode: 'Item',
+  sigmaPt: 'σ_pt',
+  feeMinor: 'Fee',
+  resultsDueAt: 'Results due',
+  dispatchOn: 'Dispatch date',
+  enrolmentClosesOn: 'Enrolment closes',
+  organisationId: 'Organisation',
+  schemeId: 'Scheme',
+  zAverageNm: 'Z-average (nm)',
+  pdi: 'PDI',
+  pdiLimit: 'PDI limit',
+  referenceValueNm: 'Reference (nm)',
+  toleranceNm: 'Tolerance (nm)',
+  setPointC: 'Set point (°C)',
+  temperatureC: 'Temperature (°C)',
+  equilibrationMin: 'Equilibration (min)',
+  laserWavelengthNm: 'Laser wavelength (nm)',
+  scatteringAngleDeg: 'Scattering angle (°)',
+  replicates: 'Replicate',
+  runs: 'Replicate',
+  items: 'Item',
+  results: 'Measurand',
+  k: 'Coverage factor k',
+};
+
+/**
+ * A field path as a person reads it: "runs.1.pdi" → "Replicate 2, PDI",
+ * "participantCode" → "Participant code" (no raw paths on screens).
+ */
+export function fieldLabel(path: string): string {
+  const parts: string[] = [];
+  for (const seg of path.split('.').filter(Boolean)) {
+    if (/^\d+$/.test(seg)) {
+      if (parts.length) parts[parts.length - 1] += ` ${Number(seg) + 1}`;
+      continue;
+    }
+    const words = FIELD_LABELS[seg] ?? seg.replace(/([a-z])([A-Z])/g, '$1 $2').toLowerCase();
+    parts.push(parts.length ? words : words.charAt(0).toUpperCase() + words.slice(1));
+  }
+  return parts.join(', ') || 'The request';
+}
+
 /** The problem body `{ error: { code, message, details } }` of an error response, if it has one. */
 export function problemOf(error: unknown): ProblemBody['error'] | null {
   if (!(error instanceof HttpErrorResponse)) return null;
@@ -26,9 +74,16 @@ export function problemOf(error: unknown): ProblemBody['error'] | null {
 /** The server's message for an error response, or a readable fallback by status. */
 export function problemMessage(error: unknown): string {
   const problem = problemOf(error);
-  if (problem?.message) return problem.message;
+  if (problem?.message) return readable(problem.message);
   if (error instanceof HttpErrorResponse) return fallbackMessage(error.status);
   return 'Something went wrong.';
+}
+
+/** A server message that opens with a field path ("participantCode: …") opens with its label instead. */
+export function readable(message: string): string {
+  const named = /^([A-Za-z][\w.]*): (.+)$/s.exec(message);
+  if (!named) return message;
+  return `${fieldLabel(named[1]!)}: ${named[2]}`;
 }
 
 /** The server's 400 field issues (`details: [{ path, message }]`), or an empty list. */

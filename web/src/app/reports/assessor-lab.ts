@@ -1,7 +1,9 @@
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } from '@angular/core';
 import { RouterLink } from '@angular/router';
+import { INVESTIGATION_STATE_LABELS } from '@ringlet/shared/contracts/evaluation';
 import type { AssessorLabDetail } from '@ringlet/shared/contracts/reports';
+import { ROUND_STATE_LABELS, type RoundState } from '@ringlet/shared/contracts/round-states';
 import { DownloadButton } from './download-button';
 import { ReportDownloads } from './report-downloads';
 import { ReportsService } from './reports.service';
@@ -31,7 +33,7 @@ import { ReportsService } from './reports.service';
                 Evaluation version {{ r.version }}, published {{ r.publishedAt?.slice(0, 10) }}. {{ r.warnings }} warning signal(s), {{ r.actions }} action signal(s).
                 @if (r.reissueReason) { <em>Reissued: {{ r.reissueReason }}</em> }
               } @else {
-                Not published yet ({{ r.roundState }}).
+                Not published yet ({{ roundStateLabel(r.roundState) }}).
               }
             </p>
             @if (r.version !== null) {
@@ -47,13 +49,13 @@ import { ReportsService } from './reports.service';
           <p>No investigation.</p>
         } @else {
           <table class="plain" aria-label="Investigations">
-            <thead><tr><th>Round</th><th>Item</th><th>Measurand</th><th class="num">Score</th><th>Signal</th><th>State</th><th>Root cause</th><th>Corrective action</th><th>Effectiveness</th></tr></thead>
+            <thead><tr><th>Round</th><th>Item</th><th>Measurand</th><th class="num">Score</th><th>Signal</th><th>State</th><th>Root cause</th><th>Corrective action</th><th>Effectiveness check</th></tr></thead>
             <tbody>
               @for (i of d.investigations; track i.id) {
                 <tr>
                   <td>{{ i.roundCode }}</td><td>{{ i.itemCode }}</td><td>{{ i.measurandName }}</td>
                   <td class="num">{{ i.score | number: '1.2-2' }}</td><td>{{ i.signal === 'action' ? 'action signal' : 'warning signal' }}</td>
-                  <td>{{ i.state }}</td><td>{{ i.rootCause }}</td><td>{{ i.correctiveAction }}</td><td>{{ i.effectivenessCheck }}</td>
+                  <td>{{ investigationStateLabels[i.state] }}</td><td>{{ i.rootCause }}</td><td>{{ i.correctiveAction }}</td><td>{{ i.effectivenessCheck }}</td>
                 </tr>
               }
             </tbody>
@@ -71,7 +73,7 @@ import { ReportsService } from './reports.service';
                 <tr>
                   <td>{{ c.checkedAt.slice(0, 10) }}</td><td>{{ c.instrument }}</td><td>{{ c.material }}</td>
                   <td class="num">{{ c.referenceValueNm | number: '1.1-1' }}</td><td class="num">{{ c.toleranceNm | number: '1.1-1' }}</td>
-                  <td>{{ c.passed ? 'passed' : 'failed' }}</td>
+                  <td>{{ c.passed ? 'Pass' : 'Fail' }}</td>
                 </tr>
               }
             </tbody>
@@ -88,6 +90,10 @@ import { ReportsService } from './reports.service';
   styleUrl: './reports.scss',
 })
 export class AssessorLab implements OnInit {
+  protected readonly investigationStateLabels = INVESTIGATION_STATE_LABELS;
+  protected roundStateLabel(s: string): string {
+    return ROUND_STATE_LABELS[s as RoundState] ?? s;
+  }
   readonly id = input.required<string>();
   private readonly reports = inject(ReportsService);
   protected readonly detail = signal<AssessorLabDetail | null>(null);

@@ -10,6 +10,7 @@ import type { Observable } from 'rxjs';
 import {
   DispatchInput,
   ExtensionGrant,
+  HOMOGENEITY_DECISION_LABELS,
   HomogeneityDecisionKind,
   StudyDecision,
   TransitionRequest,
@@ -28,17 +29,22 @@ export interface DeskDialogData<T> {
   readonly confirmLabel?: string;
   readonly title: string;
   readonly intro?: string;
-  /** For a transition: the target state and whether the move may need force (closing early). */
+  /** For a transition: the target state and whether the move may close early (before results are due). */
   readonly to?: RoundState;
   readonly offerForce?: boolean;
+  /** For a transition: the button text (docs/GLOSSARY.md names moves back for what they do). */
+  readonly moveLabel?: string;
+  /** For a transition: who hears of the move. */
+  readonly whoIsTold?: string;
+  /** Cautions to show (e.g. packing and transport for a dispatch). */
+  readonly cautions?: readonly string[];
   readonly reasonRequired?: boolean;
   readonly send: (value: never) => Observable<T>;
 }
 
 const DECISION_LABELS: Record<z.infer<typeof HomogeneityDecisionKind>, string> = {
-  accept: 'Accept the items as they are (state why)',
-  'widen-sigma-pt': 'Widen σ_pt to include s_s',
-  'exclude-item': 'Exclude the item from scoring',
+  ...HOMOGENEITY_DECISION_LABELS,
+  accept: `${HOMOGENEITY_DECISION_LABELS.accept} (state why)`,
 };
 
 /** One dialog for the Round desk's small actions: transitions, withdrawal, extension, dispatch, decision, confirming a removal. */
@@ -51,6 +57,11 @@ const DECISION_LABELS: Record<z.infer<typeof HomogeneityDecisionKind>, string> =
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="form-stack">
         @if (data.intro) { <p>{{ data.intro }}</p> }
+        @if (data.whoIsTold) { <p data-testid="who-is-told"><strong>Who is told:</strong> {{ data.whoIsTold }}</p> }
+        @if (data.cautions?.length) {
+          <div class="cautions" role="note" data-testid="dialog-cautions"><strong>Safety</strong>
+            <ul>@for (c of data.cautions; track c) { <li>{{ c }}</li> }</ul></div>
+        }
         @if (data.kind === 'dispatch') {
           <mat-form-field><mat-label>Courier</mat-label><input matInput formControlName="courier" />
             <mat-error>{{ errorMessage(form.controls.courier) }}</mat-error></mat-form-field>
@@ -78,7 +89,7 @@ const DECISION_LABELS: Record<z.infer<typeof HomogeneityDecisionKind>, string> =
           </mat-form-field>
         }
         @if (data.offerForce) {
-          <mat-checkbox formControlName="force">Force: close before results are due (the reason is recorded)</mat-checkbox>
+          <mat-checkbox formControlName="force">Close early, before results are due (the reason is recorded)</mat-checkbox>
         }
         @if (failure(); as message) { <p class="form-error" role="alert">{{ message }}</p> }
       </mat-dialog-content>
@@ -97,7 +108,9 @@ export class DeskDialog<T> {
   protected readonly failure = signal<string | null>(null);
   protected readonly decisions = Object.entries(DECISION_LABELS);
   protected readonly confirmLabel =
-    this.data.kind === 'transition' && this.data.to ? `Move to ${ROUND_STATE_LABELS[this.data.to]}` : (this.data.confirmLabel ?? 'Confirm');
+    this.data.kind === 'transition' && this.data.to
+      ? (this.data.moveLabel ?? `Move to ${ROUND_STATE_LABELS[this.data.to]}`)
+      : (this.data.confirmLabel ?? 'Confirm');
   protected readonly form = inject(NonNullableFormBuilder).group({
     reason: [''],
     force: [false],

@@ -2,7 +2,7 @@ import { HttpErrorResponse } from '@angular/common/http';
 import type { WritableSignal } from '@angular/core';
 import type { AbstractControl } from '@angular/forms';
 import type * as z from 'zod';
-import { fieldIssuesOf, problemMessage } from '../core/problem';
+import { fieldIssuesOf, problemMessage, problemOf } from '../core/problem';
 import { applyServerIssues, applyZodIssues } from '../core/zod-form-errors';
 
 /** Maps a contract path to the form's control path where they differ (e.g. feeMinor → fee). */
@@ -42,7 +42,8 @@ export function showServerError(form: AbstractControl, error: unknown, failure: 
     return;
   }
   const message = problemMessage(error);
-  const named = /^([A-Za-z][\w.]*): (.+)$/.exec(message);
+  // the server's own wording names the field by its path; the path places the message under its control
+  const named = /^([A-Za-z][\w.]*): (.+)$/.exec(problemOf(error)?.message ?? message);
   if (named && error instanceof HttpErrorResponse && (error.status === 409 || error.status === 422)) {
     const plain = named[2]!.charAt(0).toUpperCase() + named[2]!.slice(1);
     applyServerIssues(form, [{ path: strip(named[1]!), message: plain }]);

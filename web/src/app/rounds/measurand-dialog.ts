@@ -40,7 +40,7 @@ const num = (v: number | null) => (v === null || (v as unknown) === '' ? null : 
       <mat-dialog-content class="form-stack">
         <div class="row">
           <mat-form-field>
-            <mat-label>Key</mat-label>
+            <mat-label>File code</mat-label>
             <input matInput formControlName="key" placeholder="z_average" />
             <mat-error>{{ errorMessage(form.controls.key) }}</mat-error>
           </mat-form-field>

@@ -11,6 +11,7 @@ import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef } from 'ag-grid-community';
 import type { Observable } from 'rxjs';
 import type { Organisation } from '@ringlet/shared/contracts/admin';
+import { SHIPMENT_CONDITION_LABELS, type ShipmentCondition } from '@ringlet/shared/contracts/bench';
 import {
   DLS_DEFAULT_MEASURANDS,
   type Enrolment,
@@ -24,12 +25,17 @@ import {
   type Study,
   StudyInput,
   type TestItem,
+  HOMOGENEITY_DECISION_LABELS,
+  type HomogeneityDecisionKind,
+  STUDY_KIND_LABELS,
 } from '@ringlet/shared/contracts/rounds';
-import { ROUND_STATE_LABELS, ROUND_TRANSITIONS, type RoundState } from '@ringlet/shared/contracts/round-states';
+import { describeMove, isDeskMove, ROUND_STATE_LABELS, ROUND_TRANSITIONS, type RoundState } from '@ringlet/shared/contracts/round-states';
+import { DISPATCH_CAUTIONS } from '@ringlet/shared/contracts/safety';
 import { problemMessage } from '../core/problem';
 import { SignalBadge } from '../core/signal-badge';
 import { errorMessage } from '../core/zod-form-errors';
 import { ActionCell, type RowAction } from '../grid/action-cell';
+import { FileDrop } from '../core/file-drop';
 import { DeskDialog, type DeskDialogData } from './desk-dialogs';
 import { ItemDialog, type ItemDialogData } from './item-dialog';
 import { MeasurandDialog, type MeasurandDialogData } from './measurand-dialog';
@@ -40,6 +46,8 @@ import { formatDate, formatMoney, ringletGridTheme } from './rounds-grid';
 import { RoundsService } from './rounds.service';
 import { parseReplicateText, studyNumbers } from './study-numbers';
 
+const conditionLabel = (c: string | null | undefined): string => (c ? (SHIPMENT_CONDITION_LABELS[c as ShipmentCondition] ?? c) : '');
+
 const RECEIPT_LABELS: Record<ReceiptStatus, string> = {
   'not-dispatched': 'Not dispatched',
   dispatched: 'Dispatched, awaiting receipt',
@@ -47,14 +55,12 @@ const RECEIPT_LABELS: Record<ReceiptStatus, string> = {
   'received-with-problem': 'Received with a problem',
 };
 
-/** Moves the Consensus board makes (evaluation, publication) are not offered here. */
-const BOARD_TARGETS: readonly RoundState[] = ['evaluated', 'published'];
 
 /** One round on the Round desk: lifecycle, items, measurands, invitations, enrolments, homogeneity. */
 @Component({
   selector: 'app-round-detail',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular, ReactiveFormsModule, MatButtonModule, MatIconModule, MatFormFieldModule, MatInputModule, MatSelectModule, RouterLink, SignalBadge],
+  imports: [AgGridAngular, ReactiveFormsModule, MatButtonModule, MatIconModule, MatFormFieldModule, MatInputModule, MatSelectModule, RouterLink, SignalBadge, FileDrop],
   template: `
     <section class="page">
       <p><a routerLink="/desk">← Round desk</a></p>
@@ -70,10 +76,12 @@ const BOARD_TARGETS: readonly RoundState[] = ['evaluated', 'published'];
             <button mat-stroked-button type="button" data-testid="edit-round" (click)="editRound()"><mat-icon>edit</mat-icon> Edit round</button>
           }
           @for (to of nextStates(); track to) {
-            <button mat-flat-button type="button" [attr.data-testid]="'move-' + to" (click)="move(to)">Move to {{ stateLabel(to) }}</button>
+            <button [attr.data-testid]="'move-' + to" type="button" (click)="move(to)" [class.back-move]="moveOf(r.state, to).backwards"
+              [attr.mat-stroked-button]="null" mat-flat-button>{{ moveOf(r.state, to).label }}</button>
           }
-          @if (r.state === 'closed' || r.state === 'evaluated' || r.state === 'reissued') {
-            <span>Evaluation and publication run from the Consensus board.</span>
+          @if (r.state === 'closed' || r.state === 'evaluated' || r.state === 'published' || r.state === 'reissued') {
+            <span>Evaluation, publication and corrections (reissue) run from the
+              <a [routerLink]="['/board/rounds', r.id, 'evaluation']">evaluation page</a>.</span>
           }
           @if (r.hasOpenHomogeneityFailure) {
             <app-signal-badge signal="action" label="Homogeneity decision needed before publication" />
@@ -155,10 +163,10 @@ const BOARD_TARGETS: readonly RoundState[] = ['evaluated', 'published'];
         <form [formGroup]="studyForm" (ngSubmit)="recordStudy()" novalidate class="study-form" data-testid="study-form">
           <div class="invite-row">
             <mat-form-field>
-              <mat-label>Check</mat-label>
+              <mat-label>Study</mat-label>
               <mat-select formControlName="kind">
-                <mat-option value="homogeneity">Homogeneity (g items × replicates)</mat-option>
-                <mat-option value="stability">Stability (before / after)</mat-option>
+                <mat-option value="homogeneity">Homogeneity study (g items × replicates)</mat-option>
+                <mat-option value="stability">Stability study (before / after)</mat-option>
               </mat-select>
             </mat-form-field>
             <mat-form-field>
@@ -188,20 +196,19 @@ const BOARD_TARGETS: readonly RoundState[] = ['evaluated', 'published'];
           </mat-form-field>
           <div class="page-actions">
             <button mat-flat-button type="submit" [disabled]="busy()" data-testid="record-study">Compute and store</button>
-            <label class="upload">Or upload CSV/XLSX:
-              <input type="file" accept=".csv,.xlsx,text/csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet" (change)="upload($event)" data-testid="study-file" />
-            </label>
+            <app-file-drop label="Or drop a CSV or XLSX file here" accept=".csv,.xlsx,text/csv,application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"
+              [disabled]="busy()" (picked)="upload($event)" testId="study-file" />
           </div>
           @if (studyFailure(); as m) { <p class="form-error" role="alert">{{ m }}</p> }
         </form>
         <ag-grid-angular class="grid-small" [theme]="theme" [loadThemeGoogleFonts]="false" domLayout="autoHeight"
-          [rowData]="studies()" [columnDefs]="studyColumns" aria-label="Homogeneity and stability checks" />
+          [rowData]="studies()" [columnDefs]="studyColumns" aria-label="Homogeneity and stability studies" />
 
         <h2>History</h2>
         <ul class="history">
           @for (t of r.transitions; track t.at) {
             <li>{{ formatDate(t.at, true) }}: {{ stateLabel(t.fromState) }} → {{ stateLabel(t.toState) }}
-              by {{ t.actorName ?? 'the system' }}{{ t.forced ? ' (forced)' : '' }}{{ t.reason ? ' — ' + t.reason : '' }}</li>
+              by {{ t.actorName ?? 'the system' }}{{ t.forced ? ' (closed early)' : '' }}{{ t.reason ? ' — ' + t.reason : '' }}</li>
           } @empty { <li>No transitions yet.</li> }
         </ul>
       } @else {
@@ -252,8 +259,9 @@ export class RoundDetail implements OnInit {
 
   protected readonly nextStates = computed(() => {
     const r = this.round();
-    return r ? ROUND_TRANSITIONS[r.state].filter((s) => !BOARD_TARGETS.includes(s)) : [];
+    return r ? ROUND_TRANSITIONS[r.state].filter((s) => isDeskMove(r.state, s)) : [];
   });
+  protected readonly moveOf = describeMove;
   protected readonly receiptSummary = computed(() => {
     const active = this.enrolments().filter((e) => e.state === 'enrolled');
     const count = (s: ReceiptStatus) => active.filter((e) => e.receiptStatus === s).length;
@@ -290,7 +298,7 @@ export class RoundDetail implements OnInit {
   ];
   protected readonly measurandColumns = computed<ColDef<Measurand>[]>(() => [
     { field: 'name', headerName: 'Measurand', flex: 1, minWidth: 180 },
-    { field: 'key', headerName: 'Key', width: 110 },
+    { field: 'key', headerName: 'File code', width: 110 },
     { field: 'unit', headerName: 'Unit', width: 80, valueFormatter: ({ value }) => (value as string) || '–' },
     { field: 'decimals', headerName: 'Decimals', width: 100, type: 'rightAligned' },
     { field: 'replicatesRequired', headerName: 'Replicates', width: 110, type: 'rightAligned' },
@@ -314,29 +322,29 @@ export class RoundDetail implements OnInit {
     { label: 'Withdraw', ariaLabel: (e) => `Withdraw ${e.participantCode}`, run: (e) => this.withdraw(e) },
   ];
   protected readonly enrolmentColumns: ColDef<Enrolment>[] = [
-    { field: 'participantCode', headerName: 'Code', width: 90 },
+    { field: 'participantCode', headerName: 'Participant code', width: 150 },
     { field: 'organisationName', headerName: 'Lab', flex: 1, minWidth: 160 },
     { field: 'state', headerName: 'State', width: 110, valueFormatter: ({ data }) => (data?.state === 'withdrawn' ? `Withdrawn: ${data.withdrawnReason}` : 'Enrolled') },
     { field: 'receiptStatus', headerName: 'Receipt', width: 210, valueFormatter: ({ value }) => RECEIPT_LABELS[value as ReceiptStatus] },
     { colId: 'courier', headerName: 'Courier / tracking', width: 180, valueGetter: ({ data }) => (data?.shipment ? `${data.shipment.courier ?? ''} ${data.shipment.trackingNumber ?? ''}` : '') },
     { colId: 'dispatched', headerName: 'Dispatched', width: 120, valueGetter: ({ data }) => formatDate(data?.shipment?.dispatchedOn) },
     { colId: 'received', headerName: 'Received', width: 120, valueGetter: ({ data }) => formatDate(data?.shipment?.receivedOn) },
-    { colId: 'condition', headerName: 'Condition', width: 120, valueGetter: ({ data }) => data?.shipment?.condition ?? '' },
+    { colId: 'condition', headerName: 'Condition', width: 160, valueGetter: ({ data }) => conditionLabel(data?.shipment?.condition) },
     { field: 'extensionUntil', headerName: 'Extension until', width: 170, valueFormatter: ({ value }) => (value ? formatDate(value as string, true) : '') },
     { field: 'submitted', headerName: 'Submitted', width: 100, valueFormatter: ({ value }) => (value ? 'Yes' : 'No') },
     { colId: 'actions', headerName: 'Actions', pinned: 'right', width: 260, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.enrolmentActions } },
   ];
   private readonly studyActions: RowAction<Study>[] = [
-    { label: 'Decide', ariaLabel: (s) => `Record a decision on ${s.kind} of ${s.testItemCode}`, run: (s) => this.decide(s) },
+    { label: 'Decide', ariaLabel: (s) => `Record a decision on the ${STUDY_KIND_LABELS[s.kind].toLowerCase()} of ${s.testItemCode}`, run: (s) => this.decide(s) },
   ];
   protected readonly studyColumns: ColDef<Study>[] = [
-    { field: 'kind', headerName: 'Check', width: 120 },
+    { field: 'kind', headerName: 'Study', width: 160, valueFormatter: ({ value }) => STUDY_KIND_LABELS[value as Study['kind']] },
     { field: 'testItemCode', headerName: 'Item', width: 80 },
     { field: 'measurandName', headerName: 'Measurand', width: 170 },
     { field: 'sigmaPt', headerName: 'σ_pt', width: 100, type: 'rightAligned', valueFormatter: ({ value }) => (value as number).toPrecision(4) },
     { colId: 'numbers', headerName: 'Numbers (unit of the measurand)', flex: 1, minWidth: 320, autoHeight: true, wrapText: true, valueGetter: ({ data }) => (data ? studyNumbers(data) : '') },
     { field: 'passes', headerName: 'Result', width: 110, valueFormatter: ({ value }) => (value ? 'Pass' : 'Fail'), cellClass: ({ value }) => (value ? 'pass' : 'fail') },
-    { colId: 'decision', headerName: 'Decision', width: 220, valueGetter: ({ data }) => (data?.passes ? '—' : data?.decision ? `${data.decision}: ${data.decisionReason}` : 'Needed before publication') },
+    { colId: 'decision', headerName: 'Decision', width: 220, valueGetter: ({ data }) => (data?.passes ? '—' : data?.decision ? `${HOMOGENEITY_DECISION_LABELS[data.decision as HomogeneityDecisionKind] ?? data.decision}: ${data.decisionReason}` : 'Needed before publication') },
     { colId: 'actions', headerName: '', width: 110, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.studyActions } },
   ];
 
@@ -366,15 +374,17 @@ export class RoundDetail implements OnInit {
   protected move(to: RoundState): void {
     const r = this.round()!;
     const closingEarly = to === 'closed' && (!r.resultsDueAt || new Date(r.resultsDueAt).getTime() > Date.now());
-    const backwards = (r.state === 'closed' && to === 'collecting') || (r.state === 'enrolling' && to === 'draft') || to === 'reissued';
+    const move = describeMove(r.state, to);
     this.open(
       {
         kind: 'transition',
-        title: `Move ${r.code} to ${ROUND_STATE_LABELS[to]}`,
-        intro: closingEarly ? 'Results are not due yet: closing now needs force and a reason.' : undefined,
+        title: move.backwards ? `${move.label}: ${r.code}` : `Move ${r.code} to ${ROUND_STATE_LABELS[to]}`,
+        moveLabel: move.label,
+        whoIsTold: move.whoIsTold,
+        intro: closingEarly ? 'Results are not due yet: tick "Close early" and give a reason.' : undefined,
         to,
         offerForce: closingEarly,
-        reasonRequired: closingEarly || backwards,
+        reasonRequired: closingEarly || move.backwards,
         send: (v: never) => this.api.transition(r.id, v),
       },
       (updated: RoundDetailDto) => {
@@ -476,7 +486,7 @@ export class RoundDetail implements OnInit {
   private replaceEnrolment = (e: Enrolment) => this.enrolments.update((list) => list.map((x) => (x.id === e.id ? e : x)));
 
   private dispatch(e: Enrolment): void {
-    this.open({ kind: 'dispatch', title: `Dispatch to ${e.participantCode}`, intro: 'The lab is e-mailed the courier and tracking number.', send: (v: never) => this.api.dispatch(this.id(), e.id, v) }, this.replaceEnrolment);
+    this.open({ kind: 'dispatch', title: `Dispatch to ${e.participantCode}`, intro: 'The lab is e-mailed the courier and tracking number, with the handling cautions.', cautions: DISPATCH_CAUTIONS, send: (v: never) => this.api.dispatch(this.id(), e.id, v) }, this.replaceEnrolment);
   }
   private extend(e: Enrolment): void {
     this.open({ kind: 'extension', title: `Extension for ${e.participantCode}`, send: (v: never) => this.api.extend(this.id(), e.id, v) }, this.replaceEnrolment);
@@ -487,7 +497,7 @@ export class RoundDetail implements OnInit {
   private decide(s: Study): void {
     if (s.passes) return;
     this.open(
-      { kind: 'decision', title: `Decision on the ${s.kind} check of item ${s.testItemCode}`, intro: studyNumbers(s), send: (v: never) => this.api.decide(this.id(), s.id, v) },
+      { kind: 'decision', title: `Decision on the ${STUDY_KIND_LABELS[s.kind].toLowerCase()} of item ${s.testItemCode}`, intro: studyNumbers(s), send: (v: never) => this.api.decide(this.id(), s.id, v) },
       () => this.reload(),
     );
   }
@@ -506,9 +516,7 @@ export class RoundDetail implements OnInit {
     this.sendStudy(this.api.recordStudy(this.id(), value));
   }
 
-  protected upload(event: Event): void {
-    const file = (event.target as HTMLInputElement).files?.[0];
-    if (!file) return;
+  protected upload(file: File): void {
     const t = this.studyTarget();
     const form = new FormData();
     form.append('kind', t.kind);
@@ -517,7 +525,6 @@ export class RoundDetail implements OnInit {
     if (t.sigmaPt !== null) form.append('sigmaPt', String(t.sigmaPt));
     form.append('file', file);
     this.sendStudy(this.api.uploadStudy(this.id(), form));
-    (event.target as HTMLInputElement).value = '';
   }
 
   private sendStudy(call: Observable<Study>): void {

@@ -70,7 +70,7 @@ export function localToIso(value: string): string | null {
           </mat-form-field>
         </div>
         <mat-form-field>
-          <mat-label>Instructions for labs (safety cautions included)</mat-label>
+          <mat-label>Instructions for labs (the safety cautions always open them; add your own)</mat-label>
           <textarea matInput formControlName="instructions" rows="5"></textarea>
           <mat-error>{{ errorMessage(form.controls.instructions) }}</mat-error>
         </mat-form-field>

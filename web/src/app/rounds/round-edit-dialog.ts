@@ -1,7 +1,6 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
@@ -22,10 +21,12 @@ export function isoToLocal(iso: string | null): string {
   return `${d.getFullYear()}-${p(d.getMonth() + 1)}-${p(d.getDate())}T${p(d.getHours())}:${p(d.getMinutes())}`;
 }
 
-/** The instructions as stored: the standard safety block first (unless left out), then the coordinator's text. */
-export function composeInstructions(body: string, keepCautions: boolean): string {
+/**
+ * The instructions as stored: the standard safety block first (it cannot be removed; the server
+ * adds it too), then the coordinator's text, which may add further cautions.
+ */
+export function composeInstructions(body: string): string {
   const text = body.trim();
-  if (!keepCautions) return text;
   return text ? `${SAFETY_BLOCK}\n\n${text}` : SAFETY_BLOCK;
 }
 
@@ -43,7 +44,7 @@ export function changedFields(round: RoundDetail, next: Required<RoundUpdate>): 
 @Component({
   selector: 'app-round-edit-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, RoundScheduleFields, MatDialogModule, MatFormFieldModule, MatInputModule, MatCheckboxModule, MatButtonModule],
+  imports: [ReactiveFormsModule, RoundScheduleFields, MatDialogModule, MatFormFieldModule, MatInputModule, MatButtonModule],
   template: `
     <h2 mat-dialog-title>Edit round {{ round.code }}</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
@@ -72,16 +73,12 @@ export function changedFields(round: RoundDetail, next: Required<RoundUpdate>): 
             <mat-error>{{ errorMessage(form.controls.currency) }}</mat-error>
           </mat-form-field>
         </div>
-        <mat-checkbox formControlName="keepCautions" data-testid="keep-cautions">Open the instructions with the standard safety cautions (recommended)</mat-checkbox>
-        @if (form.controls.keepCautions.value) {
-          <ul class="cautions" aria-label="Safety cautions shown to labs">
-            @for (c of cautions; track c) { <li>{{ c }}</li> }
-          </ul>
-        } @else {
-          <p class="form-error">Labs will not see the standard safety cautions with this round's instructions.</p>
-        }
+        <p class="cautions-head">Every round's instructions open with these safety cautions (they cannot be removed; add your own below):</p>
+        <ul class="cautions" aria-label="Safety cautions shown to labs" data-testid="fixed-cautions">
+          @for (c of cautions; track c) { <li>{{ c }}</li> }
+        </ul>
         <mat-form-field>
-          <mat-label>Instructions for labs</mat-label>
+          <mat-label>Instructions for labs (after the cautions; add further cautions here)</mat-label>
           <textarea matInput formControlName="instructions" rows="7" class="plain"></textarea>
           <mat-hint>Plain text: line breaks and "- " lists show as written.</mat-hint>
           <mat-error>{{ errorMessage(form.controls.instructions) }}</mat-error>
@@ -97,6 +94,7 @@ export function changedFields(round: RoundDetail, next: Required<RoundUpdate>): 
   styles: `
     .row { display: flex; gap: 12px; flex-wrap: wrap; }
     .row mat-form-field { flex: 1 1 180px; }
+    .cautions-head { margin: 4px 0 0; font-size: 0.9em; }
     .cautions { margin: 0 0 8px; padding-left: 20px; font-size: 0.9em; }
     .plain { white-space: pre-wrap; }
   `,
@@ -118,8 +116,6 @@ export class RoundEditDialog {
     protocolTemperatureC: [this.round.protocolTemperatureC as number | null],
     fee: [{ value: this.round.feeMinor / 100 as number | null, disabled: !this.feeOpen }],
     currency: [{ value: this.round.currency, disabled: !this.feeOpen }],
-    // kept by default: the cautions are only left out when the coordinator unticks the box
-    keepCautions: [true],
     instructions: [withoutSafetyBlock(this.round.instructions)],
   });
 
@@ -136,7 +132,7 @@ export class RoundEditDialog {
       protocolTemperatureC: raw.protocolTemperatureC === null || (raw.protocolTemperatureC as unknown) === '' ? null : Number(raw.protocolTemperatureC),
       feeMinor: raw.fee === null || (raw.fee as unknown) === '' ? null : Math.round(Number(raw.fee) * 100),
       currency: raw.currency.trim().toUpperCase(),
-      instructions: composeInstructions(raw.instructions, raw.keepCautions),
+      instructions: composeInstructions(raw.instructions),
     };
     const value = parseWith(this.form, RoundUpdate, candidate, this.failure, this.paths);
     if (!value) return;

@@ -1,5 +1,5 @@
 import { HttpClient, HttpContext, HttpEventType, HttpParams, type HttpResponse } from '@angular/common/http';
-import { Injectable, computed, inject, signal } from '@angular/core';
+import { Injectable, computed, inject } from '@angular/core';
 import { Observable, filter, map, tap } from 'rxjs';
 import * as z from 'zod';
 import {

@@ -18,7 +18,7 @@ export interface LabRecordsMeta {
 function head(doc: Parameters<typeof write>[0], title: string, meta: LabRecordsMeta): void {
   write(doc, meta.provider.name || 'PT provider', { size: 11, bold: true, colour: PALETTE.teal, gap: 4 });
   write(doc, title, { size: 20, bold: true, colour: PALETTE.ink, gap: 6, tag: 'H1' });
-  write(doc, `Laboratory: ${meta.lab}`, { size: 11, gap: 2 });
+  write(doc, `Lab: ${meta.lab}`, { size: 11, gap: 2 });
   write(doc, `Made ${meta.generatedAt.slice(0, 16).replace('T', ' ')} UTC for ${meta.generatedFor}, as part of an Evidence pack. The same records are in the JSON file beside this one.`, { size: 9, colour: PALETTE.grey, gap: 10 });
 }
 

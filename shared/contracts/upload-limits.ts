@@ -58,7 +58,7 @@ export interface AttachmentLimit extends UploadLimit {
 export const ATTACHMENT_LIMIT: AttachmentLimit = {
   label: 'raw-data file',
   fileField: 'file',
-  textFields: ['testItemId', 'labId'],
+  textFields: ['testItemId', 'labId', 'laserWavelengthNm', 'scatteringAngleDeg'],
   maxBytes: 20 * MB,
   maxCorrelationRows: 10_000,
 };

@@ -223,7 +223,7 @@ describe('Uploads: one rule at the edge, limits before parsing, heavy work off t
         sheet: 'Results',
         row: 2,
         column: 'F',
-        message: 'Results row 2, column F (Run 2): the cell holds a formula (=E2*1.01); type the value itself.',
+        message: 'Results row 2, column F (Replicate 2): the cell holds a formula (=E2*1.01); type the value itself.',
       });
     });
   });

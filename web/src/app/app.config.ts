@@ -12,7 +12,6 @@ import { MatIconRegistry } from '@angular/material/icon';
 import { MAT_FORM_FIELD_DEFAULT_OPTIONS } from '@angular/material/form-field';
 import { routes } from './app.routes';
 import { AppErrorHandler } from './core/app-error-handler';
-import { AuthService } from './core/auth.service';
 import { HealthService } from './core/health.service';
 import { csrfInterceptor } from './core/csrf.interceptor';
 import { errorInterceptor } from './core/error.interceptor';
@@ -29,9 +28,8 @@ export const appConfig: ApplicationConfig = {
     provideAppInitializer(() => {
       // Icons come from the locally shipped Material Symbols font.
       inject(MatIconRegistry).setDefaultFontSetClass('material-symbols-outlined');
-      // Ask who is signed in and what mode the server runs in at once, before the router needs
-      // either: the guards then await answers already on their way instead of asking in turn.
-      void inject(AuthService).ensureLoaded();
+      // Ask the server's mode at once (a public answer), so it is on its way while the guards ask
+      // who is signed in, instead of being asked after that answer.
       void inject(HealthService).ensureLoaded();
     }),
   ],

@@ -19,7 +19,7 @@ import { AdminService } from './admin.service';
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatButtonModule],
   template: `
-    <h2 mat-dialog-title>{{ lab ? 'Edit ' + lab.name : 'New lab' }}</h2>
+    <h2 mat-dialog-title>{{ lab ? 'Edit ' + lab.name : 'New organisation' }}</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="form-stack">
         <mat-form-field>

@@ -20,7 +20,7 @@ import { LabDialog } from './lab-dialog';
       <h1 data-testid="page-heading">Organisations</h1>
       <div class="page-actions">
         <button mat-flat-button type="button" data-testid="new-lab" (click)="create()">
-          <mat-icon>add</mat-icon> New lab
+          <mat-icon>add</mat-icon> New organisation
         </button>
       </div>
       <ag-grid-angular

@@ -121,9 +121,9 @@ export class BoardPage implements OnInit {
     const cols: (ColDef<GridRow> | ColGroupDef<GridRow>)[] = [
       {
         field: 'code',
-        headerName: 'Code',
+        headerName: 'Participant code',
         pinned: 'left',
-        width: 130,
+        width: 160,
         filter: 'agTextColumnFilter',
         sort: 'asc',
         valueFormatter: (p) => (p.data?.own ? `${p.value} (your lab)` : String(p.value)),

@@ -11,6 +11,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { chromium, type Browser, type BrowserContext } from 'playwright-core';
+import { createDataSource } from '../db/data-source';
 import { createTestDatabase } from '../db/testing';
 import { DEFAULT_DEMO_PASSWORD } from '../db/seed/demo-people';
 import { seedDemo } from '../db/seed/demo';
@@ -57,7 +58,9 @@ export async function benchFirstVisit(): Promise<(Row & { target?: string; extra
   let browser: Browser | undefined;
   try {
     process.env['RINGLET_DEMO_PASSWORD'] = DEFAULT_DEMO_PASSWORD;
-    await seedDemo(db.ds, DEFAULT_DEMO_PASSWORD);
+    // The demo seed back-dates publications, which only the owner role may do.
+    const owner = await createDataSource(db.ownerUrl).initialize();
+    await seedDemo(owner, DEFAULT_DEMO_PASSWORD).finally(() => owner.destroy());
     const [published] = (await db.ds.query(`SELECT id FROM round WHERE state = 'published' ORDER BY results_due_at DESC LIMIT 1`)) as { id: string }[];
     const [collecting] = (await db.ds.query(`SELECT id FROM round WHERE state = 'collecting' LIMIT 1`)) as { id: string }[];
     const started = await startServer(db.url);

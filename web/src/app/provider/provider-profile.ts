@@ -6,6 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { LOGO_MAX_BYTES, ProviderProfileInput, type ProviderProfile } from '@ringlet/shared/contracts/provider';
 import { API } from '../core/api';
+import { FileDrop } from '../core/file-drop';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
 import { applyServerIssues, applyZodIssues, errorMessage } from '../core/zod-form-errors';
 import { ProviderService } from './provider.service';
@@ -30,7 +31,7 @@ const FIELDS: { key: FieldKey; label: string; hint?: string; multiline?: boolean
 @Component({
   selector: 'app-provider-profile',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule],
+  imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, FileDrop],
   styles: `
     .page { max-width: 760px; padding: 16px 24px; }
     .logo { display: flex; align-items: center; gap: 16px; margin: 8px 0 24px; }
@@ -49,10 +50,7 @@ const FIELDS: { key: FieldKey; label: string; hint?: string; multiline?: boolean
         } @else {
           <span>No logo yet.</span>
         }
-        <label>
-          <span class="cdk-visually-hidden">Choose a logo file</span>
-          <input type="file" accept="image/png,image/jpeg" (change)="pickLogo($event)" [disabled]="busy()" />
-        </label>
+        <app-file-drop label="Drop a PNG or JPEG logo here" accept="image/png,image/jpeg" [disabled]="busy()" (picked)="pickLogo($event)" testId="logo-file" />
       </div>
       <p class="hint">PNG or JPEG, at most {{ maxKb }} KB.</p>
       @if (logoFailure(); as message) {
@@ -155,12 +153,8 @@ export class ProviderProfilePage implements OnInit {
     });
   }
 
-  protected pickLogo(event: Event): void {
+  protected pickLogo(file: File): void {
     this.logoFailure.set(null);
-    const input = event.target as HTMLInputElement;
-    const file = input.files?.[0];
-    input.value = '';
-    if (!file) return;
     if (file.size > LOGO_MAX_BYTES) {
       this.logoFailure.set(`The logo may be at most ${this.maxKb} KB.`);
       return;

@@ -5,25 +5,14 @@
 import type { EntityManager } from 'typeorm';
 import { ProviderProfile as ProfileRow } from '../../../db/entities/provider-profile';
 import { LOGO_MAX_BYTES, type ProviderProfile, type ProviderProfileInput } from '../../../shared/contracts/provider';
+import type { ReportProviderInfo } from '../../../reports/model';
 import type { SessionUser } from '../auth/session-user';
 import { badRequest, conflict, notFound } from '../http/errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 
-/** What a report prints of the provider (the logo's bytes included). */
-export interface ReportProvider {
-  name: string;
-  address: string;
-  contactEmail: string;
-  contactPhone: string;
-  website: string;
-  accreditationBody: string;
-  accreditationNumber: string;
-  authoriserName: string;
-  authoriserRole: string;
-  subcontracting: string;
-  logo: { type: 'image/png' | 'image/jpeg'; data: Buffer } | null;
-}
+/** What a report prints of the provider (the logo's bytes included): one type, the reports' own. */
+export type ReportProvider = ReportProviderInfo;
 
 const EMPTY: Omit<ReportProvider, 'logo'> = {
   name: '',

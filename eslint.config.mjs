@@ -5,13 +5,25 @@ import tseslint from 'typescript-eslint';
 
 export default tseslint.config(
   {
-    ignores: ['dist/', '.angular/', '.data/', 'node_modules/', 'coverage/', 'test-artifacts/', '**/*.mjs', '**/*.js'],
+    ignores: [
+      'dist/',
+      '.angular/',
+      '.data/',
+      'node_modules/',
+      'coverage/',
+      'test-artifacts/',
+      '**/*.mjs',
+      '**/*.js',
+    ],
   },
   {
     files: ['**/*.ts'],
     extends: [js.configs.recommended, ...tseslint.configs.recommended],
     rules: {
-      '@typescript-eslint/no-unused-vars': ['error', { argsIgnorePattern: '^_', varsIgnorePattern: '^_' }],
+      '@typescript-eslint/no-unused-vars': [
+        'error',
+        { argsIgnorePattern: '^_', varsIgnorePattern: '^_' },
+      ],
       '@typescript-eslint/no-explicit-any': 'error',
       'no-console': 'off',
     },
@@ -21,8 +33,14 @@ export default tseslint.config(
     extends: [...angular.configs.tsRecommended],
     processor: angular.processInlineTemplates,
     rules: {
-      '@angular-eslint/component-selector': ['error', { type: 'element', prefix: 'app', style: 'kebab-case' }],
-      '@angular-eslint/directive-selector': ['error', { type: 'attribute', prefix: 'app', style: 'camelCase' }],
+      '@angular-eslint/component-selector': [
+        'error',
+        { type: 'element', prefix: 'app', style: 'kebab-case' },
+      ],
+      '@angular-eslint/directive-selector': [
+        'error',
+        { type: 'attribute', prefix: 'app', style: 'camelCase' },
+      ],
     },
   },
   {
@@ -36,7 +54,20 @@ export default tseslint.config(
     rules: {
       'no-restricted-imports': [
         'error',
-        { patterns: ['node:*', 'fs', 'path', 'crypto', '**/api/**', '**/web/**', '**/db/**', 'express', 'typeorm', '@angular/*'] },
+        {
+          patterns: [
+            'node:*',
+            'fs',
+            'path',
+            'crypto',
+            '**/api/**',
+            '**/web/**',
+            '**/db/**',
+            'express',
+            'typeorm',
+            '@angular/*',
+          ],
+        },
       ],
     },
   },

@@ -37,7 +37,10 @@ module.exports = {
       transform: {
         '^.+\\.(ts|js|mjs|html|svg)$': [
           'jest-preset-angular',
-          { tsconfig: '<rootDir>/web/tsconfig.spec.json', stringifyContentPathRegex: '\\.(html|svg)$' },
+          {
+            tsconfig: '<rootDir>/web/tsconfig.spec.json',
+            stringifyContentPathRegex: '\\.(html|svg)$',
+          },
         ],
       },
       transformIgnorePatterns: ['node_modules/(?!.*\\.mjs$)'],

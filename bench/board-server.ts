@@ -25,7 +25,10 @@ async function main(): Promise<void> {
   process.on('SIGTERM', () => {
     server.close();
     mailer.close();
-    void smtp.close().then(() => ds.destroy()).then(() => process.exit(0));
+    void smtp
+      .close()
+      .then(() => ds.destroy())
+      .then(() => process.exit(0));
   });
 }
 

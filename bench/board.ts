@@ -36,14 +36,37 @@ interface Session {
   csrf: string;
 }
 
-function request(port: number, agent: http.Agent, method: string, path: string, headers: Record<string, string>, body?: string): Promise<{ status: number; headers: http.IncomingHttpHeaders; body: string }> {
+function request(
+  port: number,
+  agent: http.Agent,
+  method: string,
+  path: string,
+  headers: Record<string, string>,
+  body?: string,
+): Promise<{ status: number; headers: http.IncomingHttpHeaders; body: string }> {
   return new Promise((resolve, reject) => {
-    const req = http.request({ host: '127.0.0.1', port, method, path, agent, headers: { ...headers, ...(body ? { 'content-type': 'application/json' } : {}) } }, (res) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks).toString('utf8') }));
-      res.on('error', reject);
-    });
+    const req = http.request(
+      {
+        host: '127.0.0.1',
+        port,
+        method,
+        path,
+        agent,
+        headers: { ...headers, ...(body ? { 'content-type': 'application/json' } : {}) },
+      },
+      (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () =>
+          resolve({
+            status: res.statusCode ?? 0,
+            headers: res.headers,
+            body: Buffer.concat(chunks).toString('utf8'),
+          }),
+        );
+        res.on('error', reject);
+      },
+    );
     req.on('error', reject);
     if (body) req.write(body);
     req.end();
@@ -54,7 +77,14 @@ async function signIn(port: number, agent: http.Agent, email: string): Promise<S
   const t1 = await request(port, agent, 'GET', '/api/v1/auth/csrf-token', {});
   let cookie = (t1.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
   const token = JSON.parse(t1.body).token as string;
-  const r = await request(port, agent, 'POST', '/api/v1/auth/sign-in', { cookie, 'x-csrf-token': token }, JSON.stringify({ email, password: 'correct horse battery' }));
+  const r = await request(
+    port,
+    agent,
+    'POST',
+    '/api/v1/auth/sign-in',
+    { cookie, 'x-csrf-token': token },
+    JSON.stringify({ email, password: 'correct horse battery' }),
+  );
   if (r.status !== 200) throw new Error(`sign-in ${email}: ${r.status} ${r.body}`);
   cookie = (r.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ') || cookie;
   const t2 = await request(port, agent, 'GET', '/api/v1/auth/csrf-token', { cookie });
@@ -63,20 +93,33 @@ async function signIn(port: number, agent: http.Agent, email: string): Promise<S
 
 /** Closed-loop load: CLIENTS workers, each with its own session and keep-alive socket. */
 /** Like `request`, but only counts the body's bytes: a load generator (as wrk) does not decode. */
-function fetchCounting(port: number, agent: http.Agent, path: string, headers: Record<string, string>): Promise<{ status: number; bytes: number }> {
+function fetchCounting(
+  port: number,
+  agent: http.Agent,
+  path: string,
+  headers: Record<string, string>,
+): Promise<{ status: number; bytes: number }> {
   return new Promise((resolve, reject) => {
-    const req = http.request({ host: '127.0.0.1', port, method: 'GET', path, agent, headers }, (res) => {
-      let bytes = 0;
-      res.on('data', (c: Buffer) => (bytes += c.length));
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, bytes }));
-      res.on('error', reject);
-    });
+    const req = http.request(
+      { host: '127.0.0.1', port, method: 'GET', path, agent, headers },
+      (res) => {
+        let bytes = 0;
+        res.on('data', (c: Buffer) => (bytes += c.length));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, bytes }));
+        res.on('error', reject);
+      },
+    );
     req.on('error', reject);
     req.end();
   });
 }
 
-async function load(port: number, sessions: Session[], path: string, total: number): Promise<{ latencies: number[]; seconds: number; bytes: number }> {
+async function load(
+  port: number,
+  sessions: Session[],
+  path: string,
+  total: number,
+): Promise<{ latencies: number[]; seconds: number; bytes: number }> {
   const latencies: number[] = [];
   let issued = 0;
   let bytes = 0;
@@ -98,20 +141,38 @@ async function load(port: number, sessions: Session[], path: string, total: numb
   return { latencies, seconds: (performance.now() - started) / 1000, bytes };
 }
 
-function stats(name: string, l: number[], seconds: number, target?: string, extra?: string): BoardBenchRow & { rps: number } {
+function stats(
+  name: string,
+  l: number[],
+  seconds: number,
+  target?: string,
+  extra?: string,
+): BoardBenchRow & { rps: number } {
   const t = [...l].sort((a, b) => a - b);
   const rank = (q: number) => t[Math.min(t.length - 1, Math.max(0, Math.ceil(q * t.length) - 1))]!;
   const r3 = (v: number) => Math.round(v * 1000) / 1000;
   const rps = l.length / seconds;
-  return { name, median_ms: r3(rank(0.5)), p95_ms: r3(rank(0.95)), runs: l.length, rps, target, extra: `${rps.toFixed(0)} req/s${extra ? '; ' + extra : ''}` };
+  return {
+    name,
+    median_ms: r3(rank(0.5)),
+    p95_ms: r3(rank(0.95)),
+    runs: l.length,
+    rps,
+    target,
+    extra: `${rps.toFixed(0)} req/s${extra ? '; ' + extra : ''}`,
+  };
 }
 
 function startServer(url: string): Promise<{ child: ChildProcess; port: number }> {
   return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', join(__dirname, 'board-server.ts'), url], {
-      stdio: ['ignore', 'pipe', 'inherit'],
-      env: { ...process.env, NODE_ENV: 'production' },
-    });
+    const child = spawn(
+      process.execPath,
+      ['--import', 'tsx', join(__dirname, 'board-server.ts'), url],
+      {
+        stdio: ['ignore', 'pipe', 'inherit'],
+        env: { ...process.env, NODE_ENV: 'production' },
+      },
+    );
     let out = '';
     child.stdout!.on('data', (c: Buffer) => {
       out += c.toString();
@@ -126,7 +187,12 @@ export async function benchBoard(): Promise<BoardBenchRow[]> {
   const db = await createTestDatabase();
   let child: ChildProcess | undefined;
   try {
-    const fx = await buildEvaluationFixture(db.ds, { participants: PARTICIPANTS, seed: 42, blunders: { 5: 2, 17: 1.25 }, withUncertainty: true });
+    const fx = await buildEvaluationFixture(db.ds, {
+      participants: PARTICIPANTS,
+      seed: 42,
+      blunders: { 5: 2, 17: 1.25 },
+      withUncertainty: true,
+    });
     await createUser(db.ds, { email: 'coordinator@bench.test', roles: ['coordinator'] });
     await createUser(db.ds, { email: 'lab@bench.test', lab: fx.labs[0]!.id, manager: true });
 
@@ -146,7 +212,14 @@ export async function benchBoard(): Promise<BoardBenchRow[]> {
     const coord = await signIn(port, setupAgent, 'coordinator@bench.test');
     const base = `/api/v1/rounds/${fx.round.id}`;
     const post = async (p: string) => {
-      const r = await request(port, setupAgent, 'POST', p, { cookie: coord.cookie, 'x-csrf-token': coord.csrf }, '{}');
+      const r = await request(
+        port,
+        setupAgent,
+        'POST',
+        p,
+        { cookie: coord.cookie, 'x-csrf-token': coord.csrf },
+        '{}',
+      );
       if (r.status >= 300) throw new Error(`${p}: ${r.status} ${r.body}`);
     };
     await post(`${base}/evaluation`);
@@ -167,7 +240,11 @@ export async function benchBoard(): Promise<BoardBenchRow[]> {
     const health = await load(port, coordSessions, '/api/v1/health', REQUESTS.health);
     const board = await load(port, coordSessions, `${base}/board`, REQUESTS.board);
     const labBoard = await load(port, labSessions, `${base}/board`, REQUESTS.board);
-    const h = stats(`GET /health, ${CLIENTS} signed-in clients (trivial JSON, reference)`, health.latencies, health.seconds);
+    const h = stats(
+      `GET /health, ${CLIENTS} signed-in clients (trivial JSON, reference)`,
+      health.latencies,
+      health.seconds,
+    );
     const b = stats(
       `GET /rounds/{id}/board coordinator, ${PARTICIPANTS} participants, ${CLIENTS} clients`,
       board.latencies,
@@ -182,7 +259,12 @@ export async function benchBoard(): Promise<BoardBenchRow[]> {
       'p95 ≤ 60 ms',
       `${((100 * labBoard.latencies.length) / labBoard.seconds / h.rps).toFixed(0)} % of /health`,
     );
-    const e = stats(`evaluateRecord ${PARTICIPANTS}×2×2×3 (x_pt, σ_pt, z, z′, ζ, En, hints)`, evalTimes, 1, '≤ 20 ms');
+    const e = stats(
+      `evaluateRecord ${PARTICIPANTS}×2×2×3 (x_pt, σ_pt, z, z′, ζ, En, hints)`,
+      evalTimes,
+      1,
+      '≤ 20 ms',
+    );
     e.extra = undefined;
     return [e, h, b, l].map(({ rps: _rps, ...row }) => row);
   } finally {

@@ -28,14 +28,22 @@ interface NumpyAnswer {
 function runNumpy(cols: ResultColumns, runs: number): NumpyAnswer | string {
   const dir = mkdtempSync(join(tmpdir(), 'ringlet-bench-'));
   try {
-    const bytes = (a: Int32Array | Float64Array) => Buffer.from(a.buffer, a.byteOffset, a.byteLength);
+    const bytes = (a: Int32Array | Float64Array) =>
+      Buffer.from(a.buffer, a.byteOffset, a.byteLength);
     writeFileSync(join(dir, 'participant.i32'), bytes(cols.participant));
     writeFileSync(join(dir, 'group.i32'), bytes(cols.group));
     writeFileSync(join(dir, 'value.f64'), bytes(cols.value));
-    writeFileSync(join(dir, 'meta.json'), JSON.stringify({ codes: cols.codes.length, groups: cols.groups.length }));
+    writeFileSync(
+      join(dir, 'meta.json'),
+      JSON.stringify({ codes: cols.codes.length, groups: cols.groups.length }),
+    );
     const script = join(__dirname, 'reference', 'evaluate_numpy.py');
-    const r = spawnSync('python3', [script, dir, String(runs)], { encoding: 'utf8', timeout: 600_000 });
-    if (r.error || r.status !== 0) return `numpy reference not run: ${r.error?.message ?? r.stderr.trim().split('\n').pop()}`;
+    const r = spawnSync('python3', [script, dir, String(runs)], {
+      encoding: 'utf8',
+      timeout: 600_000,
+    });
+    if (r.error || r.status !== 0)
+      return `numpy reference not run: ${r.error?.message ?? r.stderr.trim().split('\n').pop()}`;
     return JSON.parse(r.stdout) as NumpyAnswer;
   } finally {
     rmSync(dir, { recursive: true, force: true });
@@ -77,10 +85,17 @@ export async function benchEngineScaling(): Promise<(Row & { target?: string; ex
   const medians: number[] = [];
   let slower = 0;
   for (const n of SIZES) {
-    const cols = toColumns(syntheticRound({ participants: n, items: 2, measurands: 2, replicates: 3, seed: 20240601 }));
+    const cols = toColumns(
+      syntheticRound({ participants: n, items: 2, measurands: 2, replicates: 3, seed: 20240601 }),
+    );
     const runs = Math.max(10, Math.min(200, Math.round(2_000_000 / (n * 12))));
     let result = evaluateColumns(cols);
-    const ours = cpuTime(`evaluate ${n.toLocaleString('en')} participants (columns)`, () => (result = evaluateColumns(cols)), runs, Math.min(20, runs));
+    const ours = cpuTime(
+      `evaluate ${n.toLocaleString('en')} participants (columns)`,
+      () => (result = evaluateColumns(cols)),
+      runs,
+      Math.min(20, runs),
+    );
     medians.push(ours.median_ms);
     const np = runNumpy(cols, runs);
     let extra: string;
@@ -89,7 +104,10 @@ export async function benchEngineScaling(): Promise<(Row & { target?: string; ex
     } else {
       const agree = np.groups.every((g, i) => {
         const e = result.evaluations[i]!;
-        return Math.abs(g.x - e.assignedValue) <= 1e-9 * Math.abs(e.assignedValue) && Math.abs(g.s - e.robustSd) <= 1e-9 * e.robustSd;
+        return (
+          Math.abs(g.x - e.assignedValue) <= 1e-9 * Math.abs(e.assignedValue) &&
+          Math.abs(g.s - e.robustSd) <= 1e-9 * e.robustSd
+        );
       });
       const ratio = np.median_ms / ours.median_ms;
       if (ratio < 1) slower++;

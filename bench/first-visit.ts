@@ -21,7 +21,11 @@ const WEB = join(__dirname, '..', 'dist', 'web', 'browser');
 const VISITS = 7;
 
 function startServer(url: string): Promise<{ child: ChildProcess; port: number }> {
-  const child = spawn(process.execPath, ['--import', 'tsx', join(__dirname, 'board-server.ts'), url, WEB], { stdio: ['ignore', 'pipe', 'inherit'] });
+  const child = spawn(
+    process.execPath,
+    ['--import', 'tsx', join(__dirname, 'board-server.ts'), url, WEB],
+    { stdio: ['ignore', 'pipe', 'inherit'] },
+  );
   return new Promise((resolve, reject) => {
     const timer = setTimeout(() => reject(new Error('server did not start in 60 s')), 60_000);
     child.stdout!.on('data', (b: Buffer) => {
@@ -35,10 +39,19 @@ function startServer(url: string): Promise<{ child: ChildProcess; port: number }
   });
 }
 
-async function signedInContext(browser: Browser, base: string, email: string): Promise<BrowserContext> {
+async function signedInContext(
+  browser: Browser,
+  base: string,
+  email: string,
+): Promise<BrowserContext> {
   const ctx = await browser.newContext({ baseURL: base, viewport: { width: 1280, height: 860 } });
-  const token = ((await (await ctx.request.get('/api/v1/auth/csrf-token')).json()) as { token: string }).token;
-  const r = await ctx.request.post('/api/v1/auth/sign-in', { data: { email, password: DEFAULT_DEMO_PASSWORD }, headers: { 'x-csrf-token': token } });
+  const token = (
+    (await (await ctx.request.get('/api/v1/auth/csrf-token')).json()) as { token: string }
+  ).token;
+  const r = await ctx.request.post('/api/v1/auth/sign-in', {
+    data: { email, password: DEFAULT_DEMO_PASSWORD },
+    headers: { 'x-csrf-token': token },
+  });
   if (!r.ok()) throw new Error(`sign-in ${email}: ${r.status()}`);
   return ctx;
 }
@@ -51,7 +64,15 @@ function summary(name: string, t: number[], target: string): Row & { target: str
 
 export async function benchFirstVisit(): Promise<(Row & { target?: string; extra?: string })[]> {
   if (!existsSync(join(WEB, 'index.html'))) {
-    return [{ name: 'first visit (browser)', median_ms: NaN, p95_ms: NaN, runs: 0, extra: 'no web build: run npm run build first' }];
+    return [
+      {
+        name: 'first visit (browser)',
+        median_ms: NaN,
+        p95_ms: NaN,
+        runs: 0,
+        extra: 'no web build: run npm run build first',
+      },
+    ];
   }
   const db = await createTestDatabase();
   let server: ChildProcess | undefined;
@@ -61,19 +82,42 @@ export async function benchFirstVisit(): Promise<(Row & { target?: string; extra
     // The demo seed back-dates publications, which only the owner role may do.
     const owner = await createDataSource(db.ownerUrl).initialize();
     await seedDemo(owner, DEFAULT_DEMO_PASSWORD).finally(() => owner.destroy());
-    const [published] = (await db.ds.query(`SELECT id FROM round WHERE state = 'published' ORDER BY results_due_at DESC LIMIT 1`)) as { id: string }[];
-    const [collecting] = (await db.ds.query(`SELECT id FROM round WHERE state = 'collecting' LIMIT 1`)) as { id: string }[];
+    const [published] = (await db.ds.query(
+      `SELECT id FROM round WHERE state = 'published' ORDER BY results_due_at DESC LIMIT 1`,
+    )) as { id: string }[];
+    const [collecting] = (await db.ds.query(
+      `SELECT id FROM round WHERE state = 'collecting' LIMIT 1`,
+    )) as { id: string }[];
     const started = await startServer(db.url);
     server = started.child;
     const base = `http://127.0.0.1:${started.port}`;
     browser = await chromium.launch({
       executablePath: process.env['CHROMIUM_PATH'] || '/usr/bin/chromium',
       headless: true,
-      args: ['--no-sandbox', '--disable-gpu', '--disable-dev-shm-usage', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-quic'],
+      args: [
+        '--no-sandbox',
+        '--disable-gpu',
+        '--disable-dev-shm-usage',
+        '--no-first-run',
+        '--disable-background-networking',
+        '--disable-component-update',
+        '--disable-sync',
+        '--disable-quic',
+      ],
     });
     const pages = [
-      { name: 'Consensus board, published round (coordinator)', email: 'coordinator@ringlet.example', path: `/board/rounds/${published!.id}`, ready: '.ag-row' },
-      { name: "a lab's round on the Lab bench (lab)", email: 'lab1@ringlet.example', path: `/bench/rounds/${collecting!.id}`, ready: '.mat-mdc-form-field input' },
+      {
+        name: 'Consensus board, published round (coordinator)',
+        email: 'coordinator@ringlet.example',
+        path: `/board/rounds/${published!.id}`,
+        ready: '.ag-row',
+      },
+      {
+        name: "a lab's round on the Lab bench (lab)",
+        email: 'lab1@ringlet.example',
+        path: `/bench/rounds/${collecting!.id}`,
+        ready: '.mat-mdc-form-field input',
+      },
     ];
     const rows: (Row & { target?: string })[] = [];
     for (const p of pages) {
@@ -89,7 +133,9 @@ export async function benchFirstVisit(): Promise<(Row & { target?: string; extra
           .first()
           .waitFor({ state: 'visible', timeout: 30_000 })
           .catch(async (err: unknown) => {
-            await page.screenshot({ path: join(__dirname, '..', 'test-artifacts', 'bench-first-visit-failed.png') });
+            await page.screenshot({
+              path: join(__dirname, '..', 'test-artifacts', 'bench-first-visit-failed.png'),
+            });
             throw err;
           });
         first.push(performance.now() - s1);
@@ -99,7 +145,10 @@ export async function benchFirstVisit(): Promise<(Row & { target?: string; extra
         again.push(performance.now() - s2);
         await ctx.close();
       }
-      rows.push(summary(`first visit: ${p.name}`, first, '< 1000 ms'), summary(`revisit: ${p.name}`, again, '< 300 ms'));
+      rows.push(
+        summary(`first visit: ${p.name}`, first, '< 1000 ms'),
+        summary(`revisit: ${p.name}`, again, '< 300 ms'),
+      );
     }
     return rows;
   } finally {

@@ -8,7 +8,10 @@ import { buildRoundWorkbook } from '../reports/excel/round-workbook';
 import { buildRoundReportPdf } from '../reports/pdf/round-report';
 import { syntheticReportInput } from '../reports/testing/synthetic-input';
 
-async function timeAsync(fn: () => Promise<unknown>, runs: number): Promise<{ median_ms: number; p95_ms: number; runs: number }> {
+async function timeAsync(
+  fn: () => Promise<unknown>,
+  runs: number,
+): Promise<{ median_ms: number; p95_ms: number; runs: number }> {
   await fn();
   const t: number[] = [];
   for (let i = 0; i < runs; i++) {
@@ -21,10 +24,20 @@ async function timeAsync(fn: () => Promise<unknown>, runs: number): Promise<{ me
   return { median_ms: Math.round(rank(0.5)), p95_ms: Math.round(rank(0.95)), runs };
 }
 
-export async function benchReports(): Promise<{ name: string; median_ms: number; p95_ms: number; runs: number; target?: string }[]> {
+export async function benchReports(): Promise<
+  { name: string; median_ms: number; p95_ms: number; runs: number; target?: string }[]
+> {
   const input = syntheticReportInput({ participants: 1000, blunders: [3, 17, 400] });
   return [
-    { name: 'round workbook, 1,000 participants', ...(await timeAsync(() => buildRoundWorkbook(input), 5)), target: '≤ 2000 ms' },
-    { name: 'round PDF with charts, 1,000 participants', ...(await timeAsync(() => buildRoundReportPdf(input), 5)), target: '≤ 6000 ms' },
+    {
+      name: 'round workbook, 1,000 participants',
+      ...(await timeAsync(() => buildRoundWorkbook(input), 5)),
+      target: '≤ 2000 ms',
+    },
+    {
+      name: 'round PDF with charts, 1,000 participants',
+      ...(await timeAsync(() => buildRoundReportPdf(input), 5)),
+      target: '≤ 6000 ms',
+    },
   ];
 }

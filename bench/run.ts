@@ -15,7 +15,9 @@ export interface BenchRow {
 
 type Bench = { title: string; load: () => Promise<BenchRow[]> };
 
-const benches: Bench[] = [{ title: 'statistics engine', load: benchStats as () => Promise<BenchRow[]> }];
+const benches: Bench[] = [
+  { title: 'statistics engine', load: benchStats as () => Promise<BenchRow[]> },
+];
 
 async function optional(title: string, path: string, fn: string): Promise<void> {
   try {
@@ -42,9 +44,20 @@ async function main(): Promise<void> {
   }
   const fmt = (n: number) => (Number.isFinite(n) ? n.toFixed(2) : '—');
   const header = ['area', 'benchmark', 'median ms', 'p95 ms', 'runs', 'target', 'notes'];
-  const table = rows.map((r) => [r.area, r.name, fmt(r.median_ms), fmt(r.p95_ms), String(r.runs), r.target ?? '', r.extra ?? '']);
+  const table = rows.map((r) => [
+    r.area,
+    r.name,
+    fmt(r.median_ms),
+    fmt(r.p95_ms),
+    String(r.runs),
+    r.target ?? '',
+    r.extra ?? '',
+  ]);
   const widths = header.map((h, i) => Math.max(h.length, ...table.map((row) => row[i]!.length)));
-  const line = (cells: string[]) => cells.map((c, i) => (i >= 2 && i <= 4 ? c.padStart(widths[i]!) : c.padEnd(widths[i]!))).join('  ');
+  const line = (cells: string[]) =>
+    cells
+      .map((c, i) => (i >= 2 && i <= 4 ? c.padStart(widths[i]!) : c.padEnd(widths[i]!)))
+      .join('  ');
   console.log(line(header));
   console.log(widths.map((w) => '-'.repeat(w)).join('  '));
   for (const row of table) console.log(line(row));

@@ -33,7 +33,8 @@ const LOAD_SECONDS = 20;
 
 function row(name: string, l: number[], target?: string, extra?: string): RuntimeBenchRow {
   const t = [...l].sort((a, b) => a - b);
-  const rank = (q: number) => (t.length ? t[Math.min(t.length - 1, Math.max(0, Math.ceil(q * t.length) - 1))]! : NaN);
+  const rank = (q: number) =>
+    t.length ? t[Math.min(t.length - 1, Math.max(0, Math.ceil(q * t.length) - 1))]! : NaN;
   const r1 = (v: number) => Math.round(v * 10) / 10;
   return { name, median_ms: r1(rank(0.5)), p95_ms: r1(rank(0.95)), runs: l.length, target, extra };
 }
@@ -49,15 +50,42 @@ function freePort(): Promise<number> {
   });
 }
 
-interface Answer { status: number; headers: http.IncomingHttpHeaders; body: string }
-function call(port: number, agent: http.Agent | undefined, method: string, path: string, headers: Record<string, string> = {}, body?: string): Promise<Answer> {
+interface Answer {
+  status: number;
+  headers: http.IncomingHttpHeaders;
+  body: string;
+}
+function call(
+  port: number,
+  agent: http.Agent | undefined,
+  method: string,
+  path: string,
+  headers: Record<string, string> = {},
+  body?: string,
+): Promise<Answer> {
   return new Promise((resolve, reject) => {
-    const req = http.request({ host: '127.0.0.1', port, method, path, agent, headers: { ...headers, ...(body ? { 'content-type': 'application/json' } : {}) } }, (res) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks).toString('utf8') }));
-      res.on('error', reject);
-    });
+    const req = http.request(
+      {
+        host: '127.0.0.1',
+        port,
+        method,
+        path,
+        agent,
+        headers: { ...headers, ...(body ? { 'content-type': 'application/json' } : {}) },
+      },
+      (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () =>
+          resolve({
+            status: res.statusCode ?? 0,
+            headers: res.headers,
+            body: Buffer.concat(chunks).toString('utf8'),
+          }),
+        );
+        res.on('error', reject);
+      },
+    );
     req.on('error', reject);
     if (body) req.write(body);
     req.end();
@@ -65,13 +93,24 @@ function call(port: number, agent: http.Agent | undefined, method: string, path:
 }
 
 /** Starts the compiled server on the database; resolves with the port once /health answers 200. */
-async function startCompiled(url: string): Promise<{ child: ChildProcess; port: number; ms: number; phases: Record<string, number> }> {
+async function startCompiled(
+  url: string,
+): Promise<{ child: ChildProcess; port: number; ms: number; phases: Record<string, number> }> {
   const port = await freePort();
   const t0 = performance.now();
   const child = spawn(process.execPath, [join(ROOT, 'dist/api/server.js')], {
     cwd: ROOT,
     stdio: ['ignore', 'pipe', 'inherit'],
-    env: { ...process.env, DATABASE_URL: url, RINGLET_MODE: 'development', PORT: String(port), HOST: '127.0.0.1', LOG_LEVEL: 'info', TRUST_PROXY: 'true', NODE_ENV: 'production' },
+    env: {
+      ...process.env,
+      DATABASE_URL: url,
+      RINGLET_MODE: 'development',
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      LOG_LEVEL: 'info',
+      TRUST_PROXY: 'true',
+      NODE_ENV: 'production',
+    },
   });
   let exited = false;
   let out = '';
@@ -83,7 +122,10 @@ async function startCompiled(url: string): Promise<{ child: ChildProcess; port: 
   });
   child.on('exit', () => (exited = true));
   while (!exited && performance.now() - t0 < 90_000) {
-    const ok = await call(port, undefined, 'GET', '/api/v1/health').then((r) => r.status === 200, () => false);
+    const ok = await call(port, undefined, 'GET', '/api/v1/health').then(
+      (r) => r.status === 200,
+      () => false,
+    );
     if (ok) {
       const ms = performance.now() - t0;
       await new Promise((r) => setTimeout(r, 50)); // the listening line
@@ -94,7 +136,9 @@ async function startCompiled(url: string): Promise<{ child: ChildProcess; port: 
     await new Promise((r) => setTimeout(r, 5));
   }
   child.kill('SIGKILL');
-  throw new Error(`the compiled server did not become healthy within 90 s${exited ? ` (it exited ${child.exitCode})` : ''}: ${out}`);
+  throw new Error(
+    `the compiled server did not become healthy within 90 s${exited ? ` (it exited ${child.exitCode})` : ''}: ${out}`,
+  );
 }
 
 async function stop(child: ChildProcess): Promise<void> {
@@ -106,12 +150,24 @@ async function stop(child: ChildProcess): Promise<void> {
   });
 }
 
-async function signIn(port: number, agent: http.Agent, email: string, address: string): Promise<{ cookie: string; csrf: string }> {
+async function signIn(
+  port: number,
+  agent: http.Agent,
+  email: string,
+  address: string,
+): Promise<{ cookie: string; csrf: string }> {
   const xff = { 'x-forwarded-for': address };
   const t1 = await call(port, agent, 'GET', '/api/v1/auth/csrf-token', xff);
   let cookie = (t1.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
   const token = (JSON.parse(t1.body) as { token: string }).token;
-  const r = await call(port, agent, 'POST', '/api/v1/auth/sign-in', { ...xff, cookie, 'x-csrf-token': token }, JSON.stringify({ email, password: TEST_PASSWORD }));
+  const r = await call(
+    port,
+    agent,
+    'POST',
+    '/api/v1/auth/sign-in',
+    { ...xff, cookie, 'x-csrf-token': token },
+    JSON.stringify({ email, password: TEST_PASSWORD }),
+  );
   if (r.status !== 200) throw new Error(`sign-in ${email}: ${r.status} ${r.body}`);
   cookie = (r.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ') || cookie;
   const t2 = await call(port, agent, 'GET', '/api/v1/auth/csrf-token', { ...xff, cookie });
@@ -119,7 +175,10 @@ async function signIn(port: number, agent: http.Agent, email: string, address: s
 }
 
 export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
-  const build = spawnSync(process.execPath, [join(ROOT, 'scripts/server-build.mjs')], { cwd: ROOT, stdio: ['ignore', 'ignore', 'inherit'] });
+  const build = spawnSync(process.execPath, [join(ROOT, 'scripts/server-build.mjs')], {
+    cwd: ROOT,
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
   if (build.status !== 0) throw new Error('server build failed');
   const db = await createTestDatabase();
   let child: ChildProcess | undefined;
@@ -135,7 +194,12 @@ export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
       if (s.phases['modules'] !== undefined) modules.push(s.phases['modules']);
       await stop(s.child);
     }
-    const cold = row('cold start → first healthy answer (node dist/api/server.js)', starts, '≤ 1500 ms', `median module loading ${row('', modules).median_ms} ms (startupMs in the listening log line has every phase)`);
+    const cold = row(
+      'cold start → first healthy answer (node dist/api/server.js)',
+      starts,
+      '≤ 1500 ms',
+      `median module loading ${row('', modules).median_ms} ms (startupMs in the listening log line has every phase)`,
+    );
 
     // Load: a published 50-lab round (its board) and a collecting round (draft saves).
     const fx = await buildEvaluationFixture(db.ds, { participants: CLIENTS, seed: 7 });
@@ -151,12 +215,24 @@ export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
     const setup = new http.Agent({ keepAlive: true, maxSockets: 1 });
     const coord = await signIn(port, setup, 'coordinator@load.test', '10.9.0.1');
     for (const step of ['evaluation', 'evaluation/commit', 'publish']) {
-      const r = await call(port, setup, 'POST', `/api/v1/rounds/${fx.round.id}/${step}`, { cookie: coord.cookie, 'x-csrf-token': coord.csrf, 'x-forwarded-for': '10.9.0.1' }, '{}');
+      const r = await call(
+        port,
+        setup,
+        'POST',
+        `/api/v1/rounds/${fx.round.id}/${step}`,
+        { cookie: coord.cookie, 'x-csrf-token': coord.csrf, 'x-forwarded-for': '10.9.0.1' },
+        '{}',
+      );
       if (r.status >= 300) throw new Error(`${step}: ${r.status} ${r.body}`);
     }
     setup.destroy();
 
-    const lat = { signIn: [] as number[], board: [] as number[], draft: [] as number[], health: [] as number[] };
+    const lat = {
+      signIn: [] as number[],
+      board: [] as number[],
+      draft: [] as number[],
+      health: [] as number[],
+    };
     const errors: string[] = [];
     const draftBody = cleanResults(collecting);
     // All 50 sign in at once (each from its own address), then 20 s of board, draft save and /health.
@@ -192,7 +268,14 @@ export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
             lat.board.push(performance.now() - t0);
             if (b.status !== 200) errors.push(`board ${b.status}`);
             t0 = performance.now();
-            const d = await call(port, agent, 'PUT', `/api/v1/rounds/${collecting.round.id}/submission`, { ...h, 'x-csrf-token': session.csrf }, JSON.stringify({ data: draftBody, baseRevision: revision }));
+            const d = await call(
+              port,
+              agent,
+              'PUT',
+              `/api/v1/rounds/${collecting.round.id}/submission`,
+              { ...h, 'x-csrf-token': session.csrf },
+              JSON.stringify({ data: draftBody, baseRevision: revision }),
+            );
             lat.draft.push(performance.now() - t0);
             if (d.status !== 200) errors.push(`draft ${d.status} ${d.body.slice(0, 120)}`);
             else revision = (JSON.parse(d.body) as { draftRevision: number }).draftRevision;
@@ -213,10 +296,28 @@ export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
     const note = `${errors.length} errors of ${total} requests; load phase ${seconds.toFixed(0)} s${errors.length ? ` (first: ${errors[0]})` : ''}`;
     return [
       cold,
-      row(`load: sign-in, ${CLIENTS} clients at once (bcrypt cost 12)`, lat.signIn, '0 errors', note),
-      row(`load: GET /rounds/{id}/board (lab view, ${CLIENTS} labs), ${CLIENTS} clients, ${LOAD_SECONDS} s`, lat.board, '0 errors'),
-      row(`load: PUT /rounds/{id}/submission (draft save), ${CLIENTS} clients, ${LOAD_SECONDS} s`, lat.draft, '0 errors'),
-      row(`load: GET /health in the same run (trivial reference)`, lat.health, undefined, `${(lat.health.length / seconds).toFixed(0)} req/s`),
+      row(
+        `load: sign-in, ${CLIENTS} clients at once (bcrypt cost 12)`,
+        lat.signIn,
+        '0 errors',
+        note,
+      ),
+      row(
+        `load: GET /rounds/{id}/board (lab view, ${CLIENTS} labs), ${CLIENTS} clients, ${LOAD_SECONDS} s`,
+        lat.board,
+        '0 errors',
+      ),
+      row(
+        `load: PUT /rounds/{id}/submission (draft save), ${CLIENTS} clients, ${LOAD_SECONDS} s`,
+        lat.draft,
+        '0 errors',
+      ),
+      row(
+        `load: GET /health in the same run (trivial reference)`,
+        lat.health,
+        undefined,
+        `${(lat.health.length / seconds).toFixed(0)} req/s`,
+      ),
     ];
   } finally {
     if (child) await stop(child);

@@ -15,7 +15,13 @@ export interface Row {
   runs: number;
 }
 
-const SPEC = { participants: 1000, items: 2, measurands: 2, replicates: 3, seed: 20240601 } as const;
+const SPEC = {
+  participants: 1000,
+  items: 2,
+  measurands: 2,
+  replicates: 3,
+  seed: 20240601,
+} as const;
 
 /** Times `fn` `runs` times after `warmup` untimed calls; nearest-rank median and p95 in ms. */
 export function time(name: string, fn: () => unknown, runs = 100, warmup = 20): Row {
@@ -38,7 +44,9 @@ function round3(v: number): number {
 export async function benchStats(): Promise<Row[]> {
   const rows = syntheticRound(SPEC);
   const label = `${SPEC.participants}×${SPEC.items}×${SPEC.measurands}×${SPEC.replicates}`;
-  const out: Row[] = [time(`evaluate-round ${label} (Algorithm A, z, z′)`, () => evaluateRound(rows))];
+  const out: Row[] = [
+    time(`evaluate-round ${label} (Algorithm A, z, z′)`, () => evaluateRound(rows)),
+  ];
 
   if (existsSync(join(__dirname, '..', 'shared', 'stats', 'precision.ts'))) {
     const { precisionAnalysis } = await import('../shared/stats/precision');
@@ -52,9 +60,16 @@ export async function benchStats(): Promise<Row[]> {
       if (!vs) g.set(r.participant, (vs = []));
       vs.push(r.value);
     }
-    const levels = [...groups.values()].map((g) => [...g].map(([code, values]) => ({ code, values })));
+    const levels = [...groups.values()].map((g) =>
+      [...g].map(([code, values]) => ({ code, values })),
+    );
     out.push(
-      time(`precision analysis ${label} (ISO 5725-2, 4 levels)`, () => levels.map((cells) => precisionAnalysis(cells)), 30, 5),
+      time(
+        `precision analysis ${label} (ISO 5725-2, 4 levels)`,
+        () => levels.map((cells) => precisionAnalysis(cells)),
+        30,
+        5,
+      ),
     );
   }
   return out;

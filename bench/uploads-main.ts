@@ -3,7 +3,10 @@ import { benchUploads } from './uploads';
 
 void benchUploads().then(
   (rows) => {
-    for (const r of rows) console.log(`${r.name}\n  median ${r.median_ms} ms  p95 ${r.p95_ms} ms  runs ${r.runs}  ${r.target ?? ''}  ${r.extra ?? ''}`);
+    for (const r of rows)
+      console.log(
+        `${r.name}\n  median ${r.median_ms} ms  p95 ${r.p95_ms} ms  runs ${r.runs}  ${r.target ?? ''}  ${r.extra ?? ''}`,
+      );
     process.exit(0);
   },
   (err: unknown) => {

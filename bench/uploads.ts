@@ -35,25 +35,59 @@ interface Res {
   body: Buffer;
 }
 
-function send(port: number, agent: http.Agent, method: string, path: string, headers: Record<string, string>, body?: Buffer): Promise<Res> {
+function send(
+  port: number,
+  agent: http.Agent,
+  method: string,
+  path: string,
+  headers: Record<string, string>,
+  body?: Buffer,
+): Promise<Res> {
   return new Promise((resolve, reject) => {
-    const req = http.request({ host: '127.0.0.1', port, method, path, agent, headers: { ...headers, ...(body ? { 'content-length': String(body.length) } : {}) } }, (res) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks) }));
-      res.on('error', reject);
-    });
+    const req = http.request(
+      {
+        host: '127.0.0.1',
+        port,
+        method,
+        path,
+        agent,
+        headers: { ...headers, ...(body ? { 'content-length': String(body.length) } : {}) },
+      },
+      (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () =>
+          resolve({
+            status: res.statusCode ?? 0,
+            headers: res.headers,
+            body: Buffer.concat(chunks),
+          }),
+        );
+        res.on('error', reject);
+      },
+    );
     req.on('error', reject);
     if (body) req.write(body);
     req.end();
   });
 }
 
-async function signIn(port: number, agent: http.Agent, email: string): Promise<{ cookie: string; csrf: string }> {
+async function signIn(
+  port: number,
+  agent: http.Agent,
+  email: string,
+): Promise<{ cookie: string; csrf: string }> {
   const t1 = await send(port, agent, 'GET', '/api/v1/auth/csrf-token', {});
   let cookie = (t1.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
   const token = JSON.parse(t1.body.toString()).token as string;
-  const r = await send(port, agent, 'POST', '/api/v1/auth/sign-in', { cookie, 'x-csrf-token': token, 'content-type': 'application/json' }, Buffer.from(JSON.stringify({ email, password: 'correct horse battery' })));
+  const r = await send(
+    port,
+    agent,
+    'POST',
+    '/api/v1/auth/sign-in',
+    { cookie, 'x-csrf-token': token, 'content-type': 'application/json' },
+    Buffer.from(JSON.stringify({ email, password: 'correct horse battery' })),
+  );
   if (r.status !== 200) throw new Error(`sign-in ${email}: ${r.status} ${r.body.toString()}`);
   cookie = (r.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ') || cookie;
   const t2 = await send(port, agent, 'GET', '/api/v1/auth/csrf-token', { cookie });
@@ -63,7 +97,9 @@ async function signIn(port: number, agent: http.Agent, email: string): Promise<{
 function multipart(name: string, filename: string, data: Buffer): { body: Buffer; type: string } {
   const b = `----ringletbench${randomBytes(8).toString('hex')}`;
   const body = Buffer.concat([
-    Buffer.from(`--${b}\r\nContent-Disposition: form-data; name="${name}"; filename="${filename}"\r\nContent-Type: application/octet-stream\r\n\r\n`),
+    Buffer.from(
+      `--${b}\r\nContent-Disposition: form-data; name="${name}"; filename="${filename}"\r\nContent-Type: application/octet-stream\r\n\r\n`,
+    ),
     data,
     Buffer.from(`\r\n--${b}--\r\n`),
   ]);
@@ -78,8 +114,14 @@ function rssMb(pid: number): number {
 function startServer(url: string): Promise<{ child: ChildProcess; port: number }> {
   return new Promise((resolve, reject) => {
     // BENCH_CPU_PROF=<dir> writes the server's CPU profile there (node --cpu-prof) to find what blocks.
-    const prof = process.env['BENCH_CPU_PROF'] ? ['--cpu-prof', `--cpu-prof-dir=${process.env['BENCH_CPU_PROF']}`] : [];
-    const child = spawn(process.execPath, [...prof, '--import', 'tsx', join(__dirname, 'board-server.ts'), url], { stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, NODE_ENV: 'production' } });
+    const prof = process.env['BENCH_CPU_PROF']
+      ? ['--cpu-prof', `--cpu-prof-dir=${process.env['BENCH_CPU_PROF']}`]
+      : [];
+    const child = spawn(
+      process.execPath,
+      [...prof, '--import', 'tsx', join(__dirname, 'board-server.ts'), url],
+      { stdio: ['ignore', 'pipe', 'inherit'], env: { ...process.env, NODE_ENV: 'production' } },
+    );
     let out = '';
     child.stdout!.on('data', (c: Buffer) => {
       out += c.toString();
@@ -95,7 +137,18 @@ async function largestWorkbook(items: string[]): Promise<Buffer> {
   const limit = RESULTS_WORKBOOK_LIMIT;
   const wb = new ExcelJS.Workbook();
   const ws = wb.addWorksheet('Results');
-  ws.addRow(['Item', 'Measurand key', 'Measurand', 'Unit', 'Run 1', 'Run 2', 'Run 3', 'Uncertainty type', 'Uncertainty', 'k']);
+  ws.addRow([
+    'Item',
+    'Measurand key',
+    'Measurand',
+    'Unit',
+    'Run 1',
+    'Run 2',
+    'Run 3',
+    'Uncertainty type',
+    'Uncertainty',
+    'k',
+  ]);
   for (const code of items) {
     ws.addRow([code, 'z_average', 'Z-average', 'nm', 101, 102, 103, 'expanded', 2, 2]);
     ws.addRow([code, 'pdi', 'PDI', '1', 0.05, 0.06, 0.05, null, null, null]);
@@ -103,7 +156,8 @@ async function largestWorkbook(items: string[]): Promise<Buffer> {
   while (ws.rowCount < limit.maxRows) ws.addRow([null, null, null, null, 1, 2, 3, 4, 5, 6, 7, 8]);
   const notes = wb.addWorksheet('Notes');
   const perRow = Math.floor((limit.maxCells - 13_000) / limit.maxRows);
-  for (let r = 0; r < limit.maxRows; r++) notes.addRow(Array.from({ length: perRow }, () => randomBytes(36).toString('base64')));
+  for (let r = 0; r < limit.maxRows; r++)
+    notes.addRow(Array.from({ length: perRow }, () => randomBytes(36).toString('base64')));
   return Buffer.from(await wb.xlsx.writeBuffer());
 }
 
@@ -153,16 +207,27 @@ export async function benchUploads(): Promise<UploadBenchRow[]> {
     const upload = (path: string, field: string, name: string, data: Buffer) => {
       let m = bodies.get(data);
       if (!m) bodies.set(data, (m = multipart(field, name, data)));
-      return send(port, agent, 'POST', `/api/v1/rounds/${round.round.id}${path}`, { cookie: session.cookie, 'x-csrf-token': session.csrf, 'content-type': m.type }, m.body);
+      return send(
+        port,
+        agent,
+        'POST',
+        `/api/v1/rounds/${round.round.id}${path}`,
+        { cookie: session.cookie, 'x-csrf-token': session.csrf, 'content-type': m.type },
+        m.body,
+      );
     };
 
     process.stderr.write('  building the upload files…\n');
     const largest = await largestWorkbook(round.items.map((i) => i.code));
     const oneTooMany = await longWorkbook(RESULTS_WORKBOOK_LIMIT.maxRows + 1);
     const hundredK = await longWorkbook(100_000);
-    const oversize = Buffer.concat([hundredK, randomBytes(Math.max(0, 17.8 * 1024 * 1024 - hundredK.length))]);
+    const oversize = Buffer.concat([
+      hundredK,
+      randomBytes(Math.max(0, 17.8 * 1024 * 1024 - hundredK.length)),
+    ]);
     const csv = correlationCsv(19 * 1024 * 1024);
-    for (const b of [oneTooMany, hundredK, oversize, csv]) bodies.set(b, multipart('file', 'upload', b));
+    for (const b of [oneTooMany, hundredK, oversize, csv])
+      bodies.set(b, multipart('file', 'upload', b));
 
     // Warm-up: one health call and one upload so the worker code is compiled once (tsx caches it).
     await send(port, healthAgent, 'GET', '/api/v1/health', {});
@@ -171,7 +236,11 @@ export async function benchUploads(): Promise<UploadBenchRow[]> {
     const idleRss = rssMb(pid);
 
     const rows: UploadBenchRow[] = [];
-    const scenario = async (name: string, work: () => Promise<Res[]>, expect: number[]): Promise<void> => {
+    const scenario = async (
+      name: string,
+      work: () => Promise<Res[]>,
+      expect: number[],
+    ): Promise<void> => {
       let done = false;
       const latencies: number[] = [];
       let peak = rssMb(pid);
@@ -192,7 +261,9 @@ export async function benchUploads(): Promise<UploadBenchRow[]> {
       clearInterval(sampler);
       const statuses = results.map((r) => r.status);
       if (statuses.join() !== expect.join()) {
-        throw new Error(`${name}: status ${statuses.join()} (expected ${expect.join()}): ${results.map((r) => r.body.toString().slice(0, 300)).join(' | ')}`);
+        throw new Error(
+          `${name}: status ${statuses.join()} (expected ${expect.join()}): ${results.map((r) => r.body.toString().slice(0, 300)).join(' | ')}`,
+        );
       }
       const sorted = [...latencies].sort((a, b) => a - b);
       const r3 = (v: number) => Math.round(v * 1000) / 1000;
@@ -208,15 +279,39 @@ export async function benchUploads(): Promise<UploadBenchRow[]> {
     };
 
     const mb = (b: Buffer) => `${(b.length / 1024 / 1024).toFixed(2)} MB`;
-    await scenario('idle', async () => {
-      await new Promise((r) => setTimeout(r, 1000));
-      return [];
-    }, []);
-    await scenario(`largest allowed workbook (${RESULTS_WORKBOOK_LIMIT.maxRows} rows, ${mb(largest)})`, async () => [await upload('/submission/upload.xlsx', 'file', 'results.xlsx', largest)], [200]);
-    await scenario(`workbook one row over the limit (${mb(oneTooMany)})`, async () => [await upload('/submission/upload.xlsx', 'file', 'results.xlsx', oneTooMany)], [413]);
-    await scenario(`workbook of 100,000 rows (${mb(hundredK)})`, async () => [await upload('/submission/upload.xlsx', 'file', 'results.xlsx', hundredK)], [413]);
-    await scenario(`17.8 MB workbook upload`, async () => [await upload('/submission/upload.xlsx', 'file', 'results.xlsx', oversize)], [413]);
-    await scenario(`correlation CSV attachment (${mb(csv)}, limit ${ATTACHMENT_LIMIT.maxBytes / 1024 / 1024} MB)`, async () => [await upload('/submission/attachments', 'file', 'g2.csv', csv)], [201]);
+    await scenario(
+      'idle',
+      async () => {
+        await new Promise((r) => setTimeout(r, 1000));
+        return [];
+      },
+      [],
+    );
+    await scenario(
+      `largest allowed workbook (${RESULTS_WORKBOOK_LIMIT.maxRows} rows, ${mb(largest)})`,
+      async () => [await upload('/submission/upload.xlsx', 'file', 'results.xlsx', largest)],
+      [200],
+    );
+    await scenario(
+      `workbook one row over the limit (${mb(oneTooMany)})`,
+      async () => [await upload('/submission/upload.xlsx', 'file', 'results.xlsx', oneTooMany)],
+      [413],
+    );
+    await scenario(
+      `workbook of 100,000 rows (${mb(hundredK)})`,
+      async () => [await upload('/submission/upload.xlsx', 'file', 'results.xlsx', hundredK)],
+      [413],
+    );
+    await scenario(
+      `17.8 MB workbook upload`,
+      async () => [await upload('/submission/upload.xlsx', 'file', 'results.xlsx', oversize)],
+      [413],
+    );
+    await scenario(
+      `correlation CSV attachment (${mb(csv)}, limit ${ATTACHMENT_LIMIT.maxBytes / 1024 / 1024} MB)`,
+      async () => [await upload('/submission/attachments', 'file', 'g2.csv', csv)],
+      [201],
+    );
     await scenario(
       'two largest workbooks and the 19 MB CSV at once',
       () =>
@@ -228,7 +323,13 @@ export async function benchUploads(): Promise<UploadBenchRow[]> {
       [200, 200, 201],
     );
     const hwm = /VmHWM:\s+(\d+) kB/.exec(readFileSync(`/proc/${pid}/status`, 'utf8'));
-    rows.push({ name: 'server RSS high-water mark over the whole run (VmHWM)', median_ms: NaN, p95_ms: NaN, runs: 1, extra: `${hwm ? (Number(hwm[1]) / 1024).toFixed(0) : '?'} MB` });
+    rows.push({
+      name: 'server RSS high-water mark over the whole run (VmHWM)',
+      median_ms: NaN,
+      p95_ms: NaN,
+      runs: 1,
+      extra: `${hwm ? (Number(hwm[1]) / 1024).toFixed(0) : '?'} MB`,
+    });
     return rows;
   } finally {
     if (child && child.exitCode === null) {

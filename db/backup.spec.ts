@@ -4,7 +4,14 @@ import { join } from 'node:path';
 import request from 'supertest';
 import { createApp } from '../api/src/app';
 import { buildEvaluationFixture } from '../api/src/testing/evaluation-fixtures';
-import { createUser, signedIn, startTestApp, testConfig, TEST_PASSWORD, type TestApp } from '../api/src/testing/test-app';
+import {
+  createUser,
+  signedIn,
+  startTestApp,
+  testConfig,
+  TEST_PASSWORD,
+  type TestApp,
+} from '../api/src/testing/test-app';
 import { backupDatabase, restoreDatabase } from './backup';
 import { createDataSource } from './data-source';
 import { createEmptyDatabase } from './testing';
@@ -25,7 +32,11 @@ describe('backup and restore', () => {
     await createUser(t.ds, { email: 'coord@backup.test', roles: ['coordinator'] });
     const coord = await signedIn(t, 'coord@backup.test');
     const post = (p: string, status: number) =>
-      coord.agent.post(`/api/v1/rounds/${roundId}${p}`).set('x-csrf-token', coord.csrf).send({}).expect(status);
+      coord.agent
+        .post(`/api/v1/rounds/${roundId}${p}`)
+        .set('x-csrf-token', coord.csrf)
+        .send({})
+        .expect(status);
     await post('/evaluation', 201);
     await post('/evaluation/commit', 200);
     await post('/publish', 200);
@@ -34,7 +45,10 @@ describe('backup and restore', () => {
        WHERE e.round_id = $1 AND e.state = 'published' ORDER BY r.item_code, r.measurand_key`,
       [roundId],
     );
-    published = { assigned: rows.map((r) => r.assigned_value), publishedAt: rows[0]!.published_at.toISOString() };
+    published = {
+      assigned: rows.map((r) => r.assigned_value),
+      publishedAt: rows[0]!.published_at.toISOString(),
+    };
   });
   afterAll(async () => {
     await t.close();
@@ -53,25 +67,39 @@ describe('backup and restore', () => {
       // The restored database, read as the runtime role through the real app.
       const ds = await createDataSource(fresh.url).initialize();
       try {
-        const rows: { assigned_value: number; published_at: Date; state: string }[] = await ds.query(
-          `SELECT r.assigned_value, e.published_at, e.state FROM evaluation e JOIN evaluation_result r ON r.evaluation_id = e.id
+        const rows: { assigned_value: number; published_at: Date; state: string }[] =
+          await ds.query(
+            `SELECT r.assigned_value, e.published_at, e.state FROM evaluation e JOIN evaluation_result r ON r.evaluation_id = e.id
            WHERE e.round_id = $1 ORDER BY r.item_code, r.measurand_key`,
-          [roundId],
-        );
+            [roundId],
+          );
         expect(rows.map((r) => r.assigned_value)).toEqual(published.assigned);
-        expect(rows.every((r) => r.state === 'published' && r.published_at.toISOString() === published.publishedAt)).toBe(true);
+        expect(
+          rows.every(
+            (r) =>
+              r.state === 'published' && r.published_at.toISOString() === published.publishedAt,
+          ),
+        ).toBe(true);
         // the append-only guard came back with the data
-        await expect(ds.query(`UPDATE evaluation SET published_at = now() WHERE round_id = $1`, [roundId])).rejects.toThrow(/immutable/);
+        await expect(
+          ds.query(`UPDATE evaluation SET published_at = now() WHERE round_id = $1`, [roundId]),
+        ).rejects.toThrow(/immutable/);
 
         const app = createApp({ ds, config: testConfig(), mailer: t.mailer, log: () => undefined });
         const agent = request.agent(app.app);
         const csrf = (await agent.get('/api/v1/auth/csrf-token').expect(200)).body.token as string;
-        await agent.post('/api/v1/auth/sign-in').set('x-csrf-token', csrf).send({ email: 'coord@backup.test', password: TEST_PASSWORD }).expect(200);
+        await agent
+          .post('/api/v1/auth/sign-in')
+          .set('x-csrf-token', csrf)
+          .send({ email: 'coord@backup.test', password: TEST_PASSWORD })
+          .expect(200);
         const round = await agent.get(`/api/v1/rounds/${roundId}`).expect(200);
         expect(round.body.state).toBe('published');
         const ev = await agent.get(`/api/v1/rounds/${roundId}/evaluation`).expect(200);
         expect(ev.body.state).toBe('published');
-        expect(ev.body.results.map((r: { assignedValue: number }) => r.assignedValue).sort()).toEqual([...published.assigned].sort());
+        expect(
+          ev.body.results.map((r: { assignedValue: number }) => r.assignedValue).sort(),
+        ).toEqual([...published.assigned].sort());
       } finally {
         await ds.destroy();
       }

@@ -7,7 +7,9 @@ import { migrateDatabase } from './migrate';
 export function pgTool(name: 'pg_dump' | 'pg_restore' | 'psql'): string {
   const root = '/usr/lib/postgresql';
   if (existsSync(root)) {
-    const versions = readdirSync(root).filter((v) => /^\d+$/.test(v)).sort((a, b) => Number(b) - Number(a));
+    const versions = readdirSync(root)
+      .filter((v) => /^\d+$/.test(v))
+      .sort((a, b) => Number(b) - Number(a));
     for (const v of versions) {
       const p = join(root, v, 'bin', name);
       if (existsSync(p)) return p;
@@ -23,7 +25,16 @@ function connection(url: string): { args: string[]; env: NodeJS.ProcessEnv } {
   const sslmode = u.searchParams.get('sslmode');
   if (sslmode) env['PGSSLMODE'] = sslmode;
   return {
-    args: ['-h', u.hostname, '-p', u.port || '5432', '-U', decodeURIComponent(u.username), '-d', decodeURIComponent(u.pathname.slice(1))],
+    args: [
+      '-h',
+      u.hostname,
+      '-p',
+      u.port || '5432',
+      '-U',
+      decodeURIComponent(u.username),
+      '-d',
+      decodeURIComponent(u.pathname.slice(1)),
+    ],
     env,
   };
 }
@@ -34,7 +45,9 @@ function run(cmd: string, args: string[], env: NodeJS.ProcessEnv): Promise<void>
     let err = '';
     child.stderr.on('data', (d: Buffer) => (err += d.toString()));
     child.on('error', reject);
-    child.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`${cmd} exited ${code}: ${err.trim()}`))));
+    child.on('exit', (code) =>
+      code === 0 ? resolve() : reject(new Error(`${cmd} exited ${code}: ${err.trim()}`)),
+    );
   });
 }
 
@@ -45,7 +58,11 @@ function run(cmd: string, args: string[], env: NodeJS.ProcessEnv): Promise<void>
  */
 export async function backupDatabase(ownerUrl: string, file: string): Promise<void> {
   const c = connection(ownerUrl);
-  await run(pgTool('pg_dump'), [...c.args, '--format=custom', '--no-owner', '--no-privileges', '--file', file], c.env);
+  await run(
+    pgTool('pg_dump'),
+    [...c.args, '--format=custom', '--no-owner', '--no-privileges', '--file', file],
+    c.env,
+  );
 }
 
 /**
@@ -59,11 +76,19 @@ export async function restoreDatabase(ownerUrl: string, file: string): Promise<v
   const c = connection(ownerUrl);
   // pg_restore writes the restore as SQL; psql runs it after the drop inside one transaction, which
   // is committed only when pg_restore read the whole file (else psql is killed: nothing changes).
-  const psql = spawn(pgTool('psql'), [...c.args, '--quiet', '-v', 'ON_ERROR_STOP=1', '--file', '-'], {
-    env: c.env,
-    stdio: ['pipe', 'ignore', 'pipe'],
-  });
-  const restore = spawn(pgTool('pg_restore'), ['--no-owner', '--no-privileges', '--file', '-', file], { env: c.env, stdio: ['ignore', 'pipe', 'pipe'] });
+  const psql = spawn(
+    pgTool('psql'),
+    [...c.args, '--quiet', '-v', 'ON_ERROR_STOP=1', '--file', '-'],
+    {
+      env: c.env,
+      stdio: ['pipe', 'ignore', 'pipe'],
+    },
+  );
+  const restore = spawn(
+    pgTool('pg_restore'),
+    ['--no-owner', '--no-privileges', '--file', '-', file],
+    { env: c.env, stdio: ['ignore', 'pipe', 'pipe'] },
+  );
   let err = '';
   psql.stderr!.on('data', (d: Buffer) => (err += d.toString()));
   restore.stderr!.on('data', (d: Buffer) => (err += d.toString()));
@@ -74,10 +99,14 @@ export async function restoreDatabase(ownerUrl: string, file: string): Promise<v
     });
   const psqlDone = exited(psql);
   psql.stdin!.on('error', () => undefined); // psql stopped on an error: its exit code tells
-  psql.stdin!.write('BEGIN;\nDROP SCHEMA IF EXISTS pgboss CASCADE;\nDROP SCHEMA IF EXISTS public CASCADE;\nCREATE SCHEMA public;\n');
+  psql.stdin!.write(
+    'BEGIN;\nDROP SCHEMA IF EXISTS pgboss CASCADE;\nDROP SCHEMA IF EXISTS public CASCADE;\nCREATE SCHEMA public;\n',
+  );
   restore.stdout!.pipe(psql.stdin!, { end: false });
   const restoreCode = await exited(restore);
-  await new Promise<void>((resolve) => (restore.stdout!.readableEnded ? resolve() : restore.stdout!.once('end', () => resolve())));
+  await new Promise<void>((resolve) =>
+    restore.stdout!.readableEnded ? resolve() : restore.stdout!.once('end', () => resolve()),
+  );
   if (restoreCode !== 0) {
     psql.kill('SIGKILL');
     await psqlDone;

@@ -35,7 +35,10 @@ async function main(cmd: string | undefined, arg: string | undefined): Promise<v
       const c = new Client({ connectionString: maintenanceUrl(adminDatabaseUrl()) });
       await c.connect();
       await c.query(`DROP DATABASE IF EXISTS "${name}" WITH (FORCE)`);
-      const owner = await c.query(`SELECT 1 FROM pg_roles WHERE rolname = $1 AND rolname <> current_user`, [OWNER_ROLE]);
+      const owner = await c.query(
+        `SELECT 1 FROM pg_roles WHERE rolname = $1 AND rolname <> current_user`,
+        [OWNER_ROLE],
+      );
       await c.query(`CREATE DATABASE "${name}"${owner.rowCount ? ` OWNER ${OWNER_ROLE}` : ''}`);
       await c.end();
       await migrateDatabase(url);
@@ -48,13 +51,19 @@ async function main(cmd: string | undefined, arg: string | undefined): Promise<v
     case 'template': {
       const stale = await dropStaleTestDatabases();
       await buildTemplate();
-      console.log(`test template database ready${stale ? ` (dropped ${stale} stale test databases)` : ''}`);
+      console.log(
+        `test template database ready${stale ? ` (dropped ${stale} stale test databases)` : ''}`,
+      );
       return;
     }
     case 'backup': {
-      const file = arg || `ringlet-${new Date().toISOString().slice(0, 19).replace(/[-:]/g, '').replace('T', '-')}.dump`;
+      const file =
+        arg ||
+        `ringlet-${new Date().toISOString().slice(0, 19).replace(/[-:]/g, '').replace('T', '-')}.dump`;
       await backupDatabase(url, file);
-      console.log(`backup of ${databaseName(url)} written to ${file} (restore: npm run db:restore ${file})`);
+      console.log(
+        `backup of ${databaseName(url)} written to ${file} (restore: npm run db:restore ${file})`,
+      );
       return;
     }
     case 'restore': {

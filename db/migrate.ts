@@ -33,7 +33,13 @@ const MIGRATION_LOCK = '32204070247490932';
 
 /** Installs or upgrades pg-boss's schema without starting its maintenance or cron. */
 export async function installJobSchema(ownerUrl: string): Promise<void> {
-  const boss = new PgBoss({ connectionString: ownerUrl, schema: JOB_SCHEMA, max: 1, supervise: false, schedule: false });
+  const boss = new PgBoss({
+    connectionString: ownerUrl,
+    schema: JOB_SCHEMA,
+    max: 1,
+    supervise: false,
+    schedule: false,
+  });
   boss.on('error', () => undefined);
   await boss.start();
   await boss.stop({ graceful: false, wait: true, timeout: 1000 });
@@ -53,9 +59,13 @@ export async function grantRuntimeRole(ds: DataSource, role = RUNTIME_ROLE): Pro
   const me: { current_user: string }[] = await ds.query(`SELECT current_user`);
   if (exists.length === 0 || me[0]?.current_user === role) return false;
   const r = `"${role.replace(/"/g, '""')}"`;
-  await ds.query(`GRANT CONNECT ON DATABASE "${(await currentDatabase(ds)).replace(/"/g, '""')}" TO ${r}`);
+  await ds.query(
+    `GRANT CONNECT ON DATABASE "${(await currentDatabase(ds)).replace(/"/g, '""')}" TO ${r}`,
+  );
   for (const schema of ['public', JOB_SCHEMA]) {
-    const has: unknown[] = await ds.query(`SELECT 1 FROM pg_namespace WHERE nspname = $1`, [schema]);
+    const has: unknown[] = await ds.query(`SELECT 1 FROM pg_namespace WHERE nspname = $1`, [
+      schema,
+    ]);
     if (has.length === 0) continue;
     await ds.query(`
       GRANT USAGE ON SCHEMA ${schema} TO ${r};
@@ -66,11 +76,18 @@ export async function grantRuntimeRole(ds: DataSource, role = RUNTIME_ROLE): Pro
       ALTER DEFAULT PRIVILEGES IN SCHEMA ${schema} GRANT USAGE, SELECT ON SEQUENCES TO ${r};
     `);
   }
-  const createQueue: unknown[] = await ds.query(`SELECT 1 FROM pg_proc p JOIN pg_namespace n ON n.oid = p.pronamespace
-    WHERE n.nspname = $1 AND p.proname = 'create_queue'`, [JOB_SCHEMA]);
+  const createQueue: unknown[] = await ds.query(
+    `SELECT 1 FROM pg_proc p JOIN pg_namespace n ON n.oid = p.pronamespace
+    WHERE n.nspname = $1 AND p.proname = 'create_queue'`,
+    [JOB_SCHEMA],
+  );
   if (createQueue.length) {
-    await ds.query(`ALTER FUNCTION ${JOB_SCHEMA}.create_queue(text, json) SECURITY DEFINER SET search_path = pg_catalog, pg_temp`);
-    await ds.query(`ALTER FUNCTION ${JOB_SCHEMA}.delete_queue(text) SECURITY DEFINER SET search_path = pg_catalog, pg_temp`);
+    await ds.query(
+      `ALTER FUNCTION ${JOB_SCHEMA}.create_queue(text, json) SECURITY DEFINER SET search_path = pg_catalog, pg_temp`,
+    );
+    await ds.query(
+      `ALTER FUNCTION ${JOB_SCHEMA}.delete_queue(text) SECURITY DEFINER SET search_path = pg_catalog, pg_temp`,
+    );
   }
   return true;
 }

@@ -21,7 +21,11 @@ describe('database roles: the server cannot alter submitted or published results
     await createUser(t.ds, { email: 'coord@roles.test', roles: ['coordinator'] });
     const coord = await signedIn(t, 'coord@roles.test');
     const post = (p: string, status: number) =>
-      coord.agent.post(`/api/v1/rounds/${roundId}${p}`).set('x-csrf-token', coord.csrf).send({}).expect(status);
+      coord.agent
+        .post(`/api/v1/rounds/${roundId}${p}`)
+        .set('x-csrf-token', coord.csrf)
+        .send({})
+        .expect(status);
     await post('/evaluation', 201);
     await post('/evaluation/commit', 200);
     await post('/publish', 200);
@@ -44,7 +48,14 @@ describe('database roles: the server cannot alter submitted or published results
               has_schema_privilege('public', 'CREATE') AS can_create
        FROM pg_roles r WHERE r.rolname = current_user`,
     );
-    expect(me).toEqual({ name: RUNTIME_ROLE, rolsuper: false, rolcreatedb: false, rolcreaterole: false, rolbypassrls: false, can_create: false });
+    expect(me).toEqual({
+      name: RUNTIME_ROLE,
+      rolsuper: false,
+      rolcreatedb: false,
+      rolcreaterole: false,
+      rolbypassrls: false,
+      can_create: false,
+    });
     await expect(q(`CREATE TABLE public.sneaky (x int)`)).rejects.toThrow(/permission denied/);
     await expect(q(`DROP TABLE submission_version`)).rejects.toThrow(/must be owner/);
   });
@@ -52,10 +63,18 @@ describe('database roles: the server cannot alter submitted or published results
   it('cannot change, delete or truncate a submitted version of results', async () => {
     const before = await versions();
     expect(before.length).toBeGreaterThanOrEqual(6);
-    await expect(q(`UPDATE submission_version SET data = '{}'::jsonb WHERE id = $1`, [before[0]!.id])).rejects.toThrow(/immutable/);
-    await expect(q(`UPDATE submission_version SET submitted_at = now() - interval '1 year'`)).rejects.toThrow(/immutable/);
-    await expect(q(`DELETE FROM submission_version WHERE id = $1`, [before[0]!.id])).rejects.toThrow(/immutable/);
-    await expect(q(`TRUNCATE submission_version CASCADE`)).rejects.toThrow(/permission denied|immutable/);
+    await expect(
+      q(`UPDATE submission_version SET data = '{}'::jsonb WHERE id = $1`, [before[0]!.id]),
+    ).rejects.toThrow(/immutable/);
+    await expect(
+      q(`UPDATE submission_version SET submitted_at = now() - interval '1 year'`),
+    ).rejects.toThrow(/immutable/);
+    await expect(
+      q(`DELETE FROM submission_version WHERE id = $1`, [before[0]!.id]),
+    ).rejects.toThrow(/immutable/);
+    await expect(q(`TRUNCATE submission_version CASCADE`)).rejects.toThrow(
+      /permission denied|immutable/,
+    );
     expect(await versions()).toEqual(before);
   });
 
@@ -66,25 +85,50 @@ describe('database roles: the server cannot alter submitted or published results
       ['evaluation_result', 'evaluation_result_immutable'],
       ['audit_event', 'audit_event_no_change'],
     ] as const) {
-      await expect(q(`ALTER TABLE ${table} DISABLE TRIGGER ${trigger}`)).rejects.toThrow(/must be owner/);
+      await expect(q(`ALTER TABLE ${table} DISABLE TRIGGER ${trigger}`)).rejects.toThrow(
+        /must be owner/,
+      );
       await expect(q(`ALTER TABLE ${table} DISABLE TRIGGER ALL`)).rejects.toThrow(/must be owner/);
       await expect(q(`DROP TRIGGER ${trigger} ON ${table}`)).rejects.toThrow(/must be owner/);
     }
     await expect(q(`SET session_replication_role = replica`)).rejects.toThrow(/permission denied/);
-    await expect(q(`CREATE OR REPLACE FUNCTION submission_version_append_only() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN RETURN NEW; END $$`)).rejects.toThrow(
-      /must be owner|permission denied/,
-    );
+    await expect(
+      q(
+        `CREATE OR REPLACE FUNCTION submission_version_append_only() RETURNS trigger LANGUAGE plpgsql AS $$ BEGIN RETURN NEW; END $$`,
+      ),
+    ).rejects.toThrow(/must be owner|permission denied/);
   });
 
   it('cannot change or delete a published evaluation or its results', async () => {
-    const [before] = await q(`SELECT id, state, published_at, board::text AS board FROM evaluation WHERE round_id = $1 AND state = 'published'`, [roundId]);
+    const [before] = await q(
+      `SELECT id, state, published_at, board::text AS board FROM evaluation WHERE round_id = $1 AND state = 'published'`,
+      [roundId],
+    );
     expect(before.state).toBe('published');
-    await expect(q(`UPDATE evaluation SET published_at = now() - interval '1 year' WHERE id = $1`, [before.id])).rejects.toThrow(/immutable/);
-    await expect(q(`DELETE FROM evaluation WHERE id = $1`, [before.id])).rejects.toThrow(/immutable/);
-    await expect(q(`UPDATE evaluation_result SET assigned_value = assigned_value * 2 WHERE evaluation_id = $1`, [before.id])).rejects.toThrow(/immutable/);
-    await expect(q(`DELETE FROM evaluation_result WHERE evaluation_id = $1`, [before.id])).rejects.toThrow(/immutable/);
-    await expect(q(`TRUNCATE evaluation CASCADE`)).rejects.toThrow(/permission denied|cannot be truncated/);
-    const [after] = await q(`SELECT id, state, published_at, board::text AS board FROM evaluation WHERE id = $1`, [before.id]);
+    await expect(
+      q(`UPDATE evaluation SET published_at = now() - interval '1 year' WHERE id = $1`, [
+        before.id,
+      ]),
+    ).rejects.toThrow(/immutable/);
+    await expect(q(`DELETE FROM evaluation WHERE id = $1`, [before.id])).rejects.toThrow(
+      /immutable/,
+    );
+    await expect(
+      q(
+        `UPDATE evaluation_result SET assigned_value = assigned_value * 2 WHERE evaluation_id = $1`,
+        [before.id],
+      ),
+    ).rejects.toThrow(/immutable/);
+    await expect(
+      q(`DELETE FROM evaluation_result WHERE evaluation_id = $1`, [before.id]),
+    ).rejects.toThrow(/immutable/);
+    await expect(q(`TRUNCATE evaluation CASCADE`)).rejects.toThrow(
+      /permission denied|cannot be truncated/,
+    );
+    const [after] = await q(
+      `SELECT id, state, published_at, board::text AS board FROM evaluation WHERE id = $1`,
+      [before.id],
+    );
     expect(after).toEqual(before);
   });
 
@@ -94,15 +138,21 @@ describe('database roles: the server cannot alter submitted or published results
     try {
       expect(new URL(ownerDatabaseUrl()).username).not.toBe(RUNTIME_ROLE);
       await owner.query('BEGIN');
-      await owner.query(`ALTER TABLE submission_version DISABLE TRIGGER submission_version_no_change`);
-      const r = await owner.query(`UPDATE submission_version SET note = 'owner' WHERE id IN (SELECT id FROM submission_version LIMIT 1)`);
+      await owner.query(
+        `ALTER TABLE submission_version DISABLE TRIGGER submission_version_no_change`,
+      );
+      const r = await owner.query(
+        `UPDATE submission_version SET note = 'owner' WHERE id IN (SELECT id FROM submission_version LIMIT 1)`,
+      );
       expect(r.rowCount).toBe(1);
       await owner.query('ROLLBACK');
     } finally {
       await owner.end();
     }
     expect((await versions()).some((v) => v.data === null)).toBe(false);
-    const [{ n }] = await q(`SELECT count(*)::int AS n FROM submission_version WHERE note = 'owner'`);
+    const [{ n }] = await q(
+      `SELECT count(*)::int AS n FROM submission_version WHERE note = 'owner'`,
+    );
     expect(n).toBe(0);
   });
 });

@@ -50,7 +50,9 @@ export interface TestDatabase {
 /** A fresh database for one test file, cloned from the template in a few tens of milliseconds. */
 export async function createTestDatabase(): Promise<TestDatabase> {
   const name = `ringlet_t_${randomBytes(6).toString('hex')}`;
-  await admin(async (c) => c.query(`CREATE DATABASE ${name} TEMPLATE ${TEMPLATE_DB}${await ownerClause(c)}`));
+  await admin(async (c) =>
+    c.query(`CREATE DATABASE ${name} TEMPLATE ${TEMPLATE_DB}${await ownerClause(c)}`),
+  );
   const dbUrl = withDatabase(databaseUrl(), name);
   const ds = createDataSource(dbUrl);
   await ds.initialize();
@@ -68,7 +70,9 @@ export async function createTestDatabase(): Promise<TestDatabase> {
 /** An empty database (no schema) owned by the owner role, e.g. to restore a backup into. */
 export async function createEmptyDatabase(): Promise<Omit<TestDatabase, 'ds'>> {
   const name = `ringlet_t_${randomBytes(6).toString('hex')}`;
-  await admin(async (c) => c.query(`CREATE DATABASE ${name} TEMPLATE template0${await ownerClause(c)}`));
+  await admin(async (c) =>
+    c.query(`CREATE DATABASE ${name} TEMPLATE template0${await ownerClause(c)}`),
+  );
   return {
     url: withDatabase(databaseUrl(), name),
     ownerUrl: withDatabase(ownerDatabaseUrl(), name),
@@ -81,7 +85,9 @@ export async function createEmptyDatabase(): Promise<Omit<TestDatabase, 'ds'>> {
 /** Drops test databases left by interrupted runs. */
 export async function dropStaleTestDatabases(): Promise<number> {
   return admin(async (c) => {
-    const { rows } = await c.query<{ datname: string }>(`SELECT datname FROM pg_database WHERE datname LIKE 'ringlet\\_t\\_%'`);
+    const { rows } = await c.query<{ datname: string }>(
+      `SELECT datname FROM pg_database WHERE datname LIKE 'ringlet\\_t\\_%'`,
+    );
     for (const r of rows) await c.query(`DROP DATABASE IF EXISTS ${r.datname} WITH (FORCE)`);
     return rows.length;
   });

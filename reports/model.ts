@@ -109,14 +109,25 @@ export interface RoundReportInput {
 }
 
 export const NO_PROVIDER: ReportProviderInfo = {
-  name: '', address: '', contactEmail: '', contactPhone: '', website: '', accreditationBody: '', accreditationNumber: '',
-  authoriserName: '', authoriserRole: '', subcontracting: '', logo: null,
+  name: '',
+  address: '',
+  contactEmail: '',
+  contactPhone: '',
+  website: '',
+  accreditationBody: '',
+  accreditationNumber: '',
+  authoriserName: '',
+  authoriserRole: '',
+  subcontracting: '',
+  logo: null,
 };
 
 /** The report's status as ISO/IEC 17043 asks it to be stated: final, corrected (replacing a version) or a preview. */
 export function reportStatusWords(e: ReportEvaluation): string {
-  if (e.state !== 'published') return `Preview (evaluation ${e.state === 'committed' ? 'approved for publication' : 'draft'}, not issued)`;
-  if (e.version > 1 || e.reissueReason) return `Corrected report: version ${e.version}, replaces version ${e.version - 1}`;
+  if (e.state !== 'published')
+    return `Preview (evaluation ${e.state === 'committed' ? 'approved for publication' : 'draft'}, not issued)`;
+  if (e.version > 1 || e.reissueReason)
+    return `Corrected report: version ${e.version}, replaces version ${e.version - 1}`;
   return `Final report, version ${e.version}`;
 }
 
@@ -138,8 +149,11 @@ export function recordChecksum(input: RoundReportInput): string {
   const h = createHash('sha256');
   h.update(`${input.evaluation.id}/${input.evaluation.version}\n`);
   for (const g of input.groups) {
-    h.update(`${g.itemCode}/${g.measurandKey}/${g.n}/${g.assignedValue}/${g.uAssigned}/${g.sigmaPt}/${g.method}\n`);
-    for (const p of g.participants) h.update(`${p.code}:${p.result}:${p.z}:${p.zPrime}:${p.zeta}:${p.en}:${p.signal ?? ''}\n`);
+    h.update(
+      `${g.itemCode}/${g.measurandKey}/${g.n}/${g.assignedValue}/${g.uAssigned}/${g.sigmaPt}/${g.method}\n`,
+    );
+    for (const p of g.participants)
+      h.update(`${p.code}:${p.result}:${p.z}:${p.zPrime}:${p.zeta}:${p.en}:${p.signal ?? ''}\n`);
   }
   return h.digest('hex');
 }

@@ -56,10 +56,13 @@ export const SIGNAL_COLOURS: Record<'acceptable' | 'warning' | 'action', string>
  * specific message). Keys are shared/stats BlunderCode values.
  */
 export const HINT_WORDS: Record<string, string> = {
-  'radius-diameter': 'result about half or twice the assigned value: a radius may have been reported as a diameter, or the reverse',
+  'radius-diameter':
+    'result about half or twice the assigned value: a radius may have been reported as a diameter, or the reverse',
   'unit-slip': 'result off by a power of ten: a unit may have slipped (nm, µm)',
-  'viscosity-temperature': 'result off by the ratio of water viscosities at two temperatures: the dispersant viscosity or the temperature may not match the measurement',
-  'dust-aggregates': 'result above the assigned value with a high PDI: dust or aggregates may have been in the sample',
+  'viscosity-temperature':
+    'result off by the ratio of water viscosities at two temperatures: the dispersant viscosity or the temperature may not match the measurement',
+  'dust-aggregates':
+    'result above the assigned value with a high PDI: dust or aggregates may have been in the sample',
 };
 
 export function hintWords(code: string): string {

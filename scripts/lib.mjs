@@ -30,7 +30,8 @@ export function newestMtime(paths) {
     if (!existsSync(p)) return;
     const s = statSync(p);
     if (s.isDirectory()) {
-      for (const e of readdirSync(p)) if (e !== 'node_modules' && !e.startsWith('.')) walk(join(p, e));
+      for (const e of readdirSync(p))
+        if (e !== 'node_modules' && !e.startsWith('.')) walk(join(p, e));
     } else if (!p.endsWith('.spec.ts')) newest = Math.max(newest, s.mtimeMs);
   };
   for (const p of paths) walk(join(root, p));
@@ -41,7 +42,14 @@ export function newestMtime(paths) {
 export function buildWebIfStale() {
   const index = join(root, 'dist/web/browser/index.html');
   const built = existsSync(index) ? statSync(index).mtimeMs : 0;
-  const sources = newestMtime(['web/src', 'shared', 'angular.json', 'tsconfig.json', 'web/tsconfig.app.json', 'package-lock.json']);
+  const sources = newestMtime([
+    'web/src',
+    'shared',
+    'angular.json',
+    'tsconfig.json',
+    'web/tsconfig.app.json',
+    'package-lock.json',
+  ]);
   if (built > sources && !process.env.RINGLET_FORCE_BUILD) {
     log('web app is up to date (dist/web)');
     return;
@@ -65,9 +73,14 @@ export function ensureChromium() {
   if (existsSync(path)) return;
   if (process.getuid?.() === 0) {
     log("chromium not found; installing Debian's chromium package…");
-    run('bash', ['-c', 'apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium']);
+    run('bash', [
+      '-c',
+      'apt-get update -qq && DEBIAN_FRONTEND=noninteractive apt-get install -y -qq chromium',
+    ]);
   } else {
-    console.error(`[ringlet] chromium not found at ${path}. Install it: sudo apt-get install chromium`);
+    console.error(
+      `[ringlet] chromium not found at ${path}. Install it: sudo apt-get install chromium`,
+    );
     process.exit(1);
   }
 }

@@ -21,7 +21,10 @@ export function precompress(dir = join(root, 'dist/web/browser')) {
       else if (COMPRESSIBLE.test(name) && s.size >= MIN_BYTES) {
         const bytes = readFileSync(p);
         const br = brotliCompressSync(bytes, {
-          params: { [constants.BROTLI_PARAM_QUALITY]: 11, [constants.BROTLI_PARAM_SIZE_HINT]: bytes.length },
+          params: {
+            [constants.BROTLI_PARAM_QUALITY]: 11,
+            [constants.BROTLI_PARAM_SIZE_HINT]: bytes.length,
+          },
         });
         writeFileSync(p + '.br', br);
         writeFileSync(p + '.gz', gzipSync(bytes, { level: 9 }));
@@ -37,5 +40,7 @@ export function precompress(dir = join(root, 'dist/web/browser')) {
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   const { files, before, after } = precompress(process.argv[2]);
-  console.log(`[ringlet] precompressed ${files} files: ${(before / 1024).toFixed(0)} kB → ${(after / 1024).toFixed(0)} kB brotli`);
+  console.log(
+    `[ringlet] precompressed ${files} files: ${(before / 1024).toFixed(0)} kB → ${(after / 1024).toFixed(0)} kB brotli`,
+  );
 }

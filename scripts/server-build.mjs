@@ -8,7 +8,16 @@ import { join } from 'node:path';
 import { log, newestMtime, root } from './lib.mjs';
 
 export const SERVER_OUT = join(root, 'dist/api/server.js');
-const SOURCES = ['api/src', 'db', 'reports', 'shared', 'tsconfig.json', 'tsconfig.node.json', 'package-lock.json', 'scripts/server-build.mjs'];
+const SOURCES = [
+  'api/src',
+  'db',
+  'reports',
+  'shared',
+  'tsconfig.json',
+  'tsconfig.node.json',
+  'package-lock.json',
+  'scripts/server-build.mjs',
+];
 
 /**
  * Packages the server needs only for some requests (spreadsheets, zip files), loaded at their
@@ -22,7 +31,11 @@ export const lazyPackages = {
   name: 'lazy-packages',
   setup(b) {
     const filter = new RegExp(`^(${LAZY_PACKAGES.join('|')})$`);
-    b.onResolve({ filter }, (args) => (args.namespace === 'lazy' ? { path: args.path, external: true } : { path: args.path, namespace: 'lazy' }));
+    b.onResolve({ filter }, (args) =>
+      args.namespace === 'lazy'
+        ? { path: args.path, external: true }
+        : { path: args.path, namespace: 'lazy' },
+    );
     b.onLoad({ filter: /.*/, namespace: 'lazy' }, (args) => ({
       loader: 'js',
       contents: `let m;

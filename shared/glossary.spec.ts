@@ -26,7 +26,11 @@ const SKIP = [/\.spec\.ts$/, /\.e2e\.ts$/, /\/testing\//];
 
 /** Retired word → the glossary's word. Patterns are case-sensitive where the lower-case form is code. */
 export const RETIRED: readonly { pattern: RegExp; use: string }[] = [
-  { pattern: /\bRuns? (\d|n\b|\{\{|\$\{)|>Runs?<|'Runs?'|\bAdd a run\b|\bruns? (\d|\{\{|\$\{)|\bthe runs\b/, use: 'Replicate' },
+  {
+    pattern:
+      /\bRuns? (\d|n\b|\{\{|\$\{)|>Runs?<|'Runs?'|\bAdd a run\b|\bruns? (\d|\{\{|\$\{)|\bthe runs\b/,
+    use: 'Replicate',
+  },
   { pattern: /\bRep\. ?SD\b/, use: 'Replicate SD' },
   { pattern: /\bCommit(ted)?\b|\bcommitted\b/, use: 'Approve / approved for publication' },
   { pattern: /\bForced?\b|\bforced\b|\bneeds force\b/, use: 'Close early' },
@@ -37,8 +41,14 @@ export const RETIRED: readonly { pattern: RegExp; use: string }[] = [
   { pattern: /\bLaborator(y|ies)\b/, use: 'Lab' },
   { pattern: /\bcheck of effectiveness\b/i, use: 'Effectiveness check' },
   { pattern: /\b(homogeneity|stability) checks?\b/i, use: 'Homogeneity study / Stability study' },
-  { pattern: /\bthe consensus\b(?! (value|[Bb]oard))/i, use: 'the assigned value (a consensus value is one way to derive it)' },
-  { pattern: /\bwiden-sigma-pt\b|\bin-transit\b|\barrived-warm\b|\bconfirmed-blunder\b/, use: 'a label for the code value' },
+  {
+    pattern: /\bthe consensus\b(?! (value|[Bb]oard))/i,
+    use: 'the assigned value (a consensus value is one way to derive it)',
+  },
+  {
+    pattern: /\bwiden-sigma-pt\b|\bin-transit\b|\barrived-warm\b|\bconfirmed-blunder\b/,
+    use: 'a label for the code value',
+  },
 ];
 
 /** String literals and template literals of a TS file (comments skipped). */
@@ -82,7 +92,9 @@ function withoutCode(text: string): string {
   return text
     .replace(/(['"])[a-z0-9_./-]*\1/g, '')
     .replace(/\.\w+/g, '')
-    .replace(/\b[\w.-]+=("[^"]*"|'[^']*')/g, (m) => (/^(aria-label|title|label|placeholder)=/.test(m) ? m : ''))
+    .replace(/\b[\w.-]+=("[^"]*"|'[^']*')/g, (m) =>
+      /^(aria-label|title|label|placeholder)=/.test(m) ? m : '',
+    )
     .replace(/\[[\w.-]+\]|\([\w.-]+\)/g, '');
 }
 
@@ -116,10 +128,16 @@ describe('retired words (docs/GLOSSARY.md)', () => {
     expect(findRetired('the participant report of lab P07')[0]?.use).toBe('Individual report');
     expect(findRetired('Check of effectiveness')[0]?.use).toBe('Effectiveness check');
     expect(findRetired('Decision: widen-sigma-pt')[0]?.use).toMatch(/label/);
-    expect(findRetired('The result is about half the consensus: a radius?')[0]?.use).toMatch(/assigned value/);
+    expect(findRetired('The result is about half the consensus: a radius?')[0]?.use).toMatch(
+      /assigned value/,
+    );
     expect(findRetired('the consensus value of the round')).toEqual([]);
     // code in a template is not text
-    expect(findRetired(`@if (v.state === 'committed') { <button (click)="commit()" data-testid="commit">Approve</button> }`)).toEqual([]);
+    expect(
+      findRetired(
+        `@if (v.state === 'committed') { <button (click)="commit()" data-testid="commit">Approve</button> }`,
+      ),
+    ).toEqual([]);
     expect(findRetired("{{ t.forced ? ' (closed early)' : '' }}")).toEqual([]);
     expect(isCodeValue('widen-sigma-pt')).toBe(true);
     expect(isCodeValue('Widen σ_pt')).toBe(false);
@@ -131,9 +149,12 @@ describe('retired words (docs/GLOSSARY.md)', () => {
     for (const file of files(join(ROOT, dir), ext)) {
       scanned++;
       const source = readFileSync(file, 'utf8');
-      const texts = file.endsWith('.html') ? [source] : stringsOf(source).filter((s) => !isCodeValue(s));
+      const texts = file.endsWith('.html')
+        ? [source]
+        : stringsOf(source).filter((s) => !isCodeValue(s));
       for (const t of texts) {
-        for (const f of findRetired(t)) hits.push(`${relative(ROOT, file)}: "${f.word}" → ${f.use}`);
+        for (const f of findRetired(t))
+          hits.push(`${relative(ROOT, file)}: "${f.word}" → ${f.use}`);
       }
     }
     expect(scanned).toBeGreaterThan(0);

@@ -68,8 +68,15 @@ export const HSTS = 'max-age=31536000; includeSubDomains';
 
 /** Builds the Express app without listening (server.ts listens; tests use supertest). */
 export function createApp(deps: AppDeps): RingletApp {
-  const log = deps.log ?? ((msg: string, err?: unknown) => console.error(`[ringlet] ${msg}`, err ?? ''));
-  const ctx: AppContext = { ds: deps.ds, config: deps.config, mailer: deps.mailer, log, queue: deps.queue };
+  const log =
+    deps.log ?? ((msg: string, err?: unknown) => console.error(`[ringlet] ${msg}`, err ?? ''));
+  const ctx: AppContext = {
+    ds: deps.ds,
+    config: deps.config,
+    mailer: deps.mailer,
+    log,
+    queue: deps.queue,
+  };
   const app = express();
   app.disable('x-powered-by');
   app.use(requestLogging(deps.logger ?? silentLogger()));
@@ -77,7 +84,12 @@ export function createApp(deps: AppDeps): RingletApp {
 
   // HSTS only on answers that went out over HTTPS (directly, or behind a trusted proxy that says
   // so in X-Forwarded-Proto): over plain http the header is meaningless and would pin a dev host.
-  app.use(helmet({ contentSecurityPolicy: { useDefaults: false, directives: CONTENT_SECURITY_POLICY }, strictTransportSecurity: false }));
+  app.use(
+    helmet({
+      contentSecurityPolicy: { useDefaults: false, directives: CONTENT_SECURITY_POLICY },
+      strictTransportSecurity: false,
+    }),
+  );
   app.use((req, res, next) => {
     if (req.secure) res.setHeader('Strict-Transport-Security', HSTS);
     next();

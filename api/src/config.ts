@@ -27,7 +27,11 @@ const ConfigSchema = z
   .superRefine((c, ctx) => {
     if (c.RINGLET_MODE === 'production') {
       if (!c.SESSION_SECRET)
-        ctx.addIssue({ code: 'custom', path: ['SESSION_SECRET'], message: 'required in production (32+ characters)' });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['SESSION_SECRET'],
+          message: 'required in production (32+ characters)',
+        });
       if (!c.SMTP_HOST)
         ctx.addIssue({ code: 'custom', path: ['SMTP_HOST'], message: 'required in production' });
       if (!c.PUBLIC_URL)
@@ -65,7 +69,10 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     host: c.HOST,
     mode: c.RINGLET_MODE,
     databaseUrl: c.DATABASE_URL,
-    databaseOwnerUrl: c.DATABASE_OWNER_URL ?? c.MIGRATION_DATABASE_URL ?? (c.DATABASE_URL ? c.DATABASE_URL : undefined),
+    databaseOwnerUrl:
+      c.DATABASE_OWNER_URL ??
+      c.MIGRATION_DATABASE_URL ??
+      (c.DATABASE_URL ? c.DATABASE_URL : undefined),
     sessionSecret: c.SESSION_SECRET ?? 'ringlet-development-secret-not-for-production',
     publicUrl: (c.PUBLIC_URL ?? `http://localhost:${c.PORT}`).replace(/\/$/, ''),
     smtp: c.SMTP_HOST

@@ -19,7 +19,11 @@ const PENDING_PAGES = new Set(['GLOSSARY.md']);
 const BINARY = /\.(png|jpe?g|gif|ico|xlsx|pdf|zip|ttf|woff2?|otf|gz)$/i;
 
 function trackedTextFiles(): string[] {
-  const out = execFileSync('git', ['ls-files', '-z'], { cwd: ROOT, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
+  const out = execFileSync('git', ['ls-files', '-z'], {
+    cwd: ROOT,
+    encoding: 'utf8',
+    maxBuffer: 64 * 1024 * 1024,
+  });
   return out
     .split('\0')
     .filter((f) => f && f !== SELF && !BINARY.test(f) && !f.startsWith('node_modules/'))
@@ -56,12 +60,15 @@ describe('the handbook lives in docs/', () => {
       ['', 'work', 'shared'].join('/'),
       ['design', 'handbook'].join(' '),
     ];
-    const outsidePage = new RegExp(`(^|[^\\w/-])${'design'}/(ARCHITECTURE|STATISTICS|DLS|QUALITY|VOCABULARY|STYLE|TOOLCHAIN)\\.md`);
+    const outsidePage = new RegExp(
+      `(^|[^\\w/-])${'design'}/(ARCHITECTURE|STATISTICS|DLS|QUALITY|VOCABULARY|STYLE|TOOLCHAIN)\\.md`,
+    );
     const found: string[] = [];
     for (const f of files) {
       const text = read(f);
       for (const s of outside) {
-        for (const line of hits(text, new RegExp(s.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&'), 'i'))) found.push(`${f}:${line} (${s})`);
+        for (const line of hits(text, new RegExp(s.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&'), 'i')))
+          found.push(`${f}:${line} (${s})`);
       }
       for (const line of hits(text, outsidePage)) found.push(`${f}:${line} (design/… page)`);
     }
@@ -76,7 +83,8 @@ describe('the handbook lives in docs/', () => {
       text.split('\n').forEach((line, i) => {
         for (const m of line.matchAll(re)) {
           const page = m[1]!;
-          if (!existsSync(join(ROOT, 'docs', page)) && !PENDING_PAGES.has(page)) missing.push(`${f}:${i + 1} docs/${page}`);
+          if (!existsSync(join(ROOT, 'docs', page)) && !PENDING_PAGES.has(page))
+            missing.push(`${f}:${i + 1} docs/${page}`);
         }
       });
     }
@@ -85,7 +93,10 @@ describe('the handbook lives in docs/', () => {
 
   it('every relative link in docs/*.md and DEVELOPERS.md resolves', () => {
     const broken: string[] = [];
-    const pages = files.filter((f) => (f.startsWith('docs/') && f.endsWith('.md')) || f === 'DEVELOPERS.md' || f === 'README.md');
+    const pages = files.filter(
+      (f) =>
+        (f.startsWith('docs/') && f.endsWith('.md')) || f === 'DEVELOPERS.md' || f === 'README.md',
+    );
     for (const f of pages) {
       const text = read(f);
       text.split('\n').forEach((line, i) => {
@@ -94,7 +105,8 @@ describe('the handbook lives in docs/', () => {
           if (!target || /^[a-z]+:/i.test(target)) continue; // anchors and absolute URLs
           const path = normalize(join(dirname(f), target));
           const page = path.startsWith('docs/') ? path.slice('docs/'.length) : '';
-          if (!existsSync(join(ROOT, path)) && !PENDING_PAGES.has(page)) broken.push(`${f}:${i + 1} ${m[1]}`);
+          if (!existsSync(join(ROOT, path)) && !PENDING_PAGES.has(page))
+            broken.push(`${f}:${i + 1} ${m[1]}`);
         }
       });
     }

@@ -44,8 +44,15 @@ async function main(): Promise<void> {
     await seedDemo(owner, demoPassword, config.publicUrl).finally(() => owner.destroy());
   }
   // The local SMTP fake (and mailparser behind it) loads only where it runs: never in production.
-  const fake = hasOutbox(config.mode) && !config.smtp ? await (await import('./mail/smtp-fake')).startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0)) : null;
-  const smtpMailer = createMailer(config, fake ?? undefined, { providerName: () => providerName(ds.manager) });
+  const fake =
+    hasOutbox(config.mode) && !config.smtp
+      ? await (
+          await import('./mail/smtp-fake')
+        ).startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0))
+      : null;
+  const smtpMailer = createMailer(config, fake ?? undefined, {
+    providerName: () => providerName(ds.manager),
+  });
   // The PostgreSQL-backed job queue: mail retries, publication mail, report builds, round
   // reminders (shared by every instance; jobs survive a restart).
   const jobs = await startJobs({
@@ -66,8 +73,15 @@ async function main(): Promise<void> {
     const port = typeof addr === 'object' && addr ? addr.port : config.port;
     // The address the socket is bound to ("localhost" may resolve to ::1 while the server listens on 127.0.0.1 only).
     const url = listenUrl(typeof addr === 'object' && addr ? addr.address : config.host, port);
-    logger.info({ port, mode: config.mode, startupMs: { ...phases, total: Math.round(performance.now()) } }, `listening on ${url} (${config.mode} mode)`);
-    if (fake) logger.info({ smtpPort: fake.port }, `local mail fake on smtp://127.0.0.1:${fake.port}; mail shows on the Outbox page`);
+    logger.info(
+      { port, mode: config.mode, startupMs: { ...phases, total: Math.round(performance.now()) } },
+      `listening on ${url} (${config.mode} mode)`,
+    );
+    if (fake)
+      logger.info(
+        { smtpPort: fake.port },
+        `local mail fake on smtp://127.0.0.1:${fake.port}; mail shows on the Outbox page`,
+      );
     if (config.mode === 'demo') printDemoBanner(url, demoPassword);
   });
   const shutdown = gracefulShutdown(
@@ -108,7 +122,10 @@ function printDemoBanner(url: string, password: string): void {
     `  Ringlet is ready: ${url}`,
     '',
     `  Demo sign-ins (password for all: ${password})`,
-    ...DEMO_USERS.map((u) => `    ${u.email.padEnd(width)}  ${u.roles[0] ?? 'lab member'}${u.lab ? ' (lab manager)' : ''}`),
+    ...DEMO_USERS.map(
+      (u) =>
+        `    ${u.email.padEnd(width)}  ${u.roles[0] ?? 'lab member'}${u.lab ? ' (lab manager)' : ''}`,
+    ),
     '',
     '  Demo mode: invented data; mail goes to the Outbox page. Stop with Ctrl+C.',
     '',

@@ -1,4 +1,10 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import {
+  Column,
+  CreateDateColumn,
+  Entity,
+  PrimaryGeneratedColumn,
+  UpdateDateColumn,
+} from 'typeorm';
 
 /** One version of a round's evaluation: draft → committed → published (then immutable). */
 @Entity({ name: 'evaluation' })
@@ -30,8 +36,10 @@ export class EvaluationResult {
   @Column({ type: 'text', name: 'item_code' }) itemCode!: string;
   @Column({ type: 'text', name: 'measurand_key' }) measurandKey!: string;
   @Column({ type: 'integer' }) n!: number;
-  @Column({ type: 'double precision', name: 'assigned_value', nullable: true }) assignedValue!: number | null;
-  @Column({ type: 'double precision', name: 'u_assigned', nullable: true }) uAssigned!: number | null;
+  @Column({ type: 'double precision', name: 'assigned_value', nullable: true }) assignedValue!:
+    number | null;
+  @Column({ type: 'double precision', name: 'u_assigned', nullable: true }) uAssigned!:
+    number | null;
   @Column({ type: 'double precision', name: 'sigma_pt', nullable: true }) sigmaPt!: number | null;
   @Column({ type: 'text' }) method!: string;
   @Column({ type: 'jsonb', default: () => "'{}'" }) constants!: Record<string, unknown>;

@@ -3,7 +3,18 @@ import { MailMessage } from './mail-message';
 import { Membership } from './membership';
 import { Organisation } from './organisation';
 import { PasswordToken } from './password-token';
-import { Enrolment, Invitation, Measurand, Round, RoundTransition, Scheme, Shipment, Submission, SubmissionVersion, TestItem } from './round';
+import {
+  Enrolment,
+  Invitation,
+  Measurand,
+  Round,
+  RoundTransition,
+  Scheme,
+  Shipment,
+  Submission,
+  SubmissionVersion,
+  TestItem,
+} from './round';
 import { User } from './user';
 import { Attachment, InstrumentCheck } from './lab-bench';
 import { HomogeneityStudy, ReminderLog } from './round-desk';
@@ -12,7 +23,18 @@ import { Report } from './report';
 import { ProviderProfile } from './provider-profile';
 
 export { AuditEvent, MailMessage, Membership, Organisation, PasswordToken, User };
-export { Enrolment, Invitation, Measurand, Round, RoundTransition, Scheme, Shipment, Submission, SubmissionVersion, TestItem };
+export {
+  Enrolment,
+  Invitation,
+  Measurand,
+  Round,
+  RoundTransition,
+  Scheme,
+  Shipment,
+  Submission,
+  SubmissionVersion,
+  TestItem,
+};
 export { HomogeneityStudy, ReminderLog };
 export { Attachment, InstrumentCheck };
 export { AssessorGrant, Evaluation, EvaluationResult, Investigation };

@@ -11,7 +11,8 @@ export class InstrumentCheck {
   @Column({ type: 'double precision', name: 'tolerance_nm' }) toleranceNm!: number;
   @Column({ type: 'double precision', name: 'pdi_limit' }) pdiLimit!: number;
   @Column({ type: 'double precision', name: 'set_point_c' }) setPointC!: number;
-  @Column({ type: 'double precision', name: 'temperature_tolerance_c' }) temperatureToleranceC!: number;
+  @Column({ type: 'double precision', name: 'temperature_tolerance_c' })
+  temperatureToleranceC!: number;
   @Column({ type: 'double precision', name: 'min_equilibration_min' }) minEquilibrationMin!: number;
   /** shared/contracts/bench InstrumentCheckRun[] */
   @Column({ type: 'jsonb' }) runs!: unknown[];

@@ -15,7 +15,8 @@ export class ProviderProfile {
   @Column({ type: 'text', name: 'authoriser_role', default: '' }) authoriserRole!: string;
   @Column({ type: 'text', default: '' }) subcontracting!: string;
   @Column({ type: 'bytea', nullable: true, select: false }) logo!: Buffer | null;
-  @Column({ type: 'text', name: 'logo_type', nullable: true }) logoType!: 'image/png' | 'image/jpeg' | null;
+  @Column({ type: 'text', name: 'logo_type', nullable: true }) logoType!:
+    'image/png' | 'image/jpeg' | null;
   @Column({ type: 'timestamptz', name: 'updated_at', default: () => 'now()' }) updatedAt!: Date;
   @Column({ type: 'uuid', name: 'updated_by', nullable: true }) updatedBy!: string | null;
 }

@@ -1,6 +1,7 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
 
-export type ReportKind = 'round.xlsx' | 'round.pdf' | 'participant.pdf' | 'certificate.pdf' | 'evidence.zip';
+export type ReportKind =
+  'round.xlsx' | 'round.pdf' | 'participant.pdf' | 'certificate.pdf' | 'evidence.zip';
 
 /** A built report file (the cache shared by every server instance) and its build status. */
 @Entity({ name: 'report' })
@@ -11,7 +12,8 @@ export class Report {
   /** The lab of a lab-specific file (individual report, certificate, evidence pack). */
   @Column({ type: 'uuid', name: 'organisation_id', nullable: true }) organisationId!: string | null;
   @Column({ type: 'uuid', name: 'evaluation_id', nullable: true }) evaluationId!: string | null;
-  @Column({ type: 'integer', name: 'evaluation_version', nullable: true }) evaluationVersion!: number | null;
+  @Column({ type: 'integer', name: 'evaluation_version', nullable: true }) evaluationVersion!:
+    number | null;
   @Column({ type: 'text', default: 'queued' }) status!: 'queued' | 'running' | 'done' | 'failed';
   @Column({ type: 'integer', default: 0 }) progress!: number;
   @Column({ type: 'bytea', nullable: true, select: false }) file!: Buffer | null;

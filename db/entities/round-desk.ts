@@ -15,7 +15,8 @@ export class HomogeneityStudy {
   /** The computed check (shared/stats HomogeneityResult / StabilityResult). */
   @Column({ type: 'jsonb' }) result!: Record<string, unknown>;
   @Column({ type: 'boolean' }) passes!: boolean;
-  @Column({ type: 'text', nullable: true }) decision!: 'accept' | 'widen-sigma-pt' | 'exclude-item' | null;
+  @Column({ type: 'text', nullable: true }) decision!:
+    'accept' | 'widen-sigma-pt' | 'exclude-item' | null;
   @Column({ type: 'text', name: 'decision_reason', nullable: true }) decisionReason!: string | null;
   @Column({ type: 'uuid', name: 'decided_by', nullable: true }) decidedBy!: string | null;
   @Column({ type: 'timestamptz', name: 'decided_at', nullable: true }) decidedAt!: Date | null;

@@ -1,4 +1,10 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import {
+  Column,
+  CreateDateColumn,
+  Entity,
+  PrimaryGeneratedColumn,
+  UpdateDateColumn,
+} from 'typeorm';
 import type { RoundState } from '../../shared/contracts/round-states';
 
 /** A PT scheme (e.g. nanoparticle sizing by DLS): the frame that rounds repeat. */
@@ -9,7 +15,8 @@ export class Scheme {
   @Column({ type: 'text' }) name!: string;
   @Column({ type: 'text', default: '' }) description!: string;
   /** Measurand templates new rounds start from (shared/contracts MeasurandInput[]). */
-  @Column({ type: 'jsonb', name: 'default_measurands', default: () => "'[]'" }) defaultMeasurands!: unknown[];
+  @Column({ type: 'jsonb', name: 'default_measurands', default: () => "'[]'" })
+  defaultMeasurands!: unknown[];
   /** Free-form scheme rules shown to labs (participation, confidentiality, scoring). */
   @Column({ type: 'text', default: '' }) rules!: string;
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
@@ -24,13 +31,16 @@ export class Round {
   @Column({ type: 'text' }) title!: string;
   @Column({ type: 'text', default: 'pt' }) kind!: 'pt' | 'precision';
   @Column({ type: 'text', default: 'draft' }) state!: RoundState;
-  @Column({ type: 'date', name: 'enrolment_closes_on', nullable: true }) enrolmentClosesOn!: string | null;
+  @Column({ type: 'date', name: 'enrolment_closes_on', nullable: true }) enrolmentClosesOn!:
+    string | null;
   @Column({ type: 'date', name: 'dispatch_on', nullable: true }) dispatchOn!: string | null;
-  @Column({ type: 'timestamptz', name: 'results_due_at', nullable: true }) resultsDueAt!: Date | null;
+  @Column({ type: 'timestamptz', name: 'results_due_at', nullable: true })
+  resultsDueAt!: Date | null;
   /** Instructions for labs (Markdown-like plain text), safety cautions included by default. */
   @Column({ type: 'text', default: '' }) instructions!: string;
   /** The measuring temperature the protocol asks for, °C. */
-  @Column({ type: 'double precision', name: 'protocol_temperature_c', default: 25 }) protocolTemperatureC!: number;
+  @Column({ type: 'double precision', name: 'protocol_temperature_c', default: 25 })
+  protocolTemperatureC!: number;
   /** Participation fee in minor units (cents). */
   @Column({ type: 'integer', name: 'fee_minor', default: 0 }) feeMinor!: number;
   @Column({ type: 'text', default: 'EUR' }) currency!: string;
@@ -58,7 +68,8 @@ export class TestItem {
   @Column({ type: 'uuid', name: 'round_id' }) roundId!: string;
   @Column({ type: 'text' }) code!: string;
   @Column({ type: 'text' }) material!: string;
-  @Column({ type: 'double precision', name: 'nominal_size_nm', nullable: true }) nominalSizeNm!: number | null;
+  @Column({ type: 'double precision', name: 'nominal_size_nm', nullable: true }) nominalSizeNm!:
+    number | null;
   @Column({ type: 'text', name: 'storage_notes', default: '' }) storageNotes!: string;
   @Column({ type: 'text', name: 'handling_notes', default: '' }) handlingNotes!: string;
   @Column({ type: 'integer', default: 0 }) position!: number;
@@ -78,7 +89,10 @@ export class Measurand {
   /** shared/stats SigmaPtRule as JSON. */
   @Column({ type: 'jsonb', name: 'sigma_pt_rule' }) sigmaPtRule!: Record<string, unknown>;
   /** Assigned-value rule as JSON: consensus (Algorithm A), reference value, or median. */
-  @Column({ type: 'jsonb', name: 'assigned_value_rule' }) assignedValueRule!: Record<string, unknown>;
+  @Column({ type: 'jsonb', name: 'assigned_value_rule' }) assignedValueRule!: Record<
+    string,
+    unknown
+  >;
   @Column({ type: 'integer', name: 'min_participants', default: 12 }) minParticipants!: number;
   @Column({ type: 'integer', default: 0 }) position!: number;
 }
@@ -91,9 +105,11 @@ export class Enrolment {
   @Column({ type: 'uuid', name: 'organisation_id' }) organisationId!: string;
   @Column({ type: 'text', name: 'participant_code' }) participantCode!: string;
   @Column({ type: 'text', default: 'enrolled' }) state!: 'enrolled' | 'withdrawn';
-  @Column({ type: 'text', name: 'withdrawn_reason', nullable: true }) withdrawnReason!: string | null;
+  @Column({ type: 'text', name: 'withdrawn_reason', nullable: true }) withdrawnReason!:
+    string | null;
   /** A deadline extension the coordinator granted (audited). */
-  @Column({ type: 'timestamptz', name: 'extension_until', nullable: true }) extensionUntil!: Date | null;
+  @Column({ type: 'timestamptz', name: 'extension_until', nullable: true })
+  extensionUntil!: Date | null;
   @CreateDateColumn({ type: 'timestamptz', name: 'enrolled_at' }) enrolledAt!: Date;
 }
 
@@ -123,10 +139,13 @@ export class Shipment {
   @Column({ type: 'text', name: 'tracking_number', nullable: true }) trackingNumber!: string | null;
   @Column({ type: 'date', name: 'dispatched_on', nullable: true }) dispatchedOn!: string | null;
   @Column({ type: 'date', name: 'received_on', nullable: true }) receivedOn!: string | null;
-  @Column({ type: 'text', nullable: true }) condition!: 'intact' | 'damaged' | 'leaked' | 'arrived-warm' | null;
+  @Column({ type: 'text', nullable: true }) condition!:
+    'intact' | 'damaged' | 'leaked' | 'arrived-warm' | null;
   @Column({ type: 'text', name: 'receipt_notes', nullable: true }) receiptNotes!: string | null;
-  @Column({ type: 'bytea', name: 'receipt_photo', nullable: true, select: false }) receiptPhoto!: Buffer | null;
-  @Column({ type: 'text', name: 'receipt_photo_type', nullable: true }) receiptPhotoType!: string | null;
+  @Column({ type: 'bytea', name: 'receipt_photo', nullable: true, select: false })
+  receiptPhoto!: Buffer | null;
+  @Column({ type: 'text', name: 'receipt_photo_type', nullable: true }) receiptPhotoType!:
+    string | null;
   @Column({ type: 'uuid', name: 'received_by', nullable: true }) receivedBy!: string | null;
 }
 

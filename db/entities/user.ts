@@ -13,7 +13,8 @@ export class User {
   @Column({ type: 'text', array: true, default: () => "'{}'" }) roles!: GlobalRole[];
   @Column({ type: 'boolean', name: 'is_active', default: true }) isActive!: boolean;
   @Column({ type: 'boolean', name: 'is_demo', default: false }) isDemo!: boolean;
-  @Column({ type: 'timestamptz', name: 'last_sign_in_at', nullable: true }) lastSignInAt!: Date | null;
+  @Column({ type: 'timestamptz', name: 'last_sign_in_at', nullable: true })
+  lastSignInAt!: Date | null;
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
   @OneToMany('Membership', (m: Membership) => m.user) memberships?: Membership[];
 }

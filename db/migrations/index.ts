@@ -9,4 +9,14 @@ import { AppendOnlyResults1764900000400 } from './1764900000400-append-only-resu
 import { ProviderProfile1764900000600 } from './1764900000600-provider-profile';
 
 /** Every migration in order. Add new ones at the end (see DEVELOPERS.md, "Migrations"). */
-export const migrations = [Foundation1764633600000, Rounds1764637200000, RoundDesk1764640800000, LabBench1764644400000, Evaluation1764648000000, Reports1764651600000, LabInvitations1764900000201, AppendOnlyResults1764900000400, ProviderProfile1764900000600];
+export const migrations = [
+  Foundation1764633600000,
+  Rounds1764637200000,
+  RoundDesk1764640800000,
+  LabBench1764644400000,
+  Evaluation1764648000000,
+  Reports1764651600000,
+  LabInvitations1764900000201,
+  AppendOnlyResults1764900000400,
+  ProviderProfile1764900000600,
+];

@@ -38,9 +38,27 @@ export const OTHER_LABS = [
 ] as const;
 
 export const DEMO_USERS = [
-  { email: 'admin@ringlet.example', name: 'Ada Admin', roles: ['admin'], lab: null, manager: false },
-  { email: 'coordinator@ringlet.example', name: 'Cora Coordinator', roles: ['coordinator'], lab: null, manager: false },
-  { email: 'assessor@ringlet.example', name: 'Asa Assessor', roles: ['assessor'], lab: null, manager: false },
+  {
+    email: 'admin@ringlet.example',
+    name: 'Ada Admin',
+    roles: ['admin'],
+    lab: null,
+    manager: false,
+  },
+  {
+    email: 'coordinator@ringlet.example',
+    name: 'Cora Coordinator',
+    roles: ['coordinator'],
+    lab: null,
+    manager: false,
+  },
+  {
+    email: 'assessor@ringlet.example',
+    name: 'Asa Assessor',
+    roles: ['assessor'],
+    lab: null,
+    manager: false,
+  },
   { email: 'lab1@ringlet.example', name: 'Lena Lindqvist', roles: [], lab: 'lab1', manager: true },
   { email: 'lab2@ringlet.example', name: 'Bram Oduya', roles: [], lab: 'lab2', manager: true },
   { email: 'lab3@ringlet.example', name: 'Chiara Venn', roles: [], lab: 'lab3', manager: true },

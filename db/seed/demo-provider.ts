@@ -37,7 +37,16 @@ export function demoLogoPng(): Buffer {
     const row = Buffer.alloc(1 + size * 3);
     for (let x = 0; x < size; x++) {
       const r = Math.hypot(x - 47.5, y - 47.5);
-      const [cr, cg, cb] = r > 44 ? [255, 255, 255] : r > 32 ? [0x1f, 0x3a, 0x5f] : r > 26 ? [255, 255, 255] : r > 14 ? [0x1b, 0x7f, 0x79] : [255, 255, 255];
+      const [cr, cg, cb] =
+        r > 44
+          ? [255, 255, 255]
+          : r > 32
+            ? [0x1f, 0x3a, 0x5f]
+            : r > 26
+              ? [255, 255, 255]
+              : r > 14
+                ? [0x1b, 0x7f, 0x79]
+                : [255, 255, 255];
       row[1 + x * 3] = cr!;
       row[2 + x * 3] = cg!;
       row[3 + x * 3] = cb!;
@@ -64,6 +73,18 @@ export async function seedProviderProfile(em: EntityManager): Promise<void> {
     `INSERT INTO provider_profile (id, name, address, contact_email, contact_phone, website, accreditation_body, accreditation_number,
                                    authoriser_name, authoriser_role, subcontracting, logo, logo_type)
      VALUES (1, $1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, 'image/png') ON CONFLICT (id) DO NOTHING`,
-    [p.name, p.address, p.contactEmail, p.contactPhone, p.website, p.accreditationBody, p.accreditationNumber, p.authoriserName, p.authoriserRole, p.subcontracting, demoLogoPng()],
+    [
+      p.name,
+      p.address,
+      p.contactEmail,
+      p.contactPhone,
+      p.website,
+      p.accreditationBody,
+      p.accreditationNumber,
+      p.authoriserName,
+      p.authoriserRole,
+      p.subcontracting,
+      demoLogoPng(),
+    ],
   );
 }

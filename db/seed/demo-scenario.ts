@@ -28,7 +28,11 @@ import { DEFAULT_INSTRUCTIONS, DLS_DEFAULT_MEASURANDS } from '../../shared/contr
 import type { SubmissionData } from '../../shared/contracts/submission';
 import { mulberry32 } from '../../shared/stats/synthetic-round';
 import type { AppContext } from '../../api/src/services/context';
-import { commitEvaluation, computeDraft, publishEvaluation } from '../../api/src/services/evaluation';
+import {
+  commitEvaluation,
+  computeDraft,
+  publishEvaluation,
+} from '../../api/src/services/evaluation';
 import { loadSessionUser } from '../../api/src/services/users';
 import { CODE_ALPHABET } from '../../api/src/services/enrolment';
 
@@ -61,8 +65,20 @@ const ROUND_TEMPLATES: RoundSpec[] = [
     dueAt: '',
     state: 'published',
     items: [
-      { code: 'A', material: 'Polystyrene latex in 10 mM NaCl, nominal 60 nm', nominal: 60, trueZ: 64.2, truePdi: 0.035 },
-      { code: 'B', material: 'Polystyrene latex in 10 mM NaCl, nominal 100 nm', nominal: 100, trueZ: 104.6, truePdi: 0.025 },
+      {
+        code: 'A',
+        material: 'Polystyrene latex in 10 mM NaCl, nominal 60 nm',
+        nominal: 60,
+        trueZ: 64.2,
+        truePdi: 0.035,
+      },
+      {
+        code: 'B',
+        material: 'Polystyrene latex in 10 mM NaCl, nominal 100 nm',
+        nominal: 100,
+        trueZ: 104.6,
+        truePdi: 0.025,
+      },
     ],
   },
   {
@@ -72,8 +88,20 @@ const ROUND_TEMPLATES: RoundSpec[] = [
     dueAt: '',
     state: 'published',
     items: [
-      { code: 'A', material: 'Polystyrene latex in 10 mM NaCl, nominal 200 nm', nominal: 200, trueZ: 206.3, truePdi: 0.02 },
-      { code: 'B', material: 'Colloidal silica in water, nominal 80 nm', nominal: 80, trueZ: 88.9, truePdi: 0.09 },
+      {
+        code: 'A',
+        material: 'Polystyrene latex in 10 mM NaCl, nominal 200 nm',
+        nominal: 200,
+        trueZ: 206.3,
+        truePdi: 0.02,
+      },
+      {
+        code: 'B',
+        material: 'Colloidal silica in water, nominal 80 nm',
+        nominal: 80,
+        trueZ: 88.9,
+        truePdi: 0.09,
+      },
     ],
   },
   {
@@ -83,8 +111,20 @@ const ROUND_TEMPLATES: RoundSpec[] = [
     dueAt: '',
     state: 'published',
     items: [
-      { code: 'A', material: 'Polystyrene latex in 10 mM NaCl, nominal 100 nm', nominal: 100, trueZ: 103.9, truePdi: 0.03 },
-      { code: 'B', material: 'Polystyrene latex in 10 mM NaCl, nominal 100 nm (second lot)', nominal: 100, trueZ: 106.1, truePdi: 0.032 },
+      {
+        code: 'A',
+        material: 'Polystyrene latex in 10 mM NaCl, nominal 100 nm',
+        nominal: 100,
+        trueZ: 103.9,
+        truePdi: 0.03,
+      },
+      {
+        code: 'B',
+        material: 'Polystyrene latex in 10 mM NaCl, nominal 100 nm (second lot)',
+        nominal: 100,
+        trueZ: 106.1,
+        truePdi: 0.032,
+      },
     ],
   },
   {
@@ -94,8 +134,20 @@ const ROUND_TEMPLATES: RoundSpec[] = [
     dueAt: '',
     state: 'collecting',
     items: [
-      { code: 'A', material: 'Colloidal silica in water, nominal 50 nm', nominal: 50, trueZ: 57.4, truePdi: 0.11 },
-      { code: 'B', material: 'Polystyrene latex in 10 mM NaCl, nominal 150 nm', nominal: 150, trueZ: 155.2, truePdi: 0.022 },
+      {
+        code: 'A',
+        material: 'Colloidal silica in water, nominal 50 nm',
+        nominal: 50,
+        trueZ: 57.4,
+        truePdi: 0.11,
+      },
+      {
+        code: 'B',
+        material: 'Polystyrene latex in 10 mM NaCl, nominal 150 nm',
+        nominal: 150,
+        trueZ: 155.2,
+        truePdi: 0.022,
+      },
     ],
   },
 ];
@@ -104,7 +156,12 @@ const ROUND_TEMPLATES: RoundSpec[] = [
  * Days from "today" (the clock at seeding time) to each round's results-due date: the demo's past
  * lies in the past and the collecting round is due in a little over two weeks, whenever it is loaded.
  */
-const DUE_IN_DAYS: Record<RoundSpec['story'], number> = { first: -581, second: -397, blunders: -216, current: 16 };
+const DUE_IN_DAYS: Record<RoundSpec['story'], number> = {
+  first: -581,
+  second: -397,
+  blunders: -216,
+  current: 16,
+};
 
 /** The story's rounds dated from `now`; codes are NPS-<year of the due date>-<A, B, … in that year>. */
 export function demoRounds(now: Date): RoundSpec[] {
@@ -139,12 +196,19 @@ export async function hasDemoScenario(ds: DataSource): Promise<boolean> {
 }
 
 /** Loads the rounds, results, evaluations, investigations, instrument checks and grants. */
-export async function seedScenario(ds: DataSource, labIds: string[], publicUrl = 'http://localhost:3000', now = new Date()): Promise<void> {
+export async function seedScenario(
+  ds: DataSource,
+  labIds: string[],
+  publicUrl = 'http://localhost:3000',
+  now = new Date(),
+): Promise<void> {
   if (await hasDemoScenario(ds)) return;
   const ROUNDS = demoRounds(now);
   const rnd = mulberry32(20261201);
   const normal = (): number => Math.sqrt(-2 * Math.log(1 - rnd())) * Math.cos(2 * Math.PI * rnd());
-  const coordinator = await ds.getRepository(User).findOneByOrFail({ email: 'coordinator@ringlet.example' });
+  const coordinator = await ds
+    .getRepository(User)
+    .findOneByOrFail({ email: 'coordinator@ringlet.example' });
   const actor = (await loadSessionUser(ds.manager, coordinator.id))!;
   const ctx: AppContext = {
     ds,
@@ -168,45 +232,60 @@ export async function seedScenario(ds: DataSource, labIds: string[], publicUrl =
 
   for (const spec of ROUNDS) {
     const roundId = await ds.transaction(async (em) => {
-      const round = await em.save(Round, em.create(Round, {
-        schemeId: scheme.id,
-        code: spec.code,
-        title: spec.title,
-        state: spec.state === 'published' ? 'closed' : 'collecting',
-        resultsDueAt: new Date(spec.dueAt),
-        enrolmentClosesOn: isoDate(addDays(new Date(spec.dueAt), -60)),
-        dispatchOn: isoDate(addDays(new Date(spec.dueAt), -40)),
-        instructions: DEFAULT_INSTRUCTIONS,
-        feeMinor: 48000,
-        currency: 'EUR',
-      }));
+      const round = await em.save(
+        Round,
+        em.create(Round, {
+          schemeId: scheme.id,
+          code: spec.code,
+          title: spec.title,
+          state: spec.state === 'published' ? 'closed' : 'collecting',
+          resultsDueAt: new Date(spec.dueAt),
+          enrolmentClosesOn: isoDate(addDays(new Date(spec.dueAt), -60)),
+          dispatchOn: isoDate(addDays(new Date(spec.dueAt), -40)),
+          instructions: DEFAULT_INSTRUCTIONS,
+          feeMinor: 48000,
+          currency: 'EUR',
+        }),
+      );
       const items = [];
       for (const [i, it] of spec.items.entries()) {
-        items.push(await em.save(TestItem, em.create(TestItem, {
-          roundId: round.id,
-          code: it.code,
-          material: it.material,
-          nominalSizeNm: it.nominal,
-          storageNotes: 'Store at 2–8 °C. Do not freeze.',
-          handlingNotes: 'Invert gently ten times before sampling; do not sonicate. Equilibrate at the protocol temperature before measuring.',
-          position: i,
-        })));
+        items.push(
+          await em.save(
+            TestItem,
+            em.create(TestItem, {
+              roundId: round.id,
+              code: it.code,
+              material: it.material,
+              nominalSizeNm: it.nominal,
+              storageNotes: 'Store at 2–8 °C. Do not freeze.',
+              handlingNotes:
+                'Invert gently ten times before sampling; do not sonicate. Equilibrate at the protocol temperature before measuring.',
+              position: i,
+            }),
+          ),
+        );
       }
       const measurands = [];
       for (const [i, m] of DLS_DEFAULT_MEASURANDS.entries()) {
-        measurands.push(await em.save(Measurand, em.create(Measurand, {
-          roundId: round.id,
-          key: m.key,
-          name: m.name,
-          unit: m.unit,
-          decimals: m.decimals,
-          replicatesRequired: m.replicatesRequired,
-          // fitness for purpose: 4 % of x_pt for the Z-average; the round's robust SD for PDI
-          sigmaPtRule: m.key === 'z_average' ? { kind: 'percent', percent: 4 } : { kind: 'robust-sd' },
-          assignedValueRule: { kind: 'consensus' },
-          minParticipants: m.minParticipants,
-          position: i,
-        })));
+        measurands.push(
+          await em.save(
+            Measurand,
+            em.create(Measurand, {
+              roundId: round.id,
+              key: m.key,
+              name: m.name,
+              unit: m.unit,
+              decimals: m.decimals,
+              replicatesRequired: m.replicatesRequired,
+              // fitness for purpose: 4 % of x_pt for the Z-average; the round's robust SD for PDI
+              sigmaPtRule:
+                m.key === 'z_average' ? { kind: 'percent', percent: 4 } : { kind: 'robust-sd' },
+              assignedValueRule: { kind: 'consensus' },
+              minParticipants: m.minParticipants,
+              position: i,
+            }),
+          ),
+        );
       }
       const codes = new Set<string>();
       const drawCode = () => {
@@ -221,44 +300,59 @@ export async function seedScenario(ds: DataSource, labIds: string[], publicUrl =
       };
       const collecting = spec.state === 'collecting';
       for (const [li, labId] of labIds.entries()) {
-        const enrolment = await em.save(Enrolment, em.create(Enrolment, {
-          roundId: round.id,
-          organisationId: labId,
-          participantCode: drawCode(),
-          extensionUntil: li === LATE_LAB ? addDays(new Date(spec.dueAt), 7) : null,
-        }));
+        const enrolment = await em.save(
+          Enrolment,
+          em.create(Enrolment, {
+            roundId: round.id,
+            organisationId: labId,
+            participantCode: drawCode(),
+            extensionUntil: li === LATE_LAB ? addDays(new Date(spec.dueAt), 7) : null,
+          }),
+        );
         const dispatched = addDays(new Date(spec.dueAt), -40);
         await em.insert(Shipment, {
           enrolmentId: enrolment.id,
           courier: 'Overnight cold-chain courier',
           trackingNumber: `RL${spec.code.replace(/\W/g, '')}${String(li + 1).padStart(3, '0')}`,
           dispatchedOn: isoDate(dispatched),
-          receivedOn: collecting && li % 7 === 5 ? null : isoDate(addDays(dispatched, 2 + (li % 3))),
-          condition: collecting && li % 7 === 5 ? null : li === 17 && collecting ? 'arrived-warm' : 'intact',
-          receiptNotes: li === 17 && collecting ? 'Cool pack thawed; items at about 18 °C on arrival.' : null,
+          receivedOn:
+            collecting && li % 7 === 5 ? null : isoDate(addDays(dispatched, 2 + (li % 3))),
+          condition:
+            collecting && li % 7 === 5 ? null : li === 17 && collecting ? 'arrived-warm' : 'intact',
+          receiptNotes:
+            li === 17 && collecting ? 'Cool pack thawed; items at about 18 °C on arrival.' : null,
         });
         // In the collecting round: most labs submitted, some hold drafts, the late lab nothing yet.
         const submits = !collecting || (li !== LATE_LAB && li % 4 !== 3);
         const drafts = collecting && li % 4 === 3;
         if (!submits && !drafts) continue;
-        const data = labResults(spec, li, items.map((x) => x.id), measurands.map((x) => x.id), {
-          bias: labBias[li]!,
-          noise: labNoise[li]!,
-          normal,
-          instrument: INSTRUMENTS[li % INSTRUMENTS.length]!,
-        });
+        const data = labResults(
+          spec,
+          li,
+          items.map((x) => x.id),
+          measurands.map((x) => x.id),
+          {
+            bias: labBias[li]!,
+            noise: labNoise[li]!,
+            normal,
+            instrument: INSTRUMENTS[li % INSTRUMENTS.length]!,
+          },
+        );
         // (in the collecting round every submission lies before "today")
         const submittedAt = collecting
           ? addDays(now, -1 - (li % 9) - 0.1 * (li % 5))
           : addDays(new Date(spec.dueAt), li === LATE_LAB ? 3 : -5 - (li % 9));
-        const sub = await em.save(Submission, em.create(Submission, {
-          enrolmentId: enrolment.id,
-          state: submits ? 'submitted' : 'draft',
-          draft: data as unknown as Record<string, unknown>,
-          draftRevision: 1,
-          currentVersion: submits ? 1 : 0,
-          submittedAt: submits ? submittedAt : null,
-        }));
+        const sub = await em.save(
+          Submission,
+          em.create(Submission, {
+            enrolmentId: enrolment.id,
+            state: submits ? 'submitted' : 'draft',
+            draft: data as unknown as Record<string, unknown>,
+            draftRevision: 1,
+            currentVersion: submits ? 1 : 0,
+            submittedAt: submits ? submittedAt : null,
+          }),
+        );
         if (submits) {
           await em.query(
             `INSERT INTO submission_version (submission_id, version, data, submitted_by, note, is_late, submitted_at)
@@ -281,9 +375,15 @@ export async function seedScenario(ds: DataSource, labIds: string[], publicUrl =
       await ds
         .transaction(async (em) => {
           await em.query(`ALTER TABLE evaluation DISABLE TRIGGER evaluation_published_immutable`);
-          await em.query(`UPDATE evaluation SET computed_at = $2, committed_at = $2, published_at = $2, created_at = $2 WHERE round_id = $1`, [roundId, at]);
+          await em.query(
+            `UPDATE evaluation SET computed_at = $2, committed_at = $2, published_at = $2, created_at = $2 WHERE round_id = $1`,
+            [roundId, at],
+          );
           await em.query(`ALTER TABLE evaluation ENABLE TRIGGER evaluation_published_immutable`);
-          await em.query(`UPDATE investigation SET created_at = $2, updated_at = $2 WHERE round_id = $1`, [roundId, at]);
+          await em.query(
+            `UPDATE investigation SET created_at = $2, updated_at = $2 WHERE round_id = $1`,
+            [roundId, at],
+          );
           await em.query(`UPDATE round_transition SET at = $2 WHERE round_id = $1`, [roundId, at]);
         })
         .catch(() => undefined);
@@ -309,7 +409,7 @@ function labResults(
     items: spec.items.map((it, ii) => {
       let z = it.trueZ * (1 + lab.bias + 0.01 * lab.normal());
       let pdi = Math.max(0.005, it.truePdi * (1 + 0.15 * lab.normal()));
-      let viscosity = 0.8900;
+      let viscosity = 0.89;
       let note = '';
       if (spec.story === 'blunders') {
         if (li === RADIUS_LAB && ii === 0) z = z / 2; // the hydrodynamic radius, reported as a diameter
@@ -331,14 +431,20 @@ function labResults(
           {
             measurandId: measurandIds[0]!,
             replicates: reps(z, lab.noise, 1),
-            uncertainty: li % 3 === 0 ? { kind: 'expanded' as const, value: round(0.03 * z, 1), k: 2 } : null,
+            uncertainty:
+              li % 3 === 0 ? { kind: 'expanded' as const, value: round(0.03 * z, 1), k: 2 } : null,
           },
           { measurandId: measurandIds[1]!, replicates: reps(pdi, 0.08, 3), uncertainty: null },
         ],
         conditions: {
           instrument: lab.instrument,
-          laserWavelengthNm: lab.instrument.includes('532') ? 532 : lab.instrument.includes('658') ? 658 : 633,
-          scatteringAngleDeg: lab.instrument.includes('90°') && !lab.instrument.includes('173') ? 90 : 173,
+          laserWavelengthNm: lab.instrument.includes('532')
+            ? 532
+            : lab.instrument.includes('658')
+              ? 658
+              : 633,
+          scatteringAngleDeg:
+            lab.instrument.includes('90°') && !lab.instrument.includes('173') ? 90 : 173,
           temperatureC,
           equilibrationMin: 2 + (li % 4),
           dispersant: it.material.includes('NaCl') ? '10 mM NaCl' : 'water',
@@ -357,30 +463,54 @@ function labResults(
 }
 
 /** Aldergrove has started on its action signal; an older investigation of another lab is closed. */
-async function storyInvestigations(em: EntityManager, lab1Id: string, closedAt: Date): Promise<void> {
+async function storyInvestigations(
+  em: EntityManager,
+  lab1Id: string,
+  closedAt: Date,
+): Promise<void> {
   const open = await em.find(Investigation, { where: { organisationId: lab1Id, state: 'open' } });
   for (const inv of open) {
-    await em.update(Investigation, { id: inv.id }, {
-      causeCategory: 'dispersant',
-      rootCause: 'The analysis used the viscosity of water at 20 °C while the cell was held at 25 °C.',
-      correctiveAction: 'SOP updated to read the viscosity from the measured cell temperature; results re-analysed.',
-    });
+    await em.update(
+      Investigation,
+      { id: inv.id },
+      {
+        causeCategory: 'dispersant',
+        rootCause:
+          'The analysis used the viscosity of water at 20 °C while the cell was held at 25 °C.',
+        correctiveAction:
+          'SOP updated to read the viscosity from the measured cell temperature; results re-analysed.',
+      },
+    );
   }
-  const others = await em.find(Investigation, { where: { state: 'open' }, order: { createdAt: 'ASC' }, take: 2 });
+  const others = await em.find(Investigation, {
+    where: { state: 'open' },
+    order: { createdAt: 'ASC' },
+    take: 2,
+  });
   for (const inv of others.filter((i) => i.organisationId !== lab1Id).slice(0, 1)) {
-    await em.update(Investigation, { id: inv.id }, {
-      causeCategory: 'sample-preparation',
-      rootCause: 'Diluent was not filtered; dust in the cuvette.',
-      correctiveAction: 'Diluent now filtered through 0.2 µm; cuvettes rinsed with filtered water.',
-      effectivenessCheck: 'Repeat of the retained sample within 2 % of the assigned value.',
-      state: 'closed',
-      closedAt,
-    });
+    await em.update(
+      Investigation,
+      { id: inv.id },
+      {
+        causeCategory: 'sample-preparation',
+        rootCause: 'Diluent was not filtered; dust in the cuvette.',
+        correctiveAction:
+          'Diluent now filtered through 0.2 µm; cuvettes rinsed with filtered water.',
+        effectivenessCheck: 'Repeat of the retained sample within 2 % of the assigned value.',
+        state: 'closed',
+        closedAt,
+      },
+    );
   }
 }
 
 /** A history of instrument checks for every lab; the dust lab has one failure. */
-async function instrumentChecks(em: EntityManager, labIds: string[], rnd: () => number, now: Date): Promise<void> {
+async function instrumentChecks(
+  em: EntityManager,
+  labIds: string[],
+  rnd: () => number,
+  now: Date,
+): Promise<void> {
   const rows = [];
   for (const [li, labId] of labIds.entries()) {
     // about eight and a half months, two and a half months and twelve days before "today"
@@ -388,7 +518,14 @@ async function instrumentChecks(em: EntityManager, labIds: string[], rnd: () => 
       const when = addDays(now, -daysAgo);
       when.setUTCHours(9, 0, 0, 0);
       const failing = li === DUST_LAB && k === 0;
-      const spec = { referenceValueNm: 100, toleranceNm: 2, pdiLimit: 0.05, setPointC: 25, temperatureToleranceC: 0.5, minEquilibrationMin: 2 };
+      const spec = {
+        referenceValueNm: 100,
+        toleranceNm: 2,
+        pdiLimit: 0.05,
+        setPointC: 25,
+        temperatureToleranceC: 0.5,
+        minEquilibrationMin: 2,
+      };
       const runs = [0, 1, 2].map(() => ({
         zAverageNm: round(failing ? 109 + 4 * rnd() : 100 + 2.4 * (rnd() - 0.5), 1),
         pdi: round(failing ? 0.09 + 0.04 * rnd() : 0.015 + 0.02 * rnd(), 3),
@@ -418,8 +555,11 @@ async function grants(em: EntityManager, labIds: string[], now: Date): Promise<v
   const assessor = await em.findOneByOrFail(User, { email: 'assessor@ringlet.example' });
   for (const labId of labIds.slice(0, 2)) {
     await em.insert(AssessorGrant, {
-      organisationId: labId, assessorId: assessor.id, grantedBy: null,
-      startsOn: isoDate(addDays(now, -335)), endsOn: isoDate(addDays(now, 210)),
+      organisationId: labId,
+      assessorId: assessor.id,
+      grantedBy: null,
+      startsOn: isoDate(addDays(now, -335)),
+      endsOn: isoDate(addDays(now, 210)),
     });
   }
 }

@@ -35,9 +35,26 @@ export function scoreBarOption(g: ReportGroup, highlightCode?: string): Option {
   return {
     ...BASE,
     grid: { left: 40, right: 40, top: 34, bottom: 30 },
-    title: { text: `${kind}-scores, item ${g.itemCode}, ${g.measurandName}`, left: 'center', top: 2, textStyle: { fontSize: 12, color: PALETTE.ink } },
-    xAxis: { type: 'category', data: rows.map((r) => r.p.code), axisLabel: { show: rows.length <= 40, fontSize: 8, rotate: 90 }, axisTick: { show: false } },
-    yAxis: { type: 'value', min: -5, max: 5, interval: 1, axisLabel: { fontSize: 9 }, splitLine: { lineStyle: { color: '#e6e9ed' } } },
+    title: {
+      text: `${kind}-scores, item ${g.itemCode}, ${g.measurandName}`,
+      left: 'center',
+      top: 2,
+      textStyle: { fontSize: 12, color: PALETTE.ink },
+    },
+    xAxis: {
+      type: 'category',
+      data: rows.map((r) => r.p.code),
+      axisLabel: { show: rows.length <= 40, fontSize: 8, rotate: 90 },
+      axisTick: { show: false },
+    },
+    yAxis: {
+      type: 'value',
+      min: -5,
+      max: 5,
+      interval: 1,
+      axisLabel: { fontSize: 9 },
+      splitLine: { lineStyle: { color: '#e6e9ed' } },
+    },
     // Past 200 participants the sorted scores are one line (one SVG path instead of a bar each).
     series: [
       rows.length > 200
@@ -59,42 +76,71 @@ export function scoreBarOption(g: ReportGroup, highlightCode?: string): Option {
                     symbolSize: 24,
                     itemStyle: { color: PALETTE.carmine },
                     label: { fontSize: 8, formatter: 'you' },
-                    data: [{ coord: [rows.findIndex((r) => r.p.code === highlightCode), Math.max(-5, Math.min(5, rows.find((r) => r.p.code === highlightCode)!.s))] }],
+                    data: [
+                      {
+                        coord: [
+                          rows.findIndex((r) => r.p.code === highlightCode),
+                          Math.max(
+                            -5,
+                            Math.min(5, rows.find((r) => r.p.code === highlightCode)!.s),
+                          ),
+                        ],
+                      },
+                    ],
                   },
                 }
               : {}),
           }
         : {
-        type: 'bar',
-        barCategoryGap: '20%',
-        data: rows.map((r) => ({
-          value: Math.max(-5, Math.min(5, r.s)),
-          itemStyle: {
-            color: r.p.code === highlightCode ? PALETTE.ink : SIGNAL_COLOURS[r.p.signal ?? 'acceptable'],
+            type: 'bar',
+            barCategoryGap: '20%',
+            data: rows.map((r) => ({
+              value: Math.max(-5, Math.min(5, r.s)),
+              itemStyle: {
+                color:
+                  r.p.code === highlightCode
+                    ? PALETTE.ink
+                    : SIGNAL_COLOURS[r.p.signal ?? 'acceptable'],
+              },
+              // A score beyond the axis is drawn at ±5 with its value written across the bar.
+              ...(Math.abs(r.s) > 5
+                ? {
+                    label: {
+                      show: true,
+                      position: r.s > 0 ? 'insideTop' : 'insideBottom',
+                      rotate: 90,
+                      fontSize: 7,
+                      color: '#ffffff',
+                      formatter: r.s.toFixed(1),
+                    },
+                  }
+                : {}),
+            })),
+            markLine: limitLines([
+              { y: 3, label: '+3', colour: PALETTE.carmine },
+              { y: 2, label: '+2', colour: PALETTE.saffron },
+              { y: -2, label: '−2', colour: PALETTE.saffron },
+              { y: -3, label: '−3', colour: PALETTE.carmine },
+            ]),
           },
-          // A score beyond the axis is drawn at ±5 with its value written across the bar.
-          ...(Math.abs(r.s) > 5
-            ? { label: { show: true, position: r.s > 0 ? 'insideTop' : 'insideBottom', rotate: 90, fontSize: 7, color: '#ffffff', formatter: r.s.toFixed(1) } }
-            : {}),
-        })),
-        markLine: limitLines([
-          { y: 3, label: '+3', colour: PALETTE.carmine },
-          { y: 2, label: '+2', colour: PALETTE.saffron },
-          { y: -2, label: '−2', colour: PALETTE.saffron },
-          { y: -3, label: '−3', colour: PALETTE.carmine },
-        ]),
-      },
     ],
   };
 }
 
 /** Results outside the histogram's axis (x_pt ± 5σ_pt), lowest and highest, with their codes. */
-export function offScale(g: ReportGroup): { below: { code: string; result: number }[]; above: { code: string; result: number }[] } {
+export function offScale(g: ReportGroup): {
+  below: { code: string; result: number }[];
+  above: { code: string; result: number }[];
+} {
   const values = g.participants.filter((p) => Number.isFinite(p.result));
   if (g.assignedValue === null || g.sigmaPt === null) return { below: [], above: [] };
   const lo = g.assignedValue - 5 * g.sigmaPt;
   const hi = g.assignedValue + 5 * g.sigmaPt;
-  const pick = (f: (v: number) => boolean) => values.filter((p) => f(p.result)).map((p) => ({ code: p.code, result: p.result })).sort((a, b) => a.result - b.result);
+  const pick = (f: (v: number) => boolean) =>
+    values
+      .filter((p) => f(p.result))
+      .map((p) => ({ code: p.code, result: p.result }))
+      .sort((a, b) => a.result - b.result);
   return { below: pick((v) => v < lo), above: pick((v) => v > hi) };
 }
 
@@ -121,35 +167,84 @@ export function distributionOption(g: ReportGroup, ownResult?: number): Option {
   // Results outside x_pt ± 5σ_pt are not put into an edge bin (that would show them at a value
   // they do not have): the chart notes how many lie beyond each end, and the report lists them.
   const { below, above } = offScale(g);
-  for (const v of values) if (v >= lo && v <= hi) counts[Math.min(bins - 1, Math.floor((v - lo) / w))]!++;
+  for (const v of values)
+    if (v >= lo && v <= hi) counts[Math.min(bins - 1, Math.floor((v - lo) / w))]!++;
   const centre = (i: number) => lo + (i + 0.5) * w;
-  const lines: Option[] = [{ xAxis: x, name: 'x_pt', lineStyle: { color: PALETTE.ink, type: 'solid', width: 1.5 } }];
+  const lines: Option[] = [
+    { xAxis: x, name: 'x_pt', lineStyle: { color: PALETTE.ink, type: 'solid', width: 1.5 } },
+  ];
   if (g.sigmaPt !== null) {
-    lines.push({ xAxis: x - 2 * s, name: '−2σ', lineStyle: { color: PALETTE.saffron } }, { xAxis: x + 2 * s, name: '+2σ', lineStyle: { color: PALETTE.saffron } });
+    lines.push(
+      { xAxis: x - 2 * s, name: '−2σ', lineStyle: { color: PALETTE.saffron } },
+      { xAxis: x + 2 * s, name: '+2σ', lineStyle: { color: PALETTE.saffron } },
+    );
   }
   if (ownResult !== undefined) {
     const off = ownResult < lo || ownResult > hi;
-    lines.push({ xAxis: Math.max(lo, Math.min(hi, ownResult)), name: off ? 'you (off scale)' : 'you', lineStyle: { color: PALETTE.carmine, type: 'solid', width: 2 } });
+    lines.push({
+      xAxis: Math.max(lo, Math.min(hi, ownResult)),
+      name: off ? 'you (off scale)' : 'you',
+      lineStyle: { color: PALETTE.carmine, type: 'solid', width: 2 },
+    });
   }
   const d = Math.max(0, g.decimals);
   // Below the axis labels, outside the plot area: how many results the axis leaves out (listed under the chart).
-  const off = [below.length ? `${below.length} below` : '', above.length ? `${above.length} above` : ''].filter(Boolean).join(', ');
-  const notes: Option[] = off ? [{ type: 'text', left: 40, bottom: 3, style: { text: `Off the axis: ${off} (listed under the chart)`, fontSize: 9, fill: PALETTE.carmine } }] : [];
+  const off = [
+    below.length ? `${below.length} below` : '',
+    above.length ? `${above.length} above` : '',
+  ]
+    .filter(Boolean)
+    .join(', ');
+  const notes: Option[] = off
+    ? [
+        {
+          type: 'text',
+          left: 40,
+          bottom: 3,
+          style: {
+            text: `Off the axis: ${off} (listed under the chart)`,
+            fontSize: 9,
+            fill: PALETTE.carmine,
+          },
+        },
+      ]
+    : [];
   return {
     ...BASE,
     // The title sits above the limit-line labels (x_pt, ±2σ), which sit above the plot area.
     grid: { left: 40, right: 20, top: 52, bottom: off ? 42 : 30 },
-    title: { text: `Results, item ${g.itemCode}, ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`, left: 'center', top: 2, textStyle: { fontSize: 12, color: PALETTE.ink } },
+    title: {
+      text: `Results, item ${g.itemCode}, ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`,
+      left: 'center',
+      top: 2,
+      textStyle: { fontSize: 12, color: PALETTE.ink },
+    },
     graphic: notes,
-    xAxis: { type: 'value', min: lo, max: hi, axisLabel: { fontSize: 9, formatter: (v: number) => v.toFixed(d) } },
-    yAxis: { type: 'value', minInterval: 1, axisLabel: { fontSize: 9 }, splitLine: { lineStyle: { color: '#e6e9ed' } } },
+    xAxis: {
+      type: 'value',
+      min: lo,
+      max: hi,
+      axisLabel: { fontSize: 9, formatter: (v: number) => v.toFixed(d) },
+    },
+    yAxis: {
+      type: 'value',
+      minInterval: 1,
+      axisLabel: { fontSize: 9 },
+      splitLine: { lineStyle: { color: '#e6e9ed' } },
+    },
     series: [
       {
         type: 'bar',
         barWidth: '95%',
         data: counts.map((c, i) => [centre(i), c]),
         itemStyle: { color: '#8fb3c9' },
-        markLine: { silent: true, symbol: 'none', label: { show: true, position: 'end', formatter: '{b}', fontSize: 9 }, lineStyle: { type: 'dashed' }, data: lines },
+        markLine: {
+          silent: true,
+          symbol: 'none',
+          label: { show: true, position: 'end', formatter: '{b}', fontSize: 9 },
+          lineStyle: { type: 'dashed' },
+          data: lines,
+        },
       },
     ],
   };
@@ -157,14 +252,28 @@ export function distributionOption(g: ReportGroup, ownResult?: number): Option {
 
 /** A lab's Track record: its z (or z′) per round, one line per measurand, limits ±2 and ±3. */
 export function trackRecordOption(series: TrackSeries[]): Option {
-  const labels = [...new Set(series.flatMap((s) => s.points.map((p) => `${p.roundCode} ${p.itemCode}`)))];
+  const labels = [
+    ...new Set(series.flatMap((s) => s.points.map((p) => `${p.roundCode} ${p.itemCode}`))),
+  ];
   return {
     ...BASE,
     grid: { left: 40, right: 40, top: 48, bottom: 50 },
-    title: { text: 'Track record', left: 'center', top: 2, textStyle: { fontSize: 12, color: PALETTE.ink } },
+    title: {
+      text: 'Track record',
+      left: 'center',
+      top: 2,
+      textStyle: { fontSize: 12, color: PALETTE.ink },
+    },
     legend: { top: 22, textStyle: { fontSize: 9 } },
     xAxis: { type: 'category', data: labels, axisLabel: { fontSize: 8, rotate: 30 } },
-    yAxis: { type: 'value', min: -4, max: 4, interval: 1, axisLabel: { fontSize: 9 }, splitLine: { lineStyle: { color: '#e6e9ed' } } },
+    yAxis: {
+      type: 'value',
+      min: -4,
+      max: 4,
+      interval: 1,
+      axisLabel: { fontSize: 9 },
+      splitLine: { lineStyle: { color: '#e6e9ed' } },
+    },
     series: series.map((s, i) => ({
       type: 'line',
       name: s.measurandName,
@@ -179,7 +288,17 @@ export function trackRecordOption(series: TrackSeries[]): Option {
               symbolSize: 8,
               itemStyle: { color: SIGNAL_COLOURS[p.signal] },
               // Drawn at the ±4 edge: the true score is written beside the mark.
-              ...(Math.abs(p.z) > 4 ? { label: { show: true, position: p.z > 0 ? 'bottom' : 'top', fontSize: 8, color: PALETTE.carmine, formatter: p.z.toFixed(1) } } : {}),
+              ...(Math.abs(p.z) > 4
+                ? {
+                    label: {
+                      show: true,
+                      position: p.z > 0 ? 'bottom' : 'top',
+                      fontSize: 8,
+                      color: PALETTE.carmine,
+                      formatter: p.z.toFixed(1),
+                    },
+                  }
+                : {}),
             }
           : null;
       }),

@@ -5,7 +5,11 @@
 import * as echarts from 'echarts';
 
 /** Renders an ECharts option to SVG text at width × height (CSS px = PDF pt at scale 1). */
-export function renderChartSvg(option: Record<string, unknown>, width: number, height: number): string {
+export function renderChartSvg(
+  option: Record<string, unknown>,
+  width: number,
+  height: number,
+): string {
   const chart = echarts.init(null, null, { renderer: 'svg', ssr: true, width, height });
   try {
     chart.setOption(option);

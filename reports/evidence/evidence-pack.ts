@@ -33,12 +33,15 @@ export function evidenceManifest(files: EvidenceFile[], meta: EvidenceMeta): Evi
 
 /** Lines of the README that describe the top-level files (the order of the zip). */
 const DESCRIPTIONS: Record<string, string> = {
-  'rounds.json': 'the laboratory’s rounds with participant codes, evaluation versions and publication dates (JSON).',
-  'investigations.pdf': 'this laboratory’s investigations of warning and action signals: cause, corrective action, effectiveness check (readable).',
+  'rounds.json':
+    'the laboratory’s rounds with participant codes, evaluation versions and publication dates (JSON).',
+  'investigations.pdf':
+    'this laboratory’s investigations of warning and action signals: cause, corrective action, effectiveness check (readable).',
   'investigations.json': 'the same investigations as data (JSON).',
   'instrument-checks.pdf': 'its instrument checks against reference materials (readable).',
   'instrument-checks.json': 'the same instrument checks as data (JSON).',
-  'audit-extract.json': 'the audit-trail events about this laboratory, its investigations and the evaluation of its rounds (JSON).',
+  'audit-extract.json':
+    'the audit-trail events about this laboratory, its investigations and the evaluation of its rounds (JSON).',
 };
 
 /**
@@ -68,13 +71,18 @@ export function evidenceReadme(meta: EvidenceMeta, listed: string[]): string {
 }
 
 /** Zips the files with README.txt and manifest.json; resolves to the zip bytes. */
-export async function buildEvidencePack(files: EvidenceFile[], meta: EvidenceMeta): Promise<Buffer> {
+export async function buildEvidencePack(
+  files: EvidenceFile[],
+  meta: EvidenceMeta,
+): Promise<Buffer> {
   const listed = [...files.map((f) => f.path), 'README.txt'];
   const readme = Buffer.from(evidenceReadme(meta, listed), 'utf8');
   const all = [...files, { path: 'README.txt', data: readme }];
   const manifest = evidenceManifest(all, meta);
   // archiver 7 exports a factory function; the installed @types/archiver (8.x) describes classes.
-  const zip = (archiver as unknown as (format: 'zip', options: object) => Archiver)('zip', { zlib: { level: 6 } });
+  const zip = (archiver as unknown as (format: 'zip', options: object) => Archiver)('zip', {
+    zlib: { level: 6 },
+  });
   const out = new PassThrough();
   const chunks: Buffer[] = [];
   out.on('data', (c: Buffer) => chunks.push(c));
@@ -85,7 +93,10 @@ export async function buildEvidencePack(files: EvidenceFile[], meta: EvidenceMet
   zip.pipe(out);
   const date = new Date(meta.generatedAt);
   for (const f of all) zip.append(f.data, { name: f.path, date });
-  zip.append(Buffer.from(JSON.stringify(manifest, null, 2), 'utf8'), { name: 'manifest.json', date });
+  zip.append(Buffer.from(JSON.stringify(manifest, null, 2), 'utf8'), {
+    name: 'manifest.json',
+    date,
+  });
   await zip.finalize();
   return done;
 }

@@ -3,7 +3,10 @@
  * signals, and its instrument-check history. The same records stay beside them as JSON.
  */
 import { CAUSE_CATEGORY_LABELS, type CauseCategory } from '../../shared/contracts/evaluation';
-import type { AssessorInstrumentCheck, AssessorInvestigation } from '../../shared/contracts/reports';
+import type {
+  AssessorInstrumentCheck,
+  AssessorInvestigation,
+} from '../../shared/contracts/reports';
 import type { ReportProviderInfo } from '../model';
 import { fixed, PALETTE, SCORE_DECIMALS, SCORE_LABEL, SIGNAL_WORDS } from '../text';
 import { createDoc, finishDoc, heading, MARGIN, wrapTable, write } from '../pdf/document';
@@ -16,18 +19,31 @@ export interface LabRecordsMeta {
 }
 
 function head(doc: Parameters<typeof write>[0], title: string, meta: LabRecordsMeta): void {
-  write(doc, meta.provider.name || 'PT provider', { size: 11, bold: true, colour: PALETTE.teal, gap: 4 });
+  write(doc, meta.provider.name || 'PT provider', {
+    size: 11,
+    bold: true,
+    colour: PALETTE.teal,
+    gap: 4,
+  });
   write(doc, title, { size: 20, bold: true, colour: PALETTE.ink, gap: 6, tag: 'H1' });
   write(doc, `Lab: ${meta.lab}`, { size: 11, gap: 2 });
-  write(doc, `Made ${meta.generatedAt.slice(0, 16).replace('T', ' ')} UTC for ${meta.generatedFor}, as part of an Evidence pack. The same records are in the JSON file beside this one.`, { size: 9, colour: PALETTE.grey, gap: 10 });
+  write(
+    doc,
+    `Made ${meta.generatedAt.slice(0, 16).replace('T', ' ')} UTC for ${meta.generatedFor}, as part of an Evidence pack. The same records are in the JSON file beside this one.`,
+    { size: 9, colour: PALETTE.grey, gap: 10 },
+  );
 }
 
 const STATE_WORDS = { open: 'Open', closed: 'Closed' } as const;
 
-export async function buildInvestigationsPdf(rows: AssessorInvestigation[], meta: LabRecordsMeta): Promise<Buffer> {
+export async function buildInvestigationsPdf(
+  rows: AssessorInvestigation[],
+  meta: LabRecordsMeta,
+): Promise<Buffer> {
   const { doc, done } = createDoc({
     title: `Investigations of ${meta.lab}`,
-    subject: 'Investigations of warning and action signals, with cause, corrective action and effectiveness check',
+    subject:
+      'Investigations of warning and action signals, with cause, corrective action and effectiveness check',
     footer: `${meta.provider.name || 'PT provider'} · investigations · ${meta.lab}`,
     author: meta.provider.name,
     createdAt: new Date(meta.generatedAt),
@@ -55,7 +71,9 @@ export async function buildInvestigationsPdf(rows: AssessorInvestigation[], meta
         `${r.itemCode}, ${r.measurandName}`,
         `${SCORE_LABEL[r.scoreKind] ?? 'score'} = ${fixed(r.score, SCORE_DECIMALS)}, ${SIGNAL_WORDS[r.signal]}`,
         `${STATE_WORDS[r.state]}, opened ${r.createdAt.slice(0, 10)}${r.closedAt ? `, closed ${r.closedAt.slice(0, 10)}` : ''}`,
-        r.causeCategory ? (CAUSE_CATEGORY_LABELS[r.causeCategory as CauseCategory] ?? 'Other') : '—',
+        r.causeCategory
+          ? (CAUSE_CATEGORY_LABELS[r.causeCategory as CauseCategory] ?? 'Other')
+          : '—',
         r.rootCause || '—',
         r.correctiveAction || '—',
         r.effectivenessCheck || '—',
@@ -67,7 +85,10 @@ export async function buildInvestigationsPdf(rows: AssessorInvestigation[], meta
   return done;
 }
 
-export async function buildInstrumentChecksPdf(rows: AssessorInstrumentCheck[], meta: LabRecordsMeta): Promise<Buffer> {
+export async function buildInstrumentChecksPdf(
+  rows: AssessorInstrumentCheck[],
+  meta: LabRecordsMeta,
+): Promise<Buffer> {
   const { doc, done } = createDoc({
     title: `Instrument checks of ${meta.lab}`,
     subject: 'Instrument checks against reference materials',
@@ -77,7 +98,8 @@ export async function buildInstrumentChecksPdf(rows: AssessorInstrumentCheck[], 
   });
   head(doc, 'Instrument checks', meta);
   heading(doc, `${rows.length} instrument check(s)`, 2);
-  if (rows.length === 0) write(doc, 'The laboratory has recorded no instrument check.', { size: 10 });
+  if (rows.length === 0)
+    write(doc, 'The laboratory has recorded no instrument check.', { size: 10 });
   else {
     const w = doc.page.width - 2 * MARGIN;
     wrapTable(
@@ -90,7 +112,14 @@ export async function buildInstrumentChecksPdf(rows: AssessorInstrumentCheck[], 
         { title: 'Outcome', width: 45 },
         { title: 'Notes', width: w - 395 },
       ],
-      rows.map((r) => [r.checkedAt.slice(0, 10), r.instrument, r.material, `${r.referenceValueNm} ± ${r.toleranceNm}`, r.passed ? 'Pass' : 'Fail', r.notes || '—']),
+      rows.map((r) => [
+        r.checkedAt.slice(0, 10),
+        r.instrument,
+        r.material,
+        `${r.referenceValueNm} ± ${r.toleranceNm}`,
+        r.passed ? 'Pass' : 'Fail',
+        r.notes || '—',
+      ]),
       8,
     );
   }

@@ -14,7 +14,14 @@ describe('round workbook', () => {
 
   it('holds the evaluation’s numbers: x_pt, u(x_pt), σ_pt and n on the summary, scores per participant', async () => {
     const wb = await read(await buildRoundWorkbook(input));
-    expect(wb.worksheets.map((w) => w.name)).toEqual(['Summary', 'A Z-average', 'A PDI', 'B Z-average', 'B PDI', 'Homogeneity and stability']);
+    expect(wb.worksheets.map((w) => w.name)).toEqual([
+      'Summary',
+      'A Z-average',
+      'A PDI',
+      'B Z-average',
+      'B PDI',
+      'Homogeneity and stability',
+    ]);
     const summary = wb.getWorksheet('Summary')!;
     const g = input.groups[0]!;
     const row = summary.getRow(15); // 12 report rows, a blank row, the header
@@ -55,16 +62,29 @@ describe('round workbook', () => {
 
   it('neutralises user text starting with = + - @ so no formula runs', async () => {
     const hostile = '=HYPERLINK("http://x.test","click")';
-    const wb = await read(await buildRoundWorkbook(syntheticReportInput({ participants: 15, hostileText: hostile, reissueReason: '+1 corrected σ_pt' })));
+    const wb = await read(
+      await buildRoundWorkbook(
+        syntheticReportInput({
+          participants: 15,
+          hostileText: hostile,
+          reissueReason: '+1 corrected σ_pt',
+        }),
+      ),
+    );
     const summary = wb.getWorksheet('Summary')!;
     expect(summary.getRow(7).getCell(2).value).toBe(`'+1 corrected σ_pt`);
     expect(summary.getRow(1).getCell(2).value).toBe(`SYN-2025-1 · ${hostile}`); // starts with the code: stays text
-    expect(wb.getWorksheet('B PDI')!.getRow(5).getCell(17).value).toBe(`Other (see reason): ${hostile}`);
+    expect(wb.getWorksheet('B PDI')!.getRow(5).getCell(17).value).toBe(
+      `Other (see reason): ${hostile}`,
+    );
     expect(neutraliseFormula('@SUM(A1)')).toBe(`'@SUM(A1)`);
     expect(neutraliseFormula('-2+3')).toBe(`'-2+3`);
     expect(neutraliseFormula('P001')).toBe('P001');
     let formulas = 0;
-    for (const ws of wb.worksheets) ws.eachRow((r) => r.eachCell((c) => void (c.type === ExcelJS.ValueType.Formula && formulas++)));
+    for (const ws of wb.worksheets)
+      ws.eachRow((r) =>
+        r.eachCell((c) => void (c.type === ExcelJS.ValueType.Formula && formulas++)),
+      );
     expect(formulas).toBe(0);
   });
 
@@ -84,13 +104,28 @@ describe('round workbook', () => {
     expect((issue.getCell(2).value as Date).toISOString()).toBe(input.evaluation.publishedAt);
     expect(summary.getRow(9).getCell(2).value).toBeInstanceOf(Date); // results due
     // No label is wider than its column (the Summary cut its labels before).
-    for (let r = 1; r <= 12; r++) expect(String(summary.getRow(r).getCell(1).value).length).toBeLessThanOrEqual(summary.getColumn(1).width!);
+    for (let r = 1; r <= 12; r++)
+      expect(String(summary.getRow(r).getCell(1).value).length).toBeLessThanOrEqual(
+        summary.getColumn(1).width!,
+      );
     const sheet = wb.getWorksheet('A Z-average')!;
     expect(sheet.autoFilter).toBeTruthy();
     expect(summary.autoFilter).toBeTruthy();
-    for (const ws of wb.worksheets) expect(ws.pageSetup).toMatchObject({ fitToPage: true, fitToWidth: 1, fitToHeight: 0, orientation: 'landscape' });
-    const cf = (sheet as unknown as { conditionalFormattings: { ref: string; rules: { formulae: string[] }[] }[] }).conditionalFormattings;
-    const words = cf.flatMap((c) => c.rules.map((r) => /SEARCH\("([^"]+)"/.exec(r.formulae[0]!)?.[1]));
+    for (const ws of wb.worksheets)
+      expect(ws.pageSetup).toMatchObject({
+        fitToPage: true,
+        fitToWidth: 1,
+        fitToHeight: 0,
+        orientation: 'landscape',
+      });
+    const cf = (
+      sheet as unknown as {
+        conditionalFormattings: { ref: string; rules: { formulae: string[] }[] }[];
+      }
+    ).conditionalFormattings;
+    const words = cf.flatMap((c) =>
+      c.rules.map((r) => /SEARCH\("([^"]+)"/.exec(r.formulae[0]!)?.[1]),
+    );
     expect(words.sort()).toEqual(['acceptable', 'action signal', 'warning signal']);
     // One wording: "warning signal" and "action signal" everywhere, never a bare "Warning"/"Action" header.
     const heads = summary.getRow(14).values as unknown[];

@@ -42,12 +42,21 @@ function state(doc: Doc): DocState {
 }
 
 /** Adds content as a structure element of the given type under the document (tagged PDF). */
-export function tagged(doc: Doc, type: string, draw: () => void, options: Parameters<Doc['struct']>[1] = {}): void {
+export function tagged(
+  doc: Doc,
+  type: string,
+  draw: () => void,
+  options: Parameters<Doc['struct']>[1] = {},
+): void {
   state(doc).root.add(doc.struct(type, options, draw));
 }
 
 /** Draws decoration (rules, frames, page furniture) as an artifact, outside the logical structure. */
-export function artifact(doc: Doc, draw: () => void, type: 'Pagination' | 'Layout' = 'Layout'): void {
+export function artifact(
+  doc: Doc,
+  draw: () => void,
+  type: 'Pagination' | 'Layout' = 'Layout',
+): void {
   doc.markContent('Artifact', { type });
   draw();
   doc.endMarkedContent();
@@ -65,7 +74,8 @@ export function createDoc(meta: DocMeta): { doc: Doc; done: Promise<Buffer> } {
       Title: meta.title,
       Subject: meta.subject,
       Author: meta.author || 'PT provider',
-      Keywords: meta.keywords ?? 'proficiency testing, ISO/IEC 17043, ISO 13528, dynamic light scattering',
+      Keywords:
+        meta.keywords ?? 'proficiency testing, ISO/IEC 17043, ISO 13528, dynamic light scattering',
       Creator: 'Ringlet',
       Producer: 'Ringlet (pdfkit)',
       CreationDate: meta.createdAt ?? new Date(),
@@ -99,12 +109,28 @@ export function finishDoc(doc: Doc): void {
     const y = doc.page.height - MARGIN + 8;
     const bottom = doc.page.margins.bottom;
     doc.page.margins.bottom = 0;
-    artifact(doc, () => {
-      doc.moveTo(MARGIN, y - 4).lineTo(doc.page.width - MARGIN, y - 4).lineWidth(0.5).strokeColor(PALETTE.rule, 1).stroke();
-      doc.font(FONT.regular).fontSize(7).fillColor(PALETTE.grey, 1);
-      doc.text(printable(footer), MARGIN, y, { width: doc.page.width - 2 * MARGIN - 60, lineBreak: false });
-      doc.text(`page ${i + 1} of ${range.count}`, doc.page.width - MARGIN - 60, y, { width: 60, align: 'right', lineBreak: false });
-    }, 'Pagination');
+    artifact(
+      doc,
+      () => {
+        doc
+          .moveTo(MARGIN, y - 4)
+          .lineTo(doc.page.width - MARGIN, y - 4)
+          .lineWidth(0.5)
+          .strokeColor(PALETTE.rule, 1)
+          .stroke();
+        doc.font(FONT.regular).fontSize(7).fillColor(PALETTE.grey, 1);
+        doc.text(printable(footer), MARGIN, y, {
+          width: doc.page.width - 2 * MARGIN - 60,
+          lineBreak: false,
+        });
+        doc.text(`page ${i + 1} of ${range.count}`, doc.page.width - MARGIN - 60, y, {
+          width: 60,
+          align: 'right',
+          lineBreak: false,
+        });
+      },
+      'Pagination',
+    );
     doc.page.margins.bottom = bottom;
   }
   root.end();
@@ -136,8 +162,14 @@ function writeRaw(doc: Doc, text: string, o: WriteOptions): void {
   const width = o.width ?? doc.page.width - doc.page.margins.left - doc.page.margins.right;
   runs.forEach((r, i) => {
     doc.font(base + r.subset);
-    const opts = { width, align: o.align ?? 'left', continued: i < runs.length - 1, paragraphGap: o.gap ?? 2 };
-    if (i === 0 && (o.x !== undefined || o.y !== undefined)) doc.text(r.text, o.x ?? doc.x, o.y ?? doc.y, opts);
+    const opts = {
+      width,
+      align: o.align ?? 'left',
+      continued: i < runs.length - 1,
+      paragraphGap: o.gap ?? 2,
+    };
+    if (i === 0 && (o.x !== undefined || o.y !== undefined))
+      doc.text(r.text, o.x ?? doc.x, o.y ?? doc.y, opts);
     else doc.text(r.text, opts);
   });
   doc.x = o.x ?? doc.page.margins.left;
@@ -171,7 +203,12 @@ export interface PlotArea {
 export const layoutProbe: { enabled: boolean; plots: PlotArea[] } = { enabled: false, plots: [] };
 
 /** A chart or picture: a Figure with its text alternative (and, for a chart, its plot area). */
-export function figure(doc: Doc, alt: string, draw: () => void, plot?: Omit<PlotArea, 'page'>): void {
+export function figure(
+  doc: Doc,
+  alt: string,
+  draw: () => void,
+  plot?: Omit<PlotArea, 'page'>,
+): void {
   tagged(doc, 'Figure', draw, { alt: printable(alt) });
   if (plot && layoutProbe.enabled) {
     const range = doc.bufferedPageRange();
@@ -180,12 +217,29 @@ export function figure(doc: Doc, alt: string, draw: () => void, plot?: Omit<Plot
 }
 
 /** The plot area (inside the axes) of an ECharts option drawn at (x, y), `width` points wide from an svgW × svgH rendering. */
-export function plotArea(option: Record<string, unknown>, svgW: number, svgH: number, x: number, y: number, width: number): Omit<PlotArea, 'page'> {
-  const g = (option['grid'] ?? {}) as { left?: number; right?: number; top?: number; bottom?: number };
+export function plotArea(
+  option: Record<string, unknown>,
+  svgW: number,
+  svgH: number,
+  x: number,
+  y: number,
+  width: number,
+): Omit<PlotArea, 'page'> {
+  const g = (option['grid'] ?? {}) as {
+    left?: number;
+    right?: number;
+    top?: number;
+    bottom?: number;
+  };
   const k = width / svgW;
   const left = g.left ?? 0;
   const top = g.top ?? 0;
-  return { x: x + left * k, y: y + top * k, width: (svgW - left - (g.right ?? 0)) * k, height: (svgH - top - (g.bottom ?? 0)) * k };
+  return {
+    x: x + left * k,
+    y: y + top * k,
+    width: (svgW - left - (g.right ?? 0)) * k,
+    height: (svgH - top - (g.bottom ?? 0)) * k,
+  };
 }
 
 /** Starts a new page when less than `points` of height remain. */
@@ -216,7 +270,12 @@ export interface Column {
  * (pdfkit's own wrapping is the slow part for thousands of cells). Repeats the header on each
  * new page.
  */
-export function table(doc: Doc, columns: Column[], rows: (string | { text: string; colour?: string; bold?: boolean })[][], size = 7.5): void {
+export function table(
+  doc: Doc,
+  columns: Column[],
+  rows: (string | { text: string; colour?: string; bold?: boolean })[][],
+  size = 7.5,
+): void {
   const rowH = size * 1.55;
   const left = doc.page.margins.left;
   const tableEl = doc.struct('Table');
@@ -225,7 +284,17 @@ export function table(doc: Doc, columns: Column[], rows: (string | { text: strin
   const header = (repeat: boolean) => {
     let x = left;
     const y = doc.y;
-    artifact(doc, () => doc.rect(left, y - 1, columns.reduce((s, c) => s + c.width, 0), rowH + 1).fillColor('#e8edf3', 1).fill());
+    artifact(doc, () =>
+      doc
+        .rect(
+          left,
+          y - 1,
+          columns.reduce((s, c) => s + c.width, 0),
+          rowH + 1,
+        )
+        .fillColor('#e8edf3', 1)
+        .fill(),
+    );
     const draw = () => {
       let hx = left;
       for (const c of columns) {
@@ -239,7 +308,9 @@ export function table(doc: Doc, columns: Column[], rows: (string | { text: strin
       const cells = columns.map((c) => {
         const cx = x;
         x += c.width;
-        return doc.struct('TH', {}, () => cell(doc, c.title, cx, y, c.width, c.align, size, true, PALETTE.ink));
+        return doc.struct('TH', {}, () =>
+          cell(doc, c.title, cx, y, c.width, c.align, size, true, PALETTE.ink),
+        );
       });
       tableEl.add(doc.struct('TR', {}, cells));
     }
@@ -257,12 +328,28 @@ export function table(doc: Doc, columns: Column[], rows: (string | { text: strin
     const drawCell = (v: (typeof r)[number], i: number, cx: number) => {
       const c = columns[i]!;
       const spec = typeof v === 'string' ? { text: v } : v;
-      cell(doc, spec.text, cx, y, c.width, c.align, size, spec.bold ?? false, spec.colour ?? '#1a1f26');
+      cell(
+        doc,
+        spec.text,
+        cx,
+        y,
+        c.width,
+        c.align,
+        size,
+        spec.bold ?? false,
+        spec.colour ?? '#1a1f26',
+      );
     };
     if (bigTable) {
       // Large tables: one marked row (a TD per cell costs a structure object each, seconds for 1,000 rows).
       const start = x;
-      tableEl.add(doc.struct('TR', {}, [doc.struct('TD', {}, () => r.reduce<number>((cx, v, i) => (drawCell(v, i, cx), cx + columns[i]!.width), start))]));
+      tableEl.add(
+        doc.struct('TR', {}, [
+          doc.struct('TD', {}, () =>
+            r.reduce<number>((cx, v, i) => (drawCell(v, i, cx), cx + columns[i]!.width), start),
+          ),
+        ]),
+      );
     } else {
       const cells = r.map((v, i) => {
         const cx = x;
@@ -340,21 +427,37 @@ function rgb(hex: string): string {
   return v;
 }
 
-function cell(doc: Doc, text: string, x: number, y: number, width: number, align: 'left' | 'right' | undefined, size: number, bold: boolean, colour: string): void {
+function cell(
+  doc: Doc,
+  text: string,
+  x: number,
+  y: number,
+  width: number,
+  align: 'left' | 'right' | undefined,
+  size: number,
+  bold: boolean,
+  colour: string,
+): void {
   const base = bold ? FONT.bold : FONT.regular;
   const runs = fontRuns(printable(text));
   if (runs.length === 0) return;
   const widths = runs.map((r) => quickWidth(doc, base + r.subset, r.text, size));
   const total = widths.reduce((a, b) => a + b, 0);
   let cx = align === 'right' ? x + width - 3 - total : x + 2;
-  const d = doc as unknown as { _font: FastFont; page: { height: number; fonts: Record<string, unknown> }; addContent(s: string): void };
+  const d = doc as unknown as {
+    _font: FastFont;
+    page: { height: number; fonts: Record<string, unknown> };
+    addContent(s: string): void;
+  };
   d.addContent(`q 1 0 0 -1 0 ${d.page.height} cm BT ${rgb(colour)} rg`);
   runs.forEach((r, i) => {
     doc.font(base + r.subset);
     const font = d._font;
     if (d.page.fonts[font.id] == null) d.page.fonts[font.id] = font.ref();
     const py = d.page.height - y - (font.ascender / 1000) * size;
-    d.addContent(`1 0 0 1 ${cx.toFixed(2)} ${py.toFixed(2)} Tm /${font.id} ${size} Tf [<${quickEncode(font, r.text)}>] TJ`);
+    d.addContent(
+      `1 0 0 1 ${cx.toFixed(2)} ${py.toFixed(2)} Tm /${font.id} ${size} Tf [<${quickEncode(font, r.text)}>] TJ`,
+    );
     cx += widths[i]!;
   });
   d.addContent('ET Q');
@@ -372,37 +475,94 @@ export function wrapTable(doc: Doc, columns: Column[], rows: string[][], size = 
   state(doc).root.add(tableEl);
   const rowHeight = (r: string[], bold: boolean) => {
     doc.font(bold ? FONT.bold : FONT.regular).fontSize(size);
-    return Math.max(...r.map((t, i) => doc.heightOfString(printable(t) || ' ', { width: columns[i]!.width - 2 * pad }))) + 2 * pad;
+    return (
+      Math.max(
+        ...r.map((t, i) =>
+          doc.heightOfString(printable(t) || ' ', { width: columns[i]!.width - 2 * pad }),
+        ),
+      ) +
+      2 * pad
+    );
   };
   const drawRow = (r: string[], bold: boolean, tag: 'TH' | 'TD', asArtifact: boolean) => {
     const h = rowHeight(r, bold);
     if (doc.y + h > doc.page.height - doc.page.margins.bottom) {
       doc.addPage();
-      if (tag === 'TD') drawRow(columns.map((c) => c.title), true, 'TH', true);
+      if (tag === 'TD')
+        drawRow(
+          columns.map((c) => c.title),
+          true,
+          'TH',
+          true,
+        );
     }
     const y = doc.y;
     if (bold) artifact(doc, () => doc.rect(left, y, total, h).fillColor('#e8edf3', 1).fill());
-    else artifact(doc, () => doc.moveTo(left, y + h).lineTo(left + total, y + h).lineWidth(0.3).strokeColor(PALETTE.rule, 1).stroke());
+    else
+      artifact(doc, () =>
+        doc
+          .moveTo(left, y + h)
+          .lineTo(left + total, y + h)
+          .lineWidth(0.3)
+          .strokeColor(PALETTE.rule, 1)
+          .stroke(),
+      );
     let x = left;
     const cells = r.map((t, i) => {
       const c = columns[i]!;
       const cx = x;
       x += c.width;
-      const draw = () => writeRaw(doc, t || ' ', { x: cx + pad, y: y + pad, width: c.width - 2 * pad, size, bold, colour: bold ? PALETTE.ink : '#1a1f26', align: c.align ?? 'left', gap: 0 });
+      const draw = () =>
+        writeRaw(doc, t || ' ', {
+          x: cx + pad,
+          y: y + pad,
+          width: c.width - 2 * pad,
+          size,
+          bold,
+          colour: bold ? PALETTE.ink : '#1a1f26',
+          align: c.align ?? 'left',
+          gap: 0,
+        });
       return asArtifact ? null : doc.struct(tag, {}, draw);
     });
     if (asArtifact) {
       x = left;
-      artifact(doc, () => r.forEach((t, i) => {
-        const c = columns[i]!;
-        writeRaw(doc, t || ' ', { x: x + pad, y: y + pad, width: c.width - 2 * pad, size, bold, colour: PALETTE.ink, align: c.align ?? 'left', gap: 0 });
-        x += c.width;
-      }), 'Pagination');
-    } else tableEl.add(doc.struct('TR', {}, cells.filter((c): c is PDFKit.PDFStructureElement => c !== null)));
+      artifact(
+        doc,
+        () =>
+          r.forEach((t, i) => {
+            const c = columns[i]!;
+            writeRaw(doc, t || ' ', {
+              x: x + pad,
+              y: y + pad,
+              width: c.width - 2 * pad,
+              size,
+              bold,
+              colour: PALETTE.ink,
+              align: c.align ?? 'left',
+              gap: 0,
+            });
+            x += c.width;
+          }),
+        'Pagination',
+      );
+    } else
+      tableEl.add(
+        doc.struct(
+          'TR',
+          {},
+          cells.filter((c): c is PDFKit.PDFStructureElement => c !== null),
+        ),
+      );
     doc.y = y + h;
   };
   ensureSpace(doc, 40);
-  drawRow(columns.map((c) => c.title), true, 'TH', false);
+  drawRow(
+    columns.map((c) => c.title),
+    true,
+    'TH',
+    false,
+  );
   for (const r of rows) drawRow(r, false, 'TD', false);
   tableEl.end();
   doc.x = left;

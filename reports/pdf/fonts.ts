@@ -11,7 +11,8 @@ import type PDFDocument from 'pdfkit';
 type Doc = InstanceType<typeof PDFDocument>;
 
 const DIR = join(require.resolve('@fontsource/noto-sans/package.json'), '..', 'files');
-const file = (subset: string, weight: number) => join(DIR, `noto-sans-${subset}-${weight}-normal.woff`);
+const file = (subset: string, weight: number) =>
+  join(DIR, `noto-sans-${subset}-${weight}-normal.woff`);
 
 export const FONT = { regular: 'Noto', bold: 'NotoBold' } as const;
 export type FontName = (typeof FONT)[keyof typeof FONT];
@@ -48,9 +49,18 @@ export function fontRuns(text: string): { text: string; subset: '' | '-ext' | '-
 }
 
 /** Characters our subsets lack, replaced by look-alikes the latin file has. */
-const REPLACE: Record<string, string> = { '≤': '<=', '≥': '>=', '√': 'sqrt', '₁': '1', '₂': '2', 'ȳ': 'y' };
+const REPLACE: Record<string, string> = {
+  '≤': '<=',
+  '≥': '>=',
+  '√': 'sqrt',
+  '₁': '1',
+  '₂': '2',
+  ȳ: 'y',
+};
 
 export function printable(text: string): string {
   // "√p" would print as "sqrtp": a root over a bare symbol gets parentheses, sqrt(p).
-  return text.replace(/√([\p{L}\p{N}_*]+)/gu, 'sqrt($1)').replace(/[≤≥√₁₂ȳ]/g, (c) => REPLACE[c] ?? c);
+  return text
+    .replace(/√([\p{L}\p{N}_*]+)/gu, 'sqrt($1)')
+    .replace(/[≤≥√₁₂ȳ]/g, (c) => REPLACE[c] ?? c);
 }

@@ -7,14 +7,20 @@ const pdfParse = require('pdf-parse') as (b: Buffer) => Promise<{ text: string; 
 
 describe('round report PDF', () => {
   it('holds every assigned value, σ_pt and code, the reissue reason and the record checksum', async () => {
-    const input = syntheticReportInput({ participants: 25, blunders: [4], reissueReason: 'corrected σ_pt of item B' });
+    const input = syntheticReportInput({
+      participants: 25,
+      blunders: [4],
+      reissueReason: 'corrected σ_pt of item B',
+    });
     const text = (await pdfParse(await buildRoundReportPdf(input))).text.replace(/\s+/g, ' ');
     for (const g of input.groups) {
       expect(text).toContain(`x_pt = ${g.assignedValue!.toFixed(g.decimals + 1)}`);
       expect(text).toContain(`σ_pt = ${g.sigmaPt!.toFixed(g.decimals + 1)}`);
     }
     for (const p of input.groups[0]!.participants) expect(text).toContain(p.code);
-    expect(text).toContain('Corrected report: evaluation version 2 replaces version 1. Reason: corrected σ_pt of item B');
+    expect(text).toContain(
+      'Corrected report: evaluation version 2 replaces version 1. Reason: corrected σ_pt of item B',
+    );
     expect(text).toContain(recordChecksum(input).slice(0, 16)); // footer
     expect(text).toMatch(/ISO 13528:2015/);
     expect(text).toMatch(/radius may have been reported as a diameter/); // blunder hint in general words

@@ -8,14 +8,49 @@
 import { distributionOption, offScale, scoreBarOption, scoresOffScale } from '../charts/options';
 import { renderChartSvg } from '../charts/render';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
-import { METHOD_WORDS, recordChecksum, reportStatusWords, sigmaPtRuleWords, type ReportGroup, type ReportStudy, type RoundReportInput } from '../model';
-import { fixed, hintWords, HINT_WORDS, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
-import { artifact, banner, createDoc, ensureSpace, figure, finishDoc, heading, MARGIN, plotArea, table, wrapTable, write, type Doc } from './document';
+import {
+  METHOD_WORDS,
+  recordChecksum,
+  reportStatusWords,
+  sigmaPtRuleWords,
+  type ReportGroup,
+  type ReportStudy,
+  type RoundReportInput,
+} from '../model';
+import {
+  fixed,
+  hintWords,
+  HINT_WORDS,
+  PALETTE,
+  SCORE_DECIMALS,
+  SIGNAL_COLOURS,
+  SIGNAL_WORDS,
+} from '../text';
+import {
+  artifact,
+  banner,
+  createDoc,
+  ensureSpace,
+  figure,
+  finishDoc,
+  heading,
+  MARGIN,
+  plotArea,
+  table,
+  wrapTable,
+  write,
+  type Doc,
+} from './document';
 import { drawSvg } from './svg';
-import { HOMOGENEITY_DECISION_LABELS, STUDY_KIND_LABELS, type HomogeneityDecisionKind } from '../../shared/contracts/rounds';
+import {
+  HOMOGENEITY_DECISION_LABELS,
+  STUDY_KIND_LABELS,
+  type HomogeneityDecisionKind,
+} from '../../shared/contracts/rounds';
 
 /** A study decision as a person reads it (docs/GLOSSARY.md: no raw code values). */
-export const decisionLabel = (d: string | null): string => (d ? (HOMOGENEITY_DECISION_LABELS[d as HomogeneityDecisionKind] ?? d) : '—');
+export const decisionLabel = (d: string | null): string =>
+  d ? (HOMOGENEITY_DECISION_LABELS[d as HomogeneityDecisionKind] ?? d) : '—';
 
 export const CONFIDENTIALITY =
   'Confidentiality: participants appear in this report only by their participant codes. The PT provider keeps the ' +
@@ -29,21 +64,33 @@ export const USE_CAUTION =
   'several rounds. The assigned values are not certified reference values and must not be used to calibrate instruments. ' +
   'Results and scores may be quoted only in full, with the round code and the report version.';
 
-export const NO_SUBCONTRACTING_STATED = 'The PT provider has not stated any subcontracted work for this round.';
+export const NO_SUBCONTRACTING_STATED =
+  'The PT provider has not stated any subcontracted work for this round.';
 
 function providerName(input: RoundReportInput): string {
   return input.provider.name || 'PT provider (name not yet set in the provider profile)';
 }
 
-export function footerText(input: RoundReportInput, kind: string, participantCode?: string): string {
-  const status = input.evaluation.state === 'published' ? (input.evaluation.version > 1 ? 'corrected' : 'final') : 'preview';
+export function footerText(
+  input: RoundReportInput,
+  kind: string,
+  participantCode?: string,
+): string {
+  const status =
+    input.evaluation.state === 'published'
+      ? input.evaluation.version > 1
+        ? 'corrected'
+        : 'final'
+      : 'preview';
   const who = participantCode ? ` · participant ${participantCode}` : '';
   return `${input.provider.name || 'PT provider'} · ${kind} (${status}) · ${input.round.code} v${input.evaluation.version}${who} · record ${recordChecksum(input).slice(0, 16)}`;
 }
 
 export function reissueNotice(input: RoundReportInput): string | null {
   const r = input.evaluation.reissueReason;
-  return r ? `Corrected report: evaluation version ${input.evaluation.version} replaces version ${input.evaluation.version - 1}. Reason: ${r}` : null;
+  return r
+    ? `Corrected report: evaluation version ${input.evaluation.version} replaces version ${input.evaluation.version - 1}. Reason: ${r}`
+    : null;
 }
 
 const day = (iso: string | null | undefined) => (iso ? iso.slice(0, 10) : '—');
@@ -51,7 +98,10 @@ const day = (iso: string | null | undefined) => (iso ? iso.slice(0, 10) : '—')
 /** The document's dates: issued = published (creation date), file made = now (modification date). */
 export function docDates(input: RoundReportInput): { createdAt: Date; modifiedAt: Date } {
   const made = new Date(input.generatedAt);
-  return { createdAt: input.evaluation.publishedAt ? new Date(input.evaluation.publishedAt) : made, modifiedAt: made };
+  return {
+    createdAt: input.evaluation.publishedAt ? new Date(input.evaluation.publishedAt) : made,
+    modifiedAt: made,
+  };
 }
 
 /** The provider block: logo, name, address, contact, accreditation. */
@@ -69,9 +119,18 @@ function providerBlock(doc: Doc, input: RoundReportInput): void {
     doc.y = y + 62;
   }
   write(doc, providerName(input), { size: 13, colour: PALETTE.teal, bold: true, gap: 2 });
-  const lines = [p.address.split(/\r?\n/).filter(Boolean).join(', '), [p.contactEmail, p.contactPhone, p.website].filter(Boolean).join(' · ')].filter(Boolean);
+  const lines = [
+    p.address.split(/\r?\n/).filter(Boolean).join(', '),
+    [p.contactEmail, p.contactPhone, p.website].filter(Boolean).join(' · '),
+  ].filter(Boolean);
   for (const l of lines) write(doc, l, { size: 9, colour: PALETTE.grey, gap: 1 });
-  write(doc, p.accreditationNumber ? `Accredited as a PT provider to ISO/IEC 17043${p.accreditationBody ? ` by ${p.accreditationBody}` : ''}, accreditation number ${p.accreditationNumber}.` : 'Accreditation: none stated by the PT provider.', { size: 9, colour: PALETTE.grey, gap: 10 });
+  write(
+    doc,
+    p.accreditationNumber
+      ? `Accredited as a PT provider to ISO/IEC 17043${p.accreditationBody ? ` by ${p.accreditationBody}` : ''}, accreditation number ${p.accreditationNumber}.`
+      : 'Accreditation: none stated by the PT provider.',
+    { size: 9, colour: PALETTE.grey, gap: 10 },
+  );
 }
 
 export function cover(doc: Doc, input: RoundReportInput, kind: string, extra: string[] = []): void {
@@ -82,19 +141,54 @@ export function cover(doc: Doc, input: RoundReportInput, kind: string, extra: st
   doc.y = Math.max(doc.y, 170);
   write(doc, kind, { size: 24, bold: true, colour: PALETTE.ink, gap: 8, tag: 'H1' });
   write(doc, `Round ${round.code}: ${round.title}`, { size: 14, gap: 4 });
-  write(doc, `Scheme ${round.schemeCode}: ${round.schemeName}`, { size: 11, colour: PALETTE.grey, gap: 14 });
+  write(doc, `Scheme ${round.schemeCode}: ${round.schemeName}`, {
+    size: 11,
+    colour: PALETTE.grey,
+    gap: 14,
+  });
   for (const line of extra) write(doc, line, { size: 11, gap: 4 });
   doc.moveDown(0.6);
   const rows: string[][] = [
     ['Report status', reportStatusWords(evaluation)],
-    ['Issue date', evaluation.state === 'published' ? day(evaluation.publishedAt) : 'not issued (preview)'],
-    ['Test items dispatched', round.dispatchedAt ? `${day(round.dispatchedAt)}${round.dispatchPlanned ? ' (planned date)' : ''}` : '—'],
-    ['Results due', round.resultsDueAt ? `${round.resultsDueAt.slice(0, 16).replace('T', ' ')} UTC` : '—'],
-    ['Authorised by', input.provider.authoriserName ? `${input.provider.authoriserName}${input.provider.authoriserRole ? `, ${input.provider.authoriserRole}` : ''}` : 'not named in the provider profile'],
-    ['This file made', `${input.generatedAt.slice(0, 16).replace('T', ' ')} UTC with Ringlet ${evaluation.softwareVersion}${evaluation.publishedAt && input.generatedAt.slice(0, 10) !== evaluation.publishedAt.slice(0, 10) ? ' (regenerated from the record of the issued version; contents as issued)' : ''}`],
+    [
+      'Issue date',
+      evaluation.state === 'published' ? day(evaluation.publishedAt) : 'not issued (preview)',
+    ],
+    [
+      'Test items dispatched',
+      round.dispatchedAt
+        ? `${day(round.dispatchedAt)}${round.dispatchPlanned ? ' (planned date)' : ''}`
+        : '—',
+    ],
+    [
+      'Results due',
+      round.resultsDueAt ? `${round.resultsDueAt.slice(0, 16).replace('T', ' ')} UTC` : '—',
+    ],
+    [
+      'Authorised by',
+      input.provider.authoriserName
+        ? `${input.provider.authoriserName}${input.provider.authoriserRole ? `, ${input.provider.authoriserRole}` : ''}`
+        : 'not named in the provider profile',
+    ],
+    [
+      'This file made',
+      `${input.generatedAt.slice(0, 16).replace('T', ' ')} UTC with Ringlet ${evaluation.softwareVersion}${evaluation.publishedAt && input.generatedAt.slice(0, 10) !== evaluation.publishedAt.slice(0, 10) ? ' (regenerated from the record of the issued version; contents as issued)' : ''}`,
+    ],
   ];
-  wrapTable(doc, [{ title: 'Report', width: 130 }, { title: '', width: doc.page.width - 2 * MARGIN - 130 }], rows, 9.5);
-  write(doc, `Record checksum (SHA-256): ${recordChecksum(input)}`, { size: 8, colour: PALETTE.grey, gap: 12 });
+  wrapTable(
+    doc,
+    [
+      { title: 'Report', width: 130 },
+      { title: '', width: doc.page.width - 2 * MARGIN - 130 },
+    ],
+    rows,
+    9.5,
+  );
+  write(doc, `Record checksum (SHA-256): ${recordChecksum(input)}`, {
+    size: 8,
+    colour: PALETTE.grey,
+    gap: 12,
+  });
   const notice = reissueNotice(input);
   if (notice) banner(doc, notice);
   doc.moveDown(0.6);
@@ -106,20 +200,34 @@ function schemeSection(doc: Doc, input: RoundReportInput): void {
   heading(doc, '1 Scheme and round');
   if (round.schemeDescription) write(doc, round.schemeDescription, { gap: 6 });
   const n = new Set(input.groups.flatMap((g) => g.participants.map((p) => p.code))).size;
-  write(doc, `Round ${round.code} (${round.kind === 'pt' ? 'proficiency test' : 'precision study'}): ${n + input.nonReporters.length} participants enrolled and ${n} reported results. ` +
-    `Protocol temperature ${round.protocolTemperatureC} °C. Test items dispatched ${round.dispatchedAt ? day(round.dispatchedAt) + (round.dispatchPlanned ? ' (planned date)' : '') : '—'}; results were due ${round.resultsDueAt ? day(round.resultsDueAt) : '—'}.`, { gap: 6 });
+  write(
+    doc,
+    `Round ${round.code} (${round.kind === 'pt' ? 'proficiency test' : 'precision study'}): ${n + input.nonReporters.length} participants enrolled and ${n} reported results. ` +
+      `Protocol temperature ${round.protocolTemperatureC} °C. Test items dispatched ${round.dispatchedAt ? day(round.dispatchedAt) + (round.dispatchPlanned ? ' (planned date)' : '') : '—'}; results were due ${round.resultsDueAt ? day(round.resultsDueAt) : '—'}.`,
+    { gap: 6 },
+  );
   const silent = input.nonReporters.filter((x) => !x.withdrawn).map((x) => x.code);
   const withdrawn = input.nonReporters.filter((x) => x.withdrawn).map((x) => x.code);
-  write(doc, `Enrolled but did not report: ${silent.length ? silent.join(', ') : 'none'}.${withdrawn.length ? ` Withdrew from the round: ${withdrawn.join(', ')}.` : ''}`, { gap: 6 });
+  write(
+    doc,
+    `Enrolled but did not report: ${silent.length ? silent.join(', ') : 'none'}.${withdrawn.length ? ` Withdrew from the round: ${withdrawn.join(', ')}.` : ''}`,
+    { gap: 6 },
+  );
   if (round.instructions) {
     write(doc, 'Instructions given to participants:', { bold: true });
     write(doc, round.instructions, { size: 9, gap: 6 });
   }
-  write(doc, `Subcontracting: ${input.provider.subcontracting || NO_SUBCONTRACTING_STATED}`, { size: 9.5, gap: 6 });
+  write(doc, `Subcontracting: ${input.provider.subcontracting || NO_SUBCONTRACTING_STATED}`, {
+    size: 9.5,
+    gap: 6,
+  });
 }
 
 function studyLine(s: ReportStudy, d: number): string {
-  const stat = s.kind === 'homogeneity' ? `s_s = ${fixed(s.result['ss'] as number, d)}` : `|ȳ₁ − ȳ₂| = ${fixed(s.result['difference'] as number, d)}`;
+  const stat =
+    s.kind === 'homogeneity'
+      ? `s_s = ${fixed(s.result['ss'] as number, d)}`
+      : `|ȳ₁ − ȳ₂| = ${fixed(s.result['difference'] as number, d)}`;
   return `${stat}; criterion 0.3 σ_pt = ${fixed(s.result['limit'] as number, d)} (σ_pt ${fixed(s.sigmaPt, d)})`;
 }
 
@@ -135,27 +243,52 @@ function itemsSection(doc: Doc, input: RoundReportInput): void {
       { title: 'Storage', width: 110 },
       { title: 'Handling', width: width - 380 },
     ],
-    input.items.map((i) => [i.code, i.material, fixed(i.nominalSizeNm, 0), i.storageNotes, i.handlingNotes]),
+    input.items.map((i) => [
+      i.code,
+      i.material,
+      fixed(i.nominalSizeNm, 0),
+      i.storageNotes,
+      i.handlingNotes,
+    ]),
     8,
   );
   const ms = new Map(input.measurands.map((m) => [m.key, m]));
   if (input.studies.length === 0) {
-    write(doc, 'No homogeneity study and no stability study is recorded for the test items of this round. The evaluation assumes ' +
-      'the items were sufficiently homogeneous and stable; the coordinator’s comments (section 6) give the reason where one was recorded.', { size: 9.5, gap: 4 });
+    write(
+      doc,
+      'No homogeneity study and no stability study is recorded for the test items of this round. The evaluation assumes ' +
+        'the items were sufficiently homogeneous and stable; the coordinator’s comments (section 6) give the reason where one was recorded.',
+      { size: 9.5, gap: 4 },
+    );
     return;
   }
-  write(doc, 'Criteria (ISO 13528:2015 B.2.2 and B.5): homogeneity passes when the between-sample standard deviation s_s ≤ 0.3 σ_pt, ' +
-    'stability when |ȳ₁ − ȳ₂| ≤ 0.3 σ_pt; where the basic criterion failed, the extended criteria that allow for the sampling error were applied.', { size: 9, gap: 4 });
+  write(
+    doc,
+    'Criteria (ISO 13528:2015 B.2.2 and B.5): homogeneity passes when the between-sample standard deviation s_s ≤ 0.3 σ_pt, ' +
+      'stability when |ȳ₁ − ȳ₂| ≤ 0.3 σ_pt; where the basic criterion failed, the extended criteria that allow for the sampling error were applied.',
+    { size: 9, gap: 4 },
+  );
   const rows: string[][] = [];
   for (const item of input.items) {
     for (const m of input.measurands) {
       for (const kind of ['homogeneity', 'stability'] as const) {
-        const st = input.studies.find((x) => x.itemCode === item.code && x.measurandKey === m.key && x.kind === kind);
+        const st = input.studies.find(
+          (x) => x.itemCode === item.code && x.measurandKey === m.key && x.kind === kind,
+        );
         const label = STUDY_KIND_LABELS[kind];
         if (!st) rows.push([item.code, m.name, label, 'none recorded', '—', '']);
         else {
           const d = (ms.get(st.measurandKey)?.decimals ?? 3) + 1;
-          rows.push([item.code, m.name, label, studyLine(st, d), st.passes ? 'Pass' : 'Fail', [st.decision ? decisionLabel(st.decision) : '', st.decisionReason].filter(Boolean).join(': ')]);
+          rows.push([
+            item.code,
+            m.name,
+            label,
+            studyLine(st, d),
+            st.passes ? 'Pass' : 'Fail',
+            [st.decision ? decisionLabel(st.decision) : '', st.decisionReason]
+              .filter(Boolean)
+              .join(': '),
+          ]);
         }
       }
     }
@@ -208,7 +341,9 @@ function methodsSection(doc: Doc, input: RoundReportInput): void {
     'Signals: |score| ≤ 2 acceptable, 2 < |score| < 3 warning signal, |score| ≥ 3 action signal; |En| ≤ 1 acceptable, > 1 action signal (ISO 13528:2015 §9; ISO/IEC 17043).',
   ];
   if (input.groups.some((g) => g.sigmaPtRule.kind === 'precision')) {
-    lines.push('Where σ_pt comes from a precision experiment, the repeatability and reproducibility standard deviations were estimated as in ISO 5725-2 (§8.4 of ISO 13528:2015).');
+    lines.push(
+      'Where σ_pt comes from a precision experiment, the repeatability and reproducibility standard deviations were estimated as in ISO 5725-2 (§8.4 of ISO 13528:2015).',
+    );
   }
   for (const l of lines) write(doc, l, { size: 9.5, gap: 5 });
   const width = doc.page.width - 2 * MARGIN;
@@ -236,7 +371,11 @@ function methodsSection(doc: Doc, input: RoundReportInput): void {
     7.5,
   );
   exclusionsSection(doc, input);
-  write(doc, 'References: ISO 13528:2015 Statistical methods for use in proficiency testing by interlaboratory comparison; ISO 5725-2:2019 Accuracy of measurement methods and results, Part 2; ISO/IEC 17043:2023 Conformity assessment, general requirements for proficiency testing; ISO 22412:2017 Particle size analysis, dynamic light scattering.', { size: 8.5, colour: PALETTE.grey, gap: 5 });
+  write(
+    doc,
+    'References: ISO 13528:2015 Statistical methods for use in proficiency testing by interlaboratory comparison; ISO 5725-2:2019 Accuracy of measurement methods and results, Part 2; ISO/IEC 17043:2023 Conformity assessment, general requirements for proficiency testing; ISO 22412:2017 Particle size analysis, dynamic light scattering.',
+    { size: 8.5, colour: PALETTE.grey, gap: 5 },
+  );
 }
 
 /** Participants kept out of the assigned value, by code, with the rule and the reason. */
@@ -244,24 +383,52 @@ function exclusionsSection(doc: Doc, input: RoundReportInput): void {
   const rows: string[][] = [];
   for (const g of input.groups) {
     for (const p of g.participants) {
-      if (p.excluded) rows.push([p.code, `${g.itemCode}, ${g.measurandName}`, EXCLUSION_RULE_LABELS[p.excluded.rule] ?? 'Other', p.excluded.reason]);
+      if (p.excluded)
+        rows.push([
+          p.code,
+          `${g.itemCode}, ${g.measurandName}`,
+          EXCLUSION_RULE_LABELS[p.excluded.rule] ?? 'Other',
+          p.excluded.reason,
+        ]);
     }
   }
   write(doc, 'Participants excluded from the assigned value', { size: 10, bold: true, gap: 3 });
   if (rows.length === 0) {
-    write(doc, 'None: every reported result was used for the assigned value.', { size: 9.5, gap: 5 });
+    write(doc, 'None: every reported result was used for the assigned value.', {
+      size: 9.5,
+      gap: 5,
+    });
     return;
   }
-  write(doc, `${rows.length} result(s) were kept out of the assigned value for the reason stated; they are still scored.`, { size: 9.5, gap: 3 });
+  write(
+    doc,
+    `${rows.length} result(s) were kept out of the assigned value for the reason stated; they are still scored.`,
+    { size: 9.5, gap: 3 },
+  );
   const width = doc.page.width - 2 * MARGIN;
-  wrapTable(doc, [{ title: 'Code', width: 55 }, { title: 'Item, measurand', width: 110 }, { title: 'Rule', width: 150 }, { title: 'Reason', width: width - 315 }], rows, 8);
+  wrapTable(
+    doc,
+    [
+      { title: 'Code', width: 55 },
+      { title: 'Item, measurand', width: 110 },
+      { title: 'Rule', width: 150 },
+      { title: 'Reason', width: width - 315 },
+    ],
+    rows,
+    8,
+  );
 }
 
 /**
  * The two charts of an item × measurand side by side (Figures with text alternatives), then a
  * note for every result or score drawn at an axis edge, with its true value.
  */
-export function drawGroupCharts(doc: Doc, g: ReportGroup, highlight?: string, ownResult?: number): void {
+export function drawGroupCharts(
+  doc: Doc,
+  g: ReportGroup,
+  highlight?: string,
+  ownResult?: number,
+): void {
   const width = (doc.page.width - 2 * MARGIN - 10) / 2;
   ensureSpace(doc, width * 0.65 + 10);
   const y = doc.y + 4;
@@ -270,40 +437,75 @@ export function drawGroupCharts(doc: Doc, g: ReportGroup, highlight?: string, ow
   const u = g.unit ? ` ${g.unit}` : '';
   const dist = distributionOption(g, ownResult);
   const bars = scoreBarOption(g, highlight);
-  figure(doc, `Histogram of the participants’ results for item ${g.itemCode}, ${g.measurandName}, with x_pt = ${fixed(g.assignedValue, g.decimals + 1)}${u} and x_pt ± 2σ_pt marked.`, () => {
-    h1 = drawSvg(doc, renderChartSvg(dist, 400, 260), MARGIN, y, width);
-  }, plotArea(dist, 400, 260, MARGIN, y, width));
-  figure(doc, `Scores of every participant for item ${g.itemCode}, ${g.measurandName}, in ascending order, with the warning (±2) and action (±3) limits.`, () => {
-    h2 = drawSvg(doc, renderChartSvg(bars, 400, 260), MARGIN + width + 10, y, width);
-  }, plotArea(bars, 400, 260, MARGIN + width + 10, y, width));
+  figure(
+    doc,
+    `Histogram of the participants’ results for item ${g.itemCode}, ${g.measurandName}, with x_pt = ${fixed(g.assignedValue, g.decimals + 1)}${u} and x_pt ± 2σ_pt marked.`,
+    () => {
+      h1 = drawSvg(doc, renderChartSvg(dist, 400, 260), MARGIN, y, width);
+    },
+    plotArea(dist, 400, 260, MARGIN, y, width),
+  );
+  figure(
+    doc,
+    `Scores of every participant for item ${g.itemCode}, ${g.measurandName}, in ascending order, with the warning (±2) and action (±3) limits.`,
+    () => {
+      h2 = drawSvg(doc, renderChartSvg(bars, 400, 260), MARGIN + width + 10, y, width);
+    },
+    plotArea(bars, 400, 260, MARGIN + width + 10, y, width),
+  );
   doc.y = y + Math.max(h1, h2) + 6;
   doc.x = MARGIN;
   const off = offScale(g);
   const d = g.decimals;
-  const list = (xs: { code: string; result: number }[]) => xs.map((x) => `${x.code} ${fixed(x.result, d)}${u}`).join(', ');
+  const list = (xs: { code: string; result: number }[]) =>
+    xs.map((x) => `${x.code} ${fixed(x.result, d)}${u}`).join(', ');
   if (off.below.length || off.above.length) {
-    write(doc, `Outside the histogram’s axis (x_pt ± 5σ_pt), not drawn in it: ${[off.below.length ? `below: ${list(off.below)}` : '', off.above.length ? `above: ${list(off.above)}` : ''].filter(Boolean).join('; ')}.`, { size: 8.5, colour: PALETTE.carmine, gap: 2 });
+    write(
+      doc,
+      `Outside the histogram’s axis (x_pt ± 5σ_pt), not drawn in it: ${[off.below.length ? `below: ${list(off.below)}` : '', off.above.length ? `above: ${list(off.above)}` : ''].filter(Boolean).join('; ')}.`,
+      { size: 8.5, colour: PALETTE.carmine, gap: 2 },
+    );
   }
   const far = scoresOffScale(g);
   if (far.length) {
-    write(doc, `Scores beyond ±5 are drawn at the chart’s edge with their value written on the bar: ${far.map((x) => `${x.code} ${x.score.toFixed(SCORE_DECIMALS)}`).join(', ')}.`, { size: 8.5, colour: PALETTE.carmine, gap: 2 });
+    write(
+      doc,
+      `Scores beyond ±5 are drawn at the chart’s edge with their value written on the bar: ${far.map((x) => `${x.code} ${x.score.toFixed(SCORE_DECIMALS)}`).join(', ')}.`,
+      { size: 8.5, colour: PALETTE.carmine, gap: 2 },
+    );
   }
 }
 
 function groupSection(doc: Doc, g: ReportGroup, index: number, highlight?: string): void {
   doc.addPage();
   if (index === 0) heading(doc, '4 Results by item and measurand');
-  heading(doc, `4.${index + 1} Item ${g.itemCode}: ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`, 2);
+  heading(
+    doc,
+    `4.${index + 1} Item ${g.itemCode}: ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`,
+    2,
+  );
   const d = g.decimals;
   const u = g.unit ? ` ${g.unit}` : '';
-  write(doc, `Assigned value x_pt = ${fixed(g.assignedValue, d + 1)}${u}   u(x_pt) = ${fixed(g.uAssigned, d + 1)}${u}   σ_pt = ${fixed(g.sigmaPt, d + 1)}${u}   n = ${g.n}`, { bold: true, size: 10.5, gap: 3 });
-  write(doc, `x_pt: ${METHOD_WORDS[g.method] ?? g.method}. σ_pt: ${sigmaPtRuleWords(g.sigmaPtRule)}. Signal follows ${g.uNegligible === false ? 'z′ (u(x_pt) is not negligible)' : 'z'}.`, { size: 9, gap: 3 });
+  write(
+    doc,
+    `Assigned value x_pt = ${fixed(g.assignedValue, d + 1)}${u}   u(x_pt) = ${fixed(g.uAssigned, d + 1)}${u}   σ_pt = ${fixed(g.sigmaPt, d + 1)}${u}   n = ${g.n}`,
+    { bold: true, size: 10.5, gap: 3 },
+  );
+  write(
+    doc,
+    `x_pt: ${METHOD_WORDS[g.method] ?? g.method}. σ_pt: ${sigmaPtRuleWords(g.sigmaPtRule)}. Signal follows ${g.uNegligible === false ? 'z′ (u(x_pt) is not negligible)' : 'z'}.`,
+    { size: 9, gap: 3 },
+  );
   for (const w of g.warnings) write(doc, `Note: ${w}`, { size: 9, colour: PALETTE.saffron });
   drawGroupCharts(doc, g, highlight);
-  const counts = (['acceptable', 'warning', 'action'] as const).map((s) => `${g.participants.filter((p) => p.signal === s).length} ${SIGNAL_WORDS[s]}`);
+  const counts = (['acceptable', 'warning', 'action'] as const).map(
+    (s) => `${g.participants.filter((p) => p.signal === s).length} ${SIGNAL_WORDS[s]}`,
+  );
   write(doc, `Signals: ${counts.join(', ')}.`, { size: 9, gap: 4 });
   const hintCodes = new Map<string, number>();
-  g.participants.forEach((p, i) => p.hints.forEach((h) => hintCodes.set(h.code, hintCodes.get(h.code) ?? i)));
+  g.participants.forEach((p, i) =>
+    p.hints.forEach((h) => hintCodes.set(h.code, hintCodes.get(h.code) ?? i)),
+  );
   const mark = (code: string) => String.fromCharCode(97 + [...hintCodes.keys()].indexOf(code));
   table(
     doc,
@@ -335,8 +537,13 @@ function groupSection(doc: Doc, g: ReportGroup, index: number, highlight?: strin
     ]),
   );
   if (hintCodes.size) {
-    write(doc, 'Hints (general patterns the software looks for; a hint is a prompt for the laboratory’s own investigation, not a finding):', { size: 8.5, bold: true });
-    for (const code of hintCodes.keys()) write(doc, `${mark(code)}: ${hintWords(code)}.`, { size: 8.5 });
+    write(
+      doc,
+      'Hints (general patterns the software looks for; a hint is a prompt for the laboratory’s own investigation, not a finding):',
+      { size: 8.5, bold: true },
+    );
+    for (const code of hintCodes.keys())
+      write(doc, `${mark(code)}: ${hintWords(code)}.`, { size: 8.5 });
   }
 }
 
@@ -344,16 +551,34 @@ function groupSection(doc: Doc, g: ReportGroup, index: number, highlight?: strin
 export function closingSections(doc: Doc, input: RoundReportInput, first: number): void {
   ensureSpace(doc, 160);
   heading(doc, `${first} Comments of the coordinator`);
-  write(doc, input.evaluation.comments.trim() || 'The coordinator made no comments on this round.', { size: 9.5, gap: 6 });
+  write(
+    doc,
+    input.evaluation.comments.trim() || 'The coordinator made no comments on this round.',
+    { size: 9.5, gap: 6 },
+  );
   heading(doc, `${first + 1} Use of the results, subcontracting and confidentiality`);
   write(doc, USE_CAUTION, { size: 9.5, gap: 5 });
-  write(doc, `Subcontracting: ${input.provider.subcontracting || NO_SUBCONTRACTING_STATED}`, { size: 9.5, gap: 5 });
+  write(doc, `Subcontracting: ${input.provider.subcontracting || NO_SUBCONTRACTING_STATED}`, {
+    size: 9.5,
+    gap: 5,
+  });
   write(doc, CONFIDENTIALITY, { size: 9.5, gap: 5 });
   heading(doc, `${first + 2} Authorisation`);
   const p = input.provider;
-  const issued = input.evaluation.state === 'published' ? `issued ${day(input.evaluation.publishedAt)}` : 'not issued (preview)';
-  write(doc, `${reportStatusWords(input.evaluation)}, ${issued}. Authorised by ${p.authoriserName || '(name not set in the provider profile)'}${p.authoriserRole ? `, ${p.authoriserRole}` : ''}, for ${providerName(input)}.`, { size: 9.5, gap: 4 });
-  write(doc, `Questions about this report: ${[p.contactEmail, p.contactPhone].filter(Boolean).join(', ') || 'the PT provider'}.`, { size: 9.5 });
+  const issued =
+    input.evaluation.state === 'published'
+      ? `issued ${day(input.evaluation.publishedAt)}`
+      : 'not issued (preview)';
+  write(
+    doc,
+    `${reportStatusWords(input.evaluation)}, ${issued}. Authorised by ${p.authoriserName || '(name not set in the provider profile)'}${p.authoriserRole ? `, ${p.authoriserRole}` : ''}, for ${providerName(input)}.`,
+    { size: 9.5, gap: 4 },
+  );
+  write(
+    doc,
+    `Questions about this report: ${[p.contactEmail, p.contactPhone].filter(Boolean).join(', ') || 'the PT provider'}.`,
+    { size: 9.5 },
+  );
 }
 
 /** Builds the round report; resolves to the PDF bytes. */
@@ -373,7 +598,11 @@ export async function buildRoundReportPdf(input: RoundReportInput): Promise<Buff
   input.groups.forEach((g, i) => groupSection(doc, g, i));
   ensureSpace(doc, 160);
   heading(doc, '5 Blunder hints');
-  write(doc, 'The software compares each result with the assigned value and flags patterns that often come from a slip rather than from the measurement itself:', { size: 9.5, gap: 3 });
+  write(
+    doc,
+    'The software compares each result with the assigned value and flags patterns that often come from a slip rather than from the measurement itself:',
+    { size: 9.5, gap: 3 },
+  );
   for (const code of Object.keys(HINT_WORDS)) write(doc, `• ${hintWords(code)}.`, { size: 9.5 });
   closingSections(doc, input, 6);
   finishDoc(doc);

@@ -46,7 +46,15 @@ export function paint(value: string | undefined, opacity = 1): Paint | null {
   const rgba = /^rgba?\(([^)]+)\)$/.exec(value.trim());
   if (rgba) {
     const [r, g, b, a] = rgba[1]!.split(',').map((x) => Number(x.trim()));
-    const hex = '#' + [r, g, b].map((v) => Math.max(0, Math.min(255, Math.round(v ?? 0))).toString(16).padStart(2, '0')).join('');
+    const hex =
+      '#' +
+      [r, g, b]
+        .map((v) =>
+          Math.max(0, Math.min(255, Math.round(v ?? 0)))
+            .toString(16)
+            .padStart(2, '0'),
+        )
+        .join('');
     const alpha = (a ?? 1) * opacity;
     return alpha <= 0 ? null : { colour: hex, opacity: alpha };
   }
@@ -57,7 +65,10 @@ function parseTransform(t: string | undefined): Matrix | null {
   if (!t) return null;
   let m: Matrix = [1, 0, 0, 1, 0, 0];
   for (const part of t.matchAll(/(matrix|translate|scale|rotate)\(([^)]*)\)/g)) {
-    const n = part[2]!.split(/[\s,]+/).filter(Boolean).map(Number);
+    const n = part[2]!
+      .split(/[\s,]+/)
+      .filter(Boolean)
+      .map(Number);
     let next: Matrix;
     if (part[1] === 'matrix') next = [n[0]!, n[1]!, n[2]!, n[3]!, n[4]!, n[5]!];
     else if (part[1] === 'translate') next = [1, 0, 0, 1, n[0] ?? 0, n[1] ?? 0];
@@ -72,7 +83,14 @@ function parseTransform(t: string | undefined): Matrix | null {
 }
 
 function multiply(a: Matrix, b: Matrix): Matrix {
-  return [a[0] * b[0] + a[2] * b[1], a[1] * b[0] + a[3] * b[1], a[0] * b[2] + a[2] * b[3], a[1] * b[2] + a[3] * b[3], a[0] * b[4] + a[2] * b[5] + a[4], a[1] * b[4] + a[3] * b[5] + a[5]];
+  return [
+    a[0] * b[0] + a[2] * b[1],
+    a[1] * b[0] + a[3] * b[1],
+    a[0] * b[2] + a[2] * b[3],
+    a[1] * b[2] + a[3] * b[3],
+    a[0] * b[4] + a[2] * b[5] + a[4],
+    a[1] * b[4] + a[3] * b[5] + a[5],
+  ];
 }
 
 function styleValue(style: string | undefined, key: string): string | undefined {
@@ -81,10 +99,17 @@ function styleValue(style: string | undefined, key: string): string | undefined 
   return m?.[1]?.trim();
 }
 
-function applyPaint(doc: Doc, a: Record<string, string>): { fill: Paint | null; stroke: Paint | null } {
+function applyPaint(
+  doc: Doc,
+  a: Record<string, string>,
+): { fill: Paint | null; stroke: Paint | null } {
   const op = Number(a['opacity'] ?? 1);
-  const fill = paint(a['fill'] ?? (a['fill'] === undefined && a['stroke'] === undefined ? '#000' : undefined), op * Number(a['fill-opacity'] ?? 1));
-  const stroke = a['stroke-width'] === '0' ? null : paint(a['stroke'], op * Number(a['stroke-opacity'] ?? 1));
+  const fill = paint(
+    a['fill'] ?? (a['fill'] === undefined && a['stroke'] === undefined ? '#000' : undefined),
+    op * Number(a['fill-opacity'] ?? 1),
+  );
+  const stroke =
+    a['stroke-width'] === '0' ? null : paint(a['stroke'], op * Number(a['stroke-opacity'] ?? 1));
   if (fill) doc.fillColor(fill.colour, fill.opacity);
   if (stroke) {
     doc.strokeColor(stroke.colour, stroke.opacity);
@@ -110,20 +135,37 @@ function drawText(doc: Doc, a: Record<string, string>, raw: string): void {
   if (!text.trim()) return;
   const size = parseFloat(styleValue(a['style'], 'font-size') ?? '12');
   const bold = /bold|[6-9]00/.test(styleValue(a['style'], 'font-weight') ?? '');
-  const fill = paint(a['fill'] ?? '#000', Number(a['fill-opacity'] ?? 1) * Number(a['opacity'] ?? 1));
+  const fill = paint(
+    a['fill'] ?? '#000',
+    Number(a['fill-opacity'] ?? 1) * Number(a['opacity'] ?? 1),
+  );
   if (!fill) return;
   const font = bold ? FONT.bold : FONT.regular;
   const runs = fontRuns(text);
   let width = 0;
-  for (const r of runs) width += doc.font(font + r.subset).fontSize(size).widthOfString(r.text);
+  for (const r of runs)
+    width += doc
+      .font(font + r.subset)
+      .fontSize(size)
+      .widthOfString(r.text);
   const anchor = a['text-anchor'] ?? 'start';
   let x = Number(a['x'] ?? 0) - (anchor === 'middle' ? width / 2 : anchor === 'end' ? width : 0);
   const baseline = a['dominant-baseline'] ?? 'alphabetic';
   // pdfkit places the top of the line box at y; Noto's ascender is ~1.07 em, cap centre ~0.72 em.
-  const y = Number(a['y'] ?? 0) - size * (baseline === 'central' || baseline === 'middle' ? 0.72 : baseline === 'hanging' ? 0.35 : 1.07);
+  const y =
+    Number(a['y'] ?? 0) -
+    size *
+      (baseline === 'central' || baseline === 'middle'
+        ? 0.72
+        : baseline === 'hanging'
+          ? 0.35
+          : 1.07);
   doc.fillColor(fill.colour, fill.opacity);
   for (const r of runs) {
-    doc.font(font + r.subset).fontSize(size).text(r.text, x, y, { lineBreak: false });
+    doc
+      .font(font + r.subset)
+      .fontSize(size)
+      .text(r.text, x, y, { lineBreak: false });
     x += doc.widthOfString(r.text);
   }
 }
@@ -146,10 +188,13 @@ export function drawSvg(doc: Doc, svg: string, x: number, y: number, width: numb
     const d = /<path\b[^>]*\bd="([^"]*)"/.exec(c[2]!)?.[1];
     if (id && d) clips.set(id, d);
   }
-  const body = svg.replace(/<defs\b[\s\S]*?<\/defs\s*>/g, '').replace(/<style\b[\s\S]*?<\/style\s*>/g, '');
+  const body = svg
+    .replace(/<defs\b[\s\S]*?<\/defs\s*>/g, '')
+    .replace(/<style\b[\s\S]*?<\/style\s*>/g, '');
   const keepX = doc.x;
   const keepY = doc.y;
-  const re = /<(\/?)(g|rect|path|circle|ellipse|line|polyline|polygon|text)\b([^>]*?)(\/?)>(?:([^<]*)<\/text>)?/g;
+  const re =
+    /<(\/?)(g|rect|path|circle|ellipse|line|polyline|polygon|text)\b([^>]*?)(\/?)>(?:([^<]*)<\/text>)?/g;
   let depth = 0;
   for (const m of body.matchAll(re)) {
     const [, close, tag, src, selfClose, textBody] = m;
@@ -181,12 +226,31 @@ export function drawSvg(doc: Doc, svg: string, x: number, y: number, width: numb
       const p = applyPaint(doc, a);
       if (p.fill || p.stroke) {
         if (tag === 'path') doc.path(a['d'] ?? '');
-        else if (tag === 'rect') doc.rect(Number(a['x'] ?? 0), Number(a['y'] ?? 0), Number(a['width'] ?? 0), Number(a['height'] ?? 0));
-        else if (tag === 'circle') doc.circle(Number(a['cx'] ?? 0), Number(a['cy'] ?? 0), Number(a['r'] ?? 0));
-        else if (tag === 'ellipse') doc.ellipse(Number(a['cx'] ?? 0), Number(a['cy'] ?? 0), Number(a['rx'] ?? 0), Number(a['ry'] ?? 0));
-        else if (tag === 'line') doc.moveTo(Number(a['x1'] ?? 0), Number(a['y1'] ?? 0)).lineTo(Number(a['x2'] ?? 0), Number(a['y2'] ?? 0));
+        else if (tag === 'rect')
+          doc.rect(
+            Number(a['x'] ?? 0),
+            Number(a['y'] ?? 0),
+            Number(a['width'] ?? 0),
+            Number(a['height'] ?? 0),
+          );
+        else if (tag === 'circle')
+          doc.circle(Number(a['cx'] ?? 0), Number(a['cy'] ?? 0), Number(a['r'] ?? 0));
+        else if (tag === 'ellipse')
+          doc.ellipse(
+            Number(a['cx'] ?? 0),
+            Number(a['cy'] ?? 0),
+            Number(a['rx'] ?? 0),
+            Number(a['ry'] ?? 0),
+          );
+        else if (tag === 'line')
+          doc
+            .moveTo(Number(a['x1'] ?? 0), Number(a['y1'] ?? 0))
+            .lineTo(Number(a['x2'] ?? 0), Number(a['y2'] ?? 0));
         else {
-          const pts = (a['points'] ?? '').trim().split(/[\s,]+/).map(Number);
+          const pts = (a['points'] ?? '')
+            .trim()
+            .split(/[\s,]+/)
+            .map(Number);
           const poly: [number, number][] = [];
           for (let i = 0; i + 1 < pts.length; i += 2) poly.push([pts[i]!, pts[i + 1]!]);
           if (poly.length) {

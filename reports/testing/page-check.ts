@@ -67,7 +67,9 @@ export function largestBlackArea(img: Gray): number {
   for (let r = 0; r < rows; r++) {
     for (let c = 0; c < cols; c++) {
       let dark = 0;
-      for (let y = r * CELL; y < (r + 1) * CELL; y++) for (let x = c * CELL; x < (c + 1) * CELL; x++) if (img.data[y * img.width + x]! < 40) dark++;
+      for (let y = r * CELL; y < (r + 1) * CELL; y++)
+        for (let x = c * CELL; x < (c + 1) * CELL; x++)
+          if (img.data[y * img.width + x]! < 40) dark++;
       black[r * cols + c] = dark >= 0.9 * CELL * CELL ? 1 : 0;
     }
   }
@@ -83,7 +85,12 @@ export function largestBlackArea(img: Gray): number {
       size++;
       const r = Math.floor(j / cols);
       const c = j % cols;
-      for (const [nr, nc] of [[r - 1, c], [r + 1, c], [r, c - 1], [r, c + 1]] as const) {
+      for (const [nr, nc] of [
+        [r - 1, c],
+        [r + 1, c],
+        [r, c - 1],
+        [r, c + 1],
+      ] as const) {
         const k = nr * cols + nc;
         if (nr >= 0 && nr < rows && nc >= 0 && nc < cols && black[k] && !seen[k]) {
           seen[k] = 1;
@@ -111,16 +118,32 @@ export function words(pdf: Buffer): Word[] {
   const dir = mkdtempSync(join(tmpdir(), 'ringlet-words-'));
   try {
     writeFileSync(join(dir, 'in.pdf'), pdf);
-    const html = execFileSync('pdftotext', ['-bbox', join(dir, 'in.pdf'), '-'], { maxBuffer: 64 * 1024 * 1024 }).toString('utf8');
+    const html = execFileSync('pdftotext', ['-bbox', join(dir, 'in.pdf'), '-'], {
+      maxBuffer: 64 * 1024 * 1024,
+    }).toString('utf8');
     const out: Word[] = [];
     let page = -1;
-    for (const m of html.matchAll(/<page\b|<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g)) {
+    for (const m of html.matchAll(
+      /<page\b|<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">([^<]*)<\/word>/g,
+    )) {
       if (m[0] === '<page') {
         page++;
         continue;
       }
-      const [x0, y0, x1, y1] = [m[1], m[2], m[3], m[4]].map(Number) as [number, number, number, number];
-      out.push({ page, text: m[5]!.replace(/&amp;/g, '&').replace(/&lt;/g, '<').replace(/&gt;/g, '>'), x: x0, y: y0, width: x1 - x0, height: y1 - y0 });
+      const [x0, y0, x1, y1] = [m[1], m[2], m[3], m[4]].map(Number) as [
+        number,
+        number,
+        number,
+        number,
+      ];
+      out.push({
+        page,
+        text: m[5]!.replace(/&amp;/g, '&').replace(/&lt;/g, '<').replace(/&gt;/g, '>'),
+        x: x0,
+        y: y0,
+        width: x1 - x0,
+        height: y1 - y0,
+      });
     }
     return out;
   } finally {
@@ -138,6 +161,8 @@ export function wordsOverPlots(all: Word[], plots: PlotArea[]): Word[] {
     if (!/\p{L}/u.test(w.text)) return false;
     const cx = w.x + w.width / 2;
     const cy = w.y + w.height / 2;
-    return plots.some((p) => p.page === w.page && cx > p.x && cx < p.x + p.width && cy > p.y && cy < p.y + p.height);
+    return plots.some(
+      (p) => p.page === w.page && cx > p.x && cx < p.x + p.width && cy > p.y && cy < p.y + p.height,
+    );
   });
 }

@@ -18,11 +18,21 @@ export interface InstrumentCheckSpec {
   readonly temperatureToleranceC: number;
   /** Shortest equilibration time a run needs, min. */
   readonly minEquilibrationMin: number;
-  readonly runs: readonly { zAverageNm: number; pdi: number; temperatureC: number; equilibrationMin: number }[];
+  readonly runs: readonly {
+    zAverageNm: number;
+    pdi: number;
+    temperatureC: number;
+    equilibrationMin: number;
+  }[];
 }
 
 export interface InstrumentCheckReason {
-  readonly code: 'too-few-runs' | 'mean-out-of-tolerance' | 'pdi-above-limit' | 'temperature-off-set-point' | 'equilibration-too-short';
+  readonly code:
+    | 'too-few-runs'
+    | 'mean-out-of-tolerance'
+    | 'pdi-above-limit'
+    | 'temperature-off-set-point'
+    | 'equilibration-too-short';
   readonly message: string;
 }
 
@@ -58,7 +68,10 @@ export function judgeInstrumentCheck(spec: InstrumentCheckSpec): InstrumentCheck
   const n = (v: number, d = 1) => v.toFixed(d);
 
   if (runs.length < MIN_CHECK_RUNS) {
-    reasons.push({ code: 'too-few-runs', message: `Record at least ${MIN_CHECK_RUNS} runs (${runs.length} given).` });
+    reasons.push({
+      code: 'too-few-runs',
+      message: `Record at least ${MIN_CHECK_RUNS} runs (${runs.length} given).`,
+    });
   }
   if (runs.length > 0 && !(Math.abs(meanZ - spec.referenceValueNm) <= spec.toleranceNm)) {
     reasons.push({
@@ -75,14 +88,18 @@ export function judgeInstrumentCheck(spec: InstrumentCheckSpec): InstrumentCheck
       message: `PDI above the limit ${spec.pdiLimit} in replicate ${highPdi.map(({ i }) => i + 1).join(', ')} (highest ${n(maxPdi, 3)}).`,
     });
   }
-  const offTemp = runs.map((r, i) => ({ r, i })).filter(({ r }) => !(Math.abs(r.temperatureC - spec.setPointC) <= spec.temperatureToleranceC));
+  const offTemp = runs
+    .map((r, i) => ({ r, i }))
+    .filter(({ r }) => !(Math.abs(r.temperatureC - spec.setPointC) <= spec.temperatureToleranceC));
   if (offTemp.length) {
     reasons.push({
       code: 'temperature-off-set-point',
       message: `Temperature outside ${n(spec.setPointC)} ± ${spec.temperatureToleranceC} °C in replicate ${offTemp.map(({ i }) => i + 1).join(', ')}.`,
     });
   }
-  const short = runs.map((r, i) => ({ r, i })).filter(({ r }) => !(r.equilibrationMin >= spec.minEquilibrationMin));
+  const short = runs
+    .map((r, i) => ({ r, i }))
+    .filter(({ r }) => !(r.equilibrationMin >= spec.minEquilibrationMin));
   if (short.length) {
     reasons.push({
       code: 'equilibration-too-short',

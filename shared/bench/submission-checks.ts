@@ -12,14 +12,24 @@ export interface RoundRules {
   /** The measuring temperature the protocol asks for, °C. */
   readonly protocolTemperatureC: number;
   readonly items: readonly { id: string; code: string; nominalSizeNm: number | null }[];
-  readonly measurands: readonly { id: string; key: string; name: string; unit: string; replicatesRequired: number }[];
+  readonly measurands: readonly {
+    id: string;
+    key: string;
+    name: string;
+    unit: string;
+    replicatesRequired: number;
+  }[];
 }
 
 /** The results shape (shared/contracts/submission SubmissionData), loosely typed for partial drafts. */
 export interface ResultsLike {
   readonly items: readonly {
     testItemId: string;
-    results: readonly { measurandId: string; replicates: readonly (number | null)[]; uncertainty?: unknown }[];
+    results: readonly {
+      measurandId: string;
+      replicates: readonly (number | null)[];
+      uncertainty?: unknown;
+    }[];
     conditions?: {
       temperatureC?: number | null;
       viscosityMPas?: number | null;
@@ -32,7 +42,13 @@ export interface ResultsLike {
 export interface BenchIssue {
   /** Path into the results, e.g. `items.0.results.1.replicates.2`. */
   readonly path: string;
-  readonly code: 'pdi-out-of-range' | 'diameter-not-positive' | 'missing-replicate' | 'missing-item' | 'unknown-item' | 'unknown-measurand';
+  readonly code:
+    | 'pdi-out-of-range'
+    | 'diameter-not-positive'
+    | 'missing-replicate'
+    | 'missing-item'
+    | 'unknown-item'
+    | 'unknown-measurand';
   readonly message: string;
 }
 
@@ -72,13 +88,18 @@ export function isDiameterMeasurand(m: { key: string; unit: string }): boolean {
 }
 
 const looksLikeWater = (s: string | undefined) => /water|h2o|h₂o/i.test(s ?? 'water');
-const finite = (xs: readonly (number | null)[]) => xs.filter((x): x is number => typeof x === 'number' && Number.isFinite(x));
+const finite = (xs: readonly (number | null)[]) =>
+  xs.filter((x): x is number => typeof x === 'number' && Number.isFinite(x));
 
 /**
  * Checks results against a round.
  * @param complete true on submit: every item × measurand needs its required replicates.
  */
-export function checkResults(data: ResultsLike, round: RoundRules, complete: boolean): CheckOutcome {
+export function checkResults(
+  data: ResultsLike,
+  round: RoundRules,
+  complete: boolean,
+): CheckOutcome {
   const errors: BenchIssue[] = [];
   const warnings: BenchWarning[] = [];
   const measurandById = new Map(round.measurands.map((m) => [m.id, m]));
@@ -87,7 +108,11 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
   data.items.forEach((item, ii) => {
     const roundItem = itemById.get(item.testItemId);
     if (!roundItem) {
-      errors.push({ path: `items.${ii}.testItemId`, code: 'unknown-item', message: 'This test item is not part of the round.' });
+      errors.push({
+        path: `items.${ii}.testItemId`,
+        code: 'unknown-item',
+        message: 'This test item is not part of the round.',
+      });
       return;
     }
     let meanSize: number | undefined;
@@ -97,23 +122,39 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
       const m = measurandById.get(res.measurandId);
       const base = `items.${ii}.results.${ri}`;
       if (!m) {
-        errors.push({ path: `${base}.measurandId`, code: 'unknown-measurand', message: 'This measurand is not part of the round.' });
+        errors.push({
+          path: `${base}.measurandId`,
+          code: 'unknown-measurand',
+          message: 'This measurand is not part of the round.',
+        });
         return;
       }
       const label = `${roundItem.code} ${m.name}`;
       res.replicates.forEach((v, vi) => {
         if (v === null || v === undefined) return;
         if (isPdiMeasurand(m) && !(v >= 0 && v <= 1)) {
-          errors.push({ path: `${base}.replicates.${vi}`, code: 'pdi-out-of-range', message: `${label}, replicate ${vi + 1}: PDI must be between 0 and 1.` });
+          errors.push({
+            path: `${base}.replicates.${vi}`,
+            code: 'pdi-out-of-range',
+            message: `${label}, replicate ${vi + 1}: PDI must be between 0 and 1.`,
+          });
         } else if (isDiameterMeasurand(m) && !(v > 0)) {
-          errors.push({ path: `${base}.replicates.${vi}`, code: 'diameter-not-positive', message: `${label}, replicate ${vi + 1}: a diameter must be above 0 ${m.unit}.` });
+          errors.push({
+            path: `${base}.replicates.${vi}`,
+            code: 'diameter-not-positive',
+            message: `${label}, replicate ${vi + 1}: a diameter must be above 0 ${m.unit}.`,
+          });
         }
       });
       if (complete) {
         for (let vi = 0; vi < m.replicatesRequired; vi++) {
           const v = res.replicates[vi];
           if (v === null || v === undefined) {
-            errors.push({ path: `${base}.replicates.${vi}`, code: 'missing-replicate', message: `${label}: replicate ${vi + 1} of ${m.replicatesRequired} is missing.` });
+            errors.push({
+              path: `${base}.replicates.${vi}`,
+              code: 'missing-replicate',
+              message: `${label}: replicate ${vi + 1} of ${m.replicatesRequired} is missing.`,
+            });
           }
         }
       }
@@ -147,13 +188,21 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
     if (complete) {
       for (const m of round.measurands) {
         if (!item.results.some((r) => r.measurandId === m.id)) {
-          errors.push({ path: `items.${ii}.results`, code: 'missing-replicate', message: `${roundItem.code} ${m.name}: no result given.` });
+          errors.push({
+            path: `items.${ii}.results`,
+            code: 'missing-replicate',
+            message: `${roundItem.code} ${m.name}: no result given.`,
+          });
         }
       }
     }
 
     const t = item.conditions?.temperatureC;
-    if (typeof t === 'number' && Number.isFinite(t) && Math.abs(t - round.protocolTemperatureC) > TEMPERATURE_WARN_K) {
+    if (
+      typeof t === 'number' &&
+      Number.isFinite(t) &&
+      Math.abs(t - round.protocolTemperatureC) > TEMPERATURE_WARN_K
+    ) {
       warnings.push({
         code: `temperature-far:${item.testItemId}`,
         kind: 'temperature-far',
@@ -162,7 +211,13 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
       });
     }
     const eta = item.conditions?.viscosityMPas;
-    if (typeof t === 'number' && typeof eta === 'number' && t >= 0 && t <= 40 && looksLikeWater(item.conditions?.dispersant)) {
+    if (
+      typeof t === 'number' &&
+      typeof eta === 'number' &&
+      t >= 0 &&
+      t <= 40 &&
+      looksLikeWater(item.conditions?.dispersant)
+    ) {
       const water = waterViscosity(t) * 1000; // Pa s → mPa s (IAPWS R12-08)
       if (Math.abs(eta - water) / water > VISCOSITY_WARN) {
         warnings.push({
@@ -176,9 +231,12 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
     if (meanSize !== undefined && sizeAt && roundItem.nominalSizeNm) {
       // The nominal size is not a consensus: only the factor-like slips (radius for diameter, a unit
       // slip) and dust are worth a hint here; small offsets are left to the temperature/viscosity checks.
-      const hints = blunderHints({ result: meanSize, assignedValue: roundItem.nominalSizeNm, pdi: meanPdi, reference: 'the nominal size' }).filter(
-        (h) => h.code !== 'viscosity-temperature',
-      );
+      const hints = blunderHints({
+        result: meanSize,
+        assignedValue: roundItem.nominalSizeNm,
+        pdi: meanPdi,
+        reference: 'the nominal size',
+      }).filter((h) => h.code !== 'viscosity-temperature');
       for (const hint of hints) {
         warnings.push({
           code: `blunder-${hint.code}:${item.testItemId}:${sizeAt.measurandId}`,
@@ -193,7 +251,11 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
   if (complete) {
     for (const ri of round.items) {
       if (!data.items.some((i) => i.testItemId === ri.id)) {
-        errors.push({ path: 'items', code: 'missing-item', message: `${ri.code}: no results given.` });
+        errors.push({
+          path: 'items',
+          code: 'missing-item',
+          message: `${ri.code}: no results given.`,
+        });
       }
     }
   }
@@ -202,8 +264,12 @@ export function checkResults(data: ResultsLike, round: RoundRules, complete: boo
 }
 
 /** What a missing or failed instrument check means for a submission (the lab explains it). */
-export function instrumentCheckNotice(latest: { passed: boolean; instrument: string; checkedAt: string } | null): string | null {
-  if (!latest) return 'No instrument check is recorded for your lab. Record one, or explain below why you submit without it.';
-  if (!latest.passed) return `The latest instrument check (${latest.instrument}) failed. Explain below why you submit anyway.`;
+export function instrumentCheckNotice(
+  latest: { passed: boolean; instrument: string; checkedAt: string } | null,
+): string | null {
+  if (!latest)
+    return 'No instrument check is recorded for your lab. Record one, or explain below why you submit without it.';
+  if (!latest.passed)
+    return `The latest instrument check (${latest.instrument}) failed. Explain below why you submit anyway.`;
   return null;
 }

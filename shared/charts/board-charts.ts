@@ -24,13 +24,26 @@ export const CHART_COLORS = {
   text: '#1b2430',
 } as const;
 
-const SYMBOLS: Record<ChartSignal, string> = { acceptable: 'circle', warning: 'triangle', action: 'diamond' };
-const WORDS: Record<ChartSignal, string> = { acceptable: 'acceptable', warning: 'warning signal', action: 'action signal' };
+const SYMBOLS: Record<ChartSignal, string> = {
+  acceptable: 'circle',
+  warning: 'triangle',
+  action: 'diamond',
+};
+const WORDS: Record<ChartSignal, string> = {
+  acceptable: 'acceptable',
+  warning: 'warning signal',
+  action: 'action signal',
+};
 
 const base = (title: string): ChartOption => ({
   animation: false,
   textStyle: { fontFamily: 'Noto Sans, sans-serif', color: CHART_COLORS.text },
-  title: { text: title, left: 8, top: 4, textStyle: { fontSize: 13, fontWeight: 600, color: CHART_COLORS.ink } },
+  title: {
+    text: title,
+    left: 8,
+    top: 4,
+    textStyle: { fontSize: 13, fontWeight: 600, color: CHART_COLORS.ink },
+  },
   grid: { left: 56, right: 24, top: 40, bottom: 48, containLabel: true },
 });
 
@@ -47,14 +60,31 @@ export interface ScoreBar {
 }
 
 /** Bars sorted by score, coloured by signal, reference lines at ±2 and ±3. */
-export function zBarsOption(bars: readonly ScoreBar[], title: string, scoreName = 'z'): ChartOption {
+export function zBarsOption(
+  bars: readonly ScoreBar[],
+  title: string,
+  scoreName = 'z',
+): ChartOption {
   const sorted = [...bars].sort((a, b) => a.score - b.score);
   const lim = Math.max(3.5, ...sorted.map((b) => Math.min(Math.abs(b.score), 10) + 0.5));
   return {
     ...base(title),
     tooltip: { trigger: 'axis', axisPointer: { type: 'shadow' } },
-    xAxis: { type: 'category', name: 'participant code', nameLocation: 'middle', nameGap: 32, data: sorted.map((b) => b.code), axisLabel: { show: sorted.length <= 60, rotate: 90, fontSize: 10 } },
-    yAxis: { type: 'value', name: scoreName, min: -lim, max: lim, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+    xAxis: {
+      type: 'category',
+      name: 'participant code',
+      nameLocation: 'middle',
+      nameGap: 32,
+      data: sorted.map((b) => b.code),
+      axisLabel: { show: sorted.length <= 60, rotate: 90, fontSize: 10 },
+    },
+    yAxis: {
+      type: 'value',
+      name: scoreName,
+      min: -lim,
+      max: lim,
+      splitLine: { lineStyle: { color: CHART_COLORS.grid } },
+    },
     series: [
       {
         type: 'bar',
@@ -62,7 +92,11 @@ export function zBarsOption(bars: readonly ScoreBar[], title: string, scoreName 
         barCategoryGap: sorted.length > 200 ? '0%' : '20%',
         data: sorted.map((b) => ({
           value: Math.max(-lim, Math.min(lim, b.score)),
-          itemStyle: { color: CHART_COLORS[b.signal], borderColor: b.own ? CHART_COLORS.ink : undefined, borderWidth: b.own ? 2 : 0 },
+          itemStyle: {
+            color: CHART_COLORS[b.signal],
+            borderColor: b.own ? CHART_COLORS.ink : undefined,
+            borderWidth: b.own ? 2 : 0,
+          },
         })),
         markLine: {
           silent: true,
@@ -87,7 +121,9 @@ export function zBarsText(bars: readonly ScoreBar[], title: string, scoreName = 
   const own = bars.find((b) => b.own);
   return (
     `${title}: ${scoreName}-scores of ${n} participants ordered from lowest to highest` +
-    (n ? ` (${fmt(sorted[0]!.score, 2)} for ${sorted[0]!.code} to ${fmt(sorted[n - 1]!.score, 2)} for ${sorted[n - 1]!.code}). ` : '. ') +
+    (n
+      ? ` (${fmt(sorted[0]!.score, 2)} for ${sorted[0]!.code} to ${fmt(sorted[n - 1]!.score, 2)} for ${sorted[n - 1]!.code}). `
+      : '. ') +
     `${count('acceptable')} acceptable, ${count('warning')} warning signals, ${count('action')} action signals.` +
     (own ? ` Your code ${own.code}: ${fmt(own.score, 2)}, ${WORDS[own.signal]}.` : '')
   );
@@ -114,14 +150,30 @@ export function densityOption(d: DensityInput, title: string): ChartOption {
   const k = central.length >= 2 ? kde(central, { points: 200 }) : { x: [], density: [] };
   const scale = central.length / Math.max(1, xs.length);
   const unit = d.unit ? ` (${d.unit})` : '';
-  const band = (a: number, b: number, color: string) => [{ xAxis: a, itemStyle: { color } }, { xAxis: b }];
+  const band = (a: number, b: number, color: string) => [
+    { xAxis: a, itemStyle: { color } },
+    { xAxis: b },
+  ];
   const x = d.assignedValue;
   const s = d.sigmaPt;
   return {
     ...base(title),
     tooltip: { trigger: 'axis' },
-    xAxis: { type: 'value', name: `result${unit}`, nameLocation: 'middle', nameGap: 28, min: lo, max: hi, axisLabel: { formatter: (v: number) => v.toPrecision(4) } },
-    yAxis: { type: 'value', name: 'density', axisLabel: { show: false }, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+    xAxis: {
+      type: 'value',
+      name: `result${unit}`,
+      nameLocation: 'middle',
+      nameGap: 28,
+      min: lo,
+      max: hi,
+      axisLabel: { formatter: (v: number) => v.toPrecision(4) },
+    },
+    yAxis: {
+      type: 'value',
+      name: 'density',
+      axisLabel: { show: false },
+      splitLine: { lineStyle: { color: CHART_COLORS.grid } },
+    },
     series: [
       {
         type: 'line',
@@ -145,11 +197,27 @@ export function densityOption(d: DensityInput, title: string): ChartOption {
           label: { formatter: '{b}', fontSize: 10 },
           data: [
             { xAxis: x, name: 'x_pt', lineStyle: { color: CHART_COLORS.ink, width: 2 } },
-            { xAxis: x - 2 * s, name: '−2σ_pt', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
-            { xAxis: x + 2 * s, name: '+2σ_pt', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
+            {
+              xAxis: x - 2 * s,
+              name: '−2σ_pt',
+              lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
+            },
+            {
+              xAxis: x + 2 * s,
+              name: '+2σ_pt',
+              lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
+            },
             { xAxis: x - 3 * s, name: '−3σ_pt', lineStyle: { color: CHART_COLORS.action } },
             { xAxis: x + 3 * s, name: '+3σ_pt', lineStyle: { color: CHART_COLORS.action } },
-            ...(d.own !== undefined ? [{ xAxis: d.own, name: 'your result', lineStyle: { color: CHART_COLORS.acceptable, width: 2, type: 'dotted' } }] : []),
+            ...(d.own !== undefined
+              ? [
+                  {
+                    xAxis: d.own,
+                    name: 'your result',
+                    lineStyle: { color: CHART_COLORS.acceptable, width: 2, type: 'dotted' },
+                  },
+                ]
+              : []),
           ],
         },
       },
@@ -180,30 +248,67 @@ export interface UncertaintyPoint {
 }
 
 /** Results ordered by value with ±U bars, against x_pt and x_pt ± 2σ_pt. */
-export function uncertaintyOption(points: readonly UncertaintyPoint[], assignedValue: number, sigmaPt: number, unit: string, title: string): ChartOption {
+export function uncertaintyOption(
+  points: readonly UncertaintyPoint[],
+  assignedValue: number,
+  sigmaPt: number,
+  unit: string,
+  title: string,
+): ChartOption {
   const sorted = [...points].sort((a, b) => a.result - b.result);
   const codes = sorted.map((p) => p.code);
   return {
     ...base(title),
     tooltip: { trigger: 'item' },
-    xAxis: { type: 'category', data: codes, name: 'participant code', nameLocation: 'middle', nameGap: 32, axisLabel: { show: codes.length <= 60, rotate: 90, fontSize: 10 } },
-    yAxis: { type: 'value', name: unit ? `result (${unit})` : 'result', scale: true, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+    xAxis: {
+      type: 'category',
+      data: codes,
+      name: 'participant code',
+      nameLocation: 'middle',
+      nameGap: 32,
+      axisLabel: { show: codes.length <= 60, rotate: 90, fontSize: 10 },
+    },
+    yAxis: {
+      type: 'value',
+      name: unit ? `result (${unit})` : 'result',
+      scale: true,
+      splitLine: { lineStyle: { color: CHART_COLORS.grid } },
+    },
     series: [
       {
         type: 'custom',
         name: 'U (k = 2)',
         silent: true,
-        data: sorted.map((p, i) => (p.expandedU === null ? [i, p.result, p.result] : [i, p.result - p.expandedU, p.result + p.expandedU])),
-        renderItem: (_params: unknown, api: { value: (i: number) => number; coord: (v: number[]) => number[] }) => {
+        data: sorted.map((p, i) =>
+          p.expandedU === null
+            ? [i, p.result, p.result]
+            : [i, p.result - p.expandedU, p.result + p.expandedU],
+        ),
+        renderItem: (
+          _params: unknown,
+          api: { value: (i: number) => number; coord: (v: number[]) => number[] },
+        ) => {
           const i = api.value(0);
           const a = api.coord([i, api.value(1)]);
           const b = api.coord([i, api.value(2)]);
           return {
             type: 'group',
             children: [
-              { type: 'line', shape: { x1: a[0], y1: a[1], x2: b[0], y2: b[1] }, style: { stroke: CHART_COLORS.ink, lineWidth: 1 } },
-              { type: 'line', shape: { x1: a[0]! - 3, y1: a[1], x2: a[0]! + 3, y2: a[1] }, style: { stroke: CHART_COLORS.ink, lineWidth: 1 } },
-              { type: 'line', shape: { x1: b[0]! - 3, y1: b[1], x2: b[0]! + 3, y2: b[1] }, style: { stroke: CHART_COLORS.ink, lineWidth: 1 } },
+              {
+                type: 'line',
+                shape: { x1: a[0], y1: a[1], x2: b[0], y2: b[1] },
+                style: { stroke: CHART_COLORS.ink, lineWidth: 1 },
+              },
+              {
+                type: 'line',
+                shape: { x1: a[0]! - 3, y1: a[1], x2: a[0]! + 3, y2: a[1] },
+                style: { stroke: CHART_COLORS.ink, lineWidth: 1 },
+              },
+              {
+                type: 'line',
+                shape: { x1: b[0]! - 3, y1: b[1], x2: b[0]! + 3, y2: b[1] },
+                style: { stroke: CHART_COLORS.ink, lineWidth: 1 },
+              },
             ],
           };
         },
@@ -212,15 +317,35 @@ export function uncertaintyOption(points: readonly UncertaintyPoint[], assignedV
         type: 'scatter',
         name: 'result',
         symbolSize: 7,
-        data: sorted.map((p) => ({ value: [p.code, p.result], symbol: SYMBOLS[p.signal], itemStyle: { color: CHART_COLORS[p.signal], borderColor: p.own ? CHART_COLORS.ink : undefined, borderWidth: p.own ? 2 : 0 } })),
+        data: sorted.map((p) => ({
+          value: [p.code, p.result],
+          symbol: SYMBOLS[p.signal],
+          itemStyle: {
+            color: CHART_COLORS[p.signal],
+            borderColor: p.own ? CHART_COLORS.ink : undefined,
+            borderWidth: p.own ? 2 : 0,
+          },
+        })),
         markLine: {
           silent: true,
           symbol: 'none',
           label: { formatter: '{b}', fontSize: 10 },
           data: [
-            { yAxis: assignedValue, name: 'x_pt', lineStyle: { color: CHART_COLORS.ink, width: 2 } },
-            { yAxis: assignedValue - 2 * sigmaPt, name: '−2σ_pt', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
-            { yAxis: assignedValue + 2 * sigmaPt, name: '+2σ_pt', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
+            {
+              yAxis: assignedValue,
+              name: 'x_pt',
+              lineStyle: { color: CHART_COLORS.ink, width: 2 },
+            },
+            {
+              yAxis: assignedValue - 2 * sigmaPt,
+              name: '−2σ_pt',
+              lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
+            },
+            {
+              yAxis: assignedValue + 2 * sigmaPt,
+              name: '+2σ_pt',
+              lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
+            },
           ],
         },
       },
@@ -228,7 +353,13 @@ export function uncertaintyOption(points: readonly UncertaintyPoint[], assignedV
   };
 }
 
-export function uncertaintyText(points: readonly UncertaintyPoint[], assignedValue: number, sigmaPt: number, unit: string, title: string): string {
+export function uncertaintyText(
+  points: readonly UncertaintyPoint[],
+  assignedValue: number,
+  sigmaPt: number,
+  unit: string,
+  title: string,
+): string {
   const withU = points.filter((p) => p.expandedU !== null);
   const covering = withU.filter((p) => Math.abs(p.result - assignedValue) <= p.expandedU!).length;
   const u = unit ? ` ${unit}` : '';
@@ -253,21 +384,56 @@ export interface YoudenPoint {
  * assigned values and the ±2σ_pt box. Points along the diagonal show a systematic (lab) effect,
  * points off it a random one.
  */
-export function youdenOption(points: readonly YoudenPoint[], xA: number, xB: number, sA: number, sB: number, labels: [string, string], unit: string, title: string): ChartOption {
+export function youdenOption(
+  points: readonly YoudenPoint[],
+  xA: number,
+  xB: number,
+  sA: number,
+  sB: number,
+  labels: [string, string],
+  unit: string,
+  title: string,
+): ChartOption {
   const u = unit ? ` (${unit})` : '';
   const inRange = (p: YoudenPoint) => Math.abs(p.a - xA) <= 5 * sA && Math.abs(p.b - xB) <= 5 * sB;
   return {
     ...base(title),
     tooltip: { trigger: 'item' },
-    xAxis: { type: 'value', name: `${labels[0]}${u}`, nameLocation: 'middle', nameGap: 28, min: xA - 5 * sA, max: xA + 5 * sA, axisLabel: { formatter: (v: number) => v.toPrecision(4) } },
-    yAxis: { type: 'value', name: `${labels[1]}${u}`, min: xB - 5 * sB, max: xB + 5 * sB, axisLabel: { formatter: (v: number) => v.toPrecision(4) } },
+    xAxis: {
+      type: 'value',
+      name: `${labels[0]}${u}`,
+      nameLocation: 'middle',
+      nameGap: 28,
+      min: xA - 5 * sA,
+      max: xA + 5 * sA,
+      axisLabel: { formatter: (v: number) => v.toPrecision(4) },
+    },
+    yAxis: {
+      type: 'value',
+      name: `${labels[1]}${u}`,
+      min: xB - 5 * sB,
+      max: xB + 5 * sB,
+      axisLabel: { formatter: (v: number) => v.toPrecision(4) },
+    },
     series: [
       {
         type: 'scatter',
         name: 'labs',
         symbolSize: 6,
-        data: points.filter(inRange).map((p) => ({ value: [p.a, p.b], name: p.code, itemStyle: { color: p.own ? CHART_COLORS.action : CHART_COLORS.acceptable } })),
-        markArea: { silent: true, data: [[{ coord: [xA - 2 * sA, xB - 2 * sB], itemStyle: { color: CHART_COLORS.band2 } }, { coord: [xA + 2 * sA, xB + 2 * sB] }]] },
+        data: points.filter(inRange).map((p) => ({
+          value: [p.a, p.b],
+          name: p.code,
+          itemStyle: { color: p.own ? CHART_COLORS.action : CHART_COLORS.acceptable },
+        })),
+        markArea: {
+          silent: true,
+          data: [
+            [
+              { coord: [xA - 2 * sA, xB - 2 * sB], itemStyle: { color: CHART_COLORS.band2 } },
+              { coord: [xA + 2 * sA, xB + 2 * sB] },
+            ],
+          ],
+        },
         markLine: {
           silent: true,
           symbol: 'none',
@@ -281,8 +447,18 @@ export function youdenOption(points: readonly YoudenPoint[], xA: number, xB: num
   };
 }
 
-export function youdenText(points: readonly YoudenPoint[], xA: number, xB: number, sA: number, sB: number, labels: [string, string], title: string): string {
-  const box = points.filter((p) => Math.abs(p.a - xA) <= 2 * sA && Math.abs(p.b - xB) <= 2 * sB).length;
+export function youdenText(
+  points: readonly YoudenPoint[],
+  xA: number,
+  xB: number,
+  sA: number,
+  sB: number,
+  labels: [string, string],
+  title: string,
+): string {
+  const box = points.filter(
+    (p) => Math.abs(p.a - xA) <= 2 * sA && Math.abs(p.b - xB) <= 2 * sB,
+  ).length;
   const same = points.filter((p) => Math.sign(p.a - xA) === Math.sign(p.b - xB)).length;
   const own = points.find((p) => p.own);
   return (
@@ -306,14 +482,29 @@ export function trackOption(points: readonly TrackChartPoint[], title: string): 
   return {
     ...base(title),
     tooltip: { trigger: 'axis' },
-    xAxis: { type: 'category', data: points.map((p) => p.label), axisLabel: { rotate: points.length > 8 ? 45 : 0, fontSize: 10 } },
-    yAxis: { type: 'value', name: 'z', min: -lim, max: lim, splitLine: { lineStyle: { color: CHART_COLORS.grid } } },
+    xAxis: {
+      type: 'category',
+      data: points.map((p) => p.label),
+      axisLabel: { rotate: points.length > 8 ? 45 : 0, fontSize: 10 },
+    },
+    yAxis: {
+      type: 'value',
+      name: 'z',
+      min: -lim,
+      max: lim,
+      splitLine: { lineStyle: { color: CHART_COLORS.grid } },
+    },
     series: [
       {
         type: 'line',
         name: 'z',
         lineStyle: { color: CHART_COLORS.ink },
-        data: points.map((p) => ({ value: Math.max(-lim, Math.min(lim, p.z)), symbol: SYMBOLS[p.signal], symbolSize: 9, itemStyle: { color: CHART_COLORS[p.signal] } })),
+        data: points.map((p) => ({
+          value: Math.max(-lim, Math.min(lim, p.z)),
+          symbol: SYMBOLS[p.signal],
+          symbolSize: 9,
+          itemStyle: { color: CHART_COLORS[p.signal] },
+        })),
         markLine: {
           silent: true,
           symbol: 'none',
@@ -330,7 +521,11 @@ export function trackOption(points: readonly TrackChartPoint[], title: string): 
   };
 }
 
-export function trackText(points: readonly TrackChartPoint[], rsz: number | null, title: string): string {
+export function trackText(
+  points: readonly TrackChartPoint[],
+  rsz: number | null,
+  title: string,
+): string {
   if (points.length === 0) return `${title}: no scores yet.`;
   const last = points[points.length - 1]!;
   return (

@@ -62,7 +62,7 @@ export type User = z.infer<typeof User>;
 /** Inviting a user creates the account and e-mails a first-password link. */
 export const UserInvite = z.object({
   email: Email,
-  name: singleLine(200, { min: 1, required: 'Enter the person\'s name.' }),
+  name: singleLine(200, { min: 1, required: "Enter the person's name." }),
   roles: z.array(GlobalRole).default([]),
   organisationId: Id.optional(),
   isManager: z.boolean().default(false),
@@ -71,11 +71,14 @@ export type UserInvite = z.input<typeof UserInvite>;
 
 export const UserUpdate = z
   .object({
-    name: singleLine(200, { min: 1, required: 'Enter the person\'s name.' }).optional(),
+    name: singleLine(200, { min: 1, required: "Enter the person's name." }).optional(),
     roles: z.array(GlobalRole).max(3).optional(),
     isActive: z.boolean().optional(),
   })
-  .refine((u) => u.name !== undefined || u.roles !== undefined || u.isActive !== undefined, changeSomething);
+  .refine(
+    (u) => u.name !== undefined || u.roles !== undefined || u.isActive !== undefined,
+    changeSomething,
+  );
 export type UserUpdate = z.infer<typeof UserUpdate>;
 
 export const MembershipCreate = z.object({
@@ -89,7 +92,7 @@ export const MembershipUpdate = z.object({ isManager: z.boolean() });
 /** A lab manager invites a colleague into the lab. */
 export const LabMemberInvite = z.object({
   email: Email,
-  name: singleLine(200, { min: 1, required: 'Enter the person\'s name.' }),
+  name: singleLine(200, { min: 1, required: "Enter the person's name." }),
   isManager: z.boolean().default(false),
 });
 export type LabMemberInvite = z.input<typeof LabMemberInvite>;

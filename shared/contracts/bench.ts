@@ -14,7 +14,15 @@ export const AttachmentParams = z.object({ id: Id, attachmentId: Id });
 // ---------------------------------------------------------------- dashboard
 
 /** Where a round stands for this lab (dashboard column). */
-export const MyRoundStatus = z.enum(['invited', 'enrolled', 'due-soon', 'submitted', 'locked', 'published', 'withdrawn']);
+export const MyRoundStatus = z.enum([
+  'invited',
+  'enrolled',
+  'due-soon',
+  'submitted',
+  'locked',
+  'published',
+  'withdrawn',
+]);
 export type MyRoundStatus = z.infer<typeof MyRoundStatus>;
 
 export const MyRound = z.object({
@@ -219,7 +227,9 @@ export const Reanalysis = z.object({
    * Which of `parameters` were assumed because neither the upload nor the item's conditions gave
    * them (older stored analyses lack the list).
    */
-  assumed: z.array(z.enum(['temperatureC', 'viscosityMPas', 'refractiveIndex', 'wavelengthNm', 'angleDeg'])).default([]),
+  assumed: z
+    .array(z.enum(['temperatureC', 'viscosityMPas', 'refractiveIndex', 'wavelengthNm', 'angleDeg']))
+    .default([]),
   /** The physics the fit used (from the upload's fields, the item's conditions, defaults where missing). */
   parameters: z.object({
     temperatureC: z.number(),
@@ -262,7 +272,12 @@ export const MAX_ATTACHMENT_BYTES = 20 * 1024 * 1024;
 
 // ---------------------------------------------------------------- bulk entry
 
-export const SheetIssue = z.object({ sheet: z.string(), row: z.number().int(), column: z.string(), message: z.string() });
+export const SheetIssue = z.object({
+  sheet: z.string(),
+  row: z.number().int(),
+  column: z.string(),
+  message: z.string(),
+});
 export type SheetIssue = z.infer<typeof SheetIssue>;
 
 export const WorkbookUploadResult = z.object({

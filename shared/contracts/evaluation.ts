@@ -1,6 +1,15 @@
 import * as z from 'zod';
 import { Id } from './common';
-import { boundedNumber, DATE_MAX, DATE_MIN, dateOnly, daysBetween, GRANT_MAX_YEARS, multiLine, singleLine } from './ranges';
+import {
+  boundedNumber,
+  DATE_MAX,
+  DATE_MIN,
+  dateOnly,
+  daysBetween,
+  GRANT_MAX_YEARS,
+  multiLine,
+  singleLine,
+} from './ranges';
 
 /**
  * Evaluation, Consensus board, lab scores, Track record, investigations and assessor grants.
@@ -37,7 +46,13 @@ export const AssignedValueRuleSchema = z.discriminatedUnion('kind', [
 export type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleSchema>;
 
 /** Why a result is kept out of the assigned value (the coordinator names one and explains). */
-export const EXCLUSION_RULES = ['confirmed-blunder', 'item-damaged', 'late-result', 'method-deviation', 'other'] as const;
+export const EXCLUSION_RULES = [
+  'confirmed-blunder',
+  'item-damaged',
+  'late-result',
+  'method-deviation',
+  'other',
+] as const;
 export const ExclusionRule = z.enum(EXCLUSION_RULES);
 export const EXCLUSION_RULE_LABELS: Record<(typeof EXCLUSION_RULES)[number], string> = {
   'confirmed-blunder': 'Confirmed blunder (lab agreed)',
@@ -47,7 +62,9 @@ export const EXCLUSION_RULE_LABELS: Record<(typeof EXCLUSION_RULES)[number], str
   other: 'Other (see reason)',
 };
 
-const Reason = multiLine(1000, { trim: true }).min(3, { message: 'Give a reason (at least 3 characters).' });
+const Reason = multiLine(1000, { trim: true }).min(3, {
+  message: 'Give a reason (at least 3 characters).',
+});
 
 export const SigmaPtOverride = z.object({
   measurandKey: singleLine(100, { min: 1 }),
@@ -111,7 +128,9 @@ export type ParticipantScore = z.infer<typeof ParticipantScore>;
 export const ReplicateInputSchema = z.object({
   code: z.string(),
   values: z.array(z.number()),
-  uncertainty: z.object({ kind: z.enum(['standard', 'expanded']), value: z.number(), k: z.number().nullable() }).nullable(),
+  uncertainty: z
+    .object({ kind: z.enum(['standard', 'expanded']), value: z.number(), k: z.number().nullable() })
+    .nullable(),
 });
 
 /** One item × measurand of an evaluation: the record and how it was made. */
@@ -143,7 +162,10 @@ export type ItemMeasurandEvaluation = z.infer<typeof ItemMeasurandEvaluation>;
 export const EvaluationState = z.enum(['draft', 'committed', 'published']);
 export type EvaluationState = z.infer<typeof EvaluationState>;
 /** What a person reads for an investigation's state. */
-export const INVESTIGATION_STATE_LABELS: Record<'open' | 'closed', string> = { open: 'Open', closed: 'Closed' };
+export const INVESTIGATION_STATE_LABELS: Record<'open' | 'closed', string> = {
+  open: 'Open',
+  closed: 'Closed',
+};
 /** What a person reads for an evaluation state (docs/GLOSSARY.md: never "committed"). */
 export const EVALUATION_STATE_LABELS: Record<EvaluationState, string> = {
   draft: 'Draft',
@@ -188,9 +210,17 @@ export const EvaluationView = z.object({
 export type EvaluationView = z.infer<typeof EvaluationView>;
 
 export const EvaluationRequest = EvaluationSettings.partial().default({});
-export const ReissueRequest = z.object({ reason: Reason, settings: EvaluationSettings.partial().optional() });
+export const ReissueRequest = z.object({
+  reason: Reason,
+  settings: EvaluationSettings.partial().optional(),
+});
 export type ReissueRequest = z.infer<typeof ReissueRequest>;
-export const PublishResponse = z.object({ evaluationId: Id, version: z.number().int(), labsNotified: z.number().int(), investigationsOpened: z.number().int() });
+export const PublishResponse = z.object({
+  evaluationId: Id,
+  version: z.number().int(),
+  labsNotified: z.number().int(),
+  investigationsOpened: z.number().int(),
+});
 
 /* ---------------------------------------------------------------- Consensus board */
 
@@ -326,12 +356,24 @@ export const TrackSeries = z.object({
 });
 export type TrackSeries = z.infer<typeof TrackSeries>;
 
-export const TrackRecord = z.object({ labId: Id, labName: z.string(), series: z.array(TrackSeries) });
+export const TrackRecord = z.object({
+  labId: Id,
+  labName: z.string(),
+  series: z.array(TrackSeries),
+});
 export type TrackRecord = z.infer<typeof TrackRecord>;
 
 /* ---------------------------------------------------------------- Investigations */
 
-export const CAUSE_CATEGORIES = ['sample-preparation', 'temperature', 'dispersant', 'dilution', 'instrument', 'data-entry', 'other'] as const;
+export const CAUSE_CATEGORIES = [
+  'sample-preparation',
+  'temperature',
+  'dispersant',
+  'dilution',
+  'instrument',
+  'data-entry',
+  'other',
+] as const;
 export const CauseCategory = z.enum(CAUSE_CATEGORIES);
 export type CauseCategory = z.infer<typeof CauseCategory>;
 export const CAUSE_CATEGORY_LABELS: Record<CauseCategory, string> = {
@@ -391,18 +433,37 @@ export type InvestigationUpdate = z.infer<typeof InvestigationUpdate>;
  */
 export const AssessorGrantCreate = z
   .object({
-    email: z.string().trim().toLowerCase().pipe(z.email({ message: 'Enter a valid e-mail address.' })),
+    email: z
+      .string()
+      .trim()
+      .toLowerCase()
+      .pipe(z.email({ message: 'Enter a valid e-mail address.' })),
     name: singleLine(200, { min: 1 }).optional(),
     startsOn: dateOnly('Start date').optional(),
     endsOn: dateOnly('End date').nullable().optional(),
   })
   .superRefine((g, ctx) => {
     // Dates outside DATE_MIN…DATE_MAX are already named by the field itself.
-    if (!g.endsOn || g.endsOn > DATE_MAX || g.endsOn < DATE_MIN || (g.startsOn && (g.startsOn > DATE_MAX || g.startsOn < DATE_MIN))) return;
+    if (
+      !g.endsOn ||
+      g.endsOn > DATE_MAX ||
+      g.endsOn < DATE_MIN ||
+      (g.startsOn && (g.startsOn > DATE_MAX || g.startsOn < DATE_MIN))
+    )
+      return;
     const start = g.startsOn ?? new Date().toISOString().slice(0, 10);
-    if (g.endsOn < start) ctx.addIssue({ code: 'custom', path: ['endsOn'], message: 'The access must end on or after its start.' });
+    if (g.endsOn < start)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['endsOn'],
+        message: 'The access must end on or after its start.',
+      });
     else if (daysBetween(start, g.endsOn) > GRANT_MAX_YEARS * 366) {
-      ctx.addIssue({ code: 'custom', path: ['endsOn'], message: `The access may run for at most ${GRANT_MAX_YEARS} years.` });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['endsOn'],
+        message: `The access may run for at most ${GRANT_MAX_YEARS} years.`,
+      });
     }
   });
 export type AssessorGrantCreate = z.infer<typeof AssessorGrantCreate>;

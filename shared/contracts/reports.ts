@@ -5,7 +5,13 @@ import { Id } from './common';
  * Reports: round workbook and PDF, individual report, certificate, evidence pack, their build
  * status, and what an assessor reads of the labs that granted access.
  */
-export const REPORT_KINDS = ['round.xlsx', 'round.pdf', 'participant.pdf', 'certificate.pdf', 'evidence.zip'] as const;
+export const REPORT_KINDS = [
+  'round.xlsx',
+  'round.pdf',
+  'participant.pdf',
+  'certificate.pdf',
+  'evidence.zip',
+] as const;
 export const ReportKind = z.enum(REPORT_KINDS);
 export type ReportKind = z.infer<typeof ReportKind>;
 

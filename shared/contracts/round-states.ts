@@ -1,7 +1,16 @@
 import * as z from 'zod';
 
 /** The round lifecycle (docs/ARCHITECTURE.md, "Where each rule lives"): draft → enrolling → in transit → collecting → closed → evaluated → published (→ reissued). */
-export const ROUND_STATES = ['draft', 'enrolling', 'in-transit', 'collecting', 'closed', 'evaluated', 'published', 'reissued'] as const;
+export const ROUND_STATES = [
+  'draft',
+  'enrolling',
+  'in-transit',
+  'collecting',
+  'closed',
+  'evaluated',
+  'published',
+  'reissued',
+] as const;
 export const RoundState = z.enum(ROUND_STATES);
 export type RoundState = z.infer<typeof RoundState>;
 
@@ -59,18 +68,23 @@ export interface MoveDescription {
   whoIsTold: string;
 }
 
-const BACKWARD_MOVES: Partial<Record<`${RoundState}>${RoundState}`, Omit<MoveDescription, 'backwards'>>> = {
+const BACKWARD_MOVES: Partial<
+  Record<`${RoundState}>${RoundState}`, Omit<MoveDescription, 'backwards'>>
+> = {
   'enrolling>draft': {
     label: 'Back to draft',
-    whoIsTold: 'No lab has enrolled, so nobody is told; invitations already sent stay valid until they expire.',
+    whoIsTold:
+      'No lab has enrolled, so nobody is told; invitations already sent stay valid until they expire.',
   },
   'closed>collecting': {
     label: 'Reopen for results',
-    whoIsTold: 'Every enrolled lab is e-mailed that the round accepts results again, with your reason.',
+    whoIsTold:
+      'Every enrolled lab is e-mailed that the round accepts results again, with your reason.',
   },
   'evaluated>closed': {
     label: 'Reopen evaluation',
-    whoIsTold: 'Nothing was published, so no lab is told; the approved evaluation is set aside and the reason is kept in the round history.',
+    whoIsTold:
+      'Nothing was published, so no lab is told; the approved evaluation is set aside and the reason is kept in the round history.',
   },
 };
 
@@ -87,7 +101,10 @@ export function describeMove(from: RoundState, to: RoundState): MoveDescription 
   return {
     label: FORWARD_LABELS[to] ?? `Move to ${ROUND_STATE_LABELS[to]}`,
     backwards: false,
-    whoIsTold: to === 'collecting' ? 'Labs see the round open for results on their Lab bench.' : 'The move is recorded in the round history.',
+    whoIsTold:
+      to === 'collecting'
+        ? 'Labs see the round open for results on their Lab bench.'
+        : 'The move is recorded in the round history.',
   };
 }
 

@@ -16,7 +16,10 @@ export { DEFAULT_INSTRUCTIONS, SAFETY_CAUTIONS } from './safety';
 // ---- σ_pt and assigned-value rules (shapes of shared/stats SigmaPtRule / AssignedValueRule) ----
 
 export const SigmaPtRuleInput = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('fixed'), value: boundedNumber('sigmaPt', { required: 'Enter σ_pt.' }) }),
+  z.object({
+    kind: z.literal('fixed'),
+    value: boundedNumber('sigmaPt', { required: 'Enter σ_pt.' }),
+  }),
   z.object({
     kind: z.literal('percent'),
     percent: boundedNumber('sigmaPtPercent', {
@@ -28,7 +31,10 @@ export const SigmaPtRuleInput = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('robust-sd') }),
   z.object({
     kind: z.literal('precision'),
-    sigmaR: boundedNumber('sigmaPt', { label: 'σ_R', required: 'Enter σ_R from the precision study.' }),
+    sigmaR: boundedNumber('sigmaPt', {
+      label: 'σ_R',
+      required: 'Enter σ_R from the precision study.',
+    }),
     sigmaRepeatability: boundedNumber('sigmaPt', { label: 'σ_r' }).optional(),
     replicates: z.number().int().min(1).max(20).optional(),
     source: singleLine(500).optional(),
@@ -41,7 +47,10 @@ export const AssignedValueRuleInput = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('median') }),
   z.object({
     kind: z.literal('reference'),
-    value: boundedNumber('measuredValue', { label: 'Reference value', required: 'Enter the reference value.' }),
+    value: boundedNumber('measuredValue', {
+      label: 'Reference value',
+      required: 'Enter the reference value.',
+    }),
     u: boundedNumber('referenceUncertainty', { required: 'Enter its standard uncertainty u.' }),
     source: singleLine(500, { min: 1, required: 'Name the source (e.g. the certificate).' }),
   }),
@@ -54,7 +63,9 @@ export const MeasurandInput = z.object({
   key: z
     .string()
     .trim()
-    .regex(/^[a-z][a-z0-9_]{0,39}$/, { message: 'Use lower-case letters, digits and _ (e.g. z_average).' }),
+    .regex(/^[a-z][a-z0-9_]{0,39}$/, {
+      message: 'Use lower-case letters, digits and _ (e.g. z_average).',
+    }),
   name: singleLine(100, { min: 1, required: 'Enter the measurand name.' }),
   unit: singleLine(20),
   decimals: z.number().int().min(0).max(6),
@@ -130,11 +141,16 @@ export const SchemeCreate = z.object({
   code: z
     .string()
     .trim()
-    .regex(/^[A-Z0-9][A-Z0-9-]{1,29}$/, { message: 'Use 2–30 capital letters, digits or dashes (e.g. NANO-DLS).' }),
+    .regex(/^[A-Z0-9][A-Z0-9-]{1,29}$/, {
+      message: 'Use 2–30 capital letters, digits or dashes (e.g. NANO-DLS).',
+    }),
   name: singleLine(200, { min: 2, required: 'Enter the scheme name.' }),
   description: multiLine(4000, { trim: true }).default(''),
   rules: multiLine(8000, { trim: true }).default(''),
-  defaultMeasurands: z.array(MeasurandInput).max(20).default([...DLS_DEFAULT_MEASURANDS]),
+  defaultMeasurands: z
+    .array(MeasurandInput)
+    .max(20)
+    .default([...DLS_DEFAULT_MEASURANDS]),
 });
 export type SchemeCreate = z.input<typeof SchemeCreate>;
 
@@ -155,7 +171,9 @@ export const TestItemInput = z.object({
   code: z
     .string()
     .trim()
-    .regex(/^[A-Za-z0-9][A-Za-z0-9-]{0,19}$/, { message: 'Use up to 20 letters, digits or dashes (e.g. A).' }),
+    .regex(/^[A-Za-z0-9][A-Za-z0-9-]{0,19}$/, {
+      message: 'Use up to 20 letters, digits or dashes (e.g. A).',
+    }),
   material: singleLine(200, { min: 1, required: 'Enter the material.' }),
   nominalSizeNm: boundedNumber('diameterNm', { label: 'Nominal size' }).nullable().default(null),
   storageNotes: multiLine(2000, { trim: true }).default(''),
@@ -201,7 +219,8 @@ export const ROUND_DESIGN_STATES: readonly RoundState[] = ['draft', 'enrolling']
 export const ROUND_LOCKED_STATES: readonly RoundState[] = ['published'];
 
 export const isDesignOpen = (state: RoundState): boolean => ROUND_DESIGN_STATES.includes(state);
-export const isDescriptionOpen = (state: RoundState): boolean => !ROUND_LOCKED_STATES.includes(state);
+export const isDescriptionOpen = (state: RoundState): boolean =>
+  !ROUND_LOCKED_STATES.includes(state);
 /** The participation fee is fixed once enrolment has opened. */
 export const isFeeOpen = (state: RoundState): boolean => state === 'draft';
 
@@ -214,7 +233,9 @@ const roundFields = {
   dispatchOn: dateOnly('Dispatch date').nullable().default(null),
   resultsDueAt: boundedTimestamp('Results due').nullable().default(null),
   instructions: multiLine(20000).default(DEFAULT_INSTRUCTIONS),
-  protocolTemperatureC: boundedNumber('temperatureC', { label: 'Protocol temperature' }).default(25),
+  protocolTemperatureC: boundedNumber('temperatureC', { label: 'Protocol temperature' }).default(
+    25,
+  ),
   feeMinor: z.number().int().min(0).max(100_000_000).default(0),
   currency: z
     .string()
@@ -223,12 +244,19 @@ const roundFields = {
     .default('EUR'),
 };
 
-function datesInOrder(r: { enrolmentClosesOn?: string | null; dispatchOn?: string | null; resultsDueAt?: string | null }): boolean {
+function datesInOrder(r: {
+  enrolmentClosesOn?: string | null;
+  dispatchOn?: string | null;
+  resultsDueAt?: string | null;
+}): boolean {
   if (r.enrolmentClosesOn && r.dispatchOn && r.dispatchOn < r.enrolmentClosesOn) return false;
   if (r.dispatchOn && r.resultsDueAt && r.resultsDueAt.slice(0, 10) < r.dispatchOn) return false;
   return true;
 }
-const datesMessage = { message: 'Dates must run in order: enrolment closes, dispatch, results due.', path: ['resultsDueAt'] };
+const datesMessage = {
+  message: 'Dates must run in order: enrolment closes, dispatch, results due.',
+  path: ['resultsDueAt'],
+};
 
 export const RoundCreate = z
   .object({
@@ -236,7 +264,9 @@ export const RoundCreate = z
     code: z
       .string()
       .trim()
-      .regex(/^[A-Z0-9][A-Z0-9-]{1,29}$/, { message: 'Use 2–30 capital letters, digits or dashes (e.g. DLS-2026-1).' }),
+      .regex(/^[A-Z0-9][A-Z0-9-]{1,29}$/, {
+        message: 'Use 2–30 capital letters, digits or dashes (e.g. DLS-2026-1).',
+      }),
     kind: z.enum(['pt', 'precision']).default('pt'),
     ...roundFields,
     /** Start with the scheme's default measurands (true unless the coordinator says otherwise). */
@@ -255,7 +285,10 @@ export const RoundUpdate = z
     instructions: roundFields.instructions.unwrap(),
     protocolTemperatureC: roundFields.protocolTemperatureC.unwrap(),
     feeMinor: z.number().int().min(0).max(100_000_000),
-    currency: z.string().trim().regex(/^[A-Z]{3}$/, { message: 'Use a 3-letter currency code (e.g. EUR).' }),
+    currency: z
+      .string()
+      .trim()
+      .regex(/^[A-Z]{3}$/, { message: 'Use a 3-letter currency code (e.g. EUR).' }),
   })
   .partial()
   .refine((r) => Object.keys(r).length > 0, { message: 'Change at least one field.' })
@@ -302,15 +335,17 @@ export const RoundDetail = RoundSummary.extend({
 });
 export type RoundDetail = z.infer<typeof RoundDetail>;
 
-export const TransitionRequest = z.object({
-  to: RoundState,
-  reason: multiLine(2000, { trim: true }).optional(),
-  /** Overrides a date rule (e.g. closing before results are due); needs a reason. */
-  force: z.boolean().default(false),
-}).refine((t) => !t.force || (t.reason?.length ?? 0) >= 5, {
-  message: 'Give a reason (at least 5 characters) when forcing a transition.',
-  path: ['reason'],
-});
+export const TransitionRequest = z
+  .object({
+    to: RoundState,
+    reason: multiLine(2000, { trim: true }).optional(),
+    /** Overrides a date rule (e.g. closing before results are due); needs a reason. */
+    force: z.boolean().default(false),
+  })
+  .refine((t) => !t.force || (t.reason?.length ?? 0) >= 5, {
+    message: 'Give a reason (at least 5 characters) when forcing a transition.',
+    path: ['reason'],
+  });
 export type TransitionRequest = z.input<typeof TransitionRequest>;
 
 // ---- invitations and enrolments ----
@@ -347,7 +382,9 @@ export const Invitation = z.object({
 });
 export type Invitation = z.infer<typeof Invitation>;
 
-export const TokenParams = z.object({ token: z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, { message: 'Not a valid link.' }) });
+export const TokenParams = z.object({
+  token: z.string().regex(/^[A-Za-z0-9_-]{20,100}$/, { message: 'Not a valid link.' }),
+});
 
 /** What the invitee sees before accepting (no other lab's identity). */
 export const InvitationInfo = z.object({
@@ -383,7 +420,12 @@ export const Shipment = z.object({
 export type Shipment = z.infer<typeof Shipment>;
 
 /** Receipt status as the coordinator's table shows it. */
-export const ReceiptStatus = z.enum(['not-dispatched', 'dispatched', 'received', 'received-with-problem']);
+export const ReceiptStatus = z.enum([
+  'not-dispatched',
+  'dispatched',
+  'received',
+  'received-with-problem',
+]);
 export type ReceiptStatus = z.infer<typeof ReceiptStatus>;
 
 export const Enrolment = z.object({
@@ -405,13 +447,17 @@ export type Enrolment = z.infer<typeof Enrolment>;
 export const EnrolmentParams = z.object({ id: Id, enrolmentId: Id });
 
 export const Withdrawal = z.object({
-  reason: multiLine(2000, { trim: true }).min(5, { message: 'Give the reason (at least 5 characters).' }),
+  reason: multiLine(2000, { trim: true }).min(5, {
+    message: 'Give the reason (at least 5 characters).',
+  }),
 });
 export type Withdrawal = z.input<typeof Withdrawal>;
 
 export const ExtensionGrant = z.object({
   until: boundedTimestamp('Extension'),
-  reason: multiLine(2000, { trim: true }).min(5, { message: 'Give the reason (at least 5 characters).' }),
+  reason: multiLine(2000, { trim: true }).min(5, {
+    message: 'Give the reason (at least 5 characters).',
+  }),
 });
 export type ExtensionGrant = z.input<typeof ExtensionGrant>;
 
@@ -427,7 +473,12 @@ export type DispatchInput = z.input<typeof DispatchInput>;
 /** g items, each with m ≥ 2 replicate results in the measurand's unit. */
 export const HomogeneityData = z.object({
   items: z
-    .array(z.array(boundedNumber('measuredValue', { label: 'Result' })).min(2, { message: 'Each item needs at least 2 replicates.' }).max(20))
+    .array(
+      z
+        .array(boundedNumber('measuredValue', { label: 'Result' }))
+        .min(2, { message: 'Each item needs at least 2 replicates.' })
+        .max(20),
+    )
     .min(2, { message: 'At least 2 items are needed.' })
     .max(100)
     .refine((items) => items.every((r) => r.length === items[0]?.length), {
@@ -436,8 +487,14 @@ export const HomogeneityData = z.object({
 });
 
 export const StabilityData = z.object({
-  first: z.array(boundedNumber('measuredValue', { label: 'Result' })).min(2, { message: 'At least 2 results before.' }).max(200),
-  second: z.array(boundedNumber('measuredValue', { label: 'Result' })).min(2, { message: 'At least 2 results after.' }).max(200),
+  first: z
+    .array(boundedNumber('measuredValue', { label: 'Result' }))
+    .min(2, { message: 'At least 2 results before.' })
+    .max(200),
+  second: z
+    .array(boundedNumber('measuredValue', { label: 'Result' }))
+    .min(2, { message: 'At least 2 results after.' })
+    .max(200),
 });
 
 export const StudyInput = z.discriminatedUnion('kind', [
@@ -498,6 +555,8 @@ export const StudyParams = z.object({ id: Id, studyId: Id });
 
 export const StudyDecision = z.object({
   decision: HomogeneityDecisionKind,
-  reason: multiLine(2000, { trim: true }).min(5, { message: 'Give the reason (at least 5 characters).' }),
+  reason: multiLine(2000, { trim: true }).min(5, {
+    message: 'Give the reason (at least 5 characters).',
+  }),
 });
 export type StudyDecision = z.input<typeof StudyDecision>;

@@ -1,5 +1,12 @@
 import * as z from 'zod';
-import { boundedNumber, firstDuplicate, multiLine, RANGES, singleLine, UNCERTAINTY_MAX_RATIO } from './ranges';
+import {
+  boundedNumber,
+  firstDuplicate,
+  multiLine,
+  RANGES,
+  singleLine,
+  UNCERTAINTY_MAX_RATIO,
+} from './ranges';
 
 /**
  * A lab's results for one round. Drafts may be partial (nulls while typing); submitting requires the
@@ -14,7 +21,10 @@ export const Uncertainty = z
     value: boundedNumber('uncertainty'),
     k: boundedNumber('coverageFactor').nullable(),
   })
-  .refine((u) => u.kind === 'standard' || u.k !== null, { message: 'Give the coverage factor k of an expanded uncertainty.', path: ['k'] });
+  .refine((u) => u.kind === 'standard' || u.k !== null, {
+    message: 'Give the coverage factor k of an expanded uncertainty.',
+    path: ['k'],
+  });
 export type Uncertainty = z.infer<typeof Uncertainty>;
 
 export const MeasurandResult = z
@@ -84,13 +94,20 @@ export const SubmissionData = z
   .superRefine((d, ctx) => {
     const dup = firstDuplicate(d.items, (i) => i.testItemId);
     if (dup) {
-      ctx.addIssue({ code: 'custom', path: ['items', dup.index, 'testItemId'], message: 'This test item is already given; give each item once.' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['items', dup.index, 'testItemId'],
+        message: 'This test item is already given; give each item once.',
+      });
     }
   });
 export type SubmissionData = z.infer<typeof SubmissionData>;
 
 /** The range a replicate of a measurand must fall in at submit, by its unit or key (null: the general bound). */
-export function replicateRange(m: { key: string; unit: string }): (typeof RANGES)[keyof typeof RANGES] | null {
+export function replicateRange(m: {
+  key: string;
+  unit: string;
+}): (typeof RANGES)[keyof typeof RANGES] | null {
   if (m.unit === 'nm') return RANGES.diameterNm;
   if (m.key === 'pdi') return RANGES.pdi;
   return null;
@@ -101,7 +118,10 @@ export function replicateRange(m: { key: string; unit: string }): (typeof RANGES
 const StoredMeasurandResult = z.object({
   measurandId: z.string(),
   replicates: z.array(z.number().nullable()).default([]),
-  uncertainty: z.object({ kind: z.enum(['standard', 'expanded']), value: z.number(), k: z.number().nullable() }).nullable().default(null),
+  uncertainty: z
+    .object({ kind: z.enum(['standard', 'expanded']), value: z.number(), k: z.number().nullable() })
+    .nullable()
+    .default(null),
 });
 
 /**

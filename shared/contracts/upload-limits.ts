@@ -88,7 +88,12 @@ export function formatCount(n: number): string {
 
 /** One line for the API description: "Limit 2 MB, 1,000 rows per sheet; multipart field `file`." */
 export function describeLimit(limit: UploadLimit | SheetLimit): string {
-  const rows = 'maxRows' in limit ? `, ${formatCount(limit.maxRows)} rows per sheet, ${formatCount(limit.maxCells)} cells` : '';
-  const other = limit.textFields.length ? `; other fields: ${limit.textFields.map((f) => `\`${f}\``).join(', ')}` : '';
+  const rows =
+    'maxRows' in limit
+      ? `, ${formatCount(limit.maxRows)} rows per sheet, ${formatCount(limit.maxCells)} cells`
+      : '';
+  const other = limit.textFields.length
+    ? `; other fields: ${limit.textFields.map((f) => `\`${f}\``).join(', ')}`
+    : '';
   return `Limit ${formatBytes(limit.maxBytes)}${rows}. Multipart field \`${limit.fileField}\` (one file)${other}.`;
 }

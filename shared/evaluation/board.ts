@@ -3,7 +3,12 @@
  * code, one cell per item × measurand. Numbers are rounded to 6 significant digits for the
  * screen; the stored record keeps full precision.
  */
-import type { BoardCell, BoardGroup, BoardRow, ItemMeasurandEvaluation } from '../contracts/evaluation';
+import type {
+  BoardCell,
+  BoardGroup,
+  BoardRow,
+  ItemMeasurandEvaluation,
+} from '../contracts/evaluation';
 
 /** Rounds to `digits` significant digits (null stays null). */
 export function sig(v: number | null, digits = 6): number | null {
@@ -33,7 +38,11 @@ export function buildBoard(results: readonly ItemMeasurandEvaluation[]): BoardBo
   results.forEach((r, gi) => {
     for (const p of r.participants) {
       let row = rowsByCode.get(p.code);
-      if (!row) rowsByCode.set(p.code, (row = { code: p.code, cells: new Array<BoardCell | null>(results.length).fill(null) }));
+      if (!row)
+        rowsByCode.set(
+          p.code,
+          (row = { code: p.code, cells: new Array<BoardCell | null>(results.length).fill(null) }),
+        );
       const cell: BoardCell = {
         result: sig(p.result)!,
         sd: sig(p.replicateSd),
@@ -50,6 +59,8 @@ export function buildBoard(results: readonly ItemMeasurandEvaluation[]): BoardBo
       row.cells[gi] = cell;
     }
   });
-  const rows = [...rowsByCode.values()].sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0));
+  const rows = [...rowsByCode.values()].sort((a, b) =>
+    a.code < b.code ? -1 : a.code > b.code ? 1 : 0,
+  );
   return { groups, rows };
 }

@@ -18,7 +18,10 @@ import type {
 import { RANGES, type NumberRange } from '../contracts/ranges';
 import { replicateRange } from '../contracts/submission';
 import { algorithmA } from '../stats/algorithm-a';
-import { assignedValue as assignedValueByRule, isUncertaintyNegligible } from '../stats/assigned-value';
+import {
+  assignedValue as assignedValueByRule,
+  isUncertaintyNegligible,
+} from '../stats/assigned-value';
 import { blunderHints } from '../stats/blunder-hints';
 import { evaluateRound, type ResultRow } from '../stats/evaluate-round';
 import { enNumber, signalFor, zetaScore } from '../stats/scores';
@@ -29,7 +32,13 @@ export const ASSIGNED_COVERAGE_FACTOR = 2;
 
 /** Constants stored with every record so it can be reproduced and explained. */
 export const EVALUATION_CONSTANTS = {
-  algorithmA: { winsorizeFactor: 1.5, sdFactor: 1.134, madeFactor: 1.483, relativeTolerance: 1e-12, maxIterations: 1000 },
+  algorithmA: {
+    winsorizeFactor: 1.5,
+    sdFactor: 1.134,
+    madeFactor: 1.483,
+    relativeTolerance: 1e-12,
+    maxIterations: 1000,
+  },
   consensusUncertaintyFactor: 1.25,
   negligibleRatio: 0.3,
   assignedCoverageFactor: ASSIGNED_COVERAGE_FACTOR,
@@ -92,10 +101,16 @@ export function replicateStats(vs: readonly number[]): { mean: number; sd: numbe
 }
 
 /** The σ_pt rule in force for an item × measurand: the most specific override, else the measurand's. */
-export function sigmaRuleFor(m: MeasurandInfo, itemCode: string, settings: Partial<EvaluationSettings> | undefined): SigmaPtRuleInput {
+export function sigmaRuleFor(
+  m: MeasurandInfo,
+  itemCode: string,
+  settings: Partial<EvaluationSettings> | undefined,
+): SigmaPtRuleInput {
   const overrides = settings?.sigmaPtOverrides ?? [];
   const exact = overrides.find((o) => o.measurandKey === m.key && o.itemCode === itemCode);
-  const any = overrides.find((o) => o.measurandKey === m.key && (o.itemCode === null || o.itemCode === undefined));
+  const any = overrides.find(
+    (o) => o.measurandKey === m.key && (o.itemCode === null || o.itemCode === undefined),
+  );
   return (exact ?? any)?.rule ?? m.sigmaPtRule;
 }
 
@@ -109,10 +124,12 @@ function standardU(u: ReplicateUncertainty | null): { u: number; U: number } | n
 /** Why a participant's stored data cannot be scored (shown with the participant, never a 500). */
 export type NotScored = NonNullable<ParticipantScore['notScored']>;
 
-const fmtValue = (v: number): string => (Number.isFinite(v) && Math.abs(v) < 1e6 && Math.abs(v) >= 1e-3 ? String(v) : v.toExponential(3));
+const fmtValue = (v: number): string =>
+  Number.isFinite(v) && Math.abs(v) < 1e6 && Math.abs(v) >= 1e-3 ? String(v) : v.toExponential(3);
 const inRange = (v: number, r: NumberRange): boolean =>
   Number.isFinite(v) && v <= r.max && (r.minExclusive ? v > r.min : v >= r.min);
-const finiteOrNull = (v: number | null | undefined): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+const finiteOrNull = (v: number | null | undefined): number | null =>
+  typeof v === 'number' && Number.isFinite(v) ? v : null;
 
 /**
  * The stored replicates of one participant that cannot enter the evaluation: a value outside the
@@ -129,11 +146,20 @@ function valueProblem(values: readonly number[], m: MeasurandInfo): NotScored | 
 }
 
 /** The lab's uncertainty when it can enter ζ and En; otherwise why not. */
-function labUncertainty(u: ReplicateUncertainty | null): { lab: { u: number; U: number } | null; problem: NotScored | null } {
+function labUncertainty(u: ReplicateUncertainty | null): {
+  lab: { u: number; U: number } | null;
+  problem: NotScored | null;
+} {
   if (!u) return { lab: null, problem: null };
   const lab = standardU(u);
   const r = RANGES.uncertainty;
-  if (!lab || !inRange(u.value, r) || !Number.isFinite(lab.U) || !Number.isFinite(lab.u) || (u.k !== null && !inRange(u.k, RANGES.coverageFactor))) {
+  if (
+    !lab ||
+    !inRange(u.value, r) ||
+    !Number.isFinite(lab.U) ||
+    !Number.isFinite(lab.u) ||
+    (u.k !== null && !inRange(u.k, RANGES.coverageFactor))
+  ) {
     return {
       lab: null,
       problem: {
@@ -180,7 +206,9 @@ function safeCore(...args: Parameters<typeof core>): Core {
       warnings: [
         ...c.warnings,
         ...(c.assignedValue !== null && xpt === null ? ['assigned-value-not-finite'] : []),
-        ...(c.sigmaPt !== null && (sigma === null || !inRange(sigma, RANGES.sigmaPt)) ? ['sigma-pt-out-of-range'] : []),
+        ...(c.sigmaPt !== null && (sigma === null || !inRange(sigma, RANGES.sigmaPt))
+          ? ['sigma-pt-out-of-range']
+          : []),
       ],
     };
   } catch {
@@ -210,14 +238,31 @@ function core(
   const p = codes.length;
   if (av.kind === 'consensus') {
     if (p === 0) {
-      return { method: 'none', iterations: 0, assignedValue: null, robustSd: null, uAssigned: null, sigmaPt: null, uNegligible: null, warnings: ['no-results'] };
+      return {
+        method: 'none',
+        iterations: 0,
+        assignedValue: null,
+        robustSd: null,
+        uAssigned: null,
+        sigmaPt: null,
+        uNegligible: null,
+        warnings: ['no-results'],
+      };
     }
     const rows: ResultRow[] = [];
     for (const code of codes) {
       const vs = valuesByCode.get(code)!;
-      for (let r = 0; r < vs.length; r++) rows.push({ participant: code, item: 'i', measurand: 'm', replicate: r + 1, value: vs[r]! });
+      for (let r = 0; r < vs.length; r++)
+        rows.push({
+          participant: code,
+          item: 'i',
+          measurand: 'm',
+          replicate: r + 1,
+          value: vs[r]!,
+        });
     }
-    const e = evaluateRound(rows, { sigmaPt: sigmaRule as SigmaPtRule, minResults }).evaluations[0]!;
+    const e = evaluateRound(rows, { sigmaPt: sigmaRule as SigmaPtRule, minResults })
+      .evaluations[0]!;
     return {
       method: 'algorithm-a',
       iterations: e.iterations,
@@ -232,7 +277,16 @@ function core(
   const results = codes.map((c) => replicateStats(valuesByCode.get(c)!).mean);
   const warnings: string[] = [];
   if (av.kind !== 'reference' && p === 0) {
-    return { method: 'none', iterations: 0, assignedValue: null, robustSd: null, uAssigned: null, sigmaPt: null, uNegligible: null, warnings: ['no-results'] };
+    return {
+      method: 'none',
+      iterations: 0,
+      assignedValue: null,
+      robustSd: null,
+      uAssigned: null,
+      sigmaPt: null,
+      uNegligible: null,
+      warnings: ['no-results'],
+    };
   }
   if (p < minResults) warnings.push('few-results');
   const a = assignedValueByRule(results, av);
@@ -266,9 +320,15 @@ function core(
  */
 export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[] {
   const settings = input.settings;
-  const excluded = new Map<string, { rule: NonNullable<ParticipantScore['excluded']>['rule']; reason: string }>();
+  const excluded = new Map<
+    string,
+    { rule: NonNullable<ParticipantScore['excluded']>['rule']; reason: string }
+  >();
   for (const x of settings?.exclusions ?? []) {
-    excluded.set(`${x.participantCode}\u0000${x.itemCode}\u0000${x.measurandKey}`, { rule: x.rule, reason: x.reason });
+    excluded.set(`${x.participantCode}\u0000${x.itemCode}\u0000${x.measurandKey}`, {
+      rule: x.rule,
+      reason: x.reason,
+    });
   }
   const byGroup = new Map<string, ReplicateInput[]>();
   for (const r of input.replicates) {
@@ -284,7 +344,10 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
       const seen = new Set<string>();
       let duplicates = 0;
       const rows = (byGroup.get(item.id + '\u0000' + m.id) ?? [])
-        .map((r) => ({ ...r, values: r.values.filter((v) => typeof v === 'number' && Number.isFinite(v)) }))
+        .map((r) => ({
+          ...r,
+          values: r.values.filter((v) => typeof v === 'number' && Number.isFinite(v)),
+        }))
         .filter((r) => r.values.length > 0)
         .sort((a, b) => (a.code < b.code ? -1 : a.code > b.code ? 1 : 0))
         // One result per participant: a repeated item or measurand in old stored data counts once (the first).
@@ -296,7 +359,10 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
         if (p) problems.set(r.code, p);
       }
       const included = rows
-        .filter((r) => !excluded.has(`${r.code}\u0000${item.code}\u0000${m.key}`) && !problems.has(r.code))
+        .filter(
+          (r) =>
+            !excluded.has(`${r.code}\u0000${item.code}\u0000${m.key}`) && !problems.has(r.code),
+        )
         .map((r) => r.code);
       const sigmaRule = sigmaRuleFor(m, item.code, settings);
       const c = safeCore(included, valuesByCode, m.assignedValueRule, sigmaRule, m.minParticipants);
@@ -313,9 +379,28 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
         const ex = excluded.get(`${r.code}\u0000${item.code}\u0000${m.key}`) ?? null;
         const valueIssue = problems.get(r.code) ?? null;
         const { lab, problem: uIssue } = labUncertainty(r.uncertainty);
-        const base = { code: r.code, result: x, replicates: r.values.length, replicateSd: sd, scoreKind, hints: [] as ParticipantScore['hints'], excluded: ex };
+        const base = {
+          code: r.code,
+          result: x,
+          replicates: r.values.length,
+          replicateSd: sd,
+          scoreKind,
+          hints: [] as ParticipantScore['hints'],
+          excluded: ex,
+        };
         if (valueIssue) {
-          return { ...base, u: lab?.u ?? null, z: null, zPrime: null, zeta: null, en: null, d: null, dPct: null, signal: null, notScored: valueIssue };
+          return {
+            ...base,
+            u: lab?.u ?? null,
+            z: null,
+            zPrime: null,
+            zeta: null,
+            en: null,
+            d: null,
+            dPct: null,
+            signal: null,
+            notScored: valueIssue,
+          };
         }
         const z = xpt === null || sigma === null ? null : safeScore(() => (x - xpt) / sigma);
         const zPrime = xpt === null || zpDen === null ? null : safeScore(() => (x - xpt) / zpDen);
@@ -327,14 +412,33 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
         }
         let notScored: NotScored | null = uIssue;
         if (!notScored && lab && xpt !== null && u !== null && (zeta === null || en === null)) {
-          notScored = { code: 'score-not-computable', message: 'ζ and En not computed: the uncertainties give no finite score.' };
+          notScored = {
+            code: 'score-not-computable',
+            message: 'ζ and En not computed: the uncertainties give no finite score.',
+          };
         }
         const governing = scoreKind === 'z' ? z : zPrime;
-        if (!notScored && xpt !== null && sigma === null && c.warnings.includes('sigma-pt-out-of-range')) {
-          notScored = { code: 'sigma-pt-out-of-range', message: `Not scored: σ_pt is outside the plausible range (${RANGES.sigmaPt.min}–${RANGES.sigmaPt.max}); check the σ_pt rule.` };
+        if (
+          !notScored &&
+          xpt !== null &&
+          sigma === null &&
+          c.warnings.includes('sigma-pt-out-of-range')
+        ) {
+          notScored = {
+            code: 'sigma-pt-out-of-range',
+            message: `Not scored: σ_pt is outside the plausible range (${RANGES.sigmaPt.min}–${RANGES.sigmaPt.max}); check the σ_pt rule.`,
+          };
         }
-        if (!notScored && xpt !== null && (scoreKind === 'z' ? sigma : zpDen) !== null && governing === null) {
-          notScored = { code: 'score-not-computable', message: 'Not scored: the result and σ_pt give no finite score.' };
+        if (
+          !notScored &&
+          xpt !== null &&
+          (scoreKind === 'z' ? sigma : zpDen) !== null &&
+          governing === null
+        ) {
+          notScored = {
+            code: 'score-not-computable',
+            message: 'Not scored: the result and σ_pt give no finite score.',
+          };
         }
         const d = xpt === null ? null : finiteOrNull(x - xpt);
         return {
@@ -392,16 +496,19 @@ function addHints(groups: ItemMeasurandEvaluation[]): void {
       let hints: ReturnType<typeof blunderHints> = [];
       try {
         hints = blunderHints({
-        result: p.result,
-        assignedValue: g.assignedValue,
-        sigmaPt: g.sigmaPt ?? undefined,
-        pdi: pdiByCode.get(p.code),
-        assignedPdi: pdiGroup?.assignedValue ?? undefined,
+          result: p.result,
+          assignedValue: g.assignedValue,
+          sigmaPt: g.sigmaPt ?? undefined,
+          pdi: pdiByCode.get(p.code),
+          assignedPdi: pdiGroup?.assignedValue ?? undefined,
         });
       } catch {
         hints = [];
       }
-      (p as { hints: ParticipantScore['hints'] }).hints = hints.map((h) => ({ code: h.code, message: h.message }));
+      (p as { hints: ParticipantScore['hints'] }).hints = hints.map((h) => ({
+        code: h.code,
+        message: h.message,
+      }));
     }
   }
 }

@@ -11,14 +11,42 @@ function input(participants = 40): EvaluationInput {
   const map = new Map<string, ReplicateInput & { values: number[] }>();
   for (const r of rows) {
     const k = `${r.participant}/${r.item}/${r.measurand}`;
-    if (!map.has(k)) map.set(k, { code: r.participant, testItemId: r.item, measurandId: r.measurand, values: [], uncertainty: null });
+    if (!map.has(k))
+      map.set(k, {
+        code: r.participant,
+        testItemId: r.item,
+        measurandId: r.measurand,
+        values: [],
+        uncertainty: null,
+      });
     map.get(k)!.values.push(r.value);
   }
   return {
-    items: [{ id: 'T1', code: 'T1' }, { id: 'T2', code: 'T2' }],
+    items: [
+      { id: 'T1', code: 'T1' },
+      { id: 'T2', code: 'T2' },
+    ],
     measurands: [
-      { id: 'z-average', key: 'z-average', name: 'Z-average', unit: 'nm', decimals: 1, sigmaPtRule: { kind: 'robust-sd' }, assignedValueRule: { kind: 'consensus' }, minParticipants: 12 },
-      { id: 'pdi', key: 'pdi', name: 'PDI', unit: '', decimals: 3, sigmaPtRule: { kind: 'robust-sd' }, assignedValueRule: { kind: 'consensus' }, minParticipants: 12 },
+      {
+        id: 'z-average',
+        key: 'z-average',
+        name: 'Z-average',
+        unit: 'nm',
+        decimals: 1,
+        sigmaPtRule: { kind: 'robust-sd' },
+        assignedValueRule: { kind: 'consensus' },
+        minParticipants: 12,
+      },
+      {
+        id: 'pdi',
+        key: 'pdi',
+        name: 'PDI',
+        unit: '',
+        decimals: 3,
+        sigmaPtRule: { kind: 'robust-sd' },
+        assignedValueRule: { kind: 'consensus' },
+        minParticipants: 12,
+      },
     ],
     replicates: [...map.values()],
   };
@@ -27,13 +55,27 @@ function input(participants = 40): EvaluationInput {
 describe('evaluateRecord', () => {
   it('gives exactly the numbers of shared/stats evaluateRound (the offline command) for consensus rules', () => {
     const inp = input();
-    const rows = syntheticRound({ participants: 40, items: 2, measurands: 2, replicates: 3, seed: 11 });
+    const rows = syntheticRound({
+      participants: 40,
+      items: 2,
+      measurands: 2,
+      replicates: 3,
+      seed: 11,
+    });
     const ref = evaluateRound(rows).evaluations;
     const mine = evaluateRecord(inp);
     for (const r of ref) {
       const m = mine.find((x) => x.itemCode === r.item && x.measurandKey === r.measurand)!;
-      expect([m.assignedValue, m.robustSd, m.uAssigned, m.sigmaPt, m.iterations]).toEqual([r.assignedValue, r.robustSd, r.uAssigned, r.sigmaPt, r.iterations]);
-      expect(m.participants.map((p) => [p.code, p.result, p.z, p.zPrime, p.signal])).toEqual(r.participants.map((p) => [p.code, p.result, p.z, p.zPrime, p.signal]));
+      expect([m.assignedValue, m.robustSd, m.uAssigned, m.sigmaPt, m.iterations]).toEqual([
+        r.assignedValue,
+        r.robustSd,
+        r.uAssigned,
+        r.sigmaPt,
+        r.iterations,
+      ]);
+      expect(m.participants.map((p) => [p.code, p.result, p.z, p.zPrime, p.signal])).toEqual(
+        r.participants.map((p) => [p.code, p.result, p.z, p.zPrime, p.signal]),
+      );
     }
   });
 
@@ -43,10 +85,28 @@ describe('evaluateRecord', () => {
       ...inp,
       settings: {
         sigmaPtOverrides: [
-          { measurandKey: 'z-average', itemCode: null, rule: { kind: 'fixed', value: 4 }, reason: 'scheme rule' },
-          { measurandKey: 'z-average', itemCode: 'T2', rule: { kind: 'percent', percent: 2 }, reason: 'bigger item' },
+          {
+            measurandKey: 'z-average',
+            itemCode: null,
+            rule: { kind: 'fixed', value: 4 },
+            reason: 'scheme rule',
+          },
+          {
+            measurandKey: 'z-average',
+            itemCode: 'T2',
+            rule: { kind: 'percent', percent: 2 },
+            reason: 'bigger item',
+          },
         ],
-        exclusions: [{ participantCode: 'P01', itemCode: 'T1', measurandKey: 'z-average', rule: 'other', reason: 'test' }],
+        exclusions: [
+          {
+            participantCode: 'P01',
+            itemCode: 'T1',
+            measurandKey: 'z-average',
+            rule: 'other',
+            reason: 'test',
+          },
+        ],
       },
     });
     const t1 = out.find((r) => r.itemCode === 'T1' && r.measurandKey === 'z-average')!;
@@ -61,11 +121,33 @@ describe('evaluateRecord', () => {
 
   it('uses the median rule with u(x_pt) = 1.25·MADe/√p, and a reference value as given', () => {
     const inp = input(20);
-    const med = evaluateRecord({ ...inp, measurands: [{ ...inp.measurands[0]!, assignedValueRule: { kind: 'median' } }] })[0]!;
+    const med = evaluateRecord({
+      ...inp,
+      measurands: [{ ...inp.measurands[0]!, assignedValueRule: { kind: 'median' } }],
+    })[0]!;
     expect(med.method).toBe('median');
     expect(med.uAssigned).toBeCloseTo((1.25 * med.robustSd!) / Math.sqrt(20), 12);
-    const ref = evaluateRecord({ ...inp, measurands: [{ ...inp.measurands[0]!, assignedValueRule: { kind: 'reference', value: 100, u: 0.5, source: 'certificate (invented)' }, sigmaPtRule: { kind: 'fixed', value: 3 } }] })[0]!;
-    expect([ref.assignedValue, ref.uAssigned, ref.sigmaPt, ref.method]).toEqual([100, 0.5, 3, 'reference']);
+    const ref = evaluateRecord({
+      ...inp,
+      measurands: [
+        {
+          ...inp.measurands[0]!,
+          assignedValueRule: {
+            kind: 'reference',
+            value: 100,
+            u: 0.5,
+            source: 'certificate (invented)',
+          },
+          sigmaPtRule: { kind: 'fixed', value: 3 },
+        },
+      ],
+    })[0]!;
+    expect([ref.assignedValue, ref.uAssigned, ref.sigmaPt, ref.method]).toEqual([
+      100,
+      0.5,
+      3,
+      'reference',
+    ]);
   });
 
   it('builds a board row per code and explains a score in plain words', () => {
@@ -74,7 +156,10 @@ describe('evaluateRecord', () => {
     expect(board.rows).toHaveLength(15);
     expect(board.rows[0]!.cells).toHaveLength(4);
     const g = out[0]!;
-    const text = explainScore({ ...g.participants[0]!, z: 2.5, signal: 'warning', scoreKind: 'z' }, { ...g, assignedValue: g.assignedValue, sigmaPt: g.sigmaPt, uAssigned: g.uAssigned });
+    const text = explainScore(
+      { ...g.participants[0]!, z: 2.5, signal: 'warning', scoreKind: 'z' },
+      { ...g, assignedValue: g.assignedValue, sigmaPt: g.sigmaPt, uAssigned: g.uAssigned },
+    );
     expect(text.join(' ')).toMatch(/z-score is 2\.50.*Warning signal/);
   });
 });
@@ -86,9 +171,15 @@ describe('run rules for the Track record', () => {
   });
   it('finds two warnings in a row, nine on one side and action signals', () => {
     const pts = (zs: number[]) => zs.map((z, i) => ({ z, label: `R${i + 1}` }));
-    expect(runRules(pts([0.5, 2.3, -2.4, 0.1])).map((f) => [f.rule, f.roundCode])).toEqual([['two-warnings-in-a-row', 'R3']]);
-    expect(runRules(pts([0.1, 0.2, 0.3, 0.1, 0.5, 0.2, 0.4, 0.1, 0.3])).map((f) => f.rule)).toEqual(['nine-on-one-side']);
-    expect(runRules(pts([0.1, 0.2, 0.3, 0.1, 0.5, 0.2, 0.4, 0.1, -0.3])).map((f) => f.rule)).toEqual([]);
+    expect(runRules(pts([0.5, 2.3, -2.4, 0.1])).map((f) => [f.rule, f.roundCode])).toEqual([
+      ['two-warnings-in-a-row', 'R3'],
+    ]);
+    expect(runRules(pts([0.1, 0.2, 0.3, 0.1, 0.5, 0.2, 0.4, 0.1, 0.3])).map((f) => f.rule)).toEqual(
+      ['nine-on-one-side'],
+    );
+    expect(
+      runRules(pts([0.1, 0.2, 0.3, 0.1, 0.5, 0.2, 0.4, 0.1, -0.3])).map((f) => f.rule),
+    ).toEqual([]);
     expect(runRules(pts([3.1])).map((f) => f.rule)).toEqual(['action-signal']);
   });
 });
@@ -96,10 +187,19 @@ describe('run rules for the Track record', () => {
 describe('evaluateRecord on stored data outside the bounds (never throws, reasons per participant)', () => {
   it('counts a participant named twice for one item × measurand once, and says so', () => {
     const inp = input(20);
-    const first = inp.replicates.find((r) => r.testItemId === 'T1' && r.measurandId === 'z-average')!;
-    const twice = { ...inp, replicates: [...inp.replicates, { ...first, values: first.values.map((v) => v * 5) }] };
-    const g = evaluateRecord(twice).find((x) => x.itemCode === 'T1' && x.measurandKey === 'z-average')!;
-    const ref = evaluateRecord(inp).find((x) => x.itemCode === 'T1' && x.measurandKey === 'z-average')!;
+    const first = inp.replicates.find(
+      (r) => r.testItemId === 'T1' && r.measurandId === 'z-average',
+    )!;
+    const twice = {
+      ...inp,
+      replicates: [...inp.replicates, { ...first, values: first.values.map((v) => v * 5) }],
+    };
+    const g = evaluateRecord(twice).find(
+      (x) => x.itemCode === 'T1' && x.measurandKey === 'z-average',
+    )!;
+    const ref = evaluateRecord(inp).find(
+      (x) => x.itemCode === 'T1' && x.measurandKey === 'z-average',
+    )!;
     expect(g.n).toBe(20);
     expect(g.participants).toHaveLength(20);
     expect(g.assignedValue).toBe(ref.assignedValue);
@@ -108,10 +208,15 @@ describe('evaluateRecord on stored data outside the bounds (never throws, reason
 
   it('reports ζ and En as not computed for an uncertainty of 1e308 and keeps z', () => {
     const inp = input(20);
-    const replicates = inp.replicates.map((r) => ({ ...r, uncertainty: { kind: 'expanded' as const, value: 4, k: 2 } }));
+    const replicates = inp.replicates.map((r) => ({
+      ...r,
+      uncertainty: { kind: 'expanded' as const, value: 4, k: 2 },
+    }));
     const target = replicates.find((r) => r.testItemId === 'T1' && r.measurandId === 'z-average')!;
     (target as { uncertainty: unknown }).uncertainty = { kind: 'standard', value: 1e308, k: null };
-    const g = evaluateRecord({ ...inp, replicates }).find((x) => x.itemCode === 'T1' && x.measurandKey === 'z-average')!;
+    const g = evaluateRecord({ ...inp, replicates }).find(
+      (x) => x.itemCode === 'T1' && x.measurandKey === 'z-average',
+    )!;
     const p = g.participants.find((x) => x.code === target.code)!;
     expect([p.zeta, p.en, p.notScored?.code]).toEqual([null, null, 'uncertainty-out-of-range']);
     expect(p.z).not.toBeNull();
@@ -120,10 +225,16 @@ describe('evaluateRecord on stored data outside the bounds (never throws, reason
 
   it('keeps a diameter of 1e308 nm and one of 1e-300 nm out of x_pt, each with a reason', () => {
     const inp = input(20);
-    const group = inp.replicates.filter((r) => r.testItemId === 'T2' && r.measurandId === 'z-average');
+    const group = inp.replicates.filter(
+      (r) => r.testItemId === 'T2' && r.measurandId === 'z-average',
+    );
     const [a, b] = group;
-    const replicates = inp.replicates.map((r) => (r === a ? { ...r, values: [1e308, 1e308, -1e308] } : r === b ? { ...r, values: [1e-300] } : r));
-    const g = evaluateRecord({ ...inp, replicates }).find((x) => x.itemCode === 'T2' && x.measurandKey === 'z-average')!;
+    const replicates = inp.replicates.map((r) =>
+      r === a ? { ...r, values: [1e308, 1e308, -1e308] } : r === b ? { ...r, values: [1e-300] } : r,
+    );
+    const g = evaluateRecord({ ...inp, replicates }).find(
+      (x) => x.itemCode === 'T2' && x.measurandKey === 'z-average',
+    )!;
     expect(g.n).toBe(18);
     expect(Number.isFinite(g.assignedValue!)).toBe(true);
     for (const code of [a!.code, b!.code]) {
@@ -136,10 +247,16 @@ describe('evaluateRecord on stored data outside the bounds (never throws, reason
 
   it('reports a stored σ_pt of 1e-320 per participant instead of throwing', () => {
     const inp = input(20);
-    const measurands = inp.measurands.map((m) => (m.key === 'pdi' ? { ...m, sigmaPtRule: { kind: 'fixed' as const, value: 1e-320 } } : m));
-    const g = evaluateRecord({ ...inp, measurands }).find((x) => x.itemCode === 'T1' && x.measurandKey === 'pdi')!;
+    const measurands = inp.measurands.map((m) =>
+      m.key === 'pdi' ? { ...m, sigmaPtRule: { kind: 'fixed' as const, value: 1e-320 } } : m,
+    );
+    const g = evaluateRecord({ ...inp, measurands }).find(
+      (x) => x.itemCode === 'T1' && x.measurandKey === 'pdi',
+    )!;
     expect(g.sigmaPt).toBeNull();
     expect(g.warnings).toContain('sigma-pt-out-of-range');
-    expect(g.participants.every((p) => p.z === null && p.notScored?.code === 'sigma-pt-out-of-range')).toBe(true);
+    expect(
+      g.participants.every((p) => p.z === null && p.notScored?.code === 'sigma-pt-out-of-range'),
+    ).toBe(true);
   });
 });

@@ -21,7 +21,9 @@ export function explainScore(s: ParticipantScore, c: ExplainContext): string[] {
   const unit = c.unit ? ` ${c.unit}` : '';
   if (s.notScored?.code === 'value-out-of-range') return [s.notScored.message];
   if (c.assignedValue === null || c.sigmaPt === null) {
-    out.push('No score could be given for this measurand: the assigned value or σ_pt could not be set (see the round report).');
+    out.push(
+      'No score could be given for this measurand: the assigned value or σ_pt could not be set (see the round report).',
+    );
     return out;
   }
   const d = s.result - c.assignedValue;
@@ -36,10 +38,13 @@ export function explainScore(s: ParticipantScore, c: ExplainContext): string[] {
     out.push(
       `Your ${name} is ${main.toFixed(2)}: the difference is ${Math.abs(main).toFixed(1)} times the standard deviation for proficiency assessment ` +
         `(σ_pt = ${fmt(c.sigmaPt, c.decimals + 1)}${unit})` +
-        (s.scoreKind === 'zPrime' ? ', widened by the uncertainty of the assigned value because it is not negligible.' : '.'),
+        (s.scoreKind === 'zPrime'
+          ? ', widened by the uncertainty of the assigned value because it is not negligible.'
+          : '.'),
     );
   }
-  if (s.signal === 'acceptable') out.push('Acceptable: within ±2, as most competent labs are. No action is needed.');
+  if (s.signal === 'acceptable')
+    out.push('Acceptable: within ±2, as most competent labs are. No action is needed.');
   if (s.signal === 'warning') {
     out.push(
       'Warning signal: between 2 and 3 in size. One in about twenty results lands here by chance, so look for a cause, and watch the next rounds: two warnings in a row call for action.',
@@ -61,13 +66,17 @@ export function explainScore(s: ParticipantScore, c: ExplainContext): string[] {
   if (s.en !== null) {
     out.push(
       `Your En number is ${s.en.toFixed(2)} (expanded uncertainties): ` +
-        (Math.abs(s.en) <= 1 ? 'within ±1, consistent with the assigned value.' : 'beyond ±1, the difference is not covered by the uncertainties.'),
+        (Math.abs(s.en) <= 1
+          ? 'within ±1, consistent with the assigned value.'
+          : 'beyond ±1, the difference is not covered by the uncertainties.'),
     );
   }
   if (s.notScored) out.push(s.notScored.message);
   for (const h of s.hints) out.push(`Hint: ${h.message}`);
   if (s.excluded) {
-    out.push(`This result was kept out of the assigned value (${s.excluded.reason}); it is still scored against it.`);
+    out.push(
+      `This result was kept out of the assigned value (${s.excluded.reason}); it is still scored against it.`,
+    );
   }
   return out;
 }

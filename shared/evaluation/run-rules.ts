@@ -36,9 +36,18 @@ export function runRules(points: readonly RunPoint[]): RunFinding[] {
   let run = 0;
   for (let i = 0; i < points.length; i++) {
     const p = points[i]!;
-    if (Math.abs(p.z) >= 3) out.push({ rule: 'action-signal', message: `Action signal (z = ${p.z.toFixed(2)}).`, roundCode: p.label });
+    if (Math.abs(p.z) >= 3)
+      out.push({
+        rule: 'action-signal',
+        message: `Action signal (z = ${p.z.toFixed(2)}).`,
+        roundCode: p.label,
+      });
     if (i > 0 && Math.abs(p.z) > 2 && Math.abs(points[i - 1]!.z) > 2) {
-      out.push({ rule: 'two-warnings-in-a-row', message: 'Two results in a row beyond ±2: act as on an action signal.', roundCode: p.label });
+      out.push({
+        rule: 'two-warnings-in-a-row',
+        message: 'Two results in a row beyond ±2: act as on an action signal.',
+        roundCode: p.label,
+      });
     }
     const s = Math.sign(p.z);
     if (s !== 0 && s === side) run++;

@@ -102,10 +102,24 @@ export function algorithmAUnchecked(
 
   const base = { n, constants: c };
   if (n < 3) {
-    return { ...base, robustMean: m0, robustSd: s, iterations: 0, converged: false, outcome: 'too-few-values' };
+    return {
+      ...base,
+      robustMean: m0,
+      robustSd: s,
+      iterations: 0,
+      converged: false,
+      outcome: 'too-few-values',
+    };
   }
   if (!(s > 0)) {
-    return { ...base, robustMean: m0, robustSd: 0, iterations: 0, converged: false, outcome: 'zero-spread' };
+    return {
+      ...base,
+      robustMean: m0,
+      robustSd: 0,
+      iterations: 0,
+      converged: false,
+      outcome: 'zero-spread',
+    };
   }
 
   // Iterate in centred and scaled coordinates, x = m0 + s0·d: no digits lost to an offset, and
@@ -141,10 +155,24 @@ export function algorithmAUnchecked(
     s = newS;
     if (!(s > 0)) {
       // Cannot happen with δ > 0 and at least 3 values, but never hand back NaN.
-      return { ...base, robustMean: m0 + s0 * mc, robustSd: 0, iterations: it, converged: false, outcome: 'zero-spread' };
+      return {
+        ...base,
+        robustMean: m0 + s0 * mc,
+        robustSd: 0,
+        iterations: it,
+        converged: false,
+        outcome: 'zero-spread',
+      };
     }
     if (done) {
-      return { ...base, robustMean: m0 + s0 * mc, robustSd: s0 * s, iterations: it, converged: true, outcome: 'converged' };
+      return {
+        ...base,
+        robustMean: m0 + s0 * mc,
+        robustSd: s0 * s,
+        iterations: it,
+        converged: true,
+        outcome: 'converged',
+      };
     }
   }
   return {

@@ -19,8 +19,16 @@ describe('assignedValue', () => {
 
   it('reference value is passed through with its source', () => {
     const a = assignedValue([], { kind: 'reference', value: 60.2, u: 0.4, source: 'certificate' });
-    expect(a).toMatchObject({ value: 60.2, u: 0.4, method: 'reference', source: 'certificate', p: 0 });
-    expect(() => assignedValue([], { kind: 'reference', value: 1, u: -1, source: '' })).toThrow(RangeError);
+    expect(a).toMatchObject({
+      value: 60.2,
+      u: 0.4,
+      method: 'reference',
+      source: 'certificate',
+      p: 0,
+    });
+    expect(() => assignedValue([], { kind: 'reference', value: 1, u: -1, source: '' })).toThrow(
+      RangeError,
+    );
   });
 
   it('consensus on no results throws', () => {

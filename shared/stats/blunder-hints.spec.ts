@@ -13,12 +13,21 @@ describe('blunderHints (signatures from docs/DLS.md; tolerances common practice)
     expect(codes(half)).toEqual(['radius-diameter']);
     expect(half[0].factor).toBe(0.5);
     expect(half[0].message).toMatch(/radius/);
-    expect(blunderHints({ result: 196, assignedValue: 100, sigmaPt: 3 })[0]).toMatchObject({ code: 'radius-diameter', factor: 2 });
+    expect(blunderHints({ result: 196, assignedValue: 100, sigmaPt: 3 })[0]).toMatchObject({
+      code: 'radius-diameter',
+      factor: 2,
+    });
   });
 
   it('unit slip ×1000 and ×0.001', () => {
-    expect(blunderHints({ result: 101000, assignedValue: 100 })[0]).toMatchObject({ code: 'unit-slip', factor: 1000 });
-    expect(blunderHints({ result: 0.1002, assignedValue: 100 })[0]).toMatchObject({ code: 'unit-slip', factor: 0.001 });
+    expect(blunderHints({ result: 101000, assignedValue: 100 })[0]).toMatchObject({
+      code: 'unit-slip',
+      factor: 1000,
+    });
+    expect(blunderHints({ result: 0.1002, assignedValue: 100 })[0]).toMatchObject({
+      code: 'unit-slip',
+      factor: 0.001,
+    });
   });
 
   it('20 °C sample analysed with 25 °C viscosity: ×1.1254 (IAPWS 2008 via docs/DLS.md)', () => {
@@ -26,7 +35,9 @@ describe('blunderHints (signatures from docs/DLS.md; tolerances common practice)
     const h = blunderHints({ result: 112.5, assignedValue: 100, sigmaPt: 3 });
     expect(h[0]).toMatchObject({ code: 'viscosity-temperature' });
     expect(h[0].factor).toBeCloseTo(1.1254, 4);
-    expect(blunderHints({ result: 88.9, assignedValue: 100, sigmaPt: 3 })[0].code).toBe('viscosity-temperature');
+    expect(blunderHints({ result: 88.9, assignedValue: 100, sigmaPt: 3 })[0].code).toBe(
+      'viscosity-temperature',
+    );
   });
 
   it('a few % off reads as a temperature offset at 2.6 %/K compounded: ×1.08 ≈ 3.0 K (docs/DLS.md sensitivity)', () => {
@@ -36,14 +47,22 @@ describe('blunderHints (signatures from docs/DLS.md; tolerances common practice)
   });
 
   it('dust or aggregates: high PDI with high size', () => {
-    const h = blunderHints({ result: 140, assignedValue: 100, sigmaPt: 3, pdi: 0.42, assignedPdi: 0.05 });
+    const h = blunderHints({
+      result: 140,
+      assignedValue: 100,
+      sigmaPt: 3,
+      pdi: 0.42,
+      assignedPdi: 0.05,
+    });
     expect(codes(h)).toContain('dust-aggregates');
     // high PDI alone with a normal size: nothing
     expect(blunderHints({ result: 101, assignedValue: 100, sigmaPt: 3, pdi: 0.42 })).toEqual([]);
     // high size with an ordinary PDI: no dust hint
-    expect(codes(blunderHints({ result: 140, assignedValue: 100, sigmaPt: 3, pdi: 0.08, assignedPdi: 0.05 }))).not.toContain(
-      'dust-aggregates',
-    );
+    expect(
+      codes(
+        blunderHints({ result: 140, assignedValue: 100, sigmaPt: 3, pdi: 0.08, assignedPdi: 0.05 }),
+      ),
+    ).not.toContain('dust-aggregates');
   });
 
   it('never changes the input and ignores unusable numbers', () => {

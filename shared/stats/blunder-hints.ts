@@ -16,7 +16,8 @@
  *   size above the consensus by more than 5 %.
  */
 
-export type BlunderCode = 'radius-diameter' | 'unit-slip' | 'viscosity-temperature' | 'dust-aggregates';
+export type BlunderCode =
+  'radius-diameter' | 'unit-slip' | 'viscosity-temperature' | 'dust-aggregates';
 
 export interface BlunderHint {
   readonly code: BlunderCode;
@@ -63,7 +64,9 @@ export function blunderHints(input: BlunderInput): BlunderHint[] {
   if (!Number.isFinite(x) || !Number.isFinite(xpt) || !(x > 0) || !(xpt > 0)) return [];
   const r = x / xpt;
   const isUnusual =
-    sigmaPt !== undefined && sigmaPt > 0 ? Math.abs(x - xpt) > 2 * sigmaPt : Math.abs(r - 1) > MIN_RELATIVE_DEVIATION;
+    sigmaPt !== undefined && sigmaPt > 0
+      ? Math.abs(x - xpt) > 2 * sigmaPt
+      : Math.abs(r - 1) > MIN_RELATIVE_DEVIATION;
   if (!isUnusual) return [];
   const hints: BlunderHint[] = [];
   const pct = (v: number) => `${(100 * v).toFixed(0)} %`;
@@ -72,8 +75,7 @@ export function blunderHints(input: BlunderInput): BlunderHint[] {
     hints.push({
       code: 'radius-diameter',
       factor: 0.5,
-      message:
-        `The result is about half ${ref}: was a radius reported instead of a diameter, or the decay rate of g2 − 1 (which is 2Γ) used as Γ?`,
+      message: `The result is about half ${ref}: was a radius reported instead of a diameter, or the decay rate of g2 − 1 (which is 2Γ) used as Γ?`,
     });
   } else if (near(r, 2, FACTOR_TOLERANCE)) {
     hints.push({
@@ -95,7 +97,10 @@ export function blunderHints(input: BlunderInput): BlunderHint[] {
       message: `The result is about 1/1000 of ${ref}: was it entered in µm instead of nm?`,
     });
   }
-  if (near(r, VISCOSITY_20_25_RATIO, VISCOSITY_TOLERANCE) || near(r, 1 / VISCOSITY_20_25_RATIO, VISCOSITY_TOLERANCE)) {
+  if (
+    near(r, VISCOSITY_20_25_RATIO, VISCOSITY_TOLERANCE) ||
+    near(r, 1 / VISCOSITY_20_25_RATIO, VISCOSITY_TOLERANCE)
+  ) {
     const high = r > 1;
     hints.push({
       code: 'viscosity-temperature',
@@ -111,11 +116,16 @@ export function blunderHints(input: BlunderInput): BlunderHint[] {
       factor: r,
       message: `The result differs from ${ref} by ${pct(r - 1)}, as an unnoticed temperature offset of about ${Math.abs(
         kelvin,
-      ).toFixed(1)} K (or the matching viscosity error) would: check equilibration time, cell temperature and the dispersant viscosity entered.`,
+      ).toFixed(
+        1,
+      )} K (or the matching viscosity error) would: check equilibration time, cell temperature and the dispersant viscosity entered.`,
     });
   }
   if (pdi !== undefined && Number.isFinite(pdi) && r > 1 + MIN_RELATIVE_DEVIATION) {
-    const pdiLimit = Math.max(DUST_PDI_MIN, assignedPdi !== undefined && assignedPdi > 0 ? 2 * assignedPdi : 0);
+    const pdiLimit = Math.max(
+      DUST_PDI_MIN,
+      assignedPdi !== undefined && assignedPdi > 0 ? 2 * assignedPdi : 0,
+    );
     if (pdi > pdiLimit) {
       hints.push({
         code: 'dust-aggregates',

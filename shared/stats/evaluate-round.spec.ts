@@ -8,7 +8,13 @@ function rowsFromMeans(means: readonly number[], replicates = 1): ResultRow[] {
     for (let r = 0; r < replicates; r++) {
       // replicates symmetric about the mean so the participant's result is exactly m
       const off = replicates === 1 ? 0 : (r - (replicates - 1) / 2) * 0.01;
-      rows.push({ participant: `L${String(i + 1).padStart(2, '0')}`, item: 'A', measurand: 'x', replicate: r + 1, value: m + off });
+      rows.push({
+        participant: `L${String(i + 1).padStart(2, '0')}`,
+        item: 'A',
+        measurand: 'x',
+        replicate: r + 1,
+        value: m + off,
+      });
     }
   });
   return rows;
@@ -32,7 +38,10 @@ describe('evaluateRound', () => {
     expect(lab1.result).toBeCloseTo(24.14, 12);
     expect(lab1.replicateSd).toBeCloseTo(0.01, 12);
     expect(lab1.z).toBeCloseTo((24.14 - 20.4121428571) / 1.069839703, 7);
-    expect(lab1.zPrime).toBeCloseTo((24.14 - 20.4121428571) / Math.hypot(1.069839703, 1.25 * 1.069839703 / 3), 7);
+    expect(lab1.zPrime).toBeCloseTo(
+      (24.14 - 20.4121428571) / Math.hypot(1.069839703, (1.25 * 1.069839703) / 3),
+      7,
+    );
     // z = 3.48, z′ = 3.22 → action
     expect(lab1.signal).toBe('action');
   });
@@ -40,13 +49,15 @@ describe('evaluateRound', () => {
   it('fixed and percent σ_pt; z governs the signal when u(x_pt) is negligible', () => {
     const means = Array.from({ length: 25 }, (_, i) => 100 + (i - 12) * 0.1);
     means[3] = 102.5; // |z| = 2.5 with σ_pt = 1 → warning
-    const fixed = evaluateRound(rowsFromMeans(means), { sigmaPt: { kind: 'fixed', value: 1 } }).evaluations[0];
+    const fixed = evaluateRound(rowsFromMeans(means), { sigmaPt: { kind: 'fixed', value: 1 } })
+      .evaluations[0];
     expect(fixed.sigmaPt).toBe(1);
     expect(fixed.uNegligible).toBe(true);
     const p4 = fixed.participants.find((p) => p.code === 'L04')!;
     expect(p4.z).toBeCloseTo(102.5 - fixed.assignedValue, 12);
     expect(p4.signal).toBe('warning');
-    const pct = evaluateRound(rowsFromMeans(means), { sigmaPt: { kind: 'percent', percent: 3 } }).evaluations[0];
+    const pct = evaluateRound(rowsFromMeans(means), { sigmaPt: { kind: 'percent', percent: 3 } })
+      .evaluations[0];
     expect(pct.sigmaPt).toBeCloseTo(0.03 * pct.assignedValue, 12);
   });
 
@@ -59,7 +70,13 @@ describe('evaluateRound', () => {
   });
 
   it('groups per item × measurand and averages replicates', () => {
-    const rows = syntheticRound({ participants: 50, items: 2, measurands: 2, replicates: 3, seed: 7 });
+    const rows = syntheticRound({
+      participants: 50,
+      items: 2,
+      measurands: 2,
+      replicates: 3,
+      seed: 7,
+    });
     const { evaluations } = evaluateRound(rows);
     expect(evaluations.map((e) => `${e.item}/${e.measurand}`)).toEqual([
       'T1/z-average',
@@ -71,12 +88,16 @@ describe('evaluateRound', () => {
       expect(e.n).toBe(50);
       expect(e.participants.every((p) => p.replicates === 3)).toBe(true);
     }
-    const manual = rows.filter((r) => r.participant === 'P01' && r.item === 'T1' && r.measurand === 'pdi');
+    const manual = rows.filter(
+      (r) => r.participant === 'P01' && r.item === 'T1' && r.measurand === 'pdi',
+    );
     const got = evaluations[1].participants.find((p) => p.code === 'P01')!.result;
     expect(got).toBeCloseTo(manual.reduce((s, r) => s + r.value, 0) / 3, 14);
   });
 
   it('names the row of a non-finite value', () => {
-    expect(() => evaluateRound([{ participant: 'a', item: 'b', measurand: 'c', replicate: 1, value: NaN }])).toThrow(/row 0/);
+    expect(() =>
+      evaluateRound([{ participant: 'a', item: 'b', measurand: 'c', replicate: 1, value: NaN }]),
+    ).toThrow(/row 0/);
   });
 });

@@ -163,7 +163,10 @@ export function toColumns(rows: readonly ResultRow[]): ResultColumns {
  * sorted by code. Results are never changed.
  * @throws RangeError naming the row (0-based index) when a value is not a finite number.
  */
-export function evaluateRound(rows: readonly ResultRow[], options: EvaluateOptions = {}): RoundEvaluation {
+export function evaluateRound(
+  rows: readonly ResultRow[],
+  options: EvaluateOptions = {},
+): RoundEvaluation {
   return evaluateColumns(toColumns(rows), options);
 }
 
@@ -173,7 +176,10 @@ export function evaluateRound(rows: readonly ResultRow[], options: EvaluateOptio
  * of a comparison sort, and Algorithm A finds its medians by selection.
  * @throws RangeError when a column's length or an index is out of step with the others.
  */
-export function evaluateColumns(cols: ResultColumns, options: EvaluateOptions = {}): RoundEvaluation {
+export function evaluateColumns(
+  cols: ResultColumns,
+  options: EvaluateOptions = {},
+): RoundEvaluation {
   const minResults = options.minResults ?? 12;
   const { codes, groups } = cols;
   const nRows = cols.value.length;
@@ -185,8 +191,10 @@ export function evaluateColumns(cols: ResultColumns, options: EvaluateOptions = 
   for (let r = 0; r < nRows; r++) {
     const p = cols.participant[r];
     const g = cols.group[r];
-    if (!(p >= 0 && p < nCodes && g >= 0 && g < nGroups)) throw new RangeError(`row ${r}: participant or group index out of range`);
-    if (!Number.isFinite(cols.value[r])) throw new RangeError(`row ${r}: value is not a finite number (${String(cols.value[r])})`);
+    if (!(p >= 0 && p < nCodes && g >= 0 && g < nGroups))
+      throw new RangeError(`row ${r}: participant or group index out of range`);
+    if (!Number.isFinite(cols.value[r]))
+      throw new RangeError(`row ${r}: value is not a finite number (${String(cols.value[r])})`);
   }
 
   // Rank the codes once (TimSort is linear when codes arrive in order, as they usually do).
@@ -212,7 +220,17 @@ export function evaluateColumns(cols: ResultColumns, options: EvaluateOptions = 
   const evaluations: ItemEvaluation[] = [];
   for (let g = 0; g < nGroups; g++) {
     evaluations.push(
-      evaluateGroup(groups[g].item, groups[g].measurand, value, code, groupStart[g], groupStart[g + 1], codes, options, minResults),
+      evaluateGroup(
+        groups[g].item,
+        groups[g].measurand,
+        value,
+        code,
+        groupStart[g],
+        groupStart[g + 1],
+        codes,
+        options,
+        minResults,
+      ),
     );
   }
   return { evaluations };
@@ -295,7 +313,8 @@ function evaluateGroup(
   const uAssigned = consensusUncertainty(a.robustSd, p);
 
   const opt = options.sigmaPt;
-  const rule: SigmaPtRule = opt === undefined ? ROBUST_SD : typeof opt === 'function' ? opt(g.item, g.measurand) : opt;
+  const rule: SigmaPtRule =
+    opt === undefined ? ROBUST_SD : typeof opt === 'function' ? opt(g.item, g.measurand) : opt;
   let sigma: number | null = null;
   try {
     sigma = sigmaPtByRule(rule, { assignedValue: a.robustMean, robustSd: a.robustSd });

@@ -46,7 +46,14 @@ describe('homogeneityCheck (ISO 13528 Annex B formulas, hand-computed invented d
     expect(r.passesExtended).toBe(true);
   });
   it('s_s is 0 when the item means scatter less than the replicates', () => {
-    const r = homogeneityCheck([[1, 2], [2, 1], [1.5, 1.5]], 1);
+    const r = homogeneityCheck(
+      [
+        [1, 2],
+        [2, 1],
+        [1.5, 1.5],
+      ],
+      1,
+    );
     expect(r.ss).toBe(0);
   });
   it('rejects unequal replicates and σ_pt ≤ 0', () => {

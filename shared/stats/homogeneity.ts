@@ -44,8 +44,10 @@ export interface HomogeneityResult {
  * denominator degrees of freedom are g, as in the standard's table (g = 10: F1 = 1.88, F2 = 1.01).
  */
 export function homogeneityFactors(g: number, m = 2): { f1: number; f2: number } {
-  if (!Number.isInteger(g) || g < 2) throw new RangeError(`homogeneity: g must be an integer ≥ 2, got ${g}`);
-  if (!Number.isInteger(m) || m < 2) throw new RangeError(`homogeneity: m must be an integer ≥ 2, got ${m}`);
+  if (!Number.isInteger(g) || g < 2)
+    throw new RangeError(`homogeneity: g must be an integer ≥ 2, got ${g}`);
+  if (!Number.isInteger(m) || m < 2)
+    throw new RangeError(`homogeneity: m must be an integer ≥ 2, got ${m}`);
   const f1 = jStat.chisquare.inv(0.95, g - 1) / (g - 1);
   const f2 = (jStat.centralF.inv(0.95, g - 1, g * (m - 1)) - 1) / 2;
   return { f1, f2 };
@@ -59,17 +61,23 @@ export function homogeneityFactors(g: number, m = 2): { f1: number; f2: number }
  * @param sigmaPt σ_pt, > 0, same unit
  * @throws RangeError on fewer than 2 items, unequal or < 2 replicates, non-finite values, σ_pt ≤ 0
  */
-export function homogeneityCheck(items: readonly (readonly number[])[], sigmaPt: number): HomogeneityResult {
+export function homogeneityCheck(
+  items: readonly (readonly number[])[],
+  sigmaPt: number,
+): HomogeneityResult {
   const g = items.length;
   if (g < 2) throw new RangeError(`homogeneity: at least 2 items are needed, got ${g}`);
   const m = items[0].length;
   items.forEach((it, t) => {
     assertFiniteSample(it, `homogeneity item ${t + 1}`);
     if (it.length !== m || m < 2) {
-      throw new RangeError(`homogeneity: every item needs the same number (≥ 2) of replicates; item ${t + 1} has ${it.length}`);
+      throw new RangeError(
+        `homogeneity: every item needs the same number (≥ 2) of replicates; item ${t + 1} has ${it.length}`,
+      );
     }
   });
-  if (!(sigmaPt > 0) || !Number.isFinite(sigmaPt)) throw new RangeError(`homogeneity: σ_pt must be > 0, got ${sigmaPt}`);
+  if (!(sigmaPt > 0) || !Number.isFinite(sigmaPt))
+    throw new RangeError(`homogeneity: σ_pt must be > 0, got ${sigmaPt}`);
 
   // Centre on the first result so offsets do not cost digits.
   const c = items[0][0];
@@ -133,11 +141,17 @@ export interface StabilityResult {
  * |ȳ₁ − ȳ₂| ≤ 0.3σ_pt + 2√(u²(ȳ₁) + u²(ȳ₂)) with u(ȳ) = s/√n. Unit of the measurand.
  * @throws RangeError on fewer than 2 results in either set, non-finite values or σ_pt ≤ 0
  */
-export function stabilityCheck(first: readonly number[], second: readonly number[], sigmaPt: number): StabilityResult {
+export function stabilityCheck(
+  first: readonly number[],
+  second: readonly number[],
+  sigmaPt: number,
+): StabilityResult {
   assertFiniteSample(first, 'stability (first)');
   assertFiniteSample(second, 'stability (second)');
-  if (first.length < 2 || second.length < 2) throw new RangeError('stability: at least 2 results per occasion are needed');
-  if (!(sigmaPt > 0) || !Number.isFinite(sigmaPt)) throw new RangeError(`stability: σ_pt must be > 0, got ${sigmaPt}`);
+  if (first.length < 2 || second.length < 2)
+    throw new RangeError('stability: at least 2 results per occasion are needed');
+  if (!(sigmaPt > 0) || !Number.isFinite(sigmaPt))
+    throw new RangeError(`stability: σ_pt must be > 0, got ${sigmaPt}`);
   const m1 = meanUnchecked(first);
   const m2 = meanUnchecked(second);
   const u1 = Math.sqrt(varianceAbout(first, m1) / first.length);

@@ -7,7 +7,13 @@
  * if both are 0 (all values equal), h = 0.1 % of |x| (or 1 for x = 0) so the plot still shows
  * a peak.
  */
-import { assertFiniteSample, quantileOfSorted, sortedCopy, varianceAbout, meanUnchecked } from './descriptive';
+import {
+  assertFiniteSample,
+  quantileOfSorted,
+  sortedCopy,
+  varianceAbout,
+  meanUnchecked,
+} from './descriptive';
 
 export interface KdeResult {
   /** Grid points, unit of the data. */
@@ -54,7 +60,8 @@ export function kde(xs: readonly number[], options: KdeOptions = {}): KdeResult 
   const h = options.bandwidth ?? silvermanBandwidth(xs);
   if (!(h > 0) || !Number.isFinite(h)) throw new RangeError(`kde: bandwidth must be > 0, got ${h}`);
   const points = options.points ?? 256;
-  if (!Number.isInteger(points) || points < 2) throw new RangeError(`kde: points must be an integer ≥ 2`);
+  if (!Number.isInteger(points) || points < 2)
+    throw new RangeError(`kde: points must be an integer ≥ 2`);
   const cut = options.cut ?? 3;
   let lo = Infinity;
   let hi = -Infinity;

@@ -19,7 +19,8 @@ describe('scores: NIST GEAR data, Dataplot printed values', () => {
   const sigmaPt = sd(all);
   const uRef = gear.scoreExample.uAssignedForZPrime;
   const uLab = sd(gear.batches[0]); // "u(x) = SD of batch 1"
-  const within = (got: number, printed: number) => expect(Math.abs(got - printed)).toBeLessThanOrEqual(0.001 + 1e-12);
+  const within = (got: number, printed: number) =>
+    expect(Math.abs(got - printed)).toBeLessThanOrEqual(0.001 + 1e-12);
 
   it('z and z′ for y = 1.006 (Dataplot zscore/zprime: 0.955, 0.943)', () => {
     within(zScore(1.006, 1, sigmaPt), 0.955);

@@ -73,7 +73,10 @@ export function enNumber(
   if (!(expandedU >= 0) || !(expandedUAssigned >= 0)) {
     throw new RangeError('En: expanded uncertainties must be ≥ 0');
   }
-  const den = positive(Math.hypot(expandedU, expandedUAssigned), 'En denominator √(U²(x) + U²(x_pt))');
+  const den = positive(
+    Math.hypot(expandedU, expandedUAssigned),
+    'En denominator √(U²(x) + U²(x_pt))',
+  );
   return (finite(x, 'x') - finite(assignedValue, 'x_pt')) / den;
 }
 
@@ -87,7 +90,8 @@ export function difference(x: number, assignedValue: number): number {
  * @throws RangeError if x_pt = 0.
  */
 export function percentDifference(x: number, assignedValue: number): number {
-  if (assignedValue === 0) throw new RangeError('D%: x_pt = 0, the relative difference is undefined');
+  if (assignedValue === 0)
+    throw new RangeError('D%: x_pt = 0, the relative difference is undefined');
   return (100 * difference(x, assignedValue)) / assignedValue;
 }
 

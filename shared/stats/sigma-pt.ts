@@ -51,12 +51,17 @@ export function sigmaPt(rule: SigmaPtRule, ctx: SigmaPtContext): number {
       break;
     case 'precision': {
       const { sigmaR, sigmaRepeatability: sr, replicates: m } = rule;
-      v = sr !== undefined && m !== undefined ? Math.sqrt(sigmaR * sigmaR - sr * sr * (1 - 1 / m)) : sigmaR;
+      v =
+        sr !== undefined && m !== undefined
+          ? Math.sqrt(sigmaR * sigmaR - sr * sr * (1 - 1 / m))
+          : sigmaR;
       break;
     }
   }
   if (!(v > 0) || !Number.isFinite(v)) {
-    throw new RangeError(`σ_pt by rule "${rule.kind}" is ${v}; it must be a finite positive number`);
+    throw new RangeError(
+      `σ_pt by rule "${rule.kind}" is ${v}; it must be a finite positive number`,
+    );
   }
   return v;
 }

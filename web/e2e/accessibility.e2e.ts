@@ -11,8 +11,16 @@ describe('accessibility of the main pages', () => {
     e = await startE2E();
     const lab = await createLab(e.ds, 'Axe Lab');
     await createUser(e.ds, { email: 'admin@axe.test', name: 'Ada Admin', roles: ['admin'] });
-    await createUser(e.ds, { email: 'coordinator@axe.test', name: 'Cora Coordinator', roles: ['coordinator'] });
-    await createUser(e.ds, { email: 'assessor@axe.test', name: 'Asa Assessor', roles: ['assessor'] });
+    await createUser(e.ds, {
+      email: 'coordinator@axe.test',
+      name: 'Cora Coordinator',
+      roles: ['coordinator'],
+    });
+    await createUser(e.ds, {
+      email: 'assessor@axe.test',
+      name: 'Asa Assessor',
+      roles: ['assessor'],
+    });
     await createUser(e.ds, { email: 'lab@axe.test', name: 'Lena Lab', lab: lab.id, manager: true });
   });
   afterAll(() => e.close());
@@ -54,7 +62,12 @@ describe('accessibility of the main pages', () => {
       const el = document.activeElement as HTMLElement | null;
       if (!el || el === document.body) return null;
       const s = getComputedStyle(el);
-      return { outline: s.outlineStyle, width: s.outlineWidth, shadow: s.boxShadow, tag: el.tagName };
+      return {
+        outline: s.outlineStyle,
+        width: s.outlineWidth,
+        shadow: s.boxShadow,
+        tag: el.tagName,
+      };
     });
     expect(outline).not.toBeNull();
     const visible = outline!.outline !== 'none' && outline!.width !== '0px';

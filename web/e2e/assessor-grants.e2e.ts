@@ -19,7 +19,12 @@ describe('assessor access granted and revoked in a real browser', () => {
     e = await startE2E();
     const lab = await createLab(e.ds, LAB);
     labId = lab.id;
-    await createUser(e.ds, { email: 'manager@grants-e2e.test', name: 'Maud Manager', lab: lab.id, manager: true });
+    await createUser(e.ds, {
+      email: 'manager@grants-e2e.test',
+      name: 'Maud Manager',
+      lab: lab.id,
+      manager: true,
+    });
     await createUser(e.ds, { email: ASSESSOR, name: 'Vera Assessor', roles: ['assessor'] });
   });
   afterAll(() => e.close());
@@ -29,7 +34,9 @@ describe('assessor access granted and revoked in a real browser', () => {
     await e.signIn(manager, 'manager@grants-e2e.test');
     await manager.goto('/bench/lab-members');
     await manager.getByTestId('page-heading').filter({ hasText: 'My lab' }).waitFor();
-    await manager.getByText('will see this lab\'s rounds, reports, investigations and instrument checks').waitFor();
+    await manager
+      .getByText("will see this lab's rounds, reports, investigations and instrument checks")
+      .waitFor();
     await manager.getByTestId('no-grants').waitFor();
     const form = manager.getByTestId('grant-form');
 
@@ -67,7 +74,6 @@ describe('assessor access granted and revoked in a real browser', () => {
     expect(await message.textContent()).toContain(`to ${UNTIL}`);
     expect(await message.locator('a').first().getAttribute('href')).toBe(`${e.baseUrl}/assessor`);
 
-
     // The assessor sees the lab and can open it
     await assessor.goto('/assessor');
     await assessor.getByTestId('lab-link').filter({ hasText: LAB }).click();
@@ -75,13 +81,25 @@ describe('assessor access granted and revoked in a real browser', () => {
 
     // The manager revokes, after confirming
     await manager.goto('/bench/lab-members');
-    await manager.getByTestId('grant-row').filter({ hasText: ASSESSOR }).getByTestId('revoke-grant').click();
+    await manager
+      .getByTestId('grant-row')
+      .filter({ hasText: ASSESSOR })
+      .getByTestId('revoke-grant')
+      .click();
     await manager.getByRole('dialog').getByText('will no longer see this lab').waitFor();
     await manager.getByTestId('confirm-revoke').click();
-    await manager.getByTestId('grant-row').filter({ hasText: ASSESSOR }).getByTestId('grant-state').filter({ hasText: 'Revoked' }).waitFor();
+    await manager
+      .getByTestId('grant-row')
+      .filter({ hasText: ASSESSOR })
+      .getByTestId('grant-state')
+      .filter({ hasText: 'Revoked' })
+      .waitFor();
     expect(await manager.getByTestId('revoke-grant').count()).toBe(0);
     await e.shot(manager, 'assessor-grants-revoked');
-    const after: { revoked_at: Date | null }[] = await e.ds.query(`SELECT revoked_at FROM assessor_grant WHERE organisation_id = $1`, [labId]);
+    const after: { revoked_at: Date | null }[] = await e.ds.query(
+      `SELECT revoked_at FROM assessor_grant WHERE organisation_id = $1`,
+      [labId],
+    );
     expect(after[0]!.revoked_at).toBeInstanceOf(Date);
 
     // The assessor no longer sees the lab: not listed, the page says so, the API answers 404

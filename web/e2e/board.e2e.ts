@@ -1,4 +1,7 @@
-import { buildEvaluationFixture, type EvaluationFixture } from '../../api/src/testing/evaluation-fixtures';
+import {
+  buildEvaluationFixture,
+  type EvaluationFixture,
+} from '../../api/src/testing/evaluation-fixtures';
 import { createUser } from '../../api/src/testing/test-app';
 import { startE2E, type E2E } from './support/harness';
 
@@ -14,9 +17,24 @@ describe('Consensus board in a real browser', () => {
   let fx: EvaluationFixture;
   beforeAll(async () => {
     e = await startE2E();
-    fx = await buildEvaluationFixture(e.ds, { participants: 40, seed: 3, blunders: { 3: 2 }, withUncertainty: true, labPrefix: 'Hiddenlab' });
-    await createUser(e.ds, { email: 'coordinator@board.test', name: 'Cora Coordinator', roles: ['coordinator'] });
-    await createUser(e.ds, { email: 'lab@board.test', name: 'Lena Lab', lab: fx.labs[3]!.id, manager: true });
+    fx = await buildEvaluationFixture(e.ds, {
+      participants: 40,
+      seed: 3,
+      blunders: { 3: 2 },
+      withUncertainty: true,
+      labPrefix: 'Hiddenlab',
+    });
+    await createUser(e.ds, {
+      email: 'coordinator@board.test',
+      name: 'Cora Coordinator',
+      roles: ['coordinator'],
+    });
+    await createUser(e.ds, {
+      email: 'lab@board.test',
+      name: 'Lena Lab',
+      lab: fx.labs[3]!.id,
+      manager: true,
+    });
   });
   afterAll(() => e.close());
 
@@ -45,7 +63,10 @@ describe('Consensus board in a real browser', () => {
     await page.getByTestId('commit').click();
     await page.getByTestId('evaluation-message').getByText('approved for publication').waitFor();
     await page.getByTestId('publish').click();
-    await page.getByTestId('evaluation-message').getByText(/Published version 1: 40 labs e-mailed/).waitFor();
+    await page
+      .getByTestId('evaluation-message')
+      .getByText(/Published version 1: 40 labs e-mailed/)
+      .waitFor();
 
     await page.goto(`/board/rounds/${fx.round.id}`);
     await page.locator('.ag-row').first().waitFor();
@@ -65,7 +86,9 @@ describe('Consensus board in a real browser', () => {
     await page.getByText(`${own} (your lab)`).waitFor();
     const html = await page.content();
     for (const lab of fx.labs) expect(html).not.toContain(lab.name);
-    await expect(page.getByTestId('chart-z-bars').locator('figcaption').textContent()).resolves.toMatch(/z-scores of 40 participants/);
+    await expect(
+      page.getByTestId('chart-z-bars').locator('figcaption').textContent(),
+    ).resolves.toMatch(/z-scores of 40 participants/);
     await page.getByTestId('chart-density').getByRole('button', { name: 'Show table' }).click();
     await page.getByTestId('chart-density').getByRole('table').waitFor();
     await expect(page.getByTestId('chart-youden').count()).resolves.toBe(1);

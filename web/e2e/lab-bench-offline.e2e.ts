@@ -29,7 +29,8 @@ describe('Lab bench with a dropped connection', () => {
 
     // Online: item A's Z-average runs save as usual
     const aZ = [101.8, 102.4, 102.1];
-    for (const [k, v] of aZ.entries()) await page.getByTestId(`rep-A-z_average-${k + 1}`).fill(String(v));
+    for (const [k, v] of aZ.entries())
+      await page.getByTestId(`rep-A-z_average-${k + 1}`).fill(String(v));
     await state.filter({ hasText: 'Saved' }).waitFor();
     expect(await state.getAttribute('data-state')).toBe('saved');
 
@@ -44,7 +45,8 @@ describe('Lab bench with a dropped connection', () => {
 
     // Still offline: more values typed, still not saved
     const bZ = [61.3, 61.0, 61.6];
-    for (const [k, v] of bZ.entries()) await page.getByTestId(`rep-B-z_average-${k + 1}`).fill(String(v));
+    for (const [k, v] of bZ.entries())
+      await page.getByTestId(`rep-B-z_average-${k + 1}`).fill(String(v));
     await page.waitForTimeout(1_500); // past the 700 ms debounce: the save was attempted and failed
     expect(await state.getAttribute('data-state')).toBe('offline');
 
@@ -56,22 +58,31 @@ describe('Lab bench with a dropped connection', () => {
     // A reload shows every value typed, online and offline
     await page.reload();
     await page.getByTestId('rep-B-z_average-3').waitFor();
-    for (const [k, v] of aZ.entries()) expect(await page.getByTestId(`rep-A-z_average-${k + 1}`).inputValue()).toBe(String(v));
-    for (const [k, v] of aP.entries()) expect(await page.getByTestId(`rep-A-pdi-${k + 1}`).inputValue()).toBe(String(v));
-    for (const [k, v] of bZ.entries()) expect(await page.getByTestId(`rep-B-z_average-${k + 1}`).inputValue()).toBe(String(v));
+    for (const [k, v] of aZ.entries())
+      expect(await page.getByTestId(`rep-A-z_average-${k + 1}`).inputValue()).toBe(String(v));
+    for (const [k, v] of aP.entries())
+      expect(await page.getByTestId(`rep-A-pdi-${k + 1}`).inputValue()).toBe(String(v));
+    for (const [k, v] of bZ.entries())
+      expect(await page.getByTestId(`rep-B-z_average-${k + 1}`).inputValue()).toBe(String(v));
 
     // The server's stored draft holds them (not just the browser's local copy)
-    const rows: { draft: { items: { testItemId: string; results: { replicates: (number | null)[] }[] }[] }; draft_revision: number }[] =
-      await e.ds.query(
-        `SELECT s.draft, s.draft_revision FROM submission s JOIN enrolment en ON en.id = s.enrolment_id WHERE en.round_id = $1`,
-        [r.round.id],
-      );
+    const rows: {
+      draft: { items: { testItemId: string; results: { replicates: (number | null)[] }[] }[] };
+      draft_revision: number;
+    }[] = await e.ds.query(
+      `SELECT s.draft, s.draft_revision FROM submission s JOIN enrolment en ON en.id = s.enrolment_id WHERE en.round_id = $1`,
+      [r.round.id],
+    );
     expect(rows).toHaveLength(1);
     expect(rows[0]!.draft_revision).toBeGreaterThanOrEqual(2);
-    const byItem = new Map(rows[0]!.draft.items.map((i) => [i.testItemId, i.results.map((x) => x.replicates)]));
+    const byItem = new Map(
+      rows[0]!.draft.items.map((i) => [i.testItemId, i.results.map((x) => x.replicates)]),
+    );
     expect(byItem.get(r.items[0]!.id)).toEqual([aZ, aP]);
     expect(byItem.get(r.items[1]!.id)![0]).toEqual(bZ);
     // Chromium logs each failed request while offline; nothing else may be logged as an error
-    expect(e.consoleErrors.filter((m) => !/ERR_INTERNET_DISCONNECTED|Failed to load resource/.test(m))).toEqual([]);
+    expect(
+      e.consoleErrors.filter((m) => !/ERR_INTERNET_DISCONNECTED|Failed to load resource/.test(m)),
+    ).toEqual([]);
   });
 });

@@ -1,5 +1,10 @@
 import { createLab, createUser } from '../../api/src/testing/test-app';
-import { createBenchRound, enrol, passingCheck, type BenchRound } from '../../api/src/testing/bench-fixtures';
+import {
+  createBenchRound,
+  enrol,
+  passingCheck,
+  type BenchRound,
+} from '../../api/src/testing/bench-fixtures';
 import { startE2E, type E2E } from './support/harness';
 
 jest.setTimeout(180_000);
@@ -36,23 +41,33 @@ describe('Lab bench in a real browser', () => {
     for (const [k, run] of check.runs.entries()) {
       await page.getByLabel(`Check replicate ${k + 1} Z-average (nm)`).fill(String(run.zAverageNm));
       await page.getByLabel(`Check replicate ${k + 1} PDI`).fill(String(run.pdi));
-      await page.getByLabel(`Check replicate ${k + 1} equilibration (min)`).fill(String(run.equilibrationMin));
+      await page
+        .getByLabel(`Check replicate ${k + 1} equilibration (min)`)
+        .fill(String(run.equilibrationMin));
     }
     expect(await page.getByTestId('check-preview').textContent()).toContain('Pass');
     await page.getByTestId('record-check').click();
     await page.getByTestId('check-history').getByText('● Pass').waitFor();
 
     // Results: keyboard through the runs of item A, typed into item B
-    const values: Record<string, { z: number[]; p: number[] }> = { A: { z: [101.8, 102.4, 102.1], p: [0.051, 0.055, 0.049] }, B: { z: [61.3, 61.0, 61.6], p: [0.08, 0.082, 0.079] } };
+    const values: Record<string, { z: number[]; p: number[] }> = {
+      A: { z: [101.8, 102.4, 102.1], p: [0.051, 0.055, 0.049] },
+      B: { z: [61.3, 61.0, 61.6], p: [0.08, 0.082, 0.079] },
+    };
     await page.getByTestId('rep-A-z_average-1').focus();
     for (const v of values['A']!.z) {
       await page.keyboard.type(String(v));
       await page.keyboard.press('Tab');
     }
-    expect(await page.locator(':focus').getAttribute('aria-label')).toBe('A Z-average uncertainty type');
-    for (const [k, v] of values['A']!.p.entries()) await page.getByTestId(`rep-A-pdi-${k + 1}`).fill(String(v));
-    for (const [k, v] of values['B']!.z.entries()) await page.getByTestId(`rep-B-z_average-${k + 1}`).fill(String(v));
-    for (const [k, v] of values['B']!.p.entries()) await page.getByTestId(`rep-B-pdi-${k + 1}`).fill(String(v));
+    expect(await page.locator(':focus').getAttribute('aria-label')).toBe(
+      'A Z-average uncertainty type',
+    );
+    for (const [k, v] of values['A']!.p.entries())
+      await page.getByTestId(`rep-A-pdi-${k + 1}`).fill(String(v));
+    for (const [k, v] of values['B']!.z.entries())
+      await page.getByTestId(`rep-B-z_average-${k + 1}`).fill(String(v));
+    for (const [k, v] of values['B']!.p.entries())
+      await page.getByTestId(`rep-B-pdi-${k + 1}`).fill(String(v));
     for (const code of ['A', 'B']) {
       await page.getByTestId(`cond-${code}-instrument`).fill('Sizer One');
       await page.getByTestId(`cond-${code}-viscosityMPas`).fill('0.89');
@@ -75,11 +90,15 @@ describe('Lab bench in a real browser', () => {
     await page.getByTestId('versions').getByText('Ida Analyst').waitFor();
     await e.shot(page, 'lab-bench-submitted');
 
-    const rows: { data: { items: { testItemId: string; results: { replicates: number[] }[] }[] } }[] = await e.ds.query(
+    const rows: {
+      data: { items: { testItemId: string; results: { replicates: number[] }[] }[] };
+    }[] = await e.ds.query(
       `SELECT v.data FROM submission_version v JOIN submission s ON s.id = v.submission_id WHERE v.version = 1`,
     );
     expect(rows).toHaveLength(1);
-    const byItem = new Map(rows[0]!.data.items.map((i) => [i.testItemId, i.results.map((x) => x.replicates)]));
+    const byItem = new Map(
+      rows[0]!.data.items.map((i) => [i.testItemId, i.results.map((x) => x.replicates)]),
+    );
     expect(byItem.get(r.items[0]!.id)).toEqual([values['A']!.z, values['A']!.p]);
     expect(byItem.get(r.items[1]!.id)).toEqual([values['B']!.z, values['B']!.p]);
   });

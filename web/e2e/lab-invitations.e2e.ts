@@ -21,9 +21,20 @@ describe('lab invitation accepted, then the lab chooser', () => {
     e = await startE2E();
     alderId = (await createLab(e.ds, ALDER)).id;
     const birchId = (await createLab(e.ds, BIRCH)).id;
-    await createUser(e.ds, { email: 'maud@inv-e2e.test', name: 'Maud Manager', lab: alderId, manager: true });
-    bertId = (await createUser(e.ds, { email: 'bert@inv-e2e.test', name: 'Bert Birch', lab: birchId })).id;
-    await createUser(e.ds, { email: 'cora@inv-e2e.test', name: 'Cora Coordinator', roles: ['coordinator'] });
+    await createUser(e.ds, {
+      email: 'maud@inv-e2e.test',
+      name: 'Maud Manager',
+      lab: alderId,
+      manager: true,
+    });
+    bertId = (
+      await createUser(e.ds, { email: 'bert@inv-e2e.test', name: 'Bert Birch', lab: birchId })
+    ).id;
+    await createUser(e.ds, {
+      email: 'cora@inv-e2e.test',
+      name: 'Cora Coordinator',
+      roles: ['coordinator'],
+    });
     const a = await createBenchRound(e.ds, { code: 'ALD-1' });
     const b = await createBenchRound(e.ds, { code: 'BIR-1' });
     await enrol(e.ds, a.round.id, alderId, 'P-301');
@@ -47,7 +58,9 @@ describe('lab invitation accepted, then the lab chooser', () => {
     await invite.getByLabel('Name').fill('Bert');
     await invite.getByRole('button', { name: 'Send invitation' }).click();
     await manager.getByTestId('pending-invitations').getByText('bert@inv-e2e.test').waitFor();
-    expect(await e.ds.getRepository(Membership).countBy({ userId: bertId, organisationId: alderId })).toBe(0);
+    expect(
+      await e.ds.getRepository(Membership).countBy({ userId: bertId, organisationId: alderId }),
+    ).toBe(0);
     await e.shot(manager, 'lab-invitation-pending');
 
     // Bert: one lab, no chooser; the invitation mail is on his own Outbox page
@@ -63,15 +76,24 @@ describe('lab invitation accepted, then the lab chooser', () => {
     const row = bert.getByTestId('invitations').locator(`li[data-lab="${ALDER}"]`);
     await row.getByText('Sent by Maud Manager').waitFor();
     await row.getByRole('button', { name: `Accept the invitation from ${ALDER}` }).click();
-    await bert.getByTestId('joined').filter({ hasText: `You are now a member of ${ALDER}` }).waitFor();
-    expect(await e.ds.getRepository(Membership).countBy({ userId: bertId, organisationId: alderId })).toBe(1);
+    await bert
+      .getByTestId('joined')
+      .filter({ hasText: `You are now a member of ${ALDER}` })
+      .waitFor();
+    expect(
+      await e.ds.getRepository(Membership).countBy({ userId: bertId, organisationId: alderId }),
+    ).toBe(1);
 
     // Two labs now: the header chooser shows the lab he acted for until now
     const chooser = bert.locator('mat-toolbar [data-testid=lab-chooser]');
     await chooser.waitFor();
     await bert.goto('/bench');
     await bert.getByTestId('my-rounds').getByText('BIR-1').waitFor();
-    expect(await chooser.evaluate((el) => (el as HTMLSelectElement).selectedOptions[0]?.textContent?.trim())).toBe(BIRCH);
+    expect(
+      await chooser.evaluate((el) =>
+        (el as HTMLSelectElement).selectedOptions[0]?.textContent?.trim(),
+      ),
+    ).toBe(BIRCH);
 
     // He switches to the new lab: the bench follows, and a reload keeps the choice (the session holds it)
     await chooser.selectOption({ label: ALDER });
@@ -80,7 +102,11 @@ describe('lab invitation accepted, then the lab chooser', () => {
     await e.shot(bert, 'lab-chooser-acting-for-alder');
     await bert.reload();
     await bert.getByTestId('my-rounds').getByText('ALD-1').waitFor();
-    expect(await chooser.evaluate((el) => (el as HTMLSelectElement).selectedOptions[0]?.textContent?.trim())).toBe(ALDER);
+    expect(
+      await chooser.evaluate((el) =>
+        (el as HTMLSelectElement).selectedOptions[0]?.textContent?.trim(),
+      ),
+    ).toBe(ALDER);
 
     // Another sign-in starts unchosen: the bench asks for the lab first
     const again = await e.page();

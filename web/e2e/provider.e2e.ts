@@ -27,12 +27,28 @@ describe('PT provider page in a real browser', () => {
     await page.getByLabel('Person who authorises reports').fill('Dr Browser Person');
     await page.getByRole('button', { name: 'Save profile' }).click();
     await page.getByRole('status').filter({ hasText: 'Saved.' }).waitFor();
-    await page.locator('input[type=file]').setInputFiles({ name: 'logo.png', mimeType: 'image/png', buffer: demoLogoPng() });
+    await page
+      .locator('input[type=file]')
+      .setInputFiles({ name: 'logo.png', mimeType: 'image/png', buffer: demoLogoPng() });
     await page.getByAltText('Current logo of the PT provider').waitFor();
     await e.shot(page, 'provider-profile');
     expect(await seriousViolations(page)).toEqual([]);
-    const rows: { name: string; contact_email: string; authoriser_name: string; logo_type: string }[] = await e.ds.query('SELECT name, contact_email, authoriser_name, logo_type FROM provider_profile');
-    expect(rows).toEqual([{ name: 'Invented Browser PT Office', contact_email: 'office@browser-pt.example', authoriser_name: 'Dr Browser Person', logo_type: 'image/png' }]);
+    const rows: {
+      name: string;
+      contact_email: string;
+      authoriser_name: string;
+      logo_type: string;
+    }[] = await e.ds.query(
+      'SELECT name, contact_email, authoriser_name, logo_type FROM provider_profile',
+    );
+    expect(rows).toEqual([
+      {
+        name: 'Invented Browser PT Office',
+        contact_email: 'office@browser-pt.example',
+        authoriser_name: 'Dr Browser Person',
+        logo_type: 'image/png',
+      },
+    ]);
     expect(e.consoleErrors).toEqual([]);
   });
 });

@@ -10,7 +10,11 @@ describe('Round desk in a real browser', () => {
   beforeAll(async () => {
     e = await startE2E();
     await createLab(e.ds, 'Harbour Sizing Lab');
-    await createUser(e.ds, { email: 'coordinator@e2e.test', name: 'Cora Coordinator', roles: ['coordinator'] });
+    await createUser(e.ds, {
+      email: 'coordinator@e2e.test',
+      name: 'Cora Coordinator',
+      roles: ['coordinator'],
+    });
   });
   afterAll(() => e.close());
 
@@ -42,8 +46,14 @@ describe('Round desk in a real browser', () => {
     await page.getByRole('button', { name: 'Create round' }).click();
     await page.waitForURL((u) => u.pathname.startsWith('/desk/rounds/'));
     await page.getByTestId('page-heading').getByText('DLS-2026-1').waitFor();
-    await page.locator('ag-grid-angular[aria-label="Test items"]').getByText('Polystyrene latex in water').waitFor();
-    await page.locator('ag-grid-angular[aria-label="Measurands"]').getByText('Z-average diameter').waitFor();
+    await page
+      .locator('ag-grid-angular[aria-label="Test items"]')
+      .getByText('Polystyrene latex in water')
+      .waitFor();
+    await page
+      .locator('ag-grid-angular[aria-label="Measurands"]')
+      .getByText('Z-average diameter')
+      .waitFor();
 
     // open enrolment through the lifecycle dialog
     await page.getByTestId('move-enrolling').click();

@@ -13,11 +13,19 @@ describe('Editing a round in a real browser', () => {
   let roundId: string;
   beforeAll(async () => {
     e = await startE2E();
-    await createUser(e.ds, { email: 'coordinator@e2e.test', name: 'Cora Coordinator', roles: ['coordinator'] });
+    await createUser(e.ds, {
+      email: 'coordinator@e2e.test',
+      name: 'Cora Coordinator',
+      roles: ['coordinator'],
+    });
     // the round as the Round desk creates it (the creation itself is covered by round-desk.e2e.ts)
     const api = await signedIn(e.app, 'coordinator@e2e.test');
-    const post = (path: string, body: object) => api.agent.post(`/api/v1${path}`).set('x-csrf-token', api.csrf).send(body);
-    const scheme = await post('/schemes', { code: 'NANO-DLS', name: 'Nanoparticle sizing by DLS' }).expect(201);
+    const post = (path: string, body: object) =>
+      api.agent.post(`/api/v1${path}`).set('x-csrf-token', api.csrf).send(body);
+    const scheme = await post('/schemes', {
+      code: 'NANO-DLS',
+      name: 'Nanoparticle sizing by DLS',
+    }).expect(201);
     const round = await post('/rounds', {
       schemeId: scheme.body.id,
       code: 'DLS-2026-2',
@@ -45,7 +53,10 @@ describe('Editing a round in a real browser', () => {
     await edit.getByLabel('Results due').fill('2026-11-20T12:00');
     await edit.getByLabel('Participation fee').fill('450');
     // the basic safety cautions are fixed: shown, and nothing to untick
-    await edit.getByTestId('fixed-cautions').getByText('Never defeat or bypass the instrument').waitFor();
+    await edit
+      .getByTestId('fixed-cautions')
+      .getByText('Never defeat or bypass the instrument')
+      .waitFor();
     expect(await edit.getByTestId('keep-cautions').count()).toBe(0);
     await e.shot(page, 'round-edit-dialog');
     await edit.getByTestId('save-round').click();
@@ -81,10 +92,20 @@ describe('Editing a round in a real browser', () => {
     await page.reload();
     await page.getByTestId('page-heading').getByText('DLS-2026-2').waitFor();
     await page.getByText('Fee 450.00 EUR').waitFor();
-    const due = await page.evaluate(() => new Date('2026-11-20T12:00').toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' }));
+    const due = await page.evaluate(() =>
+      new Date('2026-11-20T12:00').toLocaleString(undefined, {
+        dateStyle: 'medium',
+        timeStyle: 'short',
+      }),
+    );
     await page.getByText(`Results due ${due}`).waitFor();
-    await page.locator('ag-grid-angular[aria-label="Test items"]').getByText('Gold colloid in citrate buffer').waitFor();
-    const zRow = page.locator('ag-grid-angular[aria-label="Measurands"] [role="row"]', { hasText: 'Z-average diameter' });
+    await page
+      .locator('ag-grid-angular[aria-label="Test items"]')
+      .getByText('Gold colloid in citrate buffer')
+      .waitFor();
+    const zRow = page.locator('ag-grid-angular[aria-label="Measurands"] [role="row"]', {
+      hasText: 'Z-average diameter',
+    });
     await zRow.getByText('4 % of x_pt').waitFor();
     await e.shot(page, 'round-edit-after-reload');
 
@@ -93,8 +114,14 @@ describe('Editing a round in a real browser', () => {
     const dueInBrowser = await page.evaluate(() => new Date('2026-11-20T12:00').toISOString());
     expect(round.resultsDueAt?.toISOString()).toBe(dueInBrowser);
     expect(round.instructions).toContain('laser interlock');
-    const stored = await e.ds.getRepository(TestItem).find({ where: { roundId }, order: { position: 'ASC' } });
-    expect(stored.map((i) => [i.code, i.nominalSizeNm])).toEqual([['A', 100], ['B', 60], ['C', 30]]);
+    const stored = await e.ds
+      .getRepository(TestItem)
+      .find({ where: { roundId }, order: { position: 'ASC' } });
+    expect(stored.map((i) => [i.code, i.nominalSizeNm])).toEqual([
+      ['A', 100],
+      ['B', 60],
+      ['C', 30],
+    ]);
     const z = await e.ds.getRepository(Measurand).findOneByOrFail({ roundId, key: 'z_average' });
     expect(z.sigmaPtRule).toEqual({ kind: 'percent', percent: 4 });
     const pdi = await e.ds.getRepository(Measurand).findOneByOrFail({ roundId, key: 'pdi' });

@@ -10,8 +10,16 @@ describe('sign-in in a real browser', () => {
     e = await startE2E();
     const lab = await createLab(e.ds, 'Browser Test Lab');
     await createUser(e.ds, { email: 'admin@e2e.test', name: 'Ada Admin', roles: ['admin'] });
-    await createUser(e.ds, { email: 'coordinator@e2e.test', name: 'Cora Coordinator', roles: ['coordinator'] });
-    await createUser(e.ds, { email: 'assessor@e2e.test', name: 'Asa Assessor', roles: ['assessor'] });
+    await createUser(e.ds, {
+      email: 'coordinator@e2e.test',
+      name: 'Cora Coordinator',
+      roles: ['coordinator'],
+    });
+    await createUser(e.ds, {
+      email: 'assessor@e2e.test',
+      name: 'Asa Assessor',
+      roles: ['assessor'],
+    });
     await createUser(e.ds, { email: 'lab@e2e.test', name: 'Lena Lab', lab: lab.id, manager: true });
   });
   afterAll(() => e.close());
@@ -27,7 +35,9 @@ describe('sign-in in a real browser', () => {
     const page = await e.page();
     await e.signIn(page, email);
     expect(new URL(page.url()).pathname).toBe(path);
-    await expect(page.getByTestId('page-heading').first().textContent()).resolves.toContain(heading);
+    await expect(page.getByTestId('page-heading').first().textContent()).resolves.toContain(
+      heading,
+    );
     await e.shot(page, `home-${path.replace(/\//g, '_').replace(/^_/, '')}`);
     await page.getByRole('button', { name: 'Sign out' }).click();
     await page.waitForURL((url) => url.pathname.startsWith('/sign-in'));

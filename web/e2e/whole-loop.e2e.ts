@@ -6,9 +6,23 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import JSZip from 'jszip';
 import type { Page } from 'playwright-core';
-import { Enrolment, Investigation, Measurand, Organisation, Round, TestItem, User } from '../../db/entities';
+import {
+  Enrolment,
+  Investigation,
+  Measurand,
+  Organisation,
+  Round,
+  TestItem,
+  User,
+} from '../../db/entities';
 import { passingCheck } from '../../api/src/testing/bench-fixtures';
-import { createLab, createUser, mailTo, signedIn, type Client } from '../../api/src/testing/test-app';
+import {
+  createLab,
+  createUser,
+  mailTo,
+  signedIn,
+  type Client,
+} from '../../api/src/testing/test-app';
 import type { SubmissionData } from '../../shared/contracts/submission';
 import { seriousViolations, type AxeViolation } from './support/axe';
 import { startE2E, type E2E } from './support/harness';
@@ -32,7 +46,19 @@ const CONDITIONS = {
   cuvette: 'disposable polystyrene',
 };
 /** Eleven labs that take part through the API; the third reports a clear blunder on item A (160 nm for a 100 nm latex). */
-const BULK = ['Alder', 'Birch', 'Cedar', 'Elm', 'Fir', 'Hornbeam', 'Juniper', 'Larch', 'Maple', 'Oak', 'Rowan'];
+const BULK = [
+  'Alder',
+  'Birch',
+  'Cedar',
+  'Elm',
+  'Fir',
+  'Hornbeam',
+  'Juniper',
+  'Larch',
+  'Maple',
+  'Oak',
+  'Rowan',
+];
 const OFFSETS = [-2.4, -1.7, -1.1, -0.6, -0.2, 0.3, 0.7, 1.2, 1.6, 2.1, -0.9];
 const BLUNDER = 2;
 
@@ -49,7 +75,9 @@ function localInDays(days: number): string {
 }
 
 /** Focus is visible: an outline or a box shadow on the focused element. */
-async function focusState(page: Page): Promise<{ testid: string | null; tag: string; visible: boolean }> {
+async function focusState(
+  page: Page,
+): Promise<{ testid: string | null; tag: string; visible: boolean }> {
   return page.evaluate(() => {
     const el = document.activeElement as HTMLElement | null;
     if (!el || el === document.body) return { testid: null, tag: 'BODY', visible: false };
@@ -58,7 +86,11 @@ async function focusState(page: Page): Promise<{ testid: string | null; tag: str
     const shadow = !!s.boxShadow && s.boxShadow !== 'none';
     // a Material field shows focus on its own outline (thicker, in the primary colour)
     const field = !!el.closest('.mat-mdc-form-field.mat-focused');
-    return { testid: el.getAttribute('data-testid'), tag: el.tagName, visible: outline || shadow || field };
+    return {
+      testid: el.getAttribute('data-testid'),
+      tag: el.tagName,
+      visible: outline || shadow || field,
+    };
   });
 }
 
@@ -85,7 +117,11 @@ describe('the whole loop in a real browser', () => {
         await fn();
       } catch (err) {
         broken = name;
-        for (const [k, p] of e.browser.contexts().flatMap((c) => c.pages()).entries()) await e.shot(p, `loop-failure-${k}`).catch(() => undefined);
+        for (const [k, p] of e.browser
+          .contexts()
+          .flatMap((c) => c.pages())
+          .entries())
+          await e.shot(p, `loop-failure-${k}`).catch(() => undefined);
         throw err;
       }
     });
@@ -107,16 +143,33 @@ describe('the whole loop in a real browser', () => {
   };
   const bulk: { lab: Organisation; email: string; client?: Client }[] = [];
 
-  const post = (c: Client, path: string, body: unknown) => c.agent.post(`/api/v1${path}`).set('x-csrf-token', c.csrf).send(body as object);
+  const post = (c: Client, path: string, body: unknown) =>
+    c.agent
+      .post(`/api/v1${path}`)
+      .set('x-csrf-token', c.csrf)
+      .send(body as object);
 
   beforeAll(async () => {
     e = await startE2E();
-    await createUser(e.ds, { email: 'cora@wl.test', name: 'Cora Coordinator', roles: ['coordinator'] });
+    await createUser(e.ds, {
+      email: 'cora@wl.test',
+      name: 'Cora Coordinator',
+      roles: ['coordinator'],
+    });
     await createUser(e.ds, { email: 'ada@wl.test', name: 'Ada Admin', roles: ['admin'] });
     await createUser(e.ds, { email: 'asa@wl.test', name: 'Asa Assessor', roles: ['assessor'] });
-    await createUser(e.ds, { email: 'leaving@wl.test', name: 'Lou Leaving', roles: ['coordinator'] });
+    await createUser(e.ds, {
+      email: 'leaving@wl.test',
+      name: 'Lou Leaving',
+      roles: ['coordinator'],
+    });
     const harbour = await createLab(e.ds, 'Harbour Sizing Lab');
-    await createUser(e.ds, { email: 'lena@harbour.test', name: 'Lena Harbour', lab: harbour.id, manager: true });
+    await createUser(e.ds, {
+      email: 'lena@harbour.test',
+      name: 'Lena Harbour',
+      lab: harbour.id,
+      manager: true,
+    });
     for (const name of BULK) {
       const lab = await createLab(e.ds, `${name} Sizing Lab`);
       const email = `manager@${name.toLowerCase()}.test`;
@@ -127,107 +180,131 @@ describe('the whole loop in a real browser', () => {
   });
   afterAll(() => e.close());
 
-  step('1. the coordinator creates a scheme and a round, opens enrolment and invites labs', async () => {
-    coordPage = await e.page();
-    const page = coordPage;
-    await e.signIn(page, 'cora@wl.test');
-    await page.getByTestId('new-scheme').click();
-    await page.getByLabel('Code').fill('WL-DLS');
-    await page.getByLabel('Name', { exact: true }).fill('Nanoparticle sizing by DLS');
-    await page.getByRole('button', { name: 'Create scheme' }).click();
-    await page.getByRole('dialog').waitFor({ state: 'detached' });
+  step(
+    '1. the coordinator creates a scheme and a round, opens enrolment and invites labs',
+    async () => {
+      coordPage = await e.page();
+      const page = coordPage;
+      await e.signIn(page, 'cora@wl.test');
+      await page.getByTestId('new-scheme').click();
+      await page.getByLabel('Code').fill('WL-DLS');
+      await page.getByLabel('Name', { exact: true }).fill('Nanoparticle sizing by DLS');
+      await page.getByRole('button', { name: 'Create scheme' }).click();
+      await page.getByRole('dialog').waitFor({ state: 'detached' });
 
-    await page.getByTestId('new-round').click();
-    await page.getByLabel('Round code').fill(ROUND);
-    await page.getByLabel('Title').fill('Latex and silica, whole loop');
-    await page.getByLabel('Results due').fill(localInDays(30));
-    await page.getByTestId('item-0').getByLabel('Item code').fill('A');
-    await page.getByTestId('item-0').getByLabel('Material').fill('Polystyrene latex in water');
-    await page.getByTestId('item-0').getByLabel('Nominal size (nm)').fill('100');
-    await page.getByTestId('add-item').click();
-    await page.getByTestId('item-1').getByLabel('Item code').fill('B');
-    await page.getByTestId('item-1').getByLabel('Material').fill('Silica in water');
-    await page.getByTestId('item-1').getByLabel('Nominal size (nm)').fill('60');
-    await page.getByRole('button', { name: 'Create round' }).click();
-    await page.waitForURL((u) => u.pathname.startsWith('/desk/rounds/'));
-    roundId = new URL(page.url()).pathname.split('/').pop()!;
-    await page.locator('ag-grid-angular[aria-label="Measurands"]').getByText('Z-average diameter').waitFor();
-    await page.locator('ag-grid-angular[aria-label="Measurands"]').getByText('Polydispersity index (PDI)').waitFor();
+      await page.getByTestId('new-round').click();
+      await page.getByLabel('Round code').fill(ROUND);
+      await page.getByLabel('Title').fill('Latex and silica, whole loop');
+      await page.getByLabel('Results due').fill(localInDays(30));
+      await page.getByTestId('item-0').getByLabel('Item code').fill('A');
+      await page.getByTestId('item-0').getByLabel('Material').fill('Polystyrene latex in water');
+      await page.getByTestId('item-0').getByLabel('Nominal size (nm)').fill('100');
+      await page.getByTestId('add-item').click();
+      await page.getByTestId('item-1').getByLabel('Item code').fill('B');
+      await page.getByTestId('item-1').getByLabel('Material').fill('Silica in water');
+      await page.getByTestId('item-1').getByLabel('Nominal size (nm)').fill('60');
+      await page.getByRole('button', { name: 'Create round' }).click();
+      await page.waitForURL((u) => u.pathname.startsWith('/desk/rounds/'));
+      roundId = new URL(page.url()).pathname.split('/').pop()!;
+      await page
+        .locator('ag-grid-angular[aria-label="Measurands"]')
+        .getByText('Z-average diameter')
+        .waitFor();
+      await page
+        .locator('ag-grid-angular[aria-label="Measurands"]')
+        .getByText('Polydispersity index (PDI)')
+        .waitFor();
 
-    await page.getByTestId('move-enrolling').click();
-    await page.getByTestId('dialog-confirm').click();
-    await page.getByTestId('round-state').getByText('Enrolling').waitFor();
+      await page.getByTestId('move-enrolling').click();
+      await page.getByTestId('dialog-confirm').click();
+      await page.getByTestId('round-state').getByText('Enrolling').waitFor();
 
-    // an existing lab and a new lab through the page
-    await page.getByTestId('invite-lab-0').click();
-    await page.getByRole('option', { name: 'Harbour Sizing Lab' }).click();
-    await page.getByTestId('invite-form').getByLabel('E-mail').first().fill('lena@harbour.test');
-    await page.getByTestId('add-invitation').click();
-    await page.getByLabel('New lab name').fill('Ridge Particle Lab');
-    await page.getByTestId('invite-form').getByLabel('E-mail').nth(1).fill('contact@ridge.test');
-    await page.getByTestId('send-invitations').click();
-    const invitations = page.locator('ag-grid-angular[aria-label="Invitations"]');
-    await invitations.getByText('lena@harbour.test').waitFor();
-    await invitations.getByText('Ridge Particle Lab (new)').waitFor();
-    await axe(page, 'round detail (enrolling)');
-    await e.shot(page, 'loop-01-round-invitations');
+      // an existing lab and a new lab through the page
+      await page.getByTestId('invite-lab-0').click();
+      await page.getByRole('option', { name: 'Harbour Sizing Lab' }).click();
+      await page.getByTestId('invite-form').getByLabel('E-mail').first().fill('lena@harbour.test');
+      await page.getByTestId('add-invitation').click();
+      await page.getByLabel('New lab name').fill('Ridge Particle Lab');
+      await page.getByTestId('invite-form').getByLabel('E-mail').nth(1).fill('contact@ridge.test');
+      await page.getByTestId('send-invitations').click();
+      const invitations = page.locator('ag-grid-angular[aria-label="Invitations"]');
+      await invitations.getByText('lena@harbour.test').waitFor();
+      await invitations.getByText('Ridge Particle Lab (new)').waitFor();
+      await axe(page, 'round detail (enrolling)');
+      await e.shot(page, 'loop-01-round-invitations');
 
-    // eleven more existing labs in one request
-    await post(coord, `/rounds/${roundId}/invitations`, { invitations: bulk.map((b) => ({ organisationId: b.lab.id, email: b.email })) }).expect(201);
-    await page.goto('/desk');
-    await page.getByText(ROUND).first().waitFor();
-    await axe(page, 'Round desk list');
-    expectNoViolations();
-  });
+      // eleven more existing labs in one request
+      await post(coord, `/rounds/${roundId}/invitations`, {
+        invitations: bulk.map((b) => ({ organisationId: b.lab.id, email: b.email })),
+      }).expect(201);
+      await page.goto('/desk');
+      await page.getByText(ROUND).first().waitFor();
+      await axe(page, 'Round desk list');
+      expectNoViolations();
+    },
+  );
 
-  step('2. invited labs read their mail on the Outbox page, follow the link and accept', async () => {
-    // Harbour (an existing lab): its manager reads the mail on the Outbox page and accepts signed in
-    await mailTo(e.ds, 'lena@harbour.test');
-    const lena = await e.page();
-    await e.signIn(lena, 'lena@harbour.test');
-    await lena.getByRole('link', { name: 'Outbox' }).click();
-    await lena.getByRole('option').filter({ hasText: 'lena@harbour.test' }).click();
-    await axe(lena, 'Outbox');
-    await e.shot(lena, 'loop-02-outbox');
-    await lena.getByTestId('outbox-message').locator('a[href*="/invitations/"]').click();
-    await lena.getByTestId('accept').click();
-    await expect(lena.getByTestId('accepted').textContent()).resolves.toMatch(/participant code/);
-    await lena.close();
+  step(
+    '2. invited labs read their mail on the Outbox page, follow the link and accept',
+    async () => {
+      // Harbour (an existing lab): its manager reads the mail on the Outbox page and accepts signed in
+      await mailTo(e.ds, 'lena@harbour.test');
+      const lena = await e.page();
+      await e.signIn(lena, 'lena@harbour.test');
+      await lena.getByRole('link', { name: 'Outbox' }).click();
+      await lena.getByRole('option').filter({ hasText: 'lena@harbour.test' }).click();
+      await axe(lena, 'Outbox');
+      await e.shot(lena, 'loop-02-outbox');
+      await lena.getByTestId('outbox-message').locator('a[href*="/invitations/"]').click();
+      await lena.getByTestId('accept').click();
+      await expect(lena.getByTestId('accepted').textContent()).resolves.toMatch(/participant code/);
+      await lena.close();
 
-    // Ridge (a new lab): the admin reads the link on the Outbox page; it is opened by someone without an account
-    // (the demo Outbox shows each user their own mail; the admin sees every message)
-    await mailTo(e.ds, 'contact@ridge.test');
-    const adminPage = await e.page();
-    await e.signIn(adminPage, 'ada@wl.test');
-    await adminPage.goto('/outbox');
-    await adminPage.getByRole('option').filter({ hasText: 'contact@ridge.test' }).click();
-    const invitationHref = await adminPage.getByTestId('outbox-message').locator('a[href*="/invitations/"]').getAttribute('href');
-    const ridge = await e.page();
-    await ridge.goto(invitationHref!);
-    await ridge.getByTestId('accept').click();
-    await ridge.getByTestId('accepted').waitFor();
-    await mailTo(e.ds, 'contact@ridge.test', 2);
-    await adminPage.getByRole('button', { name: 'Refresh' }).click();
-    await adminPage.getByRole('option').filter({ hasText: 'contact@ridge.test' }).filter({ hasText: 'Your Ringlet account' }).click();
-    const passwordHref = await adminPage.getByTestId('outbox-message').locator('a[href*="/set-password/"]').getAttribute('href');
-    await ridge.goto(passwordHref!);
-    await ridge.getByLabel('New password').fill('ridge lab password 2027');
-    await ridge.getByLabel('Confirm password').fill('ridge lab password 2027');
-    await ridge.getByRole('button', { name: 'Save password' }).click();
-    await ridge.getByTestId('password-set').waitFor();
-    await adminPage.close();
-    await ridge.close();
+      // Ridge (a new lab): the admin reads the link on the Outbox page; it is opened by someone without an account
+      // (the demo Outbox shows each user their own mail; the admin sees every message)
+      await mailTo(e.ds, 'contact@ridge.test');
+      const adminPage = await e.page();
+      await e.signIn(adminPage, 'ada@wl.test');
+      await adminPage.goto('/outbox');
+      await adminPage.getByRole('option').filter({ hasText: 'contact@ridge.test' }).click();
+      const invitationHref = await adminPage
+        .getByTestId('outbox-message')
+        .locator('a[href*="/invitations/"]')
+        .getAttribute('href');
+      const ridge = await e.page();
+      await ridge.goto(invitationHref!);
+      await ridge.getByTestId('accept').click();
+      await ridge.getByTestId('accepted').waitFor();
+      await mailTo(e.ds, 'contact@ridge.test', 2);
+      await adminPage.getByRole('button', { name: 'Refresh' }).click();
+      await adminPage
+        .getByRole('option')
+        .filter({ hasText: 'contact@ridge.test' })
+        .filter({ hasText: 'Your Ringlet account' })
+        .click();
+      const passwordHref = await adminPage
+        .getByTestId('outbox-message')
+        .locator('a[href*="/set-password/"]')
+        .getAttribute('href');
+      await ridge.goto(passwordHref!);
+      await ridge.getByLabel('New password').fill('ridge lab password 2027');
+      await ridge.getByLabel('Confirm password').fill('ridge lab password 2027');
+      await ridge.getByRole('button', { name: 'Save password' }).click();
+      await ridge.getByTestId('password-set').waitFor();
+      await adminPage.close();
+      await ridge.close();
 
-    // the eleven API labs accept with the token from their mail
-    for (const b of bulk) {
-      const [mail] = await mailTo(e.ds, b.email);
-      const token = /\/invitations\/([A-Za-z0-9_-]+)/.exec(mail!.text)![1]!;
-      b.client = await signedIn(e.app, b.email);
-      await post(b.client, `/invitations/${token}/accept`, {}).expect(201);
-    }
-    expect(await e.ds.getRepository(Enrolment).countBy({ roundId })).toBe(13);
-    expectNoViolations();
-  });
+      // the eleven API labs accept with the token from their mail
+      for (const b of bulk) {
+        const [mail] = await mailTo(e.ds, b.email);
+        const token = /\/invitations\/([A-Za-z0-9_-]+)/.exec(mail!.text)![1]!;
+        b.client = await signedIn(e.app, b.email);
+        await post(b.client, `/invitations/${token}/accept`, {}).expect(201);
+      }
+      expect(await e.ds.getRepository(Enrolment).countBy({ roundId })).toBe(13);
+      expectNoViolations();
+    },
+  );
 
   step('3. the coordinator dispatches and the round starts collecting', async () => {
     const page = coordPage;
@@ -235,9 +312,15 @@ describe('the whole loop in a real browser', () => {
     await page.setViewportSize({ width: 1920, height: 1000 });
     await page.goto(`/desk/rounds/${roundId}`);
     const enrolments = await e.ds.getRepository(Enrolment).findBy({ roundId });
-    const ridgeLab = await e.ds.getRepository(Organisation).findOneByOrFail({ name: 'Ridge Particle Lab' });
-    const harbourLab = await e.ds.getRepository(Organisation).findOneByOrFail({ name: 'Harbour Sizing Lab' });
-    const uiCodes = enrolments.filter((x) => x.organisationId === ridgeLab.id || x.organisationId === harbourLab.id).map((x) => x.participantCode);
+    const ridgeLab = await e.ds
+      .getRepository(Organisation)
+      .findOneByOrFail({ name: 'Ridge Particle Lab' });
+    const harbourLab = await e.ds
+      .getRepository(Organisation)
+      .findOneByOrFail({ name: 'Harbour Sizing Lab' });
+    const uiCodes = enrolments
+      .filter((x) => x.organisationId === ridgeLab.id || x.organisationId === harbourLab.id)
+      .map((x) => x.participantCode);
     const grid = page.locator('ag-grid-angular[aria-label="Enrolments"]');
     await grid.getByText('Harbour Sizing Lab').waitFor();
     for (const code of uiCodes) {
@@ -253,7 +336,11 @@ describe('the whole loop in a real browser', () => {
       await page.getByRole('dialog').waitFor({ state: 'detached' });
     }
     for (const x of enrolments.filter((x) => !uiCodes.includes(x.participantCode))) {
-      await post(coord, `/rounds/${roundId}/enrolments/${x.id}/dispatch`, { courier: 'Parcel courier', trackingNumber: `TRK-${x.participantCode}`, dispatchedOn: new Date().toISOString().slice(0, 10) }).expect(200);
+      await post(coord, `/rounds/${roundId}/enrolments/${x.id}/dispatch`, {
+        courier: 'Parcel courier',
+        trackingNumber: `TRK-${x.participantCode}`,
+        dispatchedOn: new Date().toISOString().slice(0, 10),
+      }).expect(200);
     }
     await page.getByTestId('move-in-transit').click();
     await page.getByTestId('dialog-confirm').click();
@@ -281,98 +368,133 @@ describe('the whole loop in a real browser', () => {
     for (const [k, run] of check.runs.entries()) {
       await page.getByLabel(`Check replicate ${k + 1} Z-average (nm)`).fill(String(run.zAverageNm));
       await page.getByLabel(`Check replicate ${k + 1} PDI`).fill(String(run.pdi));
-      await page.getByLabel(`Check replicate ${k + 1} temperature (°C)`).fill(String(run.temperatureC));
-      await page.getByLabel(`Check replicate ${k + 1} equilibration (min)`).fill(String(run.equilibrationMin));
+      await page
+        .getByLabel(`Check replicate ${k + 1} temperature (°C)`)
+        .fill(String(run.temperatureC));
+      await page
+        .getByLabel(`Check replicate ${k + 1} equilibration (min)`)
+        .fill(String(run.equilibrationMin));
     }
     await page.getByTestId('check-preview').filter({ hasText: 'Pass:' }).waitFor();
     await page.getByTestId('record-check').click();
     await page.getByTestId('check-history').getByText('● Pass').waitFor();
   }
 
-  step('4. Harbour: receipt, instrument check, and results typed with the keyboard only', async () => {
-    const page = await e.page();
-    await e.signIn(page, 'lena@harbour.test');
-    await axe(page, 'Lab bench dashboard');
-    await e.shot(page, 'loop-04-lab-bench');
-    await receiptAndCheck(page);
+  step(
+    '4. Harbour: receipt, instrument check, and results typed with the keyboard only',
+    async () => {
+      const page = await e.page();
+      await e.signIn(page, 'lena@harbour.test');
+      await axe(page, 'Lab bench dashboard');
+      await e.shot(page, 'loop-04-lab-bench');
+      await receiptAndCheck(page);
 
-    // keyboard only from here: Tab to the first run, type, Tab on through the grid
-    await page.getByTestId('page-heading').focus(); // start of the page (headings take no part in Tab order)
-    await tabTo(page, 'rep-A-z_average-1');
-    const typeRow = async (values: number[]) => {
-      for (const [k, v] of values.entries()) {
-        const f = await focusState(page);
-        expect(f).toMatchObject({ tag: 'INPUT', visible: true });
-        await page.keyboard.type(String(v));
-        if (k < values.length - 1) await page.keyboard.press('Tab');
-      }
-    };
-    const harbour = { A: { z: [101.2, 101.5, 101.0], p: [0.052, 0.054, 0.05] }, B: { z: [60.4, 60.7, 60.2], p: [0.081, 0.079, 0.083] } };
-    await typeRow(harbour.A.z);
-    await tabTo(page, 'rep-A-pdi-1');
-    await typeRow(harbour.A.p);
-    await tabTo(page, 'cond-A-instrument');
-    await page.keyboard.type('Sizer One');
-    await tabTo(page, 'rep-B-z_average-1');
-    await typeRow(harbour.B.z);
-    await tabTo(page, 'rep-B-pdi-1');
-    await typeRow(harbour.B.p);
-    await tabTo(page, 'cond-B-instrument');
-    await page.keyboard.type('Sizer One');
-    await page.getByTestId('save-state').filter({ hasText: 'Saved' }).waitFor();
-    await axe(page, 'Lab bench round page (results entry)');
-    await tabTo(page, 'submit');
-    await page.keyboard.press('Enter');
-    await page.getByTestId('submit-message').filter({ hasText: 'Version 1 submitted.' }).waitFor();
-    await e.shot(page, 'loop-05-results-submitted');
+      // keyboard only from here: Tab to the first run, type, Tab on through the grid
+      await page.getByTestId('page-heading').focus(); // start of the page (headings take no part in Tab order)
+      await tabTo(page, 'rep-A-z_average-1');
+      const typeRow = async (values: number[]) => {
+        for (const [k, v] of values.entries()) {
+          const f = await focusState(page);
+          expect(f).toMatchObject({ tag: 'INPUT', visible: true });
+          await page.keyboard.type(String(v));
+          if (k < values.length - 1) await page.keyboard.press('Tab');
+        }
+      };
+      const harbour = {
+        A: { z: [101.2, 101.5, 101.0], p: [0.052, 0.054, 0.05] },
+        B: { z: [60.4, 60.7, 60.2], p: [0.081, 0.079, 0.083] },
+      };
+      await typeRow(harbour.A.z);
+      await tabTo(page, 'rep-A-pdi-1');
+      await typeRow(harbour.A.p);
+      await tabTo(page, 'cond-A-instrument');
+      await page.keyboard.type('Sizer One');
+      await tabTo(page, 'rep-B-z_average-1');
+      await typeRow(harbour.B.z);
+      await tabTo(page, 'rep-B-pdi-1');
+      await typeRow(harbour.B.p);
+      await tabTo(page, 'cond-B-instrument');
+      await page.keyboard.type('Sizer One');
+      await page.getByTestId('save-state').filter({ hasText: 'Saved' }).waitFor();
+      await axe(page, 'Lab bench round page (results entry)');
+      await tabTo(page, 'submit');
+      await page.keyboard.press('Enter');
+      await page
+        .getByTestId('submit-message')
+        .filter({ hasText: 'Version 1 submitted.' })
+        .waitFor();
+      await e.shot(page, 'loop-05-results-submitted');
 
-    const [row] = await e.ds.query(
-      `SELECT v.data FROM submission_version v JOIN submission s ON s.id = v.submission_id JOIN enrolment en ON en.id = s.enrolment_id
+      const [row] = await e.ds.query(
+        `SELECT v.data FROM submission_version v JOIN submission s ON s.id = v.submission_id JOIN enrolment en ON en.id = s.enrolment_id
        JOIN organisation o ON o.id = en.organisation_id WHERE o.name = 'Harbour Sizing Lab' AND v.version = 1`,
-    );
-    const items = (row.data as SubmissionData).items;
-    expect(items.map((i) => i.results.map((r) => r.replicates))).toEqual([
-      [harbour.A.z, harbour.A.p],
-      [harbour.B.z, harbour.B.p],
-    ]);
-    expectNoViolations();
-  });
+      );
+      const items = (row.data as SubmissionData).items;
+      expect(items.map((i) => i.results.map((r) => r.replicates))).toEqual([
+        [harbour.A.z, harbour.A.p],
+        [harbour.B.z, harbour.B.p],
+      ]);
+      expectNoViolations();
+    },
+  );
 
-  step('5. Ridge: results through the XLSX workbook (download, fill, upload) and submit', async () => {
-    const page = await e.page();
-    await e.signIn(page, 'contact@ridge.test', 'ridge lab password 2027');
-    await receiptAndCheck(page);
-    const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('template-link').click()]);
-    const wb = new ExcelJS.Workbook();
-    await wb.xlsx.load((await readFile((await download.path())!)) as unknown as ArrayBuffer);
-    const values: Record<string, number[]> = { 'A z_average': [99.4, 99.8, 99.6], 'A pdi': [0.049, 0.051, 0.05], 'B z_average': [59.6, 59.9, 59.7], 'B pdi': [0.078, 0.08, 0.082] };
-    const results = wb.getWorksheet('Results')!;
-    results.eachRow((row, r) => {
-      if (r === 1) return;
-      const v = values[`${String(row.getCell(1).value)} ${String(row.getCell(2).value)}`]!;
-      v.forEach((x, k) => (row.getCell(5 + k).value = x));
-    });
-    const cond = wb.getWorksheet('Conditions')!;
-    const headers: string[] = [];
-    cond.getRow(1).eachCell((c, i) => (headers[i] = String(c.value)));
-    cond.eachRow((row, r) => {
-      if (r === 1) return;
-      row.getCell(headers.indexOf('Instrument')).value = 'Sizer One';
-      row.getCell(headers.indexOf('Viscosity (mPa·s)')).value = 0.89;
-    });
-    const file = join(tmpdir(), `ringlet-${randomUUID()}.xlsx`);
-    writeFileSync(file, Buffer.from(await wb.xlsx.writeBuffer()));
-    await page.locator('input[type="file"][accept=".xlsx"]').setInputFiles(file);
-    await page.getByText(/Workbook read into the draft/).waitFor();
-    // the page reloads the draft the workbook filled
-    await page.waitForFunction(() => (document.querySelector('[data-testid="rep-B-z_average-2"]') as HTMLInputElement | null)?.value === '59.9');
-    await page.getByTestId('submit').click();
-    await page.getByTestId('submit-message').filter({ hasText: 'Version 1 submitted.' }).waitFor();
-  });
+  step(
+    '5. Ridge: results through the XLSX workbook (download, fill, upload) and submit',
+    async () => {
+      const page = await e.page();
+      await e.signIn(page, 'contact@ridge.test', 'ridge lab password 2027');
+      await receiptAndCheck(page);
+      const [download] = await Promise.all([
+        page.waitForEvent('download'),
+        page.getByTestId('template-link').click(),
+      ]);
+      const wb = new ExcelJS.Workbook();
+      await wb.xlsx.load((await readFile((await download.path())!)) as unknown as ArrayBuffer);
+      const values: Record<string, number[]> = {
+        'A z_average': [99.4, 99.8, 99.6],
+        'A pdi': [0.049, 0.051, 0.05],
+        'B z_average': [59.6, 59.9, 59.7],
+        'B pdi': [0.078, 0.08, 0.082],
+      };
+      const results = wb.getWorksheet('Results')!;
+      results.eachRow((row, r) => {
+        if (r === 1) return;
+        const v = values[`${String(row.getCell(1).value)} ${String(row.getCell(2).value)}`]!;
+        v.forEach((x, k) => (row.getCell(5 + k).value = x));
+      });
+      const cond = wb.getWorksheet('Conditions')!;
+      const headers: string[] = [];
+      cond.getRow(1).eachCell((c, i) => (headers[i] = String(c.value)));
+      cond.eachRow((row, r) => {
+        if (r === 1) return;
+        row.getCell(headers.indexOf('Instrument')).value = 'Sizer One';
+        row.getCell(headers.indexOf('Viscosity (mPa·s)')).value = 0.89;
+      });
+      const file = join(tmpdir(), `ringlet-${randomUUID()}.xlsx`);
+      writeFileSync(file, Buffer.from(await wb.xlsx.writeBuffer()));
+      await page.locator('input[type="file"][accept=".xlsx"]').setInputFiles(file);
+      await page.getByText(/Workbook read into the draft/).waitFor();
+      // the page reloads the draft the workbook filled
+      await page.waitForFunction(
+        () =>
+          (document.querySelector('[data-testid="rep-B-z_average-2"]') as HTMLInputElement | null)
+            ?.value === '59.9',
+      );
+      await page.getByTestId('submit').click();
+      await page
+        .getByTestId('submit-message')
+        .filter({ hasText: 'Version 1 submitted.' })
+        .waitFor();
+    },
+  );
 
   step('6. eleven more labs record a check and submit through the API (one blunder)', async () => {
-    const items = await e.ds.getRepository(TestItem).find({ where: { roundId }, order: { position: 'ASC' } });
-    const ms = await e.ds.getRepository(Measurand).find({ where: { roundId }, order: { position: 'ASC' } });
+    const items = await e.ds
+      .getRepository(TestItem)
+      .find({ where: { roundId }, order: { position: 'ASC' } });
+    const ms = await e.ds
+      .getRepository(Measurand)
+      .find({ where: { roundId }, order: { position: 'ASC' } });
     const z = ms.find((m) => m.key === 'z_average')!;
     const p = ms.find((m) => m.key === 'pdi')!;
     for (const [k, b] of bulk.entries()) {
@@ -384,7 +506,11 @@ describe('the whole loop in a real browser', () => {
           testItemId: item.id,
           results: [
             { measurandId: z.id, replicates: runs(ii === 0 ? zA : zB), uncertainty: null },
-            { measurandId: p.id, replicates: pdiRuns(ii === 0 ? pdi : pdi + 0.03), uncertainty: null },
+            {
+              measurandId: p.id,
+              replicates: pdiRuns(ii === 0 ? pdi : pdi + 0.03),
+              uncertainty: null,
+            },
           ],
           conditions: CONDITIONS,
           methodNotes: '',
@@ -393,118 +519,153 @@ describe('the whole loop in a real browser', () => {
         explanation: '',
       };
       await post(b.client!, '/my/instrument-checks', passingCheck('Sizer One')).expect(201);
-      let res = await post(b.client!, `/rounds/${roundId}/submission/submit`, { idempotencyKey: randomUUID(), data });
+      let res = await post(b.client!, `/rounds/${roundId}/submission/submit`, {
+        idempotencyKey: randomUUID(),
+        data,
+      });
       if (res.status === 422 && res.body.error.code === 'warnings_unacknowledged') {
-        data.acknowledgedWarnings = (res.body.error.details as { code: string }[]).map((w) => w.code);
-        res = await post(b.client!, `/rounds/${roundId}/submission/submit`, { idempotencyKey: randomUUID(), data });
+        data.acknowledgedWarnings = (res.body.error.details as { code: string }[]).map(
+          (w) => w.code,
+        );
+        res = await post(b.client!, `/rounds/${roundId}/submission/submit`, {
+          idempotencyKey: randomUUID(),
+          data,
+        });
       }
       expect({ lab: b.lab.name, status: res.status }).toEqual({ lab: b.lab.name, status: 201 });
     }
   });
 
-  step('7. the coordinator closes early (forced, with a reason), evaluates, previews σ_pt, commits and publishes', async () => {
-    const page = coordPage;
-    await page.goto(`/desk/rounds/${roundId}`);
-    await page.getByTestId('move-closed').click();
-    await page.getByRole('dialog').getByRole('textbox', { name: 'Reason' }).fill('All thirteen labs have submitted.');
-    await page.getByRole('dialog').getByRole('checkbox', { name: /Close early, before results are due/ }).check();
-    await page.getByTestId('dialog-confirm').click();
-    await page.getByTestId('round-state').getByText('Closed').waitFor();
-    const closed = await e.ds.getRepository(Round).findOneByOrFail({ id: roundId });
-    expect(closed.state).toBe('closed');
+  step(
+    '7. the coordinator closes early (forced, with a reason), evaluates, previews σ_pt, commits and publishes',
+    async () => {
+      const page = coordPage;
+      await page.goto(`/desk/rounds/${roundId}`);
+      await page.getByTestId('move-closed').click();
+      await page
+        .getByRole('dialog')
+        .getByRole('textbox', { name: 'Reason' })
+        .fill('All thirteen labs have submitted.');
+      await page
+        .getByRole('dialog')
+        .getByRole('checkbox', { name: /Close early, before results are due/ })
+        .check();
+      await page.getByTestId('dialog-confirm').click();
+      await page.getByTestId('round-state').getByText('Closed').waitFor();
+      const closed = await e.ds.getRepository(Round).findOneByOrFail({ id: roundId });
+      expect(closed.state).toBe('closed');
 
-    await page.getByRole('link', { name: 'Consensus board' }).first().click();
-    await page.getByTestId('page-heading').first().waitFor();
-    await page.goto(`/board/rounds/${roundId}/evaluation`);
-    await page.getByTestId('evaluate').click();
-    const sigma = page.getByTestId('sigma-A-z_average');
-    await sigma.waitFor();
-    const before = Number(await sigma.textContent());
-    // robust SD of twelve labs spread over ±2.4 nm around 100 nm (the blunder does not move it much)
-    expect(before).toBeGreaterThan(0.8);
-    expect(before).toBeLessThan(3);
-    await expect(page.getByTestId('action-A-z_average').textContent()).resolves.toBe('1');
-    await axe(page, 'evaluation page');
+      await page.getByRole('link', { name: 'Consensus board' }).first().click();
+      await page.getByTestId('page-heading').first().waitFor();
+      await page.goto(`/board/rounds/${roundId}/evaluation`);
+      await page.getByTestId('evaluate').click();
+      const sigma = page.getByTestId('sigma-A-z_average');
+      await sigma.waitFor();
+      const before = Number(await sigma.textContent());
+      // robust SD of twelve labs spread over ±2.4 nm around 100 nm (the blunder does not move it much)
+      expect(before).toBeGreaterThan(0.8);
+      expect(before).toBeLessThan(3);
+      await expect(page.getByTestId('action-A-z_average').textContent()).resolves.toBe('1');
+      await axe(page, 'evaluation page');
 
-    await page.getByTestId('override-value').fill('10');
-    await page.getByTestId('override-reason').fill('fitness for purpose');
-    await page.getByTestId('add-override').click();
-    await expect(sigma.textContent()).resolves.not.toBe(String(before));
-    const after = Number(await sigma.textContent());
-    expect(after).toBeGreaterThan(9.5); // 10 % of x_pt ≈ 100 nm
-    expect(after).toBeLessThan(10.5);
-    await e.shot(page, 'loop-06-evaluation-preview');
-    // back to the stored rule: the round's robust SD
-    await page.getByRole('button', { name: /Remove σ_pt rule for Z-average/ }).click();
-    await sigma.filter({ hasText: String(before) }).waitFor({ timeout: 10_000 });
-    await expect(sigma.textContent()).resolves.toBe(String(before));
+      await page.getByTestId('override-value').fill('10');
+      await page.getByTestId('override-reason').fill('fitness for purpose');
+      await page.getByTestId('add-override').click();
+      await expect(sigma.textContent()).resolves.not.toBe(String(before));
+      const after = Number(await sigma.textContent());
+      expect(after).toBeGreaterThan(9.5); // 10 % of x_pt ≈ 100 nm
+      expect(after).toBeLessThan(10.5);
+      await e.shot(page, 'loop-06-evaluation-preview');
+      // back to the stored rule: the round's robust SD
+      await page.getByRole('button', { name: /Remove σ_pt rule for Z-average/ }).click();
+      await sigma.filter({ hasText: String(before) }).waitFor({ timeout: 10_000 });
+      await expect(sigma.textContent()).resolves.toBe(String(before));
 
-    await page.getByTestId('save-draft').click();
-    await page.getByTestId('evaluation-message').getByText('Draft saved.').waitFor();
-    await page.getByTestId('commit').click();
-    await page.getByTestId('evaluation-message').getByText('approved for publication').waitFor();
-    await page.getByTestId('publish').click();
-    await page.getByTestId('evaluation-message').getByText(/Published version 1: 13 labs e-mailed/).waitFor();
+      await page.getByTestId('save-draft').click();
+      await page.getByTestId('evaluation-message').getByText('Draft saved.').waitFor();
+      await page.getByTestId('commit').click();
+      await page.getByTestId('evaluation-message').getByText('approved for publication').waitFor();
+      await page.getByTestId('publish').click();
+      await page
+        .getByTestId('evaluation-message')
+        .getByText(/Published version 1: 13 labs e-mailed/)
+        .waitFor();
 
-    await page.goto(`/board/rounds/${roundId}`);
-    await page.locator('.ag-row').first().waitFor();
-    await axe(page, 'Consensus board (coordinator)');
-    await e.shot(page, 'loop-07-consensus-board');
-    await readme(page, 'consensus-board.png');
-    await page.setViewportSize({ width: 1280, height: 860 });
-    expectNoViolations();
-  });
+      await page.goto(`/board/rounds/${roundId}`);
+      await page.locator('.ag-row').first().waitFor();
+      await axe(page, 'Consensus board (coordinator)');
+      await e.shot(page, 'loop-07-consensus-board');
+      await readme(page, 'consensus-board.png');
+      await page.setViewportSize({ width: 1280, height: 860 });
+      expectNoViolations();
+    },
+  );
 
-  step('8. the blundering lab reads its scores, works on the investigation and grants the assessor access', async () => {
-    const b = bulk[BLUNDER]!;
-    const page = await e.page();
-    await e.signIn(page, b.email);
-    await page.goto(`/board/rounds/${roundId}`);
-    await page.locator('.ag-row').first().waitFor();
-    // the signal has a shape and a word, not only a colour
-    const action = page.locator('.ag-row app-signal-badge[data-signal="action"]').first();
-    await expect(action.locator('svg[data-shape="diamond"]').count()).resolves.toBe(1);
-    await expect(action.textContent()).resolves.toContain('Action');
-    const html = await page.content();
-    for (const other of bulk.filter((x) => x !== b)) expect(html).not.toContain(other.lab.name);
-    await axe(page, 'Consensus board (lab)');
+  step(
+    '8. the blundering lab reads its scores, works on the investigation and grants the assessor access',
+    async () => {
+      const b = bulk[BLUNDER]!;
+      const page = await e.page();
+      await e.signIn(page, b.email);
+      await page.goto(`/board/rounds/${roundId}`);
+      await page.locator('.ag-row').first().waitFor();
+      // the signal has a shape and a word, not only a colour
+      const action = page.locator('.ag-row app-signal-badge[data-signal="action"]').first();
+      await expect(action.locator('svg[data-shape="diamond"]').count()).resolves.toBe(1);
+      await expect(action.textContent()).resolves.toContain('Action');
+      const html = await page.content();
+      for (const other of bulk.filter((x) => x !== b)) expect(html).not.toContain(other.lab.name);
+      await axe(page, 'Consensus board (lab)');
 
-    await page.goto(`/board/rounds/${roundId}/scores`);
-    const card = page.getByTestId('score-A-z_average');
-    await card.waitFor();
-    await expect(card.textContent()).resolves.toMatch(/Action signal/);
-    await expect(card.locator('app-signal-badge[data-signal="action"] svg[data-shape="diamond"]').count()).resolves.toBe(1);
-    await expect(card.locator('app-signal-badge[data-signal="action"] .word').textContent()).resolves.toMatch(/Action/);
-    await axe(page, 'score page');
-    await e.shot(page, 'loop-08-lab-scores');
-    await readme(page, 'lab-scores.png');
-    await page.setViewportSize({ width: 1280, height: 860 });
+      await page.goto(`/board/rounds/${roundId}/scores`);
+      const card = page.getByTestId('score-A-z_average');
+      await card.waitFor();
+      await expect(card.textContent()).resolves.toMatch(/Action signal/);
+      await expect(
+        card.locator('app-signal-badge[data-signal="action"] svg[data-shape="diamond"]').count(),
+      ).resolves.toBe(1);
+      await expect(
+        card.locator('app-signal-badge[data-signal="action"] .word').textContent(),
+      ).resolves.toMatch(/Action/);
+      await axe(page, 'score page');
+      await e.shot(page, 'loop-08-lab-scores');
+      await readme(page, 'lab-scores.png');
+      await page.setViewportSize({ width: 1280, height: 860 });
 
-    await card.getByRole('link', { name: 'Open the investigation' }).click();
-    await page.getByTestId('page-heading').getByText('Investigation').waitFor();
-    await page.getByTestId('cause').click();
-    await page.getByRole('option').first().click();
-    await page.getByLabel('Root cause').fill('The cuvette was not rinsed; dust from the previous sample.');
-    await page.getByLabel('Corrective action').fill('Rinse and filter every cuvette; added to the method.');
-    await page.getByRole('button', { name: 'Save' }).click();
-    await page.getByRole('status').filter({ hasText: /saved/i }).waitFor();
-    await axe(page, 'investigation detail');
-    await e.shot(page, 'loop-09-investigation');
-    const invs = await e.ds.getRepository(Investigation).findBy({ organisationId: b.lab.id });
-    expect(invs.map((i) => i.rootCause)).toContain('The cuvette was not rinsed; dust from the previous sample.');
+      await card.getByRole('link', { name: 'Open the investigation' }).click();
+      await page.getByTestId('page-heading').getByText('Investigation').waitFor();
+      await page.getByTestId('cause').click();
+      await page.getByRole('option').first().click();
+      await page
+        .getByLabel('Root cause')
+        .fill('The cuvette was not rinsed; dust from the previous sample.');
+      await page
+        .getByLabel('Corrective action')
+        .fill('Rinse and filter every cuvette; added to the method.');
+      await page.getByRole('button', { name: 'Save' }).click();
+      await page.getByRole('status').filter({ hasText: /saved/i }).waitFor();
+      await axe(page, 'investigation detail');
+      await e.shot(page, 'loop-09-investigation');
+      const invs = await e.ds.getRepository(Investigation).findBy({ organisationId: b.lab.id });
+      expect(invs.map((i) => i.rootCause)).toContain(
+        'The cuvette was not rinsed; dust from the previous sample.',
+      );
 
-    await page.goto('/board/investigations');
-    await page.getByRole('link', { name: ROUND }).first().waitFor();
-    await axe(page, 'investigations list');
-    await page.goto('/bench/track-record');
-    await page.getByTestId('page-heading').first().waitFor();
-    await page.waitForLoadState('networkidle');
-    await axe(page, 'Track record');
+      await page.goto('/board/investigations');
+      await page.getByRole('link', { name: ROUND }).first().waitFor();
+      await axe(page, 'investigations list');
+      await page.goto('/bench/track-record');
+      await page.getByTestId('page-heading').first().waitFor();
+      await page.waitForLoadState('networkidle');
+      await axe(page, 'Track record');
 
-    // the lab manager grants the assessor (no page for it yet: through the API)
-    await post(b.client!, `/labs/${b.lab.id}/assessor-grants`, { email: 'asa@wl.test' }).expect(201);
-    expectNoViolations();
-  });
+      // the lab manager grants the assessor (no page for it yet: through the API)
+      await post(b.client!, `/labs/${b.lab.id}/assessor-grants`, { email: 'asa@wl.test' }).expect(
+        201,
+      );
+      expectNoViolations();
+    },
+  );
 
   step('9. the assessor downloads the Evidence pack of the granting lab', async () => {
     const b = bulk[BLUNDER]!;
@@ -516,9 +677,14 @@ describe('the whole loop in a real browser', () => {
     await page.getByTestId('round').first().waitFor();
     await axe(page, 'assessor lab page');
     await e.shot(page, 'loop-10-assessor-lab');
-    const [download] = await Promise.all([page.waitForEvent('download', { timeout: 60_000 }), page.getByTestId('download-evidence').click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent('download', { timeout: 60_000 }),
+      page.getByTestId('download-evidence').click(),
+    ]);
     const zip = await JSZip.loadAsync(await readFile((await download.path())!));
-    const manifest = JSON.parse(await zip.file('manifest.json')!.async('string')) as { files: { path: string }[] };
+    const manifest = JSON.parse(await zip.file('manifest.json')!.async('string')) as {
+      files: { path: string }[];
+    };
     expect(manifest.files.length).toBeGreaterThan(0);
     expect(JSON.stringify(manifest)).toContain(ROUND);
     expectNoViolations();
@@ -545,7 +711,9 @@ describe('the whole loop in a real browser', () => {
     await page.getByRole('dialog').getByRole('button', { name: 'Save' }).click();
     await page.getByRole('dialog').waitFor({ state: 'detached' });
     await page.locator('ag-grid-angular').getByText('Inactive').waitFor();
-    expect((await e.ds.getRepository(User).findOneByOrFail({ email: 'leaving@wl.test' })).isActive).toBe(false);
+    expect(
+      (await e.ds.getRepository(User).findOneByOrFail({ email: 'leaving@wl.test' })).isActive,
+    ).toBe(false);
     await page.getByLabel('Filter').fill('');
     await axe(page, 'admin users');
     await e.shot(page, 'loop-11-admin-users');

@@ -19,11 +19,14 @@ export { forgetSessionUser, forgetSessionUsers, SESSION_USER_TTL_MS } from './se
 export function createPassport(ds: DataSource): Authenticator {
   const p = new Passport();
   p.use(
-    new LocalStrategy({ usernameField: 'email', passwordField: 'password', session: false }, (email, password, done) => {
-      verifyPassword(ds.manager, email, password)
-        .then((user) => done(null, (user ?? false) as Express.User | false))
-        .catch(done);
-    }),
+    new LocalStrategy(
+      { usernameField: 'email', passwordField: 'password', session: false },
+      (email, password, done) => {
+        verifyPassword(ds.manager, email, password)
+          .then((user) => done(null, (user ?? false) as Express.User | false))
+          .catch(done);
+      },
+    ),
   );
   p.serializeUser((user, done) => done(null, (user as Express.User).id));
   p.deserializeUser((id: string, done) => {
@@ -56,7 +59,11 @@ export function actingLab(req: Request, _res: Response, next: () => void): void 
 }
 
 /** Runs the local strategy on the (already validated) body: the matching user, or null. */
-export function authenticateLocal(p: Authenticator, req: Request, res: Response): Promise<User | null> {
+export function authenticateLocal(
+  p: Authenticator,
+  req: Request,
+  res: Response,
+): Promise<User | null> {
   return new Promise((resolve, reject) => {
     p.authenticate('local', { session: false }, (err: unknown, user: User | false) => {
       if (err) reject(err);

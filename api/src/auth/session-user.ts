@@ -23,7 +23,14 @@ declare global {
 }
 
 export function toMe(u: SessionUser): Me {
-  return { id: u.id, email: u.email, name: u.name, roles: u.roles, memberships: u.memberships, actingLabId: u.actingLabId };
+  return {
+    id: u.id,
+    email: u.email,
+    name: u.name,
+    roles: u.roles,
+    memberships: u.memberships,
+    actingLabId: u.actingLabId,
+  };
 }
 
 /**
@@ -37,7 +44,8 @@ export function labIds(u: SessionUser): string[] {
 
 /** The same user acting for `labId` when it is one of their labs (a copy: cached users are shared). */
 export function actingFor(u: SessionUser, labId: string | undefined): SessionUser {
-  if (!labId || labId === u.actingLabId || !u.memberships.some((m) => m.organisationId === labId)) return u;
+  if (!labId || labId === u.actingLabId || !u.memberships.some((m) => m.organisationId === labId))
+    return u;
   return { ...u, actingLabId: labId };
 }
 

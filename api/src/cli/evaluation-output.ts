@@ -62,7 +62,8 @@ export function ptJson(round: RoundEvaluation): PtJson {
 /** Plain-language notes for stderr, one per evaluation warning. */
 export function ptWarnings(round: RoundEvaluation): string[] {
   const text: Record<string, string> = {
-    'few-results': 'fewer than 12 results: a robust consensus is weak; consider a reference value or a fixed σ_pt',
+    'few-results':
+      'fewer than 12 results: a robust consensus is weak; consider a reference value or a fixed σ_pt',
     'too-few-values': 'fewer than 3 results: Algorithm A was not run (x* = median)',
     'zero-spread': 's* = 0 (half or more of the results identical): choose σ_pt with --sigma-pt',
     'not-converged': 'Algorithm A did not converge in 1000 iterations',
@@ -97,7 +98,10 @@ export function fixed2(v: number | null): string {
 export function textTable(head: string[], rows: string[][], numeric: boolean[]): string {
   const widths = head.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
   const line = (cells: string[]) =>
-    cells.map((c, i) => (numeric[i] ? c.padStart(widths[i]) : c.padEnd(widths[i]))).join('  ').trimEnd();
+    cells
+      .map((c, i) => (numeric[i] ? c.padStart(widths[i]) : c.padEnd(widths[i])))
+      .join('  ')
+      .trimEnd();
   return [line(head), widths.map((w) => '-'.repeat(w)).join('  '), ...rows.map(line)].join('\n');
 }
 
@@ -107,7 +111,13 @@ export function ptTable(doc: PtJson): string {
       `${e.item} / ${e.measurand}: p = ${e.n}, x_pt = ${fmt(e.assignedValue)} (Algorithm A, ${e.iterations} iterations), ` +
       `s* = ${fmt(e.robustSd)}, u(x_pt) = ${fmt(e.uAssigned)}, σ_pt = ${fmt(e.sigmaPt)}, ` +
       `u(x_pt) ${e.uNegligible === null ? '–' : e.uNegligible ? 'negligible' : 'NOT negligible (signal from z′)'}`;
-    const rows = e.participants.map((p) => [p.code, fmt(p.result), fixed2(p.z), fixed2(p.zPrime), p.signal ?? '–']);
+    const rows = e.participants.map((p) => [
+      p.code,
+      fmt(p.result),
+      fixed2(p.z),
+      fixed2(p.zPrime),
+      p.signal ?? '–',
+    ]);
     return `${title}\n${textTable(['participant', 'result', 'z', 'z′', 'signal'], rows, [false, true, true, true, false])}`;
   });
   return blocks.join('\n\n') + '\n';
@@ -145,8 +155,24 @@ export function precisionTable(doc: PrecisionJson): string {
       }
     }
     for (const w of e.warnings) lines.push(`  note: ${w}`);
-    const rows = e.cells.map((c) => [c.code, String(c.n), fmt(c.mean), fmt(c.sd), fmt(c.h, 3), fmt(c.k, 3)]);
-    lines.push(textTable(['participant', 'n', 'mean', 'sd', 'h', 'k'], rows, [false, true, true, true, true, true]));
+    const rows = e.cells.map((c) => [
+      c.code,
+      String(c.n),
+      fmt(c.mean),
+      fmt(c.sd),
+      fmt(c.h, 3),
+      fmt(c.k, 3),
+    ]);
+    lines.push(
+      textTable(['participant', 'n', 'mean', 'sd', 'h', 'k'], rows, [
+        false,
+        true,
+        true,
+        true,
+        true,
+        true,
+      ]),
+    );
     return lines.join('\n');
   });
   return blocks.join('\n\n') + '\n';

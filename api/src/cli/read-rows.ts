@@ -29,13 +29,17 @@ const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 export async function readTable(file: string): Promise<RawTable> {
   const ext = extname(file).toLowerCase();
   if (ext !== '.csv' && ext !== '.xlsx') {
-    throw new CliInputError(`${file}: unsupported file type "${ext || '(none)'}" (use .csv or .xlsx)`);
+    throw new CliInputError(
+      `${file}: unsupported file type "${ext || '(none)'}" (use .csv or .xlsx)`,
+    );
   }
   let bytes: Buffer;
   try {
     bytes = await readFile(file);
   } catch (e) {
-    throw new CliInputError(`${file}: cannot be read (${(e as NodeJS.ErrnoException).code ?? String(e)})`);
+    throw new CliInputError(
+      `${file}: cannot be read (${(e as NodeJS.ErrnoException).code ?? String(e)})`,
+    );
   }
   return ext === '.csv' ? csvTable(file, bytes.toString('utf8')) : xlsxTable(file, bytes);
 }
@@ -71,7 +75,8 @@ async function xlsxTable(file: string, bytes: Buffer): Promise<RawTable> {
     if (header === null) header = cells.map((v) => (v === null ? '' : String(v)));
     else rows.push({ row: rowNumber, cells });
   });
-  if (header === null) throw new CliInputError(`${file}: worksheet "${ws.name}" is empty (no header row)`);
+  if (header === null)
+    throw new CliInputError(`${file}: worksheet "${ws.name}" is empty (no header row)`);
   return { header, rows };
 }
 
@@ -126,7 +131,11 @@ export function toResultRows(table: RawTable, file = 'input'): ResultRow[] {
       if (t === '') throw new CliInputError(`${file}, row ${r.row}, column "${name}": empty`);
       return t;
     };
-    const num = (name: 'value' | 'uncertainty' | 'k', i: number, optional: boolean): number | undefined => {
+    const num = (
+      name: 'value' | 'uncertainty' | 'k',
+      i: number,
+      optional: boolean,
+    ): number | undefined => {
       const raw = i < r.cells.length ? r.cells[i] : null;
       if (typeof raw === 'number') {
         if (Number.isFinite(raw)) return raw;
@@ -152,18 +161,28 @@ export function toResultRows(table: RawTable, file = 'input'): ResultRow[] {
       );
     }
     seen.set(key, r.row);
-    const row: { -readonly [K in keyof ResultRow]: ResultRow[K] } = { participant, item, measurand, replicate, value };
+    const row: { -readonly [K in keyof ResultRow]: ResultRow[K] } = {
+      participant,
+      item,
+      measurand,
+      replicate,
+      value,
+    };
     if (idx.uncertainty >= 0) {
       const u = num('uncertainty', idx.uncertainty, true);
       if (u !== undefined) {
-        if (u < 0) throw new CliInputError(`${file}, row ${r.row}, column "uncertainty": must not be negative`);
+        if (u < 0)
+          throw new CliInputError(
+            `${file}, row ${r.row}, column "uncertainty": must not be negative`,
+          );
         row.uncertainty = u;
       }
     }
     if (idx.k >= 0) {
       const k = num('k', idx.k, true);
       if (k !== undefined) {
-        if (!(k > 0)) throw new CliInputError(`${file}, row ${r.row}, column "k": must be positive`);
+        if (!(k > 0))
+          throw new CliInputError(`${file}, row ${r.row}, column "k": must be positive`);
         row.k = k;
       }
     }

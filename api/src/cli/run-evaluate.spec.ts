@@ -21,11 +21,27 @@ describe('evaluate command, --mode pt', () => {
     expect(doc.evaluations).toHaveLength(2);
     const e = doc.evaluations[0];
     expect(Object.keys(e)).toEqual([
-      'item', 'measurand', 'n', 'method', 'iterations', 'assignedValue', 'robustSd', 'uAssigned', 'sigmaPt', 'uNegligible', 'participants',
+      'item',
+      'measurand',
+      'n',
+      'method',
+      'iterations',
+      'assignedValue',
+      'robustSd',
+      'uAssigned',
+      'sigmaPt',
+      'uNegligible',
+      'participants',
     ]);
     expect(Object.keys(e.participants[0])).toEqual(['code', 'result', 'z', 'zPrime', 'signal']);
     const a = algorithmA(zAverageMeans);
-    expect(e).toMatchObject({ item: 'A', measurand: 'z-average', n: 6, method: 'algorithm-a', iterations: a.iterations });
+    expect(e).toMatchObject({
+      item: 'A',
+      measurand: 'z-average',
+      n: 6,
+      method: 'algorithm-a',
+      iterations: a.iterations,
+    });
     expect(e.assignedValue).toBeCloseTo(a.robustMean, 12);
     expect(e.robustSd).toBeCloseTo(a.robustSd, 12);
     expect(e.uAssigned).toBeCloseTo((1.25 * a.robustSd) / Math.sqrt(6), 12);
@@ -40,10 +56,17 @@ describe('evaluate command, --mode pt', () => {
   });
 
   it('--sigma-pt fixed and percent', async () => {
-    const fixed = JSON.parse((await runEvaluate([fx('small-round.csv'), '--sigma-pt', '2'])).stdout) as PtJson;
+    const fixed = JSON.parse(
+      (await runEvaluate([fx('small-round.csv'), '--sigma-pt', '2'])).stdout,
+    ) as PtJson;
     expect(fixed.evaluations[0].sigmaPt).toBe(2);
-    expect(fixed.evaluations[0].participants[0].z).toBeCloseTo((102 - fixed.evaluations[0].assignedValue) / 2, 12);
-    const pct = JSON.parse((await runEvaluate([fx('small-round.csv'), '--sigma-pt=3%'])).stdout) as PtJson;
+    expect(fixed.evaluations[0].participants[0].z).toBeCloseTo(
+      (102 - fixed.evaluations[0].assignedValue) / 2,
+      12,
+    );
+    const pct = JSON.parse(
+      (await runEvaluate([fx('small-round.csv'), '--sigma-pt=3%'])).stdout,
+    ) as PtJson;
     const e = pct.evaluations[0];
     expect(e.sigmaPt).toBeCloseTo(0.03 * e.assignedValue, 12);
   });
@@ -89,7 +112,11 @@ describe('evaluate command, --mode precision', () => {
   });
 
   it('table format', async () => {
-    const out = await runEvaluate([fx('precision-study.csv'), '--mode=precision', '--format=table']);
+    const out = await runEvaluate([
+      fx('precision-study.csv'),
+      '--mode=precision',
+      '--format=table',
+    ]);
     expect(out.exitCode).toBe(0);
     expect(out.stdout).toMatch(/s_r = 0\.186/);
     expect(out.stdout).toMatch(/^R2\s+3\s+61\.1000/m);
@@ -118,14 +145,18 @@ describe('evaluate command, bad input → exit code 2 with row and column named'
   it('the real process exits with code 2 and prints the message (npx tsx)', async () => {
     const run = promisify(execFile);
     const root = join(__dirname, '..', '..', '..');
-    const err = await run('npx', ['tsx', 'api/src/cli/evaluate.ts', fx('bad-value.csv')], { cwd: root }).then(
+    const err = await run('npx', ['tsx', 'api/src/cli/evaluate.ts', fx('bad-value.csv')], {
+      cwd: root,
+    }).then(
       () => null,
       (e: { code: number; stderr: string; stdout: string }) => e,
     );
     expect(err).not.toBeNull();
     expect(err!.code).toBe(2);
     expect(err!.stderr).toMatch(/row 3, column "value"/);
-    const ok = await run('npx', ['tsx', 'api/src/cli/evaluate.ts', fx('small-round.csv')], { cwd: root });
+    const ok = await run('npx', ['tsx', 'api/src/cli/evaluate.ts', fx('small-round.csv')], {
+      cwd: root,
+    });
     expect((JSON.parse(ok.stdout) as PtJson).evaluations[0].n).toBe(6);
   }, 30000);
 });

@@ -22,8 +22,13 @@ export interface CommandOutput {
 }
 
 /** Groups rows per item × measurand into ISO 5725-2 cells (one per participant), input order. */
-export function precisionCells(rows: readonly ResultRow[]): { item: string; measurand: string; cells: { code: string; values: number[] }[] }[] {
-  const groups = new Map<string, { item: string; measurand: string; byCode: Map<string, number[]> }>();
+export function precisionCells(
+  rows: readonly ResultRow[],
+): { item: string; measurand: string; cells: { code: string; values: number[] }[] }[] {
+  const groups = new Map<
+    string,
+    { item: string; measurand: string; byCode: Map<string, number[]> }
+  >();
   for (const r of rows) {
     const key = r.item + '\u0000' + r.measurand;
     let g = groups.get(key);
@@ -73,8 +78,14 @@ export async function runEvaluate(argv: readonly string[]): Promise<CommandOutpu
       stderr: '',
     };
   } catch (e) {
-    if (e instanceof CliInputError) return { exitCode: 2, stdout: '', stderr: `evaluate: ${e.message}\n` };
-    if (e instanceof RangeError) return { exitCode: 2, stdout: '', stderr: `evaluate: ${e.message}\n` };
-    return { exitCode: 1, stdout: '', stderr: `evaluate: unexpected failure: ${(e as Error).stack ?? String(e)}\n` };
+    if (e instanceof CliInputError)
+      return { exitCode: 2, stdout: '', stderr: `evaluate: ${e.message}\n` };
+    if (e instanceof RangeError)
+      return { exitCode: 2, stdout: '', stderr: `evaluate: ${e.message}\n` };
+    return {
+      exitCode: 1,
+      stdout: '',
+      stderr: `evaluate: unexpected failure: ${(e as Error).stack ?? String(e)}\n`,
+    };
   }
 }

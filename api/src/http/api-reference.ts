@@ -1,7 +1,20 @@
 /** A readable API reference page rendered on the server from the OpenAPI document (no scripts). */
 interface Doc {
   info: { title: string; version: string; description?: string };
-  paths: Record<string, Record<string, { summary?: string; description?: string; tags?: string[]; requestBody?: unknown; parameters?: unknown[]; responses?: Record<string, unknown> }>>;
+  paths: Record<
+    string,
+    Record<
+      string,
+      {
+        summary?: string;
+        description?: string;
+        tags?: string[];
+        requestBody?: unknown;
+        parameters?: unknown[];
+        responses?: Record<string, unknown>;
+      }
+    >
+  >;
 }
 
 const esc = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
@@ -11,15 +24,21 @@ export function renderApiReference(doc: Doc): string {
   for (const [path, ops] of Object.entries(doc.paths)) {
     for (const [method, op] of Object.entries(ops)) {
       const tag = op.tags?.[0] ?? 'other';
-      const body = op.requestBody ? `<details><summary>Request body</summary><pre>${esc(JSON.stringify(op.requestBody, null, 2))}</pre></details>` : '';
-      const params = op.parameters?.length ? `<details><summary>Parameters</summary><pre>${esc(JSON.stringify(op.parameters, null, 2))}</pre></details>` : '';
+      const body = op.requestBody
+        ? `<details><summary>Request body</summary><pre>${esc(JSON.stringify(op.requestBody, null, 2))}</pre></details>`
+        : '';
+      const params = op.parameters?.length
+        ? `<details><summary>Parameters</summary><pre>${esc(JSON.stringify(op.parameters, null, 2))}</pre></details>`
+        : '';
       const responses = `<details><summary>Responses: ${Object.keys(op.responses ?? {}).join(', ')}</summary><pre>${esc(JSON.stringify(op.responses, null, 2))}</pre></details>`;
       const html = `<section class="op" id="${esc(method + path)}"><h3><span class="m m-${method}">${method.toUpperCase()}</span> <code>${esc(path)}</code></h3><p>${esc(op.summary ?? '')}</p><p class="d">${esc(op.description ?? '').replace(/\n\n/g, '<br>')}</p>${params}${body}${responses}</section>`;
       byTag.set(tag, [...(byTag.get(tag) ?? []), html]);
     }
   }
   const toc = [...byTag.keys()].map((t) => `<a href="#tag-${esc(t)}">${esc(t)}</a>`).join(' · ');
-  const sections = [...byTag.entries()].map(([t, ops]) => `<h2 id="tag-${esc(t)}">${esc(t)}</h2>${ops.join('')}`).join('');
+  const sections = [...byTag.entries()]
+    .map(([t, ops]) => `<h2 id="tag-${esc(t)}">${esc(t)}</h2>${ops.join('')}`)
+    .join('');
   return `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>${esc(doc.info.title)} reference</title><meta name="viewport" content="width=device-width, initial-scale=1"><link rel="stylesheet" href="/api/docs.css"></head><body><header><h1>${esc(doc.info.title)} <small>${esc(doc.info.version)}</small></h1><p>${esc(doc.info.description ?? '')}</p><p>Machine-readable: <a href="/api/v1/openapi.json">/api/v1/openapi.json</a></p><nav>${toc}</nav></header><main>${sections}</main></body></html>`;
 }
 

@@ -1,5 +1,13 @@
 import type { Role } from '../../../shared/contracts/auth';
-import { client, createLab, createUser, signedIn, startTestApp, type Client, type TestApp } from '../testing/test-app';
+import {
+  client,
+  createLab,
+  createUser,
+  signedIn,
+  startTestApp,
+  type Client,
+  type TestApp,
+} from '../testing/test-app';
 
 /**
  * Walks every route the app declares: anonymous callers get 401 on everything that is not public,
@@ -22,7 +30,10 @@ describe('authorization of every route', () => {
   afterAll(() => t.close());
 
   const fill = (path: string) =>
-    '/api/v1' + path.replace(/\{(\w+)\}/g, (_m, name: string) => (name === 'token' ? 'x'.repeat(43) : '00000000-0000-4000-8000-000000000000'));
+    '/api/v1' +
+    path.replace(/\{(\w+)\}/g, (_m, name: string) =>
+      name === 'token' ? 'x'.repeat(43) : '00000000-0000-4000-8000-000000000000',
+    );
 
   it('declares a healthy number of routes', () => {
     expect(t.routes.length).toBeGreaterThan(15);
@@ -33,7 +44,10 @@ describe('authorization of every route', () => {
     const checked: string[] = [];
     for (const r of t.routes.filter((x) => x.access !== 'public')) {
       const res = await anon.agent[r.method](fill(r.path)).set('x-csrf-token', anon.csrf).send({});
-      expect({ route: `${r.method} ${r.path}`, status: res.status }).toEqual({ route: `${r.method} ${r.path}`, status: 401 });
+      expect({ route: `${r.method} ${r.path}`, status: res.status }).toEqual({
+        route: `${r.method} ${r.path}`,
+        status: 401,
+      });
       checked.push(r.path);
     }
     expect(checked.length).toBeGreaterThan(10);
@@ -47,7 +61,12 @@ describe('authorization of every route', () => {
       for (const [role, c] of clients) {
         if (access.includes(role)) continue;
         const res = await c.agent[r.method](fill(r.path)).set('x-csrf-token', c.csrf).send({});
-        expect({ route: `${r.method} ${r.path}`, role, status: res.status, code: res.body?.error?.code }).toEqual({
+        expect({
+          route: `${r.method} ${r.path}`,
+          role,
+          status: res.status,
+          code: res.body?.error?.code,
+        }).toEqual({
           route: `${r.method} ${r.path}`,
           role,
           status: 403,

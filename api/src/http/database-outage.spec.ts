@@ -3,7 +3,13 @@ import request from 'supertest';
 import type { DataSource } from 'typeorm';
 import { createDataSource } from '../../../db/data-source';
 import { createApp, type RingletApp } from '../app';
-import { createUser, startTestApp, testConfig, TEST_PASSWORD, type TestApp } from '../testing/test-app';
+import {
+  createUser,
+  startTestApp,
+  testConfig,
+  TEST_PASSWORD,
+  type TestApp,
+} from '../testing/test-app';
 import { DATABASE_RETRY_AFTER_SECONDS } from './errors';
 
 jest.setTimeout(120_000);
@@ -58,7 +64,12 @@ describe('database outage: 503 with a retry hint, health follows, recovery witho
     const url = new URL(t.db.url);
     url.port = String(proxy.port);
     ds = await createDataSource(url.toString()).initialize();
-    app = createApp({ ds, config: testConfig(), mailer: t.mailer, log: (msg) => unhandled.push(msg) });
+    app = createApp({
+      ds,
+      config: testConfig(),
+      mailer: t.mailer,
+      log: (msg) => unhandled.push(msg),
+    });
   });
   afterAll(async () => {
     await proxy.cut();
@@ -69,7 +80,11 @@ describe('database outage: 503 with a retry hint, health follows, recovery witho
   async function signIn() {
     const agent = request.agent(app.app);
     let csrf = (await agent.get('/api/v1/auth/csrf-token').expect(200)).body.token as string;
-    await agent.post('/api/v1/auth/sign-in').set('x-csrf-token', csrf).send({ email: 'outage@x.test', password: TEST_PASSWORD }).expect(200);
+    await agent
+      .post('/api/v1/auth/sign-in')
+      .set('x-csrf-token', csrf)
+      .send({ email: 'outage@x.test', password: TEST_PASSWORD })
+      .expect(200);
     csrf = (await agent.get('/api/v1/auth/csrf-token').expect(200)).body.token as string;
     return { agent, csrf };
   }
@@ -100,7 +115,9 @@ describe('database outage: 503 with a retry hint, health follows, recovery witho
     // While it is down: a request with a session cookie, a state-changing request, the health checks.
     expectUnavailable(await agent.get('/api/v1/auth/me'));
     expectUnavailable(await agent.post('/api/v1/auth/sign-out').set('x-csrf-token', csrf).send({}));
-    const anonymous = await request(app.app).post('/api/v1/auth/sign-in').send({ email: 'outage@x.test', password: TEST_PASSWORD });
+    const anonymous = await request(app.app)
+      .post('/api/v1/auth/sign-in')
+      .send({ email: 'outage@x.test', password: TEST_PASSWORD });
     expect([403, 503]).toContain(anonymous.status); // no session to carry a CSRF token; never 500
     const down = await request(app.app).get('/api/v1/health');
     expect(down.status).toBe(503);
@@ -122,6 +139,10 @@ describe('database outage: 503 with a retry hint, health follows, recovery witho
     expect(status).toBe(200);
     const me = await agent.get('/api/v1/auth/me').expect(200);
     expect(me.body.email).toBe('outage@x.test');
-    await agent.post('/api/v1/auth/sign-out').set('x-csrf-token', csrf).send({}).expect((r) => expect(r.status).toBeLessThan(300));
+    await agent
+      .post('/api/v1/auth/sign-out')
+      .set('x-csrf-token', csrf)
+      .send({})
+      .expect((r) => expect(r.status).toBeLessThan(300));
   });
 });

@@ -19,7 +19,8 @@ export const badRequest = (message: string, details?: FieldIssue[]) =>
 export const unauthorized = () => new HttpError(401, 'unauthenticated', 'Sign in to continue.');
 export const forbidden = (message = 'Your role does not allow this.') =>
   new HttpError(403, 'forbidden', message);
-export const notFound = (what = 'The resource') => new HttpError(404, 'not_found', `${what} was not found.`);
+export const notFound = (what = 'The resource') =>
+  new HttpError(404, 'not_found', `${what} was not found.`);
 export const conflict = (code: string, message: string) => new HttpError(409, code, message);
 export const ruleBroken = (code: string, message: string, details?: unknown) =>
   new HttpError(422, code, message, details);
@@ -36,13 +37,24 @@ export function fieldIssues(error: ZodError, prefix?: string): FieldIssue[] {
 export const DATABASE_RETRY_AFTER_SECONDS = 5;
 
 // Node socket errors when PostgreSQL (or the network to it) is gone.
-const NETWORK_CODES = new Set(['ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'EHOSTUNREACH', 'ENETUNREACH', 'ENOTFOUND', 'EAI_AGAIN', 'ECONNABORTED']);
+const NETWORK_CODES = new Set([
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'EPIPE',
+  'EHOSTUNREACH',
+  'ENETUNREACH',
+  'ENOTFOUND',
+  'EAI_AGAIN',
+  'ECONNABORTED',
+]);
 // SQLSTATEs of a server that is shutting down, starting up or full (PostgreSQL docs, Appendix A):
 // 57P01 admin_shutdown, 57P02 crash_shutdown, 57P03 cannot_connect_now, 53300 too_many_connections;
 // class 08 is "connection exception".
 const UNAVAILABLE_SQLSTATES = new Set(['57P01', '57P02', '57P03', '53300']);
 // node-postgres / pg-pool messages when a connection breaks or cannot be made in time.
-const UNAVAILABLE_MESSAGES = /Connection terminated|timeout exceeded when trying to connect|Client has encountered a connection error|Connection is not open|terminating connection due to administrator command|the database system is (starting up|shutting down|in recovery mode)/i;
+const UNAVAILABLE_MESSAGES =
+  /Connection terminated|timeout exceeded when trying to connect|Client has encountered a connection error|Connection is not open|terminating connection due to administrator command|the database system is (starting up|shutting down|in recovery mode)/i;
 
 /**
  * True when an error means the database could not be reached (refused, dropped, restarting), as
@@ -50,13 +62,27 @@ const UNAVAILABLE_MESSAGES = /Connection terminated|timeout exceeded when trying
  */
 export function isDatabaseUnavailable(err: unknown, depth = 0): boolean {
   if (!err || typeof err !== 'object' || depth > 4) return false;
-  const e = err as { code?: unknown; message?: unknown; driverError?: unknown; cause?: unknown; errors?: unknown };
+  const e = err as {
+    code?: unknown;
+    message?: unknown;
+    driverError?: unknown;
+    cause?: unknown;
+    errors?: unknown;
+  };
   if (typeof e.code === 'string') {
-    if (NETWORK_CODES.has(e.code) || UNAVAILABLE_SQLSTATES.has(e.code) || /^08[0-9A-Z]{3}$/.test(e.code)) return true;
+    if (
+      NETWORK_CODES.has(e.code) ||
+      UNAVAILABLE_SQLSTATES.has(e.code) ||
+      /^08[0-9A-Z]{3}$/.test(e.code)
+    )
+      return true;
   }
   if (typeof e.message === 'string' && UNAVAILABLE_MESSAGES.test(e.message)) return true;
-  if (Array.isArray(e.errors) && e.errors.some((x) => isDatabaseUnavailable(x, depth + 1))) return true; // AggregateError (IPv4 + IPv6)
-  return isDatabaseUnavailable(e.driverError, depth + 1) || isDatabaseUnavailable(e.cause, depth + 1);
+  if (Array.isArray(e.errors) && e.errors.some((x) => isDatabaseUnavailable(x, depth + 1)))
+    return true; // AggregateError (IPv4 + IPv6)
+  return (
+    isDatabaseUnavailable(e.driverError, depth + 1) || isDatabaseUnavailable(e.cause, depth + 1)
+  );
 }
 
 /** The one error middleware, last in the chain: every error becomes the problem-style body. */
@@ -64,13 +90,19 @@ export function errorHandler(log: (msg: string, err: unknown) => void): ErrorReq
   return (err, _req, res, _next) => {
     if (err instanceof HttpError) {
       res.status(err.status).json({
-        error: { code: err.code, message: err.message, ...(err.details !== undefined ? { details: err.details } : {}) },
+        error: {
+          code: err.code,
+          message: err.message,
+          ...(err.details !== undefined ? { details: err.details } : {}),
+        },
       });
       return;
     }
     if (err instanceof ZodError) {
       const details = fieldIssues(err);
-      res.status(400).json({ error: { code: 'validation_failed', message: describe(details), details } });
+      res
+        .status(400)
+        .json({ error: { code: 'validation_failed', message: describe(details), details } });
       return;
     }
     // body-parser errors carry a status (malformed JSON 400, too large 413)
@@ -79,7 +111,8 @@ export function errorHandler(log: (msg: string, err: unknown) => void): ErrorReq
       res.status(status).json({
         error: {
           code: status === 413 ? 'payload_too_large' : 'bad_request',
-          message: status === 413 ? 'The request is too large.' : 'The request body is not valid JSON.',
+          message:
+            status === 413 ? 'The request is too large.' : 'The request body is not valid JSON.',
         },
       });
       return;
@@ -97,7 +130,9 @@ export function errorHandler(log: (msg: string, err: unknown) => void): ErrorReq
       return;
     }
     log('unhandled error', err);
-    res.status(500).json({ error: { code: 'internal', message: 'Something went wrong on our side. Try again.' } });
+    res.status(500).json({
+      error: { code: 'internal', message: 'Something went wrong on our side. Try again.' },
+    });
   };
 }
 

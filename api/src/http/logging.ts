@@ -23,7 +23,11 @@ export interface LoggerOptions {
 }
 
 export function createLogger(o: LoggerOptions = {}): Logger {
-  const options = { level: o.level ?? 'info', base: { service: 'ringlet' }, timestamp: pino.stdTimeFunctions.isoTime };
+  const options = {
+    level: o.level ?? 'info',
+    base: { service: 'ringlet' },
+    timestamp: pino.stdTimeFunctions.isoTime,
+  };
   return o.destination ? pino(options, o.destination) : pino(options);
 }
 
@@ -60,10 +64,17 @@ export function requestLogging(logger: Logger): RequestHandler {
       if (res.statusCode >= 400) return 'warn';
       return 'info';
     },
-    customSuccessMessage: (req, res) => `${req.method} ${(req as IncomingMessage & { originalUrl?: string }).originalUrl ?? req.url} ${res.statusCode}`,
-    customErrorMessage: (req, res) => `${req.method} ${(req as IncomingMessage & { originalUrl?: string }).originalUrl ?? req.url} ${res.statusCode}`,
+    customSuccessMessage: (req, res) =>
+      `${req.method} ${(req as IncomingMessage & { originalUrl?: string }).originalUrl ?? req.url} ${res.statusCode}`,
+    customErrorMessage: (req, res) =>
+      `${req.method} ${(req as IncomingMessage & { originalUrl?: string }).originalUrl ?? req.url} ${res.statusCode}`,
     serializers: {
-      req: (req: { id: string; method: string; url: string; remoteAddress?: string }) => ({ id: req.id, method: req.method, url: req.url.split('?')[0], remoteAddress: req.remoteAddress }),
+      req: (req: { id: string; method: string; url: string; remoteAddress?: string }) => ({
+        id: req.id,
+        method: req.method,
+        url: req.url.split('?')[0],
+        remoteAddress: req.remoteAddress,
+      }),
       res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
     },
     wrapSerializers: true,

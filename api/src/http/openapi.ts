@@ -13,13 +13,27 @@ function accessText(r: AnyRoute): string {
 /** The OpenAPI 3.1 document, generated from the same route table that serves the API. */
 export function buildOpenApi(routes: readonly AnyRoute[], version: string): object {
   const registry = new OpenAPIRegistry();
-  registry.registerComponent('securitySchemes', 'session', { type: 'apiKey', in: 'cookie', name: 'ringlet.sid' });
-  registry.registerComponent('securitySchemes', 'csrf', { type: 'apiKey', in: 'header', name: 'x-csrf-token' });
-  const problem = { description: 'Problem', content: { 'application/json': { schema: ProblemBody } } };
+  registry.registerComponent('securitySchemes', 'session', {
+    type: 'apiKey',
+    in: 'cookie',
+    name: 'ringlet.sid',
+  });
+  registry.registerComponent('securitySchemes', 'csrf', {
+    type: 'apiKey',
+    in: 'header',
+    name: 'x-csrf-token',
+  });
+  const problem = {
+    description: 'Problem',
+    content: { 'application/json': { schema: ProblemBody } },
+  };
   for (const r of routes) {
     const status = r.status ?? 200;
     const ok = r.produces
-      ? { description: 'The file', content: { [r.produces]: { schema: { type: 'string' as const, format: 'binary' } } } }
+      ? {
+          description: 'The file',
+          content: { [r.produces]: { schema: { type: 'string' as const, format: 'binary' } } },
+        }
       : r.response && status !== 204
         ? { description: 'Success', content: { 'application/json': { schema: r.response } } }
         : { description: 'Success, no body' };
@@ -33,7 +47,9 @@ export function buildOpenApi(routes: readonly AnyRoute[], version: string): obje
       path: API_PREFIX + r.path,
       tags: [r.tag],
       summary: r.summary,
-      description: [r.description, `Access: ${accessText(r)}`, r.availability].filter(Boolean).join('\n\n'),
+      description: [r.description, `Access: ${accessText(r)}`, r.availability]
+        .filter(Boolean)
+        .join('\n\n'),
       security: r.access === 'public' ? [] : [{ session: [] }],
       request: {
         ...(r.params ? { params: r.params as never } : {}),

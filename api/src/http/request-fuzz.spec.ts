@@ -3,7 +3,15 @@ import type { ZodType } from 'zod';
 import type { Role } from '../../../shared/contracts/auth';
 import { createBenchRound, enrol } from '../testing/bench-fixtures';
 import { buildEvaluationFixture } from '../testing/evaluation-fixtures';
-import { client, createLab, createUser, signedIn, startTestApp, type Client, type TestApp } from '../testing/test-app';
+import {
+  client,
+  createLab,
+  createUser,
+  signedIn,
+  startTestApp,
+  type Client,
+  type TestApp,
+} from '../testing/test-app';
 import type { AnyRoute } from './route';
 
 /**
@@ -68,7 +76,16 @@ function sample(s: ZodType, depth = 0): unknown {
         datetime: '2026-06-01T12:00:00Z',
       };
       if (d.format && byFormat[d.format]) return byFormat[d.format];
-      return firstValid(s, ['Fuzz text', 'fuzz_key', 'FUZZ-1', 'A', 'EUR', 'abcdefghij', 'x'.repeat(43), '']);
+      return firstValid(s, [
+        'Fuzz text',
+        'fuzz_key',
+        'FUZZ-1',
+        'A',
+        'EUR',
+        'abcdefghij',
+        'x'.repeat(43),
+        '',
+      ]);
     }
     case 'number':
       return firstValid(s, [1, 25, 0.5, 2, 100, 0.05, 0]);
@@ -130,7 +147,21 @@ const alwaysInvalid = fc.constantFrom<unknown>(
 );
 /** Values that may or may not be valid for a field (only: no 5xx, and a refusal changes nothing). */
 const maybeInvalid = fc.oneof(
-  fc.constantFrom<unknown>(1e-320, -0, 0, -1, Number.MAX_SAFE_INTEGER + 2, {}, [], null, true, 'NaN', 'Infinity', '', ' '),
+  fc.constantFrom<unknown>(
+    1e-320,
+    -0,
+    0,
+    -1,
+    Number.MAX_SAFE_INTEGER + 2,
+    {},
+    [],
+    null,
+    true,
+    'NaN',
+    'Infinity',
+    '',
+    ' ',
+  ),
   fc.double({ noNaN: true, noDefaultInfinity: true }),
   fc.integer(),
   fc.string({ maxLength: 30 }),
@@ -149,7 +180,11 @@ describe('fuzzing every request schema', () => {
   let coordinatorId = '';
 
   const fill = (path: string, value?: string) =>
-    '/api/v1' + path.replace(/\{(\w+)\}/g, (_m, name: string) => value ?? (name === 'token' ? 'x'.repeat(43) : UUID));
+    '/api/v1' +
+    path.replace(
+      /\{(\w+)\}/g,
+      (_m, name: string) => value ?? (name === 'token' ? 'x'.repeat(43) : UUID),
+    );
 
   function callerOf(r: AnyRoute): Client {
     if (r.access === 'public') return clients.get('anonymous')!;
@@ -169,7 +204,13 @@ describe('fuzzing every request schema', () => {
   const failures: string[] = [];
 
   /** Sends one request; checks no 5xx, a named field on 400, and no change after a refusal. */
-  async function probe(r: AnyRoute, where: 'body' | 'query', value: unknown, expectField?: string, url = fill(r.path)): Promise<number> {
+  async function probe(
+    r: AnyRoute,
+    where: 'body' | 'query',
+    value: unknown,
+    expectField?: string,
+    url = fill(r.path),
+  ): Promise<number> {
     const c = callerOf(r);
     let req = c.agent[r.method](url).set('x-csrf-token', c.csrf);
     if (where === 'query') req = req.query(value as Record<string, string>);
@@ -178,16 +219,26 @@ describe('fuzzing every request schema', () => {
     if (res.status >= 500) failures.push(`${label} → ${res.status} ${JSON.stringify(res.body)}`);
     if (res.status === 400) {
       const details = (res.body?.error?.details ?? []) as { path: string }[];
-      if (!Array.isArray(details) || details.length === 0 || !details.every((d) => typeof d.path === 'string' && d.path.length > 0)) {
+      if (
+        !Array.isArray(details) ||
+        details.length === 0 ||
+        !details.every((d) => typeof d.path === 'string' && d.path.length > 0)
+      ) {
         failures.push(`${label} → 400 without a named field: ${JSON.stringify(res.body)}`);
-      } else if (expectField !== undefined && !details.some((d) => d.path === expectField || d.path.startsWith(expectField + '.'))) {
-        failures.push(`${label} → 400 names ${details.map((d) => d.path).join(', ')}, not ${expectField}`);
+      } else if (
+        expectField !== undefined &&
+        !details.some((d) => d.path === expectField || d.path.startsWith(expectField + '.'))
+      ) {
+        failures.push(
+          `${label} → 400 names ${details.map((d) => d.path).join(', ')}, not ${expectField}`,
+        );
       }
     } else if (expectField !== undefined) {
       failures.push(`${label} → ${res.status}, expected 400 naming ${expectField}`);
     }
     const now = await checksum();
-    if (res.status >= 400 && now !== last) failures.push(`${label} → ${res.status} but stored data changed`);
+    if (res.status >= 400 && now !== last)
+      failures.push(`${label} → ${res.status} but stored data changed`);
     last = now;
     return res.status;
   }
@@ -226,11 +277,15 @@ describe('fuzzing every request schema', () => {
     t = await startTestApp();
     const lab = await createLab(t.ds, 'Fuzz Lab');
     await createUser(t.ds, { email: 'admin@fuzz.test', roles: ['admin'] });
-    coordinatorId = (await createUser(t.ds, { email: 'coordinator@fuzz.test', roles: ['coordinator'] })).id;
+    coordinatorId = (
+      await createUser(t.ds, { email: 'coordinator@fuzz.test', roles: ['coordinator'] })
+    ).id;
     await createUser(t.ds, { email: 'assessor@fuzz.test', roles: ['assessor'] });
     await createUser(t.ds, { email: 'lab@fuzz.test', lab: lab.id, manager: true });
     real['labId'] = lab.id;
-    real['victimUser'] = (await createUser(t.ds, { email: 'victim@fuzz.test', roles: ['assessor'] })).id;
+    real['victimUser'] = (
+      await createUser(t.ds, { email: 'victim@fuzz.test', roles: ['assessor'] })
+    ).id;
     real['victimOrg'] = (await createLab(t.ds, 'Victim Lab')).id;
     const draft = await createBenchRound(t.ds, { state: 'draft' });
     real['draftRound'] = draft.round.id;
@@ -239,8 +294,11 @@ describe('fuzzing every request schema', () => {
     const collecting = await createBenchRound(t.ds, { state: 'collecting' });
     real['collectingRound'] = collecting.round.id;
     real['enrolmentId'] = (await enrol(t.ds, collecting.round.id, lab.id, 'P01')).id;
-    real['closedRound'] = (await buildEvaluationFixture(t.ds, { participants: 12, seed: 3, withUncertainty: true })).round.id;
-    for (const role of ['admin', 'coordinator', 'assessor', 'lab'] as const) clients.set(role, await signedIn(t, `${role}@fuzz.test`));
+    real['closedRound'] = (
+      await buildEvaluationFixture(t.ds, { participants: 12, seed: 3, withUncertainty: true })
+    ).round.id;
+    for (const role of ['admin', 'coordinator', 'assessor', 'lab'] as const)
+      clients.set(role, await signedIn(t, `${role}@fuzz.test`));
     clients.set('anonymous', await client(t));
     const tables = (await t.ds.query(
       `SELECT quote_ident(table_name) AS t FROM information_schema.tables
@@ -252,7 +310,10 @@ describe('fuzzing every request schema', () => {
     checksumSql =
       'SELECT md5(' +
       tables
-        .map((x) => `coalesce((SELECT md5(string_agg(r::text, '|' ORDER BY r::text)) FROM ${x.t} r${x.t === 'audit_event' ? ` WHERE ${refusals}` : ''}), '-')`)
+        .map(
+          (x) =>
+            `coalesce((SELECT md5(string_agg(r::text, '|' ORDER BY r::text)) FROM ${x.t} r${x.t === 'audit_event' ? ` WHERE ${refusals}` : ''}), '-')`,
+        )
         .join(` || `) +
       ') AS sum';
     last = await checksum();
@@ -263,7 +324,12 @@ describe('fuzzing every request schema', () => {
   it('finds the JSON routes and a valid request for most of them', () => {
     const withBody = routes.filter((r) => r.body);
     const validBase = withBody.filter((r) => valid(r.body!, sample(r.body!)));
-    const invalid = withBody.filter((r) => !validBase.includes(r)).map((r) => `${r.method} ${r.path}: ${JSON.stringify(r.body!.safeParse(sample(r.body!)).error?.issues.slice(0, 2))}`);
+    const invalid = withBody
+      .filter((r) => !validBase.includes(r))
+      .map(
+        (r) =>
+          `${r.method} ${r.path}: ${JSON.stringify(r.body!.safeParse(sample(r.body!)).error?.issues.slice(0, 2))}`,
+      );
     if (process.env['FUZZ_VERBOSE']) console.log(invalid.join('\n'));
     expect(withBody.length).toBeGreaterThan(30);
     // The generator must build a valid body for most routes, or the field checks below test little.
@@ -277,7 +343,12 @@ describe('fuzzing every request schema', () => {
       if (!valid(r.body!, base)) continue;
       for (const [i, path] of leaves(base).slice(0, 8).entries()) {
         if (path.length === 0) continue;
-        await probe(r, 'body', withValue(base, path, i % 2 === 0 ? 'a\u0000' : 'b\ud800'), path.join('.'));
+        await probe(
+          r,
+          'body',
+          withValue(base, path, i % 2 === 0 ? 'a\u0000' : 'b\ud800'),
+          path.join('.'),
+        );
         checked++;
       }
     }
@@ -298,9 +369,16 @@ describe('fuzzing every request schema', () => {
       const param = /\{(\w+)\}/.exec(r.path)?.[1];
       if (param && r.params) {
         const c = callerOf(r);
-        const res = await c.agent[r.method](fill(r.path, encodeURIComponent('\u0000'))).set('x-csrf-token', c.csrf).send({});
-        if (res.status !== 400 || !res.body.error.details?.some((d: { path: string }) => d.path.startsWith('params.'))) {
-          failures.push(`${r.method} ${r.path} with NUL in {${param}} → ${res.status} ${JSON.stringify(res.body)}`);
+        const res = await c.agent[r.method](fill(r.path, encodeURIComponent('\u0000')))
+          .set('x-csrf-token', c.csrf)
+          .send({});
+        if (
+          res.status !== 400 ||
+          !res.body.error.details?.some((d: { path: string }) => d.path.startsWith('params.'))
+        ) {
+          failures.push(
+            `${r.method} ${r.path} with NUL in {${param}} → ${res.status} ${JSON.stringify(res.body)}`,
+          );
         }
         checked++;
       }
@@ -316,16 +394,34 @@ describe('fuzzing every request schema', () => {
       const baseValid = valid(r.body!, base);
       const paths = leaves(base);
       const cases = fc.sample(
-        fc.tuple(fc.nat({ max: paths.length - 1 }), fc.oneof(alwaysInvalid.map((v) => ({ v, always: true })), maybeInvalid.map((v) => ({ v, always: false })))),
+        fc.tuple(
+          fc.nat({ max: paths.length - 1 }),
+          fc.oneof(
+            alwaysInvalid.map((v) => ({ v, always: true })),
+            maybeInvalid.map((v) => ({ v, always: false })),
+          ),
+        ),
         { numRuns: 12, seed: 20261203 + ri },
       );
       for (const [pi, { v, always }] of cases) {
         const path = paths[pi]!;
-        await probe(r, 'body', withValue(base, path, v), baseValid && always && path.length > 0 ? path.join('.') : undefined);
+        await probe(
+          r,
+          'body',
+          withValue(base, path, v),
+          baseValid && always && path.length > 0 ? path.join('.') : undefined,
+        );
         checked++;
       }
       // Whole bodies of arbitrary JSON, and the empty object.
-      for (const body of [{}, [], ...fc.sample(fc.dictionary(fc.string({ maxLength: 12 }), fc.jsonValue({ maxDepth: 3 })), { numRuns: 2, seed: 7 + ri })]) {
+      for (const body of [
+        {},
+        [],
+        ...fc.sample(fc.dictionary(fc.string({ maxLength: 12 }), fc.jsonValue({ maxDepth: 3 })), {
+          numRuns: 2,
+          seed: 7 + ri,
+        }),
+      ]) {
         await probe(r, 'body', body);
         checked++;
       }
@@ -342,7 +438,10 @@ describe('fuzzing every request schema', () => {
       if (r.body) {
         const base = sample(r.body);
         const paths = leaves(base);
-        const cases = fc.sample(fc.tuple(fc.nat({ max: paths.length - 1 }), fc.oneof(alwaysInvalid, maybeInvalid)), { numRuns: 8, seed: 99 + ri });
+        const cases = fc.sample(
+          fc.tuple(fc.nat({ max: paths.length - 1 }), fc.oneof(alwaysInvalid, maybeInvalid)),
+          { numRuns: 8, seed: 99 + ri },
+        );
         // The valid request first (it reaches the service), then one hostile field at a time.
         const baseStatus = await probe(r, 'body', base, undefined, url);
         tally.set(baseStatus, (tally.get(baseStatus) ?? 0) + 1);
@@ -353,7 +452,13 @@ describe('fuzzing every request schema', () => {
         }
       } else if (r.query) {
         const base = (sample(r.query) ?? {}) as Record<string, unknown>;
-        for (const v of fc.sample(fc.oneof(fc.string({ maxLength: 20 }), fc.constantFrom('\u0000', 'x'.repeat(5000), '-1', '1e308')), { numRuns: 4, seed: 5 + ri })) {
+        for (const v of fc.sample(
+          fc.oneof(
+            fc.string({ maxLength: 20 }),
+            fc.constantFrom('\u0000', 'x'.repeat(5000), '-1', '1e308'),
+          ),
+          { numRuns: 4, seed: 5 + ri },
+        )) {
           for (const k of Object.keys(base)) {
             await probe(r, 'query', { ...base, [k]: v }, undefined, url);
             checked++;
@@ -361,7 +466,13 @@ describe('fuzzing every request schema', () => {
         }
       }
     }
-    if (process.env['FUZZ_VERBOSE']) console.log([...tally].sort().map(([k, n]) => `${k}: ${n}`).join(', '));
+    if (process.env['FUZZ_VERBOSE'])
+      console.log(
+        [...tally]
+          .sort()
+          .map(([k, n]) => `${k}: ${n}`)
+          .join(', '),
+      );
     expect(failures).toEqual([]);
     expect(checked).toBeGreaterThan(250);
     // The values reached the services: some were accepted, some refused by a rule there.
@@ -369,10 +480,15 @@ describe('fuzzing every request schema', () => {
   }, 180_000);
 
   it('shows the declared ranges in the OpenAPI document', async () => {
-    const doc = (await clients.get('anonymous')!.agent.get('/api/v1/openapi.json').expect(200)).body as {
+    const doc = (await clients.get('anonymous')!.agent.get('/api/v1/openapi.json').expect(200))
+      .body as {
       paths: Record<string, Record<string, { requestBody?: unknown }>>;
     };
-    const bodies = Object.values(doc.paths).flatMap((ops) => Object.values(ops).map((op) => op.requestBody).filter(Boolean));
+    const bodies = Object.values(doc.paths).flatMap((ops) =>
+      Object.values(ops)
+        .map((op) => op.requestBody)
+        .filter(Boolean),
+    );
     /** The first schema of a property with this name in a request body (nullable unwrapped). */
     const prop = (name: string): Record<string, unknown> => {
       const stack: unknown[] = [...bodies].reverse();
@@ -382,7 +498,9 @@ describe('fuzzing every request schema', () => {
         const props = (v as { properties?: Record<string, unknown> }).properties;
         if (props && props[name]) {
           const p = props[name] as { anyOf?: Record<string, unknown>[] };
-          return p.anyOf ? p.anyOf.find((x) => x['type'] !== 'null')! : (p as Record<string, unknown>);
+          return p.anyOf
+            ? p.anyOf.find((x) => x['type'] !== 'null')!
+            : (p as Record<string, unknown>);
         }
         stack.push(...Object.values(v));
       }
@@ -400,7 +518,10 @@ describe('fuzzing every request schema', () => {
 
   it('answers PATCH of a user with an empty body with 400, not 500', async () => {
     const admin = clients.get('admin')!;
-    const res = await admin.agent.patch(`/api/v1/admin/users/${coordinatorId}`).set('x-csrf-token', admin.csrf).send({});
+    const res = await admin.agent
+      .patch(`/api/v1/admin/users/${coordinatorId}`)
+      .set('x-csrf-token', admin.csrf)
+      .send({});
     expect(res.status).toBe(400);
     expect(res.body.error.details[0].path).toBe('(body)');
   });

@@ -51,7 +51,11 @@ export interface RouteDefinition<
 }
 
 // The table of every route: OpenAPI and the authorization walk read it.
-export type AnyRoute = RouteDefinition<ZodType | undefined, ZodType | undefined, ZodType | undefined>;
+export type AnyRoute = RouteDefinition<
+  ZodType | undefined,
+  ZodType | undefined,
+  ZodType | undefined
+>;
 
 export interface RouteDeps {
   isCsrfValid: (req: Request) => boolean;
@@ -81,7 +85,8 @@ const MAX_DEPTH = 32;
  */
 export function findTextProblem(value: unknown, where: string): FieldIssue | null {
   const stack: { v: unknown; path: string[]; depth: number }[] = [{ v: value, path: [], depth: 0 }];
-  const name = (path: string[]) => [where === 'body' ? undefined : where, ...path].filter(Boolean).join('.') || '(body)';
+  const name = (path: string[]) =>
+    [where === 'body' ? undefined : where, ...path].filter(Boolean).join('.') || '(body)';
   while (stack.length > 0) {
     const { v, path, depth } = stack.pop()!;
     if (typeof v === 'string') {
@@ -90,7 +95,8 @@ export function findTextProblem(value: unknown, where: string): FieldIssue | nul
       continue;
     }
     if (v === null || typeof v !== 'object') continue;
-    if (depth >= MAX_DEPTH) return { path: name(path), message: `Nested more than ${MAX_DEPTH} levels deep.` };
+    if (depth >= MAX_DEPTH)
+      return { path: name(path), message: `Nested more than ${MAX_DEPTH} levels deep.` };
     // Pushed in reverse so the first offending field in document order is the one named.
     for (const [k, child] of Object.entries(v as Record<string, unknown>).reverse()) {
       const p = textProblem(k);
@@ -126,9 +132,11 @@ export class ApiRouter {
 
   constructor(private readonly deps: RouteDeps) {}
 
-  add<B extends ZodType | undefined = undefined, P extends ZodType | undefined = undefined, Q extends ZodType | undefined = undefined>(
-    def: RouteDefinition<B, P, Q>,
-  ): void {
+  add<
+    B extends ZodType | undefined = undefined,
+    P extends ZodType | undefined = undefined,
+    Q extends ZodType | undefined = undefined,
+  >(def: RouteDefinition<B, P, Q>): void {
     this.routes.push(def as unknown as AnyRoute);
     const expressPath = def.path.replace(/\{(\w+)\}/g, ':$1');
     const stateChanging = def.method !== 'get';
@@ -136,7 +144,11 @@ export class ApiRouter {
       try {
         checkAccess(def.access, req);
         if (stateChanging && !def.csrfExempt && !this.deps.isCsrfValid(req)) {
-          throw new HttpError(403, 'csrf_invalid', 'The form expired. Reload the page and try again.');
+          throw new HttpError(
+            403,
+            'csrf_invalid',
+            'The form expired. Reload the page and try again.',
+          );
         }
         checkText(req.params, 'params');
         checkText(req.query, 'query');

@@ -18,7 +18,8 @@ function captured() {
   const lines: Record<string, unknown>[] = [];
   const stream = new Writable({
     write(chunk: Buffer, _enc, cb) {
-      for (const l of chunk.toString('utf8').split('\n')) if (l.trim()) lines.push(JSON.parse(l) as Record<string, unknown>);
+      for (const l of chunk.toString('utf8').split('\n'))
+        if (l.trim()) lines.push(JSON.parse(l) as Record<string, unknown>);
       cb();
     },
   });
@@ -39,7 +40,10 @@ describe('request ids and structured logs', () => {
     const mailer = createMailer(config, smtp);
     try {
       const { app } = createApp({ ds: db.ds, config, mailer, logger, log: () => undefined });
-      const res = await request(app).get('/api/v1/health').set('cookie', 'ringlet.sid=secret-cookie').expect(200);
+      const res = await request(app)
+        .get('/api/v1/health')
+        .set('cookie', 'ringlet.sid=secret-cookie')
+        .expect(200);
       const id = res.headers['x-request-id'] as string;
       expect(id).toMatch(UUID);
       const missing = await request(app).get('/api/v1/nowhere').expect(404);
@@ -51,7 +55,9 @@ describe('request ids and structured logs', () => {
       expect((line!['res'] as { statusCode: number }).statusCode).toBe(200);
       expect(typeof line!['responseTime']).toBe('number');
       expect(JSON.stringify(line)).not.toContain('secret-cookie'); // no cookies, no other headers
-      const notFound = lines.find((l) => (l['req'] as { id?: string } | undefined)?.id === missing.headers['x-request-id']);
+      const notFound = lines.find(
+        (l) => (l['req'] as { id?: string } | undefined)?.id === missing.headers['x-request-id'],
+      );
       expect(notFound!['level']).toBe(40); // warn for 4xx
       expect(new Set(lines.map((l) => (l['req'] as { id: string }).id)).size).toBe(2);
     } finally {
@@ -67,7 +73,10 @@ describe('request ids and structured logs', () => {
     app.get('/x', (_req, res) => void res.json({ ok: true }));
     const kept = await request(app).get('/x').set('x-request-id', 'edge-7f3a9c21').expect(200);
     expect(kept.headers['x-request-id']).toBe('edge-7f3a9c21');
-    const replaced = await request(app).get('/x').set('x-request-id', '<script>alert(1)</script>').expect(200);
+    const replaced = await request(app)
+      .get('/x')
+      .set('x-request-id', '<script>alert(1)</script>')
+      .expect(200);
     expect(replaced.headers['x-request-id']).toMatch(UUID);
     const long = await request(app).get('/x').set('x-request-id', 'a'.repeat(65)).expect(200);
     expect(long.headers['x-request-id']).toMatch(UUID);
@@ -82,10 +91,14 @@ describe('graceful shutdown', () => {
     await new Promise((r) => server.once('listening', r));
     const port = (server.address() as AddressInfo).port;
     const order: string[] = [];
-    const shutdown = gracefulShutdown(server, [() => void order.push('jobs stopped'), () => void order.push('database closed')], {
-      requestTimeoutMs: 5000,
-      log: () => undefined,
-    });
+    const shutdown = gracefulShutdown(
+      server,
+      [() => void order.push('jobs stopped'), () => void order.push('database closed')],
+      {
+        requestTimeoutMs: 5000,
+        log: () => undefined,
+      },
+    );
     const agent = new http.Agent({ keepAlive: true });
     const inFlight = new Promise<{ status: number; body: string }>((resolve, reject) => {
       http
@@ -102,7 +115,9 @@ describe('graceful shutdown', () => {
     await new Promise((r) => setTimeout(r, 150)); // the request is being handled
     const done = shutdown();
     const refused = await new Promise<string>((resolve) => {
-      http.get({ host: '127.0.0.1', port, path: '/slow' }, () => resolve('answered')).on('error', (e: NodeJS.ErrnoException) => resolve(e.code ?? 'error'));
+      http
+        .get({ host: '127.0.0.1', port, path: '/slow' }, () => resolve('answered'))
+        .on('error', (e: NodeJS.ErrnoException) => resolve(e.code ?? 'error'));
     });
     expect(refused).toBe('ECONNREFUSED');
     const r = await inFlight;
@@ -121,9 +136,14 @@ describe('graceful shutdown', () => {
     await new Promise((r) => server.once('listening', r));
     const port = (server.address() as AddressInfo).port;
     const steps: string[] = [];
-    const shutdown = gracefulShutdown(server, [() => void steps.push('closed')], { requestTimeoutMs: 300, log: () => undefined });
+    const shutdown = gracefulShutdown(server, [() => void steps.push('closed')], {
+      requestTimeoutMs: 300,
+      log: () => undefined,
+    });
     const outcome = new Promise<string>((resolve) => {
-      http.get({ host: '127.0.0.1', port, path: '/hang' }, () => resolve('answered')).on('error', (e: NodeJS.ErrnoException) => resolve(e.code ?? 'error'));
+      http
+        .get({ host: '127.0.0.1', port, path: '/hang' }, () => resolve('answered'))
+        .on('error', (e: NodeJS.ErrnoException) => resolve(e.code ?? 'error'));
     });
     await new Promise((r) => setTimeout(r, 100));
     await shutdown();

@@ -13,7 +13,11 @@ export interface ShutdownOptions {
  * which waits for the jobs in progress; close mail; close the database). Calling it again while
  * it runs returns the same promise.
  */
-export function gracefulShutdown(server: Server, after: (() => Promise<void> | void)[], o: ShutdownOptions): () => Promise<void> {
+export function gracefulShutdown(
+  server: Server,
+  after: (() => Promise<void> | void)[],
+  o: ShutdownOptions,
+): () => Promise<void> {
   let running: Promise<void> | undefined;
   return () =>
     (running ??= (async () => {
@@ -22,7 +26,9 @@ export function gracefulShutdown(server: Server, after: (() => Promise<void> | v
       const idle = setInterval(() => server.closeIdleConnections(), 50);
       server.closeIdleConnections();
       let timer: NodeJS.Timeout | undefined;
-      const timedOut = new Promise<'timeout'>((resolve) => (timer = setTimeout(() => resolve('timeout'), o.requestTimeoutMs)));
+      const timedOut = new Promise<'timeout'>(
+        (resolve) => (timer = setTimeout(() => resolve('timeout'), o.requestTimeoutMs)),
+      );
       if ((await Promise.race([closed, timedOut])) === 'timeout') {
         o.log(`requests still open after ${o.requestTimeoutMs} ms: closing their connections`);
         server.closeAllConnections();

@@ -19,11 +19,15 @@ describe('the built web app', () => {
   afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
   it('sends the brotli copy when the browser accepts it, with a year-long immutable cache', async () => {
-    const res = await request(app).get('/main-AB12CD34.js').set('Accept-Encoding', 'gzip, deflate, br').buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = [];
-      r.on('data', (c: Buffer) => chunks.push(c));
-      r.on('end', () => cb(null, Buffer.concat(chunks)));
-    });
+    const res = await request(app)
+      .get('/main-AB12CD34.js')
+      .set('Accept-Encoding', 'gzip, deflate, br')
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
     expect(res.status).toBe(200);
     expect(res.headers['content-encoding']).toBe('br');
     expect(res.headers['content-type']).toMatch(/javascript/);

@@ -1,7 +1,11 @@
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import multer from 'multer';
 import type { Role } from '../../../shared/contracts/auth';
-import { formatBytes, MAX_TEXT_FIELD_BYTES, type UploadLimit } from '../../../shared/contracts/upload-limits';
+import {
+  formatBytes,
+  MAX_TEXT_FIELD_BYTES,
+  type UploadLimit,
+} from '../../../shared/contracts/upload-limits';
 import type { SessionUser } from '../auth/session-user';
 import { badRequest, forbidden, HttpError, unauthorized } from './errors';
 import { hasAnyRole } from './route';
@@ -22,8 +26,16 @@ export function uploadedFile(req: Request): UploadedFile | undefined {
 /** A safe display name: no path, no control characters (C0, DEL, C1), no quotes, NFC, at most 200 characters. */
 export function cleanFileName(name: string): string {
   const base = name.split(/[\\/]/).pop() ?? '';
-  // eslint-disable-next-line no-control-regex -- dropping control characters is the point
-  const cleaned = Array.from(base.normalize('NFC').replace(/[\u0000-\u001F\u007F-\u009F"\u2028\u2029\u200E\u200F\u202A-\u202E\u2066-\u2069]/g, '').trim())
+  const cleaned = Array.from(
+    base
+      .normalize('NFC')
+      .replace(
+        // eslint-disable-next-line no-control-regex -- dropping control characters is the point
+        /[\u0000-\u001F\u007F-\u009F"\u2028\u2029\u200E\u200F\u202A-\u202E\u2066-\u2069]/g,
+        '',
+      )
+      .trim(),
+  )
     .slice(0, 200)
     .join('')
     .trim();
@@ -37,24 +49,44 @@ export function uploadError(err: unknown, limit: UploadLimit): HttpError {
     const field = err.field ?? limit.fileField;
     switch (err.code) {
       case 'LIMIT_FILE_SIZE':
-        return new HttpError(413, 'file_too_large', `${limit.fileField}: the ${limit.label} is larger than ${formatBytes(limit.maxBytes)}; the limit is ${formatBytes(limit.maxBytes)} per file.`, [
-          { path: limit.fileField, message: `At most ${formatBytes(limit.maxBytes)}.` },
-        ]);
+        return new HttpError(
+          413,
+          'file_too_large',
+          `${limit.fileField}: the ${limit.label} is larger than ${formatBytes(limit.maxBytes)}; the limit is ${formatBytes(limit.maxBytes)} per file.`,
+          [{ path: limit.fileField, message: `At most ${formatBytes(limit.maxBytes)}.` }],
+        );
       case 'LIMIT_FILE_COUNT':
-        return badRequest(`${limit.fileField}: send one file only.`, [{ path: limit.fileField, message: 'One file only.' }]);
+        return badRequest(`${limit.fileField}: send one file only.`, [
+          { path: limit.fileField, message: 'One file only.' },
+        ]);
       case 'LIMIT_UNEXPECTED_FILE':
         return field === limit.fileField
-          ? badRequest(`${limit.fileField}: send one file only.`, [{ path: limit.fileField, message: 'One file only.' }])
-          : badRequest(`${field}: unexpected file field; send the file in the field "${limit.fileField}".`, [{ path: field, message: `Send the file in "${limit.fileField}".` }]);
+          ? badRequest(`${limit.fileField}: send one file only.`, [
+              { path: limit.fileField, message: 'One file only.' },
+            ])
+          : badRequest(
+              `${field}: unexpected file field; send the file in the field "${limit.fileField}".`,
+              [{ path: field, message: `Send the file in "${limit.fileField}".` }],
+            );
       case 'LIMIT_FIELD_VALUE':
-        return badRequest(`${field}: longer than ${formatBytes(MAX_TEXT_FIELD_BYTES)}.`, [{ path: field, message: 'Too long.' }]);
+        return badRequest(`${field}: longer than ${formatBytes(MAX_TEXT_FIELD_BYTES)}.`, [
+          { path: field, message: 'Too long.' },
+        ]);
       default:
-        return badRequest(`The upload form has too many or too long fields (${err.message.toLowerCase()}).`, [{ path: field, message: err.message }]);
+        return badRequest(
+          `The upload form has too many or too long fields (${err.message.toLowerCase()}).`,
+          [{ path: field, message: err.message }],
+        );
     }
   }
   // busboy: truncated body, missing boundary, malformed part headers, …
   const why = err instanceof Error ? err.message : String(err);
-  return new HttpError(400, 'multipart_invalid', `The upload is not a well-formed multipart form (${why}). Send the file again.`, [{ path: limit.fileField, message: 'Not a well-formed upload.' }]);
+  return new HttpError(
+    400,
+    'multipart_invalid',
+    `The upload is not a well-formed multipart form (${why}). Send the file again.`,
+    [{ path: limit.fileField, message: 'Not a well-formed upload.' }],
+  );
 }
 
 /**
@@ -85,10 +117,17 @@ export function uploadRule(limit: UploadLimit, roles?: readonly Role[]): Request
     if (!req.is('multipart/form-data')) return next();
     parse(req, res, (err: unknown) => {
       if (err) return next(uploadError(err, limit));
-      const unknown = Object.keys((req.body ?? {}) as object).filter((k) => !limit.textFields.includes(k));
+      const unknown = Object.keys((req.body ?? {}) as object).filter(
+        (k) => !limit.textFields.includes(k),
+      );
       if (unknown.length) {
         const known = [limit.fileField, ...limit.textFields].map((f) => `"${f}"`).join(', ');
-        return next(badRequest(`${unknown[0]}: unexpected field; this upload takes ${known}.`, unknown.map((k) => ({ path: k, message: 'Unexpected field.' }))));
+        return next(
+          badRequest(
+            `${unknown[0]}: unexpected field; this upload takes ${known}.`,
+            unknown.map((k) => ({ path: k, message: 'Unexpected field.' })),
+          ),
+        );
       }
       const file = uploadedFile(req);
       if (file) file.originalname = cleanFileName(file.originalname);

@@ -9,13 +9,31 @@ import { createApp } from '../app';
 import type { Mailer } from '../mail/mailer';
 import { runQueuedBuild } from '../services/reports';
 import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evaluation-fixtures';
-import { createLab, createUser, signedIn, startTestApp, testConfig, type Client, type TestApp } from '../testing/test-app';
-import { PUBLICATION_MAIL_QUEUE, REPORT_QUEUE, startJobs, type Jobs, type JobsOptions } from './queue';
+import {
+  createLab,
+  createUser,
+  signedIn,
+  startTestApp,
+  testConfig,
+  type Client,
+  type TestApp,
+} from '../testing/test-app';
+import {
+  PUBLICATION_MAIL_QUEUE,
+  REPORT_QUEUE,
+  startJobs,
+  type Jobs,
+  type JobsOptions,
+} from './queue';
 
 jest.setTimeout(90_000);
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
-async function until<T>(what: string, probe: () => Promise<T | null | undefined | false>, seconds = 40): Promise<T> {
+async function until<T>(
+  what: string,
+  probe: () => Promise<T | null | undefined | false>,
+  seconds = 40,
+): Promise<T> {
   for (let i = 0; i < seconds * 10; i++) {
     const v = await probe();
     if (v) return v;
@@ -33,30 +51,57 @@ describe('durable background work (pg-boss)', () => {
   /** One "instance": a job queue and an app on the test database. */
   async function instance(o: Partial<JobsOptions> = {}) {
     const jobs = await startJobs({
-      connectionString: t.db.url, ds: t.ds, mailer: t.mailer, publicUrl: 'http://ringlet.test', log,
-      pollingIntervalSeconds: 0.5, mailRetry: { retryLimit: 5, retryDelay: 1, retryBackoff: false },
-      reportRetry: { retryLimit: 1, retryDelay: 1, retryBackoff: false }, ...o,
+      connectionString: t.db.url,
+      ds: t.ds,
+      mailer: t.mailer,
+      publicUrl: 'http://ringlet.test',
+      log,
+      pollingIntervalSeconds: 0.5,
+      mailRetry: { retryLimit: 5, retryDelay: 1, retryBackoff: false },
+      reportRetry: { retryLimit: 1, retryDelay: 1, retryBackoff: false },
+      ...o,
     });
     running.push(jobs);
-    const app = createApp({ ds: t.ds, config: testConfig(), mailer: jobs.mailer, queue: jobs.queue, log });
+    const app = createApp({
+      ds: t.ds,
+      config: testConfig(),
+      mailer: jobs.mailer,
+      queue: jobs.queue,
+      log,
+    });
     await jobs.attach(app.context, runQueuedBuild);
     const coordinator = await signedIn({ ...t, ...app }, 'coord@durable.test');
     return { jobs, app, coordinator };
   }
   const jobStates = async (queue: string): Promise<Record<string, number>> => {
-    const rows: { state: string; n: number }[] = await t.ds.query(`SELECT state, count(*)::int AS n FROM pgboss.job WHERE name = $1 GROUP BY state`, [queue]);
+    const rows: { state: string; n: number }[] = await t.ds.query(
+      `SELECT state, count(*)::int AS n FROM pgboss.job WHERE name = $1 GROUP BY state`,
+      [queue],
+    );
     return Object.fromEntries(rows.map((r) => [r.state, r.n]));
   };
   const publishedMails = async (): Promise<string[][]> =>
-    (await t.ds.query(`SELECT mail_to FROM mail_message WHERE subject LIKE 'Results of round % are published'`)).map((r: { mail_to: string[] }) => r.mail_to);
+    (
+      await t.ds.query(
+        `SELECT mail_to FROM mail_message WHERE subject LIKE 'Results of round % are published'`,
+      )
+    ).map((r: { mail_to: string[] }) => r.mail_to);
 
   beforeAll(async () => {
     t = await startTestApp();
     fx = await buildEvaluationFixture(t.ds, { participants: 12, labPrefix: 'Durable Lab' });
     await createUser(t.ds, { email: 'coord@durable.test', roles: ['coordinator'] });
     const c: Client = await signedIn(t, 'coord@durable.test');
-    await c.agent.post(`/api/v1/rounds/${fx.round.id}/evaluation`).set('x-csrf-token', c.csrf).send({}).expect(201);
-    await c.agent.post(`/api/v1/rounds/${fx.round.id}/evaluation/commit`).set('x-csrf-token', c.csrf).send({}).expect(200);
+    await c.agent
+      .post(`/api/v1/rounds/${fx.round.id}/evaluation`)
+      .set('x-csrf-token', c.csrf)
+      .send({})
+      .expect(201);
+    await c.agent
+      .post(`/api/v1/rounds/${fx.round.id}/evaluation/commit`)
+      .set('x-csrf-token', c.csrf)
+      .send({})
+      .expect(200);
   });
   afterEach(async () => {
     for (const j of running.splice(0)) await j.stop(1000).catch(() => undefined);
@@ -71,7 +116,9 @@ describe('durable background work (pg-boss)', () => {
     process.env['RINGLET_REPORT_BACKGROUND_MIN'] = '5'; // 12 participants: built in the background
     // Instance A only enqueues (its workers are off) and then goes away.
     const a = await instance({ workers: false });
-    const started = await a.coordinator.agent.get(`/api/v1/rounds/${fx.round.id}/reports/round.pdf`).expect(202);
+    const started = await a.coordinator.agent
+      .get(`/api/v1/rounds/${fx.round.id}/reports/round.pdf`)
+      .expect(202);
     expect(started.body.status).toBe('queued');
     expect(started.body.progress).toBe(0);
     await a.jobs.stop(1000);
@@ -88,7 +135,10 @@ describe('durable background work (pg-boss)', () => {
     });
     expect(done.progress).toBe(100);
     expect(done.sizeBytes).toBeGreaterThan(1000);
-    const file = await b.coordinator.agent.get(`/api/v1/rounds/${fx.round.id}/reports/round.pdf`).buffer(true).expect(200);
+    const file = await b.coordinator.agent
+      .get(`/api/v1/rounds/${fx.round.id}/reports/round.pdf`)
+      .buffer(true)
+      .expect(200);
     expect(file.headers['content-type']).toContain('application/pdf');
     expect(file.headers['x-content-sha256']).toBe(done.sha256);
     expect((await jobStates(REPORT_QUEUE))['completed']).toBe(1);
@@ -98,9 +148,18 @@ describe('durable background work (pg-boss)', () => {
   it('a build that keeps failing is retried, then shows failed with a message for the reader', async () => {
     const outsider = await createLab(t.ds, 'Not Enrolled Lab'); // its individual report cannot be built
     const b = await instance();
-    const evaluation: { id: string; version: number }[] = await t.ds.query(`SELECT id, version FROM evaluation WHERE round_id = $1`, [fx.round.id]);
+    const evaluation: { id: string; version: number }[] = await t.ds.query(
+      `SELECT id, version FROM evaluation WHERE round_id = $1`,
+      [fx.round.id],
+    );
     const row = await t.ds.getRepository(Report).save({
-      roundId: fx.round.id, kind: 'participant.pdf', organisationId: outsider.id, evaluationId: evaluation[0]!.id, evaluationVersion: evaluation[0]!.version, status: 'queued', progress: 0,
+      roundId: fx.round.id,
+      kind: 'participant.pdf',
+      organisationId: outsider.id,
+      evaluationId: evaluation[0]!.id,
+      evaluationVersion: evaluation[0]!.version,
+      status: 'queued',
+      progress: 0,
     } as Partial<Report>);
     await b.jobs.queue.enqueueReportBuild(row.id);
     b.jobs.queue.kick();
@@ -109,7 +168,10 @@ describe('durable background work (pg-boss)', () => {
       return s.body.status === 'failed' ? s.body : null;
     });
     expect(failed.error).toMatch(/could not be built/);
-    const jobs: { state: string; retry_count: number }[] = await t.ds.query(`SELECT state, retry_count FROM pgboss.job WHERE name = $1 AND data->>'reportId' = $2`, [REPORT_QUEUE, row.id]);
+    const jobs: { state: string; retry_count: number }[] = await t.ds.query(
+      `SELECT state, retry_count FROM pgboss.job WHERE name = $1 AND data->>'reportId' = $2`,
+      [REPORT_QUEUE, row.id],
+    );
     expect(jobs).toEqual([{ state: 'failed', retry_count: 1 }]); // the first attempt and one retry
     await b.jobs.stop(1000);
   });
@@ -124,7 +186,11 @@ describe('durable background work (pg-boss)', () => {
       close: () => undefined,
     };
     const a = await instance({ mailer: down });
-    const res = await a.coordinator.agent.post(`/api/v1/rounds/${fx.round.id}/publish`).set('x-csrf-token', a.coordinator.csrf).send({}).expect(200);
+    const res = await a.coordinator.agent
+      .post(`/api/v1/rounds/${fx.round.id}/publish`)
+      .set('x-csrf-token', a.coordinator.csrf)
+      .send({})
+      .expect(200);
     expect(res.body.labsNotified).toBe(12);
     // The publication committed with one job per lab; A tries, SMTP refuses, the jobs wait for a retry.
     await until('the first attempts', async () => refused.length >= 12);

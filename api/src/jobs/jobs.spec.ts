@@ -18,14 +18,26 @@ describe('jobs: reminders and mail retry', () => {
     await createUser(t.ds, { email: 'bob@b.test', lab: b.id });
     const scheme = await t.ds.getRepository(Scheme).save({ code: 'JOBS', name: 'Jobs scheme' });
     const round = await t.ds.getRepository(Round).save({
-      schemeId: scheme.id, code: 'R-JOBS', title: 'Reminder round', state: 'collecting',
+      schemeId: scheme.id,
+      code: 'R-JOBS',
+      title: 'Reminder round',
+      state: 'collecting',
       resultsDueAt: new Date(Date.now() + 2 * 86400_000),
     });
     roundId = round.id;
-    await t.ds.getRepository(Enrolment).insert({ roundId, organisationId: a.id, participantCode: 'PAAAA' });
-    const eb = await t.ds.getRepository(Enrolment).save({ roundId, organisationId: b.id, participantCode: 'PBBBB' });
+    await t.ds
+      .getRepository(Enrolment)
+      .insert({ roundId, organisationId: a.id, participantCode: 'PAAAA' });
+    const eb = await t.ds
+      .getRepository(Enrolment)
+      .save({ roundId, organisationId: b.id, participantCode: 'PBBBB' });
     // Lab Beta has submitted: it gets no reminder
-    await t.ds.getRepository(Submission).insert({ enrolmentId: eb.id, state: 'submitted', currentVersion: 1, submittedAt: new Date() });
+    await t.ds.getRepository(Submission).insert({
+      enrolmentId: eb.id,
+      state: 'submitted',
+      currentVersion: 1,
+      submittedAt: new Date(),
+    });
   });
   afterAll(() => t.close());
 
@@ -42,11 +54,20 @@ describe('jobs: reminders and mail retry', () => {
   });
 
   it('sends "overdue" once after the due date', async () => {
-    await t.ds.getRepository(Round).update({ id: roundId }, { resultsDueAt: new Date(Date.now() - 3600_000) });
-    const [x, y, z] = await Promise.all([sendDueReminders(deps()), sendDueReminders(deps()), sendDueReminders(deps())]);
+    await t.ds
+      .getRepository(Round)
+      .update({ id: roundId }, { resultsDueAt: new Date(Date.now() - 3600_000) });
+    const [x, y, z] = await Promise.all([
+      sendDueReminders(deps()),
+      sendDueReminders(deps()),
+      sendDueReminders(deps()),
+    ]);
     expect(x + y + z).toBe(1);
     const mails = await mailTo(t.ds, 'alice@a.test', 2);
-    expect(mails.map((m) => m.subject).sort()).toEqual(['Results for round R-JOBS are due soon', 'Results for round R-JOBS are overdue']);
+    expect(mails.map((m) => m.subject).sort()).toEqual([
+      'Results for round R-JOBS are due soon',
+      'Results for round R-JOBS are overdue',
+    ]);
   });
 
   it('a failed send is queued in PostgreSQL and retried until it goes through', async () => {
@@ -61,8 +82,13 @@ describe('jobs: reminders and mail retry', () => {
       close: () => undefined,
     };
     const jobs = await startJobs({
-      connectionString: t.db.url, ds: t.ds, mailer: flaky, publicUrl: 'http://ringlet.test', log,
-      mailRetry: { retryLimit: 5, retryDelay: 1, retryBackoff: false }, pollingIntervalSeconds: 0.5,
+      connectionString: t.db.url,
+      ds: t.ds,
+      mailer: flaky,
+      publicUrl: 'http://ringlet.test',
+      log,
+      mailRetry: { retryLimit: 5, retryDelay: 1, retryBackoff: false },
+      pollingIntervalSeconds: 0.5,
     });
     try {
       await jobs.mailer.send({ to: 'carol@c.test', subject: 'Queued hello', text: 'x' }); // resolves: queued, not lost

@@ -10,7 +10,11 @@ import type { AppContext } from '../services/context';
  * benches that start the app alone) the returned function sends from this process, 8 at a time,
  * without holding the request.
  */
-export async function enqueuePublicationMails(ctx: AppContext, em: EntityManager, mails: OutgoingMail[]): Promise<() => void> {
+export async function enqueuePublicationMails(
+  ctx: AppContext,
+  em: EntityManager,
+  mails: OutgoingMail[],
+): Promise<() => void> {
   const queue = ctx.queue;
   if (queue) {
     await queue.enqueueMails(mails, em);

@@ -15,7 +15,11 @@ export const REPORT_QUEUE = 'report-build';
 export const MAIL_RETRY: RetryPolicy = { retryLimit: 8, retryDelay: 30, retryBackoff: true };
 /** Retry policy for a report build: 2 more attempts, 10 s then 20 s later. */
 export const REPORT_RETRY: RetryPolicy = { retryLimit: 2, retryDelay: 10, retryBackoff: true };
-export interface RetryPolicy { retryLimit: number; retryDelay: number; retryBackoff: boolean }
+export interface RetryPolicy {
+  retryLimit: number;
+  retryDelay: number;
+  retryBackoff: boolean;
+}
 
 /** A build that runs longer than this is taken as lost (its instance died) and retried. */
 const REPORT_EXPIRE_SECONDS = 15 * 60;
@@ -32,7 +36,11 @@ export interface JobQueue {
 }
 
 /** The report-build job's work, given by the services (api/src/services/reports.ts). */
-export type ReportBuilder = (ctx: AppContext, reportId: string, lastAttempt: boolean) => Promise<void>;
+export type ReportBuilder = (
+  ctx: AppContext,
+  reportId: string,
+  lastAttempt: boolean,
+) => Promise<void>;
 
 export interface JobsOptions {
   connectionString: string;
@@ -66,7 +74,12 @@ export interface Jobs {
  * A mailer that tries SMTP at once and, on failure, puts the message on the PostgreSQL-backed
  * queue, where a worker (on any instance) retries it with back-off.
  */
-export function queuedMailer(inner: Mailer, boss: PgBoss, retry = MAIL_RETRY, log: (m: string, e?: unknown) => void = () => undefined): Mailer {
+export function queuedMailer(
+  inner: Mailer,
+  boss: PgBoss,
+  retry = MAIL_RETRY,
+  log: (m: string, e?: unknown) => void = () => undefined,
+): Mailer {
   return {
     async send(mail: OutgoingMail) {
       try {
@@ -84,7 +97,11 @@ export function queuedMailer(inner: Mailer, boss: PgBoss, retry = MAIL_RETRY, lo
 
 /** pg-boss's SQL through a TypeORM transaction, so a job commits (or rolls back) with it. */
 export function inTransaction(em: EntityManager): PgBoss.Db {
-  return { executeSql: async (text, values) => ({ rows: ((await em.query(text, values)) as unknown[]) ?? [] }) };
+  return {
+    executeSql: async (text, values) => ({
+      rows: ((await em.query(text, values)) as unknown[]) ?? [],
+    }),
+  };
 }
 
 /**
@@ -116,34 +133,57 @@ export async function startJobs(o: JobsOptions): Promise<Jobs> {
     );
     // Up to 8 publication mails at a time; a refused one fails alone and is retried with back-off.
     workerIds.push(
-      await boss.work<OutgoingMail>(PUBLICATION_MAIL_QUEUE, { ...polling, batchSize: 8 }, async (jobs) => {
-        const results = await Promise.allSettled(jobs.map((job) => o.mailer.send(job.data)));
-        const failed = jobs.filter((_, i) => results[i]!.status === 'rejected');
-        for (const job of failed) {
-          const reason = (results[jobs.indexOf(job)] as PromiseRejectedResult).reason as unknown;
-          o.log(`publication mail to ${String(job.data.to)} failed; retried later`, reason);
-          await boss.fail(PUBLICATION_MAIL_QUEUE, job.id, { message: reason instanceof Error ? reason.message : String(reason) });
-        }
-        // the rest are completed by pg-boss when this returns (a failed job is no longer active)
-      }),
+      await boss.work<OutgoingMail>(
+        PUBLICATION_MAIL_QUEUE,
+        { ...polling, batchSize: 8 },
+        async (jobs) => {
+          const results = await Promise.allSettled(jobs.map((job) => o.mailer.send(job.data)));
+          const failed = jobs.filter((_, i) => results[i]!.status === 'rejected');
+          for (const job of failed) {
+            const reason = (results[jobs.indexOf(job)] as PromiseRejectedResult).reason as unknown;
+            o.log(`publication mail to ${String(job.data.to)} failed; retried later`, reason);
+            await boss.fail(PUBLICATION_MAIL_QUEUE, job.id, {
+              message: reason instanceof Error ? reason.message : String(reason),
+            });
+          }
+          // the rest are completed by pg-boss when this returns (a failed job is no longer active)
+        },
+      ),
     );
     await boss.work(REMINDER_QUEUE, polling, async () => {
       await sendDueReminders({ ds: o.ds, mailer, publicUrl: o.publicUrl, log: o.log });
     });
-    await boss.schedule(REMINDER_QUEUE, o.reminderCron ?? '*/15 * * * *', {}, { singletonKey: 'round-reminders' });
+    await boss.schedule(
+      REMINDER_QUEUE,
+      o.reminderCron ?? '*/15 * * * *',
+      {},
+      { singletonKey: 'round-reminders' },
+    );
   }
 
   const queue: JobQueue = {
     async enqueueReportBuild(reportId, em) {
       await boss.insert(
-        [{ name: REPORT_QUEUE, data: { reportId }, singletonKey: reportId, expireInSeconds: REPORT_EXPIRE_SECONDS, ...reportRetry }],
+        [
+          {
+            name: REPORT_QUEUE,
+            data: { reportId },
+            singletonKey: reportId,
+            expireInSeconds: REPORT_EXPIRE_SECONDS,
+            ...reportRetry,
+          },
+        ],
         em ? { db: inTransaction(em) } : {},
       );
     },
     async enqueueMails(mails, em) {
       if (mails.length === 0) return;
       await boss.insert(
-        mails.map((m) => ({ name: PUBLICATION_MAIL_QUEUE, data: m as unknown as object, ...mailRetry })),
+        mails.map((m) => ({
+          name: PUBLICATION_MAIL_QUEUE,
+          data: m as unknown as object,
+          ...mailRetry,
+        })),
         em ? { db: inTransaction(em) } : {},
       );
     },
@@ -159,10 +199,14 @@ export async function startJobs(o: JobsOptions): Promise<Jobs> {
     async attach(ctx, build) {
       if (!workers) return;
       workerIds.push(
-        await boss.work<{ reportId: string }>(REPORT_QUEUE, { ...polling, includeMetadata: true }, async ([job]) => {
-          if (!job) return;
-          await build(ctx, job.data.reportId, job.retryCount >= job.retryLimit);
-        }),
+        await boss.work<{ reportId: string }>(
+          REPORT_QUEUE,
+          { ...polling, includeMetadata: true },
+          async ([job]) => {
+            if (!job) return;
+            await build(ctx, job.data.reportId, job.retryCount >= job.retryLimit);
+          },
+        ),
       );
     },
     async stop(timeoutMs = 10_000) {

@@ -29,7 +29,11 @@ interface Candidate {
  * one of several concurrent callers (server instances) send it; a failed send releases the claim
  * so the next run retries. Returns the number of reminders sent.
  */
-export async function sendDueReminders(deps: ReminderDeps, now = new Date(), dueSoonDays = DUE_SOON_DAYS): Promise<number> {
+export async function sendDueReminders(
+  deps: ReminderDeps,
+  now = new Date(),
+  dueSoonDays = DUE_SOON_DAYS,
+): Promise<number> {
   const candidates: Candidate[] = await deps.ds.query(
     `SELECT r.id AS round_id, e.id AS enrolment_id, e.organisation_id, r.code, r.title,
             COALESCE(e.extension_until, r.results_due_at) AS due,
@@ -55,8 +59,14 @@ export async function sendDueReminders(deps: ReminderDeps, now = new Date(), due
     const due = new Date(c.due).toISOString().replace('T', ' ').slice(0, 16) + ' UTC';
     const [subject, line] =
       c.kind === 'overdue'
-        ? [`Results for round ${c.code} are overdue`, `Your results for round ${c.code} (${c.title}) were due ${due} and have not been submitted.`]
-        : [`Results for round ${c.code} are due soon`, `Your results for round ${c.code} (${c.title}) are due ${due}.`];
+        ? [
+            `Results for round ${c.code} are overdue`,
+            `Your results for round ${c.code} (${c.title}) were due ${due} and have not been submitted.`,
+          ]
+        : [
+            `Results for round ${c.code} are due soon`,
+            `Your results for round ${c.code} (${c.title}) are due ${due}.`,
+          ];
     try {
       await deps.mailer.send({
         to,
@@ -65,7 +75,10 @@ export async function sendDueReminders(deps: ReminderDeps, now = new Date(), due
       });
       sent++;
     } catch (err) {
-      await deps.ds.query(`DELETE FROM reminder_log WHERE round_id = $1 AND enrolment_id = $2 AND kind = $3`, [c.round_id, c.enrolment_id, c.kind]);
+      await deps.ds.query(
+        `DELETE FROM reminder_log WHERE round_id = $1 AND enrolment_id = $2 AND kind = $3`,
+        [c.round_id, c.enrolment_id, c.kind],
+      );
       deps.log(`reminder to ${to.join(', ')} failed; the next run retries`, err);
     }
   }

@@ -33,7 +33,8 @@ export function createMailer(
   options: MailerOptions = {},
 ): Mailer {
   const smtp = config.smtp ?? (fallbackSmtp ? { ...fallbackSmtp, secure: false } : null);
-  if (!smtp) throw new Error('No SMTP server configured (set SMTP_HOST) and no local mail fake running.');
+  if (!smtp)
+    throw new Error('No SMTP server configured (set SMTP_HOST) and no local mail fake running.');
   const transport = nodemailer.createTransport({
     host: smtp.host,
     port: smtp.port,
@@ -49,7 +50,11 @@ export function createMailer(
         return;
       }
       // The PT provider's name (its profile) is the From display name and signs the message.
-      await transport.sendMail({ ...mail, from: { name, address: mailAddress(config.mailFrom) }, text: `${mail.text}\n\n-- \n${name}\n` });
+      await transport.sendMail({
+        ...mail,
+        from: { name, address: mailAddress(config.mailFrom) },
+        text: `${mail.text}\n\n-- \n${name}\n`,
+      });
     },
     close() {
       transport.close();

@@ -18,7 +18,11 @@ function addresses(a: AddressObject | AddressObject[] | undefined): string[] {
  * The local stand-in for a hosted mail service: a real SMTP server on loopback that keeps every
  * message in the `mail_message` table, where the Outbox page shows it. Development, demo and tests only.
  */
-export async function startSmtpFake(ds: DataSource, port = 0, host = '127.0.0.1'): Promise<SmtpFake> {
+export async function startSmtpFake(
+  ds: DataSource,
+  port = 0,
+  host = '127.0.0.1',
+): Promise<SmtpFake> {
   const server = new SMTPServer({
     authOptional: true,
     disabledCommands: ['STARTTLS'],

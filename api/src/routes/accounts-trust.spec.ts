@@ -1,7 +1,18 @@
 import { AuditEvent, Membership, User } from '../../../db/entities';
 import { createBenchRound, enrol } from '../testing/bench-fixtures';
 import { buildEvaluationFixture } from '../testing/evaluation-fixtures';
-import { client, createLab, createUser, linkToken, mailTo, signedIn, startTestApp, TEST_PASSWORD, type Client, type TestApp } from '../testing/test-app';
+import {
+  client,
+  createLab,
+  createUser,
+  linkToken,
+  mailTo,
+  signedIn,
+  startTestApp,
+  TEST_PASSWORD,
+  type Client,
+  type TestApp,
+} from '../testing/test-app';
 import { HSTS } from '../app';
 
 const api = (p: string) => `/api/v1${p}`;
@@ -22,10 +33,19 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
     labB = (await createLab(t.ds, 'Birch Sizing Lab')).id;
     await createUser(t.ds, { email: 'admin@acc.test', name: 'Ada Admin', roles: ['admin'] });
     await createUser(t.ds, { email: 'coord@acc.test', name: 'Cora Coord', roles: ['coordinator'] });
-    await createUser(t.ds, { email: 'assessor@acc.test', name: 'Asa Assessor', roles: ['assessor'] });
+    await createUser(t.ds, {
+      email: 'assessor@acc.test',
+      name: 'Asa Assessor',
+      roles: ['assessor'],
+    });
     await createUser(t.ds, { email: 'boss@acc.test', name: 'Bo Boss', lab: labA, manager: true });
     await createUser(t.ds, { email: 'analyst@acc.test', name: 'Ann Analyst', lab: labA });
-    await createUser(t.ds, { email: 'birch@acc.test', name: 'Bert Birch', lab: labB, manager: true });
+    await createUser(t.ds, {
+      email: 'birch@acc.test',
+      name: 'Bert Birch',
+      lab: labB,
+      manager: true,
+    });
     admin = await signedIn(t, 'admin@acc.test');
     boss = await signedIn(t, 'boss@acc.test');
   });
@@ -34,8 +54,16 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
   describe('Outbox', () => {
     it("shows a lab user only mail addressed to them, never the admin's reset link; the admin sees all", async () => {
       const anon = await client(t);
-      await anon.agent.post(api('/auth/password-reset')).set('x-csrf-token', anon.csrf).send({ email: 'admin@acc.test' }).expect(202);
-      await anon.agent.post(api('/auth/password-reset')).set('x-csrf-token', anon.csrf).send({ email: 'analyst@acc.test' }).expect(202);
+      await anon.agent
+        .post(api('/auth/password-reset'))
+        .set('x-csrf-token', anon.csrf)
+        .send({ email: 'admin@acc.test' })
+        .expect(202);
+      await anon.agent
+        .post(api('/auth/password-reset'))
+        .set('x-csrf-token', anon.csrf)
+        .send({ email: 'analyst@acc.test' })
+        .expect(202);
       const [adminMail] = await mailTo(t.ds, 'admin@acc.test');
       const [analystMail] = await mailTo(t.ds, 'analyst@acc.test');
       expect(adminMail).toBeDefined();
@@ -46,7 +74,8 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       const ids = mine.body.map((m: { id: string }) => m.id);
       expect(ids).toContain(analystMail!.id);
       expect(ids).not.toContain(adminMail!.id);
-      for (const m of mine.body as { to: string[] }[]) expect(m.to.map((a) => a.toLowerCase())).toContain('analyst@acc.test');
+      for (const m of mine.body as { to: string[] }[])
+        expect(m.to.map((a) => a.toLowerCase())).toContain('analyst@acc.test');
       expect(JSON.stringify(mine.body)).not.toContain(linkToken(adminMail!.text));
 
       const all = await admin.agent.get(api('/dev/outbox')).expect(200);
@@ -86,9 +115,17 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       const signedInElsewhere = await signedIn(t, 'reset@acc.test');
       await signedInElsewhere.agent.get(api('/auth/me')).expect(200);
       const anon = await client(t);
-      await anon.agent.post(api('/auth/password-reset')).set('x-csrf-token', anon.csrf).send({ email: 'reset@acc.test' }).expect(202);
+      await anon.agent
+        .post(api('/auth/password-reset'))
+        .set('x-csrf-token', anon.csrf)
+        .send({ email: 'reset@acc.test' })
+        .expect(202);
       const token = linkToken((await mailTo(t.ds, 'reset@acc.test'))[0]!.text);
-      await anon.agent.post(api('/auth/password')).set('x-csrf-token', anon.csrf).send({ token, password: 'the reset password' }).expect(204);
+      await anon.agent
+        .post(api('/auth/password'))
+        .set('x-csrf-token', anon.csrf)
+        .send({ token, password: 'the reset password' })
+        .expect(204);
       await signedInElsewhere.agent.get(api('/auth/me')).expect(401);
     });
   });
@@ -96,7 +133,11 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
   describe('lab membership needs consent', () => {
     it('refuses staff accounts (admin, coordinator, assessor) and changes nothing', async () => {
       for (const email of ['admin@acc.test', 'coord@acc.test', 'assessor@acc.test']) {
-        const res = await boss.agent.post(api(`/labs/${labA}/members`)).set('x-csrf-token', boss.csrf).send({ email, name: 'Staff' }).expect(422);
+        const res = await boss.agent
+          .post(api(`/labs/${labA}/members`))
+          .set('x-csrf-token', boss.csrf)
+          .send({ email, name: 'Staff' })
+          .expect(422);
         expect(res.body.error.code).toBe('staff_account');
         expect(res.body.error.message).toMatch(/^email: /);
         const u = await t.ds.getRepository(User).findOneByOrFail({ email });
@@ -107,21 +148,39 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
     });
 
     it('a new address gets an account and the membership at once', async () => {
-      const res = await boss.agent.post(api(`/labs/${labA}/members`)).set('x-csrf-token', boss.csrf).send({ email: 'newbie@acc.test', name: 'Nina New' }).expect(201);
+      const res = await boss.agent
+        .post(api(`/labs/${labA}/members`))
+        .set('x-csrf-token', boss.csrf)
+        .send({ email: 'newbie@acc.test', name: 'Nina New' })
+        .expect(201);
       expect(res.body.outcome).toBe('member-added');
-      expect(res.body.membership).toMatchObject({ userEmail: 'newbie@acc.test', organisationId: labA });
+      expect(res.body.membership).toMatchObject({
+        userEmail: 'newbie@acc.test',
+        organisationId: labA,
+      });
       expect(res.body.invitation).toBeNull();
       const [mail] = await mailTo(t.ds, 'newbie@acc.test');
       expect(mail!.subject).toBe('Your Ringlet account');
     });
 
     it('an existing account gets an invitation, and no membership until it accepts', async () => {
-      const res = await boss.agent.post(api(`/labs/${labA}/members`)).set('x-csrf-token', boss.csrf).send({ email: 'birch@acc.test', name: 'Bert' }).expect(201);
+      const res = await boss.agent
+        .post(api(`/labs/${labA}/members`))
+        .set('x-csrf-token', boss.csrf)
+        .send({ email: 'birch@acc.test', name: 'Bert' })
+        .expect(201);
       expect(res.body.outcome).toBe('invitation-sent');
       expect(res.body.membership).toBeNull();
-      expect(res.body.invitation).toMatchObject({ organisationId: labA, organisationName: 'Alder Particle Lab', email: 'birch@acc.test', invitedByName: 'Bo Boss' });
+      expect(res.body.invitation).toMatchObject({
+        organisationId: labA,
+        organisationName: 'Alder Particle Lab',
+        email: 'birch@acc.test',
+        invitedByName: 'Bo Boss',
+      });
       const bert = await t.ds.getRepository(User).findOneByOrFail({ email: 'birch@acc.test' });
-      expect(await t.ds.getRepository(Membership).countBy({ userId: bert.id, organisationId: labA })).toBe(0);
+      expect(
+        await t.ds.getRepository(Membership).countBy({ userId: bert.id, organisationId: labA }),
+      ).toBe(0);
       const [mail] = await mailTo(t.ds, 'birch@acc.test');
       expect(mail!.subject).toBe('Alder Particle Lab invites you to join the lab on Ringlet');
       expect(mail!.text).toContain('http://ringlet.test/lab-invitations');
@@ -133,7 +192,9 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       const birch = await signedIn(t, 'birch@acc.test');
       await birch.agent.get(api(`/labs/${labA}/invitations`)).expect(404);
       let me = await birch.agent.get(api('/auth/me')).expect(200);
-      expect(me.body.memberships.map((m: { organisationId: string }) => m.organisationId)).toEqual([labB]);
+      expect(me.body.memberships.map((m: { organisationId: string }) => m.organisationId)).toEqual([
+        labB,
+      ]);
       // the Lab bench still acts for the one lab
       await birch.agent.get(api('/my/rounds')).expect(200);
 
@@ -142,32 +203,64 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       const invitationId = mine.body[0].id as string;
       // someone else cannot answer it
       const analyst = await signedIn(t, 'analyst@acc.test');
-      await analyst.agent.post(api(`/my/lab-invitations/${invitationId}/accept`)).set('x-csrf-token', analyst.csrf).expect(404);
+      await analyst.agent
+        .post(api(`/my/lab-invitations/${invitationId}/accept`))
+        .set('x-csrf-token', analyst.csrf)
+        .expect(404);
 
-      const accepted = await birch.agent.post(api(`/my/lab-invitations/${invitationId}/accept`)).set('x-csrf-token', birch.csrf).expect(200);
-      expect(accepted.body.memberships.map((m: { organisationName: string }) => m.organisationName)).toEqual(['Alder Particle Lab', 'Birch Sizing Lab']);
+      const accepted = await birch.agent
+        .post(api(`/my/lab-invitations/${invitationId}/accept`))
+        .set('x-csrf-token', birch.csrf)
+        .expect(200);
+      expect(
+        accepted.body.memberships.map((m: { organisationName: string }) => m.organisationName),
+      ).toEqual(['Alder Particle Lab', 'Birch Sizing Lab']);
       // the lab acted for before stays chosen in this session
       expect(accepted.body.actingLabId).toBe(labB);
       me = await birch.agent.get(api('/auth/me')).expect(200);
       expect(me.body.actingLabId).toBe(labB);
-      expect(await t.ds.getRepository(Membership).countBy({ userId: bert.id, organisationId: labA })).toBe(1);
+      expect(
+        await t.ds.getRepository(Membership).countBy({ userId: bert.id, organisationId: labA }),
+      ).toBe(1);
       // answered once
-      await birch.agent.post(api(`/my/lab-invitations/${invitationId}/decline`)).set('x-csrf-token', birch.csrf).expect(404);
-      expect((await auditRows(t, 'lab-invitation.accepted')).map((r) => r.actorId)).toEqual([bert.id]);
+      await birch.agent
+        .post(api(`/my/lab-invitations/${invitationId}/decline`))
+        .set('x-csrf-token', birch.csrf)
+        .expect(404);
+      expect((await auditRows(t, 'lab-invitation.accepted')).map((r) => r.actorId)).toEqual([
+        bert.id,
+      ]);
     });
 
     it('a declined invitation leaves no membership; a withdrawn one cannot be accepted', async () => {
       await createUser(t.ds, { email: 'solo@acc.test', name: 'Sol Solo' });
-      await boss.agent.post(api(`/labs/${labA}/members`)).set('x-csrf-token', boss.csrf).send({ email: 'solo@acc.test', name: 'Sol' }).expect(201);
+      await boss.agent
+        .post(api(`/labs/${labA}/members`))
+        .set('x-csrf-token', boss.csrf)
+        .send({ email: 'solo@acc.test', name: 'Sol' })
+        .expect(201);
       const solo = await signedIn(t, 'solo@acc.test');
       const [inv] = (await solo.agent.get(api('/my/lab-invitations')).expect(200)).body;
-      await solo.agent.post(api(`/my/lab-invitations/${inv.id}/decline`)).set('x-csrf-token', solo.csrf).expect(204);
+      await solo.agent
+        .post(api(`/my/lab-invitations/${inv.id}/decline`))
+        .set('x-csrf-token', solo.csrf)
+        .expect(204);
       expect((await solo.agent.get(api('/auth/me')).expect(200)).body.memberships).toEqual([]);
 
-      await boss.agent.post(api(`/labs/${labA}/members`)).set('x-csrf-token', boss.csrf).send({ email: 'solo@acc.test', name: 'Sol' }).expect(201);
+      await boss.agent
+        .post(api(`/labs/${labA}/members`))
+        .set('x-csrf-token', boss.csrf)
+        .send({ email: 'solo@acc.test', name: 'Sol' })
+        .expect(201);
       const [again] = (await solo.agent.get(api('/my/lab-invitations')).expect(200)).body;
-      await boss.agent.delete(api(`/labs/${labA}/invitations/${again.id}`)).set('x-csrf-token', boss.csrf).expect(204);
-      await solo.agent.post(api(`/my/lab-invitations/${again.id}/accept`)).set('x-csrf-token', solo.csrf).expect(404);
+      await boss.agent
+        .delete(api(`/labs/${labA}/invitations/${again.id}`))
+        .set('x-csrf-token', boss.csrf)
+        .expect(204);
+      await solo.agent
+        .post(api(`/my/lab-invitations/${again.id}/accept`))
+        .set('x-csrf-token', solo.csrf)
+        .expect(404);
       expect((await solo.agent.get(api('/auth/me')).expect(200)).body.memberships).toEqual([]);
     });
 
@@ -177,18 +270,28 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       await enrol(t.ds, r1.round.id, labA, 'P-101');
       await enrol(t.ds, r2.round.id, labB, 'P-202');
       const both = await createUser(t.ds, { email: 'both@acc.test', lab: labA });
-      await t.ds.getRepository(Membership).insert({ userId: both.id, organisationId: labB, isManager: false });
+      await t.ds
+        .getRepository(Membership)
+        .insert({ userId: both.id, organisationId: labB, isManager: false });
       const c = await signedIn(t, 'both@acc.test');
       expect((await c.agent.get(api('/auth/me')).expect(200)).body.actingLabId).toBeNull();
       const unchosen = await c.agent.get(api('/my/rounds')).expect(400);
       expect(unchosen.body.error.message).toMatch(/^labId: /);
 
-      await c.agent.put(api('/auth/acting-lab')).set('x-csrf-token', c.csrf).send({ labId: labB }).expect(200);
+      await c.agent
+        .put(api('/auth/acting-lab'))
+        .set('x-csrf-token', c.csrf)
+        .send({ labId: labB })
+        .expect(200);
       let rounds = await c.agent.get(api('/my/rounds')).expect(200);
       expect(rounds.body.map((r: { code: string }) => r.code)).toEqual(['ACT-B']);
       expect((await c.agent.get(api('/auth/me')).expect(200)).body.actingLabId).toBe(labB);
 
-      await c.agent.put(api('/auth/acting-lab')).set('x-csrf-token', c.csrf).send({ labId: labA }).expect(200);
+      await c.agent
+        .put(api('/auth/acting-lab'))
+        .set('x-csrf-token', c.csrf)
+        .send({ labId: labA })
+        .expect(200);
       rounds = await c.agent.get(api('/my/rounds')).expect(200);
       expect(rounds.body.map((r: { code: string }) => r.code)).toEqual(['ACT-A']);
       // an explicit labId still wins for the one request
@@ -197,8 +300,16 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
 
       // a lab that is not mine: 404, choice unchanged
       const other = (await createLab(t.ds, 'Cedar Lab')).id;
-      await c.agent.put(api('/auth/acting-lab')).set('x-csrf-token', c.csrf).send({ labId: other }).expect(404);
-      await c.agent.put(api('/auth/acting-lab')).set('x-csrf-token', c.csrf).send({ labId: 'nope' }).expect(400);
+      await c.agent
+        .put(api('/auth/acting-lab'))
+        .set('x-csrf-token', c.csrf)
+        .send({ labId: other })
+        .expect(404);
+      await c.agent
+        .put(api('/auth/acting-lab'))
+        .set('x-csrf-token', c.csrf)
+        .send({ labId: 'nope' })
+        .expect(400);
       expect((await c.agent.get(api('/auth/me')).expect(200)).body.actingLabId).toBe(labA);
 
       // the choice belongs to the session: another sign-in starts unchosen
@@ -212,21 +323,43 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       await createUser(t.ds, { email: 'target@acc.test' });
       const c = await client(t);
       for (let i = 0; i < 5; i++) {
-        await c.agent.post(api('/auth/sign-in')).set('x-csrf-token', c.csrf).send({ email: 'target@acc.test', password: `wrong-${i}` }).expect(401);
+        await c.agent
+          .post(api('/auth/sign-in'))
+          .set('x-csrf-token', c.csrf)
+          .send({ email: 'target@acc.test', password: `wrong-${i}` })
+          .expect(401);
       }
-      await c.agent.post(api('/auth/sign-in')).set('x-csrf-token', c.csrf).send({ email: 'target@acc.test', password: TEST_PASSWORD }).expect(429);
+      await c.agent
+        .post(api('/auth/sign-in'))
+        .set('x-csrf-token', c.csrf)
+        .send({ email: 'target@acc.test', password: TEST_PASSWORD })
+        .expect(429);
       const target = await t.ds.getRepository(User).findOneByOrFail({ email: 'target@acc.test' });
-      const failed = (await auditRows(t, 'auth.sign-in-failed')).filter((r) => r.subjectId === target.id);
+      const failed = (await auditRows(t, 'auth.sign-in-failed')).filter(
+        (r) => r.subjectId === target.id,
+      );
       expect(failed).toHaveLength(5);
-      expect(failed.map((r) => (r.details as { failures: number }).failures)).toEqual([1, 2, 3, 4, 5]);
-      const locked = (await auditRows(t, 'auth.locked-out')).filter((r) => r.subjectId === target.id);
+      expect(failed.map((r) => (r.details as { failures: number }).failures)).toEqual([
+        1, 2, 3, 4, 5,
+      ]);
+      const locked = (await auditRows(t, 'auth.locked-out')).filter(
+        (r) => r.subjectId === target.id,
+      );
       expect(locked).toHaveLength(1);
-      const refused = (await auditRows(t, 'auth.sign-in-refused')).filter((r) => r.subjectId === target.id);
+      const refused = (await auditRows(t, 'auth.sign-in-refused')).filter(
+        (r) => r.subjectId === target.id,
+      );
       expect(refused).toHaveLength(1);
 
       // an unknown address is audited by the address typed
-      await c.agent.post(api('/auth/sign-in')).set('x-csrf-token', c.csrf).send({ email: 'ghost@acc.test', password: 'whatever-it-is' }).expect(401);
-      const ghost = (await auditRows(t, 'auth.sign-in-failed')).filter((r) => (r.details as { email: string }).email === 'ghost@acc.test');
+      await c.agent
+        .post(api('/auth/sign-in'))
+        .set('x-csrf-token', c.csrf)
+        .send({ email: 'ghost@acc.test', password: 'whatever-it-is' })
+        .expect(401);
+      const ghost = (await auditRows(t, 'auth.sign-in-failed')).filter(
+        (r) => (r.details as { email: string }).email === 'ghost@acc.test',
+      );
       expect(ghost).toHaveLength(1);
       expect(ghost[0]!.subjectId).toBeNull();
     });
@@ -235,8 +368,15 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
   describe('assessor grants', () => {
     it('answers alike for an unknown address, an assessor and a non-assessor account', async () => {
       const send = (email: string) =>
-        boss.agent.post(api(`/labs/${labA}/assessor-grants`)).set('x-csrf-token', boss.csrf).send({ email, name: 'Given Name', startsOn: '2026-01-01', endsOn: null });
-      const answers = [await send('fresh-auditor@acc.test'), await send('assessor@acc.test'), await send('analyst@acc.test')];
+        boss.agent
+          .post(api(`/labs/${labA}/assessor-grants`))
+          .set('x-csrf-token', boss.csrf)
+          .send({ email, name: 'Given Name', startsOn: '2026-01-01', endsOn: null });
+      const answers = [
+        await send('fresh-auditor@acc.test'),
+        await send('assessor@acc.test'),
+        await send('analyst@acc.test'),
+      ];
       const shape = (b: Record<string, unknown>) => {
         const { id: _id, assessorId: _a, createdAt: _c, assessorEmail: _e, ...rest } = b;
         return rest;
@@ -244,8 +384,14 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       expect(answers.map((a) => a.status)).toEqual([201, 201, 201]);
       expect(shape(answers[1]!.body)).toEqual(shape(answers[0]!.body));
       expect(shape(answers[2]!.body)).toEqual(shape(answers[0]!.body));
-      expect(answers.map((a) => a.body.assessorName)).toEqual(['Given Name', 'Given Name', 'Given Name']);
-      expect(answers.map((a) => Object.keys(a.body).sort().join())).toEqual(Array(3).fill(Object.keys(answers[0]!.body).sort().join()));
+      expect(answers.map((a) => a.body.assessorName)).toEqual([
+        'Given Name',
+        'Given Name',
+        'Given Name',
+      ]);
+      expect(answers.map((a) => Object.keys(a.body).sort().join())).toEqual(
+        Array(3).fill(Object.keys(answers[0]!.body).sort().join()),
+      );
       // a non-assessor account gains no assessor access from it
       const analyst = await signedIn(t, 'analyst@acc.test');
       expect((await analyst.agent.get(api('/auth/me')).expect(200)).body.roles).toEqual(['lab']);
@@ -264,14 +410,24 @@ describe('coordinator reveal of lab names is audited', () => {
     const fx = await buildEvaluationFixture(t.ds, { participants: 12, seed: 11 });
     const coordUser = await createUser(t.ds, { email: 'coord@rev.test', roles: ['coordinator'] });
     const coord = await signedIn(t, 'coord@rev.test');
-    await coord.agent.post(api(`/rounds/${fx.round.id}/evaluation`)).set('x-csrf-token', coord.csrf).send({}).expect(201);
+    await coord.agent
+      .post(api(`/rounds/${fx.round.id}/evaluation`))
+      .set('x-csrf-token', coord.csrf)
+      .send({})
+      .expect(201);
     await coord.agent.get(api(`/rounds/${fx.round.id}/board`)).expect(200);
     expect(await auditRows(t, 'board.names-revealed')).toHaveLength(0);
-    const named = await coord.agent.get(api(`/rounds/${fx.round.id}/board?reveal=names`)).expect(200);
+    const named = await coord.agent
+      .get(api(`/rounds/${fx.round.id}/board?reveal=names`))
+      .expect(200);
     expect(Object.keys(named.body.labNames)).toHaveLength(12);
     const rows = await auditRows(t, 'board.names-revealed');
     expect(rows).toHaveLength(1);
-    expect(rows[0]).toMatchObject({ actorId: coordUser.id, subjectType: 'round', subjectId: fx.round.id });
+    expect(rows[0]).toMatchObject({
+      actorId: coordUser.id,
+      subjectType: 'round',
+      subjectId: fx.round.id,
+    });
     expect(rows[0]!.details).toMatchObject({ labs: 12 });
   });
 });
@@ -302,7 +458,12 @@ describe('HSTS only over HTTPS', () => {
   });
 
   it('is ignored from an untrusted client (no trust proxy)', async () => {
-    const res = await (await client(plain)).agent.get(api('/health')).set('X-Forwarded-Proto', 'https').expect(200);
+    const res = await (
+      await client(plain)
+    ).agent
+      .get(api('/health'))
+      .set('X-Forwarded-Proto', 'https')
+      .expect(200);
     expect(res.headers['strict-transport-security']).toBeUndefined();
   });
 });

@@ -1,5 +1,15 @@
 import { AuditEvent, Membership, User } from '../../../db/entities';
-import { client, createLab, createUser, linkToken, mailTo, signedIn, startTestApp, type Client, type TestApp } from '../testing/test-app';
+import {
+  client,
+  createLab,
+  createUser,
+  linkToken,
+  mailTo,
+  signedIn,
+  startTestApp,
+  type Client,
+  type TestApp,
+} from '../testing/test-app';
 
 describe('admin: users, labs, memberships', () => {
   let t: TestApp;
@@ -23,12 +33,20 @@ describe('admin: users, labs, memberships', () => {
       .set('x-csrf-token', admin.csrf)
       .send({ email: 'New.Person@Lab.test', name: 'New Person', roles: ['assessor'] })
       .expect(201);
-    expect(res.body).toMatchObject({ email: 'new.person@lab.test', roles: ['assessor'], hasPassword: false });
+    expect(res.body).toMatchObject({
+      email: 'new.person@lab.test',
+      roles: ['assessor'],
+      hasPassword: false,
+    });
     const [mail] = await mailTo(t.ds, 'new.person@lab.test');
     expect(mail!.subject).toBe('Your Ringlet account');
     const token = linkToken(mail!.text);
     const anon = await client(t);
-    await anon.agent.post('/api/v1/auth/password').set('x-csrf-token', anon.csrf).send({ token, password: 'my first password' }).expect(204);
+    await anon.agent
+      .post('/api/v1/auth/password')
+      .set('x-csrf-token', anon.csrf)
+      .send({ token, password: 'my first password' })
+      .expect(204);
     const c = await signedIn(t, 'new.person@lab.test', 'my first password');
     const me = await c.agent.get('/api/v1/auth/me').expect(200);
     expect(me.body.roles).toEqual(['assessor']);
@@ -36,21 +54,41 @@ describe('admin: users, labs, memberships', () => {
 
   it('refuses a duplicate e-mail and leaves data unchanged', async () => {
     const before = await t.ds.getRepository(User).count();
-    const res = await admin.agent.post('/api/v1/admin/users').set('x-csrf-token', admin.csrf).send({ email: 'boss@a.test', name: 'Dup' }).expect(409);
+    const res = await admin.agent
+      .post('/api/v1/admin/users')
+      .set('x-csrf-token', admin.csrf)
+      .send({ email: 'boss@a.test', name: 'Dup' })
+      .expect(409);
     expect(res.body.error.code).toBe('email_taken');
     expect(await t.ds.getRepository(User).count()).toBe(before);
   });
 
   it('names the field for a bad role', async () => {
-    const res = await admin.agent.post('/api/v1/admin/users').set('x-csrf-token', admin.csrf).send({ email: 'r@x.test', name: 'R', roles: ['wizard'] }).expect(400);
+    const res = await admin.agent
+      .post('/api/v1/admin/users')
+      .set('x-csrf-token', admin.csrf)
+      .send({ email: 'r@x.test', name: 'R', roles: ['wizard'] })
+      .expect(400);
     expect(res.body.error.details[0].path).toBe('roles.0');
   });
 
   it('creates and renames labs; refuses a duplicate name', async () => {
-    const created = await admin.agent.post('/api/v1/admin/organisations').set('x-csrf-token', admin.csrf).send({ name: 'Lab Gamma', country: 'Testland' }).expect(201);
+    const created = await admin.agent
+      .post('/api/v1/admin/organisations')
+      .set('x-csrf-token', admin.csrf)
+      .send({ name: 'Lab Gamma', country: 'Testland' })
+      .expect(201);
     expect(created.body).toMatchObject({ name: 'Lab Gamma', kind: 'lab' });
-    await admin.agent.post('/api/v1/admin/organisations').set('x-csrf-token', admin.csrf).send({ name: 'lab gamma' }).expect(409);
-    const renamed = await admin.agent.patch(`/api/v1/admin/organisations/${created.body.id}`).set('x-csrf-token', admin.csrf).send({ name: 'Lab Gamma Two' }).expect(200);
+    await admin.agent
+      .post('/api/v1/admin/organisations')
+      .set('x-csrf-token', admin.csrf)
+      .send({ name: 'lab gamma' })
+      .expect(409);
+    const renamed = await admin.agent
+      .patch(`/api/v1/admin/organisations/${created.body.id}`)
+      .set('x-csrf-token', admin.csrf)
+      .send({ name: 'Lab Gamma Two' })
+      .expect(200);
     expect(renamed.body.name).toBe('Lab Gamma Two');
     const list = await admin.agent.get('/api/v1/admin/organisations').expect(200);
     expect(list.body.map((o: { name: string }) => o.name)).toContain('Lab Gamma Two');
@@ -58,14 +96,35 @@ describe('admin: users, labs, memberships', () => {
 
   it('adds, flags and removes memberships', async () => {
     const u = await createUser(t.ds, { email: 'floater@x.test' });
-    const m = await admin.agent.post('/api/v1/admin/memberships').set('x-csrf-token', admin.csrf).send({ userId: u.id, organisationId: labB }).expect(201);
-    expect(m.body).toMatchObject({ organisationName: 'Lab Beta', userEmail: 'floater@x.test', isManager: false });
-    await admin.agent.post('/api/v1/admin/memberships').set('x-csrf-token', admin.csrf).send({ userId: u.id, organisationId: labB }).expect(409);
-    const flagged = await admin.agent.patch(`/api/v1/admin/memberships/${m.body.id}`).set('x-csrf-token', admin.csrf).send({ isManager: true }).expect(200);
+    const m = await admin.agent
+      .post('/api/v1/admin/memberships')
+      .set('x-csrf-token', admin.csrf)
+      .send({ userId: u.id, organisationId: labB })
+      .expect(201);
+    expect(m.body).toMatchObject({
+      organisationName: 'Lab Beta',
+      userEmail: 'floater@x.test',
+      isManager: false,
+    });
+    await admin.agent
+      .post('/api/v1/admin/memberships')
+      .set('x-csrf-token', admin.csrf)
+      .send({ userId: u.id, organisationId: labB })
+      .expect(409);
+    const flagged = await admin.agent
+      .patch(`/api/v1/admin/memberships/${m.body.id}`)
+      .set('x-csrf-token', admin.csrf)
+      .send({ isManager: true })
+      .expect(200);
     expect(flagged.body.isManager).toBe(true);
-    const members = await admin.agent.get(`/api/v1/admin/organisations/${labB}/memberships`).expect(200);
+    const members = await admin.agent
+      .get(`/api/v1/admin/organisations/${labB}/memberships`)
+      .expect(200);
     expect(members.body).toHaveLength(1);
-    await admin.agent.delete(`/api/v1/admin/memberships/${m.body.id}`).set('x-csrf-token', admin.csrf).expect(204);
+    await admin.agent
+      .delete(`/api/v1/admin/memberships/${m.body.id}`)
+      .set('x-csrf-token', admin.csrf)
+      .expect(204);
     expect(await t.ds.getRepository(Membership).countBy({ organisationId: labB })).toBe(0);
   });
 
@@ -73,31 +132,61 @@ describe('admin: users, labs, memberships', () => {
     const u = await createUser(t.ds, { email: 'leaver@x.test', roles: ['coordinator'] });
     const c = await signedIn(t, 'leaver@x.test');
     await c.agent.get('/api/v1/auth/me').expect(200);
-    await admin.agent.patch(`/api/v1/admin/users/${u.id}`).set('x-csrf-token', admin.csrf).send({ isActive: false }).expect(200);
+    await admin.agent
+      .patch(`/api/v1/admin/users/${u.id}`)
+      .set('x-csrf-token', admin.csrf)
+      .send({ isActive: false })
+      .expect(200);
     await c.agent.get('/api/v1/auth/me').expect(401);
   });
 
   it('an admin cannot lock themselves out', async () => {
     const me = await admin.agent.get('/api/v1/auth/me').expect(200);
-    const res = await admin.agent.patch(`/api/v1/admin/users/${me.body.id}`).set('x-csrf-token', admin.csrf).send({ roles: [] }).expect(422);
+    const res = await admin.agent
+      .patch(`/api/v1/admin/users/${me.body.id}`)
+      .set('x-csrf-token', admin.csrf)
+      .send({ roles: [] })
+      .expect(422);
     expect(res.body.error.code).toBe('self_lockout');
   });
 
   it('a lab manager manages their own lab, and another lab answers 404', async () => {
     const boss = await signedIn(t, 'boss@a.test');
     const list = await boss.agent.get(`/api/v1/labs/${labA}/members`).expect(200);
-    expect(list.body.map((m: { userEmail: string }) => m.userEmail).sort()).toEqual(['analyst@a.test', 'boss@a.test']);
-    const added = await boss.agent.post(`/api/v1/labs/${labA}/members`).set('x-csrf-token', boss.csrf).send({ email: 'intern@a.test', name: 'Ian Intern' }).expect(201);
+    expect(list.body.map((m: { userEmail: string }) => m.userEmail).sort()).toEqual([
+      'analyst@a.test',
+      'boss@a.test',
+    ]);
+    const added = await boss.agent
+      .post(`/api/v1/labs/${labA}/members`)
+      .set('x-csrf-token', boss.csrf)
+      .send({ email: 'intern@a.test', name: 'Ian Intern' })
+      .expect(201);
     expect((await mailTo(t.ds, 'intern@a.test'))[0]!.subject).toBe('Your Ringlet account');
     await boss.agent.get(`/api/v1/labs/${labB}/members`).expect(404);
-    await boss.agent.post(`/api/v1/labs/${labB}/members`).set('x-csrf-token', boss.csrf).send({ email: 'spy@b.test', name: 'Spy' }).expect(404);
-    await boss.agent.delete(`/api/v1/labs/${labA}/members/${added.body.membership.id}`).set('x-csrf-token', boss.csrf).expect(204);
+    await boss.agent
+      .post(`/api/v1/labs/${labB}/members`)
+      .set('x-csrf-token', boss.csrf)
+      .send({ email: 'spy@b.test', name: 'Spy' })
+      .expect(404);
+    await boss.agent
+      .delete(`/api/v1/labs/${labA}/members/${added.body.membership.id}`)
+      .set('x-csrf-token', boss.csrf)
+      .expect(204);
     const analyst = await signedIn(t, 'analyst@a.test');
     await analyst.agent.get(`/api/v1/labs/${labA}/members`).expect(404);
   });
 
   it('audits admin actions', async () => {
     const actions = (await t.ds.getRepository(AuditEvent).find()).map((e) => e.action);
-    expect(actions).toEqual(expect.arrayContaining(['user.invited', 'organisation.created', 'membership.created', 'membership.deleted', 'user.updated']));
+    expect(actions).toEqual(
+      expect.arrayContaining([
+        'user.invited',
+        'organisation.created',
+        'membership.created',
+        'membership.deleted',
+        'user.updated',
+      ]),
+    );
   });
 });

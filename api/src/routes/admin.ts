@@ -25,54 +25,123 @@ import * as users from '../services/users';
 
 export function adminRoutes(api: ApiRouter, ctx: AppContext): void {
   const admin = ['admin'] as const;
-  api.add({ method: 'get', path: '/admin/users', tag: 'admin', summary: 'All users with their roles and memberships', access: admin, response: z.array(User), handler: () => users.listUsers(ctx) });
   api.add({
-    method: 'post', path: '/admin/users', tag: 'admin', summary: 'Invite a user by e-mail (creates the account, sends a first-password link)',
-    access: admin, body: UserInvite, status: 201, response: User,
+    method: 'get',
+    path: '/admin/users',
+    tag: 'admin',
+    summary: 'All users with their roles and memberships',
+    access: admin,
+    response: z.array(User),
+    handler: () => users.listUsers(ctx),
+  });
+  api.add({
+    method: 'post',
+    path: '/admin/users',
+    tag: 'admin',
+    summary: 'Invite a user by e-mail (creates the account, sends a first-password link)',
+    access: admin,
+    body: UserInvite,
+    status: 201,
+    response: User,
     handler: ({ body, user }) => users.inviteUser(ctx, user, body),
   });
   api.add({
-    method: 'patch', path: '/admin/users/{id}', tag: 'admin', summary: 'Change a user\'s name, roles or active flag',
-    access: admin, params: IdParams, body: UserUpdate, response: User,
+    method: 'patch',
+    path: '/admin/users/{id}',
+    tag: 'admin',
+    summary: "Change a user's name, roles or active flag",
+    access: admin,
+    params: IdParams,
+    body: UserUpdate,
+    response: User,
     handler: ({ params, body, user }) => users.updateUser(ctx, user, params.id, body),
   });
   api.add({
-    method: 'post', path: '/admin/users/{id}/invitation', tag: 'admin', summary: 'Send the user a new password link',
-    access: admin, params: IdParams, status: 202, response: z.object({ sent: z.literal(true) }),
+    method: 'post',
+    path: '/admin/users/{id}/invitation',
+    tag: 'admin',
+    summary: 'Send the user a new password link',
+    access: admin,
+    params: IdParams,
+    status: 202,
+    response: z.object({ sent: z.literal(true) }),
     handler: async ({ params, user }) => {
       await users.resendInvitation(ctx, user, params.id);
       return { sent: true as const };
     },
   });
-  api.add({ method: 'get', path: '/admin/organisations', tag: 'admin', summary: 'All organisations (labs and the provider)', access: admin, response: z.array(Organisation), handler: () => users.listOrganisations(ctx) });
   api.add({
-    method: 'post', path: '/admin/organisations', tag: 'admin', summary: 'Create a lab or provider organisation',
-    access: admin, body: OrganisationCreate, status: 201, response: Organisation,
+    method: 'get',
+    path: '/admin/organisations',
+    tag: 'admin',
+    summary: 'All organisations (labs and the provider)',
+    access: admin,
+    response: z.array(Organisation),
+    handler: () => users.listOrganisations(ctx),
+  });
+  api.add({
+    method: 'post',
+    path: '/admin/organisations',
+    tag: 'admin',
+    summary: 'Create a lab or provider organisation',
+    access: admin,
+    body: OrganisationCreate,
+    status: 201,
+    response: Organisation,
     handler: ({ body, user }) => users.createOrganisation(ctx, user, body),
   });
   api.add({
-    method: 'patch', path: '/admin/organisations/{id}', tag: 'admin', summary: 'Change an organisation',
-    access: admin, params: IdParams, body: OrganisationUpdate, response: Organisation,
+    method: 'patch',
+    path: '/admin/organisations/{id}',
+    tag: 'admin',
+    summary: 'Change an organisation',
+    access: admin,
+    params: IdParams,
+    body: OrganisationUpdate,
+    response: Organisation,
     handler: ({ params, body, user }) => users.updateOrganisation(ctx, user, params.id, body),
   });
   api.add({
-    method: 'get', path: '/admin/organisations/{id}/memberships', tag: 'admin', summary: 'Members of an organisation',
-    access: admin, params: IdParams, response: z.array(Membership),
+    method: 'get',
+    path: '/admin/organisations/{id}/memberships',
+    tag: 'admin',
+    summary: 'Members of an organisation',
+    access: admin,
+    params: IdParams,
+    response: z.array(Membership),
     handler: ({ params }) => users.listMemberships(ctx.ds.manager, params.id),
   });
   api.add({
-    method: 'post', path: '/admin/memberships', tag: 'admin', summary: 'Add a user to an organisation',
-    access: admin, body: MembershipCreate, status: 201, response: Membership,
+    method: 'post',
+    path: '/admin/memberships',
+    tag: 'admin',
+    summary: 'Add a user to an organisation',
+    access: admin,
+    body: MembershipCreate,
+    status: 201,
+    response: Membership,
     handler: ({ body, user }) => users.createMembership(ctx, user, body),
   });
   api.add({
-    method: 'patch', path: '/admin/memberships/{id}', tag: 'admin', summary: 'Set or clear the lab-manager flag',
-    access: admin, params: IdParams, body: MembershipUpdate, response: Membership,
-    handler: ({ params, body, user }) => users.updateMembership(ctx, user, params.id, body.isManager),
+    method: 'patch',
+    path: '/admin/memberships/{id}',
+    tag: 'admin',
+    summary: 'Set or clear the lab-manager flag',
+    access: admin,
+    params: IdParams,
+    body: MembershipUpdate,
+    response: Membership,
+    handler: ({ params, body, user }) =>
+      users.updateMembership(ctx, user, params.id, body.isManager),
   });
   api.add({
-    method: 'delete', path: '/admin/memberships/{id}', tag: 'admin', summary: 'Remove a user from an organisation',
-    access: admin, params: IdParams, status: 204,
+    method: 'delete',
+    path: '/admin/memberships/{id}',
+    tag: 'admin',
+    summary: 'Remove a user from an organisation',
+    access: admin,
+    params: IdParams,
+    status: 204,
     handler: ({ params, user }) => users.deleteMembership(ctx, user, params.id),
   });
 
@@ -82,44 +151,71 @@ export function adminRoutes(api: ApiRouter, ctx: AppContext): void {
     if (!user.roles.includes('admin') && !managesLab(user, labId)) throw notFound('The lab');
   };
   api.add({
-    method: 'get', path: '/labs/{id}/members', tag: 'labs', summary: 'Members of my lab (lab managers)',
-    access: labAccess, params: IdParams, response: z.array(Membership),
+    method: 'get',
+    path: '/labs/{id}/members',
+    tag: 'labs',
+    summary: 'Members of my lab (lab managers)',
+    access: labAccess,
+    params: IdParams,
+    response: z.array(Membership),
     handler: ({ params, user }) => {
       assertManager(user, params.id);
       return users.listMemberships(ctx.ds.manager, params.id);
     },
   });
   api.add({
-    method: 'post', path: '/labs/{id}/members', tag: 'labs', summary: 'Invite a colleague into my lab (lab managers)',
+    method: 'post',
+    path: '/labs/{id}/members',
+    tag: 'labs',
+    summary: 'Invite a colleague into my lab (lab managers)',
     description:
       'A new address gets an account, the membership and a first-password link (outcome member-added). An existing account gets an invitation ' +
       'it accepts or declines, and no membership until it accepts (outcome invitation-sent). A PT provider staff account (admin, coordinator, ' +
       'assessor) answers 422 staff_account; a member already, 409.',
-    access: labAccess, params: IdParams, body: LabMemberInvite, status: 201, response: LabMemberInviteResult,
+    access: labAccess,
+    params: IdParams,
+    body: LabMemberInvite,
+    status: 201,
+    response: LabMemberInviteResult,
     handler: ({ params, body, user }) => {
       assertManager(user, params.id);
       return users.inviteLabMember(ctx, user, params.id, body);
     },
   });
   api.add({
-    method: 'delete', path: '/labs/{id}/members/{membershipId}', tag: 'labs', summary: 'Remove a colleague from my lab (lab managers)',
-    access: labAccess, params: LabMemberParams, status: 204,
+    method: 'delete',
+    path: '/labs/{id}/members/{membershipId}',
+    tag: 'labs',
+    summary: 'Remove a colleague from my lab (lab managers)',
+    access: labAccess,
+    params: LabMemberParams,
+    status: 204,
     handler: ({ params, user }) => {
       assertManager(user, params.id);
       return users.deleteMembership(ctx, user, params.membershipId, params.id);
     },
   });
   api.add({
-    method: 'get', path: '/labs/{id}/invitations', tag: 'labs', summary: 'Open invitations of my lab (lab managers)',
-    access: labAccess, params: IdParams, response: z.array(LabInvitation),
+    method: 'get',
+    path: '/labs/{id}/invitations',
+    tag: 'labs',
+    summary: 'Open invitations of my lab (lab managers)',
+    access: labAccess,
+    params: IdParams,
+    response: z.array(LabInvitation),
     handler: ({ params, user }) => {
       assertManager(user, params.id);
       return users.listLabInvitations(ctx.ds.manager, params.id);
     },
   });
   api.add({
-    method: 'delete', path: '/labs/{id}/invitations/{invitationId}', tag: 'labs', summary: 'Withdraw an open invitation of my lab (lab managers)',
-    access: labAccess, params: LabInvitationParams, status: 204,
+    method: 'delete',
+    path: '/labs/{id}/invitations/{invitationId}',
+    tag: 'labs',
+    summary: 'Withdraw an open invitation of my lab (lab managers)',
+    access: labAccess,
+    params: LabInvitationParams,
+    status: 204,
     handler: ({ params, user }) => {
       assertManager(user, params.id);
       return users.withdrawLabInvitation(ctx, user, params.id, params.invitationId);
@@ -128,14 +224,24 @@ export function adminRoutes(api: ApiRouter, ctx: AppContext): void {
 
   // The invited person answers. Any signed-in account may hold invitations (it has no lab yet).
   api.add({
-    method: 'get', path: '/my/lab-invitations', tag: 'labs', summary: 'Labs that invited me, open invitations only',
-    access: 'signed-in', response: z.array(LabInvitation),
+    method: 'get',
+    path: '/my/lab-invitations',
+    tag: 'labs',
+    summary: 'Labs that invited me, open invitations only',
+    access: 'signed-in',
+    response: z.array(LabInvitation),
     handler: ({ user }) => users.listMyInvitations(ctx.ds.manager, user.id),
   });
   api.add({
-    method: 'post', path: '/my/lab-invitations/{id}/accept', tag: 'labs', summary: 'Accept a lab\u2019s invitation: I become a member',
-    description: 'Answers my updated account. The lab I acted for stays chosen; a person in several labs can switch with PUT /auth/acting-lab.',
-    access: 'signed-in', params: IdParams, response: Me,
+    method: 'post',
+    path: '/my/lab-invitations/{id}/accept',
+    tag: 'labs',
+    summary: 'Accept a lab\u2019s invitation: I become a member',
+    description:
+      'Answers my updated account. The lab I acted for stays chosen; a person in several labs can switch with PUT /auth/acting-lab.',
+    access: 'signed-in',
+    params: IdParams,
+    response: Me,
     handler: async ({ req, params, user }) => {
       await users.answerInvitation(ctx, user, params.id, true);
       if (!req.session.actingLabId && user.actingLabId) req.session.actingLabId = user.actingLabId;
@@ -145,8 +251,13 @@ export function adminRoutes(api: ApiRouter, ctx: AppContext): void {
     },
   });
   api.add({
-    method: 'post', path: '/my/lab-invitations/{id}/decline', tag: 'labs', summary: 'Decline a lab\u2019s invitation',
-    access: 'signed-in', params: IdParams, status: 204,
+    method: 'post',
+    path: '/my/lab-invitations/{id}/decline',
+    tag: 'labs',
+    summary: 'Decline a lab\u2019s invitation',
+    access: 'signed-in',
+    params: IdParams,
+    status: 204,
     handler: ({ params, user }) => users.answerInvitation(ctx, user, params.id, false),
   });
 }

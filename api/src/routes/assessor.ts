@@ -21,7 +21,8 @@ export function assessorRoutes(api: ApiRouter, ctx: AppContext): void {
     method: 'get',
     path: '/assessor/labs/{id}/rounds',
     tag: 'assessor',
-    summary: 'A granting lab’s rounds with its codes and signals, its investigations and instrument-check history',
+    summary:
+      'A granting lab’s rounds with its codes and signals, its investigations and instrument-check history',
     description: '404 without an active grant from that lab.',
     access: ['assessor'],
     params: IdParams,
@@ -32,8 +33,10 @@ export function assessorRoutes(api: ApiRouter, ctx: AppContext): void {
     method: 'get',
     path: '/assessor/labs/{id}/evidence.zip',
     tag: 'assessor',
-    summary: 'Evidence pack (zip): round reports, workbooks, individual reports, certificates, investigations, instrument checks, audit extract, manifest of SHA-256 checksums',
-    description: '404 without an active grant from that lab. Files of large rounds come from the report cache (built once).',
+    summary:
+      'Evidence pack (zip): round reports, workbooks, individual reports, certificates, investigations, instrument checks, audit extract, manifest of SHA-256 checksums',
+    description:
+      '404 without an active grant from that lab. Files of large rounds come from the report cache (built once).',
     access: ['assessor'],
     params: IdParams,
     produces: 'application/zip',

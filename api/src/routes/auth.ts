@@ -20,7 +20,12 @@ import { HttpError, notFound } from '../http/errors';
 import type { ApiRouter } from '../http/route';
 import { audit } from '../services/audit';
 import type { AppContext } from '../services/context';
-import { changePassword, passwordTokenInfo, requestPasswordReset, setPasswordWithToken } from '../services/passwords';
+import {
+  changePassword,
+  passwordTokenInfo,
+  requestPasswordReset,
+  setPasswordWithToken,
+} from '../services/passwords';
 import type { RateLimiter } from '../services/rate-limit';
 import { loadSessionUser } from '../services/users';
 
@@ -31,7 +36,9 @@ const INVALID = 'E-mail or password is incorrect.';
 
 function login(req: Request, user: Express.User): Promise<void> {
   // passport ≥ 0.6 regenerates the session on login (no session fixation)
-  return new Promise((resolve, reject) => req.login(user, (err) => (err ? reject(err) : resolve())));
+  return new Promise((resolve, reject) =>
+    req.login(user, (err) => (err ? reject(err) : resolve())),
+  );
 }
 function logout(req: Request): Promise<void> {
   return new Promise((resolve, reject) => req.logout((err) => (err ? reject(err) : resolve())));
@@ -48,10 +55,21 @@ export function authRoutes(
    * A refused sign-in in the audit trail: the account's id when the address has one (the typed
    * address either way, so attempts on unknown addresses show too) and the client address.
    */
-  const auditFailure = async (action: string, email: string, ip: string | undefined, details: Record<string, unknown>) => {
+  const auditFailure = async (
+    action: string,
+    email: string,
+    ip: string | undefined,
+    details: Record<string, unknown>,
+  ) => {
     try {
-      const known = await ctx.ds.getRepository(User).findOne({ where: { email }, select: { id: true } });
-      await audit(ctx.ds.manager, null, action, 'user', known?.id ?? null, { email, ip, ...details });
+      const known = await ctx.ds
+        .getRepository(User)
+        .findOne({ where: { email }, select: { id: true } });
+      await audit(ctx.ds.manager, null, action, 'user', known?.id ?? null, {
+        email,
+        ip,
+        ...details,
+      });
     } catch (err) {
       ctx.log('audit of a refused sign-in failed', err);
     }
@@ -84,12 +102,23 @@ export function authRoutes(
       const ipHits = await limiter.hit(ipKey, SIGN_IN_LIMITS.windowSeconds);
       if (ipHits > SIGN_IN_LIMITS.perIp) {
         // audited once, when the address first goes over the limit
-        if (ipHits === SIGN_IN_LIMITS.perIp + 1) await auditFailure('auth.rate-limited', body.email, req.ip, { reason: 'address' });
-        throw new HttpError(429, 'rate_limited', 'Too many sign-in attempts from this address. Wait 15 minutes and try again.');
+        if (ipHits === SIGN_IN_LIMITS.perIp + 1)
+          await auditFailure('auth.rate-limited', body.email, req.ip, { reason: 'address' });
+        throw new HttpError(
+          429,
+          'rate_limited',
+          'Too many sign-in attempts from this address. Wait 15 minutes and try again.',
+        );
       }
-      if ((await limiter.count(emailKey, SIGN_IN_LIMITS.windowSeconds)) >= SIGN_IN_LIMITS.perEmail) {
+      if (
+        (await limiter.count(emailKey, SIGN_IN_LIMITS.windowSeconds)) >= SIGN_IN_LIMITS.perEmail
+      ) {
         await auditFailure('auth.sign-in-refused', body.email, req.ip, { reason: 'locked' });
-        throw new HttpError(429, 'locked', 'Too many failed attempts for this account. Wait 15 minutes or reset your password.');
+        throw new HttpError(
+          429,
+          'locked',
+          'Too many failed attempts for this account. Wait 15 minutes or reset your password.',
+        );
       }
       req.body = body; // the normalised e-mail goes to the strategy
       const user = await authenticateLocal(passport, req, res);
@@ -97,7 +126,10 @@ export function authRoutes(
         const failures = await limiter.hit(emailKey, SIGN_IN_LIMITS.windowSeconds);
         await auditFailure('auth.sign-in-failed', body.email, req.ip, { reason, failures });
         if (failures === SIGN_IN_LIMITS.perEmail) {
-          await auditFailure('auth.locked-out', body.email, req.ip, { failures, minutes: SIGN_IN_LIMITS.windowSeconds / 60 });
+          await auditFailure('auth.locked-out', body.email, req.ip, {
+            failures,
+            minutes: SIGN_IN_LIMITS.windowSeconds / 60,
+          });
         }
         return new HttpError(401, 'invalid_credentials', INVALID);
       };
@@ -150,7 +182,11 @@ export function authRoutes(
     response: z.object({ accepted: z.literal(true) }),
     handler: async ({ req, body }) => {
       if ((await limiter.hit(`reset:ip:${req.ip}`, 3600)) > 20) {
-        throw new HttpError(429, 'rate_limited', 'Too many reset requests. Wait an hour and try again.');
+        throw new HttpError(
+          429,
+          'rate_limited',
+          'Too many reset requests. Wait an hour and try again.',
+        );
       }
       await requestPasswordReset(ctx, body.email);
       return { accepted: true as const };
@@ -187,13 +223,21 @@ export function authRoutes(
     path: '/auth/password/change',
     tag: 'auth',
     summary: 'Change my password (the current one must match)',
-    description: 'Every other session of the account ends (other browsers are signed out); this one stays. A wrong current password answers 422.',
+    description:
+      'Every other session of the account ends (other browsers are signed out); this one stays. A wrong current password answers 422.',
     access: 'signed-in',
     body: ChangePasswordRequest,
     status: 204,
     handler: async ({ req, body, user }) => {
-      if ((await limiter.hit(`password-change:${user.id}`, SIGN_IN_LIMITS.windowSeconds)) > SIGN_IN_LIMITS.perEmail * 2) {
-        throw new HttpError(429, 'rate_limited', 'Too many attempts. Wait 15 minutes and try again.');
+      if (
+        (await limiter.hit(`password-change:${user.id}`, SIGN_IN_LIMITS.windowSeconds)) >
+        SIGN_IN_LIMITS.perEmail * 2
+      ) {
+        throw new HttpError(
+          429,
+          'rate_limited',
+          'Too many attempts. Wait 15 minutes and try again.',
+        );
       }
       await changePassword(ctx, user.id, body.currentPassword, body.password, req.sessionID);
     },
@@ -212,7 +256,9 @@ export function authRoutes(
     handler: async ({ req, body, user }) => {
       if (!user.memberships.some((m) => m.organisationId === body.labId)) throw notFound('The lab');
       req.session.actingLabId = body.labId;
-      await new Promise<void>((resolve, reject) => req.session.save((err) => (err ? reject(err) : resolve())));
+      await new Promise<void>((resolve, reject) =>
+        req.session.save((err) => (err ? reject(err) : resolve())),
+      );
       return toMe(actingFor(user, body.labId));
     },
   });

@@ -20,7 +20,12 @@ import {
   WorkbookUploadResult,
 } from '../../../shared/contracts/bench';
 import { Id } from '../../../shared/contracts/common';
-import { ATTACHMENT_LIMIT, describeLimit, RECEIPT_PHOTO_LIMIT, RESULTS_WORKBOOK_LIMIT } from '../../../shared/contracts/upload-limits';
+import {
+  ATTACHMENT_LIMIT,
+  describeLimit,
+  RECEIPT_PHOTO_LIMIT,
+  RESULTS_WORKBOOK_LIMIT,
+} from '../../../shared/contracts/upload-limits';
 import type { SessionUser } from '../auth/session-user';
 import { badRequest } from '../http/errors';
 import { uploadedFile, uploadRule } from '../http/uploads';
@@ -33,21 +38,33 @@ import * as submissions from '../services/submissions';
 import * as workbook from '../services/submissions-workbook';
 
 const lab = ['lab'] as const;
-const LAB_DESCRIPTION = 'A user in several labs names the lab with `?labId=` or the `x-lab-id` header. Another lab\u2019s objects answer 404.';
+const LAB_DESCRIPTION =
+  'A user in several labs names the lab with `?labId=` or the `x-lab-id` header. Another lab\u2019s objects answer 404.';
 
 /** The lab this request acts for (query wins over header), checked against the user's memberships. */
 function labOf(req: Request, user: SessionUser, query: { labId?: string }): string {
   const header = req.get('x-lab-id');
   if (!query.labId && header && !Id.safeParse(header).success) {
-    throw badRequest('x-lab-id: not a valid lab id.', [{ path: 'x-lab-id', message: 'Not a valid lab id.' }]);
+    throw badRequest('x-lab-id: not a valid lab id.', [
+      { path: 'x-lab-id', message: 'Not a valid lab id.' },
+    ]);
   }
   return bench.resolveLab(user, query.labId ?? header);
 }
 
-function sendFile(res: Response, data: Buffer, contentType: string, fileName: string, sha256?: string): void {
+function sendFile(
+  res: Response,
+  data: Buffer,
+  contentType: string,
+  fileName: string,
+  sha256?: string,
+): void {
   res.setHeader('Content-Type', contentType);
   res.setHeader('Content-Length', String(data.length));
-  res.setHeader('Content-Disposition', `attachment; filename="${fileName.replace(/[^\x20-\x7e]|"/g, '_')}"; filename*=UTF-8''${encodeURIComponent(fileName)}`);
+  res.setHeader(
+    'Content-Disposition',
+    `attachment; filename="${fileName.replace(/[^\x20-\x7e]|"/g, '_')}"; filename*=UTF-8''${encodeURIComponent(fileName)}`,
+  );
   res.setHeader('Cache-Control', 'private, no-store');
   if (sha256) res.setHeader('X-Checksum-Sha256', sha256);
   res.status(200).end(data);
@@ -56,30 +73,71 @@ function sendFile(res: Response, data: Buffer, contentType: string, fileName: st
 /** Lab bench: the lab's rounds, receipt, instrument checks, results (draft, submit, amend), files, workbook. */
 export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
   api.add({
-    method: 'get', path: '/my/rounds', tag: 'lab bench', summary: 'My lab\u2019s rounds: invited, enrolled, due soon, submitted, published',
-    description: LAB_DESCRIPTION, access: lab, query: LabQuery, response: z.array(MyRound),
+    method: 'get',
+    path: '/my/rounds',
+    tag: 'lab bench',
+    summary: 'My lab\u2019s rounds: invited, enrolled, due soon, submitted, published',
+    description: LAB_DESCRIPTION,
+    access: lab,
+    query: LabQuery,
+    response: z.array(MyRound),
     handler: ({ req, user, query }) => bench.listMyRounds(ctx, labOf(req, user, query)),
   });
   api.add({
-    method: 'get', path: '/my/rounds/{id}', tag: 'lab bench', summary: 'One of my rounds: items, measurands, instructions with safety cautions, receipt, submission state',
-    description: LAB_DESCRIPTION, access: lab, params: RoundIdParams, query: LabQuery, response: MyRoundDetail,
-    handler: ({ req, user, query, params }) => bench.getMyRound(ctx, labOf(req, user, query), params.id),
+    method: 'get',
+    path: '/my/rounds/{id}',
+    tag: 'lab bench',
+    summary:
+      'One of my rounds: items, measurands, instructions with safety cautions, receipt, submission state',
+    description: LAB_DESCRIPTION,
+    access: lab,
+    params: RoundIdParams,
+    query: LabQuery,
+    response: MyRoundDetail,
+    handler: ({ req, user, query, params }) =>
+      bench.getMyRound(ctx, labOf(req, user, query), params.id),
   });
 
   // Receipt (JSON, or multipart with an optional `photo`).
   // Uploads: every multipart route goes through the one upload rule (api/src/http/uploads.ts).
   api.router.put('/rounds/:id/receipt', uploadRule(RECEIPT_PHOTO_LIMIT, lab));
   api.add({
-    method: 'put', path: '/rounds/{id}/receipt', tag: 'lab bench', summary: 'Record the arrival of the test items: date, condition, notes, optional photo (multipart field `photo`, JPEG/PNG/WebP)',
-    description: `${LAB_DESCRIPTION} ${describeLimit(RECEIPT_PHOTO_LIMIT)}`, access: lab, params: RoundIdParams, query: LabQuery, body: ReceiptInput, response: MyRoundDetail,
+    method: 'put',
+    path: '/rounds/{id}/receipt',
+    tag: 'lab bench',
+    summary:
+      'Record the arrival of the test items: date, condition, notes, optional photo (multipart field `photo`, JPEG/PNG/WebP)',
+    description: `${LAB_DESCRIPTION} ${describeLimit(RECEIPT_PHOTO_LIMIT)}`,
+    access: lab,
+    params: RoundIdParams,
+    query: LabQuery,
+    body: ReceiptInput,
+    response: MyRoundDetail,
     handler: ({ req, user, query, params, body }) =>
-      bench.saveReceipt(ctx, user, labOf(req, user, query), params.id, body, uploadedFile(req)?.buffer ?? null),
+      bench.saveReceipt(
+        ctx,
+        user,
+        labOf(req, user, query),
+        params.id,
+        body,
+        uploadedFile(req)?.buffer ?? null,
+      ),
   });
   api.add({
-    method: 'get', path: '/rounds/{id}/receipt/photo', tag: 'lab bench', summary: 'The receipt photo', access: lab,
-    params: RoundIdParams, query: LabQuery, produces: 'image/*',
+    method: 'get',
+    path: '/rounds/{id}/receipt/photo',
+    tag: 'lab bench',
+    summary: 'The receipt photo',
+    access: lab,
+    params: RoundIdParams,
+    query: LabQuery,
+    produces: 'image/*',
     handler: async ({ req, res, user, query, params }) => {
-      const { enrolment } = await bench.findEnrolment(ctx.ds.manager, labOf(req, user, query), params.id);
+      const { enrolment } = await bench.findEnrolment(
+        ctx.ds.manager,
+        labOf(req, user, query),
+        params.id,
+      );
       const photo = await bench.receiptPhoto(ctx, enrolment.id);
       sendFile(res, photo.data, photo.type, 'receipt-photo');
     },
@@ -87,31 +145,74 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
 
   // Instrument checks.
   api.add({
-    method: 'post', path: '/my/instrument-checks', tag: 'lab bench', summary: 'Record an instrument check with a reference material; Ringlet judges it',
-    description: LAB_DESCRIPTION, access: lab, query: LabQuery, body: InstrumentCheckInput, status: 201, response: InstrumentCheck,
-    handler: ({ req, user, query, body }) => checks.recordInstrumentCheck(ctx, user, labOf(req, user, query), body),
+    method: 'post',
+    path: '/my/instrument-checks',
+    tag: 'lab bench',
+    summary: 'Record an instrument check with a reference material; Ringlet judges it',
+    description: LAB_DESCRIPTION,
+    access: lab,
+    query: LabQuery,
+    body: InstrumentCheckInput,
+    status: 201,
+    response: InstrumentCheck,
+    handler: ({ req, user, query, body }) =>
+      checks.recordInstrumentCheck(ctx, user, labOf(req, user, query), body),
   });
   api.add({
-    method: 'get', path: '/my/instrument-checks', tag: 'lab bench', summary: 'My lab\u2019s instrument checks, newest first (optionally one instrument)',
-    description: LAB_DESCRIPTION, access: lab, query: InstrumentCheckQuery, response: z.array(InstrumentCheck),
-    handler: ({ req, user, query }) => checks.listInstrumentChecks(ctx, labOf(req, user, query), query.instrument),
+    method: 'get',
+    path: '/my/instrument-checks',
+    tag: 'lab bench',
+    summary: 'My lab\u2019s instrument checks, newest first (optionally one instrument)',
+    description: LAB_DESCRIPTION,
+    access: lab,
+    query: InstrumentCheckQuery,
+    response: z.array(InstrumentCheck),
+    handler: ({ req, user, query }) =>
+      checks.listInstrumentChecks(ctx, labOf(req, user, query), query.instrument),
   });
 
   // Results: draft, submit, versions.
   api.add({
-    method: 'get', path: '/rounds/{id}/submission', tag: 'lab bench', summary: 'My results for the round: the draft and every submitted version',
-    description: LAB_DESCRIPTION, access: lab, params: RoundIdParams, query: LabQuery, response: SubmissionView,
-    handler: ({ req, user, query, params }) => submissions.getSubmission(ctx, labOf(req, user, query), params.id),
+    method: 'get',
+    path: '/rounds/{id}/submission',
+    tag: 'lab bench',
+    summary: 'My results for the round: the draft and every submitted version',
+    description: LAB_DESCRIPTION,
+    access: lab,
+    params: RoundIdParams,
+    query: LabQuery,
+    response: SubmissionView,
+    handler: ({ req, user, query, params }) =>
+      submissions.getSubmission(ctx, labOf(req, user, query), params.id),
   });
   api.add({
-    method: 'put', path: '/rounds/{id}/submission', tag: 'lab bench', summary: 'Save the draft (autosave); 409 draft_conflict when baseRevision is stale, 409 submission_locked after the lock',
-    description: LAB_DESCRIPTION, access: lab, params: RoundIdParams, query: LabQuery, body: DraftSave, response: DraftSaved,
-    handler: ({ req, user, query, params, body }) => submissions.saveDraft(ctx, user, labOf(req, user, query), params.id, body),
+    method: 'put',
+    path: '/rounds/{id}/submission',
+    tag: 'lab bench',
+    summary:
+      'Save the draft (autosave); 409 draft_conflict when baseRevision is stale, 409 submission_locked after the lock',
+    description: LAB_DESCRIPTION,
+    access: lab,
+    params: RoundIdParams,
+    query: LabQuery,
+    body: DraftSave,
+    response: DraftSaved,
+    handler: ({ req, user, query, params, body }) =>
+      submissions.saveDraft(ctx, user, labOf(req, user, query), params.id, body),
   });
   api.add({
-    method: 'post', path: '/rounds/{id}/submission/submit', tag: 'lab bench',
-    summary: 'Submit or amend: one new version, atomic and idempotent (idempotencyKey); 422 names a broken rule, 409 after the lock',
-    description: LAB_DESCRIPTION, access: lab, params: RoundIdParams, query: LabQuery, body: SubmitRequest, status: 201, response: SubmitResult,
+    method: 'post',
+    path: '/rounds/{id}/submission/submit',
+    tag: 'lab bench',
+    summary:
+      'Submit or amend: one new version, atomic and idempotent (idempotencyKey); 422 names a broken rule, 409 after the lock',
+    description: LAB_DESCRIPTION,
+    access: lab,
+    params: RoundIdParams,
+    query: LabQuery,
+    body: SubmitRequest,
+    status: 201,
+    response: SubmitResult,
     handler: async ({ req, res, user, query, params, body }) => {
       const result = await submissions.submit(ctx, user, labOf(req, user, query), params.id, body);
       res.status(result.replayed ? 200 : 201).json(result);
@@ -121,26 +222,55 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
   // Attachments.
   api.router.post('/rounds/:id/submission/attachments', uploadRule(ATTACHMENT_LIMIT, lab));
   api.add({
-    method: 'post', path: '/rounds/{id}/submission/attachments', tag: 'lab bench',
-    summary: 'Attach a raw-data file (multipart field `file`; CSV/TXT/PDF/XLSX by content); a correlation CSV is re-analysed by cumulants with the optional fields `laserWavelengthNm` and `scatteringAngleDeg` (else the item\'s conditions, else 633 nm and 173°, reported as assumed)',
+    method: 'post',
+    path: '/rounds/{id}/submission/attachments',
+    tag: 'lab bench',
+    summary:
+      "Attach a raw-data file (multipart field `file`; CSV/TXT/PDF/XLSX by content); a correlation CSV is re-analysed by cumulants with the optional fields `laserWavelengthNm` and `scatteringAngleDeg` (else the item's conditions, else 633 nm and 173°, reported as assumed)",
     description: `${LAB_DESCRIPTION} ${describeLimit(ATTACHMENT_LIMIT)} A correlation CSV of more than ${ATTACHMENT_LIMIT.maxCorrelationRows.toLocaleString('en-GB')} lines is stored but not re-analysed.`,
-    access: lab, params: RoundIdParams, query: LabQuery, body: AttachmentUploadFields, status: 201, response: AttachmentDto,
+    access: lab,
+    params: RoundIdParams,
+    query: LabQuery,
+    body: AttachmentUploadFields,
+    status: 201,
+    response: AttachmentDto,
     handler: ({ req, user, query, params, body }) => {
-      return attachments.uploadAttachment(ctx, user, labOf(req, user, { labId: query.labId ?? body.labId }), params.id, uploadedFile(req), body.testItemId, {
-        laserWavelengthNm: body.laserWavelengthNm,
-        scatteringAngleDeg: body.scatteringAngleDeg,
-      });
+      return attachments.uploadAttachment(
+        ctx,
+        user,
+        labOf(req, user, { labId: query.labId ?? body.labId }),
+        params.id,
+        uploadedFile(req),
+        body.testItemId,
+        {
+          laserWavelengthNm: body.laserWavelengthNm,
+          scatteringAngleDeg: body.scatteringAngleDeg,
+        },
+      );
     },
   });
   api.add({
-    method: 'get', path: '/rounds/{id}/submission/attachments', tag: 'lab bench', summary: 'My files for the round, with checksums and re-analysis',
-    description: LAB_DESCRIPTION, access: lab, params: RoundIdParams, query: LabQuery, response: z.array(AttachmentDto),
-    handler: ({ req, user, query, params }) => attachments.listAttachments(ctx, labOf(req, user, query), params.id),
+    method: 'get',
+    path: '/rounds/{id}/submission/attachments',
+    tag: 'lab bench',
+    summary: 'My files for the round, with checksums and re-analysis',
+    description: LAB_DESCRIPTION,
+    access: lab,
+    params: RoundIdParams,
+    query: LabQuery,
+    response: z.array(AttachmentDto),
+    handler: ({ req, user, query, params }) =>
+      attachments.listAttachments(ctx, labOf(req, user, query), params.id),
   });
   api.add({
-    method: 'get', path: '/rounds/{id}/submission/attachments/{attachmentId}', tag: 'lab bench',
+    method: 'get',
+    path: '/rounds/{id}/submission/attachments/{attachmentId}',
+    tag: 'lab bench',
     summary: 'Download one file (the lab its own; a coordinator any file of the round)',
-    access: ['lab', 'coordinator'], params: AttachmentParams, query: LabQuery, produces: 'application/octet-stream',
+    access: ['lab', 'coordinator'],
+    params: AttachmentParams,
+    query: LabQuery,
+    produces: 'application/octet-stream',
     handler: async ({ req, res, user, query, params }) => {
       const labId = user.roles.includes('coordinator') ? null : labOf(req, user, query);
       const file = await attachments.readAttachment(ctx, labId, params.id, params.attachmentId);
@@ -151,21 +281,48 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
 
   // Bulk entry.
   api.add({
-    method: 'get', path: '/rounds/{id}/submission/template.xlsx', tag: 'lab bench', summary: 'The results workbook for the round, prefilled with my draft',
-    description: LAB_DESCRIPTION, access: lab, params: RoundIdParams, query: LabQuery,
+    method: 'get',
+    path: '/rounds/{id}/submission/template.xlsx',
+    tag: 'lab bench',
+    summary: 'The results workbook for the round, prefilled with my draft',
+    description: LAB_DESCRIPTION,
+    access: lab,
+    params: RoundIdParams,
+    query: LabQuery,
     produces: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
     handler: async ({ req, res, user, query, params }) => {
-      const { buffer, fileName } = await workbook.buildTemplate(ctx, labOf(req, user, query), params.id);
-      sendFile(res, buffer, 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet', fileName);
+      const { buffer, fileName } = await workbook.buildTemplate(
+        ctx,
+        labOf(req, user, query),
+        params.id,
+      );
+      sendFile(
+        res,
+        buffer,
+        'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+        fileName,
+      );
     },
   });
   api.router.post('/rounds/:id/submission/upload.xlsx', uploadRule(RESULTS_WORKBOOK_LIMIT, lab));
   api.add({
-    method: 'post', path: '/rounds/{id}/submission/upload.xlsx', tag: 'lab bench',
-    summary: 'Upload the filled workbook (multipart field `file`) into the draft; problems name sheet, row and column',
+    method: 'post',
+    path: '/rounds/{id}/submission/upload.xlsx',
+    tag: 'lab bench',
+    summary:
+      'Upload the filled workbook (multipart field `file`) into the draft; problems name sheet, row and column',
     description: `${LAB_DESCRIPTION} ${describeLimit(RESULTS_WORKBOOK_LIMIT)} More answers 413 naming the limit; a formula cell answers 422 naming the cell.`,
-    access: lab, params: RoundIdParams, query: LabQuery, response: WorkbookUploadResult,
+    access: lab,
+    params: RoundIdParams,
+    query: LabQuery,
+    response: WorkbookUploadResult,
     handler: ({ req, user, query, params }) =>
-      workbook.uploadWorkbook(ctx, user, labOf(req, user, query), params.id, uploadedFile(req)?.buffer),
+      workbook.uploadWorkbook(
+        ctx,
+        user,
+        labOf(req, user, query),
+        params.id,
+        uploadedFile(req)?.buffer,
+      ),
   });
 }

@@ -8,23 +8,35 @@ import type { AppContext } from '../services/context';
 export function boardRoutes(api: ApiRouter, ctx: AppContext): void {
   const readers = ['coordinator', 'lab', 'assessor'] as const;
   api.add({
-    method: 'get', path: '/boards', tag: 'board', summary: 'Rounds whose Consensus board I may open',
-    access: readers, response: z.array(BoardListEntry),
+    method: 'get',
+    path: '/boards',
+    tag: 'board',
+    summary: 'Rounds whose Consensus board I may open',
+    access: readers,
+    response: z.array(BoardListEntry),
     handler: ({ user }) => listBoards(ctx, user),
   });
   api.add({
-    method: 'get', path: '/rounds/{id}/board', tag: 'board',
+    method: 'get',
+    path: '/rounds/{id}/board',
+    tag: 'board',
     summary: 'Consensus board: one row per participant code, scores per item × measurand',
     description:
       'Coordinators see the newest evaluation and may ask for lab names (reveal=names). A lab sees codes only, its own code listed in ownCodes; ' +
       'an assessor sees codes and the names of the labs that granted access. Labs and assessors see published evaluations only; another round answers 404.',
-    access: readers, params: IdParams, query: BoardQuery, response: BoardData,
+    access: readers,
+    params: IdParams,
+    query: BoardQuery,
+    response: BoardData,
     handler: async ({ params, query, user, res }) => {
       // Written directly (no re-serialisation, no ETag hashing of a large body).
       const parts = await boardJson(ctx, user, params.id, query.reveal === 'names');
       res.status(200);
       res.setHeader('Content-Type', 'application/json; charset=utf-8');
-      res.setHeader('Content-Length', parts.reduce((n, b) => n + b.length, 0));
+      res.setHeader(
+        'Content-Length',
+        parts.reduce((n, b) => n + b.length, 0),
+      );
       res.setHeader('Cache-Control', 'private, no-store');
       for (const b of parts) res.write(b);
       res.end();

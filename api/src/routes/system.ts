@@ -10,7 +10,11 @@ import type { AppContext } from '../services/context';
 import { VERSION } from '../version';
 
 /** Liveness answer: the process runs (no database fields: it does not ask the database). */
-const LiveResponse = z.object({ status: z.literal('ok'), version: z.string(), mode: HealthResponse.shape.mode });
+const LiveResponse = z.object({
+  status: z.literal('ok'),
+  version: z.string(),
+  mode: HealthResponse.shape.mode,
+});
 
 export function systemRoutes(api: ApiRouter, ctx: AppContext): void {
   // Readiness: the database answers. 503 (with Retry-After) while it does not, so a load balancer
@@ -22,7 +26,12 @@ export function systemRoutes(api: ApiRouter, ctx: AppContext): void {
     } catch {
       database = 'down';
     }
-    const body: HealthResponse = { status: database === 'up' ? 'ok' : 'degraded', database, version: VERSION, mode: ctx.config.mode };
+    const body: HealthResponse = {
+      status: database === 'up' ? 'ok' : 'degraded',
+      database,
+      version: VERSION,
+      mode: ctx.config.mode,
+    };
     if (database === 'up') return body;
     res.setHeader('Retry-After', String(DATABASE_RETRY_AFTER_SECONDS));
     res.status(503).json(body);
@@ -33,8 +42,12 @@ export function systemRoutes(api: ApiRouter, ctx: AppContext): void {
       method: 'get',
       path,
       tag: 'system',
-      summary: path === '/health' ? 'Whether the server and its database answer (the same as /health/ready)' : 'Readiness: whether this instance can serve requests (its database answers)',
-      description: 'Answers 200 with `status: ok` when the database answers, else 503 with `status: degraded`, `database: down` and a Retry-After header.',
+      summary:
+        path === '/health'
+          ? 'Whether the server and its database answer (the same as /health/ready)'
+          : 'Readiness: whether this instance can serve requests (its database answers)',
+      description:
+        'Answers 200 with `status: ok` when the database answers, else 503 with `status: degraded`, `database: down` and a Retry-After header.',
       access: 'public',
       response: HealthResponse,
       handler: ({ res }) => ready(res),
@@ -46,7 +59,8 @@ export function systemRoutes(api: ApiRouter, ctx: AppContext): void {
     path: '/health/live',
     tag: 'system',
     summary: 'Liveness: the server process answers (no database round trip)',
-    description: 'Always 200 while the process runs; restart the instance only when this fails. A database outage shows on /health/ready instead.',
+    description:
+      'Always 200 while the process runs; restart the instance only when this fails. A database outage shows on /health/ready instead.',
     access: 'public',
     response: LiveResponse,
     handler: () => ({ status: 'ok' as const, version: VERSION, mode: ctx.config.mode }),
@@ -56,7 +70,8 @@ export function systemRoutes(api: ApiRouter, ctx: AppContext): void {
     method: 'get',
     path: '/dev/outbox',
     tag: 'system',
-    summary: 'Mail captured by the local mail fake, newest first: mail addressed to me (an admin sees all)',
+    summary:
+      'Mail captured by the local mail fake, newest first: mail addressed to me (an admin sees all)',
     description:
       'Each user sees only the messages with their own address among the recipients, so nobody reads another person\u2019s password link or lab mail. An admin sees every message.',
     availability: 'Development, demo and test modes only; 404 in production.',
@@ -64,9 +79,16 @@ export function systemRoutes(api: ApiRouter, ctx: AppContext): void {
     response: z.array(OutboxMessage),
     handler: async ({ user }) => {
       if (!hasOutbox(ctx.config.mode)) throw notFound('The outbox');
-      const q = ctx.ds.getRepository(MailMessage).createQueryBuilder('m').orderBy('m.received_at', 'DESC').take(200);
+      const q = ctx.ds
+        .getRepository(MailMessage)
+        .createQueryBuilder('m')
+        .orderBy('m.received_at', 'DESC')
+        .take(200);
       if (!user.roles.includes('admin')) {
-        q.where('EXISTS (SELECT 1 FROM unnest(m.mail_to) AS t(address) WHERE lower(t.address) = lower(:email))', { email: user.email });
+        q.where(
+          'EXISTS (SELECT 1 FROM unnest(m.mail_to) AS t(address) WHERE lower(t.address) = lower(:email))',
+          { email: user.email },
+        );
       }
       const rows = await q.getMany();
       return rows.map((m) => ({ ...m, receivedAt: m.receivedAt.toISOString() }));

@@ -4,10 +4,19 @@
  */
 import type { EntityManager } from 'typeorm';
 import { buildEvidencePack, type EvidenceFile } from '../../../reports/evidence/evidence-pack';
-import { buildInstrumentChecksPdf, buildInvestigationsPdf } from '../../../reports/evidence/lab-records';
+import {
+  buildInstrumentChecksPdf,
+  buildInvestigationsPdf,
+} from '../../../reports/evidence/lab-records';
 import { reportProvider } from './provider';
 import { fileSafe } from '../../../reports/text';
-import type { AssessorInstrumentCheck, AssessorInvestigation, AssessorLab, AssessorLabDetail, AssessorRound } from '../../../shared/contracts/reports';
+import type {
+  AssessorInstrumentCheck,
+  AssessorInvestigation,
+  AssessorLab,
+  AssessorLabDetail,
+  AssessorRound,
+} from '../../../shared/contracts/reports';
 import type { SessionUser } from '../auth/session-user';
 import { notFound } from '../http/errors';
 import { audit } from './audit';
@@ -18,33 +27,47 @@ import { evaluationHead } from './reports-input';
 
 /** GET /assessor/labs: labs with an active grant for the caller. */
 export async function assessorLabs(ctx: AppContext, user: SessionUser): Promise<AssessorLab[]> {
-  const rows: { id: string; name: string; starts_on: string; ends_on: string | null }[] = await ctx.ds.query(
-    `SELECT o.id, o.name, min(g.starts_on)::text AS starts_on,
+  const rows: { id: string; name: string; starts_on: string; ends_on: string | null }[] =
+    await ctx.ds.query(
+      `SELECT o.id, o.name, min(g.starts_on)::text AS starts_on,
             CASE WHEN bool_or(g.ends_on IS NULL) THEN NULL ELSE max(g.ends_on)::text END AS ends_on
        FROM assessor_grant g JOIN organisation o ON o.id = g.organisation_id
       WHERE g.assessor_id = $1 AND g.revoked_at IS NULL AND g.starts_on <= CURRENT_DATE AND (g.ends_on IS NULL OR g.ends_on >= CURRENT_DATE)
       GROUP BY o.id, o.name ORDER BY o.name`,
-    [user.id],
-  );
+      [user.id],
+    );
   return rows.map((r) => ({ id: r.id, name: r.name, startsOn: r.starts_on, endsOn: r.ends_on }));
 }
 
-async function grantedLab(em: EntityManager, user: SessionUser, labId: string): Promise<AssessorLab> {
+async function grantedLab(
+  em: EntityManager,
+  user: SessionUser,
+  labId: string,
+): Promise<AssessorLab> {
   if (!(await grantedLabIds(em, user.id)).includes(labId)) throw notFound('The lab');
-  const rows: { id: string; name: string; starts_on: string; ends_on: string | null }[] = await em.query(
-    `SELECT o.id, o.name, min(g.starts_on)::text AS starts_on, CASE WHEN bool_or(g.ends_on IS NULL) THEN NULL ELSE max(g.ends_on)::text END AS ends_on
+  const rows: { id: string; name: string; starts_on: string; ends_on: string | null }[] =
+    await em.query(
+      `SELECT o.id, o.name, min(g.starts_on)::text AS starts_on, CASE WHEN bool_or(g.ends_on IS NULL) THEN NULL ELSE max(g.ends_on)::text END AS ends_on
        FROM assessor_grant g JOIN organisation o ON o.id = g.organisation_id
       WHERE g.assessor_id = $1 AND g.organisation_id = $2 AND g.revoked_at IS NULL GROUP BY o.id, o.name`,
-    [user.id, labId],
-  );
+      [user.id, labId],
+    );
   const r = rows[0]!;
   return { id: r.id, name: r.name, startsOn: r.starts_on, endsOn: r.ends_on };
 }
 
 async function labRounds(em: EntityManager, labId: string): Promise<AssessorRound[]> {
   const rows: {
-    round_id: string; code: string; title: string; state: string; participant_code: string; version: number | null;
-    published_at: Date | null; reissue_reason: string | null; warnings: number | null; actions: number | null;
+    round_id: string;
+    code: string;
+    title: string;
+    state: string;
+    participant_code: string;
+    version: number | null;
+    published_at: Date | null;
+    reissue_reason: string | null;
+    warnings: number | null;
+    actions: number | null;
   }[] = await em.query(
     `SELECT r.id AS round_id, r.code, r.title, r.state, en.participant_code, e.version, e.published_at, e.reissue_reason,
             (SELECT count(*)::int FROM evaluation_result er CROSS JOIN LATERAL jsonb_array_elements(er.participants) p
@@ -71,11 +94,26 @@ async function labRounds(em: EntityManager, labId: string): Promise<AssessorRoun
   }));
 }
 
-async function labInvestigations(em: EntityManager, labId: string): Promise<AssessorInvestigation[]> {
+async function labInvestigations(
+  em: EntityManager,
+  labId: string,
+): Promise<AssessorInvestigation[]> {
   const rows: {
-    id: string; round_code: string; participant_code: string; item_code: string; measurand_name: string; score_kind: string; score: number;
-    signal: 'warning' | 'action'; state: 'open' | 'closed'; cause_category: string | null; root_cause: string; corrective_action: string;
-    effectiveness_check: string; closed_at: Date | null; created_at: Date;
+    id: string;
+    round_code: string;
+    participant_code: string;
+    item_code: string;
+    measurand_name: string;
+    score_kind: string;
+    score: number;
+    signal: 'warning' | 'action';
+    state: 'open' | 'closed';
+    cause_category: string | null;
+    root_cause: string;
+    corrective_action: string;
+    effectiveness_check: string;
+    closed_at: Date | null;
+    created_at: Date;
   }[] = await em.query(
     `SELECT i.id, r.code AS round_code, en.participant_code, ti.code AS item_code, m.name AS measurand_name, i.score_kind, i.score, i.signal,
             i.state, i.cause_category, i.root_cause, i.corrective_action, i.effectiveness_check, i.closed_at, i.created_at
@@ -103,13 +141,24 @@ async function labInvestigations(em: EntityManager, labId: string): Promise<Asse
   }));
 }
 
-async function labInstrumentChecks(em: EntityManager, labId: string): Promise<AssessorInstrumentCheck[]> {
-  const rows: { id: string; instrument: string; material: string; reference_value_nm: number; tolerance_nm: number; passed: boolean; notes: string; checked_at: Date }[] =
-    await em.query(
-      `SELECT id, instrument, material, reference_value_nm, tolerance_nm, passed, notes, checked_at FROM instrument_check
+async function labInstrumentChecks(
+  em: EntityManager,
+  labId: string,
+): Promise<AssessorInstrumentCheck[]> {
+  const rows: {
+    id: string;
+    instrument: string;
+    material: string;
+    reference_value_nm: number;
+    tolerance_nm: number;
+    passed: boolean;
+    notes: string;
+    checked_at: Date;
+  }[] = await em.query(
+    `SELECT id, instrument, material, reference_value_nm, tolerance_nm, passed, notes, checked_at FROM instrument_check
         WHERE organisation_id = $1 ORDER BY checked_at DESC LIMIT 1000`,
-      [labId],
-    );
+    [labId],
+  );
   return rows.map((r) => ({
     id: r.id,
     instrument: r.instrument,
@@ -123,15 +172,27 @@ async function labInstrumentChecks(em: EntityManager, labId: string): Promise<As
 }
 
 /** GET /assessor/labs/{id}/rounds: a granting lab's rounds, investigations and instrument checks. */
-export async function assessorLabDetail(ctx: AppContext, user: SessionUser, labId: string): Promise<AssessorLabDetail> {
+export async function assessorLabDetail(
+  ctx: AppContext,
+  user: SessionUser,
+  labId: string,
+): Promise<AssessorLabDetail> {
   const em = ctx.ds.manager;
   const lab = await grantedLab(em, user, labId);
-  const [rounds, investigations, instrumentChecks] = await Promise.all([labRounds(em, labId), labInvestigations(em, labId), labInstrumentChecks(em, labId)]);
+  const [rounds, investigations, instrumentChecks] = await Promise.all([
+    labRounds(em, labId),
+    labInvestigations(em, labId),
+    labInstrumentChecks(em, labId),
+  ]);
   return { lab, rounds, investigations, instrumentChecks };
 }
 
 /** The audit events about the lab, its investigations and the evaluation of its rounds (no other lab's). */
-async function auditExtract(em: EntityManager, labId: string, roundIds: string[]): Promise<unknown[]> {
+async function auditExtract(
+  em: EntityManager,
+  labId: string,
+  roundIds: string[],
+): Promise<unknown[]> {
   return em.query(
     `SELECT a.id, a.at, a.action, a.subject_type, a.subject_id, a.details, u.name AS actor
        FROM audit_event a LEFT JOIN app_user u ON u.id = a.actor_id
@@ -148,7 +209,11 @@ async function auditExtract(em: EntityManager, labId: string, roundIds: string[]
  * workbook, individual report and certificate (from the report cache), its investigations,
  * instrument checks and an audit extract, with a manifest of SHA-256 checksums.
  */
-export async function evidencePack(ctx: AppContext, user: SessionUser, labId: string): Promise<{ file: Buffer; fileName: string }> {
+export async function evidencePack(
+  ctx: AppContext,
+  user: SessionUser,
+  labId: string,
+): Promise<{ file: Buffer; fileName: string }> {
   const em = ctx.ds.manager;
   const lab = await grantedLab(em, user, labId);
   const rounds = await labRounds(em, labId);
@@ -156,25 +221,78 @@ export async function evidencePack(ctx: AppContext, user: SessionUser, labId: st
   const published = rounds.filter((r) => r.version !== null);
   for (const r of published) {
     const head = (await evaluationHead(em, r.roundId, true))!;
-    const labIn: LabInRound = { organisationId: labId, participantCode: r.participantCode, labName: lab.name };
+    const labIn: LabInRound = {
+      organisationId: labId,
+      participantCode: r.participantCode,
+      labName: lab.name,
+    };
     const dir = `rounds/${fileSafe(r.roundCode)}`;
     for (const kind of ['round.pdf', 'round.xlsx', 'participant.pdf', 'certificate.pdf'] as const) {
       const own = kind === 'participant.pdf' || kind === 'certificate.pdf';
-      const built = await reportFile(ctx, user, { roundId: r.roundId, kind, organisationId: own ? labId : null, head }, own ? labIn : null, '', true);
+      const built = await reportFile(
+        ctx,
+        user,
+        { roundId: r.roundId, kind, organisationId: own ? labId : null, head },
+        own ? labIn : null,
+        '',
+        true,
+      );
       if ('pending' in built) throw new Error('unreachable: waited for the build');
       files.push({ path: `${dir}/${built.fileName}`, data: built.file });
     }
   }
-  const detail = { investigations: await labInvestigations(em, labId), instrumentChecks: await labInstrumentChecks(em, labId) };
+  const detail = {
+    investigations: await labInvestigations(em, labId),
+    instrumentChecks: await labInstrumentChecks(em, labId),
+  };
   const generatedAt = new Date().toISOString();
-  const recordsMeta = { lab: lab.name, provider: await reportProvider(em), generatedFor: `${user.name} <${user.email}>`, generatedAt };
+  const recordsMeta = {
+    lab: lab.name,
+    provider: await reportProvider(em),
+    generatedFor: `${user.name} <${user.email}>`,
+    generatedAt,
+  };
   files.push({ path: 'rounds.json', data: Buffer.from(JSON.stringify(rounds, null, 2)) });
-  files.push({ path: 'investigations.pdf', data: await buildInvestigationsPdf(detail.investigations, recordsMeta) });
-  files.push({ path: 'investigations.json', data: Buffer.from(JSON.stringify(detail.investigations, null, 2)) });
-  files.push({ path: 'instrument-checks.pdf', data: await buildInstrumentChecksPdf(detail.instrumentChecks, recordsMeta) });
-  files.push({ path: 'instrument-checks.json', data: Buffer.from(JSON.stringify(detail.instrumentChecks, null, 2)) });
-  files.push({ path: 'audit-extract.json', data: Buffer.from(JSON.stringify(await auditExtract(em, labId, rounds.map((r) => r.roundId)), null, 2)) });
-  const file = await buildEvidencePack(files, { lab: lab.name, generatedFor: `${user.name} <${user.email}>`, generatedAt });
-  await ctx.ds.transaction((tx) => audit(tx, user.id, 'evidence-pack.downloaded', 'organisation', labId, { rounds: published.map((r) => r.roundCode), files: files.length }));
+  files.push({
+    path: 'investigations.pdf',
+    data: await buildInvestigationsPdf(detail.investigations, recordsMeta),
+  });
+  files.push({
+    path: 'investigations.json',
+    data: Buffer.from(JSON.stringify(detail.investigations, null, 2)),
+  });
+  files.push({
+    path: 'instrument-checks.pdf',
+    data: await buildInstrumentChecksPdf(detail.instrumentChecks, recordsMeta),
+  });
+  files.push({
+    path: 'instrument-checks.json',
+    data: Buffer.from(JSON.stringify(detail.instrumentChecks, null, 2)),
+  });
+  files.push({
+    path: 'audit-extract.json',
+    data: Buffer.from(
+      JSON.stringify(
+        await auditExtract(
+          em,
+          labId,
+          rounds.map((r) => r.roundId),
+        ),
+        null,
+        2,
+      ),
+    ),
+  });
+  const file = await buildEvidencePack(files, {
+    lab: lab.name,
+    generatedFor: `${user.name} <${user.email}>`,
+    generatedAt,
+  });
+  await ctx.ds.transaction((tx) =>
+    audit(tx, user.id, 'evidence-pack.downloaded', 'organisation', labId, {
+      rounds: published.map((r) => r.roundCode),
+      files: files.length,
+    }),
+  );
   return { file, fileName: `evidence-${fileSafe(lab.name)}-${generatedAt.slice(0, 10)}.zip` };
 }

@@ -2,8 +2,18 @@ import { createHash } from 'node:crypto';
 import { Attachment, Submission, TestItem } from '../../../db/entities';
 import type { AttachmentDto, Reanalysis } from '../../../shared/contracts/bench';
 import { readStoredSubmission } from '../../../shared/contracts/submission';
-import { ATTACHMENT_LIMIT, formatBytes, formatCount } from '../../../shared/contracts/upload-limits';
-import { cumulantsFit, parseCorrelationCsv, waterRefractiveIndex, waterViscosity, type CorrelationData } from '../../../shared/dls';
+import {
+  ATTACHMENT_LIMIT,
+  formatBytes,
+  formatCount,
+} from '../../../shared/contracts/upload-limits';
+import {
+  cumulantsFit,
+  parseCorrelationCsv,
+  waterRefractiveIndex,
+  waterViscosity,
+  type CorrelationData,
+} from '../../../shared/dls';
 import { REANALYSIS_DEFAULTS } from '../../../shared/contracts/bench';
 import { mean } from '../../../shared/stats/descriptive';
 import type { SessionUser } from '../auth/session-user';
@@ -27,12 +37,16 @@ export const REANALYSIS_PDI_TOLERANCE = 0.1;
 const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
 
 /** PDF (`%PDF-`) or XLSX (a readable zip with `[Content_Types].xml` and `xl/` parts) from the bytes, else null. */
-export function detectPackagedType(buf: Buffer): { kind: 'pdf' | 'xlsx'; contentType: string } | null {
-  if (buf.subarray(0, 5).toString('latin1') === '%PDF-') return { kind: 'pdf', contentType: 'application/pdf' };
+export function detectPackagedType(
+  buf: Buffer,
+): { kind: 'pdf' | 'xlsx'; contentType: string } | null {
+  if (buf.subarray(0, 5).toString('latin1') === '%PDF-')
+    return { kind: 'pdf', contentType: 'application/pdf' };
   if (buf.length >= 4 && buf[0] === 0x50 && buf[1] === 0x4b && buf[2] === 0x03 && buf[3] === 0x04) {
     try {
       const names = listZipEntries(buf).map((e) => e.name);
-      if (names.includes('[Content_Types].xml') && names.some((n) => n.startsWith('xl/'))) return { kind: 'xlsx', contentType: XLSX_TYPE };
+      if (names.includes('[Content_Types].xml') && names.some((n) => n.startsWith('xl/')))
+        return { kind: 'xlsx', contentType: XLSX_TYPE };
     } catch {
       // not a readable zip
     }
@@ -57,23 +71,45 @@ export interface DetectedType {
  * thread, its lines counted before it is parsed (ATTACHMENT_LIMIT.maxCorrelationRows); the bytes
  * move to the thread and back without a copy, so use the `bytes` answered, not `buf`.
  */
-export async function inspectAttachment(buf: Buffer): Promise<{ type: DetectedType | null; bytes: Buffer; sha256: string }> {
+export async function inspectAttachment(
+  buf: Buffer,
+): Promise<{ type: DetectedType | null; bytes: Buffer; sha256: string }> {
   const sha = (b: Buffer) => createHash('sha256').update(b).digest('hex');
   if (buf.length === 0) return { type: null, bytes: buf, sha256: sha(buf) };
   const packaged = detectPackagedType(buf);
   if (packaged) return { type: packaged, bytes: buf, sha256: sha(buf) };
-  if (buf[0] === 0x50 && buf[1] === 0x4b && buf[2] === 0x03 && buf[3] === 0x04) return { type: null, bytes: buf, sha256: sha(buf) }; // another zip
+  if (buf[0] === 0x50 && buf[1] === 0x4b && buf[2] === 0x03 && buf[3] === 0x04)
+    return { type: null, bytes: buf, sha256: sha(buf) }; // another zip
   let c: TextJobResult;
-  if (buf.length <= INLINE_TEXT_BYTES) c = { class: classifyText(buf, ATTACHMENT_LIMIT.maxCorrelationRows), sha256: sha(buf), bytes: buf };
-  else c = await runInWorker<TextJobResult>({ type: 'text', data: handOver(buf), maxCorrelationRows: ATTACHMENT_LIMIT.maxCorrelationRows }, ATTACHMENT_LIMIT.label);
-  const bytes = Buffer.isBuffer(c.bytes) ? c.bytes : Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength);
+  if (buf.length <= INLINE_TEXT_BYTES)
+    c = {
+      class: classifyText(buf, ATTACHMENT_LIMIT.maxCorrelationRows),
+      sha256: sha(buf),
+      bytes: buf,
+    };
+  else
+    c = await runInWorker<TextJobResult>(
+      {
+        type: 'text',
+        data: handOver(buf),
+        maxCorrelationRows: ATTACHMENT_LIMIT.maxCorrelationRows,
+      },
+      ATTACHMENT_LIMIT.label,
+    );
+  const bytes = Buffer.isBuffer(c.bytes)
+    ? c.bytes
+    : Buffer.from(c.bytes.buffer, c.bytes.byteOffset, c.bytes.byteLength);
   const k = c.class;
   const type: DetectedType | null =
     k.kind === 'binary'
       ? null
       : k.kind === 'text'
         ? { kind: 'text', contentType: 'text/plain' }
-        : { kind: 'correlation-csv', contentType: 'text/csv', correlation: k.data ?? { lines: k.lines } };
+        : {
+            kind: 'correlation-csv',
+            contentType: 'text/csv',
+            correlation: k.data ?? { lines: k.lines },
+          };
   return { type, bytes, sha256: c.sha256 };
 }
 
@@ -84,7 +120,13 @@ export async function inspectAttachment(buf: Buffer): Promise<{ type: DetectedTy
  */
 export function reanalyse(
   source: string | CorrelationData | { lines: number },
-  conditions: { temperatureC: number | null; viscosityMPas: number | null; refractiveIndex: number | null; laserWavelengthNm: number | null; scatteringAngleDeg: number | null },
+  conditions: {
+    temperatureC: number | null;
+    viscosityMPas: number | null;
+    refractiveIndex: number | null;
+    laserWavelengthNm: number | null;
+    scatteringAngleDeg: number | null;
+  },
   protocolTemperatureC: number,
   lab: { zAverageNm: number | null; pdi: number | null },
 ): Reanalysis {
@@ -99,8 +141,11 @@ export function reanalyse(
   const waterOk = temperatureC >= 0 && temperatureC <= 40;
   const parameters = {
     temperatureC,
-    viscosityMPas: conditions.viscosityMPas ?? (waterOk ? waterViscosity(temperatureC) * 1000 : 0.89),
-    refractiveIndex: conditions.refractiveIndex ?? (waterOk && wavelengthNm <= 1100 ? waterRefractiveIndex(temperatureC, wavelengthNm) : 1.332),
+    viscosityMPas:
+      conditions.viscosityMPas ?? (waterOk ? waterViscosity(temperatureC) * 1000 : 0.89),
+    refractiveIndex:
+      conditions.refractiveIndex ??
+      (waterOk && wavelengthNm <= 1100 ? waterRefractiveIndex(temperatureC, wavelengthNm) : 1.332),
     wavelengthNm,
     angleDeg: conditions.scatteringAngleDeg ?? REANALYSIS_DEFAULTS.angleDeg,
   };
@@ -123,7 +168,10 @@ export function reanalyse(
     });
     const messages = [...fit.warnings];
     let disagrees = false;
-    if (lab.zAverageNm !== null && Math.abs(fit.zAverageNm - lab.zAverageNm) / fit.zAverageNm > REANALYSIS_Z_TOLERANCE) {
+    if (
+      lab.zAverageNm !== null &&
+      Math.abs(fit.zAverageNm - lab.zAverageNm) / fit.zAverageNm > REANALYSIS_Z_TOLERANCE
+    ) {
       disagrees = true;
       messages.push(
         `Your Z-average ${lab.zAverageNm.toFixed(1)} nm differs from the re-analysis ${fit.zAverageNm.toFixed(1)} nm by more than ${100 * REANALYSIS_Z_TOLERANCE} %: check the viscosity, temperature, angle and wavelength stated.`,
@@ -131,11 +179,29 @@ export function reanalyse(
     }
     if (lab.pdi !== null && Math.abs(fit.pdi - lab.pdi) > REANALYSIS_PDI_TOLERANCE) {
       disagrees = true;
-      messages.push(`Your PDI ${lab.pdi.toFixed(3)} differs from the re-analysis ${fit.pdi.toFixed(3)} by more than ${REANALYSIS_PDI_TOLERANCE}.`);
+      messages.push(
+        `Your PDI ${lab.pdi.toFixed(3)} differs from the re-analysis ${fit.pdi.toFixed(3)} by more than ${REANALYSIS_PDI_TOLERANCE}.`,
+      );
     }
-    return { ok: true, error: null, zAverageNm: fit.zAverageNm, pdi: fit.pdi, disagrees, messages, ...base };
+    return {
+      ok: true,
+      error: null,
+      zAverageNm: fit.zAverageNm,
+      pdi: fit.pdi,
+      disagrees,
+      messages,
+      ...base,
+    };
   } catch (err) {
-    return { ok: false, error: err instanceof Error ? err.message : String(err), zAverageNm: null, pdi: null, disagrees: false, messages: [], ...base };
+    return {
+      ok: false,
+      error: err instanceof Error ? err.message : String(err),
+      zAverageNm: null,
+      pdi: null,
+      disagrees: false,
+      messages: [],
+      ...base,
+    };
   }
 }
 
@@ -171,33 +237,61 @@ export async function uploadAttachment(
   /** This file's wavelength and angle for the re-analysis (they win over the item's conditions). */
   optics: { laserWavelengthNm?: number; scatteringAngleDeg?: number } = {},
 ): Promise<AttachmentDto> {
-  if (!file) throw badRequest('file: attach a file (multipart field "file").', [{ path: 'file', message: 'Attach a file.' }]);
-  if (file.buffer.length > ATTACHMENT_LIMIT.maxBytes) throw new HttpError(413, 'file_too_large', `file: the limit is ${formatBytes(ATTACHMENT_LIMIT.maxBytes)} per file.`);
+  if (!file)
+    throw badRequest('file: attach a file (multipart field "file").', [
+      { path: 'file', message: 'Attach a file.' },
+    ]);
+  if (file.buffer.length > ATTACHMENT_LIMIT.maxBytes)
+    throw new HttpError(
+      413,
+      'file_too_large',
+      `file: the limit is ${formatBytes(ATTACHMENT_LIMIT.maxBytes)} per file.`,
+    );
   const { type, bytes, sha256 } = await inspectAttachment(file.buffer);
   if (!type) {
-    throw new HttpError(415, 'file_type_refused', 'file: only CSV or TXT text, PDF or XLSX files are accepted (checked by content).', [
-      { path: 'file', message: 'CSV, TXT, PDF or XLSX only.' },
-    ]);
+    throw new HttpError(
+      415,
+      'file_type_refused',
+      'file: only CSV or TXT text, PDF or XLSX files are accepted (checked by content).',
+      [{ path: 'file', message: 'CSV, TXT, PDF or XLSX only.' }],
+    );
   }
   return ctx.ds.transaction(async (em) => {
     const { round, enrolment } = await findEnrolment(em, labId, roundId);
     const lock = lockState(round, enrolment);
-    if (!lock.isOpen) throw conflict('submission_locked', `Results can no longer change: ${lock.reason}`);
+    if (!lock.isOpen)
+      throw conflict('submission_locked', `Results can no longer change: ${lock.reason}`);
     if (testItemId && !(await em.findOne(TestItem, { where: { id: testItemId, roundId } }))) {
-      throw badRequest('testItemId: not a test item of this round.', [{ path: 'testItemId', message: 'Not a test item of this round.' }]);
+      throw badRequest('testItemId: not a test item of this round.', [
+        { path: 'testItemId', message: 'Not a test item of this round.' },
+      ]);
     }
     const sub = await lockSubmission(em, enrolment.id);
     let reanalysis: Reanalysis | null = null;
     if (type.kind === 'correlation-csv') {
       const draft = readStoredSubmission(sub.draft);
-      const item = draft.items.find((i) => i.testItemId === testItemId) ?? (testItemId ? undefined : draft.items[0]);
-      const ids: { id: string; key: string }[] = await em.query(`SELECT id, key FROM measurand WHERE round_id = $1`, [roundId]);
+      const item =
+        draft.items.find((i) => i.testItemId === testItemId) ??
+        (testItemId ? undefined : draft.items[0]);
+      const ids: { id: string; key: string }[] = await em.query(
+        `SELECT id, key FROM measurand WHERE round_id = $1`,
+        [roundId],
+      );
       const meanOf = (key: string) => {
         const m = ids.find((x) => x.key === key);
-        const xs = item?.results.find((r) => r.measurandId === m?.id)?.replicates.filter((v): v is number => v !== null) ?? [];
+        const xs =
+          item?.results
+            .find((r) => r.measurandId === m?.id)
+            ?.replicates.filter((v): v is number => v !== null) ?? [];
         return xs.length ? mean(xs) : null;
       };
-      const stated = item?.conditions ?? { temperatureC: null, viscosityMPas: null, refractiveIndex: null, laserWavelengthNm: null, scatteringAngleDeg: null };
+      const stated = item?.conditions ?? {
+        temperatureC: null,
+        viscosityMPas: null,
+        refractiveIndex: null,
+        laserWavelengthNm: null,
+        scatteringAngleDeg: null,
+      };
       reanalysis = reanalyse(
         type.correlation ?? bytes.toString('utf8'),
         {
@@ -224,7 +318,13 @@ export async function uploadAttachment(
         uploadedBy: actor.id,
       }),
     );
-    await audit(em, actor.id, 'attachment.uploaded', 'attachment', row.id, { roundId, fileName: row.fileName, sizeBytes: row.sizeBytes, sha256, kind: type.kind });
+    await audit(em, actor.id, 'attachment.uploaded', 'attachment', row.id, {
+      roundId,
+      fileName: row.fileName,
+      sizeBytes: row.sizeBytes,
+      sha256,
+      kind: type.kind,
+    });
     const saved = await em.findOneOrFail(Attachment, { where: { id: row.id } });
     return dto(saved, actor.name);
   });
@@ -239,13 +339,21 @@ async function listFor(ctx: AppContext, submissionId: string): Promise<Attachmen
     .where('a.submission_id = :submissionId', { submissionId })
     .orderBy('a.uploaded_at', 'ASC')
     .getRawAndEntities();
-  return entities.map((e, i) => dto(e, (raw[i] as { uploaded_by_name: string | null }).uploaded_by_name));
+  return entities.map((e, i) =>
+    dto(e, (raw[i] as { uploaded_by_name: string | null }).uploaded_by_name),
+  );
 }
 
 /** GET /rounds/{id}/submission/attachments: the lab's own files for the round. */
-export async function listAttachments(ctx: AppContext, labId: string, roundId: string): Promise<AttachmentDto[]> {
+export async function listAttachments(
+  ctx: AppContext,
+  labId: string,
+  roundId: string,
+): Promise<AttachmentDto[]> {
   const { enrolment } = await findEnrolment(ctx.ds.manager, labId, roundId);
-  const sub = await ctx.ds.getRepository(Submission).findOne({ where: { enrolmentId: enrolment.id } });
+  const sub = await ctx.ds
+    .getRepository(Submission)
+    .findOne({ where: { enrolmentId: enrolment.id } });
   return sub ? listFor(ctx, sub.id) : [];
 }
 
@@ -253,7 +361,12 @@ export async function listAttachments(ctx: AppContext, labId: string, roundId: s
  * One file's bytes. A lab reads only its own (labId given); a coordinator reads any file of the
  * round (labId null). Anything else answers 404.
  */
-export async function readAttachment(ctx: AppContext, labId: string | null, roundId: string, attachmentId: string): Promise<Attachment> {
+export async function readAttachment(
+  ctx: AppContext,
+  labId: string | null,
+  roundId: string,
+  attachmentId: string,
+): Promise<Attachment> {
   const rows: { enrolment_id: string; organisation_id: string }[] = await ctx.ds.query(
     `SELECT e.id AS enrolment_id, e.organisation_id FROM attachment a
        JOIN submission s ON s.id = a.submission_id JOIN enrolment e ON e.id = s.enrolment_id
@@ -272,7 +385,12 @@ export async function readAttachment(ctx: AppContext, labId: string | null, roun
   return a;
 }
 
-export async function auditDownload(ctx: AppContext, actor: SessionUser, a: Attachment): Promise<void> {
-  await audit(ctx.ds.manager, actor.id, 'attachment.downloaded', 'attachment', a.id, { sha256: a.sha256 });
+export async function auditDownload(
+  ctx: AppContext,
+  actor: SessionUser,
+  a: Attachment,
+): Promise<void> {
+  await audit(ctx.ds.manager, actor.id, 'attachment.downloaded', 'attachment', a.id, {
+    sha256: a.sha256,
+  });
 }
-

@@ -10,5 +10,11 @@ export async function audit(
   subjectId: string | null,
   details: Record<string, unknown> = {},
 ): Promise<void> {
-  await em.insert(AuditEvent, { actorId, action, subjectType, subjectId, details: details as never });
+  await em.insert(AuditEvent, {
+    actorId,
+    action,
+    subjectType,
+    subjectId,
+    details: details as never,
+  });
 }

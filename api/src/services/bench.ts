@@ -1,6 +1,11 @@
 import type { EntityManager } from 'typeorm';
 import { Enrolment, Measurand, Round, Shipment, Submission, TestItem } from '../../../db/entities';
-import type { MyRound, MyRoundDetail, MyRoundStatus, ReceiptInput } from '../../../shared/contracts/bench';
+import type {
+  MyRound,
+  MyRoundDetail,
+  MyRoundStatus,
+  ReceiptInput,
+} from '../../../shared/contracts/bench';
 import { SAFETY_CAUTIONS } from '../../../shared/contracts/bench';
 import { withoutSafetyBlock } from '../../../shared/contracts/safety';
 import { acceptsResults } from '../../../shared/contracts/round-states';
@@ -26,13 +31,17 @@ export function resolveLab(user: SessionUser, requested: string | undefined): st
   }
   if (mine.length === 1) return mine[0]!;
   if (mine.length === 0) throw notFound('The lab');
-  throw badRequest('labId: you belong to several labs; choose one (query labId or header x-lab-id).', [
-    { path: 'labId', message: 'Choose the lab you act for.' },
-  ]);
+  throw badRequest(
+    'labId: you belong to several labs; choose one (query labId or header x-lab-id).',
+    [{ path: 'labId', message: 'Choose the lab you act for.' }],
+  );
 }
 
 /** When results lock for one enrolment: the later of the due date and a granted extension. */
-export function locksAt(round: Pick<Round, 'resultsDueAt'>, enrolment: Pick<Enrolment, 'extensionUntil'>): Date | null {
+export function locksAt(
+  round: Pick<Round, 'resultsDueAt'>,
+  enrolment: Pick<Enrolment, 'extensionUntil'>,
+): Date | null {
   const due = round.resultsDueAt;
   const ext = enrolment.extensionUntil;
   if (!due) return ext ?? null;
@@ -52,14 +61,26 @@ export interface LockState {
 export function lockState(round: Round, enrolment: Enrolment, now = new Date()): LockState {
   const at = locksAt(round, enrolment);
   const isLate = round.resultsDueAt !== null && now > round.resultsDueAt;
-  if (enrolment.state !== 'enrolled') return { isOpen: false, isLate, locksAt: at, reason: 'Your lab withdrew from this round.' };
-  if (!acceptsResults(round.state)) return { isOpen: false, isLate, locksAt: at, reason: `The round is ${round.state}: results are locked.` };
-  if (at && now > at) return { isOpen: false, isLate, locksAt: at, reason: `Results locked at ${at.toISOString()}.` };
+  if (enrolment.state !== 'enrolled')
+    return { isOpen: false, isLate, locksAt: at, reason: 'Your lab withdrew from this round.' };
+  if (!acceptsResults(round.state))
+    return {
+      isOpen: false,
+      isLate,
+      locksAt: at,
+      reason: `The round is ${round.state}: results are locked.`,
+    };
+  if (at && now > at)
+    return { isOpen: false, isLate, locksAt: at, reason: `Results locked at ${at.toISOString()}.` };
   return { isOpen: true, isLate, locksAt: at, reason: null };
 }
 
 /** The lab's enrolment in a round (rounds in draft are not shown to labs); 404 otherwise. */
-export async function findEnrolment(em: EntityManager, labId: string, roundId: string): Promise<{ round: Round; enrolment: Enrolment }> {
+export async function findEnrolment(
+  em: EntityManager,
+  labId: string,
+  roundId: string,
+): Promise<{ round: Round; enrolment: Enrolment }> {
   const enrolment = await em.findOne(Enrolment, { where: { roundId, organisationId: labId } });
   const round = enrolment ? await em.findOne(Round, { where: { id: roundId } }) : null;
   if (!enrolment || !round || round.state === 'draft') throw notFound('The round');
@@ -76,18 +97,32 @@ export function isCoordinator(user: SessionUser): boolean {
 
 const iso = (d: Date | null) => (d ? d.toISOString() : null);
 
-function statusOf(round: Round, enrolment: Enrolment | null, submittedVersion: number, now: Date): MyRoundStatus {
+function statusOf(
+  round: Round,
+  enrolment: Enrolment | null,
+  submittedVersion: number,
+  now: Date,
+): MyRoundStatus {
   if (!enrolment) return 'invited';
   if (enrolment.state === 'withdrawn') return 'withdrawn';
   if (round.state === 'published' || round.state === 'reissued') return 'published';
   if (submittedVersion > 0) return 'submitted';
   const lock = lockState(round, enrolment, now);
-  if (!lock.isOpen) return acceptsResults(round.state) || ['closed', 'evaluated'].includes(round.state) ? 'locked' : 'enrolled';
-  if (lock.locksAt && lock.locksAt.getTime() - now.getTime() <= DUE_SOON_DAYS * 86400_000) return 'due-soon';
+  if (!lock.isOpen)
+    return acceptsResults(round.state) || ['closed', 'evaluated'].includes(round.state)
+      ? 'locked'
+      : 'enrolled';
+  if (lock.locksAt && lock.locksAt.getTime() - now.getTime() <= DUE_SOON_DAYS * 86400_000)
+    return 'due-soon';
   return 'enrolled';
 }
 
-function myRound(round: Round, enrolment: Enrolment | null, submission: Submission | null, now: Date): MyRound {
+function myRound(
+  round: Round,
+  enrolment: Enrolment | null,
+  submission: Submission | null,
+  now: Date,
+): MyRound {
   const version = submission?.currentVersion ?? 0;
   return {
     roundId: round.id,
@@ -131,7 +166,11 @@ export async function listMyRounds(ctx: AppContext, labId: string): Promise<MyRo
 }
 
 /** GET /my/rounds/{id}: what the lab needs to measure and report. */
-export async function getMyRound(ctx: AppContext, labId: string, roundId: string): Promise<MyRoundDetail> {
+export async function getMyRound(
+  ctx: AppContext,
+  labId: string,
+  roundId: string,
+): Promise<MyRoundDetail> {
   const em = ctx.ds.manager;
   const { round, enrolment } = await findEnrolment(em, labId, roundId);
   const now = new Date();
@@ -142,7 +181,11 @@ export async function getMyRound(ctx: AppContext, labId: string, roundId: string
     em.findOne(Submission, { where: { enrolmentId: enrolment.id } }),
   ]);
   const hasPhoto = shipment
-    ? ((await em.query(`SELECT receipt_photo IS NOT NULL AS has FROM shipment WHERE id = $1`, [shipment.id])) as { has: boolean }[])[0]!.has
+    ? (
+        (await em.query(`SELECT receipt_photo IS NOT NULL AS has FROM shipment WHERE id = $1`, [
+          shipment.id,
+        ])) as { has: boolean }[]
+      )[0]!.has
     : false;
   const lock = lockState(round, enrolment, now);
   return {
@@ -160,7 +203,14 @@ export async function getMyRound(ctx: AppContext, labId: string, roundId: string
       storageNotes: i.storageNotes,
       handlingNotes: i.handlingNotes,
     })),
-    measurands: measurands.map((m) => ({ id: m.id, key: m.key, name: m.name, unit: m.unit, decimals: m.decimals, replicatesRequired: m.replicatesRequired })),
+    measurands: measurands.map((m) => ({
+      id: m.id,
+      key: m.key,
+      name: m.name,
+      unit: m.unit,
+      decimals: m.decimals,
+      replicatesRequired: m.replicatesRequired,
+    })),
     receipt: shipment
       ? {
           dispatchedOn: shipment.dispatchedOn,
@@ -182,8 +232,17 @@ export async function getMyRound(ctx: AppContext, labId: string, roundId: string
 /** An image file type from its first bytes (JPEG, PNG, WebP), or null. */
 export function detectImageType(buf: Buffer): string | null {
   if (buf.length >= 3 && buf[0] === 0xff && buf[1] === 0xd8 && buf[2] === 0xff) return 'image/jpeg';
-  if (buf.length >= 8 && buf.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]))) return 'image/png';
-  if (buf.length >= 12 && buf.subarray(0, 4).toString('latin1') === 'RIFF' && buf.subarray(8, 12).toString('latin1') === 'WEBP') return 'image/webp';
+  if (
+    buf.length >= 8 &&
+    buf.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]))
+  )
+    return 'image/png';
+  if (
+    buf.length >= 12 &&
+    buf.subarray(0, 4).toString('latin1') === 'RIFF' &&
+    buf.subarray(8, 12).toString('latin1') === 'WEBP'
+  )
+    return 'image/webp';
   return null;
 }
 
@@ -199,22 +258,40 @@ export async function saveReceipt(
   photo: Buffer | null,
 ): Promise<MyRoundDetail> {
   const today = new Date().toISOString().slice(0, 10);
-  if (input.receivedOn > today) throw ruleBroken('receipt_in_future', 'receivedOn: the items cannot arrive after today.', [{ path: 'receivedOn', message: 'Not after today.' }]);
+  if (input.receivedOn > today)
+    throw ruleBroken('receipt_in_future', 'receivedOn: the items cannot arrive after today.', [
+      { path: 'receivedOn', message: 'Not after today.' },
+    ]);
   const photoType = photo ? detectImageType(photo) : null;
   if (photo && !photoType) {
-    throw new HttpError(415, 'file_type_refused', 'photo: send a JPEG, PNG or WebP image.', [{ path: 'photo', message: 'JPEG, PNG or WebP only.' }]);
+    throw new HttpError(415, 'file_type_refused', 'photo: send a JPEG, PNG or WebP image.', [
+      { path: 'photo', message: 'JPEG, PNG or WebP only.' },
+    ]);
   }
   await ctx.ds.transaction(async (em) => {
     const { round, enrolment } = await findEnrolment(em, labId, roundId);
     if (!['in-transit', 'collecting'].includes(round.state) || enrolment.state !== 'enrolled') {
-      throw conflict('receipt_not_open', `The round is ${round.state}: receipt can be recorded while items are in transit or results are collected.`);
+      throw conflict(
+        'receipt_not_open',
+        `The round is ${round.state}: receipt can be recorded while items are in transit or results are collected.`,
+      );
     }
-    await em.query(`INSERT INTO shipment (enrolment_id) VALUES ($1) ON CONFLICT (enrolment_id) DO NOTHING`, [enrolment.id]);
+    await em.query(
+      `INSERT INTO shipment (enrolment_id) VALUES ($1) ON CONFLICT (enrolment_id) DO NOTHING`,
+      [enrolment.id],
+    );
     await em.query(
       `UPDATE shipment SET received_on = $2, condition = $3, receipt_notes = $4, received_by = $5
          ${photo ? ', receipt_photo = $6, receipt_photo_type = $7' : ''}
        WHERE enrolment_id = $1`,
-      [enrolment.id, input.receivedOn, input.condition, input.notes, actor.id, ...(photo ? [photo, photoType] : [])],
+      [
+        enrolment.id,
+        input.receivedOn,
+        input.condition,
+        input.notes,
+        actor.id,
+        ...(photo ? [photo, photoType] : []),
+      ],
     );
     await audit(em, actor.id, 'shipment.received', 'enrolment', enrolment.id, {
       roundId,
@@ -227,11 +304,15 @@ export async function saveReceipt(
 }
 
 /** The receipt photo of the lab's own shipment, or (coordinator) of any enrolment of the round. */
-export async function receiptPhoto(ctx: AppContext, enrolmentId: string): Promise<{ data: Buffer; type: string }> {
-  const rows: { receipt_photo: Buffer | null; receipt_photo_type: string | null }[] = await ctx.ds.query(
-    `SELECT receipt_photo, receipt_photo_type FROM shipment WHERE enrolment_id = $1`,
-    [enrolmentId],
-  );
+export async function receiptPhoto(
+  ctx: AppContext,
+  enrolmentId: string,
+): Promise<{ data: Buffer; type: string }> {
+  const rows: { receipt_photo: Buffer | null; receipt_photo_type: string | null }[] =
+    await ctx.ds.query(
+      `SELECT receipt_photo, receipt_photo_type FROM shipment WHERE enrolment_id = $1`,
+      [enrolmentId],
+    );
   const row = rows[0];
   if (!row?.receipt_photo) throw notFound('The photo');
   return { data: row.receipt_photo, type: row.receipt_photo_type ?? 'application/octet-stream' };

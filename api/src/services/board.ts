@@ -32,9 +32,14 @@ async function bodyBytes(em: EntityManager, head: Head): Promise<Buffer> {
   const key = `${head.id}/${head.computed_at.getTime()}`;
   const hit = bodyCache.get(key);
   if (hit !== undefined) return hit;
-  const rows: { board: { groups: unknown[]; rows: unknown[] } }[] = await em.query('SELECT board FROM evaluation WHERE id = $1', [head.id]);
+  const rows: { board: { groups: unknown[]; rows: unknown[] } }[] = await em.query(
+    'SELECT board FROM evaluation WHERE id = $1',
+    [head.id],
+  );
   const b = rows[0]?.board ?? { groups: [], rows: [] };
-  const text = Buffer.from(`"groups":${JSON.stringify(b.groups ?? [])},"rows":${JSON.stringify(b.rows ?? [])}}`);
+  const text = Buffer.from(
+    `"groups":${JSON.stringify(b.groups ?? [])},"rows":${JSON.stringify(b.rows ?? [])}}`,
+  );
   if (bodyCache.size >= CACHE_LIMIT) bodyCache.delete(bodyCache.keys().next().value!);
   bodyCache.set(key, text);
   return text;
@@ -53,12 +58,18 @@ function viewerOf(user: SessionUser): Viewer {
  * labs and assessors the newest published one, and only for a round their lab (or a lab that
  * granted them access) took part in: otherwise 404.
  */
-export async function boardJson(ctx: AppContext, user: SessionUser, roundId: string, revealNames: boolean): Promise<Buffer[]> {
+export async function boardJson(
+  ctx: AppContext,
+  user: SessionUser,
+  roundId: string,
+  revealNames: boolean,
+): Promise<Buffer[]> {
   const em = ctx.ds.manager;
   const viewer = viewerOf(user);
   let ownCodes: string[] = [];
   let labNames: Record<string, string> = {};
-  const ownLabs = viewer === 'lab' || (viewer === 'assessor' && user.roles.includes('lab')) ? labIds(user) : [];
+  const ownLabs =
+    viewer === 'lab' || (viewer === 'assessor' && user.roles.includes('lab')) ? labIds(user) : [];
   if (viewer === 'assessor') {
     const granted = await grantedLabIds(em, user.id);
     const rows: { participant_code: string; name: string }[] = granted.length
@@ -84,7 +95,8 @@ export async function boardJson(ctx: AppContext, user: SessionUser, roundId: str
   if (head) ownCodes = head.own_codes;
   // A lab sees only rounds it took part in; an assessor only rounds of labs that granted access.
   if (viewer === 'lab' && ownCodes.length === 0) throw notFound('The board');
-  if (viewer === 'assessor' && Object.keys(labNames).length === 0 && ownCodes.length === 0) throw notFound('The board');
+  if (viewer === 'assessor' && Object.keys(labNames).length === 0 && ownCodes.length === 0)
+    throw notFound('The board');
   if (!head) throw notFound('The board');
 
   if (viewer === 'coordinator' && revealNames) {
@@ -94,15 +106,18 @@ export async function boardJson(ctx: AppContext, user: SessionUser, roundId: str
     );
     labNames = {};
     for (const r of rows) labNames[r.participant_code] = r.name;
-    await audit(em, user.id, 'board.names-revealed', 'round', roundId, { evaluationId: head.id, version: head.version, labs: rows.length });
+    await audit(em, user.id, 'board.names-revealed', 'round', roundId, {
+      evaluationId: head.id,
+      version: head.version,
+      labs: rows.length,
+    });
   }
   const body = await bodyBytes(em, head);
-  const prefix = (
+  const prefix =
     `{"roundId":${JSON.stringify(roundId)},"roundCode":${JSON.stringify(head.round_code)},"roundTitle":${JSON.stringify(head.round_title)},` +
     `"evaluationId":"${head.id}","version":${head.version},"state":"${head.state}",` +
     `"publishedAt":${head.published_at ? `"${head.published_at.toISOString()}"` : 'null'},` +
-    `"ownCodes":${JSON.stringify(ownCodes)},"labNames":${JSON.stringify(labNames)},"canRevealNames":${viewer === 'coordinator'},`
-  );
+    `"ownCodes":${JSON.stringify(ownCodes)},"labNames":${JSON.stringify(labNames)},"canRevealNames":${viewer === 'coordinator'},`;
   return [Buffer.from(prefix), body];
 }
 
@@ -114,16 +129,26 @@ export async function listBoards(ctx: AppContext, user: SessionUser): Promise<Bo
   if (viewer === 'coordinator') {
     where = `r.state IN ('closed', 'evaluated', 'published', 'reissued')`;
   } else {
-    const labs = viewer === 'lab' ? labIds(user) : [...labIds(user), ...(await grantedLabIds(ctx.ds.manager, user.id))];
+    const labs =
+      viewer === 'lab'
+        ? labIds(user)
+        : [...labIds(user), ...(await grantedLabIds(ctx.ds.manager, user.id))];
     params.push(labs);
     where = `e.state = 'published' AND EXISTS (SELECT 1 FROM enrolment en WHERE en.round_id = r.id AND en.organisation_id = ANY($1))`;
   }
   const rows: {
-    id: string; code: string; title: string; state: string; ev_state: BoardListEntry['evaluationState']; version: number | null; published_at: Date | null;
-    acceptable: number | null; warning: number | null; action: number | null;
-  }[] =
-    await ctx.ds.query(
-      `SELECT r.id, r.code, r.title, r.state, e.state AS ev_state, e.version, e.published_at,
+    id: string;
+    code: string;
+    title: string;
+    state: string;
+    ev_state: BoardListEntry['evaluationState'];
+    version: number | null;
+    published_at: Date | null;
+    acceptable: number | null;
+    warning: number | null;
+    action: number | null;
+  }[] = await ctx.ds.query(
+    `SELECT r.id, r.code, r.title, r.state, e.state AS ev_state, e.version, e.published_at,
               c.acceptable::int AS acceptable, c.warning::int AS warning, c.action::int AS action
          FROM round r
          LEFT JOIN LATERAL (
@@ -137,8 +162,8 @@ export async function listBoards(ctx: AppContext, user: SessionUser): Promise<Bo
             WHERE er.evaluation_id = e.id) c ON true
         WHERE ${where}
         ORDER BY r.created_at DESC LIMIT 500`,
-      params,
-    );
+    params,
+  );
   return rows.map((r) => ({
     roundId: r.id,
     roundCode: r.code,

@@ -1,6 +1,14 @@
 import { createHash, randomBytes, randomInt } from 'node:crypto';
 import type { EntityManager } from 'typeorm';
-import { Enrolment, Invitation, Membership, Organisation, Round, Shipment, User } from '../../../db/entities';
+import {
+  Enrolment,
+  Invitation,
+  Membership,
+  Organisation,
+  Round,
+  Shipment,
+  User,
+} from '../../../db/entities';
 import type {
   Enrolment as EnrolmentDto,
   ExtensionGrant,
@@ -34,12 +42,20 @@ export function randomParticipantCode(): string {
 }
 
 /** A code not yet used in the round (retried on collision). */
-export async function freshParticipantCode(em: EntityManager, roundId: string, draw = randomParticipantCode): Promise<string> {
+export async function freshParticipantCode(
+  em: EntityManager,
+  roundId: string,
+  draw = randomParticipantCode,
+): Promise<string> {
   for (let attempt = 0; attempt < 20; attempt++) {
     const code = draw();
     if (!(await em.findOne(Enrolment, { where: { roundId, participantCode: code } }))) return code;
   }
-  throw new HttpError(503, 'code_space_exhausted', 'No free participant code was found; try again.');
+  throw new HttpError(
+    503,
+    'code_space_exhausted',
+    'No free participant code was found; try again.',
+  );
 }
 
 const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
@@ -61,7 +77,10 @@ export async function labRecipients(em: EntityManager, organisationId: string): 
     .where('m.organisation_id = :organisationId AND u.is_active = true', { organisationId })
     .getMany();
   const org = await em.findOne(Organisation, { where: { id: organisationId } });
-  const all = [...members.map((m) => m.user?.email ?? ""), ...(org?.contactEmail ? [org.contactEmail] : [])];
+  const all = [
+    ...members.map((m) => m.user?.email ?? ''),
+    ...(org?.contactEmail ? [org.contactEmail] : []),
+  ];
   return [...new Set(all.filter(Boolean).map((a) => a.toLowerCase()))].sort();
 }
 
@@ -80,11 +99,16 @@ function invitationDto(i: Invitation, orgName: string | null): InvitationDto {
 }
 
 export async function listInvitations(ctx: AppContext, roundId: string): Promise<InvitationDto[]> {
-  if (!(await ctx.ds.getRepository(Round).findOne({ where: { id: roundId } }))) throw notFound('The round');
-  const rows = await ctx.ds.getRepository(Invitation).find({ where: { roundId }, order: { createdAt: 'ASC' } });
+  if (!(await ctx.ds.getRepository(Round).findOne({ where: { id: roundId } })))
+    throw notFound('The round');
+  const rows = await ctx.ds
+    .getRepository(Invitation)
+    .find({ where: { roundId }, order: { createdAt: 'ASC' } });
   const orgs = await ctx.ds.getRepository(Organisation).find();
   const names = new Map(orgs.map((o) => [o.id, o.name]));
-  return rows.map((i) => invitationDto(i, i.organisationId ? (names.get(i.organisationId) ?? null) : null));
+  return rows.map((i) =>
+    invitationDto(i, i.organisationId ? (names.get(i.organisationId) ?? null) : null),
+  );
 }
 
 /**
@@ -100,17 +124,29 @@ export async function createInvitations(
   const { created, mails, round } = await ctx.ds.transaction(async (em) => {
     const round = await lockRound(em, roundId);
     if (round.state !== 'enrolling') {
-      throw conflict('round_not_enrolling', 'Invitations go out only while the round is enrolling; open enrolment first.');
+      throw conflict(
+        'round_not_enrolling',
+        'Invitations go out only while the round is enrolling; open enrolment first.',
+      );
     }
     const created: InvitationDto[] = [];
     const mails: { email: string; token: string; labName: string }[] = [];
     for (const [n, inv] of list.entries()) {
       let orgName: string | null = null;
       if (inv.organisationId) {
-        const org = await em.findOne(Organisation, { where: { id: inv.organisationId, kind: 'lab' } });
-        if (!org) throw ruleBroken('organisation_unknown', `invitations.${n}.organisationId: that lab does not exist.`);
+        const org = await em.findOne(Organisation, {
+          where: { id: inv.organisationId, kind: 'lab' },
+        });
+        if (!org)
+          throw ruleBroken(
+            'organisation_unknown',
+            `invitations.${n}.organisationId: that lab does not exist.`,
+          );
         if (await em.findOne(Enrolment, { where: { roundId, organisationId: org.id } })) {
-          throw conflict('already_enrolled', `invitations.${n}.organisationId: ${org.name} is already enrolled in this round.`);
+          throw conflict(
+            'already_enrolled',
+            `invitations.${n}.organisationId: ${org.name} is already enrolled in this round.`,
+          );
         }
         orgName = org.name;
       }
@@ -127,7 +163,11 @@ export async function createInvitations(
           createdBy: actor.id,
         }),
       );
-      await audit(em, actor.id, 'invitation.created', 'invitation', row.id, { roundId, email: inv.email, organisationId: inv.organisationId });
+      await audit(em, actor.id, 'invitation.created', 'invitation', row.id, {
+        roundId,
+        email: inv.email,
+        organisationId: inv.organisationId,
+      });
       created.push(invitationDto(row, orgName));
       mails.push({ email: inv.email, token, labName: orgName ?? inv.labName ?? '' });
     }
@@ -149,14 +189,22 @@ export async function createInvitations(
 }
 
 const invalidInvitation = () =>
-  new HttpError(404, 'link_invalid', 'This invitation has expired or was already used. Ask the coordinator for a new one.');
+  new HttpError(
+    404,
+    'link_invalid',
+    'This invitation has expired or was already used. Ask the coordinator for a new one.',
+  );
 
 /** What the invitee sees before accepting. */
 export async function invitationInfo(ctx: AppContext, token: string): Promise<InvitationInfo> {
-  const inv = await ctx.ds.getRepository(Invitation).findOne({ where: { tokenHash: sha256(token) } });
+  const inv = await ctx.ds
+    .getRepository(Invitation)
+    .findOne({ where: { tokenHash: sha256(token) } });
   if (!inv || inv.acceptedAt || inv.expiresAt.getTime() <= Date.now()) throw invalidInvitation();
   const round = await ctx.ds.getRepository(Round).findOneOrFail({ where: { id: inv.roundId } });
-  const org = inv.organisationId ? await ctx.ds.getRepository(Organisation).findOne({ where: { id: inv.organisationId } }) : null;
+  const org = inv.organisationId
+    ? await ctx.ds.getRepository(Organisation).findOne({ where: { id: inv.organisationId } })
+    : null;
   return {
     roundCode: round.code,
     roundTitle: round.title,
@@ -173,7 +221,11 @@ export async function invitationInfo(ctx: AppContext, token: string): Promise<In
  * that lab; a new lab's invitation creates the lab and (if the address has no account) a user
  * who gets a first-password link.
  */
-export async function acceptInvitation(ctx: AppContext, user: SessionUser | undefined, token: string): Promise<InvitationAcceptResult> {
+export async function acceptInvitation(
+  ctx: AppContext,
+  user: SessionUser | undefined,
+  token: string,
+): Promise<InvitationAcceptResult> {
   const { result, mail } = await ctx.ds.transaction(async (em) => {
     const raw: unknown = await em.query(
       `UPDATE invitation SET accepted_at = now()
@@ -192,7 +244,8 @@ export async function acceptInvitation(ctx: AppContext, user: SessionUser | unde
     const inv = rows[0];
     if (!inv) throw invalidInvitation();
     const round = await lockRound(em, inv.round_id);
-    if (round.state !== 'enrolling') throw conflict('round_not_enrolling', 'Enrolment for this round is closed.');
+    if (round.state !== 'enrolling')
+      throw conflict('round_not_enrolling', 'Enrolment for this round is closed.');
 
     let organisationId: string;
     let mail: { email: string; name: string; token: string } | null = null;
@@ -200,21 +253,49 @@ export async function acceptInvitation(ctx: AppContext, user: SessionUser | unde
     if (inv.organisation_id) {
       if (!user) throw unauthorized();
       if (!user.memberships.some((m) => m.organisationId === inv.organisation_id)) {
-        throw new HttpError(403, 'not_a_member', 'Sign in as a member of the invited lab to accept.');
+        throw new HttpError(
+          403,
+          'not_a_member',
+          'Sign in as a member of the invited lab to accept.',
+        );
       }
       organisationId = inv.organisation_id;
     } else {
       const name = inv.lab_name ?? inv.email;
-      const clash: unknown[] = await em.query(`SELECT 1 FROM organisation WHERE lower(name) = lower($1)`, [name]);
-      if (clash.length) throw conflict('name_taken', `A lab called "${name}" already exists; ask the coordinator to invite it directly.`);
-      const org = await em.save(Organisation, em.create(Organisation, { name, kind: 'lab', country: null, contactEmail: inv.email }));
+      const clash: unknown[] = await em.query(
+        `SELECT 1 FROM organisation WHERE lower(name) = lower($1)`,
+        [name],
+      );
+      if (clash.length)
+        throw conflict(
+          'name_taken',
+          `A lab called "${name}" already exists; ask the coordinator to invite it directly.`,
+        );
+      const org = await em.save(
+        Organisation,
+        em.create(Organisation, { name, kind: 'lab', country: null, contactEmail: inv.email }),
+      );
       organisationId = org.id;
-      await audit(em, actorId, 'organisation.created', 'organisation', org.id, { name, via: 'invitation', invitationId: inv.id });
+      await audit(em, actorId, 'organisation.created', 'organisation', org.id, {
+        name,
+        via: 'invitation',
+        invitationId: inv.id,
+      });
       let account = await em.findOne(User, { where: { email: inv.email } });
       if (!account) {
-        account = await em.save(User, em.create(User, { email: inv.email, name, roles: [], passwordHash: null }));
-        await audit(em, actorId, 'user.invited', 'user', account.id, { email: inv.email, organisationId });
-        mail = { email: account.email, name: account.name, token: await issuePasswordToken(em, account.id, 'first-password') };
+        account = await em.save(
+          User,
+          em.create(User, { email: inv.email, name, roles: [], passwordHash: null }),
+        );
+        await audit(em, actorId, 'user.invited', 'user', account.id, {
+          email: inv.email,
+          organisationId,
+        });
+        mail = {
+          email: account.email,
+          name: account.name,
+          token: await issuePasswordToken(em, account.id, 'first-password'),
+        };
       }
       await em.insert(Membership, { userId: account.id, organisationId, isManager: true });
       actorId ??= account.id;
@@ -223,9 +304,16 @@ export async function acceptInvitation(ctx: AppContext, user: SessionUser | unde
       throw conflict('already_enrolled', 'Your lab is already enrolled in this round.');
     }
     const participantCode = await freshParticipantCode(em, round.id);
-    const enrolment = await em.save(Enrolment, em.create(Enrolment, { roundId: round.id, organisationId, participantCode }));
+    const enrolment = await em.save(
+      Enrolment,
+      em.create(Enrolment, { roundId: round.id, organisationId, participantCode }),
+    );
     await em.update(Invitation, { id: inv.id }, { enrolmentId: enrolment.id, organisationId });
-    await audit(em, actorId, 'enrolment.created', 'enrolment', enrolment.id, { roundId: round.id, organisationId, invitationId: inv.id });
+    await audit(em, actorId, 'enrolment.created', 'enrolment', enrolment.id, {
+      roundId: round.id,
+      organisationId,
+      invitationId: inv.id,
+    });
     return { result: { roundId: round.id, participantCode, accountCreated: mail !== null }, mail };
   });
   if (mail) await sendLinkMail(ctx, mail.email, mail.name, mail.token, 'first-password');
@@ -241,11 +329,20 @@ function receiptStatus(s: Shipment | null): ReceiptStatus {
 /** Enrolments of a round with lab names, shipment and receipt status (coordinator's view). */
 export async function listEnrolments(em: EntityManager, roundId: string): Promise<EnrolmentDto[]> {
   if (!(await em.findOne(Round, { where: { id: roundId } }))) throw notFound('The round');
-  const enrolments = await em.find(Enrolment, { where: { roundId }, order: { participantCode: 'ASC' } });
+  const enrolments = await em.find(Enrolment, {
+    where: { roundId },
+    order: { participantCode: 'ASC' },
+  });
   if (!enrolments.length) return [];
   const ids = enrolments.map((e) => e.id);
-  const shipments = await em.createQueryBuilder(Shipment, 's').where('s.enrolment_id IN (:...ids)', { ids }).getMany();
-  const orgs = await em.createQueryBuilder(Organisation, 'o').where('o.id IN (:...ids)', { ids: enrolments.map((e) => e.organisationId) }).getMany();
+  const shipments = await em
+    .createQueryBuilder(Shipment, 's')
+    .where('s.enrolment_id IN (:...ids)', { ids })
+    .getMany();
+  const orgs = await em
+    .createQueryBuilder(Organisation, 'o')
+    .where('o.id IN (:...ids)', { ids: enrolments.map((e) => e.organisationId) })
+    .getMany();
   const submitted: { enrolment_id: string }[] = await em.query(
     `SELECT enrolment_id FROM submission WHERE enrolment_id = ANY($1) AND current_version > 0`,
     [ids],
@@ -281,27 +378,48 @@ export async function listEnrolments(em: EntityManager, roundId: string): Promis
   });
 }
 
-export async function enrolmentDto(em: EntityManager, roundId: string, enrolmentId: string): Promise<EnrolmentDto> {
+export async function enrolmentDto(
+  em: EntityManager,
+  roundId: string,
+  enrolmentId: string,
+): Promise<EnrolmentDto> {
   const found = (await listEnrolments(em, roundId)).find((e) => e.id === enrolmentId);
   if (!found) throw notFound('The enrolment');
   return found;
 }
 
 /** The enrolment of the round, locked; 404 when it belongs to another round. */
-export async function lockEnrolment(em: EntityManager, roundId: string, enrolmentId: string): Promise<Enrolment> {
-  const e = await em.findOne(Enrolment, { where: { id: enrolmentId, roundId }, lock: { mode: 'pessimistic_write' } });
+export async function lockEnrolment(
+  em: EntityManager,
+  roundId: string,
+  enrolmentId: string,
+): Promise<Enrolment> {
+  const e = await em.findOne(Enrolment, {
+    where: { id: enrolmentId, roundId },
+    lock: { mode: 'pessimistic_write' },
+  });
   if (!e) throw notFound('The enrolment');
   return e;
 }
 
 /** Withdraws an enrolment with a reason (before the round closes). */
-export async function withdrawEnrolment(ctx: AppContext, actor: SessionUser, roundId: string, enrolmentId: string, reason: string): Promise<EnrolmentDto> {
+export async function withdrawEnrolment(
+  ctx: AppContext,
+  actor: SessionUser,
+  roundId: string,
+  enrolmentId: string,
+  reason: string,
+): Promise<EnrolmentDto> {
   return ctx.ds.transaction(async (em) => {
     const round = await lockRound(em, roundId);
     const e = await lockEnrolment(em, roundId, enrolmentId);
-    if (e.state === 'withdrawn') throw conflict('already_withdrawn', 'This enrolment is already withdrawn.');
+    if (e.state === 'withdrawn')
+      throw conflict('already_withdrawn', 'This enrolment is already withdrawn.');
     if (!['draft', 'enrolling', 'in-transit', 'collecting'].includes(round.state)) {
-      throw conflict('round_closed', 'The round has closed; enrolments can no longer be withdrawn.');
+      throw conflict(
+        'round_closed',
+        'The round has closed; enrolments can no longer be withdrawn.',
+      );
     }
     await em.update(Enrolment, { id: e.id }, { state: 'withdrawn', withdrawnReason: reason });
     await audit(em, actor.id, 'enrolment.withdrawn', 'enrolment', e.id, { roundId, reason });
@@ -313,21 +431,39 @@ export async function withdrawEnrolment(ctx: AppContext, actor: SessionUser, rou
  * Grants a lab a late-submission extension (read by the Lab bench from enrolment.extension_until).
  * The new deadline must be after the round's results-due date.
  */
-export async function grantExtension(ctx: AppContext, actor: SessionUser, roundId: string, enrolmentId: string, input: ExtensionGrant): Promise<EnrolmentDto> {
+export async function grantExtension(
+  ctx: AppContext,
+  actor: SessionUser,
+  roundId: string,
+  enrolmentId: string,
+  input: ExtensionGrant,
+): Promise<EnrolmentDto> {
   return ctx.ds.transaction(async (em) => {
     const round = await lockRound(em, roundId);
     const e = await lockEnrolment(em, roundId, enrolmentId);
-    if (e.state !== 'enrolled') throw conflict('enrolment_withdrawn', 'A withdrawn enrolment cannot get an extension.');
+    if (e.state !== 'enrolled')
+      throw conflict('enrolment_withdrawn', 'A withdrawn enrolment cannot get an extension.');
     if (!['in-transit', 'collecting', 'closed'].includes(round.state)) {
-      throw conflict('round_not_collecting', 'Extensions are granted while results are collected (or just after closing).');
+      throw conflict(
+        'round_not_collecting',
+        'Extensions are granted while results are collected (or just after closing).',
+      );
     }
     const until = new Date(input.until);
     if (round.resultsDueAt && until.getTime() <= round.resultsDueAt.getTime()) {
-      throw ruleBroken('extension_before_due', `until: the extension must end after the results-due date (${round.resultsDueAt.toISOString()}).`);
+      throw ruleBroken(
+        'extension_before_due',
+        `until: the extension must end after the results-due date (${round.resultsDueAt.toISOString()}).`,
+      );
     }
-    if (until.getTime() <= Date.now()) throw ruleBroken('extension_in_past', 'until: the extension must end in the future.');
+    if (until.getTime() <= Date.now())
+      throw ruleBroken('extension_in_past', 'until: the extension must end in the future.');
     await em.update(Enrolment, { id: e.id }, { extensionUntil: until });
-    await audit(em, actor.id, 'enrolment.extension-granted', 'enrolment', e.id, { roundId, until: until.toISOString(), reason: input.reason });
+    await audit(em, actor.id, 'enrolment.extension-granted', 'enrolment', e.id, {
+      roundId,
+      until: until.toISOString(),
+      reason: input.reason,
+    });
     return enrolmentDto(em, roundId, e.id);
   });
 }

@@ -2,9 +2,22 @@ import { Client as PgClient } from 'pg';
 import { SubmissionVersion } from '../../../db/entities';
 import type { EvaluationView, LabScores } from '../../../shared/contracts/evaluation';
 import { RANGES } from '../../../shared/contracts/ranges';
-import { cleanResults, createBenchRound, enrol, passingCheck, type BenchRound } from '../testing/bench-fixtures';
+import {
+  cleanResults,
+  createBenchRound,
+  enrol,
+  passingCheck,
+  type BenchRound,
+} from '../testing/bench-fixtures';
 import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evaluation-fixtures';
-import { createLab, createUser, signedIn, startTestApp, type Client, type TestApp } from '../testing/test-app';
+import {
+  createLab,
+  createUser,
+  signedIn,
+  startTestApp,
+  type Client,
+  type TestApp,
+} from '../testing/test-app';
 
 const api = (p: string) => `/api/v1${p}`;
 
@@ -28,7 +41,11 @@ describe('absurd values and duplicates', () => {
     coord = await signedIn(t, 'coord@range.test');
     r = await createBenchRound(t.ds);
     await enrol(t.ds, r.round.id, org.id, 'P01');
-    await lab.agent.post(api('/my/instrument-checks')).set('x-csrf-token', lab.csrf).send(passingCheck()).expect(201);
+    await lab.agent
+      .post(api('/my/instrument-checks'))
+      .set('x-csrf-token', lab.csrf)
+      .send(passingCheck())
+      .expect(201);
   });
   afterAll(() => t.close());
 
@@ -38,7 +55,7 @@ describe('absurd values and duplicates', () => {
       .set('x-csrf-token', lab.csrf)
       .send({ idempotencyKey: `key-${Math.random().toString(36).slice(2)}`, data });
   }
-  const versions = async () => (await t.ds.getRepository(SubmissionVersion).count());
+  const versions = async () => await t.ds.getRepository(SubmissionVersion).count();
 
   it('refuses an uncertainty of 1e308 with 400 naming the field, and stores nothing', async () => {
     const data = cleanResults(r);
@@ -46,7 +63,9 @@ describe('absurd values and duplicates', () => {
     const before = await versions();
     const res = await submit(data);
     expect(res.status).toBe(400);
-    expect(res.body.error.details.map((d: { path: string }) => d.path)).toContain('data.items.0.results.0.uncertainty.value');
+    expect(res.body.error.details.map((d: { path: string }) => d.path)).toContain(
+      'data.items.0.results.0.uncertainty.value',
+    );
     expect(await versions()).toBe(before);
   });
 
@@ -80,7 +99,12 @@ describe('absurd values and duplicates', () => {
     const res = await submit(data);
     expect(res.status).toBe(400);
     const paths = res.body.error.details.map((d: { path: string }) => d.path);
-    expect(paths).toEqual(expect.arrayContaining(['data.items.1.conditions.viscosityMPas', 'data.items.1.conditions.temperatureC']));
+    expect(paths).toEqual(
+      expect.arrayContaining([
+        'data.items.1.conditions.viscosityMPas',
+        'data.items.1.conditions.temperatureC',
+      ]),
+    );
   });
 
   it('refuses the same item twice, naming the duplicate', async () => {
@@ -107,12 +131,24 @@ describe('absurd values and duplicates', () => {
   describe('evaluation of stored absurd data (saved before the bounds existed)', () => {
     let ev: EvaluationView;
     beforeAll(async () => {
-      fx = await buildEvaluationFixture(t.ds, { participants: 20, seed: 11, withUncertainty: true });
+      fx = await buildEvaluationFixture(t.ds, {
+        participants: 20,
+        seed: 11,
+        withUncertainty: true,
+      });
       const [a, b] = fx.items;
       const [za, pdi] = fx.measurands;
       // Lab 0: an uncertainty of 1e308 on A × Z-average. Lab 1: diameters of 1e308 nm on B.
       // Lab 2: item A named twice (the second copy would count as a 21st participant).
-      const patch = async (i: number, f: (d: { items: { testItemId: string; results: { measurandId: string; replicates: number[]; uncertainty: unknown }[] }[] }) => void) => {
+      const patch = async (
+        i: number,
+        f: (d: {
+          items: {
+            testItemId: string;
+            results: { measurandId: string; replicates: number[]; uncertainty: unknown }[];
+          }[];
+        }) => void,
+      ) => {
         const [v] = (await t.ds.query(
           'SELECT sv.id, sv.data FROM submission_version sv JOIN submission s ON s.id = sv.submission_id WHERE s.enrolment_id = $1',
           [fx.enrolments[i]!.id],
@@ -125,19 +161,34 @@ describe('absurd values and duplicates', () => {
         await owner.connect();
         try {
           await owner.query('BEGIN');
-          await owner.query('ALTER TABLE submission_version DISABLE TRIGGER submission_version_no_change');
-          await owner.query('UPDATE submission_version SET data = $2 WHERE id = $1', [v!.id, JSON.stringify(data)]);
-          await owner.query('ALTER TABLE submission_version ENABLE TRIGGER submission_version_no_change');
+          await owner.query(
+            'ALTER TABLE submission_version DISABLE TRIGGER submission_version_no_change',
+          );
+          await owner.query('UPDATE submission_version SET data = $2 WHERE id = $1', [
+            v!.id,
+            JSON.stringify(data),
+          ]);
+          await owner.query(
+            'ALTER TABLE submission_version ENABLE TRIGGER submission_version_no_change',
+          );
           await owner.query('COMMIT');
         } finally {
           await owner.end();
         }
       };
       await patch(0, (d) => {
-        d.items.find((it) => it.testItemId === a!.id)!.results.find((x) => x.measurandId === za!.id)!.uncertainty = { kind: 'standard', value: 1e308, k: null };
+        d.items
+          .find((it) => it.testItemId === a!.id)!
+          .results.find((x) => x.measurandId === za!.id)!.uncertainty = {
+          kind: 'standard',
+          value: 1e308,
+          k: null,
+        };
       });
       await patch(1, (d) => {
-        d.items.find((it) => it.testItemId === b!.id)!.results.find((x) => x.measurandId === za!.id)!.replicates = [1e308, 1e308, 1e308];
+        d.items
+          .find((it) => it.testItemId === b!.id)!
+          .results.find((x) => x.measurandId === za!.id)!.replicates = [1e308, 1e308, 1e308];
       });
       await patch(2, (d) => {
         const copy = structuredClone(d.items.find((it) => it.testItemId === a!.id)!);
@@ -145,13 +196,20 @@ describe('absurd values and duplicates', () => {
         d.items.push(copy);
       });
       // A σ_pt rule stored before the bound: 1e-320 for the PDI.
-      await t.ds.query(`UPDATE measurand SET sigma_pt_rule = '{"kind":"fixed","value":1e-320}' WHERE id = $1`, [pdi!.id]);
-      const res = await coord.agent.post(api(`/rounds/${fx.round.id}/evaluation`)).set('x-csrf-token', coord.csrf).send({});
+      await t.ds.query(
+        `UPDATE measurand SET sigma_pt_rule = '{"kind":"fixed","value":1e-320}' WHERE id = $1`,
+        [pdi!.id],
+      );
+      const res = await coord.agent
+        .post(api(`/rounds/${fx.round.id}/evaluation`))
+        .set('x-csrf-token', coord.csrf)
+        .send({});
       expect(res.status).toBe(201);
       ev = res.body;
     });
 
-    const group = (item: string, key: string) => ev.results.find((g) => g.itemCode === item && g.measurandKey === key)!;
+    const group = (item: string, key: string) =>
+      ev.results.find((g) => g.itemCode === item && g.measurandKey === key)!;
     const code = (i: number) => fx.enrolments[i]!.participantCode;
 
     it('counts a duplicated item once (n = 20, not 21)', () => {
@@ -191,21 +249,37 @@ describe('absurd values and duplicates', () => {
       const g = group('A', 'pdi');
       expect(g.sigmaPt).toBeNull();
       expect(g.warnings).toContain('sigma-pt-out-of-range');
-      expect(g.participants.every((p) => p.z === null && p.notScored?.code === 'sigma-pt-out-of-range')).toBe(true);
+      expect(
+        g.participants.every((p) => p.z === null && p.notScored?.code === 'sigma-pt-out-of-range'),
+      ).toBe(true);
     });
 
     it('commits, publishes and shows each lab its scores with the reason', async () => {
       await coord.agent.get(api(`/rounds/${fx.round.id}/evaluation`)).expect(200);
-      await coord.agent.post(api(`/rounds/${fx.round.id}/evaluation/commit`)).set('x-csrf-token', coord.csrf).send({}).expect(200);
-      await coord.agent.post(api(`/rounds/${fx.round.id}/publish`)).set('x-csrf-token', coord.csrf).send({}).expect(200);
+      await coord.agent
+        .post(api(`/rounds/${fx.round.id}/evaluation/commit`))
+        .set('x-csrf-token', coord.csrf)
+        .send({})
+        .expect(200);
+      await coord.agent
+        .post(api(`/rounds/${fx.round.id}/publish`))
+        .set('x-csrf-token', coord.csrf)
+        .send({})
+        .expect(200);
       const board = await coord.agent.get(api(`/rounds/${fx.round.id}/board`)).expect(200);
-      const gi = (board.body.groups as { itemCode: string; measurandKey: string }[]).findIndex((g) => g.itemCode === 'B' && g.measurandKey === 'z_average');
-      const row = (board.body.rows as { code: string; cells: ({ notScored?: string } | null)[] }[]).find((x) => x.code === code(1))!;
+      const gi = (board.body.groups as { itemCode: string; measurandKey: string }[]).findIndex(
+        (g) => g.itemCode === 'B' && g.measurandKey === 'z_average',
+      );
+      const row = (
+        board.body.rows as { code: string; cells: ({ notScored?: string } | null)[] }[]
+      ).find((x) => x.code === code(1))!;
       expect(row.cells[gi]!.notScored).toMatch(/^Not scored: the result/);
       await createUser(t.ds, { email: 'one@range.test', lab: fx.labs[1]!.id });
       const one = await signedIn(t, 'one@range.test');
       const res = await one.agent.get(api(`/my/rounds/${fx.round.id}/scores`)).expect(200);
-      const scores = (res.body as LabScores).scores.find((s) => s.itemCode === 'B' && s.measurandKey === 'z_average')!;
+      const scores = (res.body as LabScores).scores.find(
+        (s) => s.itemCode === 'B' && s.measurandKey === 'z_average',
+      )!;
       expect(scores.score.notScored?.code).toBe('value-out-of-range');
       expect(scores.explanation[0]).toMatch(/^Not scored/);
     });

@@ -13,7 +13,12 @@ export async function myEnrolment(
   labId?: string,
 ): Promise<{ id: string; organisation_id: string; participant_code: string; lab_name: string }> {
   const mine = labIds(user).filter((id) => !labId || id === labId);
-  const rows: { id: string; organisation_id: string; participant_code: string; lab_name: string }[] = mine.length
+  const rows: {
+    id: string;
+    organisation_id: string;
+    participant_code: string;
+    lab_name: string;
+  }[] = mine.length
     ? await ctx.ds.query(
         `SELECT e.id, e.organisation_id, e.participant_code, o.name AS lab_name FROM enrolment e
            JOIN organisation o ON o.id = e.organisation_id
@@ -25,9 +30,21 @@ export async function myEnrolment(
   return rows[0];
 }
 
-export async function myScores(ctx: AppContext, user: SessionUser, roundId: string, labId?: string): Promise<LabScores> {
+export async function myScores(
+  ctx: AppContext,
+  user: SessionUser,
+  roundId: string,
+  labId?: string,
+): Promise<LabScores> {
   const en = await myEnrolment(ctx, user, roundId, labId);
-  const heads: { id: string; version: number; published_at: Date | null; reissue_reason: string | null; code: string; title: string }[] = await ctx.ds.query(
+  const heads: {
+    id: string;
+    version: number;
+    published_at: Date | null;
+    reissue_reason: string | null;
+    code: string;
+    title: string;
+  }[] = await ctx.ds.query(
     `SELECT e.id, e.version, e.published_at, e.reissue_reason, r.code, r.title FROM evaluation e JOIN round r ON r.id = e.round_id
       WHERE e.round_id = $1 AND e.state = 'published' ORDER BY e.version DESC LIMIT 1`,
     [roundId],
@@ -88,7 +105,9 @@ export async function myScores(ctx: AppContext, user: SessionUser, roundId: stri
         sigmaPt: r.sigma_pt,
         score: r.p,
         explanation: explainScore(r.p, c),
-        investigationId: inv.find((i) => i.test_item_id === r.test_item_id && i.measurand_id === r.measurand_id)?.id ?? null,
+        investigationId:
+          inv.find((i) => i.test_item_id === r.test_item_id && i.measurand_id === r.measurand_id)
+            ?.id ?? null,
       };
     }),
   };

@@ -24,7 +24,11 @@ import {
 import { enqueuePublicationMails } from '../jobs/publication';
 import { ROUND_STATE_LABELS } from '../../../shared/contracts/round-states';
 import { buildBoard } from '../../../shared/evaluation/board';
-import { evaluateRecord, type EvaluationInput, type ReplicateInput } from '../../../shared/evaluation/evaluate';
+import {
+  evaluateRecord,
+  type EvaluationInput,
+  type ReplicateInput,
+} from '../../../shared/evaluation/evaluate';
 import type { SessionUser } from '../auth/session-user';
 import { conflict, notFound, ruleBroken } from '../http/errors';
 import { VERSION } from '../version';
@@ -43,7 +47,16 @@ export interface LoadedRound {
 interface VersionRow {
   enrolment_id: string;
   participant_code: string;
-  data: { items?: { testItemId: string; results?: { measurandId: string; replicates?: (number | null)[]; uncertainty?: ReplicateInput['uncertainty'] }[] }[] };
+  data: {
+    items?: {
+      testItemId: string;
+      results?: {
+        measurandId: string;
+        replicates?: (number | null)[];
+        uncertainty?: ReplicateInput['uncertainty'];
+      }[];
+    }[];
+  };
 }
 
 /** A stored uncertainty in the shape the evaluation reads (anything else: none). */
@@ -59,7 +72,10 @@ function storedSettings(raw: unknown): EvaluationSettings {
   const r = EvaluationSettings.safeParse(raw ?? {});
   if (r.success) return r.data;
   const o = (raw ?? {}) as Partial<EvaluationSettings>;
-  return { sigmaPtOverrides: Array.isArray(o.sigmaPtOverrides) ? o.sigmaPtOverrides : [], exclusions: Array.isArray(o.exclusions) ? o.exclusions : [] };
+  return {
+    sigmaPtOverrides: Array.isArray(o.sigmaPtOverrides) ? o.sigmaPtOverrides : [],
+    exclusions: Array.isArray(o.exclusions) ? o.exclusions : [],
+  };
 }
 
 /**
@@ -69,8 +85,14 @@ function storedSettings(raw: unknown): EvaluationSettings {
 export async function loadRoundInput(em: EntityManager, roundId: string): Promise<LoadedRound> {
   const round = await em.findOne(Round, { where: { id: roundId } });
   if (!round) throw notFound('The round');
-  const items = await em.find(TestItem, { where: { roundId }, order: { position: 'ASC', code: 'ASC' } });
-  const measurands = await em.find(Measurand, { where: { roundId }, order: { position: 'ASC', key: 'ASC' } });
+  const items = await em.find(TestItem, {
+    where: { roundId },
+    order: { position: 'ASC', code: 'ASC' },
+  });
+  const measurands = await em.find(Measurand, {
+    where: { roundId },
+    order: { position: 'ASC', key: 'ASC' },
+  });
   const rows: VersionRow[] = await em.query(
     `SELECT en.id AS enrolment_id, en.participant_code, sv.data
        FROM enrolment en
@@ -93,9 +115,17 @@ export async function loadRoundInput(em: EntityManager, roundId: string): Promis
         const key = `${r.participant_code}/${it.testItemId}/${res.measurandId}`;
         if (seen.has(key)) continue;
         seen.add(key);
-        const values = (Array.isArray(res.replicates) ? res.replicates : []).filter((v): v is number => typeof v === 'number' && Number.isFinite(v));
+        const values = (Array.isArray(res.replicates) ? res.replicates : []).filter(
+          (v): v is number => typeof v === 'number' && Number.isFinite(v),
+        );
         if (values.length === 0) continue;
-        replicates.push({ code: r.participant_code, testItemId: it.testItemId, measurandId: res.measurandId, values, uncertainty: storedUncertainty(res.uncertainty) });
+        replicates.push({
+          code: r.participant_code,
+          testItemId: it.testItemId,
+          measurandId: res.measurandId,
+          values,
+          uncertainty: storedUncertainty(res.uncertainty),
+        });
       }
     }
   }
@@ -126,13 +156,33 @@ function checkSettings(loaded: LoadedRound, settings: EvaluationSettings): void 
   const itemCodes = new Set(loaded.items.map((i) => i.code));
   const keys = new Set(loaded.measurands.map((m) => m.key));
   settings.exclusions.forEach((x, i) => {
-    if (!codes.has(x.participantCode)) throw ruleBroken('unknown_participant', `exclusions.${i}.participantCode: no result from ${x.participantCode} in this round.`);
-    if (!itemCodes.has(x.itemCode)) throw ruleBroken('unknown_item', `exclusions.${i}.itemCode: the round has no item ${x.itemCode}.`);
-    if (!keys.has(x.measurandKey)) throw ruleBroken('unknown_measurand', `exclusions.${i}.measurandKey: the round has no measurand ${x.measurandKey}.`);
+    if (!codes.has(x.participantCode))
+      throw ruleBroken(
+        'unknown_participant',
+        `exclusions.${i}.participantCode: no result from ${x.participantCode} in this round.`,
+      );
+    if (!itemCodes.has(x.itemCode))
+      throw ruleBroken(
+        'unknown_item',
+        `exclusions.${i}.itemCode: the round has no item ${x.itemCode}.`,
+      );
+    if (!keys.has(x.measurandKey))
+      throw ruleBroken(
+        'unknown_measurand',
+        `exclusions.${i}.measurandKey: the round has no measurand ${x.measurandKey}.`,
+      );
   });
   settings.sigmaPtOverrides.forEach((o, i) => {
-    if (!keys.has(o.measurandKey)) throw ruleBroken('unknown_measurand', `sigmaPtOverrides.${i}.measurandKey: the round has no measurand ${o.measurandKey}.`);
-    if (o.itemCode !== null && !itemCodes.has(o.itemCode)) throw ruleBroken('unknown_item', `sigmaPtOverrides.${i}.itemCode: the round has no item ${o.itemCode}.`);
+    if (!keys.has(o.measurandKey))
+      throw ruleBroken(
+        'unknown_measurand',
+        `sigmaPtOverrides.${i}.measurandKey: the round has no measurand ${o.measurandKey}.`,
+      );
+    if (o.itemCode !== null && !itemCodes.has(o.itemCode))
+      throw ruleBroken(
+        'unknown_item',
+        `sigmaPtOverrides.${i}.itemCode: the round has no item ${o.itemCode}.`,
+      );
   });
 }
 
@@ -148,7 +198,10 @@ async function storeEvaluation(
   const roundId = loaded.round.id;
   checkSettings(loaded, settings);
   const results = evaluateRecord({ ...loaded.input, settings });
-  const last: { v: number | null }[] = await em.query('SELECT max(version) AS v FROM evaluation WHERE round_id = $1', [roundId]);
+  const last: { v: number | null }[] = await em.query(
+    'SELECT max(version) AS v FROM evaluation WHERE round_id = $1',
+    [roundId],
+  );
   const version = (last[0]?.v ?? 0) + 1;
   const now = new Date();
   const evaluation = await em.save(
@@ -209,7 +262,10 @@ async function storeEvaluation(
 }
 
 /** The record of one stored evaluation, in item × measurand order. */
-export async function loadResults(em: EntityManager, evaluationId: string): Promise<{ results: ItemMeasurandEvaluation[]; inputs: EvaluationView['inputs'] }> {
+export async function loadResults(
+  em: EntityManager,
+  evaluationId: string,
+): Promise<{ results: ItemMeasurandEvaluation[]; inputs: EvaluationView['inputs'] }> {
   const rows = await em
     .createQueryBuilder(EvaluationResult, 'r')
     .innerJoin(TestItem, 'i', 'i.id = r.test_item_id')
@@ -222,7 +278,16 @@ export async function loadResults(em: EntityManager, evaluationId: string): Prom
     .getMany();
   const results = rows.map((r): ItemMeasurandEvaluation => {
     const c = r.constants as Record<string, unknown>;
-    const { robustSd, uNegligible, sigmaPtRule, assignedValueRule, measurandName, unit, decimals, ...constants } = c;
+    const {
+      robustSd,
+      uNegligible,
+      sigmaPtRule,
+      assignedValueRule,
+      measurandName,
+      unit,
+      decimals,
+      ...constants
+    } = c;
     return {
       testItemId: r.testItemId,
       itemCode: r.itemCode,
@@ -246,7 +311,11 @@ export async function loadResults(em: EntityManager, evaluationId: string): Prom
       participants: r.participants as ItemMeasurandEvaluation['participants'],
     };
   });
-  const inputs = rows.map((r) => ({ testItemId: r.testItemId, measurandId: r.measurandId, rows: r.inputs as EvaluationView['inputs'][number]['rows'] }));
+  const inputs = rows.map((r) => ({
+    testItemId: r.testItemId,
+    measurandId: r.measurandId,
+    rows: r.inputs as EvaluationView['inputs'][number]['rows'],
+  }));
   return { results, inputs };
 }
 
@@ -267,8 +336,18 @@ async function view(em: EntityManager, e: Evaluation): Promise<EvaluationView> {
     committedAt: e.committedAt?.toISOString() ?? null,
     publishedAt: e.publishedAt?.toISOString() ?? null,
     results,
-    items: (await em.find(TestItem, { where: { roundId: e.roundId }, order: { position: 'ASC', code: 'ASC' } })).map((i) => ({ id: i.id, code: i.code })),
-    measurands: (await em.find(Measurand, { where: { roundId: e.roundId }, order: { position: 'ASC', key: 'ASC' } })).map((m) => ({
+    items: (
+      await em.find(TestItem, {
+        where: { roundId: e.roundId },
+        order: { position: 'ASC', code: 'ASC' },
+      })
+    ).map((i) => ({ id: i.id, code: i.code })),
+    measurands: (
+      await em.find(Measurand, {
+        where: { roundId: e.roundId },
+        order: { position: 'ASC', key: 'ASC' },
+      })
+    ).map((m) => ({
       id: m.id,
       key: m.key,
       name: m.name,
@@ -283,26 +362,46 @@ async function view(em: EntityManager, e: Evaluation): Promise<EvaluationView> {
 }
 
 /** The newest evaluation of a round (any state), or null. */
-export async function latestEvaluation(em: EntityManager, roundId: string, state?: Evaluation['state']): Promise<Evaluation | null> {
-  return em.findOne(Evaluation, { where: state ? { roundId, state } : { roundId }, order: { version: 'DESC' } });
+export async function latestEvaluation(
+  em: EntityManager,
+  roundId: string,
+  state?: Evaluation['state'],
+): Promise<Evaluation | null> {
+  return em.findOne(Evaluation, {
+    where: state ? { roundId, state } : { roundId },
+    order: { version: 'DESC' },
+  });
 }
 
 /**
  * POST /rounds/{id}/evaluation: computes a draft from the current submitted versions (replacing
  * an earlier draft). Only a closed round is evaluated.
  */
-export async function computeDraft(ctx: AppContext, actor: SessionUser, roundId: string, input: Partial<EvaluationSettings>): Promise<EvaluationView> {
+export async function computeDraft(
+  ctx: AppContext,
+  actor: SessionUser,
+  roundId: string,
+  input: Partial<EvaluationSettings>,
+): Promise<EvaluationView> {
   const settings = EvaluationSettings.parse(input ?? {});
   return ctx.ds.transaction(async (em) => {
     const round = await lockRound(em, roundId);
     if (round.state !== 'closed') {
-      throw conflict('round_not_closed', `Only a closed round is evaluated; this one is ${ROUND_STATE_LABELS[round.state]}.`);
+      throw conflict(
+        'round_not_closed',
+        `Only a closed round is evaluated; this one is ${ROUND_STATE_LABELS[round.state]}.`,
+      );
     }
     await em.delete(Evaluation, { roundId, state: 'draft' });
     const loaded = await loadRoundInput(em, roundId);
-    if (loaded.input.replicates.length === 0) throw ruleBroken('no_results', 'No lab has submitted results; there is nothing to evaluate.');
+    if (loaded.input.replicates.length === 0)
+      throw ruleBroken('no_results', 'No lab has submitted results; there is nothing to evaluate.');
     const e = await storeEvaluation(em, actor, loaded, settings, 'draft', null);
-    await audit(em, actor.id, 'evaluation.computed', 'round', roundId, { evaluationId: e.id, version: e.version, settings });
+    await audit(em, actor.id, 'evaluation.computed', 'round', roundId, {
+      evaluationId: e.id,
+      version: e.version,
+      settings,
+    });
     return view(em, e);
   });
 }
@@ -317,24 +416,41 @@ export async function getEvaluation(ctx: AppContext, roundId: string): Promise<E
 }
 
 /** POST /rounds/{id}/evaluation/commit: stores the draft as the round's evaluation (closed → evaluated). */
-export async function commitEvaluation(ctx: AppContext, actor: SessionUser, roundId: string): Promise<EvaluationView> {
+export async function commitEvaluation(
+  ctx: AppContext,
+  actor: SessionUser,
+  roundId: string,
+): Promise<EvaluationView> {
   return ctx.ds.transaction(async (em) => {
     await lockRound(em, roundId);
     const draft = await latestEvaluation(em, roundId, 'draft');
-    if (!draft) throw conflict('no_draft', 'There is no draft evaluation to approve; evaluate the round first.');
+    if (!draft)
+      throw conflict(
+        'no_draft',
+        'There is no draft evaluation to approve; evaluate the round first.',
+      );
     await transitionRound(em, roundId, 'evaluated', { id: actor.id });
     await em.update(Evaluation, { id: draft.id }, { state: 'committed', committedAt: new Date() });
-    await audit(em, actor.id, 'evaluation.committed', 'round', roundId, { evaluationId: draft.id, version: draft.version });
+    await audit(em, actor.id, 'evaluation.committed', 'round', roundId, {
+      evaluationId: draft.id,
+      version: draft.version,
+    });
     return view(em, { ...draft, state: 'committed', committedAt: new Date() });
   });
 }
 
 /** E-mail addresses of an enrolled lab: its contact and its members. */
-export async function labAddresses(em: EntityManager, roundId: string): Promise<{ labName: string; code: string; to: string[] }[]> {
+export async function labAddresses(
+  em: EntityManager,
+  roundId: string,
+): Promise<{ labName: string; code: string; to: string[] }[]> {
   const enrolments = await em.find(Enrolment, { where: { roundId, state: 'enrolled' } });
   if (enrolments.length === 0) return [];
   const orgIds = enrolments.map((e) => e.organisationId);
-  const orgs = await em.createQueryBuilder(Organisation, 'o').where('o.id IN (:...orgIds)', { orgIds }).getMany();
+  const orgs = await em
+    .createQueryBuilder(Organisation, 'o')
+    .where('o.id IN (:...orgIds)', { orgIds })
+    .getMany();
   const members: { organisation_id: string; email: string }[] = await em.query(
     `SELECT m.organisation_id, u.email FROM membership m JOIN app_user u ON u.id = m.user_id
       WHERE m.organisation_id = ANY($1) AND u.is_active`,
@@ -350,7 +466,6 @@ export async function labAddresses(em: EntityManager, roundId: string): Promise<
   });
 }
 
-
 /**
  * POST /rounds/{id}/publish: publishes the committed evaluation (evaluated or reissued →
  * published), opens an investigation for each warning or action signal, then e-mails every
@@ -360,22 +475,40 @@ export async function publishEvaluation(
   ctx: AppContext,
   actor: SessionUser,
   roundId: string,
-): Promise<{ evaluationId: string; version: number; labsNotified: number; investigationsOpened: number }> {
+): Promise<{
+  evaluationId: string;
+  version: number;
+  labsNotified: number;
+  investigationsOpened: number;
+}> {
   const out = await ctx.ds.transaction(async (em) => {
     const round = await lockRound(em, roundId);
     if (round.state !== 'evaluated' && round.state !== 'reissued') {
-      throw conflict('round_not_evaluated', `Only an evaluated (or reissued) round is published; this one is ${ROUND_STATE_LABELS[round.state]}.`);
+      throw conflict(
+        'round_not_evaluated',
+        `Only an evaluated (or reissued) round is published; this one is ${ROUND_STATE_LABELS[round.state]}.`,
+      );
     }
     const e = await latestEvaluation(em, roundId);
-    if (!e || e.state !== 'committed') throw conflict('no_committed_evaluation', 'Approve an evaluation for publication before publishing.');
+    if (!e || e.state !== 'committed')
+      throw conflict(
+        'no_committed_evaluation',
+        'Approve an evaluation for publication before publishing.',
+      );
     await transitionRound(em, roundId, 'published', { id: actor.id });
     await em.update(Evaluation, { id: e.id }, { state: 'published', publishedAt: new Date() });
     const { results } = await loadResults(em, e.id);
     const opened = await openInvestigations(em, roundId, e.id, results);
     const addresses = await labAddresses(em, roundId);
-    await audit(em, actor.id, 'evaluation.published', 'round', roundId, { evaluationId: e.id, version: e.version, investigationsOpened: opened });
+    await audit(em, actor.id, 'evaluation.published', 'round', roundId, {
+      evaluationId: e.id,
+      version: e.version,
+      investigationsOpened: opened,
+    });
     const link = `${ctx.config.publicUrl}/board/rounds/${roundId}/scores`;
-    const reissue = e.reissueReason ? `\nThis is a corrected version (version ${e.version}): ${e.reissueReason}\n` : '';
+    const reissue = e.reissueReason
+      ? `\nThis is a corrected version (version ${e.version}): ${e.reissueReason}\n`
+      : '';
     const mails = addresses
       .filter((a) => a.to.length > 0)
       .map((a) => ({
@@ -393,7 +526,12 @@ export async function publishEvaluation(
   });
   out.deliver();
   const sent = out.sent;
-  return { evaluationId: out.e.id, version: out.e.version, labsNotified: sent, investigationsOpened: out.opened };
+  return {
+    evaluationId: out.e.id,
+    version: out.e.version,
+    labsNotified: sent,
+    investigationsOpened: out.opened,
+  };
 }
 
 /**
@@ -412,15 +550,23 @@ export async function reissueEvaluation(
     const round = await lockRound(em, roundId);
     // A round left in Reissued without an approved new version (an older desk move could do
     // that) is corrected the same way, so it always leads back to Published.
-    const stranded = round.state === 'reissued' && (await latestEvaluation(em, roundId))?.state !== 'committed';
-    if (round.state !== 'published' && !stranded) throw conflict('round_not_published', 'Only a published round is reissued.');
+    const stranded =
+      round.state === 'reissued' && (await latestEvaluation(em, roundId))?.state !== 'committed';
+    if (round.state !== 'published' && !stranded)
+      throw conflict('round_not_published', 'Only a published round is reissued.');
     const prev = await latestEvaluation(em, roundId, 'published');
     const settings = EvaluationSettings.parse({ ...(prev?.settings ?? {}), ...(input ?? {}) });
-    if (round.state === 'published') await transitionRound(em, roundId, 'reissued', { id: actor.id }, { reason });
+    if (round.state === 'published')
+      await transitionRound(em, roundId, 'reissued', { id: actor.id }, { reason });
     await em.delete(Evaluation, { roundId, state: 'draft' });
     const loaded = await loadRoundInput(em, roundId);
     const e = await storeEvaluation(em, actor, loaded, settings, 'committed', reason);
-    await audit(em, actor.id, 'evaluation.reissued', 'round', roundId, { evaluationId: e.id, version: e.version, reason, previous: prev?.id ?? null });
+    await audit(em, actor.id, 'evaluation.reissued', 'round', roundId, {
+      evaluationId: e.id,
+      version: e.version,
+      reason,
+      previous: prev?.id ?? null,
+    });
     return view(em, e);
   });
 }

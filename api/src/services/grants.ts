@@ -40,14 +40,24 @@ function dto(g: AssessorGrant, u: User): AssessorGrantDto {
 }
 
 function assertMember(user: SessionUser, labId: string, manager: boolean): void {
-  const ok = manager ? managesLab(user, labId) : user.memberships.some((m) => m.organisationId === labId);
+  const ok = manager
+    ? managesLab(user, labId)
+    : user.memberships.some((m) => m.organisationId === labId);
   if (!ok) throw notFound('The lab');
 }
 
-export async function listGrants(ctx: AppContext, user: SessionUser, labId: string): Promise<AssessorGrantDto[]> {
+export async function listGrants(
+  ctx: AppContext,
+  user: SessionUser,
+  labId: string,
+): Promise<AssessorGrantDto[]> {
   assertMember(user, labId, false);
-  const grants = await ctx.ds.getRepository(AssessorGrant).find({ where: { organisationId: labId }, order: { createdAt: 'DESC' } });
-  const users = grants.length ? await ctx.ds.getRepository(User).find({ where: { id: In(grants.map((g) => g.assessorId)) } }) : [];
+  const grants = await ctx.ds
+    .getRepository(AssessorGrant)
+    .find({ where: { organisationId: labId }, order: { createdAt: 'DESC' } });
+  const users = grants.length
+    ? await ctx.ds.getRepository(User).find({ where: { id: In(grants.map((g) => g.assessorId)) } })
+    : [];
   const byId = new Map(users.map((u) => [u.id, u]));
   return grants.map((g) => dto(g, byId.get(g.assessorId)!));
 }
@@ -61,10 +71,16 @@ export async function listGrants(ctx: AppContext, user: SessionUser, labId: stri
  * - another account gets the grant too, which counts only once that person holds the assessor
  *   role (every assessor read checks the role); the mail tells them to ask the provider for it.
  */
-export async function createGrant(ctx: AppContext, actor: SessionUser, labId: string, input: AssessorGrantCreate): Promise<AssessorGrantDto> {
+export async function createGrant(
+  ctx: AppContext,
+  actor: SessionUser,
+  labId: string,
+  input: AssessorGrantCreate,
+): Promise<AssessorGrantDto> {
   assertMember(actor, labId, true);
   const startsOn = input.startsOn ?? today();
-  if (input.endsOn && input.endsOn < startsOn) throw ruleBroken('ends_before_start', 'endsOn: the grant cannot end before it starts.');
+  if (input.endsOn && input.endsOn < startsOn)
+    throw ruleBroken('ends_before_start', 'endsOn: the grant cannot end before it starts.');
   const typedName = input.name ?? input.email.split('@')[0]!;
   const out = await ctx.ds.transaction(async (em) => {
     const lab = await em.findOne(Organisation, { where: { id: labId } });
@@ -72,18 +88,43 @@ export async function createGrant(ctx: AppContext, actor: SessionUser, labId: st
     let user = await em.findOne(User, { where: { email: input.email } });
     let token: string | null = null;
     if (!user) {
-      user = await em.save(User, em.create(User, { email: input.email, name: typedName, roles: ['assessor'], passwordHash: null }));
+      user = await em.save(
+        User,
+        em.create(User, {
+          email: input.email,
+          name: typedName,
+          roles: ['assessor'],
+          passwordHash: null,
+        }),
+      );
       token = await issuePasswordToken(em, user.id, 'first-password');
-      await audit(em, actor.id, 'user.invited', 'user', user.id, { email: input.email, roles: ['assessor'], by: 'lab-manager' });
+      await audit(em, actor.id, 'user.invited', 'user', user.id, {
+        email: input.email,
+        roles: ['assessor'],
+        by: 'lab-manager',
+      });
     }
     const g = await em.save(
       AssessorGrant,
-      em.create(AssessorGrant, { organisationId: labId, assessorId: user.id, grantedBy: actor.id, startsOn, endsOn: input.endsOn ?? null, revokedAt: null }),
+      em.create(AssessorGrant, {
+        organisationId: labId,
+        assessorId: user.id,
+        grantedBy: actor.id,
+        startsOn,
+        endsOn: input.endsOn ?? null,
+        revokedAt: null,
+      }),
     );
-    await audit(em, actor.id, 'assessor-grant.created', 'organisation', labId, { grantId: g.id, assessorId: user.id, startsOn, endsOn: g.endsOn });
+    await audit(em, actor.id, 'assessor-grant.created', 'organisation', labId, {
+      grantId: g.id,
+      assessorId: user.id,
+      startsOn,
+      endsOn: g.endsOn,
+    });
     return { g: await em.findOneOrFail(AssessorGrant, { where: { id: g.id } }), user, token, lab };
   });
-  if (out.token) await sendLinkMail(ctx, out.user.email, out.user.name, out.token, 'first-password');
+  if (out.token)
+    await sendLinkMail(ctx, out.user.email, out.user.name, out.token, 'first-password');
   const isAssessor = out.user.roles.includes('assessor');
   try {
     await ctx.mailer.send({
@@ -104,7 +145,12 @@ export async function createGrant(ctx: AppContext, actor: SessionUser, labId: st
   return dto(out.g, { email: input.email, name: typedName } as User);
 }
 
-export async function revokeGrant(ctx: AppContext, actor: SessionUser, labId: string, grantId: string): Promise<void> {
+export async function revokeGrant(
+  ctx: AppContext,
+  actor: SessionUser,
+  labId: string,
+  grantId: string,
+): Promise<void> {
   assertMember(actor, labId, true);
   await ctx.ds.transaction(async (em) => {
     const g = await em.findOne(AssessorGrant, { where: { id: grantId, organisationId: labId } });

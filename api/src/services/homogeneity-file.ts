@@ -11,22 +11,42 @@ import { runInWorker, transferable } from '../workers/pool';
 export async function readRows(buffer: Buffer, filename: string): Promise<string[][]> {
   const isXlsx = buffer.subarray(0, 4).equals(Buffer.from([0x50, 0x4b, 0x03, 0x04]));
   if (isXlsx) {
-    const { sheets } = await runInWorker<{ sheets: SheetOut[] }>({ type: 'xlsx', data: transferable(buffer), limit: STUDY_FILE_LIMIT }, STUDY_FILE_LIMIT.label);
+    const { sheets } = await runInWorker<{ sheets: SheetOut[] }>(
+      { type: 'xlsx', data: transferable(buffer), limit: STUDY_FILE_LIMIT },
+      STUDY_FILE_LIMIT.label,
+    );
     const ws = sheets[0];
     if (!ws) throw ruleBroken('file_empty', 'file: the workbook has no worksheet.');
     return ws.rows.map(([, cells]) =>
-      cells.map((v) => (v === null ? '' : typeof v === 'object' ? (v.result === null ? '' : String(v.result)) : String(v))),
+      cells.map((v) =>
+        v === null
+          ? ''
+          : typeof v === 'object'
+            ? v.result === null
+              ? ''
+              : String(v.result)
+            : String(v),
+      ),
     );
   }
-  if (buffer.includes(0)) throw ruleBroken('file_type', `file: ${filename} is neither CSV text nor an XLSX workbook.`);
+  if (buffer.includes(0))
+    throw ruleBroken('file_type', `file: ${filename} is neither CSV text nor an XLSX workbook.`);
   const lines = countLines(buffer);
   if (lines > STUDY_FILE_LIMIT.maxRows) {
-    throw new HttpError(413, 'too_many_rows', `file: ${formatCount(lines)} lines; a ${STUDY_FILE_LIMIT.label} has at most ${formatCount(STUDY_FILE_LIMIT.maxRows)} rows.`, [
-      { path: 'file', message: `At most ${formatCount(STUDY_FILE_LIMIT.maxRows)} rows.` },
-    ]);
+    throw new HttpError(
+      413,
+      'too_many_rows',
+      `file: ${formatCount(lines)} lines; a ${STUDY_FILE_LIMIT.label} has at most ${formatCount(STUDY_FILE_LIMIT.maxRows)} rows.`,
+      [{ path: 'file', message: `At most ${formatCount(STUDY_FILE_LIMIT.maxRows)} rows.` }],
+    );
   }
   const text = buffer.toString('utf8').replace(/^\uFEFF/, '');
-  const sep = text.includes(';') && !text.includes(',') ? ';' : text.includes('\t') && !text.includes(',') ? '\t' : ',';
+  const sep =
+    text.includes(';') && !text.includes(',')
+      ? ';'
+      : text.includes('\t') && !text.includes(',')
+        ? '\t'
+        : ',';
   return text
     .split(/\r?\n/)
     .filter((l) => l.trim() !== '')
@@ -41,10 +61,19 @@ const num = (s: string) => (s.trim() === '' ? NaN : Number(s.trim()));
  * header and is skipped.
  */
 export function homogeneityFromRows(rows: string[][]): { items: number[][] } {
-  const body = rows.filter((r, i) => !(i === 0 && r.slice(1).some((c) => c.trim() !== '' && Number.isNaN(num(c)))));
+  const body = rows.filter(
+    (r, i) => !(i === 0 && r.slice(1).some((c) => c.trim() !== '' && Number.isNaN(num(c)))),
+  );
   const items = body.map((r, i) => {
-    const values = r.slice(1).filter((c) => c.trim() !== '').map(num);
-    if (values.some((v) => !Number.isFinite(v))) throw ruleBroken('file_value', `file: row ${i + 1} (${r[0] ?? ''}) has a value that is not a number.`);
+    const values = r
+      .slice(1)
+      .filter((c) => c.trim() !== '')
+      .map(num);
+    if (values.some((v) => !Number.isFinite(v)))
+      throw ruleBroken(
+        'file_value',
+        `file: row ${i + 1} (${r[0] ?? ''}) has a value that is not a number.`,
+      );
     return values;
   });
   return { items };
@@ -61,10 +90,15 @@ export function stabilityFromRows(rows: string[][]): { first: number[]; second: 
     const occasion = (r[0] ?? '').trim().toLowerCase();
     const value = num(r[1] ?? '');
     if (i === 0 && Number.isNaN(value)) return;
-    if (!Number.isFinite(value)) throw ruleBroken('file_value', `file: row ${i + 1} has a value that is not a number.`);
+    if (!Number.isFinite(value))
+      throw ruleBroken('file_value', `file: row ${i + 1} has a value that is not a number.`);
     if (['first', 'before', '1'].includes(occasion)) first.push(value);
     else if (['second', 'after', '2'].includes(occasion)) second.push(value);
-    else throw ruleBroken('file_value', `file: row ${i + 1}: occasion "${r[0]}" is not first/before/1 or second/after/2.`);
+    else
+      throw ruleBroken(
+        'file_value',
+        `file: row ${i + 1}: occasion "${r[0]}" is not first/before/1 or second/after/2.`,
+      );
   });
   return { first, second };
 }

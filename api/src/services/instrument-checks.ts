@@ -1,13 +1,19 @@
 import type { EntityManager } from 'typeorm';
 import { InstrumentCheck } from '../../../db/entities';
-import type { InstrumentCheck as InstrumentCheckDto, InstrumentCheckInput } from '../../../shared/contracts/bench';
+import type {
+  InstrumentCheck as InstrumentCheckDto,
+  InstrumentCheckInput,
+} from '../../../shared/contracts/bench';
 import { judgeInstrumentCheck } from '../../../shared/bench/instrument-check';
 import type { SessionUser } from '../auth/session-user';
 import { ruleBroken } from '../http/errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 
-export function instrumentCheckDto(c: InstrumentCheck, recordedByName: string | null = null): InstrumentCheckDto {
+export function instrumentCheckDto(
+  c: InstrumentCheck,
+  recordedByName: string | null = null,
+): InstrumentCheckDto {
   return {
     id: c.id,
     instrument: c.instrument,
@@ -27,10 +33,17 @@ export function instrumentCheckDto(c: InstrumentCheck, recordedByName: string | 
 }
 
 /** POST /my/instrument-checks: records a check and Ringlet's verdict (the server judges; the browser only previews). */
-export async function recordInstrumentCheck(ctx: AppContext, actor: SessionUser, labId: string, input: InstrumentCheckInput): Promise<InstrumentCheckDto> {
+export async function recordInstrumentCheck(
+  ctx: AppContext,
+  actor: SessionUser,
+  labId: string,
+  input: InstrumentCheckInput,
+): Promise<InstrumentCheckDto> {
   const checkedAt = input.checkedAt ? new Date(input.checkedAt) : new Date();
   if (checkedAt.getTime() > Date.now() + 5 * 60_000) {
-    throw ruleBroken('check_in_future', 'checkedAt: a check cannot be recorded for the future.', [{ path: 'checkedAt', message: 'Not in the future.' }]);
+    throw ruleBroken('check_in_future', 'checkedAt: a check cannot be recorded for the future.', [
+      { path: 'checkedAt', message: 'Not in the future.' },
+    ]);
   }
   const verdict = judgeInstrumentCheck(input);
   return ctx.ds.transaction(async (em) => {
@@ -65,7 +78,11 @@ export async function recordInstrumentCheck(ctx: AppContext, actor: SessionUser,
 }
 
 /** GET /my/instrument-checks: the lab's history, newest first, optionally for one instrument. */
-export async function listInstrumentChecks(ctx: AppContext, labId: string, instrument?: string): Promise<InstrumentCheckDto[]> {
+export async function listInstrumentChecks(
+  ctx: AppContext,
+  labId: string,
+  instrument?: string,
+): Promise<InstrumentCheckDto[]> {
   const qb = ctx.ds
     .getRepository(InstrumentCheck)
     .createQueryBuilder('c')
@@ -77,14 +94,20 @@ export async function listInstrumentChecks(ctx: AppContext, labId: string, instr
     .limit(500);
   if (instrument) qb.andWhere('lower(c.instrument) = lower(:instrument)', { instrument });
   const { entities, raw } = await qb.getRawAndEntities();
-  return entities.map((e, i) => instrumentCheckDto(e, (raw[i] as { recorded_by_name: string | null }).recorded_by_name));
+  return entities.map((e, i) =>
+    instrumentCheckDto(e, (raw[i] as { recorded_by_name: string | null }).recorded_by_name),
+  );
 }
 
 /**
  * The check that covers a submission: the latest one of the instruments the results name (null if
  * they have none), or the lab's latest check when the results name no instrument.
  */
-export async function latestCheckFor(em: EntityManager, labId: string, instruments: string[]): Promise<InstrumentCheck | null> {
+export async function latestCheckFor(
+  em: EntityManager,
+  labId: string,
+  instruments: string[],
+): Promise<InstrumentCheck | null> {
   const names = instruments.map((s) => s.trim().toLowerCase()).filter(Boolean);
   if (names.length) {
     const named = await em
@@ -95,5 +118,7 @@ export async function latestCheckFor(em: EntityManager, labId: string, instrumen
       .getOne();
     return named; // an instrument the results name, with no check of its own, counts as unchecked
   }
-  return em.getRepository(InstrumentCheck).findOne({ where: { organisationId: labId }, order: { checkedAt: 'DESC' } });
+  return em
+    .getRepository(InstrumentCheck)
+    .findOne({ where: { organisationId: labId }, order: { checkedAt: 'DESC' } });
 }

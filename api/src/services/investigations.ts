@@ -5,7 +5,11 @@
  */
 import type { EntityManager } from 'typeorm';
 import { Investigation } from '../../../db/entities';
-import type { InvestigationDto, InvestigationUpdate, ItemMeasurandEvaluation } from '../../../shared/contracts/evaluation';
+import type {
+  InvestigationDto,
+  InvestigationUpdate,
+  ItemMeasurandEvaluation,
+} from '../../../shared/contracts/evaluation';
 import { hasAnyRole } from '../http/route';
 import { labIds, managesLab, type SessionUser } from '../auth/session-user';
 import { conflict, notFound, ruleBroken } from '../http/errors';
@@ -18,17 +22,26 @@ import { grantedLabIds } from './grants';
  * signal already investigated in an earlier version of the same round is not opened twice.
  * @returns how many were opened.
  */
-export async function openInvestigations(em: EntityManager, roundId: string, evaluationId: string, results: readonly ItemMeasurandEvaluation[]): Promise<number> {
-  const enrolments: { id: string; organisation_id: string; participant_code: string }[] = await em.query(
-    `SELECT id, organisation_id, participant_code FROM enrolment WHERE round_id = $1`,
-    [roundId],
-  );
+export async function openInvestigations(
+  em: EntityManager,
+  roundId: string,
+  evaluationId: string,
+  results: readonly ItemMeasurandEvaluation[],
+): Promise<number> {
+  const enrolments: { id: string; organisation_id: string; participant_code: string }[] =
+    await em.query(
+      `SELECT id, organisation_id, participant_code FROM enrolment WHERE round_id = $1`,
+      [roundId],
+    );
   const byCode = new Map(enrolments.map((e) => [e.participant_code, e]));
-  const existing: { enrolment_id: string; test_item_id: string; measurand_id: string }[] = await em.query(
-    `SELECT enrolment_id, test_item_id, measurand_id FROM investigation WHERE round_id = $1`,
-    [roundId],
+  const existing: { enrolment_id: string; test_item_id: string; measurand_id: string }[] =
+    await em.query(
+      `SELECT enrolment_id, test_item_id, measurand_id FROM investigation WHERE round_id = $1`,
+      [roundId],
+    );
+  const seen = new Set(
+    existing.map((x) => `${x.enrolment_id}/${x.test_item_id}/${x.measurand_id}`),
   );
-  const seen = new Set(existing.map((x) => `${x.enrolment_id}/${x.test_item_id}/${x.measurand_id}`));
   const rows: Partial<Investigation>[] = [];
   for (const r of results) {
     for (const p of r.participants) {
@@ -51,8 +64,13 @@ export async function openInvestigations(em: EntityManager, roundId: string, eva
       });
     }
   }
-  for (let i = 0; i < rows.length; i += 500) await em.insert(Investigation, rows.slice(i, i + 500) as never);
-  if (rows.length > 0) await audit(em, null, 'investigations.opened', 'round', roundId, { evaluationId, count: rows.length });
+  for (let i = 0; i < rows.length; i += 500)
+    await em.insert(Investigation, rows.slice(i, i + 500) as never);
+  if (rows.length > 0)
+    await audit(em, null, 'investigations.opened', 'round', roundId, {
+      evaluationId,
+      count: rows.length,
+    });
   return rows.length;
 }
 
@@ -124,18 +142,29 @@ function dto(r: Row, user: SessionUser): InvestigationDto {
 async function readableLabs(em: EntityManager, user: SessionUser): Promise<string[] | 'all'> {
   if (hasAnyRole(user, ['coordinator', 'admin'])) return 'all';
   const ids = new Set(labIds(user));
-  if (user.roles.includes('assessor')) for (const id of await grantedLabIds(em, user.id)) ids.add(id);
+  if (user.roles.includes('assessor'))
+    for (const id of await grantedLabIds(em, user.id)) ids.add(id);
   return [...ids];
 }
 
 /** GET /my/investigations: the investigations of the user's labs, newest first. */
-export async function listMyInvestigations(ctx: AppContext, user: SessionUser): Promise<InvestigationDto[]> {
-  const rows: Row[] = await ctx.ds.query(`${SELECT} WHERE i.organisation_id = ANY($1) ORDER BY i.created_at DESC, ti.code, m.key`, [labIds(user)]);
+export async function listMyInvestigations(
+  ctx: AppContext,
+  user: SessionUser,
+): Promise<InvestigationDto[]> {
+  const rows: Row[] = await ctx.ds.query(
+    `${SELECT} WHERE i.organisation_id = ANY($1) ORDER BY i.created_at DESC, ti.code, m.key`,
+    [labIds(user)],
+  );
   return rows.map((r) => dto(r, user));
 }
 
 /** GET /investigations: every investigation (coordinator) or those of granting labs (assessor). */
-export async function listInvestigations(ctx: AppContext, user: SessionUser, roundId?: string): Promise<InvestigationDto[]> {
+export async function listInvestigations(
+  ctx: AppContext,
+  user: SessionUser,
+  roundId?: string,
+): Promise<InvestigationDto[]> {
   const labs = await readableLabs(ctx.ds.manager, user);
   const where: string[] = [];
   const params: unknown[] = [];
@@ -163,16 +192,26 @@ async function loadVisible(em: EntityManager, user: SessionUser, id: string): Pr
   return row;
 }
 
-export async function getInvestigation(ctx: AppContext, user: SessionUser, id: string): Promise<InvestigationDto> {
+export async function getInvestigation(
+  ctx: AppContext,
+  user: SessionUser,
+  id: string,
+): Promise<InvestigationDto> {
   return dto(await loadVisible(ctx.ds.manager, user, id), user);
 }
 
 /** PATCH /investigations/{id}: a member of the lab records its findings while open. */
-export async function updateInvestigation(ctx: AppContext, user: SessionUser, id: string, patch: InvestigationUpdate): Promise<InvestigationDto> {
+export async function updateInvestigation(
+  ctx: AppContext,
+  user: SessionUser,
+  id: string,
+  patch: InvestigationUpdate,
+): Promise<InvestigationDto> {
   return ctx.ds.transaction(async (em) => {
     const row = await loadVisible(em, user, id);
     if (!labIds(user).includes(row.organisation_id)) throw notFound('The investigation');
-    if (row.state !== 'open') throw conflict('investigation_closed', 'A closed investigation does not change.');
+    if (row.state !== 'open')
+      throw conflict('investigation_closed', 'A closed investigation does not change.');
     const set: Partial<Investigation> = {};
     if (patch.causeCategory !== undefined) set.causeCategory = patch.causeCategory;
     if (patch.rootCause !== undefined) set.rootCause = patch.rootCause;
@@ -180,21 +219,28 @@ export async function updateInvestigation(ctx: AppContext, user: SessionUser, id
     if (patch.effectivenessCheck !== undefined) set.effectivenessCheck = patch.effectivenessCheck;
     if (Object.keys(set).length > 0) {
       await em.update(Investigation, { id }, set);
-      await audit(em, user.id, 'investigation.updated', 'investigation', id, { fields: Object.keys(set) });
+      await audit(em, user.id, 'investigation.updated', 'investigation', id, {
+        fields: Object.keys(set),
+      });
     }
     return dto(await loadVisible(em, user, id), user);
   });
 }
 
 /** POST /investigations/{id}/close: the lab manager closes it once every finding is recorded. */
-export async function closeInvestigation(ctx: AppContext, user: SessionUser, id: string): Promise<InvestigationDto> {
+export async function closeInvestigation(
+  ctx: AppContext,
+  user: SessionUser,
+  id: string,
+): Promise<InvestigationDto> {
   return ctx.ds.transaction(async (em) => {
     const row = await loadVisible(em, user, id);
     if (!labIds(user).includes(row.organisation_id)) throw notFound('The investigation');
     if (!managesLab(user, row.organisation_id)) {
       throw ruleBroken('manager_required', 'Only the lab manager closes an investigation.');
     }
-    if (row.state !== 'open') throw conflict('investigation_closed', 'The investigation is already closed.');
+    if (row.state !== 'open')
+      throw conflict('investigation_closed', 'The investigation is already closed.');
     const missing: [keyof Row, string][] = [
       ['cause_category', 'causeCategory'],
       ['root_cause', 'rootCause'],
@@ -203,10 +249,18 @@ export async function closeInvestigation(ctx: AppContext, user: SessionUser, id:
     ];
     for (const [col, field] of missing) {
       if (!row[col] || String(row[col]).trim() === '') {
-        throw ruleBroken('investigation_incomplete', `${field}: record it before closing the investigation.`, { field });
+        throw ruleBroken(
+          'investigation_incomplete',
+          `${field}: record it before closing the investigation.`,
+          { field },
+        );
       }
     }
-    await em.update(Investigation, { id }, { state: 'closed', closedBy: user.id, closedAt: new Date() });
+    await em.update(
+      Investigation,
+      { id },
+      { state: 'closed', closedBy: user.id, closedAt: new Date() },
+    );
     await audit(em, user.id, 'investigation.closed', 'investigation', id, {});
     return dto(await loadVisible(em, user, id), user);
   });

@@ -25,7 +25,11 @@ export function hashPassword(password: string): Promise<string> {
 const DUMMY_HASH = bcrypt.hashSync('not-a-password-anyone-uses', BCRYPT_COST);
 
 /** The user when the e-mail and password match an active account with a password; otherwise null. */
-export async function verifyPassword(em: EntityManager, email: string, password: string): Promise<User | null> {
+export async function verifyPassword(
+  em: EntityManager,
+  email: string,
+  password: string,
+): Promise<User | null> {
   const user = await em.findOne(User, { where: { email: email.toLowerCase() } });
   const ok = await bcrypt.compare(password, user?.passwordHash ?? DUMMY_HASH);
   if (!user || !user.passwordHash || !user.isActive || !ok) return null;
@@ -57,10 +61,19 @@ export async function issuePasswordToken(
 }
 
 const invalidLink = () =>
-  new HttpError(404, 'link_invalid', 'This link has expired or was already used. Ask for a new one.');
+  new HttpError(
+    404,
+    'link_invalid',
+    'This link has expired or was already used. Ask for a new one.',
+  );
 
-export async function passwordTokenInfo(ctx: AppContext, token: string): Promise<PasswordTokenInfo> {
-  const row = await ctx.ds.getRepository(PasswordToken).findOne({ where: { tokenHash: sha256(token) } });
+export async function passwordTokenInfo(
+  ctx: AppContext,
+  token: string,
+): Promise<PasswordTokenInfo> {
+  const row = await ctx.ds
+    .getRepository(PasswordToken)
+    .findOne({ where: { tokenHash: sha256(token) } });
   if (!row || row.usedAt || row.expiresAt.getTime() <= Date.now()) throw invalidLink();
   const user = await ctx.ds.getRepository(User).findOneOrFail({ where: { id: row.userId } });
   return { email: user.email, purpose: row.purpose, expiresAt: row.expiresAt.toISOString() };
@@ -71,7 +84,11 @@ export async function passwordTokenInfo(ctx: AppContext, token: string): Promise
  * forgets the cached user. Other instances need no message: a request whose session row is gone
  * is signed out before any cached user is read.
  */
-export async function endOtherSessions(em: EntityManager, userId: string, keepSid: string | undefined): Promise<number> {
+export async function endOtherSessions(
+  em: EntityManager,
+  userId: string,
+  keepSid: string | undefined,
+): Promise<number> {
   const res: unknown = await em.query(
     `DELETE FROM session WHERE sess -> 'passport' ->> 'user' = $1 AND sid <> $2`,
     [userId, keepSid ?? ''],
@@ -95,9 +112,12 @@ export async function changePassword(
   const user = await ctx.ds.getRepository(User).findOneOrFail({ where: { id: userId } });
   const ok = await bcrypt.compare(currentPassword, user.passwordHash ?? DUMMY_HASH);
   if (!ok || !user.passwordHash) {
-    throw new HttpError(422, 'wrong_password', 'currentPassword: that is not your current password.', [
-      { path: 'currentPassword', message: 'That is not your current password.' },
-    ]);
+    throw new HttpError(
+      422,
+      'wrong_password',
+      'currentPassword: that is not your current password.',
+      [{ path: 'currentPassword', message: 'That is not your current password.' }],
+    );
   }
   const hash = await hashPassword(password);
   await ctx.ds.transaction(async (em) => {
@@ -112,7 +132,12 @@ export async function changePassword(
  * Sets the password with a link token: atomically marks the token used, so it works once. Every
  * session of the user ends, except the request's own (`keepSid`).
  */
-export async function setPasswordWithToken(ctx: AppContext, token: string, password: string, keepSid?: string): Promise<void> {
+export async function setPasswordWithToken(
+  ctx: AppContext,
+  token: string,
+  password: string,
+  keepSid?: string,
+): Promise<void> {
   const hash = await hashPassword(password);
   let userId: string | null = null;
   await ctx.ds.transaction(async (em) => {
@@ -128,7 +153,10 @@ export async function setPasswordWithToken(ctx: AppContext, token: string, passw
     if (!hit) throw invalidLink();
     await em.update(User, { id: hit.user_id }, { passwordHash: hash });
     const ended = await endOtherSessions(em, hit.user_id, keepSid);
-    await audit(em, hit.user_id, 'password.set', 'user', hit.user_id, { purpose: hit.purpose, otherSessionsEnded: ended });
+    await audit(em, hit.user_id, 'password.set', 'user', hit.user_id, {
+      purpose: hit.purpose,
+      otherSessionsEnded: ended,
+    });
     userId = hit.user_id;
   });
   if (userId) forgetSessionUser(userId);
@@ -156,8 +184,16 @@ export async function sendLinkMail(
   const link = `${ctx.config.publicUrl}/set-password/${token}`;
   const [subject, intro, lifetime] =
     purpose === 'reset'
-      ? ['Reset your Ringlet password', 'Someone (we hope you) asked to reset your Ringlet password.', '1 hour']
-      : ['Your Ringlet account', 'An account on Ringlet, the proficiency-testing service, was opened for you.', '7 days'];
+      ? [
+          'Reset your Ringlet password',
+          'Someone (we hope you) asked to reset your Ringlet password.',
+          '1 hour',
+        ]
+      : [
+          'Your Ringlet account',
+          'An account on Ringlet, the proficiency-testing service, was opened for you.',
+          '7 days',
+        ];
   const text = `Hello ${name},\n\n${intro}\nChoose your password here (the link works once and for ${lifetime}):\n\n${link}\n\nIf you did not expect this e-mail, ignore it.\n\nRinglet`;
   try {
     await ctx.mailer.send({ to: email, subject, text });

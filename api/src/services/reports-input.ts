@@ -25,7 +25,11 @@ export interface EvaluationHead {
 }
 
 /** The newest evaluation of a round (published only, or any state), or null. */
-export async function evaluationHead(em: EntityManager, roundId: string, publishedOnly: boolean): Promise<EvaluationHead | null> {
+export async function evaluationHead(
+  em: EntityManager,
+  roundId: string,
+  publishedOnly: boolean,
+): Promise<EvaluationHead | null> {
   const rows: EvaluationHead[] = await em.query(
     `SELECT id, round_id, version, state, published_at, computed_at, reissue_reason, software_version, coordinator_comments FROM evaluation
       WHERE round_id = $1 ${publishedOnly ? `AND state = 'published'` : ''} ORDER BY version DESC LIMIT 1`,
@@ -34,10 +38,24 @@ export async function evaluationHead(em: EntityManager, roundId: string, publish
   return rows[0] ?? null;
 }
 
-export async function roundReportInput(em: EntityManager, head: EvaluationHead): Promise<RoundReportInput> {
+export async function roundReportInput(
+  em: EntityManager,
+  head: EvaluationHead,
+): Promise<RoundReportInput> {
   const rounds: {
-    id: string; code: string; title: string; kind: 'pt' | 'precision'; state: string; instructions: string; protocol_temperature_c: number;
-    results_due_at: Date | null; scheme_code: string; scheme_name: string; scheme_description: string; dispatch_on: string | null; dispatched_at: Date | null;
+    id: string;
+    code: string;
+    title: string;
+    kind: 'pt' | 'precision';
+    state: string;
+    instructions: string;
+    protocol_temperature_c: number;
+    results_due_at: Date | null;
+    scheme_code: string;
+    scheme_name: string;
+    scheme_description: string;
+    dispatch_on: string | null;
+    dispatched_at: Date | null;
   }[] = await em.query(
     `SELECT r.id, r.code, r.title, r.kind, r.state, r.instructions, r.protocol_temperature_c, r.results_due_at, r.dispatch_on::text AS dispatch_on,
             (SELECT min(t.at) FROM round_transition t WHERE t.round_id = r.id AND t.to_state = 'in-transit') AS dispatched_at,
@@ -47,25 +65,49 @@ export async function roundReportInput(em: EntityManager, head: EvaluationHead):
   );
   const r = rounds[0];
   if (!r) throw notFound('The round');
-  const items: { id: string; code: string; material: string; nominal_size_nm: number | null; storage_notes: string; handling_notes: string }[] = await em.query(
+  const items: {
+    id: string;
+    code: string;
+    material: string;
+    nominal_size_nm: number | null;
+    storage_notes: string;
+    handling_notes: string;
+  }[] = await em.query(
     'SELECT id, code, material, nominal_size_nm, storage_notes, handling_notes FROM test_item WHERE round_id = $1 ORDER BY position, code',
     [r.id],
   );
-  const measurands: { id: string; key: string; name: string; unit: string; decimals: number; replicates_required: number }[] = await em.query(
+  const measurands: {
+    id: string;
+    key: string;
+    name: string;
+    unit: string;
+    decimals: number;
+    replicates_required: number;
+  }[] = await em.query(
     'SELECT id, key, name, unit, decimals, replicates_required FROM measurand WHERE round_id = $1 ORDER BY position, key',
     [r.id],
   );
   // Read straight from the Round desk's table (its service has no plain reader for reports).
-  const studies: { item_code: string; measurand_key: string; kind: 'homogeneity' | 'stability'; sigma_pt: number; passes: boolean; decision: string | null; decision_reason: string | null; result: Record<string, unknown> }[] =
-    await em.query(
-      `SELECT ti.code AS item_code, m.key AS measurand_key, h.kind, h.sigma_pt, h.passes, h.decision, h.decision_reason, h.result
+  const studies: {
+    item_code: string;
+    measurand_key: string;
+    kind: 'homogeneity' | 'stability';
+    sigma_pt: number;
+    passes: boolean;
+    decision: string | null;
+    decision_reason: string | null;
+    result: Record<string, unknown>;
+  }[] = await em.query(
+    `SELECT ti.code AS item_code, m.key AS measurand_key, h.kind, h.sigma_pt, h.passes, h.decision, h.decision_reason, h.result
          FROM homogeneity_study h JOIN test_item ti ON ti.id = h.test_item_id JOIN measurand m ON m.id = h.measurand_id
         WHERE h.round_id = $1 ORDER BY ti.position, ti.code, m.position, h.kind`,
-      [r.id],
-    );
+    [r.id],
+  );
   const { results, inputs } = await loadResults(em, head.id);
   const groups = results.map((g) => {
-    const rows = inputs.find((i) => i.testItemId === g.testItemId && i.measurandId === g.measurandId)?.rows ?? [];
+    const rows =
+      inputs.find((i) => i.testItemId === g.testItemId && i.measurandId === g.measurandId)?.rows ??
+      [];
     const replicates: Record<string, number[]> = {};
     for (const row of rows) replicates[row.code] = row.values;
     return { ...g, replicates };
@@ -91,8 +133,22 @@ export async function roundReportInput(em: EntityManager, head: EvaluationHead):
       dispatchedAt: r.dispatched_at?.toISOString() ?? r.dispatch_on ?? null,
       dispatchPlanned: !r.dispatched_at && !!r.dispatch_on,
     },
-    items: items.map((i) => ({ id: i.id, code: i.code, material: i.material, nominalSizeNm: i.nominal_size_nm, storageNotes: i.storage_notes, handlingNotes: i.handling_notes })),
-    measurands: measurands.map((m) => ({ id: m.id, key: m.key, name: m.name, unit: m.unit, decimals: m.decimals, replicatesRequired: m.replicates_required })),
+    items: items.map((i) => ({
+      id: i.id,
+      code: i.code,
+      material: i.material,
+      nominalSizeNm: i.nominal_size_nm,
+      storageNotes: i.storage_notes,
+      handlingNotes: i.handling_notes,
+    })),
+    measurands: measurands.map((m) => ({
+      id: m.id,
+      key: m.key,
+      name: m.name,
+      unit: m.unit,
+      decimals: m.decimals,
+      replicatesRequired: m.replicates_required,
+    })),
     studies: studies.map((s): ReportStudy => ({
       itemCode: s.item_code,
       measurandKey: s.measurand_key,
@@ -115,11 +171,12 @@ export async function roundReportInput(em: EntityManager, head: EvaluationHead):
     },
     groups,
     provider: await reportProvider(em),
-    nonReporters: enrolled.filter((e) => !reported.has(e.participant_code)).map((e) => ({ code: e.participant_code, withdrawn: e.state === 'withdrawn' })),
+    nonReporters: enrolled
+      .filter((e) => !reported.has(e.participant_code))
+      .map((e) => ({ code: e.participant_code, withdrawn: e.state === 'withdrawn' })),
     generatedAt: new Date().toISOString(),
   };
 }
-
 
 export async function participantReportInput(
   em: EntityManager,
@@ -141,7 +198,9 @@ export function trackUntil(series: TrackSeries[], issuedAt: Date | null): TrackS
   const limit = issuedAt.getTime();
   return series
     .map((s) => {
-      const points = s.points.filter((p) => p.publishedAt !== null && new Date(p.publishedAt).getTime() <= limit);
+      const points = s.points.filter(
+        (p) => p.publishedAt !== null && new Date(p.publishedAt).getTime() <= limit,
+      );
       return {
         ...s,
         points,

@@ -19,10 +19,16 @@ import { notFound } from '../http/errors';
 import { hasAnyRole } from '../http/route';
 import type { AppContext } from './context';
 import { grantedLabIds } from './grants';
-import { evaluationHead, participantReportInput, roundReportInput, type EvaluationHead } from './reports-input';
+import {
+  evaluationHead,
+  participantReportInput,
+  roundReportInput,
+  type EvaluationHead,
+} from './reports-input';
 
 /** Above this many participants a file is built in the background (RINGLET_REPORT_BACKGROUND_MIN, read at each request). */
-export const backgroundMinParticipants = (): number => Number(process.env['RINGLET_REPORT_BACKGROUND_MIN'] ?? 300);
+export const backgroundMinParticipants = (): number =>
+  Number(process.env['RINGLET_REPORT_BACKGROUND_MIN'] ?? 300);
 const STALE_MINUTES = 10;
 
 export const CONTENT_TYPES: Record<ReportKind, string> = {
@@ -42,7 +48,8 @@ export interface LabInRound {
 /** Labs whose files the user may read: own labs, plus labs with an active grant for assessors. */
 export async function readableLabIds(em: EntityManager, user: SessionUser): Promise<string[]> {
   const ids = new Set(labIds(user));
-  if (user.roles.includes('assessor')) for (const id of await grantedLabIds(em, user.id)) ids.add(id);
+  if (user.roles.includes('assessor'))
+    for (const id of await grantedLabIds(em, user.id)) ids.add(id);
   return [...ids];
 }
 
@@ -51,7 +58,11 @@ export async function readableLabIds(em: EntityManager, user: SessionUser): Prom
  * committed one gives a preview marked with its state). Labs and assessors: the newest
  * published one, and only for a round a readable lab took part in; anything else is 404.
  */
-export async function roundFileHead(ctx: AppContext, user: SessionUser, roundId: string): Promise<EvaluationHead> {
+export async function roundFileHead(
+  ctx: AppContext,
+  user: SessionUser,
+  roundId: string,
+): Promise<EvaluationHead> {
   const em = ctx.ds.manager;
   if (hasAnyRole(user, ['coordinator', 'admin'])) {
     const head = await evaluationHead(em, roundId, false);
@@ -60,7 +71,10 @@ export async function roundFileHead(ctx: AppContext, user: SessionUser, roundId:
   }
   const labs = await readableLabIds(em, user);
   const rows: unknown[] = labs.length
-    ? await em.query(`SELECT 1 FROM enrolment WHERE round_id = $1 AND organisation_id = ANY($2) LIMIT 1`, [roundId, labs])
+    ? await em.query(
+        `SELECT 1 FROM enrolment WHERE round_id = $1 AND organisation_id = ANY($2) LIMIT 1`,
+        [roundId, labs],
+      )
     : [];
   if (rows.length === 0) throw notFound('The round');
   const head = await evaluationHead(em, roundId, true);
@@ -69,22 +83,39 @@ export async function roundFileHead(ctx: AppContext, user: SessionUser, roundId:
 }
 
 /** The lab a lab-specific file is for: the caller's own (or the asked-for readable) lab enrolled in the round. */
-export async function labFileTarget(ctx: AppContext, user: SessionUser, roundId: string, labId?: string): Promise<{ head: EvaluationHead; lab: LabInRound }> {
+export async function labFileTarget(
+  ctx: AppContext,
+  user: SessionUser,
+  roundId: string,
+  labId?: string,
+): Promise<{ head: EvaluationHead; lab: LabInRound }> {
   const em = ctx.ds.manager;
   const readable = await readableLabIds(em, user);
-  const candidates = labId ? readable.filter((id) => id === labId) : labIds(user).length ? labIds(user) : readable;
-  const rows: { organisation_id: string; participant_code: string; name: string }[] = candidates.length
-    ? await em.query(
-        `SELECT e.organisation_id, e.participant_code, o.name FROM enrolment e JOIN organisation o ON o.id = e.organisation_id
+  const candidates = labId
+    ? readable.filter((id) => id === labId)
+    : labIds(user).length
+      ? labIds(user)
+      : readable;
+  const rows: { organisation_id: string; participant_code: string; name: string }[] =
+    candidates.length
+      ? await em.query(
+          `SELECT e.organisation_id, e.participant_code, o.name FROM enrolment e JOIN organisation o ON o.id = e.organisation_id
           WHERE e.round_id = $1 AND e.organisation_id = ANY($2) ORDER BY o.name LIMIT 1`,
-        [roundId, candidates],
-      )
-    : [];
+          [roundId, candidates],
+        )
+      : [];
   const row = rows[0];
   if (!row) throw notFound('The round');
   const head = await evaluationHead(em, roundId, true);
   if (!head) throw notFound('Published reports of this round');
-  return { head, lab: { organisationId: row.organisation_id, participantCode: row.participant_code, labName: row.name } };
+  return {
+    head,
+    lab: {
+      organisationId: row.organisation_id,
+      participantCode: row.participant_code,
+      labName: row.name,
+    },
+  };
 }
 
 export interface BuiltFile {
@@ -119,7 +150,11 @@ interface CacheKey {
 async function findRow(em: EntityManager, k: CacheKey): Promise<Report | null> {
   const qb = em
     .createQueryBuilder(Report, 'r')
-    .where('r.round_id = :roundId AND r.kind = :kind AND r.evaluation_version = :v', { roundId: k.roundId, kind: k.kind, v: k.head.version });
+    .where('r.round_id = :roundId AND r.kind = :kind AND r.evaluation_version = :v', {
+      roundId: k.roundId,
+      kind: k.kind,
+      v: k.head.version,
+    });
   if (k.organisationId) qb.andWhere('r.organisation_id = :o', { o: k.organisationId });
   else qb.andWhere('r.organisation_id IS NULL');
   return qb.getOne();
@@ -131,7 +166,12 @@ async function readFile(em: EntityManager, id: string): Promise<Buffer> {
 }
 
 /** Builds one file from the stored evaluation (the work of a background job too). */
-async function buildFile(ctx: AppContext, k: CacheKey, lab: LabInRound | null, progress: (p: number) => Promise<void>): Promise<Buffer> {
+async function buildFile(
+  ctx: AppContext,
+  k: CacheKey,
+  lab: LabInRound | null,
+  progress: (p: number) => Promise<void>,
+): Promise<Buffer> {
   const em = ctx.ds.manager;
   if (k.kind === 'round.xlsx' || k.kind === 'round.pdf') {
     const input = await roundReportInput(em, k.head);
@@ -164,20 +204,52 @@ async function participantCount(em: EntityManager, evaluationId: string): Promis
   return rows[0]?.n ?? 0;
 }
 
-async function runBuild(ctx: AppContext, row: Report, k: CacheKey, lab: LabInRound | null, lastAttempt = true): Promise<Buffer> {
+async function runBuild(
+  ctx: AppContext,
+  row: Report,
+  k: CacheKey,
+  lab: LabInRound | null,
+  lastAttempt = true,
+): Promise<Buffer> {
   const repo = ctx.ds.getRepository(Report);
   try {
-    const file = await buildFile(ctx, k, lab, async (p) => void (await repo.update({ id: row.id }, { progress: p })));
+    const file = await buildFile(
+      ctx,
+      k,
+      lab,
+      async (p) => void (await repo.update({ id: row.id }, { progress: p })),
+    );
     const sum = sha256(file);
-    await repo.update({ id: row.id }, { file, sha256: sum, sizeBytes: file.length, status: 'done', progress: 100, finishedAt: new Date(), error: null });
+    await repo.update(
+      { id: row.id },
+      {
+        file,
+        sha256: sum,
+        sizeBytes: file.length,
+        status: 'done',
+        progress: 100,
+        finishedAt: new Date(),
+        error: null,
+      },
+    );
     return file;
   } catch (err) {
-    ctx.log(`report build ${k.kind} for round ${k.roundId} failed${lastAttempt ? '' : '; retried later'}`, err);
+    ctx.log(
+      `report build ${k.kind} for round ${k.roundId} failed${lastAttempt ? '' : '; retried later'}`,
+      err,
+    );
     if (!lastAttempt) {
       await repo.update({ id: row.id }, { status: 'queued', progress: 0 });
       throw err;
     }
-    await repo.update({ id: row.id }, { status: 'failed', error: 'The file could not be built. Try again; if it fails again, tell the coordinator.', finishedAt: new Date() });
+    await repo.update(
+      { id: row.id },
+      {
+        status: 'failed',
+        error: 'The file could not be built. Try again; if it fails again, tell the coordinator.',
+        finishedAt: new Date(),
+      },
+    );
     throw err;
   }
 }
@@ -195,32 +267,42 @@ export async function reportFile(
   wait = false,
 ): Promise<BuiltFile | { pending: ReportStatus }> {
   const em = ctx.ds.manager;
-  const codes: { code: string }[] = await em.query('SELECT code FROM round WHERE id = $1', [k.roundId]);
-  const meta = { fileName: fileName(k, codes[0]?.code ?? 'round', lab), contentType: CONTENT_TYPES[k.kind] };
+  const codes: { code: string }[] = await em.query('SELECT code FROM round WHERE id = $1', [
+    k.roundId,
+  ]);
+  const meta = {
+    fileName: fileName(k, codes[0]?.code ?? 'round', lab),
+    contentType: CONTENT_TYPES[k.kind],
+  };
   for (let attempt = 0; attempt < 600; attempt++) {
     let row = await findRow(em, k);
-    const stale = row && row.status === 'running' && Date.now() - row.createdAt.getTime() > STALE_MINUTES * 60_000;
+    const stale =
+      row &&
+      row.status === 'running' &&
+      Date.now() - row.createdAt.getTime() > STALE_MINUTES * 60_000;
     if (row && (row.status === 'failed' || stale)) {
       await em.delete(Report, { id: row.id });
       row = null;
     }
-    if (row?.status === 'done') return { file: await readFile(em, row.id), sha256: row.sha256!, ...meta };
+    if (row?.status === 'done')
+      return { file: await readFile(em, row.id), sha256: row.sha256!, ...meta };
     if (!row) {
-      const background = !wait && (await participantCount(em, k.head.id)) > backgroundMinParticipants();
+      const background =
+        !wait && (await participantCount(em, k.head.id)) > backgroundMinParticipants();
       try {
         row = await saveAndEnqueue(ctx, background, (tx) =>
           tx.save(
-          Report,
-          em.create(Report, {
-            roundId: k.roundId,
-            kind: k.kind,
-            organisationId: k.organisationId,
-            evaluationId: k.head.id,
-            evaluationVersion: k.head.version,
-            status: background ? 'queued' : 'running',
-            progress: background ? 0 : 5,
-            requestedBy: user.id,
-          }),
+            Report,
+            em.create(Report, {
+              roundId: k.roundId,
+              kind: k.kind,
+              organisationId: k.organisationId,
+              evaluationId: k.head.id,
+              evaluationVersion: k.head.version,
+              status: background ? 'queued' : 'running',
+              progress: background ? 0 : 5,
+              requestedBy: user.id,
+            }),
           ),
         );
       } catch (err) {
@@ -243,7 +325,11 @@ export async function reportFile(
 }
 
 /** Saves a new report row; for a background build with a queue, together with its job in one transaction. */
-async function saveAndEnqueue(ctx: AppContext, background: boolean, save: (em: EntityManager) => Promise<Report>): Promise<Report> {
+async function saveAndEnqueue(
+  ctx: AppContext,
+  background: boolean,
+  save: (em: EntityManager) => Promise<Report>,
+): Promise<Report> {
   const queue = ctx.queue;
   if (!background || !queue) return save(ctx.ds.manager);
   return ctx.ds.transaction(async (tx) => {
@@ -258,10 +344,15 @@ async function saveAndEnqueue(ctx: AppContext, background: boolean, save: (em: E
  * puts the row back to 'queued' and throws, so the queue retries it; the last one leaves it
  * 'failed' with a message for the reader. A row that is done or gone (rebuilt meanwhile) is left alone.
  */
-export async function runQueuedBuild(ctx: AppContext, reportId: string, lastAttempt: boolean): Promise<void> {
+export async function runQueuedBuild(
+  ctx: AppContext,
+  reportId: string,
+  lastAttempt: boolean,
+): Promise<void> {
   const repo = ctx.ds.getRepository(Report);
   const row = await repo.findOne({ where: { id: reportId } });
-  if (!row || row.status === 'done' || row.status === 'failed' || !row.roundId || !row.evaluationId) return;
+  if (!row || row.status === 'done' || row.status === 'failed' || !row.roundId || !row.evaluationId)
+    return;
   const heads: EvaluationHead[] = await ctx.ds.query(
     `SELECT id, round_id, version, state, published_at, computed_at, reissue_reason, software_version FROM evaluation WHERE id = $1`,
     [row.evaluationId],
@@ -273,21 +364,36 @@ export async function runQueuedBuild(ctx: AppContext, reportId: string, lastAtte
         WHERE e.round_id = $1 AND e.organisation_id = $2`,
       [row.roundId, row.organisationId],
     );
-    if (labs[0]) lab = { organisationId: row.organisationId, participantCode: labs[0].participant_code, labName: labs[0].name };
+    if (labs[0])
+      lab = {
+        organisationId: row.organisationId,
+        participantCode: labs[0].participant_code,
+        labName: labs[0].name,
+      };
   }
   await repo.update({ id: row.id }, { status: 'running', progress: 5 });
   const head = heads[0];
-  const k: CacheKey = { roundId: row.roundId, kind: row.kind, organisationId: row.organisationId, head: head ?? ({ id: row.evaluationId } as EvaluationHead) };
+  const k: CacheKey = {
+    roundId: row.roundId,
+    kind: row.kind,
+    organisationId: row.organisationId,
+    head: head ?? ({ id: row.evaluationId } as EvaluationHead),
+  };
   await runBuild(ctx, row, k, lab, lastAttempt || !head);
 }
 
 /** GET /reports/{reportId}: a build's status, for its requester, coordinators, or readers of its lab and round. */
-export async function reportStatus(ctx: AppContext, user: SessionUser, reportId: string): Promise<ReportStatus> {
+export async function reportStatus(
+  ctx: AppContext,
+  user: SessionUser,
+  reportId: string,
+): Promise<ReportStatus> {
   const r = await ctx.ds.getRepository(Report).findOne({ where: { id: reportId } });
   if (!r || !r.roundId) throw notFound('The report');
   if (r.requestedBy !== user.id && !hasAnyRole(user, ['coordinator', 'admin'])) {
     if (r.organisationId) {
-      if (!(await readableLabIds(ctx.ds.manager, user)).includes(r.organisationId)) throw notFound('The report');
+      if (!(await readableLabIds(ctx.ds.manager, user)).includes(r.organisationId))
+        throw notFound('The report');
     } else {
       await roundFileHead(ctx, user, r.roundId);
     }

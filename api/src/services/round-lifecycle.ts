@@ -1,6 +1,18 @@
 import type { EntityManager } from 'typeorm';
-import { Enrolment, HomogeneityStudy, Measurand, Round, RoundTransition, TestItem } from '../../../db/entities';
-import { canMove, isDeskMove, ROUND_STATE_LABELS, type RoundState } from '../../../shared/contracts/round-states';
+import {
+  Enrolment,
+  HomogeneityStudy,
+  Measurand,
+  Round,
+  RoundTransition,
+  TestItem,
+} from '../../../db/entities';
+import {
+  canMove,
+  isDeskMove,
+  ROUND_STATE_LABELS,
+  type RoundState,
+} from '../../../shared/contracts/round-states';
 import { conflict, notFound, ruleBroken } from '../http/errors';
 import { audit } from './audit';
 
@@ -44,13 +56,19 @@ function needsReason(from: RoundState, to: RoundState): boolean {
 
 /** The round, locked for the rest of the transaction (concurrent transitions queue up). */
 export async function lockRound(em: EntityManager, roundId: string): Promise<Round> {
-  const round = await em.findOne(Round, { where: { id: roundId }, lock: { mode: 'pessimistic_write' } });
+  const round = await em.findOne(Round, {
+    where: { id: roundId },
+    lock: { mode: 'pessimistic_write' },
+  });
   if (!round) throw notFound('The round');
   return round;
 }
 
 /** True while a failing homogeneity or stability check of the round has no recorded decision. */
-export async function hasOpenHomogeneityFailure(em: EntityManager, roundId: string): Promise<boolean> {
+export async function hasOpenHomogeneityFailure(
+  em: EntityManager,
+  roundId: string,
+): Promise<boolean> {
   const n = await em
     .createQueryBuilder(HomogeneityStudy, 'h')
     .where('h.round_id = :roundId AND h.passes = false AND h.decision IS NULL', { roundId })
@@ -99,7 +117,10 @@ export async function transitionRound(
   }
   if (force && !reason) throw ruleBroken('reason_required', 'Give a reason for closing early.');
   if (needsReason(from, to) && !reason) {
-    throw ruleBroken('reason_required', `Give a reason for moving from ${ROUND_STATE_LABELS[from]} back to ${ROUND_STATE_LABELS[to]}.`);
+    throw ruleBroken(
+      'reason_required',
+      `Give a reason for moving from ${ROUND_STATE_LABELS[from]} back to ${ROUND_STATE_LABELS[to]}.`,
+    );
   }
 
   if (from === 'draft' && to === 'enrolling') {
@@ -115,11 +136,16 @@ export async function transitionRound(
   }
   if (from === 'enrolling' && to === 'draft') {
     const n = await em.count(Enrolment, { where: { roundId } });
-    if (n > 0) throw conflict('round_has_enrolments', 'Labs have enrolled; the round cannot go back to draft.');
+    if (n > 0)
+      throw conflict(
+        'round_has_enrolments',
+        'Labs have enrolled; the round cannot go back to draft.',
+      );
   }
   if (from === 'enrolling' && to === 'in-transit') {
     const n = await em.count(Enrolment, { where: { roundId, state: 'enrolled' } });
-    if (n === 0) throw ruleBroken('no_participants', 'No lab is enrolled; there is nothing to ship.');
+    if (n === 0)
+      throw ruleBroken('no_participants', 'No lab is enrolled; there is nothing to ship.');
   }
   if (from === 'collecting' && to === 'closed') {
     const due = round.resultsDueAt;
@@ -136,7 +162,19 @@ export async function transitionRound(
   if (to === 'published') await assertPublishable(em, roundId);
 
   await em.update(Round, { id: roundId }, { state: to });
-  await em.insert(RoundTransition, { roundId, fromState: from, toState: to, actorId: actor.id, reason, forced: force });
-  await audit(em, actor.id, 'round.transition', 'round', roundId, { from, to, reason, forced: force });
+  await em.insert(RoundTransition, {
+    roundId,
+    fromState: from,
+    toState: to,
+    actorId: actor.id,
+    reason,
+    forced: force,
+  });
+  await audit(em, actor.id, 'round.transition', 'round', roundId, {
+    from,
+    to,
+    reason,
+    forced: force,
+  });
   return { ...round, state: to };
 }

@@ -1,5 +1,13 @@
 import type { EntityManager } from 'typeorm';
-import { HomogeneityStudy, Measurand, Round, RoundTransition, Scheme, TestItem, User } from '../../../db/entities';
+import {
+  HomogeneityStudy,
+  Measurand,
+  Round,
+  RoundTransition,
+  Scheme,
+  TestItem,
+  User,
+} from '../../../db/entities';
 import {
   isDescriptionOpen,
   isDesignOpen,
@@ -28,7 +36,6 @@ import { hasOpenHomogeneityFailure, lockRound } from './round-lifecycle';
 
 type Out<T extends z.ZodType> = z.output<T>;
 
-
 function schemeDto(s: Scheme): SchemeDto {
   return {
     id: s.id,
@@ -46,12 +53,19 @@ export async function listSchemes(ctx: AppContext): Promise<SchemeDto[]> {
   return rows.map(schemeDto);
 }
 
-export async function createScheme(ctx: AppContext, actor: SessionUser, input: Out<typeof SchemeCreate>): Promise<SchemeDto> {
+export async function createScheme(
+  ctx: AppContext,
+  actor: SessionUser,
+  input: Out<typeof SchemeCreate>,
+): Promise<SchemeDto> {
   return ctx.ds.transaction(async (em) => {
     if (await em.findOne(Scheme, { where: { code: input.code } })) {
       throw conflict('code_taken', `code: a scheme with the code ${input.code} already exists.`);
     }
-    const s = await em.save(Scheme, em.create(Scheme, { ...input, defaultMeasurands: input.defaultMeasurands as unknown[] }));
+    const s = await em.save(
+      Scheme,
+      em.create(Scheme, { ...input, defaultMeasurands: input.defaultMeasurands as unknown[] }),
+    );
     await audit(em, actor.id, 'scheme.created', 'scheme', s.id, { code: s.code });
     return schemeDto(s);
   });
@@ -143,11 +157,26 @@ export async function getRoundDetail(em: EntityManager, id: string): Promise<Rou
   const row = rows[0];
   if (!row) throw notFound('The round');
   const round = await em.findOneOrFail(Round, { where: { id } });
-  const items = await em.find(TestItem, { where: { roundId: id }, order: { position: 'ASC', code: 'ASC' } });
-  const measurands = await em.find(Measurand, { where: { roundId: id }, order: { position: 'ASC', key: 'ASC' } });
-  const transitions = await em.find(RoundTransition, { where: { roundId: id }, order: { at: 'ASC' } });
+  const items = await em.find(TestItem, {
+    where: { roundId: id },
+    order: { position: 'ASC', code: 'ASC' },
+  });
+  const measurands = await em.find(Measurand, {
+    where: { roundId: id },
+    order: { position: 'ASC', key: 'ASC' },
+  });
+  const transitions = await em.find(RoundTransition, {
+    where: { roundId: id },
+    order: { at: 'ASC' },
+  });
   const actorIds = [...new Set(transitions.map((t) => t.actorId).filter((x): x is string => !!x))];
-  const actors = actorIds.length ? await em.getRepository(User).createQueryBuilder('u').where('u.id IN (:...ids)', { ids: actorIds }).getMany() : [];
+  const actors = actorIds.length
+    ? await em
+        .getRepository(User)
+        .createQueryBuilder('u')
+        .where('u.id IN (:...ids)', { ids: actorIds })
+        .getMany()
+    : [];
   const names = new Map(actors.map((u) => [u.id, u.name]));
   return {
     ...summaryDto(row),
@@ -167,37 +196,59 @@ export async function getRoundDetail(em: EntityManager, id: string): Promise<Rou
   };
 }
 
-async function insertItems(em: EntityManager, roundId: string, items: Out<typeof TestItemInput>[]): Promise<void> {
+async function insertItems(
+  em: EntityManager,
+  roundId: string,
+  items: Out<typeof TestItemInput>[],
+): Promise<void> {
   const existing = await em.find(TestItem, { where: { roundId } });
   const codes = new Set(existing.map((i) => i.code.toLowerCase()));
   let position = existing.reduce((p, i) => Math.max(p, i.position + 1), 0);
   for (const [n, item] of items.entries()) {
     if (codes.has(item.code.toLowerCase())) {
-      throw conflict('item_code_taken', `items.${n}.code: the round already has a test item ${item.code}.`);
+      throw conflict(
+        'item_code_taken',
+        `items.${n}.code: the round already has a test item ${item.code}.`,
+      );
     }
     codes.add(item.code.toLowerCase());
     await em.insert(TestItem, { ...item, roundId, position: position++ });
   }
 }
 
-async function insertMeasurands(em: EntityManager, roundId: string, measurands: Out<typeof MeasurandInput>[]): Promise<void> {
+async function insertMeasurands(
+  em: EntityManager,
+  roundId: string,
+  measurands: Out<typeof MeasurandInput>[],
+): Promise<void> {
   const existing = await em.find(Measurand, { where: { roundId } });
   const keys = new Set(existing.map((m) => m.key));
   let position = existing.reduce((p, m) => Math.max(p, m.position + 1), 0);
   for (const [n, m] of measurands.entries()) {
-    if (keys.has(m.key)) throw conflict('measurand_key_taken', `measurands.${n}.key: the round already measures ${m.key}.`);
+    if (keys.has(m.key))
+      throw conflict(
+        'measurand_key_taken',
+        `measurands.${n}.key: the round already measures ${m.key}.`,
+      );
     keys.add(m.key);
-    await em.save(Measurand, em.create(Measurand, {
-      ...m,
-      sigmaPtRule: m.sigmaPtRule as Record<string, unknown>,
-      assignedValueRule: m.assignedValueRule as Record<string, unknown>,
-      roundId,
-      position: position++,
-    }));
+    await em.save(
+      Measurand,
+      em.create(Measurand, {
+        ...m,
+        sigmaPtRule: m.sigmaPtRule as Record<string, unknown>,
+        assignedValueRule: m.assignedValueRule as Record<string, unknown>,
+        roundId,
+        position: position++,
+      }),
+    );
   }
 }
 
-export async function createRound(ctx: AppContext, actor: SessionUser, input: Out<typeof RoundCreate>): Promise<RoundDetail> {
+export async function createRound(
+  ctx: AppContext,
+  actor: SessionUser,
+  input: Out<typeof RoundCreate>,
+): Promise<RoundDetail> {
   return ctx.ds.transaction(async (em) => {
     const scheme = await em.findOne(Scheme, { where: { id: input.schemeId } });
     if (!scheme) throw ruleBroken('scheme_unknown', 'schemeId: that scheme does not exist.');
@@ -220,38 +271,72 @@ export async function createRound(ctx: AppContext, actor: SessionUser, input: Ou
       const defaults = (scheme.defaultMeasurands ?? []).map((m) => MeasurandInput.parse(m));
       await insertMeasurands(em, round.id, defaults);
     }
-    await audit(em, actor.id, 'round.created', 'round', round.id, { code: round.code, schemeId: scheme.id, items: items.length });
+    await audit(em, actor.id, 'round.created', 'round', round.id, {
+      code: round.code,
+      schemeId: scheme.id,
+      items: items.length,
+    });
     return getRoundDetail(em, round.id);
   });
 }
 
-export async function updateRound(ctx: AppContext, actor: SessionUser, id: string, patch: Out<typeof RoundUpdate>): Promise<RoundDetail> {
+export async function updateRound(
+  ctx: AppContext,
+  actor: SessionUser,
+  id: string,
+  patch: Out<typeof RoundUpdate>,
+): Promise<RoundDetail> {
   return ctx.ds.transaction(async (em) => {
     const round = await lockRound(em, id);
     if (!isDescriptionOpen(round.state)) {
       throw conflict('round_locked', 'A published round does not change in place; reissue it.');
     }
-    if (patch.feeMinor !== undefined && patch.feeMinor !== round.feeMinor && !isFeeOpen(round.state)) {
-      throw conflict('fee_locked', 'feeMinor: the participation fee is fixed once enrolment has opened.');
+    if (
+      patch.feeMinor !== undefined &&
+      patch.feeMinor !== round.feeMinor &&
+      !isFeeOpen(round.state)
+    ) {
+      throw conflict(
+        'fee_locked',
+        'feeMinor: the participation fee is fixed once enrolment has opened.',
+      );
     }
     const next = {
-      enrolmentClosesOn: patch.enrolmentClosesOn !== undefined ? patch.enrolmentClosesOn : round.enrolmentClosesOn,
+      enrolmentClosesOn:
+        patch.enrolmentClosesOn !== undefined ? patch.enrolmentClosesOn : round.enrolmentClosesOn,
       dispatchOn: patch.dispatchOn !== undefined ? patch.dispatchOn : round.dispatchOn,
-      resultsDueAt: patch.resultsDueAt !== undefined ? patch.resultsDueAt : (round.resultsDueAt?.toISOString() ?? null),
+      resultsDueAt:
+        patch.resultsDueAt !== undefined
+          ? patch.resultsDueAt
+          : (round.resultsDueAt?.toISOString() ?? null),
     };
     if (next.enrolmentClosesOn && next.dispatchOn && next.dispatchOn < next.enrolmentClosesOn) {
-      throw ruleBroken('dates_out_of_order', 'dispatchOn: dispatch cannot come before enrolment closes.');
+      throw ruleBroken(
+        'dates_out_of_order',
+        'dispatchOn: dispatch cannot come before enrolment closes.',
+      );
     }
     if (next.dispatchOn && next.resultsDueAt && next.resultsDueAt.slice(0, 10) < next.dispatchOn) {
-      throw ruleBroken('dates_out_of_order', 'resultsDueAt: results cannot be due before dispatch.');
+      throw ruleBroken(
+        'dates_out_of_order',
+        'resultsDueAt: results cannot be due before dispatch.',
+      );
     }
     const { resultsDueAt, ...rest } = patch;
-    await em.update(Round, { id }, {
-      ...rest,
-      // the basic cautions cannot be removed: the coordinator's text follows them
-      ...(rest.instructions !== undefined ? { instructions: withSafetyBlock(rest.instructions) } : {}),
-      ...(resultsDueAt !== undefined ? { resultsDueAt: resultsDueAt ? new Date(resultsDueAt) : null } : {}),
-    });
+    await em.update(
+      Round,
+      { id },
+      {
+        ...rest,
+        // the basic cautions cannot be removed: the coordinator's text follows them
+        ...(rest.instructions !== undefined
+          ? { instructions: withSafetyBlock(rest.instructions) }
+          : {}),
+        ...(resultsDueAt !== undefined
+          ? { resultsDueAt: resultsDueAt ? new Date(resultsDueAt) : null }
+          : {}),
+      },
+    );
     await audit(em, actor.id, 'round.updated', 'round', id, { ...patch });
     return getRoundDetail(em, id);
   });
@@ -260,26 +345,47 @@ export async function updateRound(ctx: AppContext, actor: SessionUser, id: strin
 async function lockDesignable(em: EntityManager, id: string): Promise<Round> {
   const round = await lockRound(em, id);
   if (!isDesignOpen(round.state)) {
-    throw conflict('round_not_editable', 'Test items and measurands change only while the round is a draft or enrolling.');
+    throw conflict(
+      'round_not_editable',
+      'Test items and measurands change only while the round is a draft or enrolling.',
+    );
   }
   return round;
 }
 
-export async function addItems(ctx: AppContext, actor: SessionUser, roundId: string, items: Out<typeof TestItemInput>[]): Promise<TestItemDto[]> {
+export async function addItems(
+  ctx: AppContext,
+  actor: SessionUser,
+  roundId: string,
+  items: Out<typeof TestItemInput>[],
+): Promise<TestItemDto[]> {
   return ctx.ds.transaction(async (em) => {
     await lockDesignable(em, roundId);
     await insertItems(em, roundId, items);
-    await audit(em, actor.id, 'round.items-added', 'round', roundId, { codes: items.map((i) => i.code) });
-    return (await em.find(TestItem, { where: { roundId }, order: { position: 'ASC' } })).map(itemDto);
+    await audit(em, actor.id, 'round.items-added', 'round', roundId, {
+      codes: items.map((i) => i.code),
+    });
+    return (await em.find(TestItem, { where: { roundId }, order: { position: 'ASC' } })).map(
+      itemDto,
+    );
   });
 }
 
-export async function addMeasurands(ctx: AppContext, actor: SessionUser, roundId: string, measurands: Out<typeof MeasurandInput>[]): Promise<MeasurandDto[]> {
+export async function addMeasurands(
+  ctx: AppContext,
+  actor: SessionUser,
+  roundId: string,
+  measurands: Out<typeof MeasurandInput>[],
+): Promise<MeasurandDto[]> {
   return ctx.ds.transaction(async (em) => {
     await lockDesignable(em, roundId);
     await insertMeasurands(em, roundId, measurands);
-    await audit(em, actor.id, 'round.measurands-added', 'round', roundId, { keys: measurands.map((m) => m.key) });
-    return (await em.find(Measurand, { where: { roundId }, order: { position: 'ASC' } })).map(measurandDto);
+    await audit(em, actor.id, 'round.measurands-added', 'round', roundId, {
+      keys: measurands.map((m) => m.key),
+    });
+    return (await em.find(Measurand, { where: { roundId }, order: { position: 'ASC' } })).map(
+      measurandDto,
+    );
   });
 }
 
@@ -287,19 +393,31 @@ export async function addMeasurands(ctx: AppContext, actor: SessionUser, roundId
  * Changes one test item (draft or enrolling). The code stays unique within the round
  * (case-insensitive, as when adding).
  */
-export async function updateItem(ctx: AppContext, actor: SessionUser, roundId: string, itemId: string, patch: Out<typeof TestItemUpdate>): Promise<TestItemDto> {
+export async function updateItem(
+  ctx: AppContext,
+  actor: SessionUser,
+  roundId: string,
+  itemId: string,
+  patch: Out<typeof TestItemUpdate>,
+): Promise<TestItemDto> {
   return ctx.ds.transaction(async (em) => {
     await lockDesignable(em, roundId);
     const item = await em.findOne(TestItem, { where: { id: itemId, roundId } });
     if (!item) throw notFound('The test item');
     if (patch.code !== undefined && patch.code.toLowerCase() !== item.code.toLowerCase()) {
       const others = await em.find(TestItem, { where: { roundId } });
-      if (others.some((o) => o.id !== itemId && o.code.toLowerCase() === patch.code!.toLowerCase())) {
+      if (
+        others.some((o) => o.id !== itemId && o.code.toLowerCase() === patch.code!.toLowerCase())
+      ) {
         throw conflict('item_code_taken', `code: the round already has a test item ${patch.code}.`);
       }
     }
     await em.update(TestItem, { id: itemId }, patch);
-    await audit(em, actor.id, 'round.item-updated', 'round', roundId, { itemId, code: item.code, changes: { ...patch } });
+    await audit(em, actor.id, 'round.item-updated', 'round', roundId, {
+      itemId,
+      code: item.code,
+      changes: { ...patch },
+    });
     return itemDto(await em.findOneOrFail(TestItem, { where: { id: itemId } }));
   });
 }
@@ -309,13 +427,21 @@ export async function updateItem(ctx: AppContext, actor: SessionUser, roundId: s
  * recorded for it (they are evidence), and for the last item of an enrolling round (labs were
  * invited to measure something).
  */
-export async function deleteItem(ctx: AppContext, actor: SessionUser, roundId: string, itemId: string): Promise<void> {
+export async function deleteItem(
+  ctx: AppContext,
+  actor: SessionUser,
+  roundId: string,
+  itemId: string,
+): Promise<void> {
   await ctx.ds.transaction(async (em) => {
     const round = await lockDesignable(em, roundId);
     const item = await em.findOne(TestItem, { where: { id: itemId, roundId } });
     if (!item) throw notFound('The test item');
     if (await em.count(HomogeneityStudy, { where: { testItemId: itemId } })) {
-      throw conflict('item_has_checks', `Item ${item.code} has homogeneity or stability studies recorded; it cannot be removed.`);
+      throw conflict(
+        'item_has_checks',
+        `Item ${item.code} has homogeneity or stability studies recorded; it cannot be removed.`,
+      );
     }
     if (round.state === 'enrolling' && (await em.count(TestItem, { where: { roundId } })) === 1) {
       throw ruleBroken('round_incomplete', 'An enrolling round keeps at least one test item.');
@@ -326,12 +452,22 @@ export async function deleteItem(ctx: AppContext, actor: SessionUser, roundId: s
 }
 
 /** Changes one measurand (draft or enrolling); a σ_pt or assigned-value rule is replaced whole. */
-export async function updateMeasurand(ctx: AppContext, actor: SessionUser, roundId: string, measurandId: string, patch: Out<typeof MeasurandUpdate>): Promise<MeasurandDto> {
+export async function updateMeasurand(
+  ctx: AppContext,
+  actor: SessionUser,
+  roundId: string,
+  measurandId: string,
+  patch: Out<typeof MeasurandUpdate>,
+): Promise<MeasurandDto> {
   return ctx.ds.transaction(async (em) => {
     await lockDesignable(em, roundId);
     const m = await em.findOne(Measurand, { where: { id: measurandId, roundId } });
     if (!m) throw notFound('The measurand');
-    if (patch.key !== undefined && patch.key !== m.key && (await em.count(Measurand, { where: { roundId, key: patch.key } }))) {
+    if (
+      patch.key !== undefined &&
+      patch.key !== m.key &&
+      (await em.count(Measurand, { where: { roundId, key: patch.key } }))
+    ) {
       throw conflict('measurand_key_taken', `key: the round already measures ${patch.key}.`);
     }
     const { sigmaPtRule, assignedValueRule, ...rest } = patch;
@@ -340,24 +476,39 @@ export async function updateMeasurand(ctx: AppContext, actor: SessionUser, round
     if (sigmaPtRule) m.sigmaPtRule = sigmaPtRule as Record<string, unknown>;
     if (assignedValueRule) m.assignedValueRule = assignedValueRule as Record<string, unknown>;
     const saved = await em.save(Measurand, m);
-    await audit(em, actor.id, 'round.measurand-updated', 'round', roundId, { measurandId, key, changes: { ...patch } });
+    await audit(em, actor.id, 'round.measurand-updated', 'round', roundId, {
+      measurandId,
+      key,
+      changes: { ...patch },
+    });
     return measurandDto(saved);
   });
 }
 
 /** Removes one measurand (draft or enrolling), with the same guards as removing a test item. */
-export async function deleteMeasurand(ctx: AppContext, actor: SessionUser, roundId: string, measurandId: string): Promise<void> {
+export async function deleteMeasurand(
+  ctx: AppContext,
+  actor: SessionUser,
+  roundId: string,
+  measurandId: string,
+): Promise<void> {
   await ctx.ds.transaction(async (em) => {
     const round = await lockDesignable(em, roundId);
     const m = await em.findOne(Measurand, { where: { id: measurandId, roundId } });
     if (!m) throw notFound('The measurand');
     if (await em.count(HomogeneityStudy, { where: { measurandId } })) {
-      throw conflict('measurand_has_checks', `${m.name} has homogeneity or stability studies recorded; it cannot be removed.`);
+      throw conflict(
+        'measurand_has_checks',
+        `${m.name} has homogeneity or stability studies recorded; it cannot be removed.`,
+      );
     }
     if (round.state === 'enrolling' && (await em.count(Measurand, { where: { roundId } })) === 1) {
       throw ruleBroken('round_incomplete', 'An enrolling round keeps at least one measurand.');
     }
     await em.delete(Measurand, { id: measurandId });
-    await audit(em, actor.id, 'round.measurand-removed', 'round', roundId, { measurandId, key: m.key });
+    await audit(em, actor.id, 'round.measurand-removed', 'round', roundId, {
+      measurandId,
+      key: m.key,
+    });
   });
 }

@@ -1,6 +1,10 @@
 import { Round, Shipment } from '../../../db/entities';
 import type { DispatchInput, Enrolment as EnrolmentDto } from '../../../shared/contracts/rounds';
-import { cautionLines, DAMAGED_PARCEL_CAUTIONS, SAFETY_CAUTIONS } from '../../../shared/contracts/safety';
+import {
+  cautionLines,
+  DAMAGED_PARCEL_CAUTIONS,
+  SAFETY_CAUTIONS,
+} from '../../../shared/contracts/safety';
 import type { SessionUser } from '../auth/session-user';
 import { conflict } from '../http/errors';
 import { audit } from './audit';
@@ -26,19 +30,38 @@ export async function recordDispatch(
   const { dto, round, recipients } = await ctx.ds.transaction(async (em) => {
     const round: Round = await lockRound(em, roundId);
     if (!(DISPATCH_STATES as readonly string[]).includes(round.state)) {
-      throw conflict('round_not_shipping', 'Items are dispatched while the round is enrolling, in transit or collecting.');
+      throw conflict(
+        'round_not_shipping',
+        'Items are dispatched while the round is enrolling, in transit or collecting.',
+      );
     }
     const e = await lockEnrolment(em, roundId, enrolmentId);
-    if (e.state !== 'enrolled') throw conflict('enrolment_withdrawn', 'This enrolment is withdrawn; nothing is shipped to it.');
+    if (e.state !== 'enrolled')
+      throw conflict(
+        'enrolment_withdrawn',
+        'This enrolment is withdrawn; nothing is shipped to it.',
+      );
     const existing = await em.findOne(Shipment, { where: { enrolmentId } });
-    if (existing?.receivedOn) throw conflict('already_received', 'The lab has already confirmed receipt of this shipment.');
+    if (existing?.receivedOn)
+      throw conflict('already_received', 'The lab has already confirmed receipt of this shipment.');
     if (existing) {
       await em.update(Shipment, { id: existing.id }, { ...input });
     } else {
       await em.insert(Shipment, { enrolmentId, ...input });
     }
-    await audit(em, actor.id, existing ? 'shipment.dispatch-corrected' : 'shipment.dispatched', 'enrolment', enrolmentId, { roundId, ...input });
-    return { dto: await enrolmentDto(em, roundId, enrolmentId), round, recipients: await labRecipients(em, e.organisationId) };
+    await audit(
+      em,
+      actor.id,
+      existing ? 'shipment.dispatch-corrected' : 'shipment.dispatched',
+      'enrolment',
+      enrolmentId,
+      { roundId, ...input },
+    );
+    return {
+      dto: await enrolmentDto(em, roundId, enrolmentId),
+      round,
+      recipients: await labRecipients(em, e.organisationId),
+    };
   });
   if (recipients.length) {
     await sendSafely(ctx, {

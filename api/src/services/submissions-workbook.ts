@@ -1,7 +1,13 @@
 import ExcelJS from 'exceljs';
 import type { SheetIssue, WorkbookUploadResult } from '../../../shared/contracts/bench';
 import { SAFETY_CAUTIONS } from '../../../shared/contracts/bench';
-import { ItemResults, MeasurementConditions, readStoredSubmission, SubmissionData, Uncertainty } from '../../../shared/contracts/submission';
+import {
+  ItemResults,
+  MeasurementConditions,
+  readStoredSubmission,
+  SubmissionData,
+  Uncertainty,
+} from '../../../shared/contracts/submission';
 import { checkResults } from '../../../shared/bench/submission-checks';
 import type { SessionUser } from '../auth/session-user';
 import { conflict, HttpError, ruleBroken } from '../http/errors';
@@ -14,7 +20,11 @@ import { detectPackagedType } from './attachments';
 import { lockSubmission, replaceDraft, roundRules } from './submissions';
 
 /** Condition columns of the "Conditions" sheet, in order (B onwards; A is the item code). */
-const CONDITION_COLUMNS: { key: keyof MeasurementConditions | 'methodNotes'; header: string; numeric: boolean }[] = [
+const CONDITION_COLUMNS: {
+  key: keyof MeasurementConditions | 'methodNotes';
+  header: string;
+  numeric: boolean;
+}[] = [
   { key: 'instrument', header: 'Instrument', numeric: false },
   { key: 'laserWavelengthNm', header: 'Laser wavelength (nm)', numeric: true },
   { key: 'scatteringAngleDeg', header: 'Scattering angle (°)', numeric: true },
@@ -36,16 +46,23 @@ export function safeText(s: string): string {
 
 const colLetter = (n: number) => {
   let s = '';
-  for (let c = n; c > 0; c = Math.floor((c - 1) / 26)) s = String.fromCharCode(65 + ((c - 1) % 26)) + s;
+  for (let c = n; c > 0; c = Math.floor((c - 1) / 26))
+    s = String.fromCharCode(65 + ((c - 1) % 26)) + s;
   return s;
 };
 
 /** GET /rounds/{id}/submission/template.xlsx: the round's results sheet, prefilled with the draft. */
-export async function buildTemplate(ctx: AppContext, labId: string, roundId: string): Promise<{ buffer: Buffer; fileName: string }> {
+export async function buildTemplate(
+  ctx: AppContext,
+  labId: string,
+  roundId: string,
+): Promise<{ buffer: Buffer; fileName: string }> {
   const em = ctx.ds.manager;
   const { round, enrolment } = await findEnrolment(em, labId, roundId);
   const rules = await roundRules(em, roundId, round.protocolTemperatureC);
-  const sub = await em.query(`SELECT draft FROM submission WHERE enrolment_id = $1`, [enrolment.id]);
+  const sub = await em.query(`SELECT draft FROM submission WHERE enrolment_id = $1`, [
+    enrolment.id,
+  ]);
   const draft = readStoredSubmission(sub[0]?.draft);
   const runs = Math.max(1, ...rules.measurands.map((m) => m.replicatesRequired));
 
@@ -64,14 +81,32 @@ export async function buildTemplate(ctx: AppContext, labId: string, roundId: str
   ].forEach((line) => readme.addRow([line]));
 
   const results = wb.addWorksheet('Results');
-  const header = ['Item', 'Measurand file code', 'Measurand', 'Unit', ...Array.from({ length: runs }, (_, i) => `Replicate ${i + 1}`), 'Uncertainty type', 'Uncertainty', 'k'];
+  const header = [
+    'Item',
+    'Measurand file code',
+    'Measurand',
+    'Unit',
+    ...Array.from({ length: runs }, (_, i) => `Replicate ${i + 1}`),
+    'Uncertainty type',
+    'Uncertainty',
+    'k',
+  ];
   results.addRow(header).font = { bold: true };
   for (const item of rules.items) {
     const di = draft.items.find((i) => i.testItemId === item.id);
     for (const m of rules.measurands) {
       const r = di?.results.find((x) => x.measurandId === m.id);
       const reps = Array.from({ length: runs }, (_, i) => r?.replicates[i] ?? null);
-      results.addRow([item.code, m.key, m.name, m.unit, ...reps, r?.uncertainty?.kind ?? null, r?.uncertainty?.value ?? null, r?.uncertainty?.k ?? null]);
+      results.addRow([
+        item.code,
+        m.key,
+        m.name,
+        m.unit,
+        ...reps,
+        r?.uncertainty?.kind ?? null,
+        r?.uncertainty?.value ?? null,
+        r?.uncertainty?.k ?? null,
+      ]);
     }
   }
   results.columns.forEach((c, i) => (c.width = i < 4 ? 16 : 12));
@@ -81,7 +116,8 @@ export async function buildTemplate(ctx: AppContext, labId: string, roundId: str
   cond.addRow(['Item', ...CONDITION_COLUMNS.map((c) => c.header)]).font = { bold: true };
   for (const item of rules.items) {
     const di = draft.items.find((i) => i.testItemId === item.id);
-    const c = di?.conditions ?? MeasurementConditions.parse({ temperatureC: round.protocolTemperatureC });
+    const c =
+      di?.conditions ?? MeasurementConditions.parse({ temperatureC: round.protocolTemperatureC });
     cond.addRow([
       item.code,
       ...CONDITION_COLUMNS.map((col) => {
@@ -110,7 +146,9 @@ class Sheet {
   /** The header cells of row 1 as text, indexed by column (1-based). */
   headers(): string[] {
     const out: string[] = [];
-    (this.byRow.get(1) ?? []).forEach((v, i) => (out[i + 1] = asText(typeof v === 'object' && v !== null ? v.result : v)));
+    (this.byRow.get(1) ?? []).forEach(
+      (v, i) => (out[i + 1] = asText(typeof v === 'object' && v !== null ? v.result : v)),
+    );
     return out;
   }
   eachRow(fn: (r: number) => void): void {
@@ -128,51 +166,98 @@ function asText(v: unknown): string {
  * POST /rounds/{id}/submission/upload.xlsx: reads the filled template into the draft, with the same
  * checks and messages as the form; every problem names its sheet, row and column.
  */
-export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId: string, roundId: string, file: Buffer | undefined): Promise<WorkbookUploadResult> {
-  if (!file) throw new HttpError(400, 'validation_failed', 'file: attach the filled workbook (multipart field "file").', [{ path: 'file', message: 'Attach a file.' }]);
+export async function uploadWorkbook(
+  ctx: AppContext,
+  actor: SessionUser,
+  labId: string,
+  roundId: string,
+  file: Buffer | undefined,
+): Promise<WorkbookUploadResult> {
+  if (!file)
+    throw new HttpError(
+      400,
+      'validation_failed',
+      'file: attach the filled workbook (multipart field "file").',
+      [{ path: 'file', message: 'Attach a file.' }],
+    );
   if (file.length > RESULTS_WORKBOOK_LIMIT.maxBytes) {
-    throw new HttpError(413, 'file_too_large', `file: the limit is ${formatBytes(RESULTS_WORKBOOK_LIMIT.maxBytes)} for a ${RESULTS_WORKBOOK_LIMIT.label}.`, [{ path: 'file', message: 'Too large.' }]);
+    throw new HttpError(
+      413,
+      'file_too_large',
+      `file: the limit is ${formatBytes(RESULTS_WORKBOOK_LIMIT.maxBytes)} for a ${RESULTS_WORKBOOK_LIMIT.label}.`,
+      [{ path: 'file', message: 'Too large.' }],
+    );
   }
   if (detectPackagedType(file)?.kind !== 'xlsx') {
-    throw new HttpError(415, 'file_type_refused', 'file: upload the .xlsx workbook downloaded from this round.', [{ path: 'file', message: 'XLSX only.' }]);
+    throw new HttpError(
+      415,
+      'file_type_refused',
+      'file: upload the .xlsx workbook downloaded from this round.',
+      [{ path: 'file', message: 'XLSX only.' }],
+    );
   }
   const em = ctx.ds.manager;
   const { round } = await findEnrolment(em, labId, roundId);
   const rules = await roundRules(em, roundId, round.protocolTemperatureC);
   // Row, cell and unpacked-size limits first, then the reading: both in an upload worker thread.
-  const { sheets } = await runInWorker<{ sheets: SheetOut[] }>({ type: 'xlsx', data: transferable(file), limit: RESULTS_WORKBOOK_LIMIT }, RESULTS_WORKBOOK_LIMIT.label);
+  const { sheets } = await runInWorker<{ sheets: SheetOut[] }>(
+    { type: 'xlsx', data: transferable(file), limit: RESULTS_WORKBOOK_LIMIT },
+    RESULTS_WORKBOOK_LIMIT.label,
+  );
   const issues: SheetIssue[] = [];
   /** Where each value of the results came from, to name the cell of a check's message. */
   const cells = new Map<string, { sheet: string; row: number; column: string }>();
-  const at = (sheet: string, row: number, col: number) => ({ sheet, row, column: `${colLetter(col)}` });
+  const at = (sheet: string, row: number, col: number) => ({
+    sheet,
+    row,
+    column: `${colLetter(col)}`,
+  });
   const sheetNamed = (name: string) => {
     const data = sheets.find((x) => x.name === name);
     return data ? new Sheet(data) : undefined;
   };
   const resultsWs = sheetNamed('Results');
   const condWs = sheetNamed('Conditions');
-  if (!resultsWs) throw ruleBroken('workbook_invalid', 'file: the workbook has no "Results" sheet; start from the template.', [{ sheet: 'Results', row: 0, column: '', message: 'Sheet missing.' }]);
+  if (!resultsWs)
+    throw ruleBroken(
+      'workbook_invalid',
+      'file: the workbook has no "Results" sheet; start from the template.',
+      [{ sheet: 'Results', row: 0, column: '', message: 'Sheet missing.' }],
+    );
 
   const headers = resultsWs.headers();
   /** A cell's value; a formula is refused with a message naming the cell (results are typed, never computed here). */
   const value = (ws: Sheet, r: number, c: number, header: string | undefined): unknown => {
     const v = ws.cell(r, c);
     if (v !== null && typeof v === 'object') {
-      issues.push({ ...at(ws.name, r, c), message: `${ws.name} row ${r}, column ${colLetter(c)}${header ? ` (${header})` : ''}: the cell holds a formula (${v.formula.slice(0, 60)}); type the value itself.` });
+      issues.push({
+        ...at(ws.name, r, c),
+        message: `${ws.name} row ${r}, column ${colLetter(c)}${header ? ` (${header})` : ''}: the cell holds a formula (${v.formula.slice(0, 60)}); type the value itself.`,
+      });
       return null;
     }
     return v;
   };
-  const runCols = headers.map((h, i) => (/^(Replicate|Run) \d+$/.test(h ?? '') ? i : -1)).filter((i) => i > 0);
+  const runCols = headers
+    .map((h, i) => (/^(Replicate|Run) \d+$/.test(h ?? '') ? i : -1))
+    .filter((i) => i > 0);
   // workbooks downloaded before the glossary say "Run n" instead of "Replicate n"; both are read
   const col = (name: string) => headers.indexOf(name);
-  const items = rules.items.map((i) => ({ testItemId: i.id, results: [] as ItemResults['results'], conditions: MeasurementConditions.parse({}), methodNotes: '' }));
+  const items = rules.items.map((i) => ({
+    testItemId: i.id,
+    results: [] as ItemResults['results'],
+    conditions: MeasurementConditions.parse({}),
+    methodNotes: '',
+  }));
 
   const num = (sheet: string, row: number, c: number, v: unknown): number | null => {
     if (v === null || v === '') return null;
     const n = typeof v === 'number' ? v : Number(String(v).replace(',', '.'));
     if (!Number.isFinite(n)) {
-      issues.push({ ...at(sheet, row, c), message: `${sheet} row ${row}, column ${colLetter(c)} (${headers[c] ?? ''}): "${String(v)}" is not a number.` });
+      issues.push({
+        ...at(sheet, row, c),
+        message: `${sheet} row ${row}, column ${colLetter(c)} (${headers[c] ?? ''}): "${String(v)}" is not a number.`,
+      });
       return null;
     }
     return n;
@@ -185,27 +270,57 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
     if (!code && !key) return;
     const ii = rules.items.findIndex((i) => i.code === code);
     const m = rules.measurands.find((x) => x.key === key);
-    if (ii < 0) return void issues.push({ ...at('Results', r, 1), message: `Results row ${r}, column A: "${code}" is not a test item of this round.` });
-    if (!m) return void issues.push({ ...at('Results', r, 2), message: `Results row ${r}, column B: "${key}" is not a measurand of this round.` });
+    if (ii < 0)
+      return void issues.push({
+        ...at('Results', r, 1),
+        message: `Results row ${r}, column A: "${code}" is not a test item of this round.`,
+      });
+    if (!m)
+      return void issues.push({
+        ...at('Results', r, 2),
+        message: `Results row ${r}, column B: "${key}" is not a measurand of this round.`,
+      });
     const target = items[ii]!;
     const ri = target.results.length;
-    const replicates = runCols.slice(0, Math.max(m.replicatesRequired, runCols.length)).map((c, k) => {
-      cells.set(`items.${ii}.results.${ri}.replicates.${k}`, at('Results', r, c));
-      return num('Results', r, c, value(resultsWs, r, c, headers[c]));
-    });
-    while (replicates.length && replicates[replicates.length - 1] === null && replicates.length > m.replicatesRequired) replicates.pop();
+    const replicates = runCols
+      .slice(0, Math.max(m.replicatesRequired, runCols.length))
+      .map((c, k) => {
+        cells.set(`items.${ii}.results.${ri}.replicates.${k}`, at('Results', r, c));
+        return num('Results', r, c, value(resultsWs, r, c, headers[c]));
+      });
+    while (
+      replicates.length &&
+      replicates[replicates.length - 1] === null &&
+      replicates.length > m.replicatesRequired
+    )
+      replicates.pop();
     cells.set(`items.${ii}.results.${ri}.replicates`, at('Results', r, runCols[0] ?? 5));
     let uncertainty: Uncertainty | null = null;
-    const kindRaw = asText(value(resultsWs, r, col('Uncertainty type'), 'Uncertainty type')).toLowerCase();
-    const uVal = num('Results', r, col('Uncertainty'), value(resultsWs, r, col('Uncertainty'), 'Uncertainty'));
+    const kindRaw = asText(
+      value(resultsWs, r, col('Uncertainty type'), 'Uncertainty type'),
+    ).toLowerCase();
+    const uVal = num(
+      'Results',
+      r,
+      col('Uncertainty'),
+      value(resultsWs, r, col('Uncertainty'), 'Uncertainty'),
+    );
     const kVal = num('Results', r, col('k'), value(resultsWs, r, col('k'), 'k'));
     if (kindRaw || uVal !== null) {
       const parsed = Uncertainty.safeParse({ kind: kindRaw || 'standard', value: uVal, k: kVal });
       if (parsed.success) uncertainty = parsed.data;
       else {
         const issue = parsed.error.issues[0]!;
-        const c = issue.path[0] === 'kind' ? col('Uncertainty type') : issue.path[0] === 'k' ? col('k') : col('Uncertainty');
-        issues.push({ ...at('Results', r, c), message: `Results row ${r}, column ${colLetter(c)} (${headers[c]}): ${issue.path[0] === 'kind' ? 'use standard or expanded.' : issue.message}` });
+        const c =
+          issue.path[0] === 'kind'
+            ? col('Uncertainty type')
+            : issue.path[0] === 'k'
+              ? col('k')
+              : col('Uncertainty');
+        issues.push({
+          ...at('Results', r, c),
+          message: `Results row ${r}, column ${colLetter(c)} (${headers[c]}): ${issue.path[0] === 'kind' ? 'use standard or expanded.' : issue.message}`,
+        });
       }
     }
     target.results.push({ measurandId: m.id, replicates, uncertainty });
@@ -218,7 +333,11 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
       const code = asText(value(condWs, r, 1, condHeaders[1]));
       if (!code) return;
       const ii = rules.items.findIndex((i) => i.code === code);
-      if (ii < 0) return void issues.push({ ...at('Conditions', r, 1), message: `Conditions row ${r}, column A: "${code}" is not a test item of this round.` });
+      if (ii < 0)
+        return void issues.push({
+          ...at('Conditions', r, 1),
+          message: `Conditions row ${r}, column A: "${code}" is not a test item of this round.`,
+        });
       const raw: Record<string, unknown> = {};
       CONDITION_COLUMNS.forEach((cc, k) => {
         const c = condHeaders.indexOf(cc.header) > 0 ? condHeaders.indexOf(cc.header) : k + 2;
@@ -231,7 +350,10 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
       if (!parsed.success) {
         for (const issue of parsed.error.issues) {
           const where = cells.get(`items.${ii}.conditions.${String(issue.path[0])}`)!;
-          issues.push({ ...where, message: `Conditions row ${r}, column ${where.column} (${condHeaders[CONDITION_COLUMNS.findIndex((x) => x.key === issue.path[0]) + 2] ?? ''}): ${issue.message}` });
+          issues.push({
+            ...where,
+            message: `Conditions row ${r}, column ${where.column} (${condHeaders[CONDITION_COLUMNS.findIndex((x) => x.key === issue.path[0]) + 2] ?? ''}): ${issue.message}`,
+          });
         }
       } else items[ii]!.conditions = parsed.data;
       items[ii]!.methodNotes = String(methodNotes ?? '').slice(0, 4000);
@@ -241,7 +363,8 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
   return ctx.ds.transaction(async (tx) => {
     const { round: r2, enrolment } = await findEnrolment(tx, labId, roundId);
     const lock = lockState(r2, enrolment);
-    if (!lock.isOpen) throw conflict('submission_locked', `Results can no longer change: ${lock.reason}`);
+    if (!lock.isOpen)
+      throw conflict('submission_locked', `Results can no longer change: ${lock.reason}`);
     const sub = await lockSubmission(tx, enrolment.id);
     const previous = readStoredSubmission(sub.draft);
     const data: SubmissionData = SubmissionData.parse({
@@ -252,13 +375,23 @@ export async function uploadWorkbook(ctx: AppContext, actor: SessionUser, labId:
     const outcome = checkResults(data, rules, false);
     for (const e of outcome.errors) {
       // Paths in the checks index data.items, which kept only items with results: map back by id.
-      const ii = rules.items.findIndex((i) => i.id === data.items[Number(e.path.split('.')[1])]?.testItemId);
+      const ii = rules.items.findIndex(
+        (i) => i.id === data.items[Number(e.path.split('.')[1])]?.testItemId,
+      );
       const path = e.path.replace(/^items\.\d+/, `items.${ii}`);
-      const where = cells.get(path) ?? cells.get(path.replace(/\.\d+$/, '')) ?? { sheet: 'Results', row: 0, column: '' };
-      issues.push({ ...where, message: `${where.sheet} row ${where.row}, column ${where.column}: ${e.message}` });
+      const where = cells.get(path) ??
+        cells.get(path.replace(/\.\d+$/, '')) ?? { sheet: 'Results', row: 0, column: '' };
+      issues.push({
+        ...where,
+        message: `${where.sheet} row ${where.row}, column ${where.column}: ${e.message}`,
+      });
     }
     if (issues.length) {
-      throw ruleBroken('workbook_invalid', `${issues[0]!.message}${issues.length > 1 ? ` (and ${issues.length - 1} more)` : ''}`, issues);
+      throw ruleBroken(
+        'workbook_invalid',
+        `${issues[0]!.message}${issues.length > 1 ? ` (and ${issues.length - 1} more)` : ''}`,
+        issues,
+      );
     }
     const draftRevision = await replaceDraft(tx, actor, sub.id, data, 'workbook');
     return {

@@ -1,10 +1,25 @@
 import type { EntityManager } from 'typeorm';
 import { Measurand, Submission, TestItem } from '../../../db/entities';
-import type { DraftSave, DraftSaved, SubmissionVersionDto, SubmissionView, SubmitRequest, SubmitResult } from '../../../shared/contracts/bench';
+import type {
+  DraftSave,
+  DraftSaved,
+  SubmissionVersionDto,
+  SubmissionView,
+  SubmitRequest,
+  SubmitResult,
+} from '../../../shared/contracts/bench';
 import type { FieldIssue } from '../../../shared/contracts/common';
 import { rangeText } from '../../../shared/contracts/ranges';
-import { readStoredSubmission, replicateRange, SubmissionData } from '../../../shared/contracts/submission';
-import { checkResults, instrumentCheckNotice, type RoundRules } from '../../../shared/bench/submission-checks';
+import {
+  readStoredSubmission,
+  replicateRange,
+  SubmissionData,
+} from '../../../shared/contracts/submission';
+import {
+  checkResults,
+  instrumentCheckNotice,
+  type RoundRules,
+} from '../../../shared/bench/submission-checks';
 import type { SessionUser } from '../auth/session-user';
 import { badRequest, conflict, fieldIssues, ruleBroken } from '../http/errors';
 import { audit } from './audit';
@@ -13,7 +28,11 @@ import type { AppContext } from './context';
 import { latestCheckFor } from './instrument-checks';
 
 /** The round's items and measurands as the shared checks need them. */
-export async function roundRules(em: EntityManager, roundId: string, protocolTemperatureC: number): Promise<RoundRules> {
+export async function roundRules(
+  em: EntityManager,
+  roundId: string,
+  protocolTemperatureC: number,
+): Promise<RoundRules> {
   const [items, measurands] = await Promise.all([
     em.find(TestItem, { where: { roundId }, order: { position: 'ASC', code: 'ASC' } }),
     em.find(Measurand, { where: { roundId }, order: { position: 'ASC', key: 'ASC' } }),
@@ -21,7 +40,13 @@ export async function roundRules(em: EntityManager, roundId: string, protocolTem
   return {
     protocolTemperatureC,
     items: items.map((i) => ({ id: i.id, code: i.code, nominalSizeNm: i.nominalSizeNm })),
-    measurands: measurands.map((m) => ({ id: m.id, key: m.key, name: m.name, unit: m.unit, replicatesRequired: m.replicatesRequired })),
+    measurands: measurands.map((m) => ({
+      id: m.id,
+      key: m.key,
+      name: m.name,
+      unit: m.unit,
+      replicatesRequired: m.replicatesRequired,
+    })),
   };
 }
 
@@ -56,7 +81,10 @@ function versionDto(r: VersionRow): SubmissionVersionDto {
 
 /** Creates the submission row if missing and locks it for this transaction (serialises saves and submits). */
 async function lockSubmission(em: EntityManager, enrolmentId: string): Promise<Submission> {
-  await em.query(`INSERT INTO submission (enrolment_id) VALUES ($1) ON CONFLICT (enrolment_id) DO NOTHING`, [enrolmentId]);
+  await em.query(
+    `INSERT INTO submission (enrolment_id) VALUES ($1) ON CONFLICT (enrolment_id) DO NOTHING`,
+    [enrolmentId],
+  );
   const sub = await em
     .getRepository(Submission)
     .createQueryBuilder('s')
@@ -67,12 +95,20 @@ async function lockSubmission(em: EntityManager, enrolmentId: string): Promise<S
 }
 
 /** GET /rounds/{id}/submission: the draft, its revision and every submitted version (newest first). */
-export async function getSubmission(ctx: AppContext, labId: string, roundId: string): Promise<SubmissionView> {
+export async function getSubmission(
+  ctx: AppContext,
+  labId: string,
+  roundId: string,
+): Promise<SubmissionView> {
   const em = ctx.ds.manager;
   const { round, enrolment } = await findEnrolment(em, labId, roundId);
   const sub = await em.findOne(Submission, { where: { enrolmentId: enrolment.id } });
   const lock = lockState(round, enrolment);
-  const versions: VersionRow[] = sub ? await em.query(`${VERSION_SELECT} WHERE v.submission_id = $1 ORDER BY v.version DESC`, [sub.id]) : [];
+  const versions: VersionRow[] = sub
+    ? await em.query(`${VERSION_SELECT} WHERE v.submission_id = $1 ORDER BY v.version DESC`, [
+        sub.id,
+      ])
+    : [];
   return {
     state: sub ? sub.state : 'none',
     draft: readStoredSubmission(sub?.draft),
@@ -90,7 +126,10 @@ function savedDraft(raw: unknown): SubmissionData {
   const r = SubmissionData.safeParse(raw ?? {});
   if (!r.success) {
     const details = fieldIssues(r.error, 'data');
-    throw badRequest(`${details[0]!.path}: ${details[0]!.message} (in the saved draft; correct it and save again)`, details);
+    throw badRequest(
+      `${details[0]!.path}: ${details[0]!.message} (in the saved draft; correct it and save again)`,
+      details,
+    );
   }
   return r.data;
 }
@@ -109,8 +148,14 @@ export function replicatesOutOfRange(data: SubmissionData, rules: RoundRules): F
       if (!range) return;
       res.replicates.forEach((v, k) => {
         if (v === null) return;
-        const ok = v <= range.max && ('minExclusive' in range && range.minExclusive ? v > range.min : v >= range.min);
-        if (!ok) issues.push({ path: `data.items.${i}.results.${j}.replicates.${k}`, message: `${m!.name} must be ${rangeText(range)}.` });
+        const ok =
+          v <= range.max &&
+          ('minExclusive' in range && range.minExclusive ? v > range.min : v >= range.min);
+        if (!ok)
+          issues.push({
+            path: `data.items.${i}.results.${j}.replicates.${k}`,
+            message: `${m!.name} must be ${rangeText(range)}.`,
+          });
       });
     }),
   );
@@ -118,7 +163,8 @@ export function replicatesOutOfRange(data: SubmissionData, rules: RoundRules): F
 }
 
 function assertOpen(lock: ReturnType<typeof lockState>): void {
-  if (!lock.isOpen) throw conflict('submission_locked', `Results can no longer change: ${lock.reason}`);
+  if (!lock.isOpen)
+    throw conflict('submission_locked', `Results can no longer change: ${lock.reason}`);
 }
 
 /**
@@ -127,36 +173,56 @@ function assertOpen(lock: ReturnType<typeof lockState>): void {
  * Drafts keep what was typed, even a value the submit would refuse by the round's rules, so nothing
  * is lost; a value outside the plausible ranges (shared/contracts/ranges.ts) is refused already here.
  */
-export async function saveDraft(ctx: AppContext, actor: SessionUser, labId: string, roundId: string, input: DraftSave): Promise<DraftSaved> {
+export async function saveDraft(
+  ctx: AppContext,
+  actor: SessionUser,
+  labId: string,
+  roundId: string,
+  input: DraftSave,
+): Promise<DraftSaved> {
   return ctx.ds.transaction(async (em) => {
     const { round, enrolment } = await findEnrolment(em, labId, roundId);
     assertOpen(lockState(round, enrolment));
     const sub = await lockSubmission(em, enrolment.id);
     if (sub.draftRevision !== input.baseRevision) {
-      throw conflict('draft_conflict', `The draft changed since revision ${input.baseRevision} (now ${sub.draftRevision}): reload it before saving.`);
+      throw conflict(
+        'draft_conflict',
+        `The draft changed since revision ${input.baseRevision} (now ${sub.draftRevision}): reload it before saving.`,
+      );
     }
     const revision = sub.draftRevision + 1;
     const rows = returned<{ updated_at: Date }>(
-      await em.query(`UPDATE submission SET draft = $2, draft_revision = $3, updated_at = now() WHERE id = $1 RETURNING updated_at`, [
-        sub.id,
-        JSON.stringify(input.data),
-        revision,
-      ]),
+      await em.query(
+        `UPDATE submission SET draft = $2, draft_revision = $3, updated_at = now() WHERE id = $1 RETURNING updated_at`,
+        [sub.id, JSON.stringify(input.data), revision],
+      ),
     );
-    await audit(em, actor.id, 'submission.draft-saved', 'submission', sub.id, { roundId, revision });
+    await audit(em, actor.id, 'submission.draft-saved', 'submission', sub.id, {
+      roundId,
+      revision,
+    });
     return { draftRevision: revision, savedAt: rows[0]!.updated_at.toISOString() };
   });
 }
 
 /** Saves a whole draft without the revision check (the workbook upload replaces the draft). */
-export async function replaceDraft(em: EntityManager, actor: SessionUser, submissionId: string, data: SubmissionData, source: string): Promise<number> {
+export async function replaceDraft(
+  em: EntityManager,
+  actor: SessionUser,
+  submissionId: string,
+  data: SubmissionData,
+  source: string,
+): Promise<number> {
   const rows = returned<{ draft_revision: number }>(
     await em.query(
       `UPDATE submission SET draft = $2, draft_revision = draft_revision + 1, updated_at = now() WHERE id = $1 RETURNING draft_revision`,
       [submissionId, JSON.stringify(data)],
     ),
   );
-  await audit(em, actor.id, 'submission.draft-replaced', 'submission', submissionId, { source, revision: rows[0]!.draft_revision });
+  await audit(em, actor.id, 'submission.draft-replaced', 'submission', submissionId, {
+    source,
+    revision: rows[0]!.draft_revision,
+  });
   return rows[0]!.draft_revision;
 }
 
@@ -168,11 +234,20 @@ export { lockSubmission };
  * serialised on the submission row, so each makes exactly one version. After the lock (due date, or
  * a granted extension) nothing changes.
  */
-export async function submit(ctx: AppContext, actor: SessionUser, labId: string, roundId: string, input: SubmitRequest): Promise<SubmitResult> {
+export async function submit(
+  ctx: AppContext,
+  actor: SessionUser,
+  labId: string,
+  roundId: string,
+  input: SubmitRequest,
+): Promise<SubmitResult> {
   return ctx.ds.transaction(async (em) => {
     const { enrolment } = await findEnrolment(em, labId, roundId);
     const sub = await lockSubmission(em, enrolment.id);
-    const earlier: VersionRow[] = await em.query(`${VERSION_SELECT} WHERE v.submission_id = $1 AND v.idempotency_key = $2`, [sub.id, input.idempotencyKey]);
+    const earlier: VersionRow[] = await em.query(
+      `${VERSION_SELECT} WHERE v.submission_id = $1 AND v.idempotency_key = $2`,
+      [sub.id, input.idempotencyKey],
+    );
     if (earlier[0]) return { version: versionDto(earlier[0]), replayed: true };
 
     // Re-read the round under a share lock: a state change waits for this submit, or this sees it.
@@ -186,10 +261,15 @@ export async function submit(ctx: AppContext, actor: SessionUser, labId: string,
     const rules = await roundRules(em, roundId, round.protocolTemperatureC);
     const outcome = checkResults(data, rules, true);
     if (outcome.errors.length) {
-      throw ruleBroken('results_invalid', `${outcome.errors[0]!.path}: ${outcome.errors[0]!.message}`, outcome.errors);
+      throw ruleBroken(
+        'results_invalid',
+        `${outcome.errors[0]!.path}: ${outcome.errors[0]!.message}`,
+        outcome.errors,
+      );
     }
     const outOfRange = replicatesOutOfRange(data, rules);
-    if (outOfRange.length) throw badRequest(`${outOfRange[0]!.path}: ${outOfRange[0]!.message}`, outOfRange);
+    if (outOfRange.length)
+      throw badRequest(`${outOfRange[0]!.path}: ${outOfRange[0]!.message}`, outOfRange);
     if (outcome.unacknowledged.length) {
       throw ruleBroken(
         'warnings_unacknowledged',
@@ -197,18 +277,39 @@ export async function submit(ctx: AppContext, actor: SessionUser, labId: string,
         outcome.unacknowledged,
       );
     }
-    const instruments = [...new Set(data.items.map((i) => i.conditions.instrument).filter(Boolean))];
+    const instruments = [
+      ...new Set(data.items.map((i) => i.conditions.instrument).filter(Boolean)),
+    ];
     const check = await latestCheckFor(em, labId, instruments);
-    const notice = instrumentCheckNotice(check ? { passed: check.passed, instrument: check.instrument, checkedAt: check.checkedAt.toISOString() } : null);
+    const notice = instrumentCheckNotice(
+      check
+        ? {
+            passed: check.passed,
+            instrument: check.instrument,
+            checkedAt: check.checkedAt.toISOString(),
+          }
+        : null,
+    );
     if (notice && !data.explanation.trim()) {
-      throw ruleBroken('instrument_check_explanation_required', `explanation: ${notice}`, [{ path: 'explanation', message: notice }]);
+      throw ruleBroken('instrument_check_explanation_required', `explanation: ${notice}`, [
+        { path: 'explanation', message: notice },
+      ]);
     }
 
     const version = sub.currentVersion + 1;
     await em.query(
       `INSERT INTO submission_version (submission_id, version, data, submitted_by, note, idempotency_key, is_late, instrument_check_id)
        VALUES ($1, $2, $3, $4, $5, $6, $7, $8)`,
-      [sub.id, version, JSON.stringify(data), actor.id, input.note ?? null, input.idempotencyKey, lock.isLate, check?.id ?? null],
+      [
+        sub.id,
+        version,
+        JSON.stringify(data),
+        actor.id,
+        input.note ?? null,
+        input.idempotencyKey,
+        lock.isLate,
+        check?.id ?? null,
+      ],
     );
     await em.query(
       `UPDATE submission SET state = 'submitted', current_version = $2, submitted_at = now(), updated_at = now()
@@ -216,16 +317,26 @@ export async function submit(ctx: AppContext, actor: SessionUser, labId: string,
        WHERE id = $1`,
       [sub.id, version, ...(input.data ? [JSON.stringify(input.data)] : [])],
     );
-    await audit(em, actor.id, version === 1 ? 'submission.submitted' : 'submission.amended', 'submission', sub.id, {
-      roundId,
-      version,
-      isLate: lock.isLate,
-      extensionUntil: fresh.extensionUntil?.toISOString() ?? null,
-      instrumentCheckId: check?.id ?? null,
-      instrumentCheckPassed: check?.passed ?? null,
-      acknowledgedWarnings: outcome.warnings.map((w) => w.code),
-    });
-    const [row] = (await em.query(`${VERSION_SELECT} WHERE v.submission_id = $1 AND v.version = $2`, [sub.id, version])) as VersionRow[];
+    await audit(
+      em,
+      actor.id,
+      version === 1 ? 'submission.submitted' : 'submission.amended',
+      'submission',
+      sub.id,
+      {
+        roundId,
+        version,
+        isLate: lock.isLate,
+        extensionUntil: fresh.extensionUntil?.toISOString() ?? null,
+        instrumentCheckId: check?.id ?? null,
+        instrumentCheckPassed: check?.passed ?? null,
+        acknowledgedWarnings: outcome.warnings.map((w) => w.code),
+      },
+    );
+    const [row] = (await em.query(
+      `${VERSION_SELECT} WHERE v.submission_id = $1 AND v.version = $2`,
+      [sub.id, version],
+    )) as VersionRow[];
     return { version: versionDto(row!), replayed: false };
   });
 }

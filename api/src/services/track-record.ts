@@ -9,12 +9,23 @@ import { notFound } from '../http/errors';
 import type { EntityManager } from 'typeorm';
 import type { AppContext } from './context';
 
-export async function trackRecord(ctx: AppContext, user: SessionUser, labId?: string): Promise<TrackRecord> {
+export async function trackRecord(
+  ctx: AppContext,
+  user: SessionUser,
+  labId?: string,
+): Promise<TrackRecord> {
   const labs = labIds(user);
   const lab = labId ?? labs[0];
   if (!lab || !labs.includes(lab)) throw notFound('The lab');
-  const org: { name: string }[] = await ctx.ds.query('SELECT name FROM organisation WHERE id = $1', [lab]);
-  return { labId: lab, labName: org[0]?.name ?? '', series: await labTrackRecord(ctx.ds.manager, lab) };
+  const org: { name: string }[] = await ctx.ds.query(
+    'SELECT name FROM organisation WHERE id = $1',
+    [lab],
+  );
+  return {
+    labId: lab,
+    labName: org[0]?.name ?? '',
+    series: await labTrackRecord(ctx.ds.manager, lab),
+  };
 }
 
 /**
@@ -51,8 +62,25 @@ export async function labTrackRecord(em: EntityManager, labId: string): Promise<
     const z = r.kind === 'zPrime' ? r.zp : r.z;
     if (z === null || r.signal === null) continue;
     let s = series.get(r.measurand_key);
-    if (!s) series.set(r.measurand_key, (s = { measurandKey: r.measurand_key, measurandName: r.measurand_name, points: [], rsz: null, findings: [] }));
-    s.points.push({ roundId: r.round_id, roundCode: r.round_code, publishedAt: r.published_at?.toISOString() ?? null, itemCode: r.item_code, z, signal: r.signal });
+    if (!s)
+      series.set(
+        r.measurand_key,
+        (s = {
+          measurandKey: r.measurand_key,
+          measurandName: r.measurand_name,
+          points: [],
+          rsz: null,
+          findings: [],
+        }),
+      );
+    s.points.push({
+      roundId: r.round_id,
+      roundCode: r.round_code,
+      publishedAt: r.published_at?.toISOString() ?? null,
+      itemCode: r.item_code,
+      z,
+      signal: r.signal,
+    });
   }
   for (const s of series.values()) {
     s.rsz = rescaledSumZ(s.points.map((p) => p.z));

@@ -29,7 +29,12 @@ export async function loadSessionUser(em: EntityManager, id: string): Promise<Se
     email: string;
     name: string;
     roles: GlobalRole[];
-    memberships: { id: string; organisationId: string; organisationName: string; isManager: boolean }[];
+    memberships: {
+      id: string;
+      organisationId: string;
+      organisationName: string;
+      isManager: boolean;
+    }[];
   }[] = await em.query(
     `SELECT u.id, u.email, u.name, u.roles,
             COALESCE(json_agg(json_build_object('id', m.id, 'organisationId', m.organisation_id,
@@ -49,7 +54,14 @@ export async function loadSessionUser(em: EntityManager, id: string): Promise<Se
   const order: Role[] = ['admin', 'coordinator', 'lab', 'assessor'];
   roles.sort((a, b) => order.indexOf(a) - order.indexOf(b));
   const actingLabId = user.memberships.length === 1 ? user.memberships[0]!.organisationId : null;
-  return { id: user.id, email: user.email, name: user.name, roles, memberships: user.memberships, actingLabId };
+  return {
+    id: user.id,
+    email: user.email,
+    name: user.name,
+    roles,
+    memberships: user.memberships,
+    actingLabId,
+  };
 }
 
 function membershipDto(m: Membership): MembershipDto {
@@ -98,7 +110,10 @@ export async function listUsers(ctx: AppContext): Promise<UserDto[]> {
 }
 
 async function getUserDto(em: EntityManager, id: string): Promise<UserDto> {
-  const u = await em.findOne(User, { where: { id }, relations: { memberships: { organisation: true } } });
+  const u = await em.findOne(User, {
+    where: { id },
+    relations: { memberships: { organisation: true } },
+  });
   if (!u) throw notFound('The user');
   return userDto(u);
 }
@@ -107,19 +122,41 @@ async function getUserDto(em: EntityManager, id: string): Promise<UserDto> {
  * Creates an account (or reuses an existing one for the e-mail, when adding a lab membership)
  * and e-mails a first-password link.
  */
-export async function inviteUser(ctx: AppContext, actor: SessionUser, input: UserInvite & { roles: UserDto['roles']; isManager: boolean }): Promise<UserDto> {
+export async function inviteUser(
+  ctx: AppContext,
+  actor: SessionUser,
+  input: UserInvite & { roles: UserDto['roles']; isManager: boolean },
+): Promise<UserDto> {
   const { user, token } = await ctx.ds.transaction(async (em) => {
     if (await em.findOne(User, { where: { email: input.email } })) {
       throw conflict('email_taken', `An account for ${input.email} already exists.`);
     }
-    if (input.organisationId && !(await em.findOne(Organisation, { where: { id: input.organisationId } }))) {
+    if (
+      input.organisationId &&
+      !(await em.findOne(Organisation, { where: { id: input.organisationId } }))
+    ) {
       throw ruleBroken('organisation_unknown', 'organisationId: that lab does not exist.');
     }
-    const created = await em.save(User, em.create(User, { email: input.email, name: input.name, roles: input.roles, passwordHash: null }));
+    const created = await em.save(
+      User,
+      em.create(User, {
+        email: input.email,
+        name: input.name,
+        roles: input.roles,
+        passwordHash: null,
+      }),
+    );
     if (input.organisationId) {
-      await em.insert(Membership, { userId: created.id, organisationId: input.organisationId, isManager: input.isManager });
+      await em.insert(Membership, {
+        userId: created.id,
+        organisationId: input.organisationId,
+        isManager: input.isManager,
+      });
     }
-    await audit(em, actor.id, 'user.invited', 'user', created.id, { email: input.email, roles: input.roles });
+    await audit(em, actor.id, 'user.invited', 'user', created.id, {
+      email: input.email,
+      roles: input.roles,
+    });
     const t = await issuePasswordToken(em, created.id, 'first-password');
     return { user: await getUserDto(em, created.id), token: t };
   });
@@ -127,7 +164,11 @@ export async function inviteUser(ctx: AppContext, actor: SessionUser, input: Use
   return user;
 }
 
-export async function resendInvitation(ctx: AppContext, actor: SessionUser, userId: string): Promise<void> {
+export async function resendInvitation(
+  ctx: AppContext,
+  actor: SessionUser,
+  userId: string,
+): Promise<void> {
   const { user, token } = await ctx.ds.transaction(async (em) => {
     const u = await em.findOne(User, { where: { id: userId } });
     if (!u) throw notFound('The user');
@@ -136,15 +177,32 @@ export async function resendInvitation(ctx: AppContext, actor: SessionUser, user
     await audit(em, actor.id, 'user.link-sent', 'user', u.id, { purpose });
     return { user: u, token: t };
   });
-  await sendLinkMail(ctx, user.email, user.name, token, user.passwordHash ? 'reset' : 'first-password');
+  await sendLinkMail(
+    ctx,
+    user.email,
+    user.name,
+    token,
+    user.passwordHash ? 'reset' : 'first-password',
+  );
 }
 
-export async function updateUser(ctx: AppContext, actor: SessionUser, id: string, patch: UserUpdate): Promise<UserDto> {
+export async function updateUser(
+  ctx: AppContext,
+  actor: SessionUser,
+  id: string,
+  patch: UserUpdate,
+): Promise<UserDto> {
   return ctx.ds.transaction(async (em) => {
     const u = await em.findOne(User, { where: { id } });
     if (!u) throw notFound('The user');
-    if (id === actor.id && (patch.isActive === false || (patch.roles && !patch.roles.includes('admin')))) {
-      throw ruleBroken('self_lockout', 'You cannot remove your own admin role or deactivate yourself.');
+    if (
+      id === actor.id &&
+      (patch.isActive === false || (patch.roles && !patch.roles.includes('admin')))
+    ) {
+      throw ruleBroken(
+        'self_lockout',
+        'You cannot remove your own admin role or deactivate yourself.',
+      );
     }
     await em.update(User, { id }, patch);
     await audit(em, actor.id, 'user.updated', 'user', id, { ...patch });
@@ -163,25 +221,41 @@ export async function listOrganisations(ctx: AppContext): Promise<OrganisationDt
 }
 
 async function assertNameFree(em: EntityManager, name: string, exceptId?: string): Promise<void> {
-  const rows: { id: string }[] = await em.query(`SELECT id FROM organisation WHERE lower(name) = lower($1)`, [name]);
-  if (rows.some((r) => r.id !== exceptId)) throw conflict('name_taken', `name: an organisation called "${name}" already exists.`);
+  const rows: { id: string }[] = await em.query(
+    `SELECT id FROM organisation WHERE lower(name) = lower($1)`,
+    [name],
+  );
+  if (rows.some((r) => r.id !== exceptId))
+    throw conflict('name_taken', `name: an organisation called "${name}" already exists.`);
 }
 
-export async function createOrganisation(ctx: AppContext, actor: SessionUser, input: OrganisationCreate & { kind: 'lab' | 'provider' }): Promise<OrganisationDto> {
+export async function createOrganisation(
+  ctx: AppContext,
+  actor: SessionUser,
+  input: OrganisationCreate & { kind: 'lab' | 'provider' },
+): Promise<OrganisationDto> {
   return ctx.ds.transaction(async (em) => {
     await assertNameFree(em, input.name);
-    const o = await em.save(Organisation, em.create(Organisation, {
-      name: input.name,
-      kind: input.kind,
-      country: input.country ?? null,
-      contactEmail: input.contactEmail ?? null,
-    }));
+    const o = await em.save(
+      Organisation,
+      em.create(Organisation, {
+        name: input.name,
+        kind: input.kind,
+        country: input.country ?? null,
+        contactEmail: input.contactEmail ?? null,
+      }),
+    );
     await audit(em, actor.id, 'organisation.created', 'organisation', o.id, { name: o.name });
     return organisationDto(o);
   });
 }
 
-export async function updateOrganisation(ctx: AppContext, actor: SessionUser, id: string, patch: Partial<OrganisationCreate>): Promise<OrganisationDto> {
+export async function updateOrganisation(
+  ctx: AppContext,
+  actor: SessionUser,
+  id: string,
+  patch: Partial<OrganisationCreate>,
+): Promise<OrganisationDto> {
   return ctx.ds.transaction(async (em) => {
     const o = await em.findOne(Organisation, { where: { id } });
     if (!o) throw notFound('The organisation');
@@ -193,8 +267,12 @@ export async function updateOrganisation(ctx: AppContext, actor: SessionUser, id
   });
 }
 
-export async function listMemberships(em: EntityManager, organisationId: string): Promise<MembershipDto[]> {
-  if (!(await em.findOne(Organisation, { where: { id: organisationId } }))) throw notFound('The organisation');
+export async function listMemberships(
+  em: EntityManager,
+  organisationId: string,
+): Promise<MembershipDto[]> {
+  if (!(await em.findOne(Organisation, { where: { id: organisationId } })))
+    throw notFound('The organisation');
   const rows = await em.find(Membership, {
     where: { organisationId },
     relations: { user: true, organisation: true },
@@ -203,17 +281,29 @@ export async function listMemberships(em: EntityManager, organisationId: string)
 }
 
 async function getMembershipDto(em: EntityManager, id: string): Promise<MembershipDto> {
-  const m = await em.findOne(Membership, { where: { id }, relations: { user: true, organisation: true } });
+  const m = await em.findOne(Membership, {
+    where: { id },
+    relations: { user: true, organisation: true },
+  });
   if (!m) throw notFound('The membership');
   return membershipDto(m);
 }
 
-export async function createMembership(ctx: AppContext, actor: SessionUser, input: MembershipCreate & { isManager: boolean }): Promise<MembershipDto> {
+export async function createMembership(
+  ctx: AppContext,
+  actor: SessionUser,
+  input: MembershipCreate & { isManager: boolean },
+): Promise<MembershipDto> {
   return ctx.ds.transaction(async (em) => {
-    if (!(await em.findOne(User, { where: { id: input.userId } }))) throw ruleBroken('user_unknown', 'userId: that user does not exist.');
+    if (!(await em.findOne(User, { where: { id: input.userId } })))
+      throw ruleBroken('user_unknown', 'userId: that user does not exist.');
     if (!(await em.findOne(Organisation, { where: { id: input.organisationId } })))
       throw ruleBroken('organisation_unknown', 'organisationId: that organisation does not exist.');
-    if (await em.findOne(Membership, { where: { userId: input.userId, organisationId: input.organisationId } }))
+    if (
+      await em.findOne(Membership, {
+        where: { userId: input.userId, organisationId: input.organisationId },
+      })
+    )
       throw conflict('already_member', 'That user is already a member of this organisation.');
     const m = await em.save(Membership, em.create(Membership, input));
     await audit(em, actor.id, 'membership.created', 'membership', m.id, { ...input });
@@ -221,25 +311,44 @@ export async function createMembership(ctx: AppContext, actor: SessionUser, inpu
   });
 }
 
-export async function updateMembership(ctx: AppContext, actor: SessionUser, id: string, isManager: boolean, organisationId?: string): Promise<MembershipDto> {
+export async function updateMembership(
+  ctx: AppContext,
+  actor: SessionUser,
+  id: string,
+  isManager: boolean,
+  organisationId?: string,
+): Promise<MembershipDto> {
   return ctx.ds.transaction(async (em) => {
     const m = await em.findOne(Membership, { where: { id } });
-    if (!m || (organisationId && m.organisationId !== organisationId)) throw notFound('The membership');
+    if (!m || (organisationId && m.organisationId !== organisationId))
+      throw notFound('The membership');
     await em.update(Membership, { id }, { isManager });
     await audit(em, actor.id, 'membership.updated', 'membership', id, { isManager });
     return getMembershipDto(em, id);
   });
 }
 
-export async function deleteMembership(ctx: AppContext, actor: SessionUser, id: string, organisationId?: string): Promise<void> {
+export async function deleteMembership(
+  ctx: AppContext,
+  actor: SessionUser,
+  id: string,
+  organisationId?: string,
+): Promise<void> {
   await ctx.ds.transaction(async (em) => {
     const m = await em.findOne(Membership, { where: { id } });
-    if (!m || (organisationId && m.organisationId !== organisationId)) throw notFound('The membership');
+    if (!m || (organisationId && m.organisationId !== organisationId))
+      throw notFound('The membership');
     if (organisationId && m.userId === actor.id) {
-      throw ruleBroken('self_removal', 'You cannot remove yourself from the lab; ask another manager.');
+      throw ruleBroken(
+        'self_removal',
+        'You cannot remove yourself from the lab; ask another manager.',
+      );
     }
     await em.delete(Membership, { id });
-    await audit(em, actor.id, 'membership.deleted', 'membership', id, { userId: m.userId, organisationId: m.organisationId });
+    await audit(em, actor.id, 'membership.deleted', 'membership', id, {
+      userId: m.userId,
+      organisationId: m.organisationId,
+    });
   });
 }
 
@@ -305,20 +414,38 @@ export async function inviteLabMember(
     if (!lab) throw notFound('The lab');
     const user = await em.findOne(User, { where: { email: input.email } });
     if (!user) {
-      const created = await em.save(User, em.create(User, { email: input.email, name: input.name, roles: [], passwordHash: null }));
+      const created = await em.save(
+        User,
+        em.create(User, { email: input.email, name: input.name, roles: [], passwordHash: null }),
+      );
       const token = await issuePasswordToken(em, created.id, 'first-password');
-      await audit(em, actor.id, 'user.invited', 'user', created.id, { email: input.email, organisationId });
-      const m = await em.save(Membership, em.create(Membership, { userId: created.id, organisationId, isManager: input.isManager }));
-      await audit(em, actor.id, 'membership.created', 'membership', m.id, { userId: created.id, organisationId });
+      await audit(em, actor.id, 'user.invited', 'user', created.id, {
+        email: input.email,
+        organisationId,
+      });
+      const m = await em.save(
+        Membership,
+        em.create(Membership, { userId: created.id, organisationId, isManager: input.isManager }),
+      );
+      await audit(em, actor.id, 'membership.created', 'membership', m.id, {
+        userId: created.id,
+        organisationId,
+      });
       return {
-        result: { outcome: 'member-added' as const, membership: await getMembershipDto(em, m.id), invitation: null },
+        result: {
+          outcome: 'member-added' as const,
+          membership: await getMembershipDto(em, m.id),
+          invitation: null,
+        },
         mail: { kind: 'account' as const, user: created, token },
       };
     }
     if (user.roles.some((r) => STAFF_ROLES.includes(r))) {
-      throw ruleBroken('staff_account', 'email: this address belongs to a PT provider staff account (admin, coordinator or assessor), which cannot be a lab member.', [
-        { path: 'email', message: 'A PT provider staff account cannot be a lab member.' },
-      ]);
+      throw ruleBroken(
+        'staff_account',
+        'email: this address belongs to a PT provider staff account (admin, coordinator or assessor), which cannot be a lab member.',
+        [{ path: 'email', message: 'A PT provider staff account cannot be a lab member.' }],
+      );
     }
     if (await em.findOne(Membership, { where: { userId: user.id, organisationId } })) {
       throw conflict('already_member', `${input.email} is already a member of this lab.`);
@@ -334,9 +461,17 @@ export async function inviteLabMember(
       [organisationId, user.id, input.isManager, actor.id, LAB_INVITATION_DAYS],
     );
     const invitationId = inserted[0]!.id;
-    await audit(em, actor.id, 'lab-invitation.created', 'organisation', organisationId, { invitationId, userId: user.id, isManager: input.isManager });
+    await audit(em, actor.id, 'lab-invitation.created', 'organisation', organisationId, {
+      invitationId,
+      userId: user.id,
+      isManager: input.isManager,
+    });
     return {
-      result: { outcome: 'invitation-sent' as const, membership: null, invitation: invitationDto((await getInvitation(em, invitationId))!) },
+      result: {
+        outcome: 'invitation-sent' as const,
+        membership: null,
+        invitation: invitationDto((await getInvitation(em, invitationId))!),
+      },
       mail: { kind: 'invitation' as const, user, lab, inviter: actor.name },
     };
   });
@@ -360,7 +495,10 @@ export async function inviteLabMember(
 }
 
 /** The open invitations of one lab (lab managers see whom they invited). */
-export async function listLabInvitations(em: EntityManager, organisationId: string): Promise<LabInvitationDto[]> {
+export async function listLabInvitations(
+  em: EntityManager,
+  organisationId: string,
+): Promise<LabInvitationDto[]> {
   const rows: InvitationRow[] = await em.query(
     `${INVITATION_SELECT} WHERE i.organisation_id = $1 AND i.answered_at IS NULL AND i.expires_at > now() ORDER BY i.created_at DESC`,
     [organisationId],
@@ -369,7 +507,12 @@ export async function listLabInvitations(em: EntityManager, organisationId: stri
 }
 
 /** A lab manager withdraws an open invitation of their lab. */
-export async function withdrawLabInvitation(ctx: AppContext, actor: SessionUser, organisationId: string, id: string): Promise<void> {
+export async function withdrawLabInvitation(
+  ctx: AppContext,
+  actor: SessionUser,
+  organisationId: string,
+  id: string,
+): Promise<void> {
   await ctx.ds.transaction(async (em) => {
     const rows: unknown = await em.query(
       `UPDATE lab_invitation SET answered_at = now(), answer = 'withdrawn' WHERE id = $1 AND organisation_id = $2 AND answered_at IS NULL RETURNING id`,
@@ -377,12 +520,17 @@ export async function withdrawLabInvitation(ctx: AppContext, actor: SessionUser,
     );
     const list = Array.isArray(rows) && Array.isArray(rows[0]) ? rows[0] : rows;
     if (!Array.isArray(list) || list.length === 0) throw notFound('The invitation');
-    await audit(em, actor.id, 'lab-invitation.withdrawn', 'organisation', organisationId, { invitationId: id });
+    await audit(em, actor.id, 'lab-invitation.withdrawn', 'organisation', organisationId, {
+      invitationId: id,
+    });
   });
 }
 
 /** My open lab invitations. */
-export async function listMyInvitations(em: EntityManager, userId: string): Promise<LabInvitationDto[]> {
+export async function listMyInvitations(
+  em: EntityManager,
+  userId: string,
+): Promise<LabInvitationDto[]> {
   const rows: InvitationRow[] = await em.query(
     `${INVITATION_SELECT} WHERE i.user_id = $1 AND i.answered_at IS NULL AND i.expires_at > now() ORDER BY i.created_at DESC`,
     [userId],
@@ -394,26 +542,60 @@ export async function listMyInvitations(em: EntityManager, userId: string): Prom
  * Accepts or declines one of my open invitations (another person's, an answered or an expired
  * one answers 404). Accepting creates the membership.
  */
-export async function answerInvitation(ctx: AppContext, user: SessionUser, id: string, accept: boolean): Promise<void> {
+export async function answerInvitation(
+  ctx: AppContext,
+  user: SessionUser,
+  id: string,
+  accept: boolean,
+): Promise<void> {
   await ctx.ds.transaction(async (em) => {
     const rows: (InvitationRow & { answered_at: Date | null })[] = await em.query(
       `SELECT i.*, NULL AS organisation_name FROM lab_invitation i WHERE i.id = $1 AND i.user_id = $2 FOR UPDATE`,
       [id, user.id],
     );
     const inv = rows[0];
-    if (!inv || inv.answered_at || inv.expires_at.getTime() <= Date.now()) throw notFound('The invitation');
+    if (!inv || inv.answered_at || inv.expires_at.getTime() <= Date.now())
+      throw notFound('The invitation');
     if (accept) {
       const account = await em.findOneOrFail(User, { where: { id: user.id } });
       if (account.roles.some((r) => STAFF_ROLES.includes(r))) {
-        throw ruleBroken('staff_account', 'A PT provider staff account (admin, coordinator or assessor) cannot be a lab member.');
+        throw ruleBroken(
+          'staff_account',
+          'A PT provider staff account (admin, coordinator or assessor) cannot be a lab member.',
+        );
       }
-      if (!(await em.findOne(Membership, { where: { userId: user.id, organisationId: inv.organisation_id } }))) {
-        const m = await em.save(Membership, em.create(Membership, { userId: user.id, organisationId: inv.organisation_id, isManager: inv.is_manager }));
-        await audit(em, user.id, 'membership.created', 'membership', m.id, { userId: user.id, organisationId: inv.organisation_id, invitationId: id });
+      if (
+        !(await em.findOne(Membership, {
+          where: { userId: user.id, organisationId: inv.organisation_id },
+        }))
+      ) {
+        const m = await em.save(
+          Membership,
+          em.create(Membership, {
+            userId: user.id,
+            organisationId: inv.organisation_id,
+            isManager: inv.is_manager,
+          }),
+        );
+        await audit(em, user.id, 'membership.created', 'membership', m.id, {
+          userId: user.id,
+          organisationId: inv.organisation_id,
+          invitationId: id,
+        });
       }
     }
-    await em.query(`UPDATE lab_invitation SET answered_at = now(), answer = $2 WHERE id = $1`, [id, accept ? 'accepted' : 'declined']);
-    await audit(em, user.id, accept ? 'lab-invitation.accepted' : 'lab-invitation.declined', 'organisation', inv.organisation_id, { invitationId: id });
+    await em.query(`UPDATE lab_invitation SET answered_at = now(), answer = $2 WHERE id = $1`, [
+      id,
+      accept ? 'accepted' : 'declined',
+    ]);
+    await audit(
+      em,
+      user.id,
+      accept ? 'lab-invitation.accepted' : 'lab-invitation.declined',
+      'organisation',
+      inv.organisation_id,
+      { invitationId: id },
+    );
   });
   forgetSessionUser(user.id);
 }

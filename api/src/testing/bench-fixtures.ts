@@ -26,16 +26,23 @@ export interface BenchRoundSpec {
  * A round ready for the Lab bench, inserted directly with the entities (no coordinator routes):
  * items A, B…, measurands z_average (nm) and pdi, each with the required replicates.
  */
-export async function createBenchRound(ds: DataSource, spec: BenchRoundSpec = {}): Promise<BenchRound> {
+export async function createBenchRound(
+  ds: DataSource,
+  spec: BenchRoundSpec = {},
+): Promise<BenchRound> {
   const code = spec.code ?? `LB-${randomUUID().slice(0, 8)}`;
-  const scheme = await ds.getRepository(Scheme).save({ code: `S-${code}`, name: 'Nanoparticle sizing by DLS' });
+  const scheme = await ds
+    .getRepository(Scheme)
+    .save({ code: `S-${code}`, name: 'Nanoparticle sizing by DLS' });
   const round = await ds.getRepository(Round).save({
     schemeId: scheme.id,
     code,
     title: `Sizing round ${code}`,
     state: spec.state ?? 'collecting',
-    resultsDueAt: spec.resultsDueAt === undefined ? new Date(Date.now() + 7 * 86400_000) : spec.resultsDueAt,
-    instructions: 'Equilibrate each item at the protocol temperature for 10 min. Measure three runs per item.',
+    resultsDueAt:
+      spec.resultsDueAt === undefined ? new Date(Date.now() + 7 * 86400_000) : spec.resultsDueAt,
+    instructions:
+      'Equilibrate each item at the protocol temperature for 10 min. Measure three runs per item.',
     protocolTemperatureC: spec.protocolTemperatureC ?? 25,
   });
   const sizes = spec.nominalSizes ?? [100, 60];
@@ -56,32 +63,63 @@ export async function createBenchRound(ds: DataSource, spec: BenchRoundSpec = {}
   const replicates = spec.replicates ?? 3;
   const rule = { kind: 'fixed', value: 1 };
   const zAverage = await ds.getRepository(Measurand).save({
-    roundId: round.id, key: 'z_average', name: 'Z-average', unit: 'nm', decimals: 1, replicatesRequired: replicates,
-    sigmaPtRule: rule, assignedValueRule: { kind: 'consensus' }, position: 0,
+    roundId: round.id,
+    key: 'z_average',
+    name: 'Z-average',
+    unit: 'nm',
+    decimals: 1,
+    replicatesRequired: replicates,
+    sigmaPtRule: rule,
+    assignedValueRule: { kind: 'consensus' },
+    position: 0,
   });
   const pdi = await ds.getRepository(Measurand).save({
-    roundId: round.id, key: 'pdi', name: 'PDI', unit: '1', decimals: 3, replicatesRequired: replicates,
-    sigmaPtRule: rule, assignedValueRule: { kind: 'consensus' }, position: 1,
+    roundId: round.id,
+    key: 'pdi',
+    name: 'PDI',
+    unit: '1',
+    decimals: 3,
+    replicatesRequired: replicates,
+    sigmaPtRule: rule,
+    assignedValueRule: { kind: 'consensus' },
+    position: 1,
   });
   return { round, items, zAverage, pdi };
 }
 
 /** Enrols a lab with a participant code (and a dispatched shipment). */
-export async function enrol(ds: DataSource, roundId: string, labId: string, participantCode: string, extensionUntil: Date | null = null): Promise<Enrolment> {
-  const e = await ds.getRepository(Enrolment).save({ roundId, organisationId: labId, participantCode, extensionUntil });
-  await ds.getRepository(Shipment).save({ enrolmentId: e.id, dispatchedOn: new Date().toISOString().slice(0, 10) });
+export async function enrol(
+  ds: DataSource,
+  roundId: string,
+  labId: string,
+  participantCode: string,
+  extensionUntil: Date | null = null,
+): Promise<Enrolment> {
+  const e = await ds
+    .getRepository(Enrolment)
+    .save({ roundId, organisationId: labId, participantCode, extensionUntil });
+  await ds
+    .getRepository(Shipment)
+    .save({ enrolmentId: e.id, dispatchedOn: new Date().toISOString().slice(0, 10) });
   return e;
 }
 
 /** Complete, clean results for every item (three runs near the nominal size, water at 25 °C). */
-export function cleanResults(r: BenchRound, overrides: Partial<SubmissionData> = {}): SubmissionData {
+export function cleanResults(
+  r: BenchRound,
+  overrides: Partial<SubmissionData> = {},
+): SubmissionData {
   return {
     items: r.items.map((item) => {
       const n = item.nominalSizeNm ?? 100;
       return {
         testItemId: item.id,
         results: [
-          { measurandId: r.zAverage.id, replicates: [1.02, 1.025, 1.03].map((f) => Math.round(n * f * 10) / 10), uncertainty: { kind: 'expanded', value: 2, k: 2 } },
+          {
+            measurandId: r.zAverage.id,
+            replicates: [1.02, 1.025, 1.03].map((f) => Math.round(n * f * 10) / 10),
+            uncertainty: { kind: 'expanded', value: 2, k: 2 },
+          },
           { measurandId: r.pdi.id, replicates: [0.05, 0.055, 0.06], uncertainty: null },
         ],
         conditions: {

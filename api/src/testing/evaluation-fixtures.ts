@@ -5,7 +5,16 @@
  * (mulberry32, shared/stats), so every run builds the same round. Invented data only.
  */
 import type { DataSource, EntityManager } from 'typeorm';
-import { Enrolment, Measurand, Organisation, Round, Scheme, Submission, SubmissionVersion, TestItem } from '../../../db/entities';
+import {
+  Enrolment,
+  Measurand,
+  Organisation,
+  Round,
+  Scheme,
+  Submission,
+  SubmissionVersion,
+  TestItem,
+} from '../../../db/entities';
 import { mulberry32 } from '../../../shared/stats/synthetic-round';
 
 export interface EvaluationFixtureSpec {
@@ -32,12 +41,21 @@ export interface EvaluationFixture {
 
 let counter = 0;
 
-async function insertChunked<T>(em: EntityManager, target: new () => T, rows: object[], size = 500): Promise<void> {
-  for (let i = 0; i < rows.length; i += size) await em.insert(target, rows.slice(i, i + size) as never);
+async function insertChunked<T>(
+  em: EntityManager,
+  target: new () => T,
+  rows: object[],
+  size = 500,
+): Promise<void> {
+  for (let i = 0; i < rows.length; i += size)
+    await em.insert(target, rows.slice(i, i + size) as never);
 }
 
 /** Builds the round in one transaction (about 1 s for 1,000 labs on 2 cores). */
-export async function buildEvaluationFixture(ds: DataSource, spec: EvaluationFixtureSpec): Promise<EvaluationFixture> {
+export async function buildEvaluationFixture(
+  ds: DataSource,
+  spec: EvaluationFixtureSpec,
+): Promise<EvaluationFixture> {
   const rnd = mulberry32(spec.seed ?? 20250101);
   const normal = (): number => {
     const u = 1 - rnd();
@@ -47,28 +65,70 @@ export async function buildEvaluationFixture(ds: DataSource, spec: EvaluationFix
   const tag = `${Date.now().toString(36)}${(counter++).toString(36)}`;
   const prefix = spec.labPrefix ?? 'Fixture Lab';
   return ds.transaction(async (em) => {
-    const scheme = await em.save(Scheme, em.create(Scheme, { code: `FX-${tag}`, name: 'Nanoparticle sizing by DLS (fixture)' }));
+    const scheme = await em.save(
+      Scheme,
+      em.create(Scheme, { code: `FX-${tag}`, name: 'Nanoparticle sizing by DLS (fixture)' }),
+    );
     const round = await em.save(
       Round,
-      em.create(Round, { schemeId: scheme.id, code: `FX-${tag}-R1`, title: 'Fixture round: latex spheres', state: spec.state ?? 'closed' }),
+      em.create(Round, {
+        schemeId: scheme.id,
+        code: `FX-${tag}-R1`,
+        title: 'Fixture round: latex spheres',
+        state: spec.state ?? 'closed',
+      }),
     );
     const items = [
-      await em.save(TestItem, em.create(TestItem, { roundId: round.id, code: 'A', material: 'polystyrene latex, 100 nm nominal', nominalSizeNm: 100, position: 0 })),
-      await em.save(TestItem, em.create(TestItem, { roundId: round.id, code: 'B', material: 'polystyrene latex, 200 nm nominal', nominalSizeNm: 200, position: 1 })),
+      await em.save(
+        TestItem,
+        em.create(TestItem, {
+          roundId: round.id,
+          code: 'A',
+          material: 'polystyrene latex, 100 nm nominal',
+          nominalSizeNm: 100,
+          position: 0,
+        }),
+      ),
+      await em.save(
+        TestItem,
+        em.create(TestItem, {
+          roundId: round.id,
+          code: 'B',
+          material: 'polystyrene latex, 200 nm nominal',
+          nominalSizeNm: 200,
+          position: 1,
+        }),
+      ),
     ];
     const measurands = [
       await em.save(
         Measurand,
         em.create(Measurand, {
-          roundId: round.id, key: 'z_average', name: 'Z-average', unit: 'nm', decimals: 1, replicatesRequired: 3,
-          sigmaPtRule: { kind: 'robust-sd' }, assignedValueRule: { kind: 'consensus' }, minParticipants: 12, position: 0,
+          roundId: round.id,
+          key: 'z_average',
+          name: 'Z-average',
+          unit: 'nm',
+          decimals: 1,
+          replicatesRequired: 3,
+          sigmaPtRule: { kind: 'robust-sd' },
+          assignedValueRule: { kind: 'consensus' },
+          minParticipants: 12,
+          position: 0,
         }),
       ),
       await em.save(
         Measurand,
         em.create(Measurand, {
-          roundId: round.id, key: 'pdi', name: 'PDI', unit: '', decimals: 3, replicatesRequired: 3,
-          sigmaPtRule: { kind: 'robust-sd' }, assignedValueRule: { kind: 'consensus' }, minParticipants: 12, position: 1,
+          roundId: round.id,
+          key: 'pdi',
+          name: 'PDI',
+          unit: '',
+          decimals: 3,
+          replicatesRequired: 3,
+          sigmaPtRule: { kind: 'robust-sd' },
+          assignedValueRule: { kind: 'consensus' },
+          minParticipants: 12,
+          position: 1,
         }),
       ),
     ];
@@ -86,7 +146,9 @@ export async function buildEvaluationFixture(ds: DataSource, spec: EvaluationFix
       .getMany();
     labs.sort((a, b) => a.name.localeCompare(b.name));
     // Participant codes are shuffled against lab order, as a provider would assign them.
-    const codes = labs.map((_, i) => `P${String(((i * 7919) % spec.participants) + 1).padStart(width, '0')}`);
+    const codes = labs.map(
+      (_, i) => `P${String(((i * 7919) % spec.participants) + 1).padStart(width, '0')}`,
+    );
     await insertChunked(
       em,
       Enrolment,
@@ -109,19 +171,35 @@ export async function buildEvaluationFixture(ds: DataSource, spec: EvaluationFix
           const target = mi === 0 ? 100 * (ii + 1) : 0.05 + 0.02 * ii;
           let labMean = target * (1 + (mi === 0 ? 0.02 : 0.1) * normal());
           if (mi === 0 && ii === 0 && spec.blunders?.[li]) labMean *= spec.blunders[li]!;
-          const reps = [0, 1, 2].map(() => Number((labMean * (1 + (mi === 0 ? 0.005 : 0.02) * normal())).toFixed(mi === 0 ? 2 : 4)));
+          const reps = [0, 1, 2].map(() =>
+            Number(
+              (labMean * (1 + (mi === 0 ? 0.005 : 0.02) * normal())).toFixed(mi === 0 ? 2 : 4),
+            ),
+          );
           perMeasurand.push(reps);
           results.push({
             measurandId: m.id,
             replicates: reps,
-            uncertainty: spec.withUncertainty ? { kind: 'expanded', value: Number(((mi === 0 ? 0.04 : 0.2) * target).toFixed(4)), k: 2 } : null,
+            uncertainty: spec.withUncertainty
+              ? {
+                  kind: 'expanded',
+                  value: Number(((mi === 0 ? 0.04 : 0.2) * target).toFixed(4)),
+                  k: 2,
+                }
+              : null,
           });
         });
         perItem.push(perMeasurand);
         data.items.push({ testItemId: item.id, results, conditions: {}, methodNotes: '' });
       });
       values.push(perItem);
-      submissions.push({ enrolmentId: ordered[li]!.id, state: 'submitted', draft: data, currentVersion: 1, submittedAt: new Date() });
+      submissions.push({
+        enrolmentId: ordered[li]!.id,
+        state: 'submitted',
+        draft: data,
+        currentVersion: 1,
+        submittedAt: new Date(),
+      });
       versions.push({ enrolmentIndex: li, data });
     });
     await insertChunked(em, Submission, submissions);
@@ -133,7 +211,11 @@ export async function buildEvaluationFixture(ds: DataSource, spec: EvaluationFix
     await insertChunked(
       em,
       SubmissionVersion,
-      versions.map((v) => ({ submissionId: subByEnrolment.get(ordered[v.enrolmentIndex]!.id)!, version: 1, data: v.data })),
+      versions.map((v) => ({
+        submissionId: subByEnrolment.get(ordered[v.enrolmentIndex]!.id)!,
+        version: 1,
+        data: v.data,
+      })),
     );
     return { round, items, measurands, labs, enrolments: ordered, values };
   });

@@ -46,7 +46,12 @@ export async function startTestApp(overrides: Partial<AppConfig> = {}): Promise<
   const smtp = await startSmtpFake(db.ds);
   const config = testConfig(overrides);
   const mailer = createMailer(config, smtp, { providerName: () => providerName(db.ds.manager) });
-  const app = createApp({ ds: db.ds, config, mailer, log: process.env['RINGLET_TEST_LOG'] ? undefined : () => undefined });
+  const app = createApp({
+    ds: db.ds,
+    config,
+    mailer,
+    log: process.env['RINGLET_TEST_LOG'] ? undefined : () => undefined,
+  });
   return {
     ...app,
     db,
@@ -77,13 +82,17 @@ export async function createUser(ds: DataSource, spec: TestUserSpec): Promise<Us
     passwordHash: await testHash(),
   });
   if (spec.lab) {
-    await ds.getRepository(Membership).insert({ userId: user.id, organisationId: spec.lab, isManager: spec.manager ?? false });
+    await ds
+      .getRepository(Membership)
+      .insert({ userId: user.id, organisationId: spec.lab, isManager: spec.manager ?? false });
   }
   return user;
 }
 
 export async function createLab(ds: DataSource, name: string): Promise<Organisation> {
-  return ds.getRepository(Organisation).save({ name, kind: 'lab', country: null, contactEmail: null });
+  return ds
+    .getRepository(Organisation)
+    .save({ name, kind: 'lab', country: null, contactEmail: null });
 }
 
 /** A supertest agent (keeps cookies) with the CSRF token of its session. */
@@ -109,9 +118,17 @@ export async function client(app: TestApp): Promise<Client> {
 }
 
 /** Signs in through the real route and returns a client holding the new session's CSRF token. */
-export async function signedIn(app: TestApp, email: string, password = TEST_PASSWORD): Promise<Client> {
+export async function signedIn(
+  app: TestApp,
+  email: string,
+  password = TEST_PASSWORD,
+): Promise<Client> {
   const c = await client(app);
-  await c.agent.post('/api/v1/auth/sign-in').set('x-csrf-token', c.csrf).send({ email, password }).expect(200);
+  await c.agent
+    .post('/api/v1/auth/sign-in')
+    .set('x-csrf-token', c.csrf)
+    .send({ email, password })
+    .expect(200);
   await c.refreshCsrf();
   return c;
 }

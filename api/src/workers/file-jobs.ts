@@ -11,7 +11,8 @@ import { scanXlsx } from './sheet-scan';
  */
 
 /** A cell as read: a value, or a formula with the result the spreadsheet last saved. */
-export type CellOut = string | number | boolean | null | { formula: string; result: string | number | boolean | null };
+export type CellOut =
+  string | number | boolean | null | { formula: string; result: string | number | boolean | null };
 
 export interface SheetOut {
   name: string;
@@ -44,11 +45,18 @@ export interface TextJobResult {
 export async function runJob(job: FileJob): Promise<unknown> {
   switch (job.type) {
     case 'xlsx':
-      return readXlsx(Buffer.from(job.data.buffer, job.data.byteOffset, job.data.byteLength), job.limit);
+      return readXlsx(
+        Buffer.from(job.data.buffer, job.data.byteOffset, job.data.byteLength),
+        job.limit,
+      );
     case 'text': {
       // The bytes go back with the answer (transferred, not copied), with their checksum.
       const buf = Buffer.from(job.data.buffer, job.data.byteOffset, job.data.byteLength);
-      const result: TextJobResult = { class: classifyText(buf, job.maxCorrelationRows), sha256: createHash('sha256').update(buf).digest('hex'), bytes: job.data };
+      const result: TextJobResult = {
+        class: classifyText(buf, job.maxCorrelationRows),
+        sha256: createHash('sha256').update(buf).digest('hex'),
+        bytes: job.data,
+      };
       return result;
     }
     case 'exhaust-memory': {
@@ -70,7 +78,8 @@ function plain(v: unknown): string | number | boolean | null {
   if (isDate(v)) return v.toISOString();
   if (typeof v === 'object') {
     if ('error' in v) return String((v as { error: string }).error);
-    if ('richText' in v) return (v as ExcelJS.CellRichTextValue).richText.map((t) => t.text).join('');
+    if ('richText' in v)
+      return (v as ExcelJS.CellRichTextValue).richText.map((t) => t.text).join('');
     if ('text' in v) return plain((v as { text: unknown }).text);
   }
   return String(v);
@@ -92,7 +101,11 @@ export async function readXlsx(buf: Buffer, limit: SheetLimit): Promise<{ sheets
   try {
     await wb.xlsx.load(buf as unknown as ArrayBuffer);
   } catch {
-    throw new FileRefusal(400, 'workbook_unreadable', 'file: the workbook could not be read. Save it again as .xlsx and upload that file.');
+    throw new FileRefusal(
+      400,
+      'workbook_unreadable',
+      'file: the workbook could not be read. Save it again as .xlsx and upload that file.',
+    );
   }
   const sheets = wb.worksheets.map((ws) => {
     const rows: [number, CellOut[]][] = [];

@@ -11,13 +11,20 @@ parentPort!.on('message', (msg: { id: number; job: FileJob }) => {
   runJob(msg.job).then(
     (result) => {
       const bytes = (result as { bytes?: unknown } | null)?.bytes;
-      parentPort!.postMessage({ id: msg.id, ok: true, result }, bytes instanceof Uint8Array ? [bytes.buffer as ArrayBuffer] : []);
+      parentPort!.postMessage(
+        { id: msg.id, ok: true, result },
+        bytes instanceof Uint8Array ? [bytes.buffer as ArrayBuffer] : [],
+      );
     },
     (err: unknown) => {
       const refusal =
         err instanceof FileRefusal
           ? err.toJSON()
-          : { status: 422, code: 'file_unreadable', message: `file: the file could not be read (${err instanceof Error ? err.message : String(err)}).` };
+          : {
+              status: 422,
+              code: 'file_unreadable',
+              message: `file: the file could not be read (${err instanceof Error ? err.message : String(err)}).`,
+            };
       parentPort!.postMessage({ id: msg.id, ok: false, refusal });
     },
   );

@@ -17,7 +17,10 @@ export const UPLOAD_WORKERS = 2;
 /** Jobs that may wait for a thread before further uploads answer 503. */
 export const UPLOAD_QUEUE = 8;
 /** Each thread's memory limits (V8 heap; the file's bytes and native buffers come on top). */
-export const UPLOAD_WORKER_LIMITS: ResourceLimits = { maxOldGenerationSizeMb: 192, maxYoungGenerationSizeMb: 32 };
+export const UPLOAD_WORKER_LIMITS: ResourceLimits = {
+  maxOldGenerationSizeMb: 192,
+  maxYoungGenerationSizeMb: 32,
+};
 const IDLE_MS = 30_000;
 
 interface Slot {
@@ -38,7 +41,10 @@ function spawnWorker(): Worker {
   const ext = extname(__filename);
   const entry = join(__dirname, `file-worker${ext}`);
   // Resolved here, so the thread finds tsx whatever the working directory.
-  const code = ext === '.ts' ? `require(${JSON.stringify(require.resolve('tsx/cjs/api'))}).register(); require(${JSON.stringify(entry)});` : `require(${JSON.stringify(entry)});`;
+  const code =
+    ext === '.ts'
+      ? `require(${JSON.stringify(require.resolve('tsx/cjs/api'))}).register(); require(${JSON.stringify(entry)});`
+      : `require(${JSON.stringify(entry)});`;
   return new Worker(code, { eval: true, execArgv: [], resourceLimits: UPLOAD_WORKER_LIMITS });
 }
 
@@ -50,13 +56,29 @@ function spawn(): Slot {
     retire(slot);
     p?.reject(err);
   };
-  slot.worker.on('message', (msg: { id?: number; ok?: boolean; result?: unknown; refusal?: { status: number; code: string; message: string; details?: unknown } }) => {
-    if (msg.id === undefined || msg.id !== slot.pending?.id) return;
-    const p = slot.pending;
-    slot.pending = undefined;
-    if (msg.ok) p.resolve(msg.result);
-    else p.reject(new HttpError(msg.refusal!.status, msg.refusal!.code, msg.refusal!.message, msg.refusal!.details));
-  });
+  slot.worker.on(
+    'message',
+    (msg: {
+      id?: number;
+      ok?: boolean;
+      result?: unknown;
+      refusal?: { status: number; code: string; message: string; details?: unknown };
+    }) => {
+      if (msg.id === undefined || msg.id !== slot.pending?.id) return;
+      const p = slot.pending;
+      slot.pending = undefined;
+      if (msg.ok) p.resolve(msg.result);
+      else
+        p.reject(
+          new HttpError(
+            msg.refusal!.status,
+            msg.refusal!.code,
+            msg.refusal!.message,
+            msg.refusal!.details,
+          ),
+        );
+    },
+  );
   slot.worker.on('error', (err: Error & { code?: string }) => die(err));
   slot.worker.on('exit', () => die(new Error('the upload worker stopped')));
   slots.push(slot);
@@ -91,7 +113,11 @@ async function acquire(): Promise<Slot> {
       return s;
     }
     if (waiting.length >= UPLOAD_QUEUE) {
-      throw new HttpError(503, 'uploads_busy', 'Many files are being read right now. Try the upload again in a minute.');
+      throw new HttpError(
+        503,
+        'uploads_busy',
+        'Many files are being read right now. Try the upload again in a minute.',
+      );
     }
     await new Promise<void>((resolve) => waiting.push(resolve));
   }
@@ -114,7 +140,11 @@ function release(slot: Slot): void {
  * Refusals from the job keep their status (413 limit passed, 422 unreadable); a thread that runs
  * out of memory answers 413 and one that runs out of time 422.
  */
-export async function runInWorker<T>(job: FileJob, label: string, timeoutMs = UPLOAD_WORK_TIMEOUT_MS): Promise<T> {
+export async function runInWorker<T>(
+  job: FileJob,
+  label: string,
+  timeoutMs = UPLOAD_WORK_TIMEOUT_MS,
+): Promise<T> {
   const slot = await acquire();
   const id = nextId++;
   let timer: NodeJS.Timeout | undefined;
@@ -122,7 +152,14 @@ export async function runInWorker<T>(job: FileJob, label: string, timeoutMs = UP
     return (await new Promise<unknown>((resolve, reject) => {
       slot.pending = { id, resolve, reject };
       timer = setTimeout(() => {
-        reject(new HttpError(422, 'file_too_complex', `file: reading the ${label} took longer than ${Math.round(timeoutMs / 1000)} s; send a smaller or simpler file.`, [{ path: 'file', message: 'Took too long to read.' }]));
+        reject(
+          new HttpError(
+            422,
+            'file_too_complex',
+            `file: reading the ${label} took longer than ${Math.round(timeoutMs / 1000)} s; send a smaller or simpler file.`,
+            [{ path: 'file', message: 'Took too long to read.' }],
+          ),
+        );
         slot.pending = undefined;
         retire(slot);
         void slot.worker.terminate();
@@ -134,9 +171,16 @@ export async function runInWorker<T>(job: FileJob, label: string, timeoutMs = UP
       const code = (err as { code?: string }).code;
       if (code === 'ERR_WORKER_OUT_OF_MEMORY') {
         const mb = (UPLOAD_WORKER_LIMITS.maxOldGenerationSizeMb ?? 0) * 1024 * 1024;
-        throw new HttpError(413, 'file_too_complex', `file: reading the ${label} needs more than ${formatBytes(mb)} of memory; send a smaller file.`, [{ path: 'file', message: 'Too large to read.' }]);
+        throw new HttpError(
+          413,
+          'file_too_complex',
+          `file: reading the ${label} needs more than ${formatBytes(mb)} of memory; send a smaller file.`,
+          [{ path: 'file', message: 'Too large to read.' }],
+        );
       }
-      throw new HttpError(422, 'file_unreadable', `file: the ${label} could not be read.`, [{ path: 'file', message: 'Could not be read.' }]);
+      throw new HttpError(422, 'file_unreadable', `file: the ${label} could not be read.`, [
+        { path: 'file', message: 'Could not be read.' },
+      ]);
     })) as T;
   } finally {
     clearTimeout(timer);
@@ -147,7 +191,9 @@ export async function runInWorker<T>(job: FileJob, label: string, timeoutMs = UP
 /** A copy of the bytes that can be handed to a worker (transferred, not copied again). */
 export function transferable(buf: Buffer): Uint8Array {
   // ArrayBuffer.slice is one memcpy; `new Uint8Array(buffer)` copies element by element (seconds for 20 MB).
-  return new Uint8Array(buf.buffer.slice(buf.byteOffset, buf.byteOffset + buf.byteLength) as ArrayBuffer);
+  return new Uint8Array(
+    buf.buffer.slice(buf.byteOffset, buf.byteOffset + buf.byteLength) as ArrayBuffer,
+  );
 }
 
 /**
@@ -156,7 +202,9 @@ export function transferable(buf: Buffer): Uint8Array {
  * use the bytes the job hands back. A pooled (small) Buffer is copied.
  */
 export function handOver(buf: Buffer): Uint8Array {
-  return buf.byteOffset === 0 && buf.byteLength === buf.buffer.byteLength && buf.byteLength > 0 ? new Uint8Array(buf.buffer, 0, buf.byteLength) : transferable(buf);
+  return buf.byteOffset === 0 && buf.byteLength === buf.buffer.byteLength && buf.byteLength > 0
+    ? new Uint8Array(buf.buffer, 0, buf.byteLength)
+    : transferable(buf);
 }
 
 /** Ends every upload worker (tests, shutdown). */

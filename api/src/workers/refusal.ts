@@ -13,6 +13,11 @@ export class FileRefusal extends Error {
   }
 
   toJSON(): { status: number; code: string; message: string; details?: unknown } {
-    return { status: this.status, code: this.code, message: this.message, ...(this.details !== undefined ? { details: this.details } : {}) };
+    return {
+      status: this.status,
+      code: this.code,
+      message: this.message,
+      ...(this.details !== undefined ? { details: this.details } : {}),
+    };
   }
 }

@@ -7,7 +7,10 @@ import { inflateEntry, listZipEntries, ZipError, type ZipEntry } from './zip';
  * (memory: one 64 KB chunk), counts the bytes it unpacks to and the rows and cells of each
  * worksheet, and refuses the file with a 413 naming the limit as soon as one is passed.
  */
-export async function scanXlsx(buf: Buffer, limit: SheetLimit): Promise<{ rows: number; cells: number; unpackedBytes: number }> {
+export async function scanXlsx(
+  buf: Buffer,
+  limit: SheetLimit,
+): Promise<{ rows: number; cells: number; unpackedBytes: number }> {
   let entries: ZipEntry[];
   try {
     entries = listZipEntries(buf);
@@ -123,7 +126,15 @@ async function sheetNames(buf: Buffer, entries: ZipEntry[]): Promise<Map<string,
       const name = /\bname="([^"]+)"/.exec(m[0])?.[1];
       const id = /\br:id="([^"]+)"/.exec(m[0])?.[1];
       const target = id ? targets.get(id) : undefined;
-      if (name && target) names.set(target, `"${name.replace(/&amp;/g, '&').replace(/&quot;/g, '"').replace(/&lt;/g, '<').replace(/&gt;/g, '>')}"`);
+      if (name && target)
+        names.set(
+          target,
+          `"${name
+            .replace(/&amp;/g, '&')
+            .replace(/&quot;/g, '"')
+            .replace(/&lt;/g, '<')
+            .replace(/&gt;/g, '>')}"`,
+        );
     }
   } catch {
     // names are for messages only
@@ -133,23 +144,36 @@ async function sheetNames(buf: Buffer, entries: ZipEntry[]): Promise<Map<string,
 
 function unreadable(err: unknown): FileRefusal {
   const why = err instanceof ZipError ? ` (${err.message})` : '';
-  return new FileRefusal(400, 'workbook_unreadable', `file: the workbook could not be read${why}. Save it again as .xlsx and upload that file.`);
+  return new FileRefusal(
+    400,
+    'workbook_unreadable',
+    `file: the workbook could not be read${why}. Save it again as .xlsx and upload that file.`,
+  );
 }
 
 function tooBigUnpacked(limit: SheetLimit): FileRefusal {
-  return new FileRefusal(413, 'file_too_large', `file: the ${limit.label} unpacks to more than ${formatBytes(limit.maxUnpackedBytes)}; the limit is ${formatBytes(limit.maxUnpackedBytes)} unpacked.`, [
-    { path: 'file', message: `At most ${formatBytes(limit.maxUnpackedBytes)} unpacked.` },
-  ]);
+  return new FileRefusal(
+    413,
+    'file_too_large',
+    `file: the ${limit.label} unpacks to more than ${formatBytes(limit.maxUnpackedBytes)}; the limit is ${formatBytes(limit.maxUnpackedBytes)} unpacked.`,
+    [{ path: 'file', message: `At most ${formatBytes(limit.maxUnpackedBytes)} unpacked.` }],
+  );
 }
 
 function tooManyRows(limit: SheetLimit, sheet: string): FileRefusal {
-  return new FileRefusal(413, 'too_many_rows', `file: sheet ${sheet} has more than ${formatCount(limit.maxRows)} rows; a ${limit.label} has at most ${formatCount(limit.maxRows)} rows per sheet.`, [
-    { path: 'file', message: `At most ${formatCount(limit.maxRows)} rows per sheet.` },
-  ]);
+  return new FileRefusal(
+    413,
+    'too_many_rows',
+    `file: sheet ${sheet} has more than ${formatCount(limit.maxRows)} rows; a ${limit.label} has at most ${formatCount(limit.maxRows)} rows per sheet.`,
+    [{ path: 'file', message: `At most ${formatCount(limit.maxRows)} rows per sheet.` }],
+  );
 }
 
 function tooManyCells(limit: SheetLimit): FileRefusal {
-  return new FileRefusal(413, 'too_many_cells', `file: the ${limit.label} has more than ${formatCount(limit.maxCells)} cells; the limit is ${formatCount(limit.maxCells)} cells.`, [
-    { path: 'file', message: `At most ${formatCount(limit.maxCells)} cells.` },
-  ]);
+  return new FileRefusal(
+    413,
+    'too_many_cells',
+    `file: the ${limit.label} has more than ${formatCount(limit.maxCells)} cells; the limit is ${formatCount(limit.maxCells)} cells.`,
+    [{ path: 'file', message: `At most ${formatCount(limit.maxCells)} cells.` }],
+  );
 }

@@ -38,13 +38,15 @@ export function listZipEntries(buf: Buffer, maxEntries = 10_000): ZipEntry[] {
   const count = buf.readUInt16LE(eocd + 10);
   const size = buf.readUInt32LE(eocd + 12);
   const offset = buf.readUInt32LE(eocd + 16);
-  if (count === 0xffff || offset === 0xffffffff) throw new ZipError('zip64 archives are not accepted');
+  if (count === 0xffff || offset === 0xffffffff)
+    throw new ZipError('zip64 archives are not accepted');
   if (count > maxEntries) throw new ZipError(`the zip has more than ${maxEntries} parts`);
   if (offset + size > eocd) throw new ZipError('the zip directory points outside the file');
   const entries: ZipEntry[] = [];
   let p = offset;
   for (let n = 0; n < count; n++) {
-    if (p + 46 > eocd || buf.readUInt32LE(p) !== CENTRAL) throw new ZipError('the zip directory is corrupt');
+    if (p + 46 > eocd || buf.readUInt32LE(p) !== CENTRAL)
+      throw new ZipError('the zip directory is corrupt');
     const flags = buf.readUInt16LE(p + 8);
     const method = buf.readUInt16LE(p + 10);
     const compressedSize = buf.readUInt32LE(p + 20);
@@ -55,9 +57,12 @@ export function listZipEntries(buf: Buffer, maxEntries = 10_000): ZipEntry[] {
     const localHeaderOffset = buf.readUInt32LE(p + 42);
     const name = buf.subarray(p + 46, p + 46 + nameLen).toString('utf8');
     if (flags & 1) throw new ZipError(`${name} is encrypted`);
-    if (method !== 0 && method !== 8) throw new ZipError(`${name} uses an unsupported compression method`);
-    if (compressedSize === 0xffffffff || uncompressedSize === 0xffffffff) throw new ZipError('zip64 archives are not accepted');
-    if (localHeaderOffset + 30 > buf.length) throw new ZipError('the zip directory points outside the file');
+    if (method !== 0 && method !== 8)
+      throw new ZipError(`${name} uses an unsupported compression method`);
+    if (compressedSize === 0xffffffff || uncompressedSize === 0xffffffff)
+      throw new ZipError('zip64 archives are not accepted');
+    if (localHeaderOffset + 30 > buf.length)
+      throw new ZipError('the zip directory points outside the file');
     entries.push({ name, method, compressedSize, uncompressedSize, localHeaderOffset });
     p += 46 + nameLen + extraLen + commentLen;
   }
@@ -78,7 +83,11 @@ function entryData(buf: Buffer, e: ZipEntry): Buffer {
  * Unpacks one entry as a stream of chunks; `onChunk` returns false to stop early (a limit was
  * reached). Memory stays at one chunk whatever the entry unpacks to.
  */
-export function inflateEntry(buf: Buffer, e: ZipEntry, onChunk: (chunk: Buffer) => boolean): Promise<void> {
+export function inflateEntry(
+  buf: Buffer,
+  e: ZipEntry,
+  onChunk: (chunk: Buffer) => boolean,
+): Promise<void> {
   const data = entryData(buf, e);
   if (e.method === 0) {
     onChunk(data);
@@ -97,7 +106,9 @@ export function inflateEntry(buf: Buffer, e: ZipEntry, onChunk: (chunk: Buffer) 
     });
     inflate.on('end', () => resolve());
     inflate.on('close', () => resolve());
-    inflate.on('error', (err) => (stopped ? resolve() : reject(new ZipError(`${e.name}: ${err.message}`))));
+    inflate.on('error', (err) =>
+      stopped ? resolve() : reject(new ZipError(`${e.name}: ${err.message}`)),
+    );
     inflate.end(data);
   });
 }

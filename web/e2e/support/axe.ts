@@ -18,8 +18,26 @@ export interface AxeViolation {
 export async function seriousViolations(page: Page): Promise<AxeViolation[]> {
   await page.evaluate(AXE_SOURCE);
   const result = await page.evaluate(async () => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: { id: string; impact: string | null; help: string; nodes: { target: string[] }[] }[] }> } }).axe;
-    const r = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] } });
+    const axe = (
+      window as unknown as {
+        axe: {
+          run: (
+            ctx: Document,
+            opts: object,
+          ) => Promise<{
+            violations: {
+              id: string;
+              impact: string | null;
+              help: string;
+              nodes: { target: string[] }[];
+            }[];
+          }>;
+        };
+      }
+    ).axe;
+    const r = await axe.run(document, {
+      runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] },
+    });
     return r.violations.map((v) => ({
       id: v.id,
       impact: v.impact,

@@ -65,7 +65,12 @@ export async function startE2E(): Promise<E2E> {
     async page() {
       // Reduced motion: Material then opens dialogs without an animation, so a dialog's autofocus
       // cannot land mid-way through a test typing into its second field on a loaded machine.
-      const ctx = await browser.newContext({ baseURL: baseUrl, viewport: { width: 1280, height: 860 }, acceptDownloads: true, reducedMotion: 'reduce' });
+      const ctx = await browser.newContext({
+        baseURL: baseUrl,
+        viewport: { width: 1280, height: 860 },
+        acceptDownloads: true,
+        reducedMotion: 'reduce',
+      });
       contexts.push(ctx);
       // A loaded 2-core CI machine runs browser and API tests side by side: be patient, not flaky.
       ctx.setDefaultTimeout(60_000);

@@ -24,7 +24,10 @@ export const appConfig: ApplicationConfig = {
     // The error interceptor is outermost, so it sees a request only after the CSRF retry.
     provideHttpClient(withFetch(), withInterceptors([errorInterceptor, csrfInterceptor])),
     { provide: ErrorHandler, useClass: AppErrorHandler },
-    { provide: MAT_FORM_FIELD_DEFAULT_OPTIONS, useValue: { appearance: 'outline', subscriptSizing: 'dynamic' } },
+    {
+      provide: MAT_FORM_FIELD_DEFAULT_OPTIONS,
+      useValue: { appearance: 'outline', subscriptSizing: 'dynamic' },
+    },
     provideAppInitializer(() => {
       // Icons come from the locally shipped Material Symbols font.
       inject(MatIconRegistry).setDefaultFontSetClass('material-symbols-outlined');

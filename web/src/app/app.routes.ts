@@ -1,5 +1,11 @@
 import type { Routes } from '@angular/router';
-import { authGuard, homeRedirectGuard, labManagerGuard, outboxGuard, roleGuard } from './core/auth.guards';
+import {
+  authGuard,
+  homeRedirectGuard,
+  labManagerGuard,
+  outboxGuard,
+  roleGuard,
+} from './core/auth.guards';
 
 export const routes: Routes = [
   { path: '', pathMatch: 'full', canActivate: [homeRedirectGuard], children: [] },
@@ -12,7 +18,8 @@ export const routes: Routes = [
   {
     path: 'bench/lab-members',
     canActivate: [authGuard, labManagerGuard],
-    loadChildren: () => import('./bench/lab-members/lab-members.routes').then((m) => m.LAB_MEMBERS_ROUTES),
+    loadChildren: () =>
+      import('./bench/lab-members/lab-members.routes').then((m) => m.LAB_MEMBERS_ROUTES),
   },
   {
     path: 'bench',

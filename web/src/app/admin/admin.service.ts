@@ -22,12 +22,16 @@ export class AdminService {
   private readonly http = inject(HttpClient);
 
   users(): Observable<User[]> {
-    return this.http.get<unknown>(`${API}/admin/users`).pipe(map((body) => z.array(User).parse(body)));
+    return this.http
+      .get<unknown>(`${API}/admin/users`)
+      .pipe(map((body) => z.array(User).parse(body)));
   }
 
   /** Creates the account and e-mails a first-password link. */
   inviteUser(invite: UserInvite): Observable<User> {
-    return this.http.post<unknown>(`${API}/admin/users`, invite, formCall).pipe(map((body) => User.parse(body)));
+    return this.http
+      .post<unknown>(`${API}/admin/users`, invite, formCall)
+      .pipe(map((body) => User.parse(body)));
   }
 
   updateUser(id: string, update: UserUpdate): Observable<User> {

@@ -50,7 +50,9 @@ import { GLOBAL_ROLE_LABELS, GLOBAL_ROLES } from './role-labels';
         @if (!user.hasPassword) {
           <p>
             No password set yet.
-            <button mat-button type="button" (click)="resendInvitation()" [disabled]="busy()">Resend invitation</button>
+            <button mat-button type="button" (click)="resendInvitation()" [disabled]="busy()">
+              Resend invitation
+            </button>
           </p>
         }
         @if (failure(); as message) {
@@ -85,7 +87,9 @@ export class EditUserDialog {
     this.admin.resendInvitation(this.user.id).subscribe({
       next: () => {
         this.busy.set(false);
-        this.snackBar.open(`A new link is on its way to ${this.user.email}.`, 'Close', { duration: 5000 });
+        this.snackBar.open(`A new link is on its way to ${this.user.email}.`, 'Close', {
+          duration: 5000,
+        });
       },
       error: () => this.busy.set(false),
     });

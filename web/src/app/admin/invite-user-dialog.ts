@@ -11,7 +11,12 @@ import { type GlobalRole } from '@ringlet/shared/contracts/auth';
 import { type Organisation, type User, UserInvite } from '@ringlet/shared/contracts/admin';
 import { Email } from '@ringlet/shared/contracts/common';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
-import { applyServerIssues, applyZodIssues, errorMessage, zodValidator } from '../core/zod-form-errors';
+import {
+  applyServerIssues,
+  applyZodIssues,
+  errorMessage,
+  zodValidator,
+} from '../core/zod-form-errors';
 import { AdminService } from './admin.service';
 import { GLOBAL_ROLE_LABELS, GLOBAL_ROLES } from './role-labels';
 
@@ -66,7 +71,9 @@ export interface InviteUserData {
           </mat-select>
           <mat-error>{{ errorMessage(form.controls.organisationId) }}</mat-error>
         </mat-form-field>
-        <mat-checkbox formControlName="isManager">Lab manager (can invite and remove colleagues)</mat-checkbox>
+        <mat-checkbox formControlName="isManager"
+          >Lab manager (can invite and remove colleagues)</mat-checkbox
+        >
         @if (failure(); as message) {
           <p class="form-error" role="alert">{{ message }}</p>
         }

@@ -1,6 +1,11 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { type AbstractControl, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import {
+  type AbstractControl,
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  Validators,
+} from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -10,14 +15,26 @@ import { type Organisation, OrganisationCreate } from '@ringlet/shared/contracts
 import { Email } from '@ringlet/shared/contracts/common';
 import { Observable } from 'rxjs';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
-import { applyServerIssues, applyZodIssues, errorMessage, zodValidator } from '../core/zod-form-errors';
+import {
+  applyServerIssues,
+  applyZodIssues,
+  errorMessage,
+  zodValidator,
+} from '../core/zod-form-errors';
 import { AdminService } from './admin.service';
 
 /** Create a lab (data null) or edit one. */
 @Component({
   selector: 'app-lab-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatButtonModule],
+  imports: [
+    ReactiveFormsModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    MatButtonModule,
+  ],
   template: `
     <h2 mat-dialog-title>{{ lab ? 'Edit ' + lab.name : 'New organisation' }}</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
@@ -50,7 +67,9 @@ import { AdminService } from './admin.service';
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="busy()">{{ lab ? 'Save' : 'Create lab' }}</button>
+        <button mat-flat-button type="submit" [disabled]="busy()">
+          {{ lab ? 'Save' : 'Create lab' }}
+        </button>
       </mat-dialog-actions>
     </form>
   `,
@@ -66,7 +85,10 @@ export class LabDialog {
     name: [this.lab?.name ?? '', [Validators.required]],
     kind: [this.lab?.kind ?? ('lab' as Organisation['kind'])],
     country: [this.lab?.country ?? ''],
-    contactEmail: [this.lab?.contactEmail ?? '', [(c: AbstractControl) => (c.value ? zodValidator(Email)(c) : null)]],
+    contactEmail: [
+      this.lab?.contactEmail ?? '',
+      [(c: AbstractControl) => (c.value ? zodValidator(Email)(c) : null)],
+    ],
   });
 
   protected submit(): void {

@@ -1,4 +1,12 @@
-import { ChangeDetectionStrategy, Component, OnInit, computed, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  OnInit,
+  computed,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -40,19 +48,31 @@ import { AdminService } from './admin.service';
         <ng-container matColumnDef="manager">
           <th mat-header-cell *matHeaderCellDef>Manager</th>
           <td mat-cell *matCellDef="let m">
-            <mat-slide-toggle [checked]="m.isManager" (change)="setManager(m, $event.checked)"
-              [aria-label]="'Manager: ' + m.userName" />
+            <mat-slide-toggle
+              [checked]="m.isManager"
+              (change)="setManager(m, $event.checked)"
+              [aria-label]="'Manager: ' + m.userName"
+            />
           </td>
         </ng-container>
         <ng-container matColumnDef="actions">
           <th mat-header-cell *matHeaderCellDef><span class="visually-hidden">Actions</span></th>
           <td mat-cell *matCellDef="let m">
-            <button mat-button type="button" (click)="remove(m)" [attr.aria-label]="'Remove ' + m.userName">Remove</button>
+            <button
+              mat-button
+              type="button"
+              (click)="remove(m)"
+              [attr.aria-label]="'Remove ' + m.userName"
+            >
+              Remove
+            </button>
           </td>
         </ng-container>
         <tr mat-header-row *matHeaderRowDef="columns"></tr>
         <tr mat-row *matRowDef="let row; columns: columns"></tr>
-        <tr class="mat-mdc-row" *matNoDataRow><td class="mat-mdc-cell" [attr.colspan]="columns.length">No members yet.</td></tr>
+        <tr class="mat-mdc-row" *matNoDataRow>
+          <td class="mat-mdc-cell" [attr.colspan]="columns.length">No members yet.</td>
+        </tr>
       </table>
 
       <h2>Add a member</h2>
@@ -72,9 +92,18 @@ import { AdminService } from './admin.service';
     </section>
   `,
   styles: `
-    .members { max-width: 900px; }
-    .add { display: flex; flex-wrap: wrap; gap: 12px; align-items: center; }
-    .add mat-form-field { min-width: 320px; }
+    .members {
+      max-width: 900px;
+    }
+    .add {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 12px;
+      align-items: center;
+    }
+    .add mat-form-field {
+      min-width: 320px;
+    }
   `,
 })
 export class LabMemberships implements OnInit {
@@ -96,7 +125,9 @@ export class LabMemberships implements OnInit {
   });
 
   ngOnInit(): void {
-    this.admin.organisations().subscribe((orgs) => this.lab.set(orgs.find((o) => o.id === this.id()) ?? null));
+    this.admin
+      .organisations()
+      .subscribe((orgs) => this.lab.set(orgs.find((o) => o.id === this.id()) ?? null));
     this.admin.memberships(this.id()).subscribe((members) => this.members.set(members));
     this.admin.users().subscribe((users) => this.users.set(users));
   }
@@ -107,23 +138,26 @@ export class LabMemberships implements OnInit {
       return;
     }
     const { userId, isManager } = this.form.getRawValue();
-    this.admin.addMembership({ userId, organisationId: this.id(), isManager }).subscribe((membership) => {
-      this.members.update((members) => [...members, membership]);
-      this.form.reset({ userId: '', isManager: false });
-    });
+    this.admin
+      .addMembership({ userId, organisationId: this.id(), isManager })
+      .subscribe((membership) => {
+        this.members.update((members) => [...members, membership]);
+        this.form.reset({ userId: '', isManager: false });
+      });
   }
 
   protected setManager(membership: Membership, isManager: boolean): void {
     this.admin.setManager(membership.id, isManager).subscribe({
-      next: (updated) => this.members.update((ms) => ms.map((m) => (m.id === updated.id ? updated : m))),
+      next: (updated) =>
+        this.members.update((ms) => ms.map((m) => (m.id === updated.id ? updated : m))),
       // Put the toggle back as the server has it.
       error: () => this.members.update((ms) => [...ms]),
     });
   }
 
   protected remove(membership: Membership): void {
-    this.admin.removeMembership(membership.id).subscribe(() =>
-      this.members.update((ms) => ms.filter((m) => m.id !== membership.id)),
-    );
+    this.admin
+      .removeMembership(membership.id)
+      .subscribe(() => this.members.update((ms) => ms.filter((m) => m.id !== membership.id)));
   }
 }

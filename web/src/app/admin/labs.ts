@@ -55,7 +55,14 @@ export class Labs implements OnInit {
   ];
 
   protected readonly columns: ColDef<Organisation>[] = [
-    { field: 'name', headerName: 'Name', flex: 1, minWidth: 180, filter: 'agTextColumnFilter', sort: 'asc' },
+    {
+      field: 'name',
+      headerName: 'Name',
+      flex: 1,
+      minWidth: 180,
+      filter: 'agTextColumnFilter',
+      sort: 'asc',
+    },
     {
       field: 'kind',
       headerName: 'Kind',
@@ -104,7 +111,8 @@ export class Labs implements OnInit {
       .open(LabDialog, { data: lab, width: '440px', maxWidth: '95vw' })
       .afterClosed()
       .subscribe((updated) => {
-        if (updated) this.labs.update((labs) => labs.map((l) => (l.id === updated.id ? updated : l)));
+        if (updated)
+          this.labs.update((labs) => labs.map((l) => (l.id === updated.id ? updated : l)));
       });
   }
 }

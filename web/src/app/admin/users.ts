@@ -18,7 +18,14 @@ import { GLOBAL_ROLE_LABELS } from './role-labels';
 @Component({
   selector: 'app-users',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular, FormsModule, MatButtonModule, MatIconModule, MatFormFieldModule, MatInputModule],
+  imports: [
+    AgGridAngular,
+    FormsModule,
+    MatButtonModule,
+    MatIconModule,
+    MatFormFieldModule,
+    MatInputModule,
+  ],
   template: `
     <section class="page">
       <h1 data-testid="page-heading">Users</h1>
@@ -45,7 +52,11 @@ import { GLOBAL_ROLE_LABELS } from './role-labels';
       />
     </section>
   `,
-  styles: `.filter { width: 240px; }`,
+  styles: `
+    .filter {
+      width: 240px;
+    }
+  `,
 })
 export class Users implements OnInit {
   private readonly admin = inject(AdminService);
@@ -62,13 +73,21 @@ export class Users implements OnInit {
   ];
 
   protected readonly columns: ColDef<User>[] = [
-    { field: 'name', headerName: 'Name', flex: 1, minWidth: 160, filter: 'agTextColumnFilter', sort: 'asc' },
+    {
+      field: 'name',
+      headerName: 'Name',
+      flex: 1,
+      minWidth: 160,
+      filter: 'agTextColumnFilter',
+      sort: 'asc',
+    },
     { field: 'email', headerName: 'E-mail', flex: 1, minWidth: 200, filter: 'agTextColumnFilter' },
     {
       colId: 'roles',
       headerName: 'Roles',
       minWidth: 160,
-      valueGetter: ({ data }) => data?.roles.map((role) => GLOBAL_ROLE_LABELS[role] ?? role).join(', ') ?? '',
+      valueGetter: ({ data }) =>
+        data?.roles.map((role) => GLOBAL_ROLE_LABELS[role] ?? role).join(', ') ?? '',
     },
     {
       colId: 'labs',
@@ -76,10 +95,16 @@ export class Users implements OnInit {
       flex: 1,
       minWidth: 160,
       valueGetter: ({ data }) =>
-        data?.memberships.map((m) => (m.isManager ? `${m.organisationName} (manager)` : m.organisationName)).join(', ') ??
-        '',
+        data?.memberships
+          .map((m) => (m.isManager ? `${m.organisationName} (manager)` : m.organisationName))
+          .join(', ') ?? '',
     },
-    { colId: 'status', headerName: 'Status', width: 140, valueGetter: ({ data }) => statusOf(data) },
+    {
+      colId: 'status',
+      headerName: 'Status',
+      width: 140,
+      valueGetter: ({ data }) => statusOf(data),
+    },
     {
       field: 'lastSignInAt',
       headerName: 'Last sign-in',
@@ -98,7 +123,9 @@ export class Users implements OnInit {
 
   ngOnInit(): void {
     this.reload();
-    this.admin.organisations().subscribe((orgs) => this.labs.set(orgs.filter((org) => org.kind === 'lab')));
+    this.admin
+      .organisations()
+      .subscribe((orgs) => this.labs.set(orgs.filter((org) => org.kind === 'lab')));
   }
 
   private reload(): void {
@@ -126,7 +153,8 @@ export class Users implements OnInit {
       .open(EditUserDialog, { data: user, width: '480px', maxWidth: '95vw' })
       .afterClosed()
       .subscribe((updated) => {
-        if (updated) this.users.update((users) => users.map((u) => (u.id === updated.id ? updated : u)));
+        if (updated)
+          this.users.update((users) => users.map((u) => (u.id === updated.id ? updated : u)));
       });
   }
 }

@@ -19,18 +19,32 @@ import { applyServerIssues, errorMessage, zodValidator } from '../core/zod-form-
     <section class="card">
       <h1 data-testid="page-heading">Change password</h1>
       @if (done()) {
-        <p role="status" data-testid="password-changed">Your password is changed. Other browsers signed in to your account are signed out.</p>
+        <p role="status" data-testid="password-changed">
+          Your password is changed. Other browsers signed in to your account are signed out.
+        </p>
       } @else {
         <p>Changing the password signs your account out everywhere else.</p>
         <form [formGroup]="form" (ngSubmit)="submit()" novalidate class="form-stack">
           <mat-form-field>
             <mat-label>Current password</mat-label>
-            <input matInput formControlName="currentPassword" type="password" autocomplete="current-password" required />
+            <input
+              matInput
+              formControlName="currentPassword"
+              type="password"
+              autocomplete="current-password"
+              required
+            />
             <mat-error>{{ errorMessage(form.controls.currentPassword) }}</mat-error>
           </mat-form-field>
           <mat-form-field>
             <mat-label>New password</mat-label>
-            <input matInput formControlName="password" type="password" autocomplete="new-password" required />
+            <input
+              matInput
+              formControlName="password"
+              type="password"
+              autocomplete="new-password"
+              required
+            />
             <mat-hint>At least 12 characters.</mat-hint>
             <mat-error>{{ errorMessage(form.controls.password) }}</mat-error>
           </mat-form-field>
@@ -74,8 +88,16 @@ export class ChangePassword {
       },
       error: (error: unknown) => {
         this.busy.set(false);
-        const details = error instanceof HttpErrorResponse && error.status === 422 ? problemOf(error)?.details : null;
-        const issues = error instanceof HttpErrorResponse && error.status === 400 ? fieldIssuesOf(error) : Array.isArray(details) ? details : [];
+        const details =
+          error instanceof HttpErrorResponse && error.status === 422
+            ? problemOf(error)?.details
+            : null;
+        const issues =
+          error instanceof HttpErrorResponse && error.status === 400
+            ? fieldIssuesOf(error)
+            : Array.isArray(details)
+              ? details
+              : [];
         const unplaced = applyServerIssues(this.form, issues);
         if (!issues.length) this.failure.set(problemMessage(error));
         else if (unplaced.length) this.failure.set(unplaced.join(' '));

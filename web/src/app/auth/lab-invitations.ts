@@ -28,21 +28,46 @@ const handled = { context: new HttpContext().set(HANDLED_STATUSES, [404, 422]) }
       } @else if (invitations().length === 0) {
         <p data-testid="no-invitations">You have no open invitations.</p>
         @if (joined(); as name) {
-          <p role="status" data-testid="joined">You are now a member of {{ name }}. <a [routerLink]="home()">Go to your start page</a></p>
+          <p role="status" data-testid="joined">
+            You are now a member of {{ name }}. <a [routerLink]="home()">Go to your start page</a>
+          </p>
         }
       } @else {
-        <p>You become a member of a lab only if you accept. A lab member sees the lab's rounds, results and reports.</p>
+        <p>
+          You become a member of a lab only if you accept. A lab member sees the lab's rounds,
+          results and reports.
+        </p>
         <ul class="invitations" data-testid="invitations">
           @for (i of invitations(); track i.id) {
             <li [attr.data-lab]="i.organisationName">
               <div>
                 <strong>{{ i.organisationName }}</strong>
                 invites you to join{{ i.isManager ? ' as a lab manager' : '' }}.
-                <small>Sent by {{ i.invitedByName ?? 'a lab manager' }} on {{ i.createdAt | date: 'mediumDate' }}; open until {{ i.expiresAt | date: 'mediumDate' }}.</small>
+                <small
+                  >Sent by {{ i.invitedByName ?? 'a lab manager' }} on
+                  {{ i.createdAt | date: 'mediumDate' }}; open until
+                  {{ i.expiresAt | date: 'mediumDate' }}.</small
+                >
               </div>
               <div class="actions">
-                <button mat-flat-button type="button" [disabled]="busy()" (click)="answer(i, true)" [attr.aria-label]="'Accept the invitation from ' + i.organisationName">Accept</button>
-                <button mat-button type="button" [disabled]="busy()" (click)="answer(i, false)" [attr.aria-label]="'Decline the invitation from ' + i.organisationName">Decline</button>
+                <button
+                  mat-flat-button
+                  type="button"
+                  [disabled]="busy()"
+                  (click)="answer(i, true)"
+                  [attr.aria-label]="'Accept the invitation from ' + i.organisationName"
+                >
+                  Accept
+                </button>
+                <button
+                  mat-button
+                  type="button"
+                  [disabled]="busy()"
+                  (click)="answer(i, false)"
+                  [attr.aria-label]="'Decline the invitation from ' + i.organisationName"
+                >
+                  Decline
+                </button>
               </div>
             </li>
           }
@@ -57,10 +82,29 @@ const handled = { context: new HttpContext().set(HANDLED_STATUSES, [404, 422]) }
     </section>
   `,
   styles: `
-    .invitations { list-style: none; padding: 0; max-width: 760px; }
-    .invitations li { display: flex; flex-wrap: wrap; gap: 12px; justify-content: space-between; align-items: center; padding: 12px 0; border-bottom: 1px solid #d8dde3; }
-    .invitations small { display: block; color: #4a5663; margin-top: 4px; }
-    .actions { display: flex; gap: 8px; }
+    .invitations {
+      list-style: none;
+      padding: 0;
+      max-width: 760px;
+    }
+    .invitations li {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 12px;
+      justify-content: space-between;
+      align-items: center;
+      padding: 12px 0;
+      border-bottom: 1px solid #d8dde3;
+    }
+    .invitations small {
+      display: block;
+      color: #4a5663;
+      margin-top: 4px;
+    }
+    .actions {
+      display: flex;
+      gap: 8px;
+    }
   `,
 })
 export class LabInvitations implements OnInit {

@@ -24,7 +24,9 @@ function passwordsMatch(group: AbstractControl): ValidationErrors | null {
   const mismatch = !!confirm.value && confirm.value !== password;
   const others = { ...(confirm.errors ?? {}) };
   delete others['mismatch'];
-  confirm.setErrors(mismatch ? { ...others, mismatch: true } : Object.keys(others).length ? others : null);
+  confirm.setErrors(
+    mismatch ? { ...others, mismatch: true } : Object.keys(others).length ? others : null,
+  );
   return null;
 }
 
@@ -34,9 +36,13 @@ function passwordsMatch(group: AbstractControl): ValidationErrors | null {
   imports: [ReactiveFormsModule, RouterLink, MatFormFieldModule, MatInputModule, MatButtonModule],
   template: `
     <section class="card">
-      <h1 data-testid="page-heading">{{ info()?.purpose === 'reset' ? 'Choose a new password' : 'Set your password' }}</h1>
+      <h1 data-testid="page-heading">
+        {{ info()?.purpose === 'reset' ? 'Choose a new password' : 'Set your password' }}
+      </h1>
       @switch (state()) {
-        @case ('loading') { <p role="status">Checking the link…</p> }
+        @case ('loading') {
+          <p role="status">Checking the link…</p>
+        }
         @case ('invalid') {
           <p role="alert" class="form-error">This link has been used or has expired.</p>
           <p><a routerLink="/forgot-password">Ask for a new link</a></p>
@@ -46,17 +52,31 @@ function passwordsMatch(group: AbstractControl): ValidationErrors | null {
           <p><a mat-flat-button routerLink="/sign-in">Sign in</a></p>
         }
         @case ('ready') {
-          <p>For <strong data-testid="token-email">{{ info()?.email }}</strong></p>
+          <p>
+            For <strong data-testid="token-email">{{ info()?.email }}</strong>
+          </p>
           <form [formGroup]="form" (ngSubmit)="submit()" novalidate class="form-stack">
             <mat-form-field>
               <mat-label>New password</mat-label>
-              <input matInput formControlName="password" type="password" autocomplete="new-password" required />
+              <input
+                matInput
+                formControlName="password"
+                type="password"
+                autocomplete="new-password"
+                required
+              />
               <mat-hint>At least 12 characters.</mat-hint>
               <mat-error>{{ errorMessage(form.controls.password) }}</mat-error>
             </mat-form-field>
             <mat-form-field>
               <mat-label>Confirm password</mat-label>
-              <input matInput formControlName="confirm" type="password" autocomplete="new-password" required />
+              <input
+                matInput
+                formControlName="confirm"
+                type="password"
+                autocomplete="new-password"
+                required
+              />
               <mat-error>{{ errorMessage(form.controls.confirm) }}</mat-error>
             </mat-form-field>
             @if (failure(); as message) {
@@ -105,7 +125,10 @@ export class SetPassword implements OnInit {
     this.failure.set(null);
     this.form.markAllAsTouched();
     if (this.form.invalid) return;
-    const request = SetPasswordRequest.safeParse({ token: this.token(), password: this.form.controls.password.value });
+    const request = SetPasswordRequest.safeParse({
+      token: this.token(),
+      password: this.form.controls.password.value,
+    });
     if (!request.success) {
       this.failure.set(request.error.issues[0]?.message ?? 'Check the password.');
       return;
@@ -121,7 +144,10 @@ export class SetPassword implements OnInit {
         if (error instanceof HttpErrorResponse && error.status === 400) {
           const unplaced = applyServerIssues(this.form, fieldIssuesOf(error));
           if (unplaced.length) this.failure.set(unplaced.join(' '));
-        } else if (error instanceof HttpErrorResponse && (error.status === 404 || error.status === 410)) {
+        } else if (
+          error instanceof HttpErrorResponse &&
+          (error.status === 404 || error.status === 410)
+        ) {
           this.state.set('invalid');
         } else {
           this.failure.set(problemMessage(error));

@@ -26,8 +26,12 @@ describe('SignIn', () => {
     const fixture = TestBed.createComponent(SignIn);
     if (returnUrl) fixture.componentRef.setInput('returnUrl', returnUrl);
     const loader = TestbedHarnessEnvironment.loader(fixture);
-    const email = await loader.getHarness(MatInputHarness.with({ selector: '[data-testid="sign-in-email"]' }));
-    const password = await loader.getHarness(MatInputHarness.with({ selector: '[data-testid="sign-in-password"]' }));
+    const email = await loader.getHarness(
+      MatInputHarness.with({ selector: '[data-testid="sign-in-email"]' }),
+    );
+    const password = await loader.getHarness(
+      MatInputHarness.with({ selector: '[data-testid="sign-in-password"]' }),
+    );
     const button = await loader.getHarness(MatButtonHarness.with({ text: 'Sign in' }));
     return { fixture, email, password, button };
   }
@@ -70,7 +74,9 @@ describe('SignIn', () => {
     await email.setValue('mira.okafor@example.test');
     await password.setValue('whatever');
     await button.click();
-    await answerPost(429, { error: { code: 'locked', message: 'Too many attempts. Try again in 15 minutes.' } });
+    await answerPost(429, {
+      error: { code: 'locked', message: 'Too many attempts. Try again in 15 minutes.' },
+    });
     await fixture.whenStable();
     const alert = (fixture.nativeElement as HTMLElement).querySelector('[role="alert"]');
     expect(alert?.textContent?.trim()).toBe('Too many attempts. Try again in 15 minutes.');
@@ -84,7 +90,9 @@ describe('SignIn', () => {
     await settle();
     http.expectNone('/api/v1/auth/sign-in');
     await fixture.whenStable();
-    expect((fixture.nativeElement as HTMLElement).textContent).toContain('Enter a valid e-mail address.');
+    expect((fixture.nativeElement as HTMLElement).textContent).toContain(
+      'Enter a valid e-mail address.',
+    );
   });
 
   it("goes to the role's home after signing in, or back to the return address", async () => {
@@ -94,7 +102,10 @@ describe('SignIn', () => {
     await password.setValue('correct horse');
     await button.click();
     const post = await answerPost(200, { user: aMe({ roles: ['admin'] }) });
-    expect(post.request.body).toEqual({ email: 'mira.okafor@example.test', password: 'correct horse' });
+    expect(post.request.body).toEqual({
+      email: 'mira.okafor@example.test',
+      password: 'correct horse',
+    });
     expect(post.request.headers.get('x-csrf-token')).toBe('tok');
     await settle();
     expect(navigate).toHaveBeenCalledWith('/admin/labs');

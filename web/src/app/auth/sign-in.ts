@@ -24,24 +24,46 @@ export function safeReturnUrl(url: string | undefined | null): string | null {
   template: `
     <section class="card">
       <h1 data-testid="page-heading">Sign in</h1>
-      <form [formGroup]="form" (ngSubmit)="submit()" novalidate class="form-stack" data-testid="sign-in-form">
+      <form
+        [formGroup]="form"
+        (ngSubmit)="submit()"
+        novalidate
+        class="form-stack"
+        data-testid="sign-in-form"
+      >
         <mat-form-field>
           <mat-label>E-mail</mat-label>
-          <input matInput id="sign-in-email" data-testid="sign-in-email" formControlName="email"
-            type="email" autocomplete="username" required />
+          <input
+            matInput
+            id="sign-in-email"
+            data-testid="sign-in-email"
+            formControlName="email"
+            type="email"
+            autocomplete="username"
+            required
+          />
           <mat-error>{{ errorMessage(form.controls.email) }}</mat-error>
         </mat-form-field>
         <mat-form-field>
           <mat-label>Password</mat-label>
-          <input matInput id="sign-in-password" data-testid="sign-in-password" formControlName="password"
-            type="password" autocomplete="current-password" required />
+          <input
+            matInput
+            id="sign-in-password"
+            data-testid="sign-in-password"
+            formControlName="password"
+            type="password"
+            autocomplete="current-password"
+            required
+          />
           <mat-error>{{ errorMessage(form.controls.password) }}</mat-error>
         </mat-form-field>
         @if (failure(); as message) {
           <p class="form-error" role="alert" data-testid="sign-in-error">{{ message }}</p>
         }
         <div class="actions">
-          <button mat-flat-button type="submit" data-testid="sign-in-submit" [disabled]="busy()">Sign in</button>
+          <button mat-flat-button type="submit" data-testid="sign-in-submit" [disabled]="busy()">
+            Sign in
+          </button>
           <a routerLink="/forgot-password">Forgot password?</a>
         </div>
       </form>
@@ -88,9 +110,12 @@ export class SignIn {
     if (error instanceof HttpErrorResponse) {
       if (error.status === 400) {
         const unplaced = applyServerIssues(this.form, fieldIssuesOf(error));
-        return unplaced.length ? unplaced.join(' ') : (problemOf(error)?.message ?? 'Check the fields below.');
+        return unplaced.length
+          ? unplaced.join(' ')
+          : (problemOf(error)?.message ?? 'Check the fields below.');
       }
-      if (error.status === 401) return problemOf(error)?.message ?? 'E-mail or password is incorrect.';
+      if (error.status === 401)
+        return problemOf(error)?.message ?? 'E-mail or password is incorrect.';
     }
     return problemMessage(error);
   }

@@ -28,7 +28,10 @@ export class DraftAutosave<T> {
   private retryMs = 0;
 
   constructor(
-    private readonly save: (data: T, baseRevision: number) => Observable<{ draftRevision: number; savedAt: string }>,
+    private readonly save: (
+      data: T,
+      baseRevision: number,
+    ) => Observable<{ draftRevision: number; savedAt: string }>,
     private readonly storageKey: string,
     private readonly debounceMs = 700,
   ) {}
@@ -105,7 +108,10 @@ export class DraftAutosave<T> {
         this.inFlight = false;
         this.pending ??= data;
         const status = err instanceof HttpErrorResponse ? err.status : 0;
-        const code = err instanceof HttpErrorResponse ? (err.error as { error?: { code?: string } } | null)?.error?.code : undefined;
+        const code =
+          err instanceof HttpErrorResponse
+            ? (err.error as { error?: { code?: string } } | null)?.error?.code
+            : undefined;
         if (status === 409 && code === 'submission_locked') return this.state.set('locked');
         if (status === 409) return this.state.set('conflict');
         this.state.set(status === 0 ? 'offline' : 'error');

@@ -1,5 +1,14 @@
 import { DatePipe, DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, DestroyRef, OnInit, computed, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  OnInit,
+  computed,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormArray, FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -8,7 +17,11 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import { checkResults, instrumentCheckNotice, type CheckOutcome } from '@ringlet/shared/bench/submission-checks';
+import {
+  checkResults,
+  instrumentCheckNotice,
+  type CheckOutcome,
+} from '@ringlet/shared/bench/submission-checks';
 import { DEFAULT_CHECK, judgeInstrumentCheck } from '@ringlet/shared/bench/instrument-check';
 import {
   type AttachmentDto,
@@ -24,15 +37,26 @@ import {
   type SubmissionVersionDto,
 } from '@ringlet/shared/contracts/bench';
 import type { SubmissionData } from '@ringlet/shared/contracts/submission';
-import { DAMAGED_PARCEL_CAUTIONS, mentionsSharps, SHARPS_CAUTIONS } from '@ringlet/shared/contracts/safety';
+import {
+  DAMAGED_PARCEL_CAUTIONS,
+  mentionsSharps,
+  SHARPS_CAUTIONS,
+} from '@ringlet/shared/contracts/safety';
 import { FileDrop } from '../core/file-drop';
 import { fieldLabel, problemMessage, problemOf } from '../core/problem';
 import { DraftAutosave, SAVE_STATE_LABELS } from './autosave';
 import { BenchService } from './bench.service';
-import { CONDITION_FIELDS, buildResultsForm, resultsFromForm, type ResultsForm } from './results-form';
+import {
+  CONDITION_FIELDS,
+  buildResultsForm,
+  resultsFromForm,
+  type ResultsForm,
+} from './results-form';
 import { STATUS_LABELS } from './lab-bench';
 
-const CONDITIONS = (Object.entries(SHIPMENT_CONDITION_LABELS) as [ShipmentCondition, string][]).map(([value, label]) => ({ value, label }));
+const CONDITIONS = (Object.entries(SHIPMENT_CONDITION_LABELS) as [ShipmentCondition, string][]).map(
+  ([value, label]) => ({ value, label }),
+);
 
 const UNCERTAINTY_KINDS = [
   { value: 'none', label: 'None given' },
@@ -60,14 +84,28 @@ const run = () =>
     zAverageNm: new FormControl<number | null>(null, Validators.required),
     pdi: new FormControl<number | null>(null, Validators.required),
     temperatureC: new FormControl<number | null>(DEFAULT_CHECK.setPointC, Validators.required),
-    equilibrationMin: new FormControl<number | null>(DEFAULT_CHECK.minEquilibrationMin, Validators.required),
+    equilibrationMin: new FormControl<number | null>(
+      DEFAULT_CHECK.minEquilibrationMin,
+      Validators.required,
+    ),
   });
 
 /** One round on the Lab bench: receipt, instrument check, results entry, files, submit and amend. */
 @Component({
   selector: 'app-bench-round',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [DatePipe, DecimalPipe, RouterLink, ReactiveFormsModule, MatButtonModule, MatCheckboxModule, MatFormFieldModule, MatInputModule, MatSelectModule, FileDrop],
+  imports: [
+    DatePipe,
+    DecimalPipe,
+    RouterLink,
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    FileDrop,
+  ],
   templateUrl: './bench-round.html',
   styleUrl: './bench-round.scss',
 })
@@ -85,7 +123,8 @@ export class BenchRound implements OnInit {
   protected readonly defaults = REANALYSIS_DEFAULTS;
   protected readonly sharpsCautions = SHARPS_CAUTIONS;
   protected readonly damagedCautions = DAMAGED_PARCEL_CAUTIONS;
-  protected readonly conditionLabel = (c: ShipmentCondition | null | undefined) => (c ? SHIPMENT_CONDITION_LABELS[c] : '');
+  protected readonly conditionLabel = (c: ShipmentCondition | null | undefined) =>
+    c ? SHIPMENT_CONDITION_LABELS[c] : '';
   /**
    * The sharps cautions join the list when the instructions or an item's notes mention syringes,
    * needles or filters, or when the lab states a filter pore size (filtering means a syringe filter).
@@ -93,8 +132,18 @@ export class BenchRound implements OnInit {
   protected readonly usesSharps = computed(() => {
     const r = this.round();
     if (!r) return false;
-    const filtered = (this.data()?.items ?? []).some((i) => i.conditions.filterPoreUm !== null && i.conditions.filterPoreUm !== undefined);
-    return filtered || mentionsSharps([r.instructions, ...r.items.map((i) => `${i.handlingNotes ?? ''} ${i.storageNotes ?? ''}`)].join(' '));
+    const filtered = (this.data()?.items ?? []).some(
+      (i) => i.conditions.filterPoreUm !== null && i.conditions.filterPoreUm !== undefined,
+    );
+    return (
+      filtered ||
+      mentionsSharps(
+        [
+          r.instructions,
+          ...r.items.map((i) => `${i.handlingNotes ?? ''} ${i.storageNotes ?? ''}`),
+        ].join(' '),
+      )
+    );
   });
   protected readonly conditionFields = CONDITION_FIELDS;
   protected readonly saveLabels = SAVE_STATE_LABELS;
@@ -111,19 +160,28 @@ export class BenchRound implements OnInit {
   /** The damaged-parcel cautions show while the form or the record says damaged or leaked. */
   protected readonly parcelDamaged = computed(() => {
     const stored = this.round()?.receipt?.condition ?? null;
-    return DAMAGED_CONDITIONS.includes(this.chosenCondition()) || (!!stored && DAMAGED_CONDITIONS.includes(stored));
+    return (
+      DAMAGED_CONDITIONS.includes(this.chosenCondition()) ||
+      (!!stored && DAMAGED_CONDITIONS.includes(stored))
+    );
   });
 
   // Instrument check
   protected readonly checkForm = new FormGroup({
     instrument: new FormControl('', { nonNullable: true }),
     material: new FormControl<string>(DEFAULT_CHECK.material, { nonNullable: true }),
-    referenceValueNm: new FormControl<number>(DEFAULT_CHECK.referenceValueNm, { nonNullable: true }),
+    referenceValueNm: new FormControl<number>(DEFAULT_CHECK.referenceValueNm, {
+      nonNullable: true,
+    }),
     toleranceNm: new FormControl<number>(DEFAULT_CHECK.toleranceNm, { nonNullable: true }),
     pdiLimit: new FormControl<number>(DEFAULT_CHECK.pdiLimit, { nonNullable: true }),
     setPointC: new FormControl<number>(DEFAULT_CHECK.setPointC, { nonNullable: true }),
-    temperatureToleranceC: new FormControl<number>(DEFAULT_CHECK.temperatureToleranceC, { nonNullable: true }),
-    minEquilibrationMin: new FormControl<number>(DEFAULT_CHECK.minEquilibrationMin, { nonNullable: true }),
+    temperatureToleranceC: new FormControl<number>(DEFAULT_CHECK.temperatureToleranceC, {
+      nonNullable: true,
+    }),
+    minEquilibrationMin: new FormControl<number>(DEFAULT_CHECK.minEquilibrationMin, {
+      nonNullable: true,
+    }),
     runs: new FormArray([run(), run(), run()]),
     notes: new FormControl('', { nonNullable: true }),
   });
@@ -134,7 +192,15 @@ export class BenchRound implements OnInit {
     const v = this.checkValue();
     const runs = v.runs.filter((r) => r.zAverageNm !== null && r.pdi !== null);
     if (runs.length === 0) return null;
-    return judgeInstrumentCheck({ ...v, runs: runs.map((r) => ({ zAverageNm: r.zAverageNm!, pdi: r.pdi!, temperatureC: r.temperatureC ?? NaN, equilibrationMin: r.equilibrationMin ?? NaN })) });
+    return judgeInstrumentCheck({
+      ...v,
+      runs: runs.map((r) => ({
+        zAverageNm: r.zAverageNm!,
+        pdi: r.pdi!,
+        temperatureC: r.temperatureC ?? NaN,
+        equilibrationMin: r.equilibrationMin ?? NaN,
+      })),
+    });
   });
 
   // Results
@@ -148,15 +214,33 @@ export class BenchRound implements OnInit {
     const r = this.round();
     const d = this.data();
     if (!r || !d) return null;
-    return checkResults(d, { protocolTemperatureC: r.protocolTemperatureC, items: r.items, measurands: r.measurands }, false);
+    return checkResults(
+      d,
+      { protocolTemperatureC: r.protocolTemperatureC, items: r.items, measurands: r.measurands },
+      false,
+    );
   });
-  protected readonly errorsByPath = computed(() => new Map((this.outcome()?.errors ?? []).map((e) => [e.path, e.message])));
+  protected readonly errorsByPath = computed(
+    () => new Map((this.outcome()?.errors ?? []).map((e) => [e.path, e.message])),
+  );
   protected readonly checkNotice = computed(() => {
     const d = this.data();
-    const names = new Set((d?.items ?? []).map((i) => i.conditions.instrument.trim().toLowerCase()).filter(Boolean));
+    const names = new Set(
+      (d?.items ?? []).map((i) => i.conditions.instrument.trim().toLowerCase()).filter(Boolean),
+    );
     const list = this.checks();
-    const latest = names.size ? (list.find((c) => names.has(c.instrument.trim().toLowerCase())) ?? null) : (list[0] ?? null);
-    return instrumentCheckNotice(latest ? { passed: latest.verdict.passed, instrument: latest.instrument, checkedAt: latest.checkedAt } : null);
+    const latest = names.size
+      ? (list.find((c) => names.has(c.instrument.trim().toLowerCase())) ?? null)
+      : (list[0] ?? null);
+    return instrumentCheckNotice(
+      latest
+        ? {
+            passed: latest.verdict.passed,
+            instrument: latest.instrument,
+            checkedAt: latest.checkedAt,
+          }
+        : null,
+    );
   });
   protected readonly versions = signal<SubmissionVersionDto[]>([]);
   protected readonly submitting = signal(false);
@@ -184,9 +268,15 @@ export class BenchRound implements OnInit {
   protected readonly workbookMessage = signal<string[]>([]);
 
   ngOnInit(): void {
-    this.checkForm.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe(() => this.checkValue.set(this.checkForm.getRawValue()));
-    this.receiptForm.controls.condition.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe((c) => this.chosenCondition.set(c));
-    this.fileItem.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe((id) => this.fileItemId.set(id));
+    this.checkForm.valueChanges
+      .pipe(takeUntilDestroyed(this.destroyRef))
+      .subscribe(() => this.checkValue.set(this.checkForm.getRawValue()));
+    this.receiptForm.controls.condition.valueChanges
+      .pipe(takeUntilDestroyed(this.destroyRef))
+      .subscribe((c) => this.chosenCondition.set(c));
+    this.fileItem.valueChanges
+      .pipe(takeUntilDestroyed(this.destroyRef))
+      .subscribe((id) => this.fileItemId.set(id));
     const online = () => this.autosave?.retry();
     window.addEventListener('online', online);
     this.destroyRef.onDestroy(() => {
@@ -201,7 +291,11 @@ export class BenchRound implements OnInit {
       next: (r) => {
         this.round.set(r);
         if (r.receipt?.receivedOn) {
-          this.receiptForm.setValue({ receivedOn: r.receipt.receivedOn, condition: r.receipt.condition ?? 'intact', notes: r.receipt.notes ?? '' });
+          this.receiptForm.setValue({
+            receivedOn: r.receipt.receivedOn,
+            condition: r.receipt.condition ?? 'intact',
+            notes: r.receipt.notes ?? '',
+          });
         }
         this.loadSubmission(r);
       },
@@ -230,15 +324,25 @@ export class BenchRound implements OnInit {
       if (view.isLocked) this.form.disable({ emitEvent: false });
       this.refreshData(false);
       if (local) this.autosave.changed(this.data()!); // an unsaved copy from before a reload
-      this.form.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe(() => this.refreshData(true));
-      this.explanation.valueChanges.pipe(takeUntilDestroyed(this.destroyRef)).subscribe(() => this.refreshData(true));
+      this.form.valueChanges
+        .pipe(takeUntilDestroyed(this.destroyRef))
+        .subscribe(() => this.refreshData(true));
+      this.explanation.valueChanges
+        .pipe(takeUntilDestroyed(this.destroyRef))
+        .subscribe(() => this.refreshData(true));
     });
   }
 
   private refreshData(save: boolean): void {
     const r = this.round();
     if (!r || !this.form) return;
-    const data = resultsFromForm(this.form, r.items, r.measurands, this.acknowledged(), this.explanation.value);
+    const data = resultsFromForm(
+      this.form,
+      r.items,
+      r.measurands,
+      this.acknowledged(),
+      this.explanation.value,
+    );
     this.data.set(data);
     if (save) this.autosave?.changed(data);
   }
@@ -265,7 +369,9 @@ export class BenchRound implements OnInit {
     return this.acknowledged().includes(code);
   }
   protected acknowledge(code: string, on: boolean): void {
-    this.acknowledged.update((list) => (on ? [...new Set([...list, code])] : list.filter((c) => c !== code)));
+    this.acknowledged.update((list) =>
+      on ? [...new Set([...list, code])] : list.filter((c) => c !== code),
+    );
     this.refreshData(true);
   }
   protected retrySave(): void {
@@ -308,7 +414,9 @@ export class BenchRound implements OnInit {
     this.bench.recordCheck(parsed.data).subscribe({
       next: (c) => {
         this.checks.update((list) => [c, ...list]);
-        this.checkMessage.set(c.verdict.passed ? 'Check recorded: passed.' : 'Check recorded: failed.');
+        this.checkMessage.set(
+          c.verdict.passed ? 'Check recorded: passed.' : 'Check recorded: failed.',
+        );
       },
       error: (e) => this.checkMessage.set(problemMessage(e)),
     });
@@ -320,10 +428,20 @@ export class BenchRound implements OnInit {
     const outcome = this.outcome();
     if (!data || !outcome) return;
     const r = this.round()!;
-    const full = checkResults(data, { protocolTemperatureC: r.protocolTemperatureC, items: r.items, measurands: r.measurands }, true);
-    if (full.errors.length) return this.submitMessage.set({ kind: 'error', text: full.errors[0]!.message });
-    if (full.unacknowledged.length) return this.submitMessage.set({ kind: 'error', text: `Acknowledge ${full.unacknowledged.length} warning(s) first.` });
-    if (this.checkNotice() && !data.explanation.trim()) return this.submitMessage.set({ kind: 'error', text: this.checkNotice()! });
+    const full = checkResults(
+      data,
+      { protocolTemperatureC: r.protocolTemperatureC, items: r.items, measurands: r.measurands },
+      true,
+    );
+    if (full.errors.length)
+      return this.submitMessage.set({ kind: 'error', text: full.errors[0]!.message });
+    if (full.unacknowledged.length)
+      return this.submitMessage.set({
+        kind: 'error',
+        text: `Acknowledge ${full.unacknowledged.length} warning(s) first.`,
+      });
+    if (this.checkNotice() && !data.explanation.trim())
+      return this.submitMessage.set({ kind: 'error', text: this.checkNotice()! });
     this.submitKey ??= crypto.randomUUID();
     this.submitting.set(true);
     const note = this.versions().length ? this.amendNote.value.trim() || undefined : undefined;
@@ -333,7 +451,9 @@ export class BenchRound implements OnInit {
         this.submitting.set(false);
         this.amendNote.setValue('');
         this.submitMessage.set({ kind: 'ok', text: `Version ${res.version.version} submitted.` });
-        this.versions.update((v) => (v.some((x) => x.version === res.version.version) ? v : [res.version, ...v]));
+        this.versions.update((v) =>
+          v.some((x) => x.version === res.version.version) ? v : [res.version, ...v],
+        );
         this.reloadDraft();
         this.bench.round(this.id()).subscribe((rr) => this.round.set(rr));
       },
@@ -354,17 +474,27 @@ export class BenchRound implements OnInit {
     const wavelength = this.fileWavelength.value;
     const angle = this.fileAngle.value;
     if (wavelength !== null && !(wavelength >= 200 && wavelength <= 2000)) {
-      this.fileMessage.set('Laser wavelength: give a value from 200 to 2000 nm, or leave it empty.');
+      this.fileMessage.set(
+        'Laser wavelength: give a value from 200 to 2000 nm, or leave it empty.',
+      );
       return;
     }
     if (angle !== null && !(angle > 0 && angle < 180)) {
-      this.fileMessage.set('Scattering angle: give a value above 0° and below 180°, or leave it empty.');
+      this.fileMessage.set(
+        'Scattering angle: give a value above 0° and below 180°, or leave it empty.',
+      );
       return;
     }
     this.fileMessage.set(`Uploading ${file.name}…`);
     this.uploadProgress.set(0);
     this.bench
-      .upload(this.id(), file, this.fileItem.value, { laserWavelengthNm: wavelength, scatteringAngleDeg: angle }, (p) => this.uploadProgress.set(p))
+      .upload(
+        this.id(),
+        file,
+        this.fileItem.value,
+        { laserWavelengthNm: wavelength, scatteringAngleDeg: angle },
+        (p) => this.uploadProgress.set(p),
+      )
       .subscribe({
         next: (a) => {
           this.uploadProgress.set(null);
@@ -389,7 +519,10 @@ export class BenchRound implements OnInit {
       `refractive index ${p.refractiveIndex.toFixed(4)}${mark('refractiveIndex')}`,
     ];
     const assumed = ra.assumed.map((k) => PARAMETER_LABELS[k]);
-    return `Used: ${parts.join(', ')}.` + (assumed.length ? ` Assumed because not given: ${assumed.join(', ')}.` : '');
+    return (
+      `Used: ${parts.join(', ')}.` +
+      (assumed.length ? ` Assumed because not given: ${assumed.join(', ')}.` : '')
+    );
   }
   protected fileUrl(a: AttachmentDto): string {
     return this.bench.attachmentUrl(this.id(), a.id);
@@ -403,12 +536,17 @@ export class BenchRound implements OnInit {
   protected workbookPicked(file: File): void {
     this.bench.uploadWorkbook(this.id(), file).subscribe({
       next: (res) => {
-        this.workbookMessage.set([`Workbook read into the draft (revision ${res.draftRevision}).`, ...res.warnings.map((w) => w.message)]);
+        this.workbookMessage.set([
+          `Workbook read into the draft (revision ${res.draftRevision}).`,
+          ...res.warnings.map((w) => w.message),
+        ]);
         this.reloadDraft();
       },
       error: (e) => {
         const p = problemOf(e);
-        const details = Array.isArray(p?.details) ? (p.details as { message?: string }[]).map((d) => d.message ?? '') : [];
+        const details = Array.isArray(p?.details)
+          ? (p.details as { message?: string }[]).map((d) => d.message ?? '')
+          : [];
         this.workbookMessage.set(details.length ? details : [problemMessage(e)]);
       },
     });

@@ -1,7 +1,11 @@
 import type { Routes } from '@angular/router';
 
 export const BENCH_ROUTES: Routes = [
-  { path: '', title: 'Lab bench · Ringlet', loadComponent: () => import('./lab-bench').then((m) => m.LabBench) },
+  {
+    path: '',
+    title: 'Lab bench · Ringlet',
+    loadComponent: () => import('./lab-bench').then((m) => m.LabBench),
+  },
   {
     path: 'rounds/:id',
     title: 'Round · Lab bench · Ringlet',

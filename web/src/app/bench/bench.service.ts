@@ -1,4 +1,10 @@
-import { HttpClient, HttpContext, HttpEventType, HttpParams, type HttpResponse } from '@angular/common/http';
+import {
+  HttpClient,
+  HttpContext,
+  HttpEventType,
+  HttpParams,
+  type HttpResponse,
+} from '@angular/common/http';
 import { Injectable, computed, inject } from '@angular/core';
 import { Observable, filter, map, tap } from 'rxjs';
 import * as z from 'zod';
@@ -19,7 +25,9 @@ import { API, HANDLED_STATUSES } from '../core/api';
 import { AuthService } from '../core/auth.service';
 
 /** Calls whose errors the page shows itself (field errors, rule breaks, conflicts, offline). */
-const handled = (...statuses: number[]) => ({ context: new HttpContext().set(HANDLED_STATUSES, statuses) });
+const handled = (...statuses: number[]) => ({
+  context: new HttpContext().set(HANDLED_STATUSES, statuses),
+});
 
 /** The Lab bench calls. Every response is parsed with the shared contract. */
 @Injectable({ providedIn: 'root' })
@@ -40,11 +48,15 @@ export class BenchService {
   }
 
   myRounds(): Observable<MyRound[]> {
-    return this.http.get<unknown>(`${API}/my/rounds`, { params: this.params() }).pipe(map((b) => z.array(MyRound).parse(b)));
+    return this.http
+      .get<unknown>(`${API}/my/rounds`, { params: this.params() })
+      .pipe(map((b) => z.array(MyRound).parse(b)));
   }
 
   round(id: string): Observable<MyRoundDetail> {
-    return this.http.get<unknown>(`${API}/my/rounds/${id}`, { params: this.params() }).pipe(map((b) => MyRoundDetail.parse(b)));
+    return this.http
+      .get<unknown>(`${API}/my/rounds/${id}`, { params: this.params() })
+      .pipe(map((b) => MyRoundDetail.parse(b)));
   }
 
   saveReceipt(id: string, input: ReceiptInput, photo: File | null): Observable<MyRoundDetail> {
@@ -54,34 +66,57 @@ export class BenchService {
     form.set('notes', input.notes);
     if (photo) form.set('photo', photo);
     return this.http
-      .put<unknown>(`${API}/rounds/${id}/receipt`, form, { params: this.params(), ...handled(400, 409, 413, 415, 422) })
+      .put<unknown>(`${API}/rounds/${id}/receipt`, form, {
+        params: this.params(),
+        ...handled(400, 409, 413, 415, 422),
+      })
       .pipe(map((b) => MyRoundDetail.parse(b)));
   }
 
   instrumentChecks(): Observable<InstrumentCheck[]> {
-    return this.http.get<unknown>(`${API}/my/instrument-checks`, { params: this.params() }).pipe(map((b) => z.array(InstrumentCheck).parse(b)));
+    return this.http
+      .get<unknown>(`${API}/my/instrument-checks`, { params: this.params() })
+      .pipe(map((b) => z.array(InstrumentCheck).parse(b)));
   }
 
   recordCheck(input: InstrumentCheckInput): Observable<InstrumentCheck> {
     return this.http
-      .post<unknown>(`${API}/my/instrument-checks`, input, { params: this.params(), ...handled(400, 422) })
+      .post<unknown>(`${API}/my/instrument-checks`, input, {
+        params: this.params(),
+        ...handled(400, 422),
+      })
       .pipe(map((b) => InstrumentCheck.parse(b)));
   }
 
   submission(id: string): Observable<SubmissionView> {
-    return this.http.get<unknown>(`${API}/rounds/${id}/submission`, { params: this.params() }).pipe(map((b) => SubmissionView.parse(b)));
+    return this.http
+      .get<unknown>(`${API}/rounds/${id}/submission`, { params: this.params() })
+      .pipe(map((b) => SubmissionView.parse(b)));
   }
 
   /** Autosave: the caller handles offline (0), conflicts (409) and server errors itself. */
   saveDraft(id: string, data: SubmissionData, baseRevision: number): Observable<DraftSaved> {
     return this.http
-      .put<unknown>(`${API}/rounds/${id}/submission`, { data, baseRevision }, { params: this.params(), ...handled(0, 400, 409, 500, 502, 503, 504) })
+      .put<unknown>(
+        `${API}/rounds/${id}/submission`,
+        { data, baseRevision },
+        { params: this.params(), ...handled(0, 400, 409, 500, 502, 503, 504) },
+      )
       .pipe(map((b) => DraftSaved.parse(b)));
   }
 
-  submit(id: string, idempotencyKey: string, data: SubmissionData, note: string | undefined): Observable<SubmitResult> {
+  submit(
+    id: string,
+    idempotencyKey: string,
+    data: SubmissionData,
+    note: string | undefined,
+  ): Observable<SubmitResult> {
     return this.http
-      .post<unknown>(`${API}/rounds/${id}/submission/submit`, { idempotencyKey, data, note }, { params: this.params(), ...handled(0, 400, 409, 422) })
+      .post<unknown>(
+        `${API}/rounds/${id}/submission/submit`,
+        { idempotencyKey, data, note },
+        { params: this.params(), ...handled(0, 400, 409, 422) },
+      )
       .pipe(map((b) => SubmitResult.parse(b)));
   }
 
@@ -105,8 +140,10 @@ export class BenchService {
     const form = new FormData();
     form.set('file', file);
     if (testItemId) form.set('testItemId', testItemId);
-    if (optics.laserWavelengthNm != null) form.set('laserWavelengthNm', String(optics.laserWavelengthNm));
-    if (optics.scatteringAngleDeg != null) form.set('scatteringAngleDeg', String(optics.scatteringAngleDeg));
+    if (optics.laserWavelengthNm != null)
+      form.set('laserWavelengthNm', String(optics.laserWavelengthNm));
+    if (optics.scatteringAngleDeg != null)
+      form.set('scatteringAngleDeg', String(optics.scatteringAngleDeg));
     return this.http
       .post<unknown>(`${API}/rounds/${id}/submission/attachments`, form, {
         params: this.params(),
@@ -116,7 +153,8 @@ export class BenchService {
       })
       .pipe(
         tap((e) => {
-          if (e.type === HttpEventType.UploadProgress && e.total) progress?.(Math.round((100 * e.loaded) / e.total));
+          if (e.type === HttpEventType.UploadProgress && e.total)
+            progress?.(Math.round((100 * e.loaded) / e.total));
         }),
         filter((e): e is HttpResponse<unknown> => e.type === HttpEventType.Response),
         map((e) => AttachmentDto.parse(e.body)),
@@ -127,7 +165,10 @@ export class BenchService {
     const form = new FormData();
     form.set('file', file);
     return this.http
-      .post<unknown>(`${API}/rounds/${id}/submission/upload.xlsx`, form, { params: this.params(), ...handled(400, 409, 413, 415, 422) })
+      .post<unknown>(`${API}/rounds/${id}/submission/upload.xlsx`, form, {
+        params: this.params(),
+        ...handled(400, 409, 413, 415, 422),
+      })
       .pipe(map((b) => WorkbookUploadResult.parse(b)));
   }
 

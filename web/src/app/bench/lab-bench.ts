@@ -29,46 +29,93 @@ export const STATUS_LABELS: Record<MyRoundStatus, string> = {
       } @else if (loading()) {
         <p>Loading your rounds…</p>
       } @else if (rounds().length === 0) {
-        <p data-testid="no-rounds">Your lab has no rounds yet. Invitations from the PT provider appear here.</p>
+        <p data-testid="no-rounds">
+          Your lab has no rounds yet. Invitations from the PT provider appear here.
+        </p>
       } @else {
         <div class="table-scroll">
-        <table class="bench-table" data-testid="my-rounds">
-          <caption class="visually-hidden">Your lab’s rounds</caption>
-          <thead>
-            <tr><th scope="col">Round</th><th scope="col">Participant code</th><th scope="col">Status</th><th scope="col">Results due</th><th scope="col">Locks at</th><th scope="col" class="num">Version</th></tr>
-          </thead>
-          <tbody>
-            @for (r of rounds(); track r.roundId) {
-              <tr [attr.data-status]="r.status">
-                <td>
-                  @if (r.status !== 'invited') {
-                    <a [routerLink]="['/bench/rounds', r.roundId]">{{ r.code }} · {{ r.title }}</a>
-                  } @else {
-                    {{ r.code }} · {{ r.title }}
-                  }
-                </td>
-                <td>{{ r.participantCode ?? '—' }}</td>
-                <td><span class="status status-{{ r.status }}">{{ labels[r.status] }}</span></td>
-                <td>{{ r.resultsDueAt ? (r.resultsDueAt | date: 'medium') : '—' }}</td>
-                <td>{{ r.locksAt ? (r.locksAt | date: 'medium') : '—' }}@if (r.extensionUntil) { <small> (extension)</small> }</td>
-                <td class="num">{{ r.submittedVersion || '—' }}</td>
+          <table class="bench-table" data-testid="my-rounds">
+            <caption class="visually-hidden">
+              Your lab’s rounds
+            </caption>
+            <thead>
+              <tr>
+                <th scope="col">Round</th>
+                <th scope="col">Participant code</th>
+                <th scope="col">Status</th>
+                <th scope="col">Results due</th>
+                <th scope="col">Locks at</th>
+                <th scope="col" class="num">Version</th>
               </tr>
-            }
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              @for (r of rounds(); track r.roundId) {
+                <tr [attr.data-status]="r.status">
+                  <td>
+                    @if (r.status !== 'invited') {
+                      <a [routerLink]="['/bench/rounds', r.roundId]"
+                        >{{ r.code }} · {{ r.title }}</a
+                      >
+                    } @else {
+                      {{ r.code }} · {{ r.title }}
+                    }
+                  </td>
+                  <td>{{ r.participantCode ?? '—' }}</td>
+                  <td>
+                    <span class="status status-{{ r.status }}">{{ labels[r.status] }}</span>
+                  </td>
+                  <td>{{ r.resultsDueAt ? (r.resultsDueAt | date: 'medium') : '—' }}</td>
+                  <td>
+                    {{ r.locksAt ? (r.locksAt | date: 'medium') : '—' }}
+                    @if (r.extensionUntil) {
+                      <small> (extension)</small>
+                    }
+                  </td>
+                  <td class="num">{{ r.submittedVersion || '—' }}</td>
+                </tr>
+              }
+            </tbody>
+          </table>
         </div>
       }
     </section>
   `,
   styles: `
-    .bench-table { border-collapse: collapse; width: 100%; min-width: 640px; font-size: 14px; }
-    .bench-table th, .bench-table td { text-align: left; padding: 6px 10px; border-bottom: 1px solid #d8dde3; }
-    .bench-table .num { text-align: right; }
-    .status { font-weight: 500; }
-    .status-due-soon { color: #b7791f; }
-    .status-submitted, .status-published { color: #1b7f79; }
-    .status-locked { color: #a4262c; }
-    .visually-hidden { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); }
+    .bench-table {
+      border-collapse: collapse;
+      width: 100%;
+      min-width: 640px;
+      font-size: 14px;
+    }
+    .bench-table th,
+    .bench-table td {
+      text-align: left;
+      padding: 6px 10px;
+      border-bottom: 1px solid #d8dde3;
+    }
+    .bench-table .num {
+      text-align: right;
+    }
+    .status {
+      font-weight: 500;
+    }
+    .status-due-soon {
+      color: #b7791f;
+    }
+    .status-submitted,
+    .status-published {
+      color: #1b7f79;
+    }
+    .status-locked {
+      color: #a4262c;
+    }
+    .visually-hidden {
+      position: absolute;
+      width: 1px;
+      height: 1px;
+      overflow: hidden;
+      clip: rect(0 0 0 0);
+    }
   `,
 })
 export class LabBench {

@@ -5,7 +5,12 @@ import type { MeasurementConditions, SubmissionData } from '@ringlet/shared/cont
 type Num = FormControl<number | null>;
 type Text = FormControl<string>;
 
-export type ResultRow = FormGroup<{ replicates: FormArray<Num>; uKind: FormControl<'none' | 'standard' | 'expanded'>; uValue: Num; k: Num }>;
+export type ResultRow = FormGroup<{
+  replicates: FormArray<Num>;
+  uKind: FormControl<'none' | 'standard' | 'expanded'>;
+  uValue: Num;
+  k: Num;
+}>;
 export type ConditionsGroup = FormGroup<{
   instrument: Text;
   laserWavelengthNm: Num;
@@ -19,25 +24,44 @@ export type ConditionsGroup = FormGroup<{
   filterPoreUm: Num;
   cuvette: Text;
 }>;
-export type ItemGroup = FormGroup<{ results: FormArray<ResultRow>; conditions: ConditionsGroup; methodNotes: Text }>;
+export type ItemGroup = FormGroup<{
+  results: FormArray<ResultRow>;
+  conditions: ConditionsGroup;
+  methodNotes: Text;
+}>;
 export type ResultsForm = FormArray<ItemGroup>;
 
 const num = (v: number | null = null) => new FormControl<number | null>(v);
 const text = (v = '') => new FormControl<string>(v, { nonNullable: true });
 
 /** One form group per item × measurand, prefilled from a draft (items and measurands in the round's order). */
-export function buildResultsForm(items: BenchItem[], measurands: BenchMeasurand[], draft: SubmissionData, protocolTemperatureC: number): ResultsForm {
+export function buildResultsForm(
+  items: BenchItem[],
+  measurands: BenchMeasurand[],
+  draft: SubmissionData,
+  protocolTemperatureC: number,
+): ResultsForm {
   return new FormArray(
     items.map((item) => {
       const d = draft.items.find((x) => x.testItemId === item.id);
-      const c: Partial<MeasurementConditions> = d?.conditions ?? { temperatureC: protocolTemperatureC, dispersant: 'water' };
+      const c: Partial<MeasurementConditions> = d?.conditions ?? {
+        temperatureC: protocolTemperatureC,
+        dispersant: 'water',
+      };
       return new FormGroup({
         results: new FormArray(
           measurands.map((m) => {
             const r = d?.results.find((x) => x.measurandId === m.id);
             return new FormGroup({
-              replicates: new FormArray(Array.from({ length: m.replicatesRequired }, (_, k) => num(r?.replicates[k] ?? null))),
-              uKind: new FormControl<'none' | 'standard' | 'expanded'>(r?.uncertainty?.kind ?? 'none', { nonNullable: true }),
+              replicates: new FormArray(
+                Array.from({ length: m.replicatesRequired }, (_, k) =>
+                  num(r?.replicates[k] ?? null),
+                ),
+              ),
+              uKind: new FormControl<'none' | 'standard' | 'expanded'>(
+                r?.uncertainty?.kind ?? 'none',
+                { nonNullable: true },
+              ),
               uValue: num(r?.uncertainty?.value ?? null),
               k: num(r?.uncertainty?.k ?? null),
             });
@@ -62,7 +86,8 @@ export function buildResultsForm(items: BenchItem[], measurands: BenchMeasurand[
   );
 }
 
-const finiteOrNull = (v: number | null | undefined) => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+const finiteOrNull = (v: number | null | undefined) =>
+  typeof v === 'number' && Number.isFinite(v) ? v : null;
 
 /** The form as SubmissionData (the shape the server validates again). */
 export function resultsFromForm(
@@ -83,7 +108,11 @@ export function resultsFromForm(
           uncertainty:
             r.uKind === 'none' || finiteOrNull(r.uValue) === null || (r.uValue ?? 0) <= 0
               ? null
-              : { kind: r.uKind, value: r.uValue!, k: r.uKind === 'expanded' ? (finiteOrNull(r.k) ?? 2) : null },
+              : {
+                  kind: r.uKind,
+                  value: r.uValue!,
+                  k: r.uKind === 'expanded' ? (finiteOrNull(r.k) ?? 2) : null,
+                },
         })),
         conditions: {
           ...v.conditions,
@@ -104,7 +133,11 @@ export function resultsFromForm(
 }
 
 /** The condition fields, labelled with their units, in tab order. */
-export const CONDITION_FIELDS: { key: keyof MeasurementConditions; label: string; numeric: boolean }[] = [
+export const CONDITION_FIELDS: {
+  key: keyof MeasurementConditions;
+  label: string;
+  numeric: boolean;
+}[] = [
   { key: 'instrument', label: 'Instrument', numeric: false },
   { key: 'laserWavelengthNm', label: 'Laser wavelength (nm)', numeric: true },
   { key: 'scatteringAngleDeg', label: 'Scattering angle (°)', numeric: true },

@@ -15,7 +15,11 @@ import { BoardService } from './board.service';
   selector: 'app-signal-count-cell',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [SignalBadge],
-  template: `@if (count() === null) { <span aria-label="no evaluation">—</span> } @else { <app-signal-badge [signal]="kind()" [label]="'' + count()" /> }`,
+  template: `@if (count() === null) {
+      <span aria-label="no evaluation">—</span>
+    } @else {
+      <app-signal-badge [signal]="kind()" [label]="'' + count()" />
+    }`,
 })
 export class SignalCountCell implements ICellRendererAngularComp {
   protected readonly kind = signal<SignalKind>('acceptable');
@@ -67,34 +71,83 @@ export class BoardList implements OnInit {
   protected readonly rowId = (p: { data: BoardListEntry }) => p.data.roundId;
 
   private readonly actions: RowAction<BoardListEntry>[] = [
-    { label: 'Board', ariaLabel: (r) => `Open the Consensus board of ${r.roundCode}`, run: (r) => this.open(r, r.evaluationState ? [] : ['evaluation']) },
+    {
+      label: 'Board',
+      ariaLabel: (r) => `Open the Consensus board of ${r.roundCode}`,
+      run: (r) => this.open(r, r.evaluationState ? [] : ['evaluation']),
+    },
     ...(this.auth.hasRole('coordinator')
-      ? [{ label: 'Evaluation', ariaLabel: (r: BoardListEntry) => `Open the evaluation of ${r.roundCode}`, run: (r: BoardListEntry) => this.open(r, ['evaluation']) }]
+      ? [
+          {
+            label: 'Evaluation',
+            ariaLabel: (r: BoardListEntry) => `Open the evaluation of ${r.roundCode}`,
+            run: (r: BoardListEntry) => this.open(r, ['evaluation']),
+          },
+        ]
       : []),
     ...(this.auth.hasRole('lab')
-      ? [{ label: 'My scores', ariaLabel: (r: BoardListEntry) => `My scores in ${r.roundCode}`, run: (r: BoardListEntry) => this.open(r, ['scores']) }]
+      ? [
+          {
+            label: 'My scores',
+            ariaLabel: (r: BoardListEntry) => `My scores in ${r.roundCode}`,
+            run: (r: BoardListEntry) => this.open(r, ['scores']),
+          },
+        ]
       : []),
   ];
 
   private count(kind: SignalKind, header: string): ColDef<BoardListEntry> {
     return {
-      field: kind, headerName: header, width: 100, type: 'rightAligned',
-      cellRenderer: SignalCountCell, cellRendererParams: { kind },
+      field: kind,
+      headerName: header,
+      width: 100,
+      type: 'rightAligned',
+      cellRenderer: SignalCountCell,
+      cellRendererParams: { kind },
     };
   }
 
   protected readonly columns: ColDef<BoardListEntry>[] = [
-    { field: 'roundCode', headerName: 'Round', width: 110, pinned: 'left', filter: 'agTextColumnFilter' },
-    { field: 'roundTitle', headerName: 'Title', flex: 1, minWidth: 140, filter: 'agTextColumnFilter' },
-    { field: 'roundState', headerName: 'State', width: 100, valueFormatter: ({ value }) => ROUND_STATE_LABELS[value as RoundState] ?? String(value) },
     {
-      colId: 'evaluation', headerName: 'Evaluation', width: 170,
-      valueGetter: ({ data }) => (data?.evaluationState ? `${EVALUATION_STATE_LABELS[data.evaluationState]}, v${data.version}` : 'Not evaluated yet'),
+      field: 'roundCode',
+      headerName: 'Round',
+      width: 110,
+      pinned: 'left',
+      filter: 'agTextColumnFilter',
+    },
+    {
+      field: 'roundTitle',
+      headerName: 'Title',
+      flex: 1,
+      minWidth: 140,
+      filter: 'agTextColumnFilter',
+    },
+    {
+      field: 'roundState',
+      headerName: 'State',
+      width: 100,
+      valueFormatter: ({ value }) => ROUND_STATE_LABELS[value as RoundState] ?? String(value),
+    },
+    {
+      colId: 'evaluation',
+      headerName: 'Evaluation',
+      width: 170,
+      valueGetter: ({ data }) =>
+        data?.evaluationState
+          ? `${EVALUATION_STATE_LABELS[data.evaluationState]}, v${data.version}`
+          : 'Not evaluated yet',
     },
     this.count('acceptable', 'Acceptable'),
     this.count('warning', 'Warning'),
     this.count('action', 'Action'),
-    { colId: 'actions', headerName: '', width: 200, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.actions } },
+    {
+      colId: 'actions',
+      headerName: '',
+      width: 200,
+      sortable: false,
+      cellRenderer: ActionCell,
+      cellRendererParams: { actions: this.actions },
+    },
   ];
 
   private open(r: BoardListEntry, tail: string[]): void {

@@ -1,5 +1,13 @@
 import './board-grid';
-import { ChangeDetectionStrategy, Component, OnInit, computed, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  OnInit,
+  computed,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
 import { FormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -9,7 +17,14 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { RouterLink } from '@angular/router';
 import { AgGridAngular } from 'ag-grid-angular';
-import type { ColDef, ColGroupDef, GridApi, GridReadyEvent, RowClassParams, RowStyle } from 'ag-grid-community';
+import type {
+  ColDef,
+  ColGroupDef,
+  GridApi,
+  GridReadyEvent,
+  RowClassParams,
+  RowStyle,
+} from 'ag-grid-community';
 import type { BoardData, BoardRow } from '@ringlet/shared/contracts/evaluation';
 import { AuthService } from '../core/auth.service';
 import { problemMessage } from '../core/problem';
@@ -35,28 +50,59 @@ const HINT_WORDS: Record<string, string> = {
 @Component({
   selector: 'app-board-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular, FormsModule, MatButtonModule, MatIconModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatSlideToggleModule, RouterLink, ChartPanel],
+  imports: [
+    AgGridAngular,
+    FormsModule,
+    MatButtonModule,
+    MatIconModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    MatSlideToggleModule,
+    RouterLink,
+    ChartPanel,
+  ],
   styleUrl: './board.scss',
   template: `
     <section class="page">
-      <h1 data-testid="page-heading">Consensus board{{ board() ? ': ' + board()!.roundCode : '' }}</h1>
-      @if (error()) { <p class="form-error" role="alert">{{ error() }}</p> }
+      <h1 data-testid="page-heading">
+        Consensus board{{ board() ? ': ' + board()!.roundCode : '' }}
+      </h1>
+      @if (error()) {
+        <p class="form-error" role="alert">{{ error() }}</p>
+      }
       @if (board(); as b) {
         <p class="note">
-          {{ b.roundTitle }} · evaluation version {{ b.version }} ({{ b.state }}) · {{ b.rows.length }} participants.
-          Labs appear by participant code only{{ b.ownCodes.length ? '; your row is marked “your lab”' : '' }}.
+          {{ b.roundTitle }} · evaluation version {{ b.version }} ({{ b.state }}) ·
+          {{ b.rows.length }} participants. Labs appear by participant code only{{
+            b.ownCodes.length ? '; your row is marked “your lab”' : ''
+          }}.
         </p>
         <div class="toolbar">
           <mat-form-field appearance="outline" subscriptSizing="dynamic">
             <mat-label>Filter rows</mat-label>
-            <input matInput [ngModel]="quick()" (ngModelChange)="quick.set($event)" data-testid="board-filter" />
+            <input
+              matInput
+              [ngModel]="quick()"
+              (ngModelChange)="quick.set($event)"
+              data-testid="board-filter"
+            />
           </mat-form-field>
           @if (b.canRevealNames) {
-            <mat-slide-toggle [checked]="reveal()" (change)="toggleNames($event.checked)" data-testid="reveal-names">Show lab names</mat-slide-toggle>
+            <mat-slide-toggle
+              [checked]="reveal()"
+              (change)="toggleNames($event.checked)"
+              data-testid="reveal-names"
+              >Show lab names</mat-slide-toggle
+            >
             <a mat-button [routerLink]="['/board/rounds', b.roundId, 'evaluation']">Evaluation</a>
           }
-          @if (b.ownCodes.length) { <a mat-button [routerLink]="['/board/rounds', b.roundId, 'scores']">My scores</a> }
-          <button mat-stroked-button type="button" (click)="exportCsv()" data-testid="export-csv"><mat-icon>download</mat-icon> Export CSV</button>
+          @if (b.ownCodes.length) {
+            <a mat-button [routerLink]="['/board/rounds', b.roundId, 'scores']">My scores</a>
+          }
+          <button mat-stroked-button type="button" (click)="exportCsv()" data-testid="export-csv">
+            <mat-icon>download</mat-icon> Export CSV
+          </button>
         </div>
         <ag-grid-angular
           class="board-grid"
@@ -77,12 +123,20 @@ const HINT_WORDS: Record<string, string> = {
         <mat-form-field appearance="outline" subscriptSizing="dynamic">
           <mat-label>Item and measurand</mat-label>
           <mat-select [value]="group()" (valueChange)="group.set($event)" data-testid="chart-group">
-            @for (g of b.groups; track $index) { <mat-option [value]="$index">{{ g.itemCode }} · {{ g.measurandName }}</mat-option> }
+            @for (g of b.groups; track $index) {
+              <mat-option [value]="$index">{{ g.itemCode }} · {{ g.measurandName }}</mat-option>
+            }
           </mat-select>
         </mat-form-field>
         <div class="charts">
           @for (c of charts(); track c.name) {
-            <app-chart-panel [name]="c.name" [caption]="c.caption" [option]="c.option" [text]="c.text" [table]="c.table" />
+            <app-chart-panel
+              [name]="c.name"
+              [caption]="c.caption"
+              [option]="c.option"
+              [text]="c.text"
+              [table]="c.table"
+            />
           }
         </div>
       } @else if (!error()) {
@@ -103,7 +157,12 @@ export class BoardPage implements OnInit {
   protected readonly group = signal(0);
   private api: GridApi<GridRow> | null = null;
 
-  protected readonly defaultCol: ColDef = { sortable: true, resizable: true, filter: 'agNumberColumnFilter', width: 92 };
+  protected readonly defaultCol: ColDef = {
+    sortable: true,
+    resizable: true,
+    filter: 'agNumberColumnFilter',
+    width: 92,
+  };
   protected readonly rowId = (p: { data: GridRow }) => p.data.code;
   protected readonly rowStyle = (p: RowClassParams<GridRow>): RowStyle | undefined =>
     p.data?.own ? { fontWeight: '600', background: '#e3f1ef' } : undefined;
@@ -130,19 +189,38 @@ export class BoardPage implements OnInit {
       },
     ];
     if (Object.keys(b.labNames).length > 0) {
-      cols.push({ field: 'lab', headerName: 'Lab', pinned: 'left', width: 180, filter: 'agTextColumnFilter' });
+      cols.push({
+        field: 'lab',
+        headerName: 'Lab',
+        pinned: 'left',
+        width: 180,
+        filter: 'agTextColumnFilter',
+      });
     }
     b.groups.forEach((g, gi) => {
       const unit = g.unit ? ` (${g.unit})` : '';
-      const num = (digits: number) => (p: { value: number | null | undefined }) => (p.value === null || p.value === undefined ? '—' : p.value.toFixed(digits));
+      const num = (digits: number) => (p: { value: number | null | undefined }) =>
+        p.value === null || p.value === undefined ? '—' : p.value.toFixed(digits);
       const cell = (r: GridRow | undefined) => r?.cells[gi] ?? null;
       const scoreName = g.scoreKind === 'z' ? 'z' : 'z′';
       cols.push({
         headerName: `${g.itemCode} · ${g.measurandName}${unit}`,
         marryChildren: true,
         children: [
-          { colId: `g${gi}-result`, headerName: `Result${unit}`, type: 'rightAligned', valueGetter: (p) => cell(p.data)?.result ?? null, valueFormatter: num(g.decimals) },
-          { colId: `g${gi}-sd`, headerName: 'Replicate SD', type: 'rightAligned', valueGetter: (p) => cell(p.data)?.sd ?? null, valueFormatter: num(g.decimals + 1) },
+          {
+            colId: `g${gi}-result`,
+            headerName: `Result${unit}`,
+            type: 'rightAligned',
+            valueGetter: (p) => cell(p.data)?.result ?? null,
+            valueFormatter: num(g.decimals),
+          },
+          {
+            colId: `g${gi}-sd`,
+            headerName: 'Replicate SD',
+            type: 'rightAligned',
+            valueGetter: (p) => cell(p.data)?.sd ?? null,
+            valueFormatter: num(g.decimals + 1),
+          },
           {
             colId: `g${gi}-score`,
             headerName: scoreName,
@@ -153,9 +231,30 @@ export class BoardPage implements OnInit {
             },
             valueFormatter: num(2),
           },
-          { colId: `g${gi}-zeta`, headerName: 'ζ', type: 'rightAligned', width: 74, valueGetter: (p) => cell(p.data)?.zeta ?? null, valueFormatter: num(2) },
-          { colId: `g${gi}-en`, headerName: 'En', type: 'rightAligned', width: 74, valueGetter: (p) => cell(p.data)?.en ?? null, valueFormatter: num(2) },
-          { colId: `g${gi}-signal`, headerName: 'Signal', width: 122, filter: 'agTextColumnFilter', valueGetter: (p) => cell(p.data)?.signal ?? null, cellRenderer: SignalCell },
+          {
+            colId: `g${gi}-zeta`,
+            headerName: 'ζ',
+            type: 'rightAligned',
+            width: 74,
+            valueGetter: (p) => cell(p.data)?.zeta ?? null,
+            valueFormatter: num(2),
+          },
+          {
+            colId: `g${gi}-en`,
+            headerName: 'En',
+            type: 'rightAligned',
+            width: 74,
+            valueGetter: (p) => cell(p.data)?.en ?? null,
+            valueFormatter: num(2),
+          },
+          {
+            colId: `g${gi}-signal`,
+            headerName: 'Signal',
+            width: 122,
+            filter: 'agTextColumnFilter',
+            valueGetter: (p) => cell(p.data)?.signal ?? null,
+            cellRenderer: SignalCell,
+          },
           {
             colId: `g${gi}-hints`,
             headerName: 'Hints',
@@ -164,7 +263,11 @@ export class BoardPage implements OnInit {
             valueGetter: (p) => {
               const c = cell(p.data);
               if (!c) return '';
-              return [...(c.notScored ? [c.notScored] : []), ...(c.hints ?? []).map((h) => HINT_WORDS[h] ?? h), ...(c.excluded ? ['excluded from x_pt'] : [])].join('; ');
+              return [
+                ...(c.notScored ? [c.notScored] : []),
+                ...(c.hints ?? []).map((h) => HINT_WORDS[h] ?? h),
+                ...(c.excluded ? ['excluded from x_pt'] : []),
+              ].join('; ');
             },
           },
         ],

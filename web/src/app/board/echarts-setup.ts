@@ -3,10 +3,27 @@
  * feature, never in the initial bundle).
  */
 import { BarChart, CustomChart, LineChart, ScatterChart } from 'echarts/charts';
-import { GridComponent, MarkAreaComponent, MarkLineComponent, TitleComponent, TooltipComponent } from 'echarts/components';
+import {
+  GridComponent,
+  MarkAreaComponent,
+  MarkLineComponent,
+  TitleComponent,
+  TooltipComponent,
+} from 'echarts/components';
 import * as echarts from 'echarts/core';
 import { SVGRenderer } from 'echarts/renderers';
 
-echarts.use([BarChart, LineChart, ScatterChart, CustomChart, GridComponent, TitleComponent, TooltipComponent, MarkLineComponent, MarkAreaComponent, SVGRenderer]);
+echarts.use([
+  BarChart,
+  LineChart,
+  ScatterChart,
+  CustomChart,
+  GridComponent,
+  TitleComponent,
+  TooltipComponent,
+  MarkLineComponent,
+  MarkAreaComponent,
+  SVGRenderer,
+]);
 
 export { echarts };

@@ -5,7 +5,14 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import { CAUSE_CATEGORIES, CAUSE_CATEGORY_LABELS, INVESTIGATION_STATE_LABELS, InvestigationUpdate, type CauseCategory, type InvestigationDto } from '@ringlet/shared/contracts/evaluation';
+import {
+  CAUSE_CATEGORIES,
+  CAUSE_CATEGORY_LABELS,
+  INVESTIGATION_STATE_LABELS,
+  InvestigationUpdate,
+  type CauseCategory,
+  type InvestigationDto,
+} from '@ringlet/shared/contracts/evaluation';
 import { problemMessage } from '../core/problem';
 import { SignalBadge } from '../core/signal-badge';
 import { BoardService } from './board.service';
@@ -14,36 +21,68 @@ import { BoardService } from './board.service';
 @Component({
   selector: 'app-investigation-page',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatSelectModule, RouterLink, SignalBadge],
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    RouterLink,
+    SignalBadge,
+  ],
   styleUrl: './board.scss',
   template: `
     <section class="page">
       <h1 data-testid="page-heading">Investigation</h1>
-      @if (error()) { <p class="form-error" role="alert">{{ error() }}</p> }
+      @if (error()) {
+        <p class="form-error" role="alert">{{ error() }}</p>
+      }
       @if (inv(); as i) {
         <p>
-          Round {{ i.roundCode }} · {{ i.labName }} ({{ i.participantCode }}) · item {{ i.itemCode }} · {{ i.measurandName }}:
-          <app-signal-badge [signal]="i.signal" /> ({{ i.scoreKind === 'z' ? 'z' : 'z′' }} = {{ i.score.toFixed(2) }}) · {{ stateLabels[i.state] }}
-          @if (i.closedAt) { — closed by {{ i.closedByName }} on {{ date(i.closedAt) }} }
+          Round {{ i.roundCode }} · {{ i.labName }} ({{ i.participantCode }}) · item
+          {{ i.itemCode }} · {{ i.measurandName }}: <app-signal-badge [signal]="i.signal" /> ({{
+            i.scoreKind === 'z' ? 'z' : 'z′'
+          }}
+          = {{ i.score.toFixed(2) }}) · {{ stateLabels[i.state] }}
+          @if (i.closedAt) {
+            — closed by {{ i.closedByName }} on {{ date(i.closedAt) }}
+          }
         </p>
         <form class="form-stack" [formGroup]="form" (ngSubmit)="save()">
           <mat-form-field appearance="outline">
             <mat-label>Cause category</mat-label>
             <mat-select formControlName="causeCategory" data-testid="cause">
-              @for (c of causeKeys; track c) { <mat-option [value]="c">{{ causes[c] }}</mat-option> }
+              @for (c of causeKeys; track c) {
+                <mat-option [value]="c">{{ causes[c] }}</mat-option>
+              }
             </mat-select>
           </mat-form-field>
-          <mat-form-field appearance="outline"><mat-label>Root cause</mat-label><textarea matInput rows="3" formControlName="rootCause"></textarea></mat-form-field>
-          <mat-form-field appearance="outline"><mat-label>Corrective action</mat-label><textarea matInput rows="3" formControlName="correctiveAction"></textarea></mat-form-field>
-          <mat-form-field appearance="outline"><mat-label>Effectiveness check</mat-label><textarea matInput rows="3" formControlName="effectivenessCheck"></textarea></mat-form-field>
+          <mat-form-field appearance="outline"
+            ><mat-label>Root cause</mat-label
+            ><textarea matInput rows="3" formControlName="rootCause"></textarea>
+          </mat-form-field>
+          <mat-form-field appearance="outline"
+            ><mat-label>Corrective action</mat-label
+            ><textarea matInput rows="3" formControlName="correctiveAction"></textarea>
+          </mat-form-field>
+          <mat-form-field appearance="outline"
+            ><mat-label>Effectiveness check</mat-label
+            ><textarea matInput rows="3" formControlName="effectivenessCheck"></textarea>
+          </mat-form-field>
           @if (i.canEdit) {
             <div class="page-actions">
               <button mat-flat-button type="submit">Save</button>
-              @if (i.canClose) { <button mat-stroked-button type="button" (click)="close()">Close investigation</button> }
+              @if (i.canClose) {
+                <button mat-stroked-button type="button" (click)="close()">
+                  Close investigation
+                </button>
+              }
             </div>
           }
         </form>
-        @if (message()) { <p role="status">{{ message() }}</p> }
+        @if (message()) {
+          <p role="status">{{ message() }}</p>
+        }
         <p><a routerLink="/board/investigations">All investigations</a></p>
       }
     </section>
@@ -66,12 +105,20 @@ export class InvestigationPage implements OnInit {
   });
 
   ngOnInit(): void {
-    this.service.investigation(this.id()).subscribe({ next: (i) => this.show(i), error: (e: unknown) => this.error.set(problemMessage(e)) });
+    this.service.investigation(this.id()).subscribe({
+      next: (i) => this.show(i),
+      error: (e: unknown) => this.error.set(problemMessage(e)),
+    });
   }
 
   private show(i: InvestigationDto): void {
     this.inv.set(i);
-    this.form.setValue({ causeCategory: i.causeCategory, rootCause: i.rootCause, correctiveAction: i.correctiveAction, effectivenessCheck: i.effectivenessCheck });
+    this.form.setValue({
+      causeCategory: i.causeCategory,
+      rootCause: i.rootCause,
+      correctiveAction: i.correctiveAction,
+      effectivenessCheck: i.effectivenessCheck,
+    });
     if (i.canEdit) this.form.enable();
     else this.form.disable();
   }
@@ -93,18 +140,20 @@ export class InvestigationPage implements OnInit {
   }
 
   protected close(): void {
-    this.service.updateInvestigation(this.id(), InvestigationUpdate.parse(this.form.getRawValue())).subscribe({
-      next: () =>
-        this.service.closeInvestigation(this.id()).subscribe({
-          next: (i) => {
-            this.show(i);
-            this.error.set(null);
-            this.message.set('Closed.');
-          },
-          error: (e: unknown) => this.error.set(problemMessage(e)),
-        }),
-      error: (e: unknown) => this.error.set(problemMessage(e)),
-    });
+    this.service
+      .updateInvestigation(this.id(), InvestigationUpdate.parse(this.form.getRawValue()))
+      .subscribe({
+        next: () =>
+          this.service.closeInvestigation(this.id()).subscribe({
+            next: (i) => {
+              this.show(i);
+              this.error.set(null);
+              this.message.set('Closed.');
+            },
+            error: (e: unknown) => this.error.set(problemMessage(e)),
+          }),
+        error: (e: unknown) => this.error.set(problemMessage(e)),
+      });
   }
 
   protected date(iso: string): string {

@@ -14,48 +14,86 @@ import { BoardService } from './board.service';
   template: `
     <section class="page">
       <h1 data-testid="page-heading">My scores{{ data() ? ': ' + data()!.roundCode : '' }}</h1>
-      @if (error()) { <p class="form-error" role="alert">{{ error() }}</p> }
+      @if (error()) {
+        <p class="form-error" role="alert">{{ error() }}</p>
+      }
       @if (data(); as d) {
         <p class="note">
-          {{ d.labName }} took part as <strong data-testid="own-code">{{ d.participantCode }}</strong>. Other labs appear by their codes only.
-          Evaluation version {{ d.version }}{{ d.publishedAt ? ', published ' + date(d.publishedAt) : '' }}.
+          {{ d.labName }} took part as
+          <strong data-testid="own-code">{{ d.participantCode }}</strong>. Other labs appear by
+          their codes only. Evaluation version {{ d.version
+          }}{{ d.publishedAt ? ', published ' + date(d.publishedAt) : '' }}.
         </p>
-        @if (d.reissueReason) { <p class="note" data-testid="reissue-reason">Corrected version: {{ d.reissueReason }}</p> }
+        @if (d.reissueReason) {
+          <p class="note" data-testid="reissue-reason">Corrected version: {{ d.reissueReason }}</p>
+        }
         <div class="table-scroll">
-        <table class="rl-table" aria-label="My scores">
-          <thead>
-            <tr><th>Item</th><th>Measurand</th><th class="num">Result</th><th class="num">x_pt</th><th class="num">σ_pt</th><th class="num">Score</th><th>Signal</th></tr>
-          </thead>
-          <tbody>
-            @for (s of d.scores; track s.itemCode + s.measurandKey) {
+          <table class="rl-table" aria-label="My scores">
+            <thead>
               <tr>
-                <td>{{ s.itemCode }}</td>
-                <td>{{ s.measurandName }}{{ s.unit ? ' (' + s.unit + ')' : '' }}</td>
-                <td class="num">{{ s.score.result.toFixed(s.decimals) }}</td>
-                <td class="num">{{ s.assignedValue === null ? '—' : s.assignedValue.toFixed(s.decimals) }}</td>
-                <td class="num">{{ s.sigmaPt === null ? '—' : s.sigmaPt.toFixed(s.decimals + 1) }}</td>
-                <td class="num">{{ scoreOf(s) }}</td>
-                <td>@if (s.score.signal) { <app-signal-badge [signal]="s.score.signal" /> } @else { — }</td>
+                <th>Item</th>
+                <th>Measurand</th>
+                <th class="num">Result</th>
+                <th class="num">x_pt</th>
+                <th class="num">σ_pt</th>
+                <th class="num">Score</th>
+                <th>Signal</th>
               </tr>
-            }
-          </tbody>
-        </table>
+            </thead>
+            <tbody>
+              @for (s of d.scores; track s.itemCode + s.measurandKey) {
+                <tr>
+                  <td>{{ s.itemCode }}</td>
+                  <td>{{ s.measurandName }}{{ s.unit ? ' (' + s.unit + ')' : '' }}</td>
+                  <td class="num">{{ s.score.result.toFixed(s.decimals) }}</td>
+                  <td class="num">
+                    {{ s.assignedValue === null ? '—' : s.assignedValue.toFixed(s.decimals) }}
+                  </td>
+                  <td class="num">
+                    {{ s.sigmaPt === null ? '—' : s.sigmaPt.toFixed(s.decimals + 1) }}
+                  </td>
+                  <td class="num">{{ scoreOf(s) }}</td>
+                  <td>
+                    @if (s.score.signal) {
+                      <app-signal-badge [signal]="s.score.signal" />
+                    } @else {
+                      —
+                    }
+                  </td>
+                </tr>
+              }
+            </tbody>
+          </table>
         </div>
         @for (s of d.scores; track s.itemCode + s.measurandKey) {
-          <article class="score-card" [attr.data-testid]="'score-' + s.itemCode + '-' + s.measurandKey">
+          <article
+            class="score-card"
+            [attr.data-testid]="'score-' + s.itemCode + '-' + s.measurandKey"
+          >
             <h2>
               Item {{ s.itemCode }} · {{ s.measurandName }}
-              @if (s.score.signal) { <app-signal-badge [signal]="s.score.signal" /> }
+              @if (s.score.signal) {
+                <app-signal-badge [signal]="s.score.signal" />
+              }
             </h2>
             <div class="explain">
-              @for (line of s.explanation; track $index) { <p>{{ line }}</p> }
+              @for (line of s.explanation; track $index) {
+                <p>{{ line }}</p>
+              }
             </div>
             @if (s.investigationId) {
-              <p><a [routerLink]="['/board/investigations', s.investigationId]">Open the investigation</a></p>
+              <p>
+                <a [routerLink]="['/board/investigations', s.investigationId]"
+                  >Open the investigation</a
+                >
+              </p>
             }
           </article>
         }
-        <p class="links"><a [routerLink]="['/board/rounds', d.roundId]">Consensus board</a><a routerLink="/bench/track-record">Track record</a></p>
+        <p class="links">
+          <a [routerLink]="['/board/rounds', d.roundId]">Consensus board</a
+          ><a routerLink="/bench/track-record">Track record</a>
+        </p>
       } @else if (!error()) {
         <p>Loading…</p>
       }

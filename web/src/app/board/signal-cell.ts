@@ -8,7 +8,11 @@ import { SignalBadge, type SignalKind } from '../core/signal-badge';
   selector: 'app-signal-cell',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [SignalBadge],
-  template: `@if (value(); as s) { <app-signal-badge [signal]="s" /> } @else { <span aria-label="no score">—</span> }`,
+  template: `@if (value(); as s) {
+      <app-signal-badge [signal]="s" />
+    } @else {
+      <span aria-label="no score">—</span>
+    }`,
 })
 export class SignalCell implements ICellRendererAngularComp {
   protected readonly value = signal<SignalKind | null>(null);

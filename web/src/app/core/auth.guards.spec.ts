@@ -42,19 +42,29 @@ describe('auth guards', () => {
   });
 
   it('authGuard sends a signed-out visitor to /sign-in with the return address', async () => {
-    expect(asUrl(await run(authGuard, '/admin/users', null))).toBe('/sign-in?returnUrl=%2Fadmin%2Fusers');
+    expect(asUrl(await run(authGuard, '/admin/users', null))).toBe(
+      '/sign-in?returnUrl=%2Fadmin%2Fusers',
+    );
   });
 
   it('roleGuard lets the role through and sends others to their own home', async () => {
-    expect(await run(roleGuard('coordinator'), '/desk', aMe({ roles: ['coordinator'] }))).toBe(true);
+    expect(await run(roleGuard('coordinator'), '/desk', aMe({ roles: ['coordinator'] }))).toBe(
+      true,
+    );
     TestBed.resetTestingModule();
-    TestBed.configureTestingModule({ providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()] });
+    TestBed.configureTestingModule({
+      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
+    });
     http = TestBed.inject(HttpTestingController);
-    expect(asUrl(await run(roleGuard('admin'), '/admin/users', aMe({ roles: ['lab'] })))).toBe('/bench');
+    expect(asUrl(await run(roleGuard('admin'), '/admin/users', aMe({ roles: ['lab'] })))).toBe(
+      '/bench',
+    );
   });
 
   it('roleGuard sends a user without any role to /no-role', async () => {
-    expect(asUrl(await run(roleGuard('assessor'), '/assessor', aMe({ roles: [] })))).toBe('/no-role');
+    expect(asUrl(await run(roleGuard('assessor'), '/assessor', aMe({ roles: [] })))).toBe(
+      '/no-role',
+    );
   });
 
   it('labManagerGuard needs a managed lab', async () => {
@@ -73,6 +83,8 @@ describe('auth guards', () => {
   });
 
   it('homeRedirectGuard sends / to the role home', async () => {
-    expect(asUrl(await run(homeRedirectGuard, '/', aMe({ roles: ['assessor'] })))).toBe('/assessor');
+    expect(asUrl(await run(homeRedirectGuard, '/', aMe({ roles: ['assessor'] })))).toBe(
+      '/assessor',
+    );
   });
 });

@@ -13,7 +13,10 @@ describe('AuthService', () => {
 
   beforeEach(() => {
     TestBed.configureTestingModule({
-      providers: [provideHttpClient(withInterceptors([csrfInterceptor])), provideHttpClientTesting()],
+      providers: [
+        provideHttpClient(withInterceptors([csrfInterceptor])),
+        provideHttpClientTesting(),
+      ],
     });
     auth = TestBed.inject(AuthService);
     http = TestBed.inject(HttpTestingController);
@@ -23,7 +26,9 @@ describe('AuthService', () => {
 
   it('load() asks GET /api/v1/auth/me and exposes me and roles as signals', async () => {
     const loaded = auth.load();
-    http.expectOne({ method: 'GET', url: '/api/v1/auth/me' }).flush(aMe({ roles: ['lab', 'assessor'] }));
+    http
+      .expectOne({ method: 'GET', url: '/api/v1/auth/me' })
+      .flush(aMe({ roles: ['lab', 'assessor'] }));
     await expect(loaded).resolves.toMatchObject({ name: 'Mira Okafor' });
     expect(auth.me()?.email).toBe('mira.okafor@example.test');
     expect(auth.roles()).toEqual(['lab', 'assessor']);
@@ -34,7 +39,10 @@ describe('AuthService', () => {
     const loaded = auth.load();
     http
       .expectOne('/api/v1/auth/me')
-      .flush({ error: { code: 'unauthenticated', message: 'Sign in.' } }, { status: 401, statusText: 'Unauthorized' });
+      .flush(
+        { error: { code: 'unauthenticated', message: 'Sign in.' } },
+        { status: 401, statusText: 'Unauthorized' },
+      );
     await expect(loaded).resolves.toBeNull();
     expect(auth.me()).toBeNull();
     expect(auth.roles()).toEqual([]);
@@ -50,12 +58,17 @@ describe('AuthService', () => {
   it('signIn() posts with the CSRF header, stores the user and forgets the old token', async () => {
     const csrf = TestBed.inject(CsrfService);
     const reset = jest.spyOn(csrf, 'reset');
-    const signedIn = firstValueFrom(auth.signIn({ email: 'mira.okafor@example.test', password: 'long enough pw' }));
+    const signedIn = firstValueFrom(
+      auth.signIn({ email: 'mira.okafor@example.test', password: 'long enough pw' }),
+    );
     http.expectOne('/api/v1/auth/csrf-token').flush({ token: 't-1', headerName: 'x-csrf-token' });
     await settle();
     const post = http.expectOne({ method: 'POST', url: '/api/v1/auth/sign-in' });
     expect(post.request.headers.get('x-csrf-token')).toBe('t-1');
-    expect(post.request.body).toEqual({ email: 'mira.okafor@example.test', password: 'long enough pw' });
+    expect(post.request.body).toEqual({
+      email: 'mira.okafor@example.test',
+      password: 'long enough pw',
+    });
     post.flush({ user: aMe({ roles: ['admin'] }) });
     await expect(signedIn).resolves.toMatchObject({ roles: ['admin'] });
     expect(auth.roles()).toEqual(['admin']);
@@ -70,7 +83,9 @@ describe('AuthService', () => {
     const out = firstValueFrom(auth.signOut());
     http.expectOne('/api/v1/auth/csrf-token').flush({ token: 't-2', headerName: 'x-csrf-token' });
     await settle();
-    http.expectOne('/api/v1/auth/sign-out').flush(null, { status: 500, statusText: 'Server Error' });
+    http
+      .expectOne('/api/v1/auth/sign-out')
+      .flush(null, { status: 500, statusText: 'Server Error' });
     await expect(out).rejects.toBeTruthy();
     expect(auth.me()).toBeNull();
   });

@@ -44,7 +44,9 @@ export class AuthService {
 
   /** GET /auth/me: who is signed in (null on 401). Always asks the server. */
   load(): Promise<Me | null> {
-    const request = firstValueFrom(this.http.get<unknown>(`${API}/auth/me`, { context: handled(401) })).then(
+    const request = firstValueFrom(
+      this.http.get<unknown>(`${API}/auth/me`, { context: handled(401) }),
+    ).then(
       async (body) => {
         const me = (await loadContracts()).Me.parse(body);
         this.current.set(me);
@@ -73,7 +75,9 @@ export class AuthService {
     return this.http
       .post<unknown>(`${API}/auth/sign-in`, request, { context: handled(400, 401, 429) })
       .pipe(
-        switchMap((body) => from(loadContracts()).pipe(map((c) => c.SignInResponse.parse(body).user))),
+        switchMap((body) =>
+          from(loadContracts()).pipe(map((c) => c.SignInResponse.parse(body).user)),
+        ),
         tap((me) => {
           // The server regenerated the session: the old CSRF token went with it.
           this.csrf.reset();
@@ -135,8 +139,14 @@ export class AuthService {
   /** GET /auth/password-tokens/{token}: whose password the e-mailed link sets (404 when unusable). */
   passwordTokenInfo(token: string): Observable<PasswordTokenInfo> {
     return this.http
-      .get<unknown>(`${API}/auth/password-tokens/${encodeURIComponent(token)}`, { context: handled(400, 404) })
-      .pipe(switchMap((body) => from(loadContracts()).pipe(map((c) => c.PasswordTokenInfo.parse(body)))));
+      .get<unknown>(`${API}/auth/password-tokens/${encodeURIComponent(token)}`, {
+        context: handled(400, 404),
+      })
+      .pipe(
+        switchMap((body) =>
+          from(loadContracts()).pipe(map((c) => c.PasswordTokenInfo.parse(body))),
+        ),
+      );
   }
 
   /** POST /auth/password: set a first password or a new one with the e-mailed token. */

@@ -11,7 +11,10 @@ describe('csrfInterceptor', () => {
 
   beforeEach(() => {
     TestBed.configureTestingModule({
-      providers: [provideHttpClient(withInterceptors([csrfInterceptor])), provideHttpClientTesting()],
+      providers: [
+        provideHttpClient(withInterceptors([csrfInterceptor])),
+        provideHttpClientTesting(),
+      ],
     });
     client = TestBed.inject(HttpClient);
     http = TestBed.inject(HttpTestingController);
@@ -56,7 +59,10 @@ describe('csrfInterceptor', () => {
     await settle();
     http
       .expectOne('/api/v1/auth/sign-out')
-      .flush({ error: { code: 'csrf_invalid', message: 'Stale token.' } }, { status: 403, statusText: 'Forbidden' });
+      .flush(
+        { error: { code: 'csrf_invalid', message: 'Stale token.' } },
+        { status: 403, statusText: 'Forbidden' },
+      );
     await settle();
     http.expectOne('/api/v1/auth/csrf-token').flush({ token: 'new', headerName: 'x-csrf-token' });
     await settle();
@@ -72,7 +78,10 @@ describe('csrfInterceptor', () => {
     await settle();
     http
       .expectOne('/api/v1/admin/users')
-      .flush({ error: { code: 'forbidden', message: 'Admins only.' } }, { status: 403, statusText: 'Forbidden' });
+      .flush(
+        { error: { code: 'forbidden', message: 'Admins only.' } },
+        { status: 403, statusText: 'Forbidden' },
+      );
     await expect(done).rejects.toMatchObject({ status: 403 });
     await settle();
     http.expectNone('/api/v1/auth/csrf-token');

@@ -19,10 +19,13 @@ export const csrfInterceptor: HttpInterceptorFn = (req, next) => {
   if (!UNSAFE.has(req.method) || !isOwnApi(req)) return next(req);
   const csrf = inject(CsrfService);
   const send = () =>
-    csrf.token().pipe(switchMap((token) => next(req.clone({ setHeaders: { [CSRF_HEADER]: token } }))));
+    csrf
+      .token()
+      .pipe(switchMap((token) => next(req.clone({ setHeaders: { [CSRF_HEADER]: token } }))));
   return send().pipe(
     catchError((error: unknown) => {
-      if (!(error instanceof HttpErrorResponse) || error.status !== 403) return throwError(() => error);
+      if (!(error instanceof HttpErrorResponse) || error.status !== 403)
+        return throwError(() => error);
       return from(loadContracts()).pipe(
         switchMap(({ ProblemBody }) => {
           if (ProblemBody.safeParse(error.error).data?.error.code !== 'csrf_invalid') {

@@ -14,7 +14,9 @@ export class CsrfService {
   token(): Observable<string> {
     if (!this.cached) {
       const attempt: Observable<string> = this.http.get<unknown>(`${API}/auth/csrf-token`).pipe(
-        switchMap((body) => from(loadContracts().then((c) => c.CsrfTokenResponse.parse(body).token))),
+        switchMap((body) =>
+          from(loadContracts().then((c) => c.CsrfTokenResponse.parse(body).token)),
+        ),
         catchError((error: unknown) => {
           // A failed fetch is not cached: the next call tries again.
           if (this.cached === attempt) this.cached = null;

@@ -36,7 +36,9 @@ describe('errorInterceptor', () => {
     const call = firstValueFrom(client.get('/api/v1/admin/users'));
     http.expectOne('/api/v1/admin/users').flush(null, { status: 401, statusText: 'Unauthorized' });
     await expect(call).rejects.toMatchObject({ status: 401 });
-    expect(navigate).toHaveBeenCalledWith(['/sign-in'], { queryParams: { returnUrl: '/admin/users' } });
+    expect(navigate).toHaveBeenCalledWith(['/sign-in'], {
+      queryParams: { returnUrl: '/admin/users' },
+    });
     expect(open).not.toHaveBeenCalled();
   });
 
@@ -44,7 +46,10 @@ describe('errorInterceptor', () => {
     const call = firstValueFrom(client.post('/api/v1/admin/organisations', {}));
     http
       .expectOne('/api/v1/admin/organisations')
-      .flush({ error: { code: 'conflict', message: 'A lab with this name exists.' } }, { status: 409, statusText: 'Conflict' });
+      .flush(
+        { error: { code: 'conflict', message: 'A lab with this name exists.' } },
+        { status: 409, statusText: 'Conflict' },
+      );
     await expect(call).rejects.toMatchObject({ status: 409 });
     await settle();
     expect(open).toHaveBeenCalledWith('A lab with this name exists.', 'Close', expect.any(Object));

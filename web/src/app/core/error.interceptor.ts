@@ -15,14 +15,20 @@ export const errorInterceptor: HttpInterceptorFn = (req, next) => {
   const snackBar = inject(MatSnackBar);
   return next(req).pipe(
     catchError((error: unknown) => {
-      if (error instanceof HttpErrorResponse && !req.context.get(HANDLED_STATUSES).includes(error.status)) {
+      if (
+        error instanceof HttpErrorResponse &&
+        !req.context.get(HANDLED_STATUSES).includes(error.status)
+      ) {
         if (error.status === 401) {
           const current = router.url;
           const returnUrl = current.startsWith('/sign-in') || current === '/' ? null : current;
           void router.navigate(['/sign-in'], { queryParams: returnUrl ? { returnUrl } : {} });
         } else {
           void import('./problem').then(({ problemMessage }) =>
-            snackBar.open(problemMessage(error), 'Close', { duration: 8000, politeness: 'assertive' }),
+            snackBar.open(problemMessage(error), 'Close', {
+              duration: 8000,
+              politeness: 'assertive',
+            }),
           );
         }
       }

@@ -1,4 +1,12 @@
-import { ChangeDetectionStrategy, Component, ElementRef, input, output, signal, viewChild } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  ElementRef,
+  input,
+  output,
+  signal,
+  viewChild,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -13,31 +21,89 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [MatButtonModule, MatIconModule, MatProgressBarModule],
   template: `
-    <div class="drop" [class.over]="over()" [class.disabled]="disabled()"
-      (dragover)="dragOver($event)" (dragleave)="over.set(false)" (drop)="dropped($event)">
+    <div
+      class="drop"
+      [class.over]="over()"
+      [class.disabled]="disabled()"
+      (dragover)="dragOver($event)"
+      (dragleave)="over.set(false)"
+      (drop)="dropped($event)"
+    >
       <mat-icon aria-hidden="true">upload_file</mat-icon>
       <span class="label">{{ label() }}</span>
-      <button mat-stroked-button type="button" [disabled]="disabled()" (click)="input().nativeElement.click()">Choose a file</button>
-      <input #file class="hidden-input" type="file" [accept]="accept()" [disabled]="disabled()" [attr.data-testid]="testId() || null"
-        [attr.aria-label]="label()" (change)="changed($event)" />
-      @if (chosen(); as name) { <span class="chosen">{{ name }}</span> }
+      <button
+        mat-stroked-button
+        type="button"
+        [disabled]="disabled()"
+        (click)="input().nativeElement.click()"
+      >
+        Choose a file
+      </button>
+      <input
+        #file
+        class="hidden-input"
+        type="file"
+        [accept]="accept()"
+        [disabled]="disabled()"
+        [attr.data-testid]="testId() || null"
+        [attr.aria-label]="label()"
+        (change)="changed($event)"
+      />
+      @if (chosen(); as name) {
+        <span class="chosen">{{ name }}</span>
+      }
     </div>
     @if (progress() !== null) {
-      <mat-progress-bar mode="determinate" [value]="progress()" [attr.aria-label]="'Upload ' + progress() + ' %'" />
+      <mat-progress-bar
+        mode="determinate"
+        [value]="progress()"
+        [attr.aria-label]="'Upload ' + progress() + ' %'"
+      />
     }
   `,
   styles: `
-    :host { display: block; flex: 1 1 260px; min-width: 0; }
-    .drop {
-      display: flex; flex-wrap: wrap; align-items: center; gap: 8px 12px; padding: 10px 12px;
-      border: 1.5px dashed #8a9bb3; border-radius: 8px; background: #f6f8fb; color: #1f3a5f;
+    :host {
+      display: block;
+      flex: 1 1 260px;
+      min-width: 0;
     }
-    .drop.over { border-color: #1b7f79; background: #e8f4f3; }
-    .drop.disabled { opacity: 0.6; }
-    .label { flex: 1 1 160px; }
-    .chosen { flex-basis: 100%; font-size: 0.9em; color: #44546a; overflow-wrap: anywhere; }
-    .hidden-input { position: absolute; width: 1px; height: 1px; opacity: 0; overflow: hidden; }
-    mat-progress-bar { margin-top: 4px; }
+    .drop {
+      display: flex;
+      flex-wrap: wrap;
+      align-items: center;
+      gap: 8px 12px;
+      padding: 10px 12px;
+      border: 1.5px dashed #8a9bb3;
+      border-radius: 8px;
+      background: #f6f8fb;
+      color: #1f3a5f;
+    }
+    .drop.over {
+      border-color: #1b7f79;
+      background: #e8f4f3;
+    }
+    .drop.disabled {
+      opacity: 0.6;
+    }
+    .label {
+      flex: 1 1 160px;
+    }
+    .chosen {
+      flex-basis: 100%;
+      font-size: 0.9em;
+      color: #44546a;
+      overflow-wrap: anywhere;
+    }
+    .hidden-input {
+      position: absolute;
+      width: 1px;
+      height: 1px;
+      opacity: 0;
+      overflow: hidden;
+    }
+    mat-progress-bar {
+      margin-top: 4px;
+    }
   `,
 })
 export class FileDrop {

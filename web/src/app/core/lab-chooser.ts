@@ -14,12 +14,19 @@ import { AuthService } from './auth.service';
     @if (labs().length > 1) {
       <label class="lab-chooser" [class.unchosen]="!acting()">
         <span class="label">Acting for</span>
-        <select data-testid="lab-chooser" [value]="acting() ?? ''" (change)="choose($event)" [disabled]="busy()">
+        <select
+          data-testid="lab-chooser"
+          [value]="acting() ?? ''"
+          (change)="choose($event)"
+          [disabled]="busy()"
+        >
           @if (!acting()) {
             <option value="" disabled>Choose a lab…</option>
           }
           @for (m of labs(); track m.organisationId) {
-            <option [value]="m.organisationId" [selected]="m.organisationId === acting()">{{ m.organisationName }}</option>
+            <option [value]="m.organisationId" [selected]="m.organisationId === acting()">
+              {{ m.organisationName }}
+            </option>
           }
         </select>
       </label>
@@ -27,12 +34,40 @@ import { AuthService } from './auth.service';
     }
   `,
   styles: `
-    :host { display: inline-flex; align-items: center; }
-    .lab-chooser { display: inline-flex; align-items: center; gap: 6px; font-size: 14px; }
-    .label { white-space: nowrap; }
-    select { font: inherit; max-width: 220px; padding: 4px 6px; border-radius: 4px; border: 1px solid #8a96a3; background: #fff; color: #1d2733; }
-    .unchosen select { border-color: #b7791f; outline: 2px solid #b7791f; }
-    .visually-hidden { position: absolute; width: 1px; height: 1px; overflow: hidden; clip: rect(0 0 0 0); white-space: nowrap; }
+    :host {
+      display: inline-flex;
+      align-items: center;
+    }
+    .lab-chooser {
+      display: inline-flex;
+      align-items: center;
+      gap: 6px;
+      font-size: 14px;
+    }
+    .label {
+      white-space: nowrap;
+    }
+    select {
+      font: inherit;
+      max-width: 220px;
+      padding: 4px 6px;
+      border-radius: 4px;
+      border: 1px solid #8a96a3;
+      background: #fff;
+      color: #1d2733;
+    }
+    .unchosen select {
+      border-color: #b7791f;
+      outline: 2px solid #b7791f;
+    }
+    .visually-hidden {
+      position: absolute;
+      width: 1px;
+      height: 1px;
+      overflow: hidden;
+      clip: rect(0 0 0 0);
+      white-space: nowrap;
+    }
   `,
 })
 export class LabChooser {

@@ -13,7 +13,9 @@ import { AuthService } from './auth.service';
         You are signed in as {{ auth.me()?.email }}, but your account has no role and belongs to no
         lab yet. Ask your PT provider's administrator to give you access.
       </p>
-      <p>If a lab invited you to join, <a routerLink="/lab-invitations">answer the invitation</a>.</p>
+      <p>
+        If a lab invited you to join, <a routerLink="/lab-invitations">answer the invitation</a>.
+      </p>
     </section>
   `,
 })

@@ -10,9 +10,21 @@ describe('field paths become labels (docs/GLOSSARY.md: no field paths on screens
   });
 
   it('rewrites a server message that opens with a field path', () => {
-    expect(readable('participantCode: no result from P01 in this round.')).toBe('Participant code: no result from P01 in this round.');
+    expect(readable('participantCode: no result from P01 in this round.')).toBe(
+      'Participant code: no result from P01 in this round.',
+    );
     expect(readable('Results are locked.')).toBe('Results are locked.');
-    const err = new HttpErrorResponse({ status: 409, error: { error: { code: 'fee_locked', message: 'feeMinor: the participation fee is fixed once enrolment has opened.' } } });
-    expect(problemMessage(err)).toBe('Fee: the participation fee is fixed once enrolment has opened.');
+    const err = new HttpErrorResponse({
+      status: 409,
+      error: {
+        error: {
+          code: 'fee_locked',
+          message: 'feeMinor: the participation fee is fixed once enrolment has opened.',
+        },
+      },
+    });
+    expect(problemMessage(err)).toBe(
+      'Fee: the participation fee is fixed once enrolment has opened.',
+    );
   });
 });

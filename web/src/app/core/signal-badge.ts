@@ -25,12 +25,25 @@ export const SIGNAL_LOOKS: Readonly<Record<SignalKind, SignalLook>> = {
     '[attr.data-signal]': 'signal()',
   },
   template: `
-    <svg class="shape" viewBox="0 0 12 12" width="12" height="12" aria-hidden="true" focusable="false"
-      [attr.data-shape]="look().shape">
+    <svg
+      class="shape"
+      viewBox="0 0 12 12"
+      width="12"
+      height="12"
+      aria-hidden="true"
+      focusable="false"
+      [attr.data-shape]="look().shape"
+    >
       @switch (look().shape) {
-        @case ('circle') { <circle cx="6" cy="6" r="5" /> }
-        @case ('triangle') { <polygon points="6,0.8 11.4,11 0.6,11" /> }
-        @case ('diamond') { <polygon points="6,0.4 11.6,6 6,11.6 0.4,6" /> }
+        @case ('circle') {
+          <circle cx="6" cy="6" r="5" />
+        }
+        @case ('triangle') {
+          <polygon points="6,0.8 11.4,11 0.6,11" />
+        }
+        @case ('diamond') {
+          <polygon points="6,0.4 11.6,6 6,11.6 0.4,6" />
+        }
       }
     </svg>
     <span class="word">{{ label() ?? look().word }}</span>
@@ -44,10 +57,19 @@ export const SIGNAL_LOOKS: Readonly<Record<SignalKind, SignalLook>> = {
       white-space: nowrap;
       color: var(--rl-signal-color);
     }
-    :host(.signal-acceptable) { --rl-signal-color: var(--rl-signal-acceptable, #1b7f79); }
-    :host(.signal-warning) { --rl-signal-color: var(--rl-signal-warning, #b7791f); }
-    :host(.signal-action) { --rl-signal-color: var(--rl-signal-action, #a4262c); }
-    .shape { fill: currentColor; flex: none; }
+    :host(.signal-acceptable) {
+      --rl-signal-color: var(--rl-signal-acceptable, #1b7f79);
+    }
+    :host(.signal-warning) {
+      --rl-signal-color: var(--rl-signal-warning, #b7791f);
+    }
+    :host(.signal-action) {
+      --rl-signal-color: var(--rl-signal-action, #a4262c);
+    }
+    .shape {
+      fill: currentColor;
+      flex: none;
+    }
   `,
 })
 export class SignalBadge {

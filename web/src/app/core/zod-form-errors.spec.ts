@@ -1,7 +1,13 @@
 import { FormControl, FormGroup } from '@angular/forms';
 import { z } from 'zod';
 import { SignInRequest } from '@ringlet/shared/contracts/auth';
-import { applyServerIssues, applyZodIssues, errorMessage, parseForm, zodValidator } from './zod-form-errors';
+import {
+  applyServerIssues,
+  applyZodIssues,
+  errorMessage,
+  parseForm,
+  zodValidator,
+} from './zod-form-errors';
 
 describe('zod form errors', () => {
   const signInForm = () =>
@@ -41,9 +47,11 @@ describe('zod form errors', () => {
 
   it('applyZodIssues handles nested paths and returns issues that name no field', () => {
     const form = new FormGroup({ lab: new FormGroup({ name: new FormControl('') }) });
-    const schema = z.object({ lab: z.object({ name: z.string().min(2, { message: 'Too short.' }) }) }).refine(() => false, {
-      message: 'Whole form problem.',
-    });
+    const schema = z
+      .object({ lab: z.object({ name: z.string().min(2, { message: 'Too short.' }) }) })
+      .refine(() => false, {
+        message: 'Whole form problem.',
+      });
     const parsed = schema.safeParse({ lab: { name: 'x' } });
     expect(parsed.success).toBe(false);
     const unplaced = applyZodIssues(form, parsed.error!.issues);

@@ -8,7 +8,10 @@ export interface FormIssue {
   readonly message: string;
 }
 
-function controlAt(form: AbstractControl, path: readonly PropertyKey[] | string): AbstractControl | null {
+function controlAt(
+  form: AbstractControl,
+  path: readonly PropertyKey[] | string,
+): AbstractControl | null {
   const parts = typeof path === 'string' ? path.split('.').filter(Boolean) : path.map(String);
   return parts.length === 0 ? null : form.get(parts);
 }

@@ -20,14 +20,25 @@ export type ActionCellParams<T> = ICellRendererParams<T> & { actions: readonly R
   imports: [MatButtonModule],
   template: `
     @for (action of actions(); track action.label) {
-      <button mat-button type="button" class="cell-action"
+      <button
+        mat-button
+        type="button"
+        class="cell-action"
         [attr.aria-label]="action.ariaLabel ? action.ariaLabel(row()!) : null"
-        (click)="action.run(row()!)">{{ action.label }}</button>
+        (click)="action.run(row()!)"
+      >
+        {{ action.label }}
+      </button>
     }
   `,
   styles: `
-    :host { display: inline-flex; gap: 4px; }
-    .cell-action { --mat-button-text-container-height: 28px; }
+    :host {
+      display: inline-flex;
+      gap: 4px;
+    }
+    .cell-action {
+      --mat-button-text-container-height: 28px;
+    }
   `,
 })
 export class ActionCell<T> implements ICellRendererAngularComp {

@@ -1,5 +1,9 @@
 import type { Routes } from '@angular/router';
 
 export const OUTBOX_ROUTES: Routes = [
-  { path: '', title: 'Outbox · Ringlet', loadComponent: () => import('./outbox').then((m) => m.Outbox) },
+  {
+    path: '',
+    title: 'Outbox · Ringlet',
+    loadComponent: () => import('./outbox').then((m) => m.Outbox),
+  },
 ];

@@ -12,6 +12,8 @@ export class OutboxService {
 
   /** Newest first. */
   messages(): Observable<OutboxMessage[]> {
-    return this.http.get<unknown>(`${API}/dev/outbox`).pipe(map((body) => z.array(OutboxMessage).parse(body)));
+    return this.http
+      .get<unknown>(`${API}/dev/outbox`)
+      .pipe(map((body) => z.array(OutboxMessage).parse(body)));
   }
 }

@@ -4,7 +4,11 @@ import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { LOGO_MAX_BYTES, ProviderProfileInput, type ProviderProfile } from '@ringlet/shared/contracts/provider';
+import {
+  LOGO_MAX_BYTES,
+  ProviderProfileInput,
+  type ProviderProfile,
+} from '@ringlet/shared/contracts/provider';
 import { API } from '../core/api';
 import { FileDrop } from '../core/file-drop';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
@@ -15,16 +19,33 @@ type FieldKey = keyof ProviderProfileInput;
 
 /** The fields of the profile with their labels and hints, in the order the form shows them. */
 const FIELDS: { key: FieldKey; label: string; hint?: string; multiline?: boolean }[] = [
-  { key: 'name', label: 'Provider name', hint: 'Printed on every report and certificate, and the sender name of every e-mail.' },
+  {
+    key: 'name',
+    label: 'Provider name',
+    hint: 'Printed on every report and certificate, and the sender name of every e-mail.',
+  },
   { key: 'address', label: 'Postal address', hint: 'One line per address line.', multiline: true },
   { key: 'contactEmail', label: 'Contact e-mail' },
   { key: 'contactPhone', label: 'Contact telephone' },
   { key: 'website', label: 'Website', hint: 'Starting with https://' },
-  { key: 'accreditationBody', label: 'Accreditation body', hint: 'Leave empty when the provider is not accredited.' },
+  {
+    key: 'accreditationBody',
+    label: 'Accreditation body',
+    hint: 'Leave empty when the provider is not accredited.',
+  },
   { key: 'accreditationNumber', label: 'Accreditation number (ISO/IEC 17043)' },
   { key: 'authoriserName', label: 'Person who authorises reports' },
-  { key: 'authoriserRole', label: 'Their role', hint: 'For example: Technical manager, proficiency testing.' },
-  { key: 'subcontracting', label: 'Subcontracting statement', hint: 'Which work was subcontracted (for example homogeneity measurements), or that none was.', multiline: true },
+  {
+    key: 'authoriserRole',
+    label: 'Their role',
+    hint: 'For example: Technical manager, proficiency testing.',
+  },
+  {
+    key: 'subcontracting',
+    label: 'Subcontracting statement',
+    hint: 'Which work was subcontracted (for example homogeneity measurements), or that none was.',
+    multiline: true,
+  },
 ];
 
 /** The PT provider's profile: who issues the reports (admins and coordinators edit it). */
@@ -33,24 +54,52 @@ const FIELDS: { key: FieldKey; label: string; hint?: string; multiline?: boolean
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule, FileDrop],
   styles: `
-    .page { max-width: 760px; padding: 16px 24px; }
-    .logo { display: flex; align-items: center; gap: 16px; margin: 8px 0 24px; }
-    .logo img { max-width: 160px; max-height: 64px; border: 1px solid #c9cfd6; padding: 4px; background: #fff; }
-    .form-stack { display: flex; flex-direction: column; }
+    .page {
+      max-width: 760px;
+      padding: 16px 24px;
+    }
+    .logo {
+      display: flex;
+      align-items: center;
+      gap: 16px;
+      margin: 8px 0 24px;
+    }
+    .logo img {
+      max-width: 160px;
+      max-height: 64px;
+      border: 1px solid #c9cfd6;
+      padding: 4px;
+      background: #fff;
+    }
+    .form-stack {
+      display: flex;
+      flex-direction: column;
+    }
   `,
   template: `
     <section class="page">
       <h1>PT provider</h1>
-      <p>Every round report, individual report, certificate and e-mail made from now on prints this profile. Files already issued keep the profile they were made with.</p>
+      <p>
+        Every round report, individual report, certificate and e-mail made from now on prints this
+        profile. Files already issued keep the profile they were made with.
+      </p>
       <h2>Logo</h2>
       <div class="logo">
         @if (profile()?.hasLogo) {
           <img [src]="logoUrl()" alt="Current logo of the PT provider" />
-          <button mat-button type="button" (click)="removeLogo()" [disabled]="busy()">Remove logo</button>
+          <button mat-button type="button" (click)="removeLogo()" [disabled]="busy()">
+            Remove logo
+          </button>
         } @else {
           <span>No logo yet.</span>
         }
-        <app-file-drop label="Drop a PNG or JPEG logo here" accept="image/png,image/jpeg" [disabled]="busy()" (picked)="pickLogo($event)" testId="logo-file" />
+        <app-file-drop
+          label="Drop a PNG or JPEG logo here"
+          accept="image/png,image/jpeg"
+          [disabled]="busy()"
+          (picked)="pickLogo($event)"
+          testId="logo-file"
+        />
       </div>
       <p class="hint">PNG or JPEG, at most {{ maxKb }} KB.</p>
       @if (logoFailure(); as message) {
@@ -120,9 +169,16 @@ export class ProviderProfilePage implements OnInit {
     this.profile.set(p);
     this.logoUrl.set(`${API}/provider/logo?v=${encodeURIComponent(p.updatedAt)}`);
     this.form.reset({
-      name: p.name, address: p.address, contactEmail: p.contactEmail, contactPhone: p.contactPhone, website: p.website,
-      accreditationBody: p.accreditationBody, accreditationNumber: p.accreditationNumber, authoriserName: p.authoriserName,
-      authoriserRole: p.authoriserRole, subcontracting: p.subcontracting,
+      name: p.name,
+      address: p.address,
+      contactEmail: p.contactEmail,
+      contactPhone: p.contactPhone,
+      website: p.website,
+      accreditationBody: p.accreditationBody,
+      accreditationNumber: p.accreditationNumber,
+      authoriserName: p.authoriserName,
+      authoriserRole: p.authoriserRole,
+      subcontracting: p.subcontracting,
     });
   }
 

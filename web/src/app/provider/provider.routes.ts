@@ -10,5 +10,10 @@ export const providerEditorGuard: CanActivateFn = async () => {
 };
 
 export const PROVIDER_ROUTES: Routes = [
-  { path: '', title: 'PT provider · Ringlet', canActivate: [providerEditorGuard], loadComponent: () => import('./provider-profile').then((m) => m.ProviderProfilePage) },
+  {
+    path: '',
+    title: 'PT provider · Ringlet',
+    canActivate: [providerEditorGuard],
+    loadComponent: () => import('./provider-profile').then((m) => m.ProviderProfilePage),
+  },
 ];

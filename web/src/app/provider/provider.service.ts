@@ -2,7 +2,11 @@ import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable, map } from 'rxjs';
 import { z } from 'zod';
-import { ProviderProfile, RoundComments, type ProviderProfileInput } from '@ringlet/shared/contracts/provider';
+import {
+  ProviderProfile,
+  RoundComments,
+  type ProviderProfileInput,
+} from '@ringlet/shared/contracts/provider';
 import { API } from '../core/api';
 
 const CommentsAnswer = RoundComments.extend({ editable: z.boolean() });
@@ -18,22 +22,32 @@ export class ProviderService {
   }
 
   save(input: ProviderProfileInput): Observable<ProviderProfile> {
-    return this.http.put<unknown>(`${API}/provider`, input).pipe(map((b) => ProviderProfile.parse(b)));
+    return this.http
+      .put<unknown>(`${API}/provider`, input)
+      .pipe(map((b) => ProviderProfile.parse(b)));
   }
 
   setLogo(dataBase64: string): Observable<ProviderProfile> {
-    return this.http.put<unknown>(`${API}/provider/logo`, { dataBase64 }).pipe(map((b) => ProviderProfile.parse(b)));
+    return this.http
+      .put<unknown>(`${API}/provider/logo`, { dataBase64 })
+      .pipe(map((b) => ProviderProfile.parse(b)));
   }
 
   removeLogo(): Observable<ProviderProfile> {
-    return this.http.delete<unknown>(`${API}/provider/logo`).pipe(map((b) => ProviderProfile.parse(b)));
+    return this.http
+      .delete<unknown>(`${API}/provider/logo`)
+      .pipe(map((b) => ProviderProfile.parse(b)));
   }
 
   comments(roundId: string): Observable<CommentsAnswer> {
-    return this.http.get<unknown>(`${API}/rounds/${roundId}/evaluation/comments`).pipe(map((b) => CommentsAnswer.parse(b)));
+    return this.http
+      .get<unknown>(`${API}/rounds/${roundId}/evaluation/comments`)
+      .pipe(map((b) => CommentsAnswer.parse(b)));
   }
 
   saveComments(roundId: string, comments: string): Observable<CommentsAnswer> {
-    return this.http.put<unknown>(`${API}/rounds/${roundId}/evaluation/comments`, { comments }).pipe(map((b) => CommentsAnswer.parse(b)));
+    return this.http
+      .put<unknown>(`${API}/rounds/${roundId}/evaluation/comments`, { comments })
+      .pipe(map((b) => CommentsAnswer.parse(b)));
   }
 }

@@ -12,18 +12,29 @@ import { ReportsService } from './reports.service';
   template: `
     <section class="page">
       <h1 data-testid="page-heading">Assessor: labs that granted you access</h1>
-      <p>Welcome, {{ auth.me()?.name }}. Each lab below has given you read access to its results, investigations and instrument checks for a period. Access ends when the grant ends.</p>
+      <p>
+        Welcome, {{ auth.me()?.name }}. Each lab below has given you read access to its results,
+        investigations and instrument checks for a period. Access ends when the grant ends.
+      </p>
       @if (loading()) {
         <p>Loading…</p>
       } @else if (labs().length === 0) {
         <p data-testid="no-labs">No lab has an active grant for you at the moment.</p>
       } @else {
         <table class="plain" aria-label="Labs">
-          <thead><tr><th>Lab</th><th>Access from</th><th>Access until</th></tr></thead>
+          <thead>
+            <tr>
+              <th>Lab</th>
+              <th>Access from</th>
+              <th>Access until</th>
+            </tr>
+          </thead>
           <tbody>
             @for (l of labs(); track l.id) {
               <tr>
-                <td><a [routerLink]="['labs', l.id]" data-testid="lab-link">{{ l.name }}</a></td>
+                <td>
+                  <a [routerLink]="['labs', l.id]" data-testid="lab-link">{{ l.name }}</a>
+                </td>
                 <td>{{ l.startsOn }}</td>
                 <td>{{ l.endsOn ?? 'open-ended' }}</td>
               </tr>

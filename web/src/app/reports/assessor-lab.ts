@@ -18,10 +18,21 @@ import { ReportsService } from './reports.service';
       <a routerLink="/assessor">← Labs</a>
       @if (detail(); as d) {
         <h1 data-testid="page-heading">{{ d.lab.name }}</h1>
-        <p>Access from {{ d.lab.startsOn }} {{ d.lab.endsOn ? 'until ' + d.lab.endsOn : '(open-ended)' }}.</p>
+        <p>
+          Access from {{ d.lab.startsOn }}
+          {{ d.lab.endsOn ? 'until ' + d.lab.endsOn : '(open-ended)' }}.
+        </p>
         <h2>Evidence pack</h2>
-        <p>One zip with every published round’s reports and workbook, this lab’s individual reports and certificates, its investigations, instrument checks, an audit extract and a manifest of SHA-256 checksums.</p>
-        <app-download-button [path]="'/assessor/labs/' + d.lab.id + '/evidence.zip'" label="Evidence pack (zip)" testId="download-evidence" />
+        <p>
+          One zip with every published round’s reports and workbook, this lab’s individual reports
+          and certificates, its investigations, instrument checks, an audit extract and a manifest
+          of SHA-256 checksums.
+        </p>
+        <app-download-button
+          [path]="'/assessor/labs/' + d.lab.id + '/evidence.zip'"
+          label="Evidence pack (zip)"
+          testId="download-evidence"
+        />
 
         <h2>Rounds</h2>
         @for (r of d.rounds; track r.roundId) {
@@ -30,8 +41,11 @@ import { ReportsService } from './reports.service';
             <p>
               Participant code <strong>{{ r.participantCode }}</strong>.
               @if (r.version !== null) {
-                Evaluation version {{ r.version }}, published {{ r.publishedAt?.slice(0, 10) }}. {{ r.warnings }} warning signal(s), {{ r.actions }} action signal(s).
-                @if (r.reissueReason) { <em>Reissued: {{ r.reissueReason }}</em> }
+                Evaluation version {{ r.version }}, published {{ r.publishedAt?.slice(0, 10) }}.
+                {{ r.warnings }} warning signal(s), {{ r.actions }} action signal(s).
+                @if (r.reissueReason) {
+                  <em>Reissued: {{ r.reissueReason }}</em>
+                }
               } @else {
                 Not published yet ({{ roundStateLabel(r.roundState) }}).
               }
@@ -49,13 +63,31 @@ import { ReportsService } from './reports.service';
           <p>No investigation.</p>
         } @else {
           <table class="plain" aria-label="Investigations">
-            <thead><tr><th>Round</th><th>Item</th><th>Measurand</th><th class="num">Score</th><th>Signal</th><th>State</th><th>Root cause</th><th>Corrective action</th><th>Effectiveness check</th></tr></thead>
+            <thead>
+              <tr>
+                <th>Round</th>
+                <th>Item</th>
+                <th>Measurand</th>
+                <th class="num">Score</th>
+                <th>Signal</th>
+                <th>State</th>
+                <th>Root cause</th>
+                <th>Corrective action</th>
+                <th>Effectiveness check</th>
+              </tr>
+            </thead>
             <tbody>
               @for (i of d.investigations; track i.id) {
                 <tr>
-                  <td>{{ i.roundCode }}</td><td>{{ i.itemCode }}</td><td>{{ i.measurandName }}</td>
-                  <td class="num">{{ i.score | number: '1.2-2' }}</td><td>{{ i.signal === 'action' ? 'action signal' : 'warning signal' }}</td>
-                  <td>{{ investigationStateLabels[i.state] }}</td><td>{{ i.rootCause }}</td><td>{{ i.correctiveAction }}</td><td>{{ i.effectivenessCheck }}</td>
+                  <td>{{ i.roundCode }}</td>
+                  <td>{{ i.itemCode }}</td>
+                  <td>{{ i.measurandName }}</td>
+                  <td class="num">{{ i.score | number: '1.2-2' }}</td>
+                  <td>{{ i.signal === 'action' ? 'action signal' : 'warning signal' }}</td>
+                  <td>{{ investigationStateLabels[i.state] }}</td>
+                  <td>{{ i.rootCause }}</td>
+                  <td>{{ i.correctiveAction }}</td>
+                  <td>{{ i.effectivenessCheck }}</td>
                 </tr>
               }
             </tbody>
@@ -67,12 +99,24 @@ import { ReportsService } from './reports.service';
           <p>No instrument check recorded.</p>
         } @else {
           <table class="plain" aria-label="Instrument checks">
-            <thead><tr><th>Date</th><th>Instrument</th><th>Reference material</th><th class="num">Reference (nm)</th><th class="num">Tolerance (nm)</th><th>Result</th></tr></thead>
+            <thead>
+              <tr>
+                <th>Date</th>
+                <th>Instrument</th>
+                <th>Reference material</th>
+                <th class="num">Reference (nm)</th>
+                <th class="num">Tolerance (nm)</th>
+                <th>Result</th>
+              </tr>
+            </thead>
             <tbody>
               @for (c of d.instrumentChecks; track c.id) {
                 <tr>
-                  <td>{{ c.checkedAt.slice(0, 10) }}</td><td>{{ c.instrument }}</td><td>{{ c.material }}</td>
-                  <td class="num">{{ c.referenceValueNm | number: '1.1-1' }}</td><td class="num">{{ c.toleranceNm | number: '1.1-1' }}</td>
+                  <td>{{ c.checkedAt.slice(0, 10) }}</td>
+                  <td>{{ c.instrument }}</td>
+                  <td>{{ c.material }}</td>
+                  <td class="num">{{ c.referenceValueNm | number: '1.1-1' }}</td>
+                  <td class="num">{{ c.toleranceNm | number: '1.1-1' }}</td>
                   <td>{{ c.passed ? 'Pass' : 'Fail' }}</td>
                 </tr>
               }
@@ -100,6 +144,8 @@ export class AssessorLab implements OnInit {
   protected readonly missing = signal(false);
 
   ngOnInit(): void {
-    this.reports.lab(this.id()).subscribe({ next: (d) => this.detail.set(d), error: () => this.missing.set(true) });
+    this.reports
+      .lab(this.id())
+      .subscribe({ next: (d) => this.detail.set(d), error: () => this.missing.set(true) });
   }
 }

@@ -10,7 +10,12 @@ export const BUILD_STATE_LABELS: Record<ReportStatus['status'], string> = {
   failed: 'Failed',
 };
 
-const ICONS: Record<ReportStatus['status'], string> = { queued: 'schedule', running: 'autorenew', done: 'check_circle', failed: 'error' };
+const ICONS: Record<ReportStatus['status'], string> = {
+  queued: 'schedule',
+  running: 'autorenew',
+  done: 'check_circle',
+  failed: 'error',
+};
 
 /**
  * A background report build's state by icon, word and colour, with its progress while it builds:
@@ -22,17 +27,39 @@ const ICONS: Record<ReportStatus['status'], string> = { queued: 'schedule', runn
   imports: [MatIconModule],
   template: `
     @let s = status();
-    <span class="state" [class]="'state ' + s.status" role="status" data-testid="build-state" [attr.data-state]="s.status">
+    <span
+      class="state"
+      [class]="'state ' + s.status"
+      role="status"
+      data-testid="build-state"
+      [attr.data-state]="s.status"
+    >
       <mat-icon aria-hidden="true">{{ icon() }}</mat-icon>
       <span>{{ text() }}</span>
     </span>
   `,
   styles: `
-    .state { display: inline-flex; align-items: center; gap: 4px; font-size: 12px; }
-    .state mat-icon { font-size: 16px; width: 16px; height: 16px; }
-    .queued, .running { color: var(--mat-sys-on-surface-variant); }
-    .done { color: #1b6e3a; }
-    .failed { color: #a4262c; }
+    .state {
+      display: inline-flex;
+      align-items: center;
+      gap: 4px;
+      font-size: 12px;
+    }
+    .state mat-icon {
+      font-size: 16px;
+      width: 16px;
+      height: 16px;
+    }
+    .queued,
+    .running {
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .done {
+      color: #1b6e3a;
+    }
+    .failed {
+      color: #a4262c;
+    }
   `,
 })
 export class BuildState {

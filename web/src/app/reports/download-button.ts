@@ -1,4 +1,11 @@
-import { ChangeDetectionStrategy, Component, DestroyRef, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
@@ -17,7 +24,13 @@ import { ReportsService, saveFile } from './reports.service';
   imports: [MatButtonModule, MatIconModule, MatProgressBarModule, BuildState],
   template: `
     <span class="dl">
-      <button mat-stroked-button type="button" [disabled]="busy()" (click)="start()" [attr.data-testid]="testId()">
+      <button
+        mat-stroked-button
+        type="button"
+        [disabled]="busy()"
+        (click)="start()"
+        [attr.data-testid]="testId()"
+      >
         <mat-icon>download</mat-icon> {{ label() }}
       </button>
       @if (busy()) {
@@ -38,9 +51,20 @@ import { ReportsService, saveFile } from './reports.service';
     </span>
   `,
   styles: `
-    .dl { display: inline-flex; flex-direction: column; gap: 4px; min-width: 180px; margin: 0 8px 8px 0; }
-    .note { font-size: 12px; color: var(--mat-sys-on-surface-variant); }
-    .error { color: #a4262c; }
+    .dl {
+      display: inline-flex;
+      flex-direction: column;
+      gap: 4px;
+      min-width: 180px;
+      margin: 0 8px 8px 0;
+    }
+    .note {
+      font-size: 12px;
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .error {
+      color: #a4262c;
+    }
   `,
 })
 export class DownloadButton {
@@ -54,7 +78,9 @@ export class DownloadButton {
   protected readonly note = signal('');
   protected readonly error = signal('');
   /** The background build's state (queued, running with progress, done, failed); null for a direct download. */
-  protected readonly build = signal<Pick<ReportStatus, 'status' | 'progress' | 'error'> | null>(null);
+  protected readonly build = signal<Pick<ReportStatus, 'status' | 'progress' | 'error'> | null>(
+    null,
+  );
 
   protected start(): void {
     this.busy.set(true);
@@ -106,7 +132,10 @@ export class DownloadButton {
         },
       });
     const progress = timer(0, 1000)
-      .pipe(switchMap(() => this.reports.status(reportId)), takeWhile((s) => s.status === 'queued' || s.status === 'running'))
+      .pipe(
+        switchMap(() => this.reports.status(reportId)),
+        takeWhile((s) => s.status === 'queued' || s.status === 'running'),
+      )
       .subscribe((s) => {
         this.build.set(s);
         this.percent.set(s.progress);

@@ -12,15 +12,37 @@ import { DownloadButton } from './download-button';
   imports: [DownloadButton],
   template: `
     <div class="downloads" role="group" aria-label="Report downloads">
-      <app-download-button [path]="base() + 'round.pdf'" label="Round report (PDF)" testId="download-round-pdf" />
-      <app-download-button [path]="base() + 'round.xlsx'" label="Round workbook (Excel)" testId="download-round-xlsx" />
+      <app-download-button
+        [path]="base() + 'round.pdf'"
+        label="Round report (PDF)"
+        testId="download-round-pdf"
+      />
+      <app-download-button
+        [path]="base() + 'round.xlsx'"
+        label="Round workbook (Excel)"
+        testId="download-round-xlsx"
+      />
       @if (own() || labId()) {
-        <app-download-button [path]="base() + 'participant.pdf' + lab()" label="Individual report (PDF)" testId="download-participant-pdf" />
-        <app-download-button [path]="base() + 'certificate.pdf' + lab()" label="Certificate (PDF)" testId="download-certificate-pdf" />
+        <app-download-button
+          [path]="base() + 'participant.pdf' + lab()"
+          label="Individual report (PDF)"
+          testId="download-participant-pdf"
+        />
+        <app-download-button
+          [path]="base() + 'certificate.pdf' + lab()"
+          label="Certificate (PDF)"
+          testId="download-certificate-pdf"
+        />
       }
     </div>
   `,
-  styles: `.downloads { display: flex; flex-wrap: wrap; align-items: flex-start; }`,
+  styles: `
+    .downloads {
+      display: flex;
+      flex-wrap: wrap;
+      align-items: flex-start;
+    }
+  `,
 })
 export class ReportDownloads {
   readonly roundId = input.required<string>();

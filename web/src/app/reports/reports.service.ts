@@ -17,38 +17,59 @@ export class ReportsService {
   private readonly http = inject(HttpClient);
 
   labs(): Observable<AssessorLab[]> {
-    return this.http.get<unknown>(`${API}/assessor/labs`).pipe(map((b) => z.array(AssessorLab).parse(b)));
+    return this.http
+      .get<unknown>(`${API}/assessor/labs`)
+      .pipe(map((b) => z.array(AssessorLab).parse(b)));
   }
 
   lab(id: string): Observable<AssessorLabDetail> {
-    return this.http.get<unknown>(`${API}/assessor/labs/${id}/rounds`).pipe(map((b) => AssessorLabDetail.parse(b)));
+    return this.http
+      .get<unknown>(`${API}/assessor/labs/${id}/rounds`)
+      .pipe(map((b) => AssessorLabDetail.parse(b)));
   }
 
   status(reportId: string): Observable<ReportStatus> {
-    return this.http.get<unknown>(`${API}/reports/${reportId}`).pipe(map((b) => ReportStatus.parse(b)));
+    return this.http
+      .get<unknown>(`${API}/reports/${reportId}`)
+      .pipe(map((b) => ReportStatus.parse(b)));
   }
 
   /** Fetches a file (path below /api/v1) with download progress; a 202 means a background build. */
   download(path: string): Observable<DownloadStep> {
     return new Observable<DownloadStep>((sub) => {
-      const s = this.http.get(`${API}${path}`, { responseType: 'blob', observe: 'events', reportProgress: true }).subscribe({
-        next: async (e: HttpEvent<Blob>) => {
-          if (e.type === HttpEventType.DownloadProgress) {
-            sub.next({ kind: 'progress', loaded: e.loaded, percent: e.total ? Math.round((100 * e.loaded) / e.total) : null });
-          } else if (e.type === HttpEventType.Response) {
-            const res = e as HttpResponse<Blob>;
-            if (res.status === 202 && res.body) {
-              sub.next({ kind: 'building', status: ReportStatus.parse(JSON.parse(await res.body.text())) });
-            } else if (res.body) {
-              const cd = res.headers.get('Content-Disposition') ?? '';
-              const fileName = /filename="([^"]+)"/.exec(cd)?.[1] ?? path.split('/').pop()!.split('?')[0]!;
-              sub.next({ kind: 'done', blob: res.body, fileName, sha256: res.headers.get('X-Content-SHA256') });
+      const s = this.http
+        .get(`${API}${path}`, { responseType: 'blob', observe: 'events', reportProgress: true })
+        .subscribe({
+          next: async (e: HttpEvent<Blob>) => {
+            if (e.type === HttpEventType.DownloadProgress) {
+              sub.next({
+                kind: 'progress',
+                loaded: e.loaded,
+                percent: e.total ? Math.round((100 * e.loaded) / e.total) : null,
+              });
+            } else if (e.type === HttpEventType.Response) {
+              const res = e as HttpResponse<Blob>;
+              if (res.status === 202 && res.body) {
+                sub.next({
+                  kind: 'building',
+                  status: ReportStatus.parse(JSON.parse(await res.body.text())),
+                });
+              } else if (res.body) {
+                const cd = res.headers.get('Content-Disposition') ?? '';
+                const fileName =
+                  /filename="([^"]+)"/.exec(cd)?.[1] ?? path.split('/').pop()!.split('?')[0]!;
+                sub.next({
+                  kind: 'done',
+                  blob: res.body,
+                  fileName,
+                  sha256: res.headers.get('X-Content-SHA256'),
+                });
+              }
+              sub.complete();
             }
-            sub.complete();
-          }
-        },
-        error: (err: unknown) => sub.error(err),
-      });
+          },
+          error: (err: unknown) => sub.error(err),
+        });
       return () => s.unsubscribe();
     });
   }

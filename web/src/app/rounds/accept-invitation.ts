@@ -16,17 +16,48 @@ import { RoundsService } from './rounds.service';
     <section class="page">
       <h1 data-testid="page-heading">Invitation to a proficiency-testing round</h1>
       @if (info(); as i) {
-        <p>Round <strong>{{ i.roundCode }}</strong> · {{ i.roundTitle }}</p>
-        <p>{{ i.isNewLab ? 'Accepting opens an account for ' + (i.labName ?? 'your lab') + ' at ' + i.email + '; a link to choose a password follows by e-mail.' : 'Sign in as a member of ' + i.labName + ' to accept.' }}</p>
-        @if (!i.isNewLab && !auth.me()) { <p><a routerLink="/sign-in" [queryParams]="{ returnUrl: '/invitations/' + token() }">Sign in</a></p> }
+        <p>
+          Round <strong>{{ i.roundCode }}</strong> · {{ i.roundTitle }}
+        </p>
+        <p>
+          {{
+            i.isNewLab
+              ? 'Accepting opens an account for ' +
+                (i.labName ?? 'your lab') +
+                ' at ' +
+                i.email +
+                '; a link to choose a password follows by e-mail.'
+              : 'Sign in as a member of ' + i.labName + ' to accept.'
+          }}
+        </p>
+        @if (!i.isNewLab && !auth.me()) {
+          <p>
+            <a routerLink="/sign-in" [queryParams]="{ returnUrl: '/invitations/' + token() }"
+              >Sign in</a
+            >
+          </p>
+        }
         @if (result(); as r) {
-          <p role="status" data-testid="accepted">Enrolled. Your participant code for this round is <strong>{{ r.participantCode }}</strong>.
-            {{ r.accountCreated ? 'Check your e-mail for the link to choose your password.' : '' }}</p>
+          <p role="status" data-testid="accepted">
+            Enrolled. Your participant code for this round is
+            <strong>{{ r.participantCode }}</strong>.
+            {{ r.accountCreated ? 'Check your e-mail for the link to choose your password.' : '' }}
+          </p>
         } @else {
-          <button mat-flat-button type="button" (click)="accept()" [disabled]="busy()" data-testid="accept">Accept and enrol</button>
+          <button
+            mat-flat-button
+            type="button"
+            (click)="accept()"
+            [disabled]="busy()"
+            data-testid="accept"
+          >
+            Accept and enrol
+          </button>
         }
       }
-      @if (failure(); as m) { <p class="form-error" role="alert">{{ m }}</p> }
+      @if (failure(); as m) {
+        <p class="form-error" role="alert">{{ m }}</p>
+      }
     </section>
   `,
 })
@@ -53,7 +84,11 @@ export class AcceptInvitation implements OnInit {
       next: (r) => this.result.set(r),
       error: (e: unknown) => {
         this.busy.set(false);
-        this.failure.set(e instanceof HttpErrorResponse && e.status === 401 ? 'Sign in as a member of the invited lab first.' : problemMessage(e));
+        this.failure.set(
+          e instanceof HttpErrorResponse && e.status === 401
+            ? 'Sign in as a member of the invited lab first.'
+            : problemMessage(e),
+        );
       },
     });
   }

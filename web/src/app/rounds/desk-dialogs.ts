@@ -51,51 +51,94 @@ const DECISION_LABELS: Record<z.infer<typeof HomogeneityDecisionKind>, string> =
 @Component({
   selector: 'app-desk-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatCheckboxModule, MatButtonModule],
+  imports: [
+    ReactiveFormsModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    MatCheckboxModule,
+    MatButtonModule,
+  ],
   template: `
     <h2 mat-dialog-title>{{ data.title }}</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="form-stack">
-        @if (data.intro) { <p>{{ data.intro }}</p> }
-        @if (data.whoIsTold) { <p data-testid="who-is-told"><strong>Who is told:</strong> {{ data.whoIsTold }}</p> }
+        @if (data.intro) {
+          <p>{{ data.intro }}</p>
+        }
+        @if (data.whoIsTold) {
+          <p data-testid="who-is-told"><strong>Who is told:</strong> {{ data.whoIsTold }}</p>
+        }
         @if (data.cautions?.length) {
-          <div class="cautions" role="note" data-testid="dialog-cautions"><strong>Safety</strong>
-            <ul>@for (c of data.cautions; track c) { <li>{{ c }}</li> }</ul></div>
+          <div class="cautions" role="note" data-testid="dialog-cautions">
+            <strong>Safety</strong>
+            <ul>
+              @for (c of data.cautions; track c) {
+                <li>{{ c }}</li>
+              }
+            </ul>
+          </div>
         }
         @if (data.kind === 'dispatch') {
-          <mat-form-field><mat-label>Courier</mat-label><input matInput formControlName="courier" />
-            <mat-error>{{ errorMessage(form.controls.courier) }}</mat-error></mat-form-field>
-          <mat-form-field><mat-label>Tracking number</mat-label><input matInput formControlName="trackingNumber" />
-            <mat-error>{{ errorMessage(form.controls.trackingNumber) }}</mat-error></mat-form-field>
-          <mat-form-field><mat-label>Dispatched on</mat-label><input matInput type="date" formControlName="dispatchedOn" />
-            <mat-error>{{ errorMessage(form.controls.dispatchedOn) }}</mat-error></mat-form-field>
+          <mat-form-field
+            ><mat-label>Courier</mat-label><input matInput formControlName="courier" />
+            <mat-error>{{ errorMessage(form.controls.courier) }}</mat-error></mat-form-field
+          >
+          <mat-form-field
+            ><mat-label>Tracking number</mat-label
+            ><input matInput formControlName="trackingNumber" />
+            <mat-error>{{ errorMessage(form.controls.trackingNumber) }}</mat-error></mat-form-field
+          >
+          <mat-form-field
+            ><mat-label>Dispatched on</mat-label
+            ><input matInput type="date" formControlName="dispatchedOn" />
+            <mat-error>{{ errorMessage(form.controls.dispatchedOn) }}</mat-error></mat-form-field
+          >
         }
         @if (data.kind === 'extension') {
-          <mat-form-field><mat-label>New deadline</mat-label><input matInput type="datetime-local" formControlName="until" />
-            <mat-error>{{ errorMessage(form.controls.until) }}</mat-error></mat-form-field>
+          <mat-form-field
+            ><mat-label>New deadline</mat-label
+            ><input matInput type="datetime-local" formControlName="until" />
+            <mat-error>{{ errorMessage(form.controls.until) }}</mat-error></mat-form-field
+          >
         }
         @if (data.kind === 'decision') {
-          <mat-form-field><mat-label>Decision</mat-label>
+          <mat-form-field
+            ><mat-label>Decision</mat-label>
             <mat-select formControlName="decision">
-              @for (d of decisions; track d[0]) { <mat-option [value]="d[0]">{{ d[1] }}</mat-option> }
+              @for (d of decisions; track d[0]) {
+                <mat-option [value]="d[0]">{{ d[1] }}</mat-option>
+              }
             </mat-select>
-            <mat-error>{{ errorMessage(form.controls.decision) }}</mat-error></mat-form-field>
+            <mat-error>{{ errorMessage(form.controls.decision) }}</mat-error></mat-form-field
+          >
         }
         @if (data.kind !== 'dispatch' && data.kind !== 'confirm') {
           <mat-form-field>
-            <mat-label>Reason{{ data.reasonRequired || data.kind !== 'transition' ? '' : ' (optional)' }}</mat-label>
+            <mat-label
+              >Reason{{
+                data.reasonRequired || data.kind !== 'transition' ? '' : ' (optional)'
+              }}</mat-label
+            >
             <textarea matInput formControlName="reason" rows="3"></textarea>
             <mat-error>{{ errorMessage(form.controls.reason) }}</mat-error>
           </mat-form-field>
         }
         @if (data.offerForce) {
-          <mat-checkbox formControlName="force">Close early, before results are due (the reason is recorded)</mat-checkbox>
+          <mat-checkbox formControlName="force"
+            >Close early, before results are due (the reason is recorded)</mat-checkbox
+          >
         }
-        @if (failure(); as message) { <p class="form-error" role="alert">{{ message }}</p> }
+        @if (failure(); as message) {
+          <p class="form-error" role="alert">{{ message }}</p>
+        }
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="busy()" data-testid="dialog-confirm">{{ confirmLabel }}</button>
+        <button mat-flat-button type="submit" [disabled]="busy()" data-testid="dialog-confirm">
+          {{ confirmLabel }}
+        </button>
       </mat-dialog-actions>
     </form>
   `,
@@ -126,15 +169,35 @@ export class DeskDialog<T> {
     const reason = v.reason.trim() || undefined;
     switch (this.data.kind) {
       case 'transition':
-        return parseWith(this.form, TransitionRequest, { to: this.data.to, reason, force: v.force }, this.failure);
+        return parseWith(
+          this.form,
+          TransitionRequest,
+          { to: this.data.to, reason, force: v.force },
+          this.failure,
+        );
       case 'withdrawal':
         return parseWith(this.form, Withdrawal, { reason: v.reason }, this.failure);
       case 'extension':
-        return parseWith(this.form, ExtensionGrant, { until: localToIso(v.until) ?? '', reason: v.reason }, this.failure);
+        return parseWith(
+          this.form,
+          ExtensionGrant,
+          { until: localToIso(v.until) ?? '', reason: v.reason },
+          this.failure,
+        );
       case 'dispatch':
-        return parseWith(this.form, DispatchInput, { courier: v.courier, trackingNumber: v.trackingNumber, dispatchedOn: v.dispatchedOn }, this.failure);
+        return parseWith(
+          this.form,
+          DispatchInput,
+          { courier: v.courier, trackingNumber: v.trackingNumber, dispatchedOn: v.dispatchedOn },
+          this.failure,
+        );
       case 'decision':
-        return parseWith(this.form, StudyDecision, { decision: v.decision, reason: v.reason }, this.failure);
+        return parseWith(
+          this.form,
+          StudyDecision,
+          { decision: v.decision, reason: v.reason },
+          this.failure,
+        );
       case 'confirm':
         return {};
     }

@@ -20,9 +20,17 @@ export interface ItemDialogData {
 @Component({
   selector: 'app-item-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatButtonModule],
+  imports: [
+    ReactiveFormsModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+  ],
   template: `
-    <h2 mat-dialog-title>{{ data.item ? 'Edit test item ' + data.item.code : 'Add a test item' }}</h2>
+    <h2 mat-dialog-title>
+      {{ data.item ? 'Edit test item ' + data.item.code : 'Add a test item' }}
+    </h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="form-stack">
         <div class="row">
@@ -53,17 +61,27 @@ export interface ItemDialogData {
           <mat-hint>Labs also see the standard safety cautions with every item.</mat-hint>
           <mat-error>{{ errorMessage(form.controls.handlingNotes) }}</mat-error>
         </mat-form-field>
-        @if (failure(); as message) { <p class="form-error" role="alert">{{ message }}</p> }
+        @if (failure(); as message) {
+          <p class="form-error" role="alert">{{ message }}</p>
+        }
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="busy()" data-testid="save-item">{{ data.item ? 'Save item' : 'Add item' }}</button>
+        <button mat-flat-button type="submit" [disabled]="busy()" data-testid="save-item">
+          {{ data.item ? 'Save item' : 'Add item' }}
+        </button>
       </mat-dialog-actions>
     </form>
   `,
   styles: `
-    .row { display: flex; gap: 12px; flex-wrap: wrap; }
-    .row mat-form-field { flex: 1 1 160px; }
+    .row {
+      display: flex;
+      gap: 12px;
+      flex-wrap: wrap;
+    }
+    .row mat-form-field {
+      flex: 1 1 160px;
+    }
   `,
 })
 export class ItemDialog {
@@ -85,7 +103,13 @@ export class ItemDialog {
 
   protected submit(): void {
     const raw = this.form.getRawValue();
-    const candidate = { ...raw, nominalSizeNm: raw.nominalSizeNm === null || (raw.nominalSizeNm as unknown) === '' ? null : Number(raw.nominalSizeNm) };
+    const candidate = {
+      ...raw,
+      nominalSizeNm:
+        raw.nominalSizeNm === null || (raw.nominalSizeNm as unknown) === ''
+          ? null
+          : Number(raw.nominalSizeNm),
+    };
     const item = this.data.item;
     let call: Observable<unknown>;
     if (item) {

@@ -33,9 +33,18 @@ const num = (v: number | null) => (v === null || (v as unknown) === '' ? null : 
 @Component({
   selector: 'app-measurand-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatButtonModule],
+  imports: [
+    ReactiveFormsModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    MatButtonModule,
+  ],
   template: `
-    <h2 mat-dialog-title>{{ data.measurand ? 'Edit measurand ' + data.measurand.name : 'Add a measurand' }}</h2>
+    <h2 mat-dialog-title>
+      {{ data.measurand ? 'Edit measurand ' + data.measurand.name : 'Add a measurand' }}
+    </h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
       <mat-dialog-content class="form-stack">
         <div class="row">
@@ -78,13 +87,17 @@ const num = (v: number | null) => (v === null || (v as unknown) === '' ? null : 
           <mat-form-field class="kind">
             <mat-label>σ_pt rule</mat-label>
             <mat-select formControlName="kind" data-testid="sigma-kind">
-              @for (k of sigmaKinds; track k[0]) { <mat-option [value]="k[0]">{{ k[1] }}</mat-option> }
+              @for (k of sigmaKinds; track k[0]) {
+                <mat-option [value]="k[0]">{{ k[1] }}</mat-option>
+              }
             </mat-select>
           </mat-form-field>
           @switch (form.controls.sigmaPtRule.controls.kind.value) {
             @case ('fixed') {
               <mat-form-field>
-                <mat-label>σ_pt ({{ form.controls.unit.value || 'unit of the measurand' }})</mat-label>
+                <mat-label
+                  >σ_pt ({{ form.controls.unit.value || 'unit of the measurand' }})</mat-label
+                >
                 <input matInput type="number" formControlName="value" />
                 <mat-error>{{ errorMessage(form.controls.sigmaPtRule.controls.value) }}</mat-error>
               </mat-form-field>
@@ -92,13 +105,24 @@ const num = (v: number | null) => (v === null || (v as unknown) === '' ? null : 
             @case ('percent') {
               <mat-form-field>
                 <mat-label>Percent of x_pt</mat-label>
-                <input matInput type="number" min="0" max="100" step="0.1" formControlName="percent" />
-                <mat-error>{{ errorMessage(form.controls.sigmaPtRule.controls.percent) }}</mat-error>
+                <input
+                  matInput
+                  type="number"
+                  min="0"
+                  max="100"
+                  step="0.1"
+                  formControlName="percent"
+                />
+                <mat-error>{{
+                  errorMessage(form.controls.sigmaPtRule.controls.percent)
+                }}</mat-error>
               </mat-form-field>
             }
             @case ('precision') {
               <mat-form-field>
-                <mat-label>σ_R ({{ form.controls.unit.value || 'unit of the measurand' }})</mat-label>
+                <mat-label
+                  >σ_R ({{ form.controls.unit.value || 'unit of the measurand' }})</mat-label
+                >
                 <input matInput type="number" formControlName="sigmaR" />
                 <mat-error>{{ errorMessage(form.controls.sigmaPtRule.controls.sigmaR) }}</mat-error>
               </mat-form-field>
@@ -116,14 +140,18 @@ const num = (v: number | null) => (v === null || (v as unknown) === '' ? null : 
           <mat-form-field class="kind">
             <mat-label>Assigned-value rule</mat-label>
             <mat-select formControlName="kind" data-testid="assigned-kind">
-              @for (k of assignedKinds; track k[0]) { <mat-option [value]="k[0]">{{ k[1] }}</mat-option> }
+              @for (k of assignedKinds; track k[0]) {
+                <mat-option [value]="k[0]">{{ k[1] }}</mat-option>
+              }
             </mat-select>
           </mat-form-field>
           @if (form.controls.assignedValueRule.controls.kind.value === 'reference') {
             <mat-form-field>
               <mat-label>Reference value</mat-label>
               <input matInput type="number" formControlName="value" />
-              <mat-error>{{ errorMessage(form.controls.assignedValueRule.controls.value) }}</mat-error>
+              <mat-error>{{
+                errorMessage(form.controls.assignedValueRule.controls.value)
+              }}</mat-error>
             </mat-form-field>
             <mat-form-field>
               <mat-label>Standard uncertainty u</mat-label>
@@ -133,24 +161,48 @@ const num = (v: number | null) => (v === null || (v as unknown) === '' ? null : 
             <mat-form-field class="grow">
               <mat-label>Source of the reference value</mat-label>
               <input matInput formControlName="source" />
-              <mat-error>{{ errorMessage(form.controls.assignedValueRule.controls.source) }}</mat-error>
+              <mat-error>{{
+                errorMessage(form.controls.assignedValueRule.controls.source)
+              }}</mat-error>
             </mat-form-field>
           }
         </fieldset>
-        @if (failure(); as message) { <p class="form-error" role="alert">{{ message }}</p> }
+        @if (failure(); as message) {
+          <p class="form-error" role="alert">{{ message }}</p>
+        }
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="busy()" data-testid="save-measurand">{{ data.measurand ? 'Save measurand' : 'Add measurand' }}</button>
+        <button mat-flat-button type="submit" [disabled]="busy()" data-testid="save-measurand">
+          {{ data.measurand ? 'Save measurand' : 'Add measurand' }}
+        </button>
       </mat-dialog-actions>
     </form>
   `,
   styles: `
-    .row, .rule { display: flex; gap: 12px; flex-wrap: wrap; }
-    .row mat-form-field, .rule mat-form-field { flex: 0 1 170px; }
-    .row .grow, .rule .grow { flex: 1 1 240px; }
-    .rule .kind { flex: 0 1 320px; }
-    .rule { border: 1px solid #d5dbe3; border-radius: 6px; margin: 0 0 10px; padding: 8px 12px 0; }
+    .row,
+    .rule {
+      display: flex;
+      gap: 12px;
+      flex-wrap: wrap;
+    }
+    .row mat-form-field,
+    .rule mat-form-field {
+      flex: 0 1 170px;
+    }
+    .row .grow,
+    .rule .grow {
+      flex: 1 1 240px;
+    }
+    .rule .kind {
+      flex: 0 1 320px;
+    }
+    .rule {
+      border: 1px solid #d5dbe3;
+      border-radius: 6px;
+      margin: 0 0 10px;
+      padding: 8px 12px 0;
+    }
   `,
 })
 export class MeasurandDialog {
@@ -165,8 +217,12 @@ export class MeasurandDialog {
   protected readonly failure = signal<string | null>(null);
 
   private readonly m = this.data.measurand;
-  private readonly sigma: SigmaPtRuleForm = sigmaRuleToForm(this.m?.sigmaPtRule ?? { kind: 'robust-sd' });
-  private readonly assigned: AssignedValueRuleForm = assignedRuleToForm(this.m?.assignedValueRule ?? { kind: 'consensus' });
+  private readonly sigma: SigmaPtRuleForm = sigmaRuleToForm(
+    this.m?.sigmaPtRule ?? { kind: 'robust-sd' },
+  );
+  private readonly assigned: AssignedValueRuleForm = assignedRuleToForm(
+    this.m?.assignedValueRule ?? { kind: 'consensus' },
+  );
   protected readonly form = this.fb.group({
     key: [this.m?.key ?? ''],
     name: [this.m?.name ?? ''],

@@ -70,7 +70,9 @@ export function sigmaRuleFromForm(f: SigmaPtRuleForm, previous?: SigmaPtRuleInpu
       const kept =
         previous?.kind === 'precision'
           ? {
-              ...(previous.sigmaRepeatability !== undefined ? { sigmaRepeatability: previous.sigmaRepeatability } : {}),
+              ...(previous.sigmaRepeatability !== undefined
+                ? { sigmaRepeatability: previous.sigmaRepeatability }
+                : {}),
               ...(previous.replicates !== undefined ? { replicates: previous.replicates } : {}),
             }
           : {};
@@ -87,7 +89,9 @@ export function assignedRuleToForm(rule: AssignedValueRuleInput): AssignedValueR
 }
 
 export function assignedRuleFromForm(f: AssignedValueRuleForm): unknown {
-  return f.kind === 'reference' ? { kind: 'reference', value: num(f.value), u: num(f.u), source: f.source } : { kind: f.kind };
+  return f.kind === 'reference'
+    ? { kind: 'reference', value: num(f.value), u: num(f.u), source: f.source }
+    : { kind: f.kind };
 }
 
 /** One line for the measurands table. */

@@ -25,7 +25,13 @@ import { SchemeDialog } from './scheme-dialog';
         <button mat-stroked-button type="button" data-testid="new-scheme" (click)="newScheme()">
           <mat-icon>add</mat-icon> New scheme
         </button>
-        <button mat-flat-button type="button" data-testid="new-round" (click)="newRound()" [disabled]="schemes().length === 0">
+        <button
+          mat-flat-button
+          type="button"
+          data-testid="new-round"
+          (click)="newRound()"
+          [disabled]="schemes().length === 0"
+        >
           <mat-icon>add</mat-icon> New round
         </button>
         @if (schemes().length === 0 && !loading()) {
@@ -56,22 +62,46 @@ export class RoundDesk implements OnInit {
   protected readonly rowId = (p: { data: RoundSummary }) => p.data.id;
 
   private readonly actions: RowAction<RoundSummary>[] = [
-    { label: 'Open', ariaLabel: (r) => `Open round ${r.code}`, run: (r) => void this.router.navigate(['/desk/rounds', r.id]) },
+    {
+      label: 'Open',
+      ariaLabel: (r) => `Open round ${r.code}`,
+      run: (r) => void this.router.navigate(['/desk/rounds', r.id]),
+    },
   ];
 
   protected readonly columns: ColDef<RoundSummary>[] = [
     { field: 'code', headerName: 'Round', width: 150, filter: 'agTextColumnFilter' },
     { field: 'title', headerName: 'Title', flex: 1, minWidth: 200, filter: 'agTextColumnFilter' },
     { field: 'schemeCode', headerName: 'Scheme', width: 130 },
-    { field: 'state', headerName: 'State', width: 120, valueFormatter: ({ value }) => ROUND_STATE_LABELS[value as RoundSummary['state']] },
+    {
+      field: 'state',
+      headerName: 'State',
+      width: 120,
+      valueFormatter: ({ value }) => ROUND_STATE_LABELS[value as RoundSummary['state']],
+    },
     { field: 'itemCount', headerName: 'Items', width: 90, type: 'rightAligned' },
     { field: 'enrolledCount', headerName: 'Enrolled labs', width: 130, type: 'rightAligned' },
-    { field: 'resultsDueAt', headerName: 'Results due', width: 170, valueFormatter: ({ value }) => formatDate(value as string, true) },
     {
-      colId: 'fee', headerName: 'Fee', width: 120, type: 'rightAligned',
+      field: 'resultsDueAt',
+      headerName: 'Results due',
+      width: 170,
+      valueFormatter: ({ value }) => formatDate(value as string, true),
+    },
+    {
+      colId: 'fee',
+      headerName: 'Fee',
+      width: 120,
+      type: 'rightAligned',
       valueGetter: ({ data }) => (data ? formatMoney(data.feeMinor, data.currency) : ''),
     },
-    { colId: 'actions', headerName: '', width: 110, sortable: false, cellRenderer: ActionCell, cellRendererParams: { actions: this.actions } },
+    {
+      colId: 'actions',
+      headerName: '',
+      width: 110,
+      sortable: false,
+      cellRenderer: ActionCell,
+      cellRendererParams: { actions: this.actions },
+    },
   ];
 
   ngOnInit(): void {

@@ -27,7 +27,16 @@ export function localToIso(value: string): string | null {
 @Component({
   selector: 'app-round-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, RoundScheduleFields, MatDialogModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatButtonModule, MatIconModule],
+  imports: [
+    ReactiveFormsModule,
+    RoundScheduleFields,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    MatButtonModule,
+    MatIconModule,
+  ],
   template: `
     <h2 mat-dialog-title>New round</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
@@ -36,7 +45,9 @@ export function localToIso(value: string): string | null {
           <mat-form-field>
             <mat-label>Scheme</mat-label>
             <mat-select formControlName="schemeId">
-              @for (s of data.schemes; track s.id) { <mat-option [value]="s.id">{{ s.code }} · {{ s.name }}</mat-option> }
+              @for (s of data.schemes; track s.id) {
+                <mat-option [value]="s.id">{{ s.code }} · {{ s.name }}</mat-option>
+              }
             </mat-select>
             <mat-error>{{ errorMessage(form.controls.schemeId) }}</mat-error>
           </mat-form-field>
@@ -70,7 +81,9 @@ export function localToIso(value: string): string | null {
           </mat-form-field>
         </div>
         <mat-form-field>
-          <mat-label>Instructions for labs (the safety cautions always open them; add your own)</mat-label>
+          <mat-label
+            >Instructions for labs (the safety cautions always open them; add your own)</mat-label
+          >
           <textarea matInput formControlName="instructions" rows="5"></textarea>
           <mat-error>{{ errorMessage(form.controls.instructions) }}</mat-error>
         </mat-form-field>
@@ -103,12 +116,23 @@ export function localToIso(value: string): string | null {
                 <mat-label>Handling notes</mat-label>
                 <input matInput formControlName="handlingNotes" />
               </mat-form-field>
-              <button mat-icon-button type="button" [attr.aria-label]="'Remove item ' + (i + 1)" (click)="removeItem(i)"><mat-icon>delete</mat-icon></button>
+              <button
+                mat-icon-button
+                type="button"
+                [attr.aria-label]="'Remove item ' + (i + 1)"
+                (click)="removeItem(i)"
+              >
+                <mat-icon>delete</mat-icon>
+              </button>
             </fieldset>
           }
         </div>
-        <button mat-stroked-button type="button" data-testid="add-item" (click)="addItem()"><mat-icon>add</mat-icon> Add test item</button>
-        @if (failure(); as message) { <p class="form-error" role="alert">{{ message }}</p> }
+        <button mat-stroked-button type="button" data-testid="add-item" (click)="addItem()">
+          <mat-icon>add</mat-icon> Add test item
+        </button>
+        @if (failure(); as message) {
+          <p class="form-error" role="alert">{{ message }}</p>
+        }
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
@@ -117,10 +141,34 @@ export function localToIso(value: string): string | null {
     </form>
   `,
   styles: `
-    .row { display: flex; gap: 12px; flex-wrap: wrap; }
-    .row mat-form-field { flex: 1 1 180px; }
-    .item { display: flex; flex-wrap: wrap; gap: 8px; border: 1px solid #d5dbe3; border-radius: 6px; margin: 0 0 8px; }
-    .item .code { width: 110px; } .item .material { flex: 1 1 220px; } .item .size { width: 150px; } .item .notes { flex: 1 1 200px; }
+    .row {
+      display: flex;
+      gap: 12px;
+      flex-wrap: wrap;
+    }
+    .row mat-form-field {
+      flex: 1 1 180px;
+    }
+    .item {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 8px;
+      border: 1px solid #d5dbe3;
+      border-radius: 6px;
+      margin: 0 0 8px;
+    }
+    .item .code {
+      width: 110px;
+    }
+    .item .material {
+      flex: 1 1 220px;
+    }
+    .item .size {
+      width: 150px;
+    }
+    .item .notes {
+      flex: 1 1 200px;
+    }
   `,
 })
 export class RoundDialog {
@@ -179,7 +227,13 @@ export class RoundDialog {
         currency: raw.currency,
         protocolTemperatureC: Number(raw.protocolTemperatureC),
         instructions: raw.instructions,
-        items: raw.items.map((i) => ({ ...i, nominalSizeNm: i.nominalSizeNm === null || (i.nominalSizeNm as unknown) === '' ? null : Number(i.nominalSizeNm) })),
+        items: raw.items.map((i) => ({
+          ...i,
+          nominalSizeNm:
+            i.nominalSizeNm === null || (i.nominalSizeNm as unknown) === ''
+              ? null
+              : Number(i.nominalSizeNm),
+        })),
       },
       this.failure,
     );

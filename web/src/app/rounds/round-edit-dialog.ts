@@ -4,7 +4,12 @@ import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { isFeeOpen, type RoundDetail, RoundUpdate, SAFETY_CAUTIONS } from '@ringlet/shared/contracts/rounds';
+import {
+  isFeeOpen,
+  type RoundDetail,
+  RoundUpdate,
+  SAFETY_CAUTIONS,
+} from '@ringlet/shared/contracts/rounds';
 import { SAFETY_BLOCK, withoutSafetyBlock } from '@ringlet/shared/contracts/safety';
 import { errorMessage } from '../core/zod-form-errors';
 import { parseWith, pathMap, showServerError } from './form-errors';
@@ -31,10 +36,16 @@ export function composeInstructions(body: string): string {
 }
 
 /** Only the fields that differ from the round (so the audit trail records what changed). */
-export function changedFields(round: RoundDetail, next: Required<RoundUpdate>): Partial<RoundUpdate> {
+export function changedFields(
+  round: RoundDetail,
+  next: Required<RoundUpdate>,
+): Partial<RoundUpdate> {
   const out: Partial<Record<keyof RoundUpdate, unknown>> = {};
   for (const key of Object.keys(next) as (keyof RoundUpdate)[]) {
-    const before = key === 'resultsDueAt' && round.resultsDueAt ? new Date(round.resultsDueAt).toISOString() : round[key];
+    const before =
+      key === 'resultsDueAt' && round.resultsDueAt
+        ? new Date(round.resultsDueAt).toISOString()
+        : round[key];
     if (next[key] !== before) out[key] = next[key];
   }
   return out as Partial<RoundUpdate>;
@@ -44,7 +55,14 @@ export function changedFields(round: RoundDetail, next: Required<RoundUpdate>): 
 @Component({
   selector: 'app-round-edit-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, RoundScheduleFields, MatDialogModule, MatFormFieldModule, MatInputModule, MatButtonModule],
+  imports: [
+    ReactiveFormsModule,
+    RoundScheduleFields,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+  ],
   template: `
     <h2 mat-dialog-title>Edit round {{ round.code }}</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
@@ -64,7 +82,9 @@ export function changedFields(round: RoundDetail, next: Required<RoundUpdate>): 
           <mat-form-field>
             <mat-label>Participation fee</mat-label>
             <input matInput type="number" min="0" step="0.01" formControlName="fee" />
-            @if (!feeOpen) { <mat-hint>Fixed once enrolment has opened.</mat-hint> }
+            @if (!feeOpen) {
+              <mat-hint>Fixed once enrolment has opened.</mat-hint>
+            }
             <mat-error>{{ errorMessage(form.controls.fee) }}</mat-error>
           </mat-form-field>
           <mat-form-field>
@@ -73,30 +93,60 @@ export function changedFields(round: RoundDetail, next: Required<RoundUpdate>): 
             <mat-error>{{ errorMessage(form.controls.currency) }}</mat-error>
           </mat-form-field>
         </div>
-        <p class="cautions-head">Every round's instructions open with these safety cautions (they cannot be removed; add your own below):</p>
-        <ul class="cautions" aria-label="Safety cautions shown to labs" data-testid="fixed-cautions">
-          @for (c of cautions; track c) { <li>{{ c }}</li> }
+        <p class="cautions-head">
+          Every round's instructions open with these safety cautions (they cannot be removed; add
+          your own below):
+        </p>
+        <ul
+          class="cautions"
+          aria-label="Safety cautions shown to labs"
+          data-testid="fixed-cautions"
+        >
+          @for (c of cautions; track c) {
+            <li>{{ c }}</li>
+          }
         </ul>
         <mat-form-field>
-          <mat-label>Instructions for labs (after the cautions; add further cautions here)</mat-label>
+          <mat-label
+            >Instructions for labs (after the cautions; add further cautions here)</mat-label
+          >
           <textarea matInput formControlName="instructions" rows="7" class="plain"></textarea>
           <mat-hint>Plain text: line breaks and "- " lists show as written.</mat-hint>
           <mat-error>{{ errorMessage(form.controls.instructions) }}</mat-error>
         </mat-form-field>
-        @if (failure(); as message) { <p class="form-error" role="alert">{{ message }}</p> }
+        @if (failure(); as message) {
+          <p class="form-error" role="alert">{{ message }}</p>
+        }
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="busy()" data-testid="save-round">Save changes</button>
+        <button mat-flat-button type="submit" [disabled]="busy()" data-testid="save-round">
+          Save changes
+        </button>
       </mat-dialog-actions>
     </form>
   `,
   styles: `
-    .row { display: flex; gap: 12px; flex-wrap: wrap; }
-    .row mat-form-field { flex: 1 1 180px; }
-    .cautions-head { margin: 4px 0 0; font-size: 0.9em; }
-    .cautions { margin: 0 0 8px; padding-left: 20px; font-size: 0.9em; }
-    .plain { white-space: pre-wrap; }
+    .row {
+      display: flex;
+      gap: 12px;
+      flex-wrap: wrap;
+    }
+    .row mat-form-field {
+      flex: 1 1 180px;
+    }
+    .cautions-head {
+      margin: 4px 0 0;
+      font-size: 0.9em;
+    }
+    .cautions {
+      margin: 0 0 8px;
+      padding-left: 20px;
+      font-size: 0.9em;
+    }
+    .plain {
+      white-space: pre-wrap;
+    }
   `,
 })
 export class RoundEditDialog {
@@ -114,7 +164,7 @@ export class RoundEditDialog {
     dispatchOn: [this.round.dispatchOn ?? ''],
     resultsDueAt: [isoToLocal(this.round.resultsDueAt)],
     protocolTemperatureC: [this.round.protocolTemperatureC as number | null],
-    fee: [{ value: this.round.feeMinor / 100 as number | null, disabled: !this.feeOpen }],
+    fee: [{ value: (this.round.feeMinor / 100) as number | null, disabled: !this.feeOpen }],
     currency: [{ value: this.round.currency, disabled: !this.feeOpen }],
     instructions: [withoutSafetyBlock(this.round.instructions)],
   });
@@ -129,8 +179,12 @@ export class RoundEditDialog {
       enrolmentClosesOn: raw.enrolmentClosesOn || null,
       dispatchOn: raw.dispatchOn || null,
       resultsDueAt: localToIso(raw.resultsDueAt),
-      protocolTemperatureC: raw.protocolTemperatureC === null || (raw.protocolTemperatureC as unknown) === '' ? null : Number(raw.protocolTemperatureC),
-      feeMinor: raw.fee === null || (raw.fee as unknown) === '' ? null : Math.round(Number(raw.fee) * 100),
+      protocolTemperatureC:
+        raw.protocolTemperatureC === null || (raw.protocolTemperatureC as unknown) === ''
+          ? null
+          : Number(raw.protocolTemperatureC),
+      feeMinor:
+        raw.fee === null || (raw.fee as unknown) === '' ? null : Math.round(Number(raw.fee) * 100),
       currency: raw.currency.trim().toUpperCase(),
       instructions: composeInstructions(raw.instructions),
     };

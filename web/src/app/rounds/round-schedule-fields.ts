@@ -29,9 +29,17 @@ import { errorMessage } from '../core/zod-form-errors';
     </div>
   `,
   styles: `
-    :host { display: block; }
-    .row { display: flex; gap: 12px; flex-wrap: wrap; }
-    .row mat-form-field { flex: 1 1 180px; }
+    :host {
+      display: block;
+    }
+    .row {
+      display: flex;
+      gap: 12px;
+      flex-wrap: wrap;
+    }
+    .row mat-form-field {
+      flex: 1 1 180px;
+    }
   `,
 })
 export class RoundScheduleFields {

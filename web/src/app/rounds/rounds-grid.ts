@@ -8,7 +8,13 @@ import {
 } from 'ag-grid-community';
 
 /** The grid modules the Round desk uses, registered when this lazy feature loads. */
-ModuleRegistry.registerModules([ClientSideRowModelModule, TextFilterModule, NumberFilterModule, CellStyleModule, RowAutoHeightModule]);
+ModuleRegistry.registerModules([
+  ClientSideRowModelModule,
+  TextFilterModule,
+  NumberFilterModule,
+  CellStyleModule,
+  RowAutoHeightModule,
+]);
 
 export { ringletGridTheme } from '../grid/grid-theme';
 
@@ -17,7 +23,9 @@ export function formatDate(iso: string | null | undefined, withTime = false): st
   if (!iso) return '—';
   const d = new Date(iso.length === 10 ? `${iso}T00:00:00` : iso);
   if (Number.isNaN(d.getTime())) return iso;
-  return withTime ? d.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' }) : d.toLocaleDateString(undefined, { dateStyle: 'medium' });
+  return withTime
+    ? d.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })
+    : d.toLocaleDateString(undefined, { dateStyle: 'medium' });
 }
 
 /** Money in minor units → "450.00 EUR". */

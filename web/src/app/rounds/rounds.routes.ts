@@ -1,6 +1,14 @@
 import type { Routes } from '@angular/router';
 
 export const ROUNDS_ROUTES: Routes = [
-  { path: '', title: 'Round desk · Ringlet', loadComponent: () => import('./round-desk').then((m) => m.RoundDesk) },
-  { path: 'rounds/:id', title: 'Round · Round desk · Ringlet', loadComponent: () => import('./round-detail').then((m) => m.RoundDetail) },
+  {
+    path: '',
+    title: 'Round desk · Ringlet',
+    loadComponent: () => import('./round-desk').then((m) => m.RoundDesk),
+  },
+  {
+    path: 'rounds/:id',
+    title: 'Round · Round desk · Ringlet',
+    loadComponent: () => import('./round-detail').then((m) => m.RoundDetail),
+  },
 ];

@@ -4,7 +4,11 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { DLS_DEFAULT_MEASURANDS, type Scheme, SchemeCreate } from '@ringlet/shared/contracts/rounds';
+import {
+  DLS_DEFAULT_MEASURANDS,
+  type Scheme,
+  SchemeCreate,
+} from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../core/zod-form-errors';
 import { parseWith, showServerError } from './form-errors';
 import { RoundsService } from './rounds.service';
@@ -13,7 +17,13 @@ import { RoundsService } from './rounds.service';
 @Component({
   selector: 'app-scheme-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatDialogModule, MatFormFieldModule, MatInputModule, MatButtonModule],
+  imports: [
+    ReactiveFormsModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+  ],
   template: `
     <h2 mat-dialog-title>New scheme</h2>
     <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
@@ -36,12 +46,18 @@ import { RoundsService } from './rounds.service';
           <mat-label>Rules (participation, confidentiality, scoring)</mat-label>
           <textarea matInput formControlName="rules" rows="3"></textarea>
         </mat-form-field>
-        <p>Default measurands:
+        <p>
+          Default measurands:
           @for (m of defaults; track m.key) {
-            <span class="chip">{{ m.name }}{{ m.unit ? ' (' + m.unit + ')' : '' }}, {{ m.decimals }} decimals, {{ m.replicatesRequired }} replicates</span>
+            <span class="chip"
+              >{{ m.name }}{{ m.unit ? ' (' + m.unit + ')' : '' }}, {{ m.decimals }} decimals,
+              {{ m.replicatesRequired }} replicates</span
+            >
           }
         </p>
-        @if (failure(); as message) { <p class="form-error" role="alert">{{ message }}</p> }
+        @if (failure(); as message) {
+          <p class="form-error" role="alert">{{ message }}</p>
+        }
       </mat-dialog-content>
       <mat-dialog-actions align="end">
         <button mat-button type="button" mat-dialog-close>Cancel</button>
@@ -49,7 +65,12 @@ import { RoundsService } from './rounds.service';
       </mat-dialog-actions>
     </form>
   `,
-  styles: `.chip { display: block; margin-left: 12px; }`,
+  styles: `
+    .chip {
+      display: block;
+      margin-left: 12px;
+    }
+  `,
 })
 export class SchemeDialog {
   private readonly api = inject(RoundsService);
@@ -58,7 +79,12 @@ export class SchemeDialog {
   protected readonly defaults = DLS_DEFAULT_MEASURANDS;
   protected readonly busy = signal(false);
   protected readonly failure = signal<string | null>(null);
-  protected readonly form = inject(NonNullableFormBuilder).group({ code: [''], name: [''], description: [''], rules: [''] });
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    code: [''],
+    name: [''],
+    description: [''],
+    rules: [''],
+  });
 
   protected submit(): void {
     const value = parseWith(this.form, SchemeCreate, this.form.getRawValue(), this.failure);

@@ -6,7 +6,12 @@ export function parseReplicateText(text: string): number[][] {
     .split(/\r?\n/)
     .map((l) => l.trim())
     .filter(Boolean)
-    .map((l) => l.split(/[\s,;]+/).filter(Boolean).map((c) => Number(c)));
+    .map((l) =>
+      l
+        .split(/[\s,;]+/)
+        .filter(Boolean)
+        .map((c) => Number(c)),
+    );
 }
 
 const f = (x: unknown, digits = 4) => (typeof x === 'number' ? x.toPrecision(digits) : '—');
@@ -15,9 +20,13 @@ const f = (x: unknown, digits = 4) => (typeof x === 'number' ? x.toPrecision(dig
 export function studyNumbers(s: Study): string {
   const r = s.result as Record<string, unknown>;
   if (s.kind === 'homogeneity') {
-    return `g = ${r['g']}, m = ${r['m']}, mean ${f(r['generalMean'], 6)}; s_x ${f(r['sx'])}, s_w ${f(r['sw'])}, s_s ${f(r['ss'])} ` +
-      `vs 0.3σ_pt ${f(r['limit'])} (${r['passes'] ? 'met' : 'not met'}); extended ${r['passesExtended'] ? 'met' : 'not met'}; widened σ_pt ${f(r['widenedSigmaPt'])}`;
+    return (
+      `g = ${r['g']}, m = ${r['m']}, mean ${f(r['generalMean'], 6)}; s_x ${f(r['sx'])}, s_w ${f(r['sw'])}, s_s ${f(r['ss'])} ` +
+      `vs 0.3σ_pt ${f(r['limit'])} (${r['passes'] ? 'met' : 'not met'}); extended ${r['passesExtended'] ? 'met' : 'not met'}; widened σ_pt ${f(r['widenedSigmaPt'])}`
+    );
   }
-  return `ȳ₁ ${f(r['meanFirst'], 6)}, ȳ₂ ${f(r['meanSecond'], 6)}, |ȳ₁ − ȳ₂| ${f(r['difference'])} vs 0.3σ_pt ${f(r['limit'])} ` +
-    `(${r['passes'] ? 'met' : 'not met'}); extended limit ${f(r['extendedLimit'])} (${r['passesExtended'] ? 'met' : 'not met'})`;
+  return (
+    `ȳ₁ ${f(r['meanFirst'], 6)}, ȳ₂ ${f(r['meanSecond'], 6)}, |ȳ₁ − ȳ₂| ${f(r['difference'])} vs 0.3σ_pt ${f(r['limit'])} ` +
+    `(${r['passes'] ? 'met' : 'not met'}); extended limit ${f(r['extendedLimit'])} (${r['passesExtended'] ? 'met' : 'not met'})`
+  );
 }

@@ -1,6 +1,11 @@
 import { HttpErrorResponse } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
-import { type AbstractControl, NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
+import {
+  type AbstractControl,
+  NonNullableFormBuilder,
+  ReactiveFormsModule,
+  Validators,
+} from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -10,7 +15,12 @@ import { MatTableModule } from '@angular/material/table';
 import { AssessorGrantCreate, type AssessorGrantDto } from '@ringlet/shared/contracts/evaluation';
 import { Email } from '@ringlet/shared/contracts/common';
 import { fieldIssuesOf, problemMessage, problemOf } from '../../core/problem';
-import { applyServerIssues, applyZodIssues, errorMessage, zodValidator } from '../../core/zod-form-errors';
+import {
+  applyServerIssues,
+  applyZodIssues,
+  errorMessage,
+  zodValidator,
+} from '../../core/zod-form-errors';
 import { LabMembersService } from './lab-members.service';
 import { RevokeGrantDialog } from './revoke-grant-dialog';
 
@@ -41,21 +51,35 @@ const FIELD_PREFIX = /^(email|name|startsOn|endsOn): (.+)$/s;
 @Component({
   selector: 'app-assessor-grants',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatTableModule, MatButtonModule, MatFormFieldModule, MatInputModule],
+  imports: [
+    ReactiveFormsModule,
+    MatTableModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatInputModule,
+  ],
   template: `
     <h2 id="h-assessors">Assessor access</h2>
     <p class="explain">
-      An assessor you give access to will see this lab's rounds, reports, investigations and instrument checks,
-      read-only. Access ends on the end date you set, or at once when you revoke it. The assessor gets an e-mail
-      invitation; someone new also gets a link to choose a password.
+      An assessor you give access to will see this lab's rounds, reports, investigations and
+      instrument checks, read-only. Access ends on the end date you set, or at once when you revoke
+      it. The assessor gets an e-mail invitation; someone new also gets a link to choose a password.
     </p>
     @if (grants().length === 0) {
       <p data-testid="no-grants">No assessor has access to this lab.</p>
     } @else {
-      <table mat-table [dataSource]="grants()" aria-labelledby="h-assessors" class="grants" data-testid="grants">
+      <table
+        mat-table
+        [dataSource]="grants()"
+        aria-labelledby="h-assessors"
+        class="grants"
+        data-testid="grants"
+      >
         <ng-container matColumnDef="assessor">
           <th mat-header-cell *matHeaderCellDef>Assessor</th>
-          <td mat-cell *matCellDef="let g">{{ g.assessorName }}<br /><span class="email">{{ g.assessorEmail }}</span></td>
+          <td mat-cell *matCellDef="let g">
+            {{ g.assessorName }}<br /><span class="email">{{ g.assessorEmail }}</span>
+          </td>
         </ng-container>
         <ng-container matColumnDef="from">
           <th mat-header-cell *matHeaderCellDef>From</th>
@@ -68,26 +92,48 @@ const FIELD_PREFIX = /^(email|name|startsOn|endsOn): (.+)$/s;
         <ng-container matColumnDef="state">
           <th mat-header-cell *matHeaderCellDef>State</th>
           <td mat-cell *matCellDef="let g">
-            <span class="state" [attr.data-state]="state(g)" data-testid="grant-state">{{ words[state(g)] }}</span>
-            @if (g.revokedAt) { <span class="when"> on {{ g.revokedAt.slice(0, 10) }}</span> }
+            <span class="state" [attr.data-state]="state(g)" data-testid="grant-state">{{
+              words[state(g)]
+            }}</span>
+            @if (g.revokedAt) {
+              <span class="when"> on {{ g.revokedAt.slice(0, 10) }}</span>
+            }
           </td>
         </ng-container>
         <ng-container matColumnDef="actions">
           <th mat-header-cell *matHeaderCellDef><span class="visually-hidden">Actions</span></th>
           <td mat-cell *matCellDef="let g">
             @if (state(g) === 'active' || state(g) === 'upcoming') {
-              <button mat-button type="button" (click)="revoke(g)" [attr.aria-label]="'Revoke access for ' + g.assessorName"
-                data-testid="revoke-grant">Revoke</button>
+              <button
+                mat-button
+                type="button"
+                (click)="revoke(g)"
+                [attr.aria-label]="'Revoke access for ' + g.assessorName"
+                data-testid="revoke-grant"
+              >
+                Revoke
+              </button>
             }
           </td>
         </ng-container>
         <tr mat-header-row *matHeaderRowDef="columns"></tr>
-        <tr mat-row *matRowDef="let row; columns: columns" data-testid="grant-row" [attr.data-email]="row.assessorEmail"></tr>
+        <tr
+          mat-row
+          *matRowDef="let row; columns: columns"
+          data-testid="grant-row"
+          [attr.data-email]="row.assessorEmail"
+        ></tr>
       </table>
     }
 
     <h3>Grant an assessor access</h3>
-    <form [formGroup]="form" (ngSubmit)="grant()" class="grant-form" novalidate data-testid="grant-form">
+    <form
+      [formGroup]="form"
+      (ngSubmit)="grant()"
+      class="grant-form"
+      novalidate
+      data-testid="grant-form"
+    >
       <mat-form-field>
         <mat-label>Assessor's e-mail</mat-label>
         <input matInput formControlName="email" type="email" required />
@@ -110,21 +156,44 @@ const FIELD_PREFIX = /^(email|name|startsOn|endsOn): (.+)$/s;
         <mat-hint>Last day of access</mat-hint>
         <mat-error>{{ errorMessage(form.controls.endsOn) }}</mat-error>
       </mat-form-field>
-      <button mat-flat-button type="submit" [disabled]="busy()" data-testid="grant-submit">Grant access</button>
+      <button mat-flat-button type="submit" [disabled]="busy()" data-testid="grant-submit">
+        Grant access
+      </button>
     </form>
     @if (failure(); as message) {
       <p class="form-error" role="alert">{{ message }}</p>
     }
   `,
   styles: `
-    .explain { max-width: 72ch; }
-    .grants { max-width: 900px; margin-bottom: 8px; }
-    .email, .when { color: var(--mat-sys-on-surface-variant); }
-    .state { font-weight: 500; }
-    .state[data-state='active'] { color: var(--rl-signal-acceptable, #1b7f79); }
-    .state[data-state='revoked'] { color: var(--rl-signal-action, #a4262c); }
-    .grant-form { display: flex; flex-wrap: wrap; gap: 12px; align-items: flex-start; }
-    .grant-form button { margin-top: 8px; }
+    .explain {
+      max-width: 72ch;
+    }
+    .grants {
+      max-width: 900px;
+      margin-bottom: 8px;
+    }
+    .email,
+    .when {
+      color: var(--mat-sys-on-surface-variant);
+    }
+    .state {
+      font-weight: 500;
+    }
+    .state[data-state='active'] {
+      color: var(--rl-signal-acceptable, #1b7f79);
+    }
+    .state[data-state='revoked'] {
+      color: var(--rl-signal-action, #a4262c);
+    }
+    .grant-form {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 12px;
+      align-items: flex-start;
+    }
+    .grant-form button {
+      margin-top: 8px;
+    }
   `,
 })
 export class AssessorGrants {
@@ -185,7 +254,9 @@ export class AssessorGrants {
         this.busy.set(false);
         this.grants.update((grants) => [grant, ...grants]);
         this.form.reset({ email: '', name: '', startsOn: utcToday(), endsOn: '' });
-        this.snackBar.open(`Access granted; invitation sent to ${grant.assessorEmail}.`, 'Close', { duration: 5000 });
+        this.snackBar.open(`Access granted; invitation sent to ${grant.assessorEmail}.`, 'Close', {
+          duration: 5000,
+        });
       },
       error: (error: unknown) => {
         this.busy.set(false);
@@ -212,7 +283,9 @@ export class AssessorGrants {
       .subscribe((confirmed: unknown) => {
         if (confirmed !== true) return;
         this.service.revokeGrant(this.labId(), grant.id).subscribe(() => {
-          this.snackBar.open(`Access for ${grant.assessorEmail} revoked.`, 'Close', { duration: 5000 });
+          this.snackBar.open(`Access for ${grant.assessorEmail} revoked.`, 'Close', {
+            duration: 5000,
+          });
           this.service.grants(this.labId()).subscribe((grants) => this.grants.set(grants));
         });
       });

@@ -2,7 +2,12 @@ import { HttpClient, HttpContext } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable, map } from 'rxjs';
 import * as z from 'zod';
-import { LabInvitation, type LabMemberInvite, LabMemberInviteResult, Membership } from '@ringlet/shared/contracts/admin';
+import {
+  LabInvitation,
+  type LabMemberInvite,
+  LabMemberInviteResult,
+  Membership,
+} from '@ringlet/shared/contracts/admin';
 import { type AssessorGrantCreate, AssessorGrantDto } from '@ringlet/shared/contracts/evaluation';
 import { API, HANDLED_STATUSES } from '../../core/api';
 
@@ -12,7 +17,9 @@ export class LabMembersService {
   private readonly http = inject(HttpClient);
 
   members(labId: string): Observable<Membership[]> {
-    return this.http.get<unknown>(`${API}/labs/${labId}/members`).pipe(map((body) => z.array(Membership).parse(body)));
+    return this.http
+      .get<unknown>(`${API}/labs/${labId}/members`)
+      .pipe(map((body) => z.array(Membership).parse(body)));
   }
 
   /**
@@ -29,15 +36,21 @@ export class LabMembersService {
 
   /** Invitations of the lab not answered yet. */
   invitations(labId: string): Observable<LabInvitation[]> {
-    return this.http.get<unknown>(`${API}/labs/${labId}/invitations`).pipe(map((body) => z.array(LabInvitation).parse(body)));
+    return this.http
+      .get<unknown>(`${API}/labs/${labId}/invitations`)
+      .pipe(map((body) => z.array(LabInvitation).parse(body)));
   }
 
   withdrawInvitation(labId: string, invitationId: string): Observable<void> {
-    return this.http.delete(`${API}/labs/${labId}/invitations/${invitationId}`).pipe(map(() => undefined));
+    return this.http
+      .delete(`${API}/labs/${labId}/invitations/${invitationId}`)
+      .pipe(map(() => undefined));
   }
 
   remove(labId: string, membershipId: string): Observable<void> {
-    return this.http.delete(`${API}/labs/${labId}/members/${membershipId}`).pipe(map(() => undefined));
+    return this.http
+      .delete(`${API}/labs/${labId}/members/${membershipId}`)
+      .pipe(map(() => undefined));
   }
 
   /** The assessors this lab gave access, newest first (active, ended and revoked). */
@@ -62,6 +75,8 @@ export class LabMembersService {
 
   /** Ends a grant now; the assessor loses access at once. */
   revokeGrant(labId: string, grantId: string): Observable<void> {
-    return this.http.delete(`${API}/labs/${labId}/assessor-grants/${grantId}`).pipe(map(() => undefined));
+    return this.http
+      .delete(`${API}/labs/${labId}/assessor-grants/${grantId}`)
+      .pipe(map(() => undefined));
   }
 }

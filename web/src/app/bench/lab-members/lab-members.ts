@@ -1,5 +1,12 @@
 import { HttpErrorResponse } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, computed, effect, inject, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  computed,
+  effect,
+  inject,
+  signal,
+} from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -8,12 +15,21 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
-import { type LabInvitation, LabMemberInvite, type Membership } from '@ringlet/shared/contracts/admin';
+import {
+  type LabInvitation,
+  LabMemberInvite,
+  type Membership,
+} from '@ringlet/shared/contracts/admin';
 import { AuthService } from '../../core/auth.service';
 import * as z from 'zod';
 import { Email, FieldIssue } from '@ringlet/shared/contracts/common';
 import { fieldIssuesOf, problemMessage, problemOf } from '../../core/problem';
-import { applyServerIssues, applyZodIssues, errorMessage, zodValidator } from '../../core/zod-form-errors';
+import {
+  applyServerIssues,
+  applyZodIssues,
+  errorMessage,
+  zodValidator,
+} from '../../core/zod-form-errors';
 import { AssessorGrants } from './assessor-grants';
 import { LabMembersService } from './lab-members.service';
 
@@ -66,7 +82,14 @@ import { LabMembersService } from './lab-members.service';
           <th mat-header-cell *matHeaderCellDef><span class="visually-hidden">Actions</span></th>
           <td mat-cell *matCellDef="let m">
             @if (m.userId !== myId()) {
-              <button mat-button type="button" (click)="remove(m)" [attr.aria-label]="'Remove ' + m.userName">Remove</button>
+              <button
+                mat-button
+                type="button"
+                (click)="remove(m)"
+                [attr.aria-label]="'Remove ' + m.userName"
+              >
+                Remove
+              </button>
             }
           </td>
         </ng-container>
@@ -79,8 +102,16 @@ import { LabMembersService } from './lab-members.service';
         <ul class="pending" data-testid="pending-invitations">
           @for (i of invitations(); track i.id) {
             <li>
-              {{ i.name }} ({{ i.email }}){{ i.isManager ? ', as manager' : '' }}: open until {{ i.expiresAt.slice(0, 10) }}
-              <button mat-button type="button" (click)="withdraw(i)" [attr.aria-label]="'Withdraw the invitation to ' + i.name">Withdraw</button>
+              {{ i.name }} ({{ i.email }}){{ i.isManager ? ', as manager' : '' }}: open until
+              {{ i.expiresAt.slice(0, 10) }}
+              <button
+                mat-button
+                type="button"
+                (click)="withdraw(i)"
+                [attr.aria-label]="'Withdraw the invitation to ' + i.name"
+              >
+                Withdraw
+              </button>
             </li>
           }
         </ul>
@@ -89,8 +120,9 @@ import { LabMembersService } from './lab-members.service';
       @if (labId()) {
         <h2>Invite a colleague</h2>
         <p class="hint">
-          Someone new gets an account and a link to choose a password. Someone who already has an account
-          gets an invitation and joins only after accepting it. PT provider staff cannot be lab members.
+          Someone new gets an account and a link to choose a password. Someone who already has an
+          account gets an invitation and joins only after accepting it. PT provider staff cannot be
+          lab members.
         </p>
         <form [formGroup]="form" (ngSubmit)="invite()" class="invite" novalidate>
           <mat-form-field>
@@ -115,11 +147,27 @@ import { LabMembersService } from './lab-members.service';
     </section>
   `,
   styles: `
-    .members { max-width: 900px; margin-bottom: 8px; }
-    .invite { display: flex; flex-wrap: wrap; gap: 12px; align-items: flex-start; }
-    .invite mat-checkbox, .invite button { margin-top: 8px; }
-    .pending { padding-left: 18px; }
-    .hint { color: #4a5663; max-width: 760px; }
+    .members {
+      max-width: 900px;
+      margin-bottom: 8px;
+    }
+    .invite {
+      display: flex;
+      flex-wrap: wrap;
+      gap: 12px;
+      align-items: flex-start;
+    }
+    .invite mat-checkbox,
+    .invite button {
+      margin-top: 8px;
+    }
+    .pending {
+      padding-left: 18px;
+    }
+    .hint {
+      color: #4a5663;
+      max-width: 760px;
+    }
   `,
 })
 export class LabMembers {
@@ -130,7 +178,9 @@ export class LabMembers {
   protected readonly columns = ['name', 'email', 'role', 'actions'];
   protected readonly labs = this.auth.managedLabs;
   protected readonly myId = computed(() => this.auth.me()?.id);
-  protected readonly labId = signal<string | null>(this.auth.managedLabs()[0]?.organisationId ?? null);
+  protected readonly labId = signal<string | null>(
+    this.auth.managedLabs()[0]?.organisationId ?? null,
+  );
   protected readonly labName = computed(
     () => this.labs().find((lab) => lab.organisationId === this.labId())?.organisationName ?? null,
   );
@@ -152,7 +202,9 @@ export class LabMembers {
       this.invitations.set([]);
       if (labId) {
         this.service.members(labId).subscribe((members) => this.members.set(members));
-        this.service.invitations(labId).subscribe((invitations) => this.invitations.set(invitations));
+        this.service
+          .invitations(labId)
+          .subscribe((invitations) => this.invitations.set(invitations));
       }
     });
   }
@@ -174,7 +226,11 @@ export class LabMembers {
         this.busy.set(false);
         const { membership, invitation } = result;
         if (membership) this.members.update((members) => [...members, membership]);
-        if (invitation) this.invitations.update((list) => [invitation, ...list.filter((i) => i.id !== invitation.id)]);
+        if (invitation)
+          this.invitations.update((list) => [
+            invitation,
+            ...list.filter((i) => i.id !== invitation.id),
+          ]);
         this.form.reset({ email: '', name: '', isManager: false });
         const message = membership
           ? `Account opened for ${membership.userEmail}; a link to choose a password is on its way.`
@@ -184,9 +240,15 @@ export class LabMembers {
       error: (error: unknown) => {
         this.busy.set(false);
         // 400 field errors, and 422 rule breaks that name a field (a staff account), go under the field
-        const ruleIssues = error instanceof HttpErrorResponse && error.status === 422 ? z.array(FieldIssue).safeParse(problemOf(error)?.details) : null;
+        const ruleIssues =
+          error instanceof HttpErrorResponse && error.status === 422
+            ? z.array(FieldIssue).safeParse(problemOf(error)?.details)
+            : null;
         if (error instanceof HttpErrorResponse && (error.status === 400 || ruleIssues?.success)) {
-          const unplaced = applyServerIssues(this.form, ruleIssues?.success ? ruleIssues.data : fieldIssuesOf(error));
+          const unplaced = applyServerIssues(
+            this.form,
+            ruleIssues?.success ? ruleIssues.data : fieldIssuesOf(error),
+          );
           this.failure.set(unplaced.length ? unplaced.join(' ') : null);
         } else {
           this.failure.set(problemMessage(error));
@@ -198,16 +260,20 @@ export class LabMembers {
   protected withdraw(invitation: LabInvitation): void {
     const labId = this.labId();
     if (!labId) return;
-    this.service.withdrawInvitation(labId, invitation.id).subscribe(() =>
-      this.invitations.update((list) => list.filter((i) => i.id !== invitation.id)),
-    );
+    this.service
+      .withdrawInvitation(labId, invitation.id)
+      .subscribe(() =>
+        this.invitations.update((list) => list.filter((i) => i.id !== invitation.id)),
+      );
   }
 
   protected remove(membership: Membership): void {
     const labId = this.labId();
     if (!labId) return;
-    this.service.remove(labId, membership.id).subscribe(() =>
-      this.members.update((members) => members.filter((m) => m.id !== membership.id)),
-    );
+    this.service
+      .remove(labId, membership.id)
+      .subscribe(() =>
+        this.members.update((members) => members.filter((m) => m.id !== membership.id)),
+      );
   }
 }

@@ -12,14 +12,16 @@ import type { AssessorGrantDto } from '@ringlet/shared/contracts/evaluation';
     <h2 mat-dialog-title>Revoke access for {{ grant.assessorName }}?</h2>
     <mat-dialog-content>
       <p>
-        {{ grant.assessorName }} ({{ grant.assessorEmail }}) will no longer see this lab's rounds, reports,
-        investigations and instrument checks. This takes effect at once and cannot be undone; to give access
-        again, grant it anew.
+        {{ grant.assessorName }} ({{ grant.assessorEmail }}) will no longer see this lab's rounds,
+        reports, investigations and instrument checks. This takes effect at once and cannot be
+        undone; to give access again, grant it anew.
       </p>
     </mat-dialog-content>
     <mat-dialog-actions align="end">
       <button mat-button type="button" [mat-dialog-close]="false">Keep access</button>
-      <button mat-flat-button type="button" [mat-dialog-close]="true" data-testid="confirm-revoke">Revoke access</button>
+      <button mat-flat-button type="button" [mat-dialog-close]="true" data-testid="confirm-revoke">
+        Revoke access
+      </button>
     </mat-dialog-actions>
   `,
 })

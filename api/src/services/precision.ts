@@ -14,6 +14,7 @@ import {
   PrecisionExclusion,
   PrecisionReference,
   Round,
+  RoundTransition,
   Scheme,
   TestItem,
   User,
@@ -37,6 +38,9 @@ import { audit } from './audit';
 import type { AppContext } from './context';
 import { loadRoundInput } from './evaluation';
 import { lockRound, transitionRound } from './round-lifecycle';
+import { reportProvider } from './provider';
+import { VERSION } from '../version';
+import type { PrecisionReportInput } from '../../../reports/pdf/precision-report';
 
 /** States in which the analysis can be read (results may be coming in from "collecting" on). */
 const READABLE: readonly RoundState[] = [
@@ -453,4 +457,41 @@ export async function precisionSources(
     });
   }
   return { studies };
+}
+
+/** What the precision report builders read (GET /rounds/{id}/reports/precision.pdf|xlsx). */
+export async function precisionReportInput(
+  ctx: AppContext,
+  roundId: string,
+): Promise<PrecisionReportInput> {
+  const em = ctx.ds.manager;
+  const round = await em.findOne(Round, { where: { id: roundId } });
+  if (!round) throw notFound('The round');
+  assertPrecisionStudy(round);
+  assertReadable(round);
+  const { input, items } = await loadStudyInput(em, roundId);
+  const scheme = await em.findOne(Scheme, { where: { id: round.schemeId } });
+  const finished = FINISHED.includes(round.state)
+    ? await em.findOne(RoundTransition, {
+        where: { roundId, toState: 'evaluated' },
+        order: { at: 'DESC' },
+      })
+    : null;
+  return {
+    analysis: analysePrecisionStudy(input),
+    provider: await reportProvider(em),
+    schemeName: scheme?.name ?? '',
+    items: items.map((i) => ({
+      code: i.code,
+      material: i.material,
+      nominalSizeNm: i.nominalSizeNm,
+    })),
+    instructions: round.instructions,
+    protocolTemperatureC: round.protocolTemperatureC,
+    resultsDueAt: round.resultsDueAt ? round.resultsDueAt.toISOString() : null,
+    finishedAt: finished ? finished.at.toISOString() : null,
+    enrolled: await em.count(Enrolment, { where: { roundId, state: 'enrolled' } }),
+    generatedAt: new Date().toISOString(),
+    softwareVersion: VERSION,
+  };
 }

@@ -203,6 +203,18 @@ describe('precision studies', () => {
       .expect(200);
     const mine = sources.body.studies.find((x: { roundId: string }) => x.roundId === s.round.id);
     expect(mine.measurands[0].levels[0].sR).toBeCloseTo(lv0.sR!, 12);
+    // a later PT round of the scheme takes σ_R from the study, named by id and code
+    const pt = await study([[100.1, 100.2]], { kind: 'pt', state: 'draft' });
+    const patch = (study: object) =>
+      coord.agent
+        .patch(api(`/rounds/${pt.round.id}/measurands/${pt.measurand.id}`))
+        .set('x-csrf-token', coord.csrf)
+        .send({
+          sigmaPtRule: { kind: 'precision', sigmaR: mine.measurands[0].levels[0].sR, study },
+        });
+    await patch({ roundId: s.round.id, roundCode: s.round.code }).expect(200);
+    const wrong = await patch({ roundId: s.round.id, roundCode: 'RR-OTHER' }).expect(422);
+    expect(wrong.body.error.code).toBe('sigma_source_invalid');
     // a finished study takes no more decisions
     await decide(s.round.id, {
       decisions: [

@@ -495,3 +495,32 @@ export async function precisionReportInput(
     softwareVersion: VERSION,
   };
 }
+
+/**
+ * A σ_pt rule of kind 'precision' that names its study must name a finished precision study of
+ * the same scheme, by id and code (422 naming the field otherwise).
+ */
+export async function assertSigmaSource(
+  em: EntityManager,
+  roundId: string,
+  rule: unknown,
+  field: string,
+): Promise<void> {
+  const r = rule as { kind?: string; study?: { roundId: string; roundCode: string } };
+  if (r?.kind !== 'precision' || !r.study) return;
+  const round = await em.findOne(Round, { where: { id: roundId } });
+  const study = await em.findOne(Round, { where: { id: r.study.roundId } });
+  if (
+    !round ||
+    !study ||
+    study.kind !== 'precision' ||
+    study.schemeId !== round.schemeId ||
+    study.code !== r.study.roundCode ||
+    !FINISHED.includes(study.state)
+  )
+    throw ruleBroken(
+      'sigma_source_invalid',
+      `${field}: σ_R must come from a finished precision study of the same scheme (code ${r.study.roundCode} does not name one).`,
+      [{ path: field, message: 'Pick a finished precision study of this scheme.' }],
+    );
+}

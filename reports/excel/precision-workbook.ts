@@ -60,8 +60,8 @@ export async function buildPrecisionWorkbook(input: PrecisionReportInput): Promi
       input.finishedAt ? `finished ${input.finishedAt.slice(0, 10)}` : 'preview (not finished)',
     ],
     ['Levels', a.design.levels],
-    ['Laboratories reporting', a.design.participants],
-    ['Laboratories enrolled', input.enrolled],
+    ['Labs reporting', a.design.participants],
+    ['Labs enrolled', input.enrolled],
     ['Record checksum (SHA-256)', precisionChecksum(a)],
     [
       'File made',

@@ -358,7 +358,8 @@ export function precisionAnalysis(cells: readonly PrecisionCellInput[]): Precisi
 }
 
 function validate(cells: readonly PrecisionCellInput[]): void {
-  if (!Array.isArray(cells) || cells.length === 0) {
+  // `as unknown`: Array.isArray would narrow a readonly array to any[].
+  if (!Array.isArray(cells as unknown) || cells.length === 0) {
     throw new RangeError('precisionAnalysis: no laboratories (cells) given');
   }
   const seen = new Set<string>();
@@ -367,7 +368,7 @@ function validate(cells: readonly PrecisionCellInput[]): void {
       throw new RangeError(`precisionAnalysis: laboratory code "${c.code}" appears twice`);
     }
     seen.add(c.code);
-    if (!Array.isArray(c.values) || c.values.length === 0) {
+    if (!Array.isArray(c.values as unknown) || c.values.length === 0) {
       throw new RangeError(`precisionAnalysis: laboratory "${c.code}" has no results`);
     }
     const values: readonly unknown[] = c.values;

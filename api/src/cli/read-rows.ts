@@ -89,7 +89,9 @@ function cellContent(cell: Cell): string | number | null {
     const r = (v as { result?: unknown }).result;
     if (typeof r === 'number') return r;
     if (r === undefined || r === null) return null;
-    return String(r);
+    if (r instanceof Date) return r.toISOString();
+    // an error result ({ error: '#N/A' }) keeps its shape instead of "[object Object]"
+    return typeof r === 'object' ? JSON.stringify(r) : String(r as string | boolean);
   }
   return cell.text;
 }

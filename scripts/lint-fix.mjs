@@ -5,12 +5,17 @@ import { spawnSync } from 'node:child_process';
 import { autofixRules } from '../eslint.config.mjs';
 import { bin, log } from './lib.mjs';
 
-const args = ['.', '--fix'];
+// The typed rules exist for TypeScript files only (plain JavaScript has no type information).
+const tsArgs = ['--fix', '**/*.ts'];
 for (const [name, value] of Object.entries(autofixRules)) {
-  args.push('--rule', JSON.stringify({ [name]: value }));
+  tsArgs.push('--rule', JSON.stringify({ [name]: value }));
 }
-log('eslint --fix over the tree (a few minutes on 2 cores)…');
-const eslint = spawnSync(bin('eslint'), args, { stdio: 'inherit' });
+log('eslint --fix over the TypeScript files (a few minutes on 2 cores)…');
+const ts = spawnSync(bin('eslint'), tsArgs, { stdio: 'inherit' });
+log('eslint --fix over the JavaScript files and the Angular templates…');
+const plain = spawnSync(bin('eslint'), ['--fix', '**/*.{js,mjs,cjs}', 'web/src/**/*.html'], {
+  stdio: 'inherit',
+});
 const changed = spawnSync('git', ['diff', '--name-only'], { encoding: 'utf8' })
   .stdout.split('\n')
   .filter(Boolean);
@@ -20,4 +25,4 @@ if (changed.length > 0) {
     stdio: 'inherit',
   });
 }
-process.exit(eslint.status ?? 1);
+process.exit(Math.max(ts.status ?? 1, plain.status ?? 1));

@@ -14,9 +14,11 @@ import tseslint from 'typescript-eslint';
 const root = import.meta.dirname;
 
 // Rules whose hits are all autofixable and too many to fix while other branches are open.
-// `npm run lint:fix` (scripts/lint-fix.mjs) applies their fixes with these values, whatever the
-// rules below say; after that run the integrator sets the two 'off' entries below to these.
-export const autofixRules = {
+// `npm run lint:fix` (scripts/lint-fix.mjs) sets RINGLET_LINT_AUTOFIX=1, which switches them on
+// with these values whatever the entries below say; after that run the integrator sets the two
+// entries marked TURN ON AFTER MERGE to these values.
+const autofix = process.env['RINGLET_LINT_AUTOFIX'] === '1';
+const autofixRules = {
   '@typescript-eslint/consistent-type-imports': [
     'error',
     { prefer: 'type-imports', fixStyle: 'inline-type-imports' },
@@ -133,7 +135,9 @@ export default tseslint.config(
       // TURN ON AFTER MERGE: autofix
       // Target: autofixRules (about 390 hits, mostly `x!` on values that are already non-null;
       // the fix only deletes the assertion). The integrator flips it after `npm run lint:fix`.
-      '@typescript-eslint/no-unnecessary-type-assertion': 'off',
+      '@typescript-eslint/no-unnecessary-type-assertion': autofix
+        ? autofixRules['@typescript-eslint/no-unnecessary-type-assertion']
+        : 'off',
       // Passing on an error a callback API handed over (passport, express-session) is fine; making
       // a non-Error is not (the same defaults as only-throw-error).
       '@typescript-eslint/prefer-promise-reject-errors': [
@@ -149,7 +153,9 @@ export default tseslint.config(
       // TURN ON AFTER MERGE: autofix
       // Target: autofixRules (type-only imports as `import type { A }`, or `import { type A, B }`
       // when mixed; hundreds of import lines). The integrator flips it after `npm run lint:fix`.
-      '@typescript-eslint/consistent-type-imports': 'off',
+      '@typescript-eslint/consistent-type-imports': autofix
+        ? autofixRules['@typescript-eslint/consistent-type-imports']
+        : 'off',
     },
   },
   {

@@ -90,8 +90,10 @@ function cellContent(cell: Cell): string | number | null {
     if (typeof r === 'number') return r;
     if (r === undefined || r === null) return null;
     if (r instanceof Date) return r.toISOString();
+    if (typeof r === 'string') return r;
+    if (typeof r === 'boolean') return String(r);
     // an error result ({ error: '#N/A' }) keeps its shape instead of "[object Object]"
-    return typeof r === 'object' ? JSON.stringify(r) : String(r as string | boolean);
+    return JSON.stringify(r);
   }
   return cell.text;
 }

@@ -83,7 +83,8 @@ function plain(v: unknown): string | number | boolean | null {
     if ('text' in v) return plain((v as { text: unknown }).text);
     return JSON.stringify(v);
   }
-  return String(v as bigint | symbol);
+  if (typeof v === 'bigint' || typeof v === 'symbol') return v.toString();
+  return null; // a function is no cell content
 }
 
 function cellOut(cell: ExcelJS.Cell): CellOut {

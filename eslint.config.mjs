@@ -152,7 +152,7 @@ export default tseslint.config(
       ],
       // TURN ON AFTER MERGE: autofix
       // Target: autofixRules (type-only imports as `import type { A }`, or `import { type A, B }`
-      // when mixed; hundreds of import lines). The integrator flips it after `npm run lint:fix`.
+      // when mixed; 38 imports in 37 files on 5 Dec). The integrator flips it after `npm run lint:fix`.
       '@typescript-eslint/consistent-type-imports': autofix
         ? autofixRules['@typescript-eslint/consistent-type-imports']
         : 'off',

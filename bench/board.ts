@@ -76,7 +76,7 @@ function request(
 async function signIn(port: number, agent: http.Agent, email: string): Promise<Session> {
   const t1 = await request(port, agent, 'GET', '/api/v1/auth/csrf-token', {});
   let cookie = (t1.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
-  const token = JSON.parse(t1.body).token as string;
+  const token = (JSON.parse(t1.body) as { token: string }).token;
   const r = await request(
     port,
     agent,
@@ -88,7 +88,7 @@ async function signIn(port: number, agent: http.Agent, email: string): Promise<S
   if (r.status !== 200) throw new Error(`sign-in ${email}: ${r.status} ${r.body}`);
   cookie = (r.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ') || cookie;
   const t2 = await request(port, agent, 'GET', '/api/v1/auth/csrf-token', { cookie });
-  return { cookie, csrf: JSON.parse(t2.body).token as string };
+  return { cookie, csrf: (JSON.parse(t2.body) as { token: string }).token };
 }
 
 /** Closed-loop load: CLIENTS workers, each with its own session and keep-alive socket. */

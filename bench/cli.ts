@@ -10,7 +10,7 @@ import { join } from 'node:path';
 import { syntheticRound } from '../shared/stats/synthetic-round';
 import type { Row } from './stats';
 
-export async function benchCli(): Promise<(Row & { target?: string; extra?: string })[]> {
+export function benchCli(): (Row & { target?: string; extra?: string })[] {
   const root = join(__dirname, '..');
   const dir = mkdtempSync(join(tmpdir(), 'ringlet-cli-'));
   try {

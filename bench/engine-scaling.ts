@@ -80,7 +80,7 @@ export function growthExponent(sizes: readonly number[], ms: readonly number[]):
   return num / den;
 }
 
-export async function benchEngineScaling(): Promise<(Row & { target?: string; extra?: string })[]> {
+export function benchEngineScaling(): (Row & { target?: string; extra?: string })[] {
   const rows: (Row & { target?: string; extra?: string })[] = [];
   const medians: number[] = [];
   let slower = 0;

@@ -55,7 +55,7 @@ export async function benchStats(): Promise<Row[]> {
     for (const r of rows) {
       const key = r.item + '/' + r.measurand;
       let g = groups.get(key);
-      if (!g) groups.set(key, (g = new Map()));
+      if (!g) groups.set(key, (g = new Map<string, number[]>()));
       let vs = g.get(r.participant);
       if (!vs) g.set(r.participant, (vs = []));
       vs.push(r.value);

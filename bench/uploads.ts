@@ -79,7 +79,7 @@ async function signIn(
 ): Promise<{ cookie: string; csrf: string }> {
   const t1 = await send(port, agent, 'GET', '/api/v1/auth/csrf-token', {});
   let cookie = (t1.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
-  const token = JSON.parse(t1.body.toString()).token as string;
+  const token = (JSON.parse(t1.body.toString()) as { token: string }).token;
   const r = await send(
     port,
     agent,
@@ -91,7 +91,7 @@ async function signIn(
   if (r.status !== 200) throw new Error(`sign-in ${email}: ${r.status} ${r.body.toString()}`);
   cookie = (r.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ') || cookie;
   const t2 = await send(port, agent, 'GET', '/api/v1/auth/csrf-token', { cookie });
-  return { cookie, csrf: JSON.parse(t2.body.toString()).token as string };
+  return { cookie, csrf: (JSON.parse(t2.body.toString()) as { token: string }).token };
 }
 
 function multipart(name: string, filename: string, data: Buffer): { body: Buffer; type: string } {

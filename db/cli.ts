@@ -72,6 +72,7 @@ async function main(cmd: string | undefined, arg: string | undefined): Promise<v
       console.log(`database ${databaseName(url)} restored from ${arg}`);
       return;
     }
+    case undefined:
     default:
       console.error('usage: tsx db/cli.ts migrate|seed|reset|template|backup [FILE]|restore FILE');
       process.exit(2);

@@ -190,7 +190,7 @@ const INSTRUMENTS = [
   'Compact DLS analyser, 658 nm, 90°',
 ];
 
-const silentMailer = { send: async () => undefined, close: () => undefined };
+const silentMailer = { send: () => Promise.resolve(undefined), close: () => undefined };
 
 export async function hasDemoScenario(ds: DataSource): Promise<boolean> {
   return ds.getRepository(Scheme).exists({ where: { code: DEMO_SCHEME_CODE } });

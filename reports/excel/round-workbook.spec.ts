@@ -48,7 +48,7 @@ describe('round workbook', () => {
     const blunder = g.participants.findIndex((p) => p.code === 'P004');
     const br = sheet.getRow(5 + blunder);
     expect(br.getCell(15).value).toBe('action signal');
-    expect(String(br.getCell(16).value)).toMatch(/radius/);
+    expect(br.getCell(16).text).toMatch(/radius/);
     expect(wb.getWorksheet('A PDI')!.getRow(5).getCell(5).numFmt).toBe('0.000');
   });
 
@@ -105,7 +105,7 @@ describe('round workbook', () => {
     expect(summary.getRow(9).getCell(2).value).toBeInstanceOf(Date); // results due
     // No label is wider than its column (the Summary cut its labels before).
     for (let r = 1; r <= 12; r++)
-      expect(String(summary.getRow(r).getCell(1).value).length).toBeLessThanOrEqual(
+      expect(summary.getRow(r).getCell(1).text.length).toBeLessThanOrEqual(
         summary.getColumn(1).width!,
       );
     const sheet = wb.getWorksheet('A Z-average')!;

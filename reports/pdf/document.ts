@@ -403,7 +403,7 @@ const glyphCache = new WeakMap<FastFont, Map<string, string>>();
 /** Glyph codes of a string, one character at a time through pdfkit's encoder (cached per document font). */
 function quickEncode(font: FastFont, text: string): string {
   let map = glyphCache.get(font);
-  if (!map) glyphCache.set(font, (map = new Map()));
+  if (!map) glyphCache.set(font, (map = new Map<string, string>()));
   let out = '';
   for (const ch of text) {
     let hex = map.get(ch);

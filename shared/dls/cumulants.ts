@@ -301,7 +301,7 @@ function solveLeastSquaresQr(A: number[][], b: number[], n: number): number[] {
     norm = Math.sqrt(norm);
     if (norm === 0) throw new RangeError('cumulantsFit: singular fit (lag times do not vary)');
     const alpha = A[k][k] > 0 ? -norm : norm;
-    const v: number[] = new Array(m).fill(0);
+    const v = new Array<number>(m).fill(0);
     v[k] = A[k][k] - alpha;
     for (let i = k + 1; i < m; i++) v[i] = A[i][k];
     let vv = 0;
@@ -318,7 +318,7 @@ function solveLeastSquaresQr(A: number[][], b: number[], n: number): number[] {
     const f = (2 * s) / vv;
     for (let i = k; i < m; i++) b[i] -= f * v[i];
   }
-  const x: number[] = new Array(n).fill(0);
+  const x = new Array<number>(n).fill(0);
   for (let k = n - 1; k >= 0; k--) {
     let s = b[k];
     for (let j = k + 1; j < n; j++) s -= A[k][j] * x[j];

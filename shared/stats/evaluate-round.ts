@@ -132,7 +132,8 @@ export function toColumns(rows: readonly ResultRow[]): ResultColumns {
       throw new RangeError(`row ${r}: value is not a finite number (${String(v)})`);
     }
     let byMeasurand = groupsByItem.get(row.item);
-    if (byMeasurand === undefined) groupsByItem.set(row.item, (byMeasurand = new Map()));
+    if (byMeasurand === undefined)
+      groupsByItem.set(row.item, (byMeasurand = new Map<string, number>()));
     let g = byMeasurand.get(row.measurand);
     if (g === undefined) {
       g = groups.length;
@@ -327,7 +328,7 @@ function evaluateGroup(
   const xpt = a.robustMean;
   const zDen = sigma;
   const zpDen = sigma === null ? null : Math.sqrt(sigma * sigma + uAssigned * uAssigned);
-  const participants: ParticipantEvaluation[] = new Array(p);
+  const participants = new Array<ParticipantEvaluation>(p);
   for (let i = 0; i < p; i++) {
     const x = results[i];
     const z = zDen === null ? null : (x - xpt) / zDen;

@@ -357,8 +357,13 @@ export function precisionAnalysis(cells: readonly PrecisionCellInput[]): Precisi
   };
 }
 
+/** Array.isArray without narrowing: as a type guard it turns a readonly array into any[]. */
+function isList(v: unknown): boolean {
+  return Array.isArray(v);
+}
+
 function validate(cells: readonly PrecisionCellInput[]): void {
-  if (!Array.isArray(cells) || cells.length === 0) {
+  if (!isList(cells) || cells.length === 0) {
     throw new RangeError('precisionAnalysis: no laboratories (cells) given');
   }
   const seen = new Set<string>();
@@ -367,7 +372,7 @@ function validate(cells: readonly PrecisionCellInput[]): void {
       throw new RangeError(`precisionAnalysis: laboratory code "${c.code}" appears twice`);
     }
     seen.add(c.code);
-    if (!Array.isArray(c.values) || c.values.length === 0) {
+    if (!isList(c.values) || c.values.length === 0) {
       throw new RangeError(`precisionAnalysis: laboratory "${c.code}" has no results`);
     }
     const values: readonly unknown[] = c.values;

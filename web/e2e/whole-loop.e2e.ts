@@ -459,12 +459,12 @@ describe('the whole loop in a real browser', () => {
       const results = wb.getWorksheet('Results')!;
       results.eachRow((row, r) => {
         if (r === 1) return;
-        const v = values[`${String(row.getCell(1).value)} ${String(row.getCell(2).value)}`]!;
+        const v = values[`${row.getCell(1).text} ${row.getCell(2).text}`]!;
         v.forEach((x, k) => (row.getCell(5 + k).value = x));
       });
       const cond = wb.getWorksheet('Conditions')!;
       const headers: string[] = [];
-      cond.getRow(1).eachCell((c, i) => (headers[i] = String(c.value)));
+      cond.getRow(1).eachCell((c, i) => (headers[i] = c.text));
       cond.eachRow((row, r) => {
         if (r === 1) return;
         row.getCell(headers.indexOf('Instrument')).value = 'Sizer One';

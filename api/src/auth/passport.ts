@@ -65,9 +65,15 @@ export function authenticateLocal(
   res: Response,
 ): Promise<User | null> {
   return new Promise((resolve, reject) => {
-    p.authenticate('local', { session: false }, (err: unknown, user: User | false) => {
-      if (err) reject(err);
-      else resolve(user || null);
-    })(req, res, (err?: unknown) => (err ? reject(err) : resolve(null)));
+    // @types/passport types the returned middleware as `any`.
+    const middleware = p.authenticate(
+      'local',
+      { session: false },
+      (err: Error | null, user: User | false) => {
+        if (err) reject(err);
+        else resolve(user || null);
+      },
+    ) as (req: Request, res: Response, next: (err?: Error) => void) => void;
+    middleware(req, res, (err?: Error) => (err ? reject(err) : resolve(null)));
   });
 }

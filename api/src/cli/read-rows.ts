@@ -89,7 +89,11 @@ function cellContent(cell: Cell): string | number | null {
     const r = (v as { result?: unknown }).result;
     if (typeof r === 'number') return r;
     if (r === undefined || r === null) return null;
-    return String(r);
+    if (r instanceof Date) return r.toISOString();
+    if (typeof r === 'string') return r;
+    if (typeof r === 'boolean') return String(r);
+    // an error result ({ error: '#N/A' }) keeps its shape instead of "[object Object]"
+    return JSON.stringify(r);
   }
   return cell.text;
 }

@@ -106,7 +106,8 @@ export function errorHandler(log: (msg: string, err: unknown) => void): ErrorReq
       return;
     }
     // body-parser errors carry a status (malformed JSON 400, too large 413)
-    const status = typeof err?.status === 'number' ? err.status : 500;
+    const carried: unknown = (err as { status?: unknown } | null | undefined)?.status;
+    const status = typeof carried === 'number' ? carried : 500;
     if (status >= 400 && status < 500) {
       res.status(status).json({
         error: {

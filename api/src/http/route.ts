@@ -47,7 +47,8 @@ export interface RouteDefinition<
   availability?: string;
   /** Exempt from CSRF (only for requests that cannot carry a session-bound token). */
   csrfExempt?: boolean;
-  handler: (ctx: RouteContext<Infer<B>, Infer<P>, Infer<Q>>) => Promise<unknown> | unknown;
+  /** May be async: its result (or the promise's value) is the answer. */
+  handler: (ctx: RouteContext<Infer<B>, Infer<P>, Infer<Q>>) => unknown;
 }
 
 // The table of every route: OpenAPI and the authorization walk read it.

@@ -72,7 +72,15 @@ export function uploadError(err: unknown, limit: UploadLimit): HttpError {
         return badRequest(`${field}: longer than ${formatBytes(MAX_TEXT_FIELD_BYTES)}.`, [
           { path: field, message: 'Too long.' },
         ]);
-      default:
+      // Listed, not `default`: a code multer adds later must be decided here (lint
+      // switch-exhaustiveness-check); an unknown code at run time falls through to the 400 below.
+      case 'MISSING_FIELD_NAME':
+        return badRequest('The upload form has a field without a name.', [
+          { path: limit.fileField, message: 'A form field has no name.' },
+        ]);
+      case 'LIMIT_PART_COUNT':
+      case 'LIMIT_FIELD_KEY':
+      case 'LIMIT_FIELD_COUNT':
         return badRequest(
           `The upload form has too many or too long fields (${err.message.toLowerCase()}).`,
           [{ path: field, message: err.message }],

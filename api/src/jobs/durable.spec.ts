@@ -31,7 +31,7 @@ jest.setTimeout(90_000);
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 async function until<T>(
   what: string,
-  probe: () => Promise<T | null | undefined | false>,
+  probe: () => T | null | undefined | false | Promise<T | null | undefined | false>,
   seconds = 40,
 ): Promise<T> {
   for (let i = 0; i < seconds * 10; i++) {
@@ -179,9 +179,9 @@ describe('durable background work (pg-boss)', () => {
   it('publication mails survive an instance that stopped while SMTP refused them', async () => {
     const refused: string[] = [];
     const down: Mailer = {
-      async send(m) {
+      send(m) {
         refused.push(String(m.to));
-        throw new Error('SMTP 421 service not available');
+        return Promise.reject(new Error('SMTP 421 service not available'));
       },
       close: () => undefined,
     };
@@ -193,7 +193,7 @@ describe('durable background work (pg-boss)', () => {
       .expect(200);
     expect(res.body.labsNotified).toBe(12);
     // The publication committed with one job per lab; A tries, SMTP refuses, the jobs wait for a retry.
-    await until('the first attempts', async () => refused.length >= 12);
+    await until('the first attempts', () => refused.length >= 12);
     await a.jobs.stop(1000);
     const states = await jobStates(PUBLICATION_MAIL_QUEUE);
     expect(states['completed'] ?? 0).toBe(0);

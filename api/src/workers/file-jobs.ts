@@ -61,7 +61,7 @@ export async function runJob(job: FileJob): Promise<unknown> {
     }
     case 'exhaust-memory': {
       const hold: number[][] = [];
-      for (;;) hold.push(new Array(1_000_000).fill(hold.length));
+      for (;;) hold.push(new Array<number>(1_000_000).fill(hold.length));
     }
     case 'spin':
       for (;;);
@@ -81,8 +81,10 @@ function plain(v: unknown): string | number | boolean | null {
     if ('richText' in v)
       return (v as ExcelJS.CellRichTextValue).richText.map((t) => t.text).join('');
     if ('text' in v) return plain((v as { text: unknown }).text);
+    return JSON.stringify(v);
   }
-  return String(v);
+  if (typeof v === 'bigint' || typeof v === 'symbol') return v.toString();
+  return null; // a function is no cell content
 }
 
 function cellOut(cell: ExcelJS.Cell): CellOut {

@@ -27,7 +27,8 @@ export async function scanXlsx(
   for (const e of entries) {
     const isSheet = /^xl\/worksheets\/[^/]+\.xml$/.test(e.name);
     const counter = isSheet ? new TagCounter() : null;
-    let refusal: FileRefusal | null = null;
+    // Set inside the callback; the cast stops TypeScript narrowing it to `null` after the await.
+    let refusal = null as FileRefusal | null;
     try {
       await inflateEntry(buf, e, (chunk) => {
         unpacked += chunk.length;

@@ -99,7 +99,11 @@ export class Labs implements OnInit {
 
   protected create(): void {
     this.dialog
-      .open(LabDialog, { data: null, width: '440px', maxWidth: '95vw' })
+      .open<LabDialog, Organisation | null, Organisation>(LabDialog, {
+        data: null,
+        width: '440px',
+        maxWidth: '95vw',
+      })
       .afterClosed()
       .subscribe((lab) => {
         if (lab) this.labs.update((labs) => [...labs, lab]);
@@ -108,7 +112,11 @@ export class Labs implements OnInit {
 
   private edit(lab: Organisation): void {
     this.dialog
-      .open(LabDialog, { data: lab, width: '440px', maxWidth: '95vw' })
+      .open<LabDialog, Organisation | null, Organisation>(LabDialog, {
+        data: lab,
+        width: '440px',
+        maxWidth: '95vw',
+      })
       .afterClosed()
       .subscribe((updated) => {
         if (updated)

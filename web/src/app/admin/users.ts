@@ -12,7 +12,7 @@ import { ActionCell, type RowAction } from '../grid/action-cell';
 import { formatDateTime, ringletGridTheme } from './admin-grid';
 import { AdminService } from './admin.service';
 import { EditUserDialog } from './edit-user-dialog';
-import { InviteUserDialog } from './invite-user-dialog';
+import { InviteUserDialog, type InviteUserData } from './invite-user-dialog';
 import { GLOBAL_ROLE_LABELS } from './role-labels';
 
 @Component({
@@ -141,7 +141,11 @@ export class Users implements OnInit {
 
   protected invite(): void {
     this.dialog
-      .open(InviteUserDialog, { data: { labs: this.labs() }, width: '480px', maxWidth: '95vw' })
+      .open<InviteUserDialog, InviteUserData, User>(InviteUserDialog, {
+        data: { labs: this.labs() },
+        width: '480px',
+        maxWidth: '95vw',
+      })
       .afterClosed()
       .subscribe((user) => {
         if (user) this.users.update((users) => [...users, user]);
@@ -150,7 +154,11 @@ export class Users implements OnInit {
 
   private edit(user: User): void {
     this.dialog
-      .open(EditUserDialog, { data: user, width: '480px', maxWidth: '95vw' })
+      .open<EditUserDialog, User, User>(EditUserDialog, {
+        data: user,
+        width: '480px',
+        maxWidth: '95vw',
+      })
       .afterClosed()
       .subscribe((updated) => {
         if (updated)

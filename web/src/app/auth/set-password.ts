@@ -18,7 +18,7 @@ import { AuthService } from '../core/auth.service';
 import { applyServerIssues, errorMessage, zodValidator } from '../core/zod-form-errors';
 
 function passwordsMatch(group: AbstractControl): ValidationErrors | null {
-  const password = group.get('password')?.value;
+  const password: unknown = group.get('password')?.value;
   const confirm = group.get('confirm');
   if (!confirm) return null;
   const mismatch = !!confirm.value && confirm.value !== password;

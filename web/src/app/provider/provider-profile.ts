@@ -217,7 +217,8 @@ export class ProviderProfilePage implements OnInit {
     }
     const reader = new FileReader();
     reader.onload = () => {
-      const data = String(reader.result ?? '');
+      // readAsDataURL: the result is a data: URL string
+      const data = typeof reader.result === 'string' ? reader.result : '';
       const base64 = data.slice(data.indexOf(',') + 1);
       this.busy.set(true);
       this.service.setLogo(base64).subscribe({

@@ -28,7 +28,6 @@ const ICONS: Record<ReportStatus['status'], string> = {
   template: `
     @let s = status();
     <span
-      class="state"
       [class]="'state ' + s.status"
       role="status"
       data-testid="build-state"

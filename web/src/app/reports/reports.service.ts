@@ -40,7 +40,7 @@ export class ReportsService {
       const s = this.http
         .get(`${API}${path}`, { responseType: 'blob', observe: 'events', reportProgress: true })
         .subscribe({
-          next: async (e: HttpEvent<Blob>) => {
+          next: (e: HttpEvent<Blob>) => {
             if (e.type === HttpEventType.DownloadProgress) {
               sub.next({
                 kind: 'progress',
@@ -50,11 +50,17 @@ export class ReportsService {
             } else if (e.type === HttpEventType.Response) {
               const res = e as HttpResponse<Blob>;
               if (res.status === 202 && res.body) {
-                sub.next({
-                  kind: 'building',
-                  status: ReportStatus.parse(JSON.parse(await res.body.text())),
-                });
-              } else if (res.body) {
+                // The 202 body is the build's status (JSON); one that does not read fails the call.
+                res.body
+                  .text()
+                  .then((text) => {
+                    sub.next({ kind: 'building', status: ReportStatus.parse(JSON.parse(text)) });
+                    sub.complete();
+                  })
+                  .catch((err: unknown) => sub.error(err));
+                return;
+              }
+              if (res.body) {
                 const cd = res.headers.get('Content-Disposition') ?? '';
                 const fileName =
                   /filename="([^"]+)"/.exec(cd)?.[1] ?? path.split('/').pop()!.split('?')[0]!;

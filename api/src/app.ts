@@ -25,6 +25,7 @@ import { evaluationRoutes } from './routes/evaluation';
 import { reportRoutes } from './routes/reports';
 import { providerRoutes } from './routes/provider';
 import { assessorRoutes } from './routes/assessor';
+import { billingRoutes, WEBHOOK_PATH, webhookRawBody } from './routes/billing';
 import type { AppContext } from './services/context';
 import { RateLimiter } from './services/rate-limit';
 import { VERSION } from './version';
@@ -94,6 +95,7 @@ export function createApp(deps: AppDeps): RingletApp {
     if (req.secure) res.setHeader('Strict-Transport-Security', HSTS);
     next();
   });
+  app.use(WEBHOOK_PATH, ...webhookRawBody()); // the signed raw body, before express.json
   app.use(express.json({ limit: '1mb' }));
 
   // Sessions live in PostgreSQL so several server instances share them.
@@ -144,6 +146,7 @@ export function createApp(deps: AppDeps): RingletApp {
   reportRoutes(api, ctx);
   providerRoutes(api, ctx);
   assessorRoutes(api, ctx);
+  billingRoutes(api, ctx);
 
   let openApi: object | undefined;
   const document = () => (openApi ??= buildOpenApi(api.routes, VERSION));

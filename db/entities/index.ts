@@ -21,6 +21,12 @@ import { HomogeneityStudy, ReminderLog } from './round-desk';
 import { AssessorGrant, Evaluation, EvaluationResult, Investigation } from './evaluation';
 import { Report } from './report';
 import { ProviderProfile } from './provider-profile';
+import { BillingDetails } from './billing-details';
+import { BillingCounter } from './billing-counter';
+import { Invoice } from './invoice';
+import { CreditNote } from './credit-note';
+import { PaymentEvent } from './payment-event';
+import { RoundBilling } from './round-billing';
 
 export { AuditEvent, MailMessage, Membership, Organisation, PasswordToken, User };
 export {
@@ -40,6 +46,7 @@ export { Attachment, InstrumentCheck };
 export { AssessorGrant, Evaluation, EvaluationResult, Investigation };
 export { Report };
 export { ProviderProfile };
+export { BillingDetails, BillingCounter, Invoice, CreditNote, PaymentEvent, RoundBilling };
 
 /** Every entity, registered with the DataSource. Append new ones at the end. */
 export const entities = [
@@ -69,4 +76,10 @@ export const entities = [
   AssessorGrant,
   Report,
   ProviderProfile,
+  BillingDetails,
+  BillingCounter,
+  Invoice,
+  CreditNote,
+  PaymentEvent,
+  RoundBilling,
 ];

@@ -151,6 +151,10 @@ export async function startPaymentFake(opts: {
 
   async function handle(req: IncomingMessage, res: ServerResponse): Promise<void> {
     const url = new URL(req.url ?? '/', base);
+    if (url.pathname === '/favicon.ico') {
+      res.writeHead(204).end();
+      return;
+    }
     const apiCall = url.pathname.startsWith('/v1/');
     if (apiCall && req.headers.authorization !== `Bearer ${secretKey}`) {
       stripeError(res, 401, 'Invalid API Key provided.');

@@ -163,13 +163,13 @@ export class FeesLedger implements OnInit {
   ];
 
   protected readonly columns: ColDef<LedgerRow>[] = [
-    { field: 'organisationName', headerName: 'Lab', flex: 1, minWidth: 180, filter: true },
-    { field: 'participantCode', headerName: 'Code', width: 100 },
-    { field: 'number', headerName: 'Invoice', width: 140 },
+    { field: 'organisationName', headerName: 'Lab', flex: 1, minWidth: 160, filter: true },
+    { field: 'participantCode', headerName: 'Code', width: 90 },
+    { field: 'number', headerName: 'Invoice', width: 130 },
     {
       field: 'status',
       headerName: 'Status',
-      width: 170,
+      width: 160,
       valueFormatter: ({ data }) =>
         data
           ? data.feeOutstanding
@@ -186,16 +186,9 @@ export class FeesLedger implements OnInit {
       valueFormatter: ({ value }) => this.money(value as number),
     },
     {
-      field: 'outstandingMinor',
-      headerName: 'Outstanding',
-      width: 130,
-      type: 'rightAligned',
-      valueFormatter: ({ value }) => this.money(value as number),
-    },
-    {
       colId: 'payment',
       headerName: 'Payment',
-      width: 220,
+      width: 200,
       valueGetter: ({ data }) =>
         data?.paidMethod
           ? `${PAYMENT_METHOD_LABELS[data.paidMethod]} ${data.paidOn ?? ''} ${data.paidReference ?? ''}`
@@ -203,11 +196,11 @@ export class FeesLedger implements OnInit {
             ? `Credit note ${data.creditNoteNumber}`
             : '',
     },
-    { field: 'remindersSent', headerName: 'Reminders', width: 110, type: 'rightAligned' },
+    { field: 'remindersSent', headerName: 'Reminders', width: 100, type: 'rightAligned' },
     {
       field: 'enrolmentState',
       headerName: 'Enrolment',
-      width: 120,
+      width: 110,
       valueFormatter: ({ data }) =>
         data
           ? data.enrolmentState === 'withdrawn'
@@ -220,7 +213,7 @@ export class FeesLedger implements OnInit {
     {
       colId: 'actions',
       headerName: '',
-      width: 290,
+      width: 270,
       sortable: false,
       cellRenderer: ActionCell,
       cellRendererParams: { actions: this.actions },

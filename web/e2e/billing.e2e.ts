@@ -81,7 +81,7 @@ describe('paying a participation fee in a real browser', () => {
     await coordinator.getByRole('heading', { name: 'Fees ledger · FEE-E2E' }).waitFor();
     const totals = coordinator.getByTestId('ledger-totals');
     await totals.locator('.outstanding dd').filter({ hasText: '€0.00' }).waitFor();
-    await coordinator.getByRole('gridcell', { name: 'Browser Colloid Lab' }).waitFor();
+    await coordinator.getByRole('gridcell', { name: 'Browser Colloid Lab', exact: true }).waitFor();
     await e.shot(coordinator, 'billing-ledger');
     expect(e.consoleErrors).toEqual([]);
   });

@@ -26,6 +26,7 @@ import { precisionRoutes } from './routes/precision';
 import { reportRoutes } from './routes/reports';
 import { providerRoutes } from './routes/provider';
 import { assessorRoutes } from './routes/assessor';
+import { billingRoutes, WEBHOOK_PATH, webhookRawBody } from './routes/billing';
 import type { AppContext } from './services/context';
 import { RateLimiter } from './services/rate-limit';
 import { VERSION } from './version';
@@ -95,6 +96,7 @@ export function createApp(deps: AppDeps): RingletApp {
     if (req.secure) res.setHeader('Strict-Transport-Security', HSTS);
     next();
   });
+  app.use(WEBHOOK_PATH, ...webhookRawBody()); // the signed raw body, before express.json
   app.use(express.json({ limit: '1mb' }));
 
   // Sessions live in PostgreSQL so several server instances share them.
@@ -146,6 +148,7 @@ export function createApp(deps: AppDeps): RingletApp {
   providerRoutes(api, ctx);
   assessorRoutes(api, ctx);
   precisionRoutes(api, ctx);
+  billingRoutes(api, ctx);
 
   let openApi: object | undefined;
   const document = () => (openApi ??= buildOpenApi(api.routes, VERSION));

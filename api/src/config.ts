@@ -23,6 +23,10 @@ const ConfigSchema = z
     RINGLET_DEMO_PASSWORD: z.string().min(12).optional(),
     RINGLET_STATIC_DIR: z.string().optional(),
     TRUST_PROXY: z.enum(['true', 'false']).default('false'),
+    STRIPE_SECRET_KEY: z.string().min(8).max(300).optional(),
+    STRIPE_WEBHOOK_SECRET: z.string().min(8).max(300).optional(),
+    /** Only for a local fake of the payment service: where the SDK sends its calls. */
+    STRIPE_API_BASE: z.url({ protocol: /^https?$/ }).optional(),
   })
   .superRefine((c, ctx) => {
     if (c.RINGLET_MODE === 'production') {
@@ -54,6 +58,38 @@ export interface AppConfig {
   demoPassword?: string;
   staticDir?: string;
   trustProxy: boolean;
+  /**
+   * Card payments through the hosted-payment SDK (stripe): the secret key, the webhook signing
+   * secret and, only for the local fake, the API's address. Null: card payment is off.
+   */
+  payments?: PaymentSettings | null;
+}
+
+export interface PaymentSettings {
+  secretKey: string;
+  webhookSecret: string;
+  api?: { host: string; port: number; protocol: 'http' | 'https' };
+}
+
+function paymentSettings(c: {
+  STRIPE_SECRET_KEY?: string;
+  STRIPE_WEBHOOK_SECRET?: string;
+  STRIPE_API_BASE?: string;
+}): PaymentSettings | null {
+  if (!c.STRIPE_SECRET_KEY || !c.STRIPE_WEBHOOK_SECRET) return null;
+  const base = c.STRIPE_API_BASE ? new URL(c.STRIPE_API_BASE) : null;
+  const protocol = base?.protocol === 'http:' ? 'http' : 'https';
+  return {
+    secretKey: c.STRIPE_SECRET_KEY,
+    webhookSecret: c.STRIPE_WEBHOOK_SECRET,
+    api: base
+      ? {
+          host: base.hostname,
+          port: Number(base.port || (protocol === 'http' ? 80 : 443)),
+          protocol,
+        }
+      : undefined,
+  };
 }
 
 /** Reads the environment once; a bad value stops the server with the variable named. */
@@ -88,6 +124,7 @@ export function readConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
     demoPassword: c.RINGLET_DEMO_PASSWORD,
     staticDir: c.RINGLET_STATIC_DIR,
     trustProxy: c.TRUST_PROXY === 'true',
+    payments: paymentSettings(c),
   };
 }
 

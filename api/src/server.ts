@@ -50,6 +50,18 @@ async function main(): Promise<void> {
           await import('./mail/smtp-fake')
         ).startSmtpFake(ds, Number(process.env['RINGLET_SMTP_PORT'] ?? 0))
       : null;
+  // The local fake of the payment service, likewise, when no real one is configured.
+  let webhookUrl = `${config.publicUrl}/api/v1/payments/webhook`;
+  const payFake =
+    hasOutbox(config.mode) && !config.payments
+      ? await (
+          await import('./payments/payment-fake')
+        ).startPaymentFake({
+          webhookUrl: () => webhookUrl,
+          port: Number(process.env['RINGLET_PAYMENT_FAKE_PORT'] ?? 0),
+        })
+      : null;
+  if (payFake) config.payments = payFake.settings;
   const smtpMailer = createMailer(config, fake ?? undefined, {
     providerName: () => providerName(ds.manager),
   });
@@ -73,6 +85,7 @@ async function main(): Promise<void> {
     const port = typeof addr === 'object' && addr ? addr.port : config.port;
     // The address the socket is bound to ("localhost" may resolve to ::1 while the server listens on 127.0.0.1 only).
     const url = listenUrl(typeof addr === 'object' && addr ? addr.address : config.host, port);
+    webhookUrl = `${url}/api/v1/payments/webhook`;
     logger.info(
       { port, mode: config.mode, startupMs: { ...phases, total: Math.round(performance.now()) } },
       `listening on ${url} (${config.mode} mode)`,
@@ -82,6 +95,11 @@ async function main(): Promise<void> {
         { smtpPort: fake.port },
         `local mail fake on smtp://127.0.0.1:${fake.port}; mail shows on the Outbox page`,
       );
+    if (payFake)
+      logger.info(
+        { paymentFakePort: payFake.port },
+        `local payment fake on http://127.0.0.1:${payFake.port} (test card 4242 4242 4242 4242)`,
+      );
     if (config.mode === 'demo') printDemoBanner(url, demoPassword);
   });
   const shutdown = gracefulShutdown(
@@ -90,6 +108,7 @@ async function main(): Promise<void> {
       () => jobs.stop(JOB_GRACE_MS),
       () => mailer.close(),
       async () => void (await fake?.close()),
+      async () => void (await payFake?.close()),
       () => ds.destroy(),
     ],
     { requestTimeoutMs: REQUEST_GRACE_MS, log: (m) => logger.info(m) },

@@ -22,6 +22,12 @@ import { AssessorGrant, Evaluation, EvaluationResult, Investigation } from './ev
 import { Report } from './report';
 import { ProviderProfile } from './provider-profile';
 import { PrecisionExclusion, PrecisionReference } from './precision';
+import { BillingDetails } from './billing-details';
+import { BillingCounter } from './billing-counter';
+import { Invoice } from './invoice';
+import { CreditNote } from './credit-note';
+import { PaymentEvent } from './payment-event';
+import { RoundBilling } from './round-billing';
 
 export { AuditEvent, MailMessage, Membership, Organisation, PasswordToken, User };
 export {
@@ -42,6 +48,7 @@ export { AssessorGrant, Evaluation, EvaluationResult, Investigation };
 export { Report };
 export { ProviderProfile };
 export { PrecisionExclusion, PrecisionReference };
+export { BillingDetails, BillingCounter, Invoice, CreditNote, PaymentEvent, RoundBilling };
 
 /** Every entity, registered with the DataSource. Append new ones at the end. */
 export const entities = [
@@ -73,4 +80,10 @@ export const entities = [
   ProviderProfile,
   PrecisionReference,
   PrecisionExclusion,
+  BillingDetails,
+  BillingCounter,
+  Invoice,
+  CreditNote,
+  PaymentEvent,
+  RoundBilling,
 ];

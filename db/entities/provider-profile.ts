@@ -17,6 +17,8 @@ export class ProviderProfile {
   @Column({ type: 'bytea', nullable: true, select: false }) logo!: Buffer | null;
   @Column({ type: 'text', name: 'logo_type', nullable: true }) logoType!:
     'image/png' | 'image/jpeg' | null;
+  /** Tax rate on participation fees, basis points (billing). */
+  @Column({ type: 'integer', name: 'tax_rate_bp', default: 0 }) taxRateBp!: number;
   @Column({ type: 'timestamptz', name: 'updated_at', default: () => 'now()' }) updatedAt!: Date;
   @Column({ type: 'uuid', name: 'updated_by', nullable: true }) updatedBy!: string | null;
 }

@@ -8,6 +8,7 @@ import { LabInvitations1764900000201 } from './1764900000201-lab-invitations';
 import { AppendOnlyResults1764900000400 } from './1764900000400-append-only-results';
 import { ProviderProfile1764900000600 } from './1764900000600-provider-profile';
 import { PrecisionStudies1765000000100 } from './1765000000100-precision-studies';
+import { Billing1765000000200 } from './1765000000200-billing';
 
 /** Every migration in order. Add new ones at the end (see DEVELOPERS.md, "Migrations"). */
 export const migrations = [
@@ -21,4 +22,5 @@ export const migrations = [
   AppendOnlyResults1764900000400,
   ProviderProfile1764900000600,
   PrecisionStudies1765000000100,
+  Billing1765000000200,
 ];

@@ -36,6 +36,7 @@ import {
 import { loadSessionUser } from '../../api/src/services/users';
 import { CODE_ALPHABET } from '../../api/src/services/enrolment';
 import { seedPrecisionStudy } from './demo-precision';
+import { seedDemoBilling } from './demo-billing';
 
 export const DEMO_SCHEME_CODE = 'NPS-DLS';
 
@@ -396,6 +397,7 @@ export async function seedScenario(
     await grants(em, labIds, now);
   });
   await seedPrecisionStudy(ds, ctx, actor, scheme.id, labIds, now);
+  await seedDemoBilling(ds, labIds, now);
 }
 
 /** One lab's results for a round, with the story's blunders written in. */

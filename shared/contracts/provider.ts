@@ -21,6 +21,8 @@ export const ProviderProfileInput = z.object({
   authoriserRole: line(200),
   /** Which work was subcontracted (e.g. homogeneity measurements), or that none was. */
   subcontracting: z.string().trim().max(2000),
+  /** Tax rate on participation fees in basis points (2000 = 20 %); unchanged when left out. */
+  taxRateBp: z.number().int().min(0).max(10_000).optional(),
 });
 export type ProviderProfileInput = z.infer<typeof ProviderProfileInput>;
 
@@ -30,6 +32,7 @@ export const ProviderProfile = ProviderProfileInput.extend({
   website: z.string(),
   hasLogo: z.boolean(),
   logoType: z.enum(['image/png', 'image/jpeg']).nullable(),
+  taxRateBp: z.number().int().min(0).max(10_000),
   updatedAt: Timestamp,
 });
 export type ProviderProfile = z.infer<typeof ProviderProfile>;

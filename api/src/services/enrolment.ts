@@ -22,6 +22,7 @@ import type { SessionUser } from '../auth/session-user';
 import { conflict, HttpError, notFound, ruleBroken, unauthorized } from '../http/errors';
 import type { OutgoingMail } from '../mail/mailer';
 import { audit } from './audit';
+import { creditOnWithdrawal, issueInvoiceForEnrolment, mailInvoiceIssued } from './billing';
 import type { AppContext } from './context';
 import { issuePasswordToken, sendLinkMail } from './passwords';
 import { lockRound } from './round-lifecycle';
@@ -226,7 +227,7 @@ export async function acceptInvitation(
   user: SessionUser | undefined,
   token: string,
 ): Promise<InvitationAcceptResult> {
-  const { result, mail } = await ctx.ds.transaction(async (em) => {
+  const { result, mail, enrolmentId } = await ctx.ds.transaction(async (em) => {
     const raw: unknown = await em.query(
       `UPDATE invitation SET accepted_at = now()
        WHERE token_hash = $1 AND accepted_at IS NULL AND expires_at > now()
@@ -309,14 +310,20 @@ export async function acceptInvitation(
       em.create(Enrolment, { roundId: round.id, organisationId, participantCode }),
     );
     await em.update(Invitation, { id: inv.id }, { enrolmentId: enrolment.id, organisationId });
+    await issueInvoiceForEnrolment(em, actorId, enrolment);
     await audit(em, actorId, 'enrolment.created', 'enrolment', enrolment.id, {
       roundId: round.id,
       organisationId,
       invitationId: inv.id,
     });
-    return { result: { roundId: round.id, participantCode, accountCreated: mail !== null }, mail };
+    return {
+      result: { roundId: round.id, participantCode, accountCreated: mail !== null },
+      mail,
+      enrolmentId: enrolment.id,
+    };
   });
   if (mail) await sendLinkMail(ctx, mail.email, mail.name, mail.token, 'first-password');
+  await mailInvoiceIssued(ctx, enrolmentId);
   return result;
 }
 
@@ -423,6 +430,7 @@ export async function withdrawEnrolment(
     }
     await em.update(Enrolment, { id: e.id }, { state: 'withdrawn', withdrawnReason: reason });
     await audit(em, actor.id, 'enrolment.withdrawn', 'enrolment', e.id, { roundId, reason });
+    await creditOnWithdrawal(em, actor.id, e.id, reason);
     return enrolmentDto(em, roundId, e.id);
   });
 }

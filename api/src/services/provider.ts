@@ -53,6 +53,7 @@ export async function providerProfile(em: EntityManager): Promise<ProviderProfil
     ...fields(r),
     hasLogo: !!r?.logoType,
     logoType: r?.logoType ?? null,
+    taxRateBp: r?.taxRateBp ?? 0,
     updatedAt: (r?.updatedAt ?? new Date(0)).toISOString(),
   };
 }

@@ -8,6 +8,7 @@ import {
 import type { SessionUser } from '../auth/session-user';
 import { conflict } from '../http/errors';
 import { audit } from './audit';
+import { assertFeeAllowsDispatch } from './billing';
 import type { AppContext } from './context';
 import { enrolmentDto, labRecipients, lockEnrolment, sendSafely } from './enrolment';
 import { lockRound } from './round-lifecycle';
@@ -42,6 +43,7 @@ export async function recordDispatch(
         'This enrolment is withdrawn; nothing is shipped to it.',
       );
     const existing = await em.findOne(Shipment, { where: { enrolmentId } });
+    if (!existing?.dispatchedOn) await assertFeeAllowsDispatch(em, roundId, enrolmentId);
     if (existing?.receivedOn)
       throw conflict('already_received', 'The lab has already confirmed receipt of this shipment.');
     if (existing) {

@@ -9,6 +9,7 @@ import { createApp, type RingletApp } from '../app';
 import type { AppConfig } from '../config';
 import { createMailer, type Mailer } from '../mail/mailer';
 import { startSmtpFake, type SmtpFake } from '../mail/smtp-fake';
+import { startPaymentFake, type PaymentFake } from '../payments/payment-fake';
 
 export const TEST_PASSWORD = 'correct horse battery';
 let cachedHash: string | undefined;
@@ -21,6 +22,8 @@ export interface TestApp extends RingletApp {
   db: TestDatabase;
   ds: DataSource;
   smtp: SmtpFake;
+  /** The local payment fake the app's SDK talks to (webhooks go to config.publicUrl). */
+  payments: PaymentFake;
   mailer: Mailer;
   close(): Promise<void>;
 }
@@ -45,6 +48,10 @@ export async function startTestApp(overrides: Partial<AppConfig> = {}): Promise<
   const db = await createTestDatabase();
   const smtp = await startSmtpFake(db.ds);
   const config = testConfig(overrides);
+  const payments = await startPaymentFake({
+    webhookUrl: () => `${config.publicUrl}/api/v1/payments/webhook`,
+  });
+  if (config.payments === undefined) config.payments = payments.settings;
   const mailer = createMailer(config, smtp, { providerName: () => providerName(db.ds.manager) });
   const app = createApp({
     ds: db.ds,
@@ -57,9 +64,11 @@ export async function startTestApp(overrides: Partial<AppConfig> = {}): Promise<
     db,
     ds: db.ds,
     smtp,
+    payments,
     mailer,
     async close() {
       mailer.close();
+      await payments.close();
       await smtp.close();
       await db.drop();
     },

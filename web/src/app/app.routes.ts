@@ -42,6 +42,11 @@ export const routes: Routes = [
     loadChildren: () => import('./provider/provider.routes').then((m) => m.PROVIDER_ROUTES),
   },
   {
+    path: 'billing',
+    canActivate: [authGuard],
+    loadChildren: () => import('./billing/billing.routes').then((m) => m.BILLING_ROUTES),
+  },
+  {
     path: 'outbox',
     canActivate: [authGuard, outboxGuard],
     loadChildren: () => import('./outbox/outbox.routes').then((m) => m.OUTBOX_ROUTES),

@@ -121,6 +121,21 @@ const FIELDS: { key: FieldKey; label: string; hint?: string; multiline?: boolean
             <mat-error>{{ errorMessage(form.get(f.key)) }}</mat-error>
           </mat-form-field>
         }
+        <mat-form-field>
+          <mat-label>Tax rate on participation fees (%)</mat-label>
+          <input
+            matInput
+            type="number"
+            min="0"
+            max="100"
+            step="0.01"
+            formControlName="taxRatePercent"
+          />
+          <mat-hint>Printed on every new invoice; invoices already issued keep theirs.</mat-hint>
+          <mat-error>{{
+            errorMessage(form.get('taxRateBp') ?? form.controls.taxRatePercent)
+          }}</mat-error>
+        </mat-form-field>
         @if (failure(); as message) {
           <p class="form-error" role="alert">{{ message }}</p>
         }
@@ -156,6 +171,7 @@ export class ProviderProfilePage implements OnInit {
     authoriserName: [''],
     authoriserRole: [''],
     subcontracting: [''],
+    taxRatePercent: [0],
   });
 
   ngOnInit(): void {
@@ -179,13 +195,18 @@ export class ProviderProfilePage implements OnInit {
       authoriserName: p.authoriserName,
       authoriserRole: p.authoriserRole,
       subcontracting: p.subcontracting,
+      taxRatePercent: p.taxRateBp / 100,
     });
   }
 
   protected save(): void {
     this.failure.set(null);
     this.saved.set(false);
-    const parsed = ProviderProfileInput.safeParse(this.form.getRawValue());
+    const { taxRatePercent, ...raw } = this.form.getRawValue();
+    const parsed = ProviderProfileInput.safeParse({
+      ...raw,
+      taxRateBp: Math.round(Number(taxRatePercent) * 100),
+    });
     if (!parsed.success) {
       this.form.markAllAsTouched();
       const unplaced = applyZodIssues(this.form, parsed.error.issues);

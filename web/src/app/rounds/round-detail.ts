@@ -91,6 +91,7 @@ const RECEIPT_LABELS: Record<ReceiptStatus, string> = {
       <p><a routerLink="/desk">← Round desk</a></p>
       @if (round(); as r) {
         <h1 data-testid="page-heading">{{ r.code }} · {{ r.title }}</h1>
+        <p><a [routerLink]="['/billing/rounds', r.id, 'ledger']">Fees ledger</a></p>
         <p class="state-line">
           State: <strong data-testid="round-state">{{ stateLabel(r.state) }}</strong> · Scheme
           {{ r.schemeCode }} · Enrolment closes {{ formatDate(r.enrolmentClosesOn) }} · Dispatch

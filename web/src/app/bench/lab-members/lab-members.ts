@@ -50,6 +50,7 @@ import { LabMembersService } from './lab-members.service';
   template: `
     <section class="page">
       <h1 data-testid="page-heading">My lab</h1>
+      <p><a href="/billing">Invoices and billing details</a></p>
       @if (labs().length > 1) {
         <mat-form-field>
           <mat-label>Lab</mat-label>

@@ -25,7 +25,7 @@ import type { Row } from './stats';
 
 /** The built web app; RINGLET_BENCH_WEB names another build (to compare two in one sitting). */
 const WEB = process.env['RINGLET_BENCH_WEB'] || join(__dirname, '..', 'dist', 'web', 'browser');
-const VISITS = 7;
+const VISITS = Number(process.env['RINGLET_BENCH_VISITS'] ?? 7);
 /** RINGLET_BENCH_WATERFALL=1 prints each request of one first visit per page (start → end, ms). */
 const WATERFALL = process.env['RINGLET_BENCH_WATERFALL'] === '1';
 

@@ -10,15 +10,54 @@
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
-import { chromium, type Browser, type BrowserContext } from 'playwright-core';
+import {
+  chromium,
+  type Browser,
+  type BrowserContext,
+  type Page,
+  type Request,
+} from 'playwright-core';
 import { createDataSource } from '../db/data-source';
 import { createTestDatabase } from '../db/testing';
 import { DEFAULT_DEMO_PASSWORD } from '../db/seed/demo-people';
 import { seedDemo } from '../db/seed/demo';
 import type { Row } from './stats';
 
-const WEB = join(__dirname, '..', 'dist', 'web', 'browser');
-const VISITS = 7;
+/** The built web app; RINGLET_BENCH_WEB names another build (to compare two in one sitting). */
+const WEB = process.env['RINGLET_BENCH_WEB'] || join(__dirname, '..', 'dist', 'web', 'browser');
+const VISITS = Number(process.env['RINGLET_BENCH_VISITS'] ?? 7);
+/** RINGLET_BENCH_WATERFALL=1 prints each request of one first visit per page (start → end, ms). */
+const WATERFALL = process.env['RINGLET_BENCH_WATERFALL'] === '1';
+
+function waterfall(page: Page): { print: (title: string, total: number) => void } {
+  const t0 = performance.now();
+  const lines: { start: number; end: number; text: string }[] = [];
+  const started = new Map<Request, number>();
+  page.on('request', (r) => started.set(r, performance.now() - t0));
+  page.on('requestfinished', (r) => {
+    void r.sizes().then(
+      (s) => {
+        const start = started.get(r) ?? 0;
+        const url = r.url().replace(/^https?:\/\/[^/]+/, '');
+        lines.push({
+          start,
+          end: performance.now() - t0,
+          text: `${url.slice(0, 70)} (${(s.responseBodySize / 1024).toFixed(1)} kB)`,
+        });
+      },
+      () => undefined,
+    );
+  });
+  return {
+    print: (title, total) => {
+      process.stderr.write(`\n${title}: ${total.toFixed(0)} ms\n`);
+      for (const l of lines.sort((a, b) => a.start - b.start))
+        process.stderr.write(
+          `  ${l.start.toFixed(0).padStart(5)} → ${l.end.toFixed(0).padStart(5)}  ${l.text}\n`,
+        );
+    },
+  };
+}
 
 function startServer(url: string): Promise<{ child: ChildProcess; port: number }> {
   const child = spawn(
@@ -126,6 +165,7 @@ export async function benchFirstVisit(): Promise<(Row & { target?: string; extra
       for (let i = 0; i < VISITS; i++) {
         const ctx = await signedInContext(browser, base, p.email);
         const page = await ctx.newPage();
+        const log = i === 0 && WATERFALL ? waterfall(page) : undefined;
         const s1 = performance.now();
         await page.goto(p.path, { waitUntil: 'commit' });
         await page
@@ -139,6 +179,7 @@ export async function benchFirstVisit(): Promise<(Row & { target?: string; extra
             throw err;
           });
         first.push(performance.now() - s1);
+        log?.print(`first visit: ${p.name}`, first[0]!);
         const s2 = performance.now();
         await page.goto(p.path, { waitUntil: 'commit' });
         await page.locator(p.ready).first().waitFor({ state: 'visible', timeout: 30_000 });

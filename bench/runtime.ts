@@ -27,6 +27,8 @@ export interface RuntimeBenchRow {
 }
 
 const ROOT = join(__dirname, '..');
+/** The compiled server; RINGLET_BENCH_SERVER names another build (to compare two in one sitting). */
+const SERVER = process.env['RINGLET_BENCH_SERVER'] || join(ROOT, 'dist/api/server.js');
 const STARTS = 5;
 const CLIENTS = 50;
 const LOAD_SECONDS = 20;
@@ -98,7 +100,7 @@ async function startCompiled(
 ): Promise<{ child: ChildProcess; port: number; ms: number; phases: Record<string, number> }> {
   const port = await freePort();
   const t0 = performance.now();
-  const child = spawn(process.execPath, [join(ROOT, 'dist/api/server.js')], {
+  const child = spawn(process.execPath, [SERVER], {
     cwd: ROOT,
     stdio: ['ignore', 'pipe', 'inherit'],
     env: {

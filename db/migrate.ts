@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import PgBoss from 'pg-boss';
 import type { DataSource } from 'typeorm';
 import { createDataSource, ownerDatabaseUrl, RUNTIME_ROLE } from './data-source';
@@ -18,7 +19,9 @@ export async function migrateDatabase(ownerUrl = ownerDatabaseUrl()): Promise<nu
     await lock.connect();
     await lock.query(`SELECT pg_advisory_lock(${MIGRATION_LOCK})`);
     const done = await ds.runMigrations({ transaction: 'each' });
-    await installJobSchema(ownerUrl);
+    // Starting a pg-boss instance to install its schema costs a pool and several round trips at
+    // every server start; skip it when the installed schema is the one this pg-boss wants.
+    if (!(await jobSchemaIsCurrent(ds))) await installJobSchema(ownerUrl);
     await grantRuntimeRole(ds);
     return done.length;
   } finally {
@@ -30,6 +33,21 @@ export async function migrateDatabase(ownerUrl = ownerDatabaseUrl()): Promise<nu
 
 /** Advisory lock key held while migrating (an arbitrary constant: "ringlet" in ASCII, 0x72696e676c6574). */
 const MIGRATION_LOCK = '32204070247490932';
+
+/** Whether pg-boss's schema is installed at the version the installed pg-boss package expects. */
+export async function jobSchemaIsCurrent(ds: DataSource): Promise<boolean> {
+  const wanted = (
+    JSON.parse(readFileSync(require.resolve('pg-boss/version.json'), 'utf8')) as { schema: number }
+  ).schema;
+  const [table] = (await ds.query(`SELECT to_regclass($1) AS t`, [`${JOB_SCHEMA}.version`])) as {
+    t: string | null;
+  }[];
+  if (!table?.t) return false;
+  const rows = (await ds.query(`SELECT version FROM ${JOB_SCHEMA}.version`)) as {
+    version: string | number;
+  }[];
+  return rows.length === 1 && Number(rows[0]!.version) === wanted;
+}
 
 /** Installs or upgrades pg-boss's schema without starting its maintenance or cron. */
 export async function installJobSchema(ownerUrl: string): Promise<void> {

@@ -55,6 +55,7 @@ export function buildWebIfStale() {
     return;
   }
   log('building the web app (production)…');
+  run(process.execPath, [join(root, 'scripts/icons.mjs')]);
   run(bin('ng'), ['build', '--configuration', 'production']);
   run(process.execPath, [join(root, 'scripts/precompress.mjs')]);
 }

@@ -1,9 +1,9 @@
 // The server's production build: api/src/server.ts bundled by esbuild into one CommonJS file,
 // dist/api/server.js (plus a source map), started with plain `node`. Our code (api/, db/,
-// reports/, shared/ through the @ringlet/shared/* alias of tsconfig.json) is bundled; packages
-// stay in node_modules. dist/api/ sits two folders below the repository like api/src/, so the
+// reports/, shared/ through the @ringlet/shared/* alias of tsconfig.json) is bundled, and so is
+// typeorm (BUNDLED_PACKAGES); other packages stay in node_modules. dist/api/ sits two folders below the repository like api/src/, so the
 // path to the built web app (dist/web/browser) is the same in both.
-import { existsSync, statSync } from 'node:fs';
+import { existsSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { log, newestMtime, root } from './lib.mjs';
 
@@ -20,12 +20,12 @@ const SOURCES = [
 ];
 
 /**
- * Packages the server needs only for some requests (spreadsheets, zip files), loaded at their
+ * Packages the server needs only for some requests (spreadsheets, zip files, PDF), loaded at their
  * first use instead of at start: each is replaced by a stand-in that requires the package when a
  * property is read, or it is called or constructed. Only for packages imported as a default
  * import (`import ExcelJS from 'exceljs'`), which is how the code uses them.
  */
-const LAZY_PACKAGES = ['exceljs', 'archiver'];
+const LAZY_PACKAGES = ['exceljs', 'archiver', 'pdfkit'];
 
 export const lazyPackages = {
   name: 'lazy-packages',
@@ -50,6 +50,43 @@ module.exports = new Proxy(function () {}, {
   },
 };
 
+/**
+ * Packages bundled into server.js rather than loaded from node_modules: typeorm is ~300 small
+ * files, and finding and reading each at start cost more than running them (cold start, see
+ * docs/QUALITY.md). Optional drivers it names but Ringlet does not use stay unresolved requires.
+ */
+const BUNDLED_PACKAGES = ['typeorm'];
+const TYPEORM_OPTIONAL = [
+  'pg-native',
+  'pg-query-stream',
+  'mongodb',
+  'mysql',
+  'mysql2',
+  'oracledb',
+  'sqlite3',
+  'better-sqlite3',
+  'sql.js',
+  'mssql',
+  'redis',
+  'ioredis',
+  'react-native-sqlite-storage',
+  '@sap/hana-client',
+  '@sap/hana-client/extension/Stream',
+  'hdb-pool',
+  'typeorm-aurora-data-api-driver',
+  '@google-cloud/spanner',
+  'expo-sqlite',
+];
+
+/** Every package of package.json except BUNDLED_PACKAGES (and their sub-paths) stays external. */
+function externalPackages() {
+  const pkg = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8'));
+  return Object.keys({ ...pkg.dependencies, ...pkg.devDependencies })
+    .filter((name) => !BUNDLED_PACKAGES.includes(name))
+    .flatMap((name) => [name, `${name}/*`])
+    .concat(TYPEORM_OPTIONAL);
+}
+
 export async function buildServer() {
   const { build } = await import('esbuild');
   const t0 = Date.now();
@@ -64,7 +101,7 @@ export async function buildServer() {
     platform: 'node',
     target: 'node20',
     format: 'cjs',
-    packages: 'external',
+    external: externalPackages(),
     tsconfig: 'tsconfig.node.json',
     sourcemap: true,
     logLevel: 'warning',

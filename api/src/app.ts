@@ -96,6 +96,11 @@ export function createApp(deps: AppDeps): RingletApp {
     if (req.secure) res.setHeader('Strict-Transport-Security', HSTS);
     next();
   });
+  // The built web app (precompressed, cache headers by file kind), with the SPA fallback: ahead
+  // of the session, so its files and index.html cost no session read from PostgreSQL.
+  const web = webApp(deps.config.staticDir ?? join(__dirname, '../../dist/web/browser'));
+  if (web) app.use(web);
+
   app.use(WEBHOOK_PATH, ...webhookRawBody()); // the signed raw body, before express.json
   app.use(express.json({ limit: '1mb' }));
 
@@ -169,10 +174,6 @@ export function createApp(deps: AppDeps): RingletApp {
     res.type('css').send(API_REFERENCE_CSS);
   });
   app.use('/api', (_req, _res, next) => next(notFound('That API route')));
-
-  // The built web app (precompressed, cache headers by file kind), with the SPA fallback.
-  const web = webApp(deps.config.staticDir ?? join(__dirname, '../../dist/web/browser'));
-  if (web) app.use(web);
 
   app.use(errorHandler(log));
   return { app, routes: api.routes, context: ctx };

@@ -10,6 +10,7 @@ export interface CsvRecord {
 
 export function parseCsv(text: string): CsvRecord[] {
   const src = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const n = src.length;
   const out: CsvRecord[] = [];
   let fields: string[] = [];
   let field = '';
@@ -26,38 +27,57 @@ export function parseCsv(text: string): CsvRecord[] {
     field = '';
     wasQuoted = false;
   };
-  for (let i = 0; i < src.length; i++) {
-    const c = src[i];
+  // Runs of plain characters are taken as one slice (not one string per character): a round of
+  // 12,000 rows is parsed several times faster, with far less garbage.
+  let i = 0;
+  while (i < n) {
     if (inQuotes) {
-      if (c === '"') {
-        if (src[i + 1] === '"') {
-          field += '"';
-          i++;
-        } else {
-          inQuotes = false;
-        }
+      let j = i;
+      while (j < n && src.charCodeAt(j) !== QUOTE) {
+        if (src.charCodeAt(j) === LF) line++;
+        j++;
+      }
+      field += src.slice(i, j);
+      if (j >= n) break;
+      if (src.charCodeAt(j + 1) === QUOTE) {
+        field += '"';
+        i = j + 2;
       } else {
-        if (c === '\n') line++;
-        field += c;
+        inQuotes = false;
+        i = j + 1;
       }
       continue;
     }
-    if (c === '"') {
+    let j = i;
+    let c = 0;
+    while (j < n) {
+      c = src.charCodeAt(j);
+      if (c === COMMA || c === LF || c === CR || c === QUOTE) break;
+      j++;
+    }
+    if (j > i) field = field === '' ? src.slice(i, j) : field + src.slice(i, j);
+    if (j >= n) break;
+    if (c === QUOTE) {
       inQuotes = true;
       wasQuoted = true;
-    } else if (c === ',') {
+      i = j + 1;
+    } else if (c === COMMA) {
       fields.push(field);
       field = '';
-    } else if (c === '\n' || c === '\r') {
-      if (c === '\r' && src[i + 1] === '\n') i++;
+      i = j + 1;
+    } else {
+      i = c === CR && src.charCodeAt(j + 1) === LF ? j + 2 : j + 1;
       endRecord();
       line++;
       recordLine = line;
-    } else {
-      field += c;
     }
   }
   if (inQuotes) throw new SyntaxError(`line ${recordLine}: a quoted field is not closed`);
   if (field !== '' || fields.length > 0 || wasQuoted) endRecord();
   return out;
 }
+
+const QUOTE = 0x22;
+const COMMA = 0x2c;
+const LF = 0x0a;
+const CR = 0x0d;

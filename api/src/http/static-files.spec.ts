@@ -51,6 +51,17 @@ describe('the built web app', () => {
     expect(page.headers['cache-control']).toBe('no-cache');
   });
 
+  it("leaves the API's paths to the API, even when a browser asks for a page", async () => {
+    const withApi = express();
+    withApi.use(webApp(dir)!);
+    withApi.use('/api', (_req, res) => res.status(404).json({ code: 'not_found' }));
+    for (const path of ['/api', '/api/v1/nothing-here']) {
+      const res = await request(withApi).get(path).set('Accept', 'text/html');
+      expect(res.status).toBe(404);
+      expect(res.body).toEqual({ code: 'not_found' });
+    }
+  });
+
   it('is absent when nothing is built', () => {
     expect(webApp(join(dir, 'missing'))).toBeNull();
   });

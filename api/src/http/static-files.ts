@@ -3,6 +3,7 @@
  * scripts/precompress.mjs at build time) and cache headers by kind of file. Angular's output
  * names carry a content hash (`main-ABCD1234.js`), so those are cached for a year and never
  * revalidated; anything else is revalidated after an hour, and index.html on every visit.
+ * Mounted ahead of sessions and sign-in (api/src/app.ts): a file costs no PostgreSQL read.
  */
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
@@ -33,8 +34,10 @@ export function webApp(dir: string): Router | null {
       },
     }),
   );
+  // The app is mounted before the session middleware (no database read for a file), so the
+  // fallback leaves the API's paths to the API and its 404s.
   router.get('/{*splat}', (req, res, next) => {
-    if (!req.accepts('html')) return next();
+    if (req.path === '/api' || req.path.startsWith('/api/') || !req.accepts('html')) return next();
     res.setHeader('Cache-Control', 'no-cache');
     res.sendFile(join(dir, 'index.html'));
   });

@@ -1,3 +1,4 @@
+import { DOCUMENT } from '@angular/common';
 import {
   type ApplicationConfig,
   ErrorHandler,
@@ -10,7 +11,9 @@ import { provideHttpClient, withFetch, withInterceptors } from '@angular/common/
 import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { MatIconRegistry } from '@angular/material/icon';
 import { MAT_FORM_FIELD_DEFAULT_OPTIONS } from '@angular/material/form-field';
-import { routes } from './app.routes';
+import { opensSignedInArea, routes } from './app.routes';
+import { AuthService } from './core/auth.service';
+import { loadContracts } from './core/contracts';
 import { AppErrorHandler } from './core/app-error-handler';
 import { HealthService } from './core/health.service';
 import { csrfInterceptor } from './core/csrf.interceptor';
@@ -34,6 +37,14 @@ export const appConfig: ApplicationConfig = {
       // Ask the server's mode at once (a public answer), so it is on its way while the guards ask
       // who is signed in, instead of being asked after that answer.
       void inject(HealthService).ensureLoaded();
+      // Every answer is parsed with the shared contracts (a lazy chunk): fetch them now.
+      void loadContracts();
+      // On a page behind sign-in, ask who is signed in now, while the router loads the page's
+      // code, rather than once its guard runs (the guard then finds the answer on its way).
+      if (opensSignedInArea(inject(DOCUMENT).location.pathname))
+        void inject(AuthService)
+          .ensureLoaded()
+          .catch(() => undefined);
     }),
   ],
 };

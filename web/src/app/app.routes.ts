@@ -1,4 +1,4 @@
-import type { Routes } from '@angular/router';
+import type { Routes, UrlMatchResult, UrlSegment } from '@angular/router';
 import {
   authGuard,
   homeRedirectGuard,
@@ -7,9 +7,29 @@ import {
   roleGuard,
 } from './core/auth.guards';
 
+/**
+ * First path segments of the pages in auth/auth.routes.ts (checked by app.routes.spec.ts). The
+ * auth routes match only these, so opening any other page does not wait for the auth chunk to
+ * load just to learn that none of its routes match.
+ */
+export const AUTH_PAGES: ReadonlySet<string> = new Set([
+  'sign-in',
+  'forgot-password',
+  'set-password',
+  'account',
+  'lab-invitations',
+]);
+
+export function authPagesMatcher(segments: UrlSegment[]): UrlMatchResult | null {
+  return segments.length > 0 && AUTH_PAGES.has(segments[0]!.path) ? { consumed: [] } : null;
+}
+
 export const routes: Routes = [
   { path: '', pathMatch: 'full', canActivate: [homeRedirectGuard], children: [] },
-  { path: '', loadChildren: () => import('./auth/auth.routes').then((m) => m.AUTH_ROUTES) },
+  {
+    matcher: authPagesMatcher,
+    loadChildren: () => import('./auth/auth.routes').then((m) => m.AUTH_ROUTES),
+  },
   {
     path: 'desk',
     canActivate: [authGuard, roleGuard('coordinator')],
@@ -73,3 +93,17 @@ export const routes: Routes = [
     loadComponent: () => import('./core/not-found').then((m) => m.NotFound),
   },
 ];
+
+/**
+ * Whether opening `pathname` goes through a guard that asks who is signed in (a top-level route
+ * with a guard, or `/`): the shell then asks at once, in parallel with loading the page's code.
+ * Public pages (sign-in, invitations, not found) are never asked for, so a signed-out visitor
+ * sees no 401.
+ */
+export function opensSignedInArea(pathname: string): boolean {
+  const first = pathname.split('/').find((s) => s !== '') ?? '';
+  return routes.some(
+    (r) =>
+      (r.canActivate?.length ?? 0) > 0 && r.path !== undefined && r.path.split('/')[0] === first,
+  );
+}

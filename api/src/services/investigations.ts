@@ -10,8 +10,7 @@ import type {
   InvestigationUpdate,
   ItemMeasurandEvaluation,
 } from '../../../shared/contracts/evaluation';
-import { hasAnyRole } from '../http/route';
-import { labIds, managesLab, type SessionUser } from '../auth/session-user';
+import { hasAnyRole, labIds, managesLab, type SessionUser } from '../auth/session-user';
 import { conflict, notFound, ruleBroken } from '../http/errors';
 import { audit } from './audit';
 import type { AppContext } from './context';

@@ -3,7 +3,7 @@
  * is printed on every report, certificate and e-mail; the comments in the round report.
  */
 import type { EntityManager } from 'typeorm';
-import { ProviderProfile as ProfileRow } from '../../../db/entities/provider-profile';
+import { ProviderProfile as ProfileRow } from '../../../db/entities';
 import {
   LOGO_MAX_BYTES,
   type ProviderProfile,

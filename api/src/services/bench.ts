@@ -139,28 +139,37 @@ function myRound(
   };
 }
 
-/** GET /my/rounds: the lab's rounds (enrolled ones and open invitations), soonest lock first. */
+/** A round as /my/rounds reads it: with the lab's enrolment and submission when there is one. */
+type RoundOfLab = Round & { enrolment: Enrolment | null; submission: Submission | null };
+
+/**
+ * GET /my/rounds: the lab's rounds (enrolled ones and open invitations), soonest lock first.
+ * One query whatever the number of rounds: rounds joined with the lab's enrolment and submission,
+ * kept when the lab is enrolled or holds an open invitation.
+ */
 export async function listMyRounds(ctx: AppContext, labId: string): Promise<MyRound[]> {
-  const em = ctx.ds.manager;
   const now = new Date();
-  const enrolments = await em.find(Enrolment, { where: { organisationId: labId } });
-  const out: MyRound[] = [];
-  for (const e of enrolments) {
-    const round = await em.findOne(Round, { where: { id: e.roundId } });
-    if (!round || round.state === 'draft') continue;
-    const sub = await em.findOne(Submission, { where: { enrolmentId: e.id } });
-    out.push(myRound(round, e, sub, now));
-  }
-  const invited: { round_id: string }[] = await em.query(
-    `SELECT DISTINCT i.round_id FROM invitation i
-      WHERE i.organisation_id = $1 AND i.accepted_at IS NULL AND i.expires_at > now()
-        AND NOT EXISTS (SELECT 1 FROM enrolment e WHERE e.round_id = i.round_id AND e.organisation_id = $1)`,
-    [labId],
-  );
-  for (const { round_id } of invited) {
-    const round = await em.findOne(Round, { where: { id: round_id } });
-    if (round && round.state !== 'draft') out.push(myRound(round, null, null, now));
-  }
+  const rows = (await ctx.ds
+    .getRepository(Round)
+    .createQueryBuilder('r')
+    .leftJoinAndMapOne(
+      'r.enrolment',
+      Enrolment,
+      'e',
+      'e.roundId = r.id AND e.organisationId = :labId',
+      { labId },
+    )
+    .leftJoinAndMapOne('r.submission', Submission, 's', 's.enrolmentId = e.id')
+    .where('r.state <> :draft', { draft: 'draft' })
+    .andWhere(
+      `(e.id IS NOT NULL OR EXISTS (
+          SELECT 1 FROM invitation i
+           WHERE i.round_id = r.id AND i.organisation_id = :labId
+             AND i.accepted_at IS NULL AND i.expires_at > now()))`,
+      { labId },
+    )
+    .getMany()) as RoundOfLab[];
+  const out = rows.map((r) => myRound(r, r.enrolment ?? null, r.submission ?? null, now));
   const key = (r: MyRound) => (r.locksAt ? Date.parse(r.locksAt) : Number.MAX_SAFE_INTEGER);
   return out.sort((a, b) => key(a) - key(b) || a.code.localeCompare(b.code));
 }

@@ -15,10 +15,8 @@ import {
 } from '../../../db/entities';
 import {
   EvaluationSettings,
-  type AssignedValueRuleInput,
   type EvaluationView,
   type ItemMeasurandEvaluation,
-  type SigmaPtRuleInput,
 } from '../../../shared/contracts/evaluation';
 import { enqueuePublicationMails } from '../jobs/publication';
 import { ROUND_STATE_LABELS } from '../../../shared/contracts/round-states';
@@ -35,6 +33,7 @@ import { audit } from './audit';
 import type { AppContext } from './context';
 import { openInvestigations } from './investigations';
 import { labMailboxes } from './lab-recipients';
+import { measurandRules, storedAssignedValueRule, storedSigmaPtRule } from './stored-rules';
 import { lockRound, transitionRound } from './round-lifecycle';
 
 export interface LoadedRound {
@@ -141,8 +140,7 @@ export async function loadRoundInput(em: EntityManager, roundId: string): Promis
         name: m.name,
         unit: m.unit,
         decimals: m.decimals,
-        sigmaPtRule: m.sigmaPtRule as SigmaPtRuleInput,
-        assignedValueRule: m.assignedValueRule as AssignedValueRuleInput,
+        ...measurandRules(m),
         minParticipants: m.minParticipants,
       })),
       replicates,
@@ -304,8 +302,11 @@ export async function loadResults(
       uAssigned: r.uAssigned,
       sigmaPt: r.sigmaPt,
       uNegligible: (uNegligible as boolean | null) ?? null,
-      sigmaPtRule: sigmaPtRule as SigmaPtRuleInput,
-      assignedValueRule: assignedValueRule as AssignedValueRuleInput,
+      sigmaPtRule: storedSigmaPtRule(sigmaPtRule, `Result ${r.itemCode}/${r.measurandKey}`),
+      assignedValueRule: storedAssignedValueRule(
+        assignedValueRule,
+        `Result ${r.itemCode}/${r.measurandKey}`,
+      ),
       constants,
       warnings: r.warnings,
       participants: r.participants as ItemMeasurandEvaluation['participants'],
@@ -353,8 +354,7 @@ async function view(em: EntityManager, e: Evaluation): Promise<EvaluationView> {
       name: m.name,
       unit: m.unit,
       decimals: m.decimals,
-      sigmaPtRule: m.sigmaPtRule as SigmaPtRuleInput,
-      assignedValueRule: m.assignedValueRule as AssignedValueRuleInput,
+      ...measurandRules(m),
       minParticipants: m.minParticipants,
     })),
     inputs,

@@ -33,6 +33,7 @@ import { conflict, notFound, ruleBroken } from '../http/errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { hasOpenHomogeneityFailure, lockRound } from './round-lifecycle';
+import { measurandRules } from './stored-rules';
 
 type Out<T extends z.ZodType> = z.output<T>;
 
@@ -93,8 +94,7 @@ function measurandDto(m: Measurand): MeasurandDto {
     unit: m.unit,
     decimals: m.decimals,
     replicatesRequired: m.replicatesRequired,
-    sigmaPtRule: m.sigmaPtRule as MeasurandDto['sigmaPtRule'],
-    assignedValueRule: m.assignedValueRule as MeasurandDto['assignedValueRule'],
+    ...measurandRules(m),
     minParticipants: m.minParticipants,
     position: m.position,
   };

@@ -18,4 +18,6 @@ export class Evaluation {
   @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
   @Column({ type: 'timestamptz', name: 'committed_at', nullable: true }) committedAt!: Date | null;
   @Column({ type: 'timestamptz', name: 'published_at', nullable: true }) publishedAt!: Date | null;
+  /** The coordinator's comments printed in the round report (editable until published). */
+  @Column({ type: 'text', name: 'coordinator_comments', default: '' }) coordinatorComments!: string;
 }

@@ -1,4 +1,4 @@
-import type { EntityManager } from 'typeorm';
+import { IsNull, Not, type EntityManager } from 'typeorm';
 import { Enrolment, Measurand, Round, Shipment, Submission, TestItem } from '../../../db/entities';
 import type {
   MyRound,
@@ -190,11 +190,7 @@ export async function getMyRound(
     em.findOne(Submission, { where: { enrolmentId: enrolment.id } }),
   ]);
   const hasPhoto = shipment
-    ? (
-        (await em.query(`SELECT receipt_photo IS NOT NULL AS has FROM shipment WHERE id = $1`, [
-          shipment.id,
-        ])) as { has: boolean }[]
-      )[0]!.has
+    ? await em.exists(Shipment, { where: { id: shipment.id, receiptPhoto: Not(IsNull()) } })
     : false;
   const lock = lockState(round, enrolment, now);
   return {
@@ -285,22 +281,23 @@ export async function saveReceipt(
         `The round is ${round.state}: receipt can be recorded while items are in transit or results are collected.`,
       );
     }
-    await em.query(
-      `INSERT INTO shipment (enrolment_id) VALUES ($1) ON CONFLICT (enrolment_id) DO NOTHING`,
-      [enrolment.id],
-    );
-    await em.query(
-      `UPDATE shipment SET received_on = $2, condition = $3, receipt_notes = $4, received_by = $5
-         ${photo ? ', receipt_photo = $6, receipt_photo_type = $7' : ''}
-       WHERE enrolment_id = $1`,
-      [
-        enrolment.id,
-        input.receivedOn,
-        input.condition,
-        input.notes,
-        actor.id,
-        ...(photo ? [photo, photoType] : []),
-      ],
+    await em
+      .createQueryBuilder()
+      .insert()
+      .into(Shipment)
+      .values({ enrolmentId: enrolment.id })
+      .orIgnore()
+      .execute();
+    await em.update(
+      Shipment,
+      { enrolmentId: enrolment.id },
+      {
+        receivedOn: input.receivedOn,
+        condition: input.condition,
+        receiptNotes: input.notes,
+        receivedBy: actor.id,
+        ...(photo ? { receiptPhoto: photo, receiptPhotoType: photoType } : {}),
+      },
     );
     await audit(em, actor.id, 'shipment.received', 'enrolment', enrolment.id, {
       roundId,
@@ -317,12 +314,12 @@ export async function receiptPhoto(
   ctx: AppContext,
   enrolmentId: string,
 ): Promise<{ data: Buffer; type: string }> {
-  const rows: { receipt_photo: Buffer | null; receipt_photo_type: string | null }[] =
-    await ctx.ds.query(
-      `SELECT receipt_photo, receipt_photo_type FROM shipment WHERE enrolment_id = $1`,
-      [enrolmentId],
-    );
-  const row = rows[0];
-  if (!row?.receipt_photo) throw notFound('The photo');
-  return { data: row.receipt_photo, type: row.receipt_photo_type ?? 'application/octet-stream' };
+  const row = await ctx.ds
+    .getRepository(Shipment)
+    .createQueryBuilder('s')
+    .addSelect('s.receiptPhoto')
+    .where('s.enrolmentId = :enrolmentId', { enrolmentId })
+    .getOne();
+  if (!row?.receiptPhoto) throw notFound('The photo');
+  return { data: row.receiptPhoto, type: row.receiptPhotoType ?? 'application/octet-stream' };
 }

@@ -23,6 +23,9 @@ import { benchRoutes } from './routes/bench';
 import { systemRoutes } from './routes/system';
 import { evaluationRoutes } from './routes/evaluation';
 import { precisionRoutes } from './routes/precision';
+import { boardRoutes } from './routes/board';
+import { investigationRoutes } from './routes/investigations';
+import { assessorGrantRoutes } from './routes/assessor-grants';
 import { reportRoutes } from './routes/reports';
 import { providerRoutes } from './routes/provider';
 import { assessorRoutes } from './routes/assessor';
@@ -148,6 +151,9 @@ export function createApp(deps: AppDeps): RingletApp {
   // Feature routes: one line each, below this comment.
   roundRoutes(api, ctx);
   evaluationRoutes(api, ctx);
+  boardRoutes(api, ctx);
+  investigationRoutes(api, ctx);
+  assessorGrantRoutes(api, ctx);
   benchRoutes(api, ctx);
   reportRoutes(api, ctx);
   providerRoutes(api, ctx);

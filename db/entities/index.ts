@@ -1,25 +1,30 @@
+// One entity per file, named after the domain. Import entities from this index (`db/entities`),
+// never from their files.
+import { Organisation } from './organisation';
+import { User } from './user';
+import { Membership } from './membership';
+import { PasswordToken } from './password-token';
 import { AuditEvent } from './audit-event';
 import { MailMessage } from './mail-message';
-import { Membership } from './membership';
-import { Organisation } from './organisation';
-import { PasswordToken } from './password-token';
-import {
-  Enrolment,
-  Invitation,
-  Measurand,
-  Round,
-  RoundTransition,
-  Scheme,
-  Shipment,
-  Submission,
-  SubmissionVersion,
-  TestItem,
-} from './round';
-import { User } from './user';
-import { Attachment, InstrumentCheck } from './lab-bench';
-import { HomogeneityStudy, ReminderLog } from './round-desk';
-import { AssessorGrant, Evaluation, EvaluationResult, Investigation } from './evaluation';
-import { Report } from './report';
+import { Scheme } from './scheme';
+import { Round } from './round';
+import { RoundTransition } from './round-transition';
+import { TestItem } from './test-item';
+import { Measurand } from './measurand';
+import { Enrolment } from './enrolment';
+import { Invitation } from './invitation';
+import { Shipment } from './shipment';
+import { Submission } from './submission';
+import { SubmissionVersion } from './submission-version';
+import { HomogeneityStudy } from './homogeneity-study';
+import { ReminderLog } from './reminder-log';
+import { InstrumentCheck } from './instrument-check';
+import { Attachment } from './attachment';
+import { Evaluation } from './evaluation';
+import { EvaluationResult } from './evaluation-result';
+import { Investigation } from './investigation';
+import { AssessorGrant } from './assessor-grant';
+import { Report, type ReportKind } from './report';
 import { ProviderProfile } from './provider-profile';
 import { PrecisionExclusion, PrecisionReference } from './precision';
 import { BillingDetails } from './billing-details';
@@ -29,26 +34,37 @@ import { CreditNote } from './credit-note';
 import { PaymentEvent } from './payment-event';
 import { RoundBilling } from './round-billing';
 
-export { AuditEvent, MailMessage, Membership, Organisation, PasswordToken, User };
 export {
-  Enrolment,
-  Invitation,
-  Measurand,
+  Organisation,
+  User,
+  Membership,
+  PasswordToken,
+  AuditEvent,
+  MailMessage,
+  Scheme,
   Round,
   RoundTransition,
-  Scheme,
+  TestItem,
+  Measurand,
+  Enrolment,
+  Invitation,
   Shipment,
   Submission,
   SubmissionVersion,
-  TestItem,
+  HomogeneityStudy,
+  ReminderLog,
+  InstrumentCheck,
+  Attachment,
+  Evaluation,
+  EvaluationResult,
+  Investigation,
+  AssessorGrant,
+  Report,
+  ProviderProfile,
 };
-export { HomogeneityStudy, ReminderLog };
-export { Attachment, InstrumentCheck };
-export { AssessorGrant, Evaluation, EvaluationResult, Investigation };
-export { Report };
-export { ProviderProfile };
 export { PrecisionExclusion, PrecisionReference };
 export { BillingDetails, BillingCounter, Invoice, CreditNote, PaymentEvent, RoundBilling };
+export type { ReportKind };
 
 /** Every entity, registered with the DataSource. Append new ones at the end. */
 export const entities = [

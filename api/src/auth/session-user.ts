@@ -49,6 +49,11 @@ export function actingFor(u: SessionUser, labId: string | undefined): SessionUse
   return { ...u, actingLabId: labId };
 }
 
+/** True when the user holds any of the roles ('lab' = member of at least one lab). */
+export function hasAnyRole(user: SessionUser, roles: readonly Role[]): boolean {
+  return roles.some((r) => user.roles.includes(r));
+}
+
 export function managesLab(u: SessionUser, organisationId: string): boolean {
   return u.memberships.some((m) => m.organisationId === organisationId && m.isManager);
 }

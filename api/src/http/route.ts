@@ -4,10 +4,13 @@ import type { Role } from '../../../shared/contracts/auth';
 import type { FieldIssue } from '../../../shared/contracts/common';
 import { textProblem } from '../../../shared/contracts/ranges';
 import { forgetSessionUsers } from '../auth/passport';
-import type { SessionUser } from '../auth/session-user';
+import { hasAnyRole, type SessionUser } from '../auth/session-user';
 import { describe, fieldIssues, forbidden, HttpError, unauthorized } from './errors';
 
 /** Who may call a route: anyone, any signed-in user, or a user holding one of the roles. */
+// The role predicate lives with the session user (services use it too); re-exported for the HTTP layer.
+export { hasAnyRole };
+
 export type Access = 'public' | 'signed-in' | readonly Role[];
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
@@ -60,11 +63,6 @@ export type AnyRoute = RouteDefinition<
 
 export interface RouteDeps {
   isCsrfValid: (req: Request) => boolean;
-}
-
-/** True when the user holds any of the roles ('lab' = member of at least one lab). */
-export function hasAnyRole(user: SessionUser, roles: readonly Role[]): boolean {
-  return roles.some((r) => user.roles.includes(r));
 }
 
 function checkAccess(access: Access, req: Request): void {

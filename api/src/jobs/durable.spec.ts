@@ -4,7 +4,7 @@
  * that enqueued them (stopped mid-way, a new one on the same database finishes them), and a build
  * that keeps failing ends as 'failed' after its retries.
  */
-import { Report } from '../../../db/entities/report';
+import { Report } from '../../../db/entities';
 import { createApp } from '../app';
 import type { Mailer } from '../mail/mailer';
 import { runQueuedBuild } from '../services/reports';

@@ -1,6 +1,6 @@
 import type { DataSource } from 'typeorm';
 import type { Mailer } from '../mail/mailer';
-import { labRecipients } from '../services/enrolment';
+import { labRecipients } from '../services/lab-recipients';
 
 /** Days before the results-due date at which labs that have not submitted are reminded. */
 export const DUE_SOON_DAYS = 3;

@@ -13,10 +13,8 @@ import type { AppContext } from '../services/context';
 import * as evaluation from '../services/evaluation';
 import { myScores } from '../services/evaluation-scores';
 import { trackRecord } from '../services/track-record';
-import { boardRoutes } from './board';
-import { investigationRoutes } from './investigations';
 
-/** Evaluation, Consensus board, lab scores, Track record, investigations and assessor grants. */
+/** Evaluation (draft, approval, publication, reissue), lab scores and the Track record. */
 export function evaluationRoutes(api: ApiRouter, ctx: AppContext): void {
   const coordinator = ['coordinator'] as const;
   api.add({
@@ -98,6 +96,4 @@ export function evaluationRoutes(api: ApiRouter, ctx: AppContext): void {
     response: TrackRecord,
     handler: ({ user, query }) => trackRecord(ctx, user, query.labId),
   });
-  boardRoutes(api, ctx);
-  investigationRoutes(api, ctx);
 }

@@ -10,18 +10,19 @@ import {
 } from '../../../reports/evidence/lab-records';
 import { reportProvider } from './provider';
 import { fileSafe } from '../../../reports/text';
-import type {
-  AssessorInstrumentCheck,
+import {
   AssessorInvestigation,
-  AssessorLab,
-  AssessorLabDetail,
-  AssessorRound,
+  type AssessorInstrumentCheck,
+  type AssessorLab,
+  type AssessorLabDetail,
+  type AssessorRound,
 } from '../../../shared/contracts/reports';
 import type { SessionUser } from '../auth/session-user';
 import { notFound } from '../http/errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { grantedLabIds } from './grants';
+import { investigationRecord, selectInvestigations } from './investigations';
 import { reportFile, type LabInRound } from './reports';
 import { evaluationHead } from './reports-input';
 
@@ -94,51 +95,27 @@ async function labRounds(em: EntityManager, labId: string): Promise<AssessorRoun
   }));
 }
 
+/** The assessor's columns of an investigation record (the contract's fields, in its order). */
+const ASSESSOR_INVESTIGATION_FIELDS = Object.keys(
+  AssessorInvestigation.shape,
+) as (keyof AssessorInvestigation)[];
+
 async function labInvestigations(
   em: EntityManager,
   labId: string,
 ): Promise<AssessorInvestigation[]> {
-  const rows: {
-    id: string;
-    round_code: string;
-    participant_code: string;
-    item_code: string;
-    measurand_name: string;
-    score_kind: string;
-    score: number;
-    signal: 'warning' | 'action';
-    state: 'open' | 'closed';
-    cause_category: string | null;
-    root_cause: string;
-    corrective_action: string;
-    effectiveness_check: string;
-    closed_at: Date | null;
-    created_at: Date;
-  }[] = await em.query(
-    `SELECT i.id, r.code AS round_code, en.participant_code, ti.code AS item_code, m.name AS measurand_name, i.score_kind, i.score, i.signal,
-            i.state, i.cause_category, i.root_cause, i.corrective_action, i.effectiveness_check, i.closed_at, i.created_at
-       FROM investigation i JOIN round r ON r.id = i.round_id JOIN enrolment en ON en.id = i.enrolment_id
-       JOIN test_item ti ON ti.id = i.test_item_id JOIN measurand m ON m.id = i.measurand_id
-      WHERE i.organisation_id = $1 ORDER BY i.created_at DESC, ti.code, m.key`,
+  const rows = await selectInvestigations(
+    em,
+    'i.organisation_id = $1',
     [labId],
+    'i.created_at DESC, ti.code, m.key',
   );
-  return rows.map((r) => ({
-    id: r.id,
-    roundCode: r.round_code,
-    participantCode: r.participant_code,
-    itemCode: r.item_code,
-    measurandName: r.measurand_name,
-    scoreKind: r.score_kind,
-    score: r.score,
-    signal: r.signal,
-    state: r.state,
-    causeCategory: r.cause_category,
-    rootCause: r.root_cause,
-    correctiveAction: r.corrective_action,
-    effectivenessCheck: r.effectiveness_check,
-    closedAt: r.closed_at?.toISOString() ?? null,
-    createdAt: r.created_at.toISOString(),
-  }));
+  return rows.map((r) => {
+    const record = investigationRecord(r);
+    return Object.fromEntries(
+      ASSESSOR_INVESTIGATION_FIELDS.map((k) => [k, record[k]]),
+    ) as AssessorInvestigation;
+  });
 }
 
 async function labInstrumentChecks(

@@ -1,4 +1,4 @@
-import type { EntityManager } from 'typeorm';
+import { IsNull, Not, type EntityManager } from 'typeorm';
 import { Enrolment, Measurand, Round, Shipment, Submission, TestItem } from '../../../db/entities';
 import type {
   MyRound,
@@ -140,28 +140,37 @@ function myRound(
   };
 }
 
-/** GET /my/rounds: the lab's rounds (enrolled ones and open invitations), soonest lock first. */
+/** A round as /my/rounds reads it: with the lab's enrolment and submission when there is one. */
+type RoundOfLab = Round & { enrolment: Enrolment | null; submission: Submission | null };
+
+/**
+ * GET /my/rounds: the lab's rounds (enrolled ones and open invitations), soonest lock first.
+ * One query whatever the number of rounds: rounds joined with the lab's enrolment and submission,
+ * kept when the lab is enrolled or holds an open invitation.
+ */
 export async function listMyRounds(ctx: AppContext, labId: string): Promise<MyRound[]> {
-  const em = ctx.ds.manager;
   const now = new Date();
-  const enrolments = await em.find(Enrolment, { where: { organisationId: labId } });
-  const out: MyRound[] = [];
-  for (const e of enrolments) {
-    const round = await em.findOne(Round, { where: { id: e.roundId } });
-    if (!round || round.state === 'draft') continue;
-    const sub = await em.findOne(Submission, { where: { enrolmentId: e.id } });
-    out.push(myRound(round, e, sub, now));
-  }
-  const invited: { round_id: string }[] = await em.query(
-    `SELECT DISTINCT i.round_id FROM invitation i
-      WHERE i.organisation_id = $1 AND i.accepted_at IS NULL AND i.expires_at > now()
-        AND NOT EXISTS (SELECT 1 FROM enrolment e WHERE e.round_id = i.round_id AND e.organisation_id = $1)`,
-    [labId],
-  );
-  for (const { round_id } of invited) {
-    const round = await em.findOne(Round, { where: { id: round_id } });
-    if (round && round.state !== 'draft') out.push(myRound(round, null, null, now));
-  }
+  const rows = (await ctx.ds
+    .getRepository(Round)
+    .createQueryBuilder('r')
+    .leftJoinAndMapOne(
+      'r.enrolment',
+      Enrolment,
+      'e',
+      'e.roundId = r.id AND e.organisationId = :labId',
+      { labId },
+    )
+    .leftJoinAndMapOne('r.submission', Submission, 's', 's.enrolmentId = e.id')
+    .where('r.state <> :draft', { draft: 'draft' })
+    .andWhere(
+      `(e.id IS NOT NULL OR EXISTS (
+          SELECT 1 FROM invitation i
+           WHERE i.round_id = r.id AND i.organisation_id = :labId
+             AND i.accepted_at IS NULL AND i.expires_at > now()))`,
+      { labId },
+    )
+    .getMany()) as RoundOfLab[];
+  const out = rows.map((r) => myRound(r, r.enrolment ?? null, r.submission ?? null, now));
   const key = (r: MyRound) => (r.locksAt ? Date.parse(r.locksAt) : Number.MAX_SAFE_INTEGER);
   return out.sort((a, b) => key(a) - key(b) || a.code.localeCompare(b.code));
 }
@@ -182,11 +191,7 @@ export async function getMyRound(
     em.findOne(Submission, { where: { enrolmentId: enrolment.id } }),
   ]);
   const hasPhoto = shipment
-    ? (
-        (await em.query(`SELECT receipt_photo IS NOT NULL AS has FROM shipment WHERE id = $1`, [
-          shipment.id,
-        ])) as { has: boolean }[]
-      )[0]!.has
+    ? await em.exists(Shipment, { where: { id: shipment.id, receiptPhoto: Not(IsNull()) } })
     : false;
   const lock = lockState(round, enrolment, now);
   return {
@@ -277,22 +282,23 @@ export async function saveReceipt(
         `The round is ${round.state}: receipt can be recorded while items are in transit or results are collected.`,
       );
     }
-    await em.query(
-      `INSERT INTO shipment (enrolment_id) VALUES ($1) ON CONFLICT (enrolment_id) DO NOTHING`,
-      [enrolment.id],
-    );
-    await em.query(
-      `UPDATE shipment SET received_on = $2, condition = $3, receipt_notes = $4, received_by = $5
-         ${photo ? ', receipt_photo = $6, receipt_photo_type = $7' : ''}
-       WHERE enrolment_id = $1`,
-      [
-        enrolment.id,
-        input.receivedOn,
-        input.condition,
-        input.notes,
-        actor.id,
-        ...(photo ? [photo, photoType] : []),
-      ],
+    await em
+      .createQueryBuilder()
+      .insert()
+      .into(Shipment)
+      .values({ enrolmentId: enrolment.id })
+      .orIgnore()
+      .execute();
+    await em.update(
+      Shipment,
+      { enrolmentId: enrolment.id },
+      {
+        receivedOn: input.receivedOn,
+        condition: input.condition,
+        receiptNotes: input.notes,
+        receivedBy: actor.id,
+        ...(photo ? { receiptPhoto: photo, receiptPhotoType: photoType } : {}),
+      },
     );
     await audit(em, actor.id, 'shipment.received', 'enrolment', enrolment.id, {
       roundId,
@@ -309,12 +315,12 @@ export async function receiptPhoto(
   ctx: AppContext,
   enrolmentId: string,
 ): Promise<{ data: Buffer; type: string }> {
-  const rows: { receipt_photo: Buffer | null; receipt_photo_type: string | null }[] =
-    await ctx.ds.query(
-      `SELECT receipt_photo, receipt_photo_type FROM shipment WHERE enrolment_id = $1`,
-      [enrolmentId],
-    );
-  const row = rows[0];
-  if (!row?.receipt_photo) throw notFound('The photo');
-  return { data: row.receipt_photo, type: row.receipt_photo_type ?? 'application/octet-stream' };
+  const row = await ctx.ds
+    .getRepository(Shipment)
+    .createQueryBuilder('s')
+    .addSelect('s.receiptPhoto')
+    .where('s.enrolmentId = :enrolmentId', { enrolmentId })
+    .getOne();
+  if (!row?.receiptPhoto) throw notFound('The photo');
+  return { data: row.receiptPhoto, type: row.receiptPhotoType ?? 'application/octet-stream' };
 }

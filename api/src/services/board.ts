@@ -8,8 +8,7 @@
  */
 import type { EntityManager } from 'typeorm';
 import type { BoardListEntry } from '../../../shared/contracts/evaluation';
-import { hasAnyRole } from '../http/route';
-import { labIds, type SessionUser } from '../auth/session-user';
+import { hasAnyRole, labIds, type SessionUser } from '../auth/session-user';
 import { notFound } from '../http/errors';
 import type { AppContext } from './context';
 import { audit } from './audit';

@@ -70,21 +70,6 @@ export async function sendSafely(ctx: AppContext, mail: OutgoingMail): Promise<v
   }
 }
 
-/** Addresses that receive a lab's mail: its active members and its contact address. */
-export async function labRecipients(em: EntityManager, organisationId: string): Promise<string[]> {
-  const members = await em
-    .createQueryBuilder(Membership, 'm')
-    .innerJoinAndSelect('m.user', 'u')
-    .where('m.organisation_id = :organisationId AND u.is_active = true', { organisationId })
-    .getMany();
-  const org = await em.findOne(Organisation, { where: { id: organisationId } });
-  const all = [
-    ...members.map((m) => m.user?.email ?? ''),
-    ...(org?.contactEmail ? [org.contactEmail] : []),
-  ];
-  return [...new Set(all.filter(Boolean).map((a) => a.toLowerCase()))].sort();
-}
-
 function invitationDto(i: Invitation, orgName: string | null): InvitationDto {
   return {
     id: i.id,

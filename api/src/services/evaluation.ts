@@ -10,16 +10,13 @@ import {
   Evaluation,
   EvaluationResult,
   Measurand,
-  Organisation,
   Round,
   TestItem,
 } from '../../../db/entities';
 import {
   EvaluationSettings,
-  type AssignedValueRuleInput,
   type EvaluationView,
   type ItemMeasurandEvaluation,
-  type SigmaPtRuleInput,
 } from '../../../shared/contracts/evaluation';
 import { enqueuePublicationMails } from '../jobs/publication';
 import { ROUND_STATE_LABELS } from '../../../shared/contracts/round-states';
@@ -35,6 +32,8 @@ import { VERSION } from '../version';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { openInvestigations } from './investigations';
+import { labMailboxes } from './lab-recipients';
+import { measurandRules, storedAssignedValueRule, storedSigmaPtRule } from './stored-rules';
 import { lockRound, transitionRound } from './round-lifecycle';
 
 export interface LoadedRound {
@@ -141,8 +140,7 @@ export async function loadRoundInput(em: EntityManager, roundId: string): Promis
         name: m.name,
         unit: m.unit,
         decimals: m.decimals,
-        sigmaPtRule: m.sigmaPtRule as SigmaPtRuleInput,
-        assignedValueRule: m.assignedValueRule as AssignedValueRuleInput,
+        ...measurandRules(m),
         minParticipants: m.minParticipants,
       })),
       replicates,
@@ -304,8 +302,11 @@ export async function loadResults(
       uAssigned: r.uAssigned,
       sigmaPt: r.sigmaPt,
       uNegligible: (uNegligible as boolean | null) ?? null,
-      sigmaPtRule: sigmaPtRule as SigmaPtRuleInput,
-      assignedValueRule: assignedValueRule as AssignedValueRuleInput,
+      sigmaPtRule: storedSigmaPtRule(sigmaPtRule, `Result ${r.itemCode}/${r.measurandKey}`),
+      assignedValueRule: storedAssignedValueRule(
+        assignedValueRule,
+        `Result ${r.itemCode}/${r.measurandKey}`,
+      ),
       constants,
       warnings: r.warnings,
       participants: r.participants as ItemMeasurandEvaluation['participants'],
@@ -353,8 +354,7 @@ async function view(em: EntityManager, e: Evaluation): Promise<EvaluationView> {
       name: m.name,
       unit: m.unit,
       decimals: m.decimals,
-      sigmaPtRule: m.sigmaPtRule as SigmaPtRuleInput,
-      assignedValueRule: m.assignedValueRule as AssignedValueRuleInput,
+      ...measurandRules(m),
       minParticipants: m.minParticipants,
     })),
     inputs,
@@ -444,31 +444,21 @@ export async function commitEvaluation(
   });
 }
 
-/** E-mail addresses of an enrolled lab: its contact and its members. */
+/** Where mail to every enrolled lab of a round goes (the rule is labMailboxes). */
 export async function labAddresses(
   em: EntityManager,
   roundId: string,
 ): Promise<{ labName: string; code: string; to: string[] }[]> {
   const enrolments = await em.find(Enrolment, { where: { roundId, state: 'enrolled' } });
-  if (enrolments.length === 0) return [];
-  const orgIds = enrolments.map((e) => e.organisationId);
-  const orgs = await em
-    .createQueryBuilder(Organisation, 'o')
-    .where('o.id IN (:...orgIds)', { orgIds })
-    .getMany();
-  const members: { organisation_id: string; email: string }[] = await em.query(
-    `SELECT m.organisation_id, u.email FROM membership m JOIN app_user u ON u.id = m.user_id
-      WHERE m.organisation_id = ANY($1) AND u.is_active`,
-    [orgIds],
+  const boxes = await labMailboxes(
+    em,
+    enrolments.map((e) => e.organisationId),
   );
-  const orgById = new Map(orgs.map((o) => [o.id, o]));
-  return enrolments.map((e) => {
-    const o = orgById.get(e.organisationId);
-    const to = new Set<string>();
-    if (o?.contactEmail) to.add(o.contactEmail);
-    for (const m of members) if (m.organisation_id === e.organisationId) to.add(m.email);
-    return { labName: o?.name ?? '', code: e.participantCode, to: [...to] };
-  });
+  return enrolments.map((e) => ({
+    labName: boxes.get(e.organisationId)?.labName ?? '',
+    code: e.participantCode,
+    to: boxes.get(e.organisationId)?.to ?? [],
+  }));
 }
 
 /**

@@ -13,6 +13,7 @@ import { conflict, notFound, ruleBroken } from '../http/errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { lockRound } from './round-lifecycle';
+import { storedSigmaPtRule } from './stored-rules';
 
 type ParsedStudy = z.output<typeof StudyInput>;
 
@@ -106,7 +107,7 @@ export async function recordStudy(
     const values = input.kind === 'homogeneity' ? input.data.items.flat() : input.data.first;
     const sigma = studySigmaPt(
       input.sigmaPt,
-      m.sigmaPtRule as unknown as SigmaPtRule,
+      storedSigmaPtRule(m.sigmaPtRule, `measurandId: ${m.key}`),
       mean(values),
     );
     if (sigma === null || !(sigma > 0)) {

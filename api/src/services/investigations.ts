@@ -4,14 +4,13 @@
  * effectiveness; the lab manager closes it. The coordinator and the lab's granted assessors read.
  */
 import type { EntityManager } from 'typeorm';
-import { Investigation } from '../../../db/entities';
+import { Enrolment, Investigation } from '../../../db/entities';
 import type {
   InvestigationDto,
   InvestigationUpdate,
   ItemMeasurandEvaluation,
 } from '../../../shared/contracts/evaluation';
-import { hasAnyRole } from '../http/route';
-import { labIds, managesLab, type SessionUser } from '../auth/session-user';
+import { hasAnyRole, labIds, managesLab, type SessionUser } from '../auth/session-user';
 import { conflict, notFound, ruleBroken } from '../http/errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
@@ -28,20 +27,16 @@ export async function openInvestigations(
   evaluationId: string,
   results: readonly ItemMeasurandEvaluation[],
 ): Promise<number> {
-  const enrolments: { id: string; organisation_id: string; participant_code: string }[] =
-    await em.query(
-      `SELECT id, organisation_id, participant_code FROM enrolment WHERE round_id = $1`,
-      [roundId],
-    );
-  const byCode = new Map(enrolments.map((e) => [e.participant_code, e]));
-  const existing: { enrolment_id: string; test_item_id: string; measurand_id: string }[] =
-    await em.query(
-      `SELECT enrolment_id, test_item_id, measurand_id FROM investigation WHERE round_id = $1`,
-      [roundId],
-    );
-  const seen = new Set(
-    existing.map((x) => `${x.enrolment_id}/${x.test_item_id}/${x.measurand_id}`),
-  );
+  const enrolments = await em.find(Enrolment, {
+    select: { id: true, organisationId: true, participantCode: true },
+    where: { roundId },
+  });
+  const byCode = new Map(enrolments.map((e) => [e.participantCode, e]));
+  const existing = await em.find(Investigation, {
+    select: { enrolmentId: true, testItemId: true, measurandId: true },
+    where: { roundId },
+  });
+  const seen = new Set(existing.map((x) => `${x.enrolmentId}/${x.testItemId}/${x.measurandId}`));
   const rows: Partial<Investigation>[] = [];
   for (const r of results) {
     for (const p of r.participants) {
@@ -52,7 +47,7 @@ export async function openInvestigations(
       const score = p.scoreKind === 'z' ? p.z : p.zPrime;
       rows.push({
         enrolmentId: en.id,
-        organisationId: en.organisation_id,
+        organisationId: en.organisationId,
         roundId,
         evaluationId,
         testItemId: r.testItemId,
@@ -74,6 +69,7 @@ export async function openInvestigations(
   return rows.length;
 }
 
+/** The one read of investigation records (with round, lab, item and measurand names). */
 const SELECT = `
   SELECT i.*, r.code AS round_code, o.name AS lab_name, en.participant_code, ti.code AS item_code,
          m.key AS measurand_key, m.name AS measurand_name, u.name AS closed_by_name
@@ -85,7 +81,8 @@ const SELECT = `
     JOIN measurand m ON m.id = i.measurand_id
     LEFT JOIN app_user u ON u.id = i.closed_by`;
 
-interface Row {
+/** A row of SELECT (snake_case, as PostgreSQL returns it); investigationRecord maps it. */
+export interface InvestigationRow {
   id: string;
   round_id: string;
   round_code: string;
@@ -109,8 +106,11 @@ interface Row {
   updated_at: Date;
 }
 
-function dto(r: Row, user: SessionUser): InvestigationDto {
-  const isMember = labIds(user).includes(r.organisation_id);
+/** An investigation as every reader sees it, before the viewer's rights are added. */
+export type InvestigationRecord = Omit<InvestigationDto, 'canEdit' | 'canClose'>;
+
+/** The one mapper from an investigation row to its record (labs, coordinators, assessors). */
+export function investigationRecord(r: InvestigationRow): InvestigationRecord {
   return {
     id: r.id,
     roundId: r.round_id,
@@ -133,7 +133,28 @@ function dto(r: Row, user: SessionUser): InvestigationDto {
     closedAt: r.closed_at?.toISOString() ?? null,
     createdAt: r.created_at.toISOString(),
     updatedAt: r.updated_at.toISOString(),
-    canEdit: isMember && r.state === 'open',
+  };
+}
+
+/**
+ * Investigation rows matching a SQL condition on SELECT's aliases (`i` investigation, `r` round,
+ * `o` organisation, `en` enrolment, `ti` test item, `m` measurand), in the given order.
+ */
+export async function selectInvestigations(
+  em: EntityManager,
+  where: string,
+  params: unknown[],
+  orderBy = 'i.created_at DESC, en.participant_code, ti.code, m.key',
+  limit?: number,
+): Promise<InvestigationRow[]> {
+  const cap = limit === undefined ? '' : `LIMIT ${Math.trunc(limit)}`;
+  return em.query(`${SELECT} ${where ? `WHERE ${where}` : ''} ORDER BY ${orderBy} ${cap}`, params);
+}
+
+function dto(r: InvestigationRow, user: SessionUser): InvestigationDto {
+  return {
+    ...investigationRecord(r),
+    canEdit: labIds(user).includes(r.organisation_id) && r.state === 'open',
     canClose: managesLab(user, r.organisation_id) && r.state === 'open',
   };
 }
@@ -152,9 +173,11 @@ export async function listMyInvestigations(
   ctx: AppContext,
   user: SessionUser,
 ): Promise<InvestigationDto[]> {
-  const rows: Row[] = await ctx.ds.query(
-    `${SELECT} WHERE i.organisation_id = ANY($1) ORDER BY i.created_at DESC, ti.code, m.key`,
+  const rows = await selectInvestigations(
+    ctx.ds.manager,
+    'i.organisation_id = ANY($1)',
     [labIds(user)],
+    'i.created_at DESC, ti.code, m.key',
   );
   return rows.map((r) => dto(r, user));
 }
@@ -176,16 +199,22 @@ export async function listInvestigations(
     params.push(roundId);
     where.push(`i.round_id = $${params.length}`);
   }
-  const rows: Row[] = await ctx.ds.query(
-    `${SELECT} ${where.length ? 'WHERE ' + where.join(' AND ') : ''} ORDER BY i.created_at DESC, en.participant_code, ti.code, m.key LIMIT 5000`,
+  const rows = await selectInvestigations(
+    ctx.ds.manager,
+    where.join(' AND '),
     params,
+    undefined,
+    5000,
   );
   return rows.map((r) => dto(r, user));
 }
 
-async function loadVisible(em: EntityManager, user: SessionUser, id: string): Promise<Row> {
-  const rows: Row[] = await em.query(`${SELECT} WHERE i.id = $1`, [id]);
-  const row = rows[0];
+async function loadVisible(
+  em: EntityManager,
+  user: SessionUser,
+  id: string,
+): Promise<InvestigationRow> {
+  const [row] = await selectInvestigations(em, 'i.id = $1', [id]);
   if (!row) throw notFound('The investigation');
   const labs = await readableLabs(em, user);
   if (labs !== 'all' && !labs.includes(row.organisation_id)) throw notFound('The investigation');
@@ -241,7 +270,7 @@ export async function closeInvestigation(
     }
     if (row.state !== 'open')
       throw conflict('investigation_closed', 'The investigation is already closed.');
-    const missing: [keyof Row, string][] = [
+    const missing: [keyof InvestigationRow, string][] = [
       ['cause_category', 'causeCategory'],
       ['root_cause', 'rootCause'],
       ['corrective_action', 'correctiveAction'],

@@ -3,7 +3,7 @@
  * is printed on every report, certificate and e-mail; the comments in the round report.
  */
 import type { EntityManager } from 'typeorm';
-import { ProviderProfile as ProfileRow } from '../../../db/entities/provider-profile';
+import { Evaluation, ProviderProfile as ProfileRow, Report } from '../../../db/entities';
 import {
   LOGO_MAX_BYTES,
   type ProviderProfile,
@@ -58,20 +58,31 @@ export async function providerProfile(em: EntityManager): Promise<ProviderProfil
   };
 }
 
+/** The profile row with its logo's bytes (a column not selected by default). */
+function withLogo(em: EntityManager): Promise<ProfileRow | null> {
+  return em
+    .createQueryBuilder(ProfileRow, 'p')
+    .addSelect('p.logo')
+    .where('p.id = :id', { id: 1 })
+    .getOne();
+}
+
+/** Makes sure the one profile row exists (ON CONFLICT DO NOTHING). */
+async function ensureProfileRow(em: EntityManager): Promise<void> {
+  await em.createQueryBuilder().insert().into(ProfileRow).values({ id: 1 }).orIgnore().execute();
+}
+
 /** The profile with the logo, for the report builders. */
 export async function reportProvider(em: EntityManager): Promise<ReportProvider> {
-  const rows: { logo: Buffer | null; logo_type: 'image/png' | 'image/jpeg' | null }[] =
-    await em.query('SELECT logo, logo_type FROM provider_profile WHERE id = 1');
-  const r = await em.findOne(ProfileRow, { where: { id: 1 } });
-  const logo =
-    rows[0]?.logo && rows[0].logo_type ? { type: rows[0].logo_type, data: rows[0].logo } : null;
+  const r = await withLogo(em);
+  const logo = r?.logo && r.logoType ? { type: r.logoType, data: r.logo } : null;
   return { ...fields(r), logo };
 }
 
 /** The name mail shows in its From display name and signature ('' when none is set). */
 export async function providerName(em: EntityManager): Promise<string> {
-  const rows: { name: string }[] = await em.query('SELECT name FROM provider_profile WHERE id = 1');
-  return rows[0]?.name ?? '';
+  const r = await em.findOne(ProfileRow, { select: { id: true, name: true }, where: { id: 1 } });
+  return r?.name ?? '';
 }
 
 export async function updateProviderProfile(
@@ -80,7 +91,7 @@ export async function updateProviderProfile(
   input: ProviderProfileInput,
 ): Promise<ProviderProfile> {
   await ctx.ds.transaction(async (tx) => {
-    await tx.query('INSERT INTO provider_profile (id) VALUES (1) ON CONFLICT (id) DO NOTHING');
+    await ensureProfileRow(tx);
     await tx.update(ProfileRow, { id: 1 }, { ...input, updatedAt: new Date(), updatedBy: user.id });
     await audit(tx, user.id, 'provider-profile.updated', 'provider_profile', null, {
       fields: Object.keys(input),
@@ -119,10 +130,11 @@ export async function setProviderLogo(
       { path: 'dataBase64', message: 'The logo must be a PNG or JPEG image.' },
     ]);
   await ctx.ds.transaction(async (tx) => {
-    await tx.query('INSERT INTO provider_profile (id) VALUES (1) ON CONFLICT (id) DO NOTHING');
-    await tx.query(
-      'UPDATE provider_profile SET logo = $1, logo_type = $2, updated_at = now(), updated_by = $3 WHERE id = 1',
-      [data, type, user.id],
+    await ensureProfileRow(tx);
+    await tx.update(
+      ProfileRow,
+      { id: 1 },
+      { logo: data, logoType: type, updatedAt: new Date(), updatedBy: user.id },
     );
     await audit(tx, user.id, 'provider-profile.logo-set', 'provider_profile', null, {
       type,
@@ -137,9 +149,10 @@ export async function deleteProviderLogo(
   user: SessionUser,
 ): Promise<ProviderProfile> {
   await ctx.ds.transaction(async (tx) => {
-    await tx.query(
-      'UPDATE provider_profile SET logo = NULL, logo_type = NULL, updated_at = now(), updated_by = $1 WHERE id = 1',
-      [user.id],
+    await tx.update(
+      ProfileRow,
+      { id: 1 },
+      { logo: null, logoType: null, updatedAt: new Date(), updatedBy: user.id },
     );
     await audit(tx, user.id, 'provider-profile.logo-removed', 'provider_profile', null);
   });
@@ -147,11 +160,9 @@ export async function deleteProviderLogo(
 }
 
 export async function providerLogo(em: EntityManager): Promise<{ type: string; data: Buffer }> {
-  const rows: { logo: Buffer | null; logo_type: string | null }[] = await em.query(
-    'SELECT logo, logo_type FROM provider_profile WHERE id = 1',
-  );
-  if (!rows[0]?.logo || !rows[0].logo_type) throw notFound('The logo');
-  return { type: rows[0].logo_type, data: rows[0].logo };
+  const r = await withLogo(em);
+  if (!r?.logo || !r.logoType) throw notFound('The logo');
+  return { type: r.logoType, data: r.logo };
 }
 
 /** The coordinator's comments on the newest evaluation of a round. */
@@ -159,12 +170,13 @@ export async function roundComments(
   ctx: AppContext,
   roundId: string,
 ): Promise<{ comments: string; editable: boolean }> {
-  const rows: { coordinator_comments: string; state: string }[] = await ctx.ds.query(
-    'SELECT coordinator_comments, state FROM evaluation WHERE round_id = $1 ORDER BY version DESC LIMIT 1',
-    [roundId],
-  );
-  if (!rows[0]) throw notFound('An evaluation of this round');
-  return { comments: rows[0].coordinator_comments, editable: rows[0].state !== 'published' };
+  const e = await ctx.ds.manager.findOne(Evaluation, {
+    select: { id: true, coordinatorComments: true, state: true },
+    where: { roundId },
+    order: { version: 'DESC' },
+  });
+  if (!e) throw notFound('An evaluation of this round');
+  return { comments: e.coordinatorComments, editable: e.state !== 'published' };
 }
 
 /**
@@ -178,23 +190,21 @@ export async function setRoundComments(
   comments: string,
 ): Promise<{ comments: string; editable: boolean }> {
   await ctx.ds.transaction(async (tx) => {
-    const rows: { id: string; state: string }[] = await tx.query(
-      'SELECT id, state FROM evaluation WHERE round_id = $1 ORDER BY version DESC LIMIT 1 FOR UPDATE',
-      [roundId],
-    );
-    const e = rows[0];
+    const e = await tx.findOne(Evaluation, {
+      select: { id: true, state: true },
+      where: { roundId },
+      order: { version: 'DESC' },
+      lock: { mode: 'pessimistic_write' },
+    });
     if (!e) throw notFound('An evaluation of this round');
     if (e.state === 'published')
       throw conflict(
         'evaluation_published',
         'The evaluation is published; its report no longer changes. Reissue the evaluation to change the comments.',
       );
-    await tx.query('UPDATE evaluation SET coordinator_comments = $1 WHERE id = $2', [
-      comments,
-      e.id,
-    ]);
+    await tx.update(Evaluation, { id: e.id }, { coordinatorComments: comments });
     // Files built from this unpublished evaluation are previews; drop them so the next one shows the comments.
-    await tx.query(`DELETE FROM report WHERE evaluation_id = $1`, [e.id]);
+    await tx.delete(Report, { evaluationId: e.id });
     await audit(tx, user.id, 'evaluation.comments-set', 'evaluation', e.id, {
       length: comments.length,
     });

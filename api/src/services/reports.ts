@@ -11,12 +11,11 @@
  * in this process. A 'running' row older than STALE_MINUTES (an instance that died) is rebuilt.
  */
 import type { EntityManager } from 'typeorm';
-import { Report, type ReportKind } from '../../../db/entities/report';
+import { Report, type ReportKind } from '../../../db/entities';
 import { sha256 } from '../../../reports/model';
 import type { ReportStatus } from '../../../shared/contracts/reports';
-import { labIds, type SessionUser } from '../auth/session-user';
+import { hasAnyRole, labIds, type SessionUser } from '../auth/session-user';
 import { notFound } from '../http/errors';
-import { hasAnyRole } from '../http/route';
 import type { AppContext } from './context';
 import { grantedLabIds } from './grants';
 import {

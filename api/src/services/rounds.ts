@@ -34,6 +34,7 @@ import { audit } from './audit';
 import type { AppContext } from './context';
 import { hasOpenHomogeneityFailure, lockRound } from './round-lifecycle';
 import { assertSigmaSource } from './precision';
+import { measurandRules } from './stored-rules';
 
 type Out<T extends z.ZodType> = z.output<T>;
 
@@ -94,8 +95,7 @@ function measurandDto(m: Measurand): MeasurandDto {
     unit: m.unit,
     decimals: m.decimals,
     replicatesRequired: m.replicatesRequired,
-    sigmaPtRule: m.sigmaPtRule as MeasurandDto['sigmaPtRule'],
-    assignedValueRule: m.assignedValueRule as MeasurandDto['assignedValueRule'],
+    ...measurandRules(m),
     minParticipants: m.minParticipants,
     position: m.position,
   };

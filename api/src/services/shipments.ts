@@ -10,7 +10,8 @@ import { conflict } from '../http/errors';
 import { audit } from './audit';
 import { assertFeeAllowsDispatch } from './billing';
 import type { AppContext } from './context';
-import { enrolmentDto, labRecipients, lockEnrolment, sendSafely } from './enrolment';
+import { enrolmentDto, lockEnrolment, sendSafely } from './enrolment';
+import { labRecipients } from './lab-recipients';
 import { lockRound } from './round-lifecycle';
 
 /** Round states in which items may be dispatched. */

@@ -1,0 +1,75 @@
+/**
+ * Parsers for JSON the database stores (jsonb columns): read through the shared zod schema,
+ * leniently where rows written before a bound existed may break it today. A stored value is never
+ * cast to its type; one that cannot be read at all answers 422 naming the record, never 500.
+ */
+import * as z from 'zod';
+import {
+  AssignedValueRuleSchema,
+  SigmaPtRuleSchema,
+  type AssignedValueRuleInput,
+  type SigmaPtRuleInput,
+} from '../../../shared/contracts/evaluation';
+import { ruleBroken } from '../http/errors';
+
+const finite = z.number().refine(Number.isFinite);
+
+/** The shapes of the σ_pt rule without today's bounds (rows stored before a bound tightened). */
+const StoredSigmaPtRule: z.ZodType<SigmaPtRuleInput> = z.discriminatedUnion('kind', [
+  z.object({ kind: z.literal('fixed'), value: finite }),
+  z.object({ kind: z.literal('percent'), percent: finite }),
+  z.object({ kind: z.literal('robust-sd') }),
+  z.object({
+    kind: z.literal('precision'),
+    sigmaR: finite,
+    sigmaRepeatability: finite.optional(),
+    replicates: z.number().int().optional(),
+    source: z.string().optional(),
+  }),
+]);
+
+/** The shapes of the assigned-value rule without today's bounds. */
+const StoredAssignedValueRule: z.ZodType<AssignedValueRuleInput> = z.discriminatedUnion('kind', [
+  z.object({ kind: z.literal('consensus') }),
+  z.object({ kind: z.literal('median') }),
+  z.object({ kind: z.literal('reference'), value: finite, u: finite, source: z.string() }),
+]);
+
+function lenient<T>(strict: z.ZodType<T>, loose: z.ZodType<T>, raw: unknown): T | null {
+  const s = strict.safeParse(raw);
+  if (s.success) return s.data;
+  const l = loose.safeParse(raw);
+  return l.success ? l.data : null;
+}
+
+/** A measurand's stored σ_pt rule; `what` names it in the 422 when it cannot be read. */
+export function storedSigmaPtRule(raw: unknown, what: string): SigmaPtRuleInput {
+  const rule = lenient(SigmaPtRuleSchema, StoredSigmaPtRule, raw);
+  if (rule) return rule;
+  throw ruleBroken(
+    'stored_rule_unreadable',
+    `${what}: the stored σ_pt rule cannot be read; set it again on the Round desk.`,
+  );
+}
+
+/** A measurand's stored assigned-value rule; `what` names it in the 422 when it cannot be read. */
+export function storedAssignedValueRule(raw: unknown, what: string): AssignedValueRuleInput {
+  const rule = lenient(AssignedValueRuleSchema, StoredAssignedValueRule, raw);
+  if (rule) return rule;
+  throw ruleBroken(
+    'stored_rule_unreadable',
+    `${what}: the stored assigned-value rule cannot be read; set it again on the Round desk.`,
+  );
+}
+
+/** Both stored rules of a measurand row. */
+export function measurandRules(m: {
+  key: string;
+  sigmaPtRule: unknown;
+  assignedValueRule: unknown;
+}): { sigmaPtRule: SigmaPtRuleInput; assignedValueRule: AssignedValueRuleInput } {
+  return {
+    sigmaPtRule: storedSigmaPtRule(m.sigmaPtRule, `Measurand ${m.key}`),
+    assignedValueRule: storedAssignedValueRule(m.assignedValueRule, `Measurand ${m.key}`),
+  };
+}

@@ -1,0 +1,17 @@
+import { Column, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+
+/** A lab's results for a round: a draft saved as it types, then submitted and amended in versions. */
+@Entity({ name: 'submission' })
+export class Submission {
+  @PrimaryGeneratedColumn('uuid') id!: string;
+  @Column({ type: 'uuid', name: 'enrolment_id', unique: true }) enrolmentId!: string;
+  @Column({ type: 'text', default: 'draft' }) state!: 'draft' | 'submitted';
+  /** The working copy (shared/contracts/submission SubmissionData). */
+  @Column({ type: 'jsonb', default: () => "'{}'" }) draft!: Record<string, unknown>;
+  /** Increments on every draft save; the client sends it back to detect lost updates. */
+  @Column({ type: 'integer', name: 'draft_revision', default: 0 }) draftRevision!: number;
+  /** Latest submitted version number (0 before the first submit). */
+  @Column({ type: 'integer', name: 'current_version', default: 0 }) currentVersion!: number;
+  @Column({ type: 'timestamptz', name: 'submitted_at', nullable: true }) submittedAt!: Date | null;
+  @UpdateDateColumn({ type: 'timestamptz', name: 'updated_at' }) updatedAt!: Date;
+}

@@ -39,7 +39,8 @@ import { hasAnyRole } from '../http/route';
 import { conflict, forbidden, HttpError, notFound, ruleBroken } from '../http/errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
-import { labRecipients, sendSafely } from './enrolment';
+import { sendSafely } from './enrolment';
+import { labRecipients } from './lab-recipients';
 
 // ------------------------------------------------------------------ the SDK
 

@@ -5,6 +5,7 @@
  * format (the cell keeps full precision); headers are frozen; every piece of user text goes
  * through neutraliseFormula so no formula runs when the file is opened.
  */
+import { sigmaPtRuleWords } from '../../shared/contracts/rule-text';
 import ExcelJS from 'exceljs';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
 import {
@@ -16,7 +17,6 @@ import {
   METHOD_WORDS,
   recordChecksum,
   reportStatusWords,
-  sigmaPtRuleWords,
   type ReportGroup,
   type RoundReportInput,
 } from '../model';

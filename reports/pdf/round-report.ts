@@ -5,6 +5,7 @@
  * scores; blunder hints in general words; the confidentiality statement. Codes only: no lab
  * name is ever read by this builder.
  */
+import { sigmaPtRuleWords } from '../../shared/contracts/rule-text';
 import { distributionOption, offScale, scoreBarOption, scoresOffScale } from '../charts/options';
 import { renderChartSvg } from '../charts/render';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
@@ -12,7 +13,6 @@ import {
   METHOD_WORDS,
   recordChecksum,
   reportStatusWords,
-  sigmaPtRuleWords,
   type ReportGroup,
   type ReportStudy,
   type RoundReportInput,

@@ -19,6 +19,23 @@ export function fixed(v: number | null | undefined, decimals: number): string {
   return v.toFixed(Math.max(0, Math.min(10, decimals)));
 }
 
+/**
+ * Dates in reports: ISO 8601 calendar dates in UTC, the same for every reader (a report is a
+ * record, not a screen, so it does not follow a reader's locale). `day`: "2025-03-14";
+ * `dayTime`: "2025-03-14 09:30 UTC"; `—` for none.
+ */
+export function day(iso: string | Date | null | undefined): string {
+  const d = iso instanceof Date ? iso : iso ? new Date(iso) : null;
+  return d && !Number.isNaN(d.getTime()) ? d.toISOString().slice(0, 10) : '—';
+}
+
+export function dayTime(iso: string | Date | null | undefined): string {
+  const d = iso instanceof Date ? iso : iso ? new Date(iso) : null;
+  return d && !Number.isNaN(d.getTime())
+    ? `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`
+    : '—';
+}
+
 /** exceljs number format for a number of decimals: `0`, `0.0`, `0.000` … */
 export function numberFormat(decimals: number): string {
   const d = Math.max(0, Math.min(10, decimals));

@@ -10,7 +10,7 @@ import { explainScore } from '../../shared/evaluation/explain';
 import { trackRecordOption } from '../charts/options';
 import { renderChartSvg } from '../charts/render';
 import { mainScore, type ParticipantReportInput, type ReportGroup } from '../model';
-import { fixed, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
+import { day, fixed, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
 import {
   createDoc,
   figure,
@@ -137,7 +137,7 @@ export async function buildParticipantReportPdf(input: ParticipantReportInput): 
   write(
     doc,
     issued
-      ? `Scores of rounds published up to this report’s issue date (${issued.slice(0, 10)}); later rounds are not shown.`
+      ? `Scores of rounds published up to this report’s issue date (${day(issued)}); later rounds are not shown.`
       : 'Scores of every round published so far (this is a preview, not an issued report).',
     { size: 9, colour: PALETTE.grey, gap: 4 },
   );

@@ -20,9 +20,11 @@ import {
   type RoundReportInput,
 } from '../model';
 import {
+  day,
+  dayTime,
   fixed,
-  hintWords,
   HINT_WORDS,
+  hintWords,
   PALETTE,
   SCORE_DECIMALS,
   SIGNAL_COLOURS,
@@ -95,8 +97,6 @@ export function reissueNotice(input: RoundReportInput): string | null {
     : null;
 }
 
-const day = (iso: string | null | undefined) => (iso ? iso.slice(0, 10) : '—');
-
 /** The document's dates: issued = published (creation date), file made = now (modification date). */
 export function docDates(input: RoundReportInput): { createdAt: Date; modifiedAt: Date } {
   const made = new Date(input.generatedAt);
@@ -162,10 +162,7 @@ export function cover(doc: Doc, input: RoundReportInput, kind: string, extra: st
         ? `${day(round.dispatchedAt)}${round.dispatchPlanned ? ' (planned date)' : ''}`
         : '—',
     ],
-    [
-      'Results due',
-      round.resultsDueAt ? `${round.resultsDueAt.slice(0, 16).replace('T', ' ')} UTC` : '—',
-    ],
+    ['Results due', dayTime(round.resultsDueAt)],
     [
       'Authorised by',
       input.provider.authoriserName
@@ -174,7 +171,7 @@ export function cover(doc: Doc, input: RoundReportInput, kind: string, extra: st
     ],
     [
       'This file made',
-      `${input.generatedAt.slice(0, 16).replace('T', ' ')} UTC with Ringlet ${evaluation.softwareVersion}${evaluation.publishedAt && input.generatedAt.slice(0, 10) !== evaluation.publishedAt.slice(0, 10) ? ' (regenerated from the record of the issued version; contents as issued)' : ''}`,
+      `${dayTime(input.generatedAt)} with Ringlet ${evaluation.softwareVersion}${evaluation.publishedAt && day(input.generatedAt) !== day(evaluation.publishedAt) ? ' (regenerated from the record of the issued version; contents as issued)' : ''}`,
     ],
   ];
   wrapTable(

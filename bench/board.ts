@@ -8,6 +8,7 @@
  * keep-alive clients: GET /rounds/{id}/board (coordinator and lab views) and GET /health.
  * Bounded in count and time; stops by itself.
  */
+import { send, signIn, type Session } from './http-client';
 import { spawn, type ChildProcess } from 'node:child_process';
 import http from 'node:http';
 import { join } from 'node:path';
@@ -31,68 +32,11 @@ const PARTICIPANTS = 1000;
 const REQUESTS = { board: 1200, health: 3000 } as const;
 const TIME_LIMIT_MS = 60_000;
 
-interface Session {
-  cookie: string;
-  csrf: string;
-}
-
-function request(
-  port: number,
-  agent: http.Agent,
-  method: string,
-  path: string,
-  headers: Record<string, string>,
-  body?: string,
-): Promise<{ status: number; headers: http.IncomingHttpHeaders; body: string }> {
-  return new Promise((resolve, reject) => {
-    const req = http.request(
-      {
-        host: '127.0.0.1',
-        port,
-        method,
-        path,
-        agent,
-        headers: { ...headers, ...(body ? { 'content-type': 'application/json' } : {}) },
-      },
-      (res) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () =>
-          resolve({
-            status: res.statusCode ?? 0,
-            headers: res.headers,
-            body: Buffer.concat(chunks).toString('utf8'),
-          }),
-        );
-        res.on('error', reject);
-      },
-    );
-    req.on('error', reject);
-    if (body) req.write(body);
-    req.end();
-  });
-}
-
-async function signIn(port: number, agent: http.Agent, email: string): Promise<Session> {
-  const t1 = await request(port, agent, 'GET', '/api/v1/auth/csrf-token', {});
-  let cookie = (t1.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
-  const token = (JSON.parse(t1.body) as { token: string }).token;
-  const r = await request(
-    port,
-    agent,
-    'POST',
-    '/api/v1/auth/sign-in',
-    { cookie, 'x-csrf-token': token },
-    JSON.stringify({ email, password: 'correct horse battery' }),
-  );
-  if (r.status !== 200) throw new Error(`sign-in ${email}: ${r.status} ${r.body}`);
-  cookie = (r.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ') || cookie;
-  const t2 = await request(port, agent, 'GET', '/api/v1/auth/csrf-token', { cookie });
-  return { cookie, csrf: (JSON.parse(t2.body) as { token: string }).token };
-}
+const signInBench = (port: number, agent: http.Agent, email: string): Promise<Session> =>
+  signIn(port, agent, email, 'correct horse battery');
 
 /** Closed-loop load: CLIENTS workers, each with its own session and keep-alive socket. */
-/** Like `request`, but only counts the body's bytes: a load generator (as wrk) does not decode. */
+/** Like `send` (./http-client.ts), but only counts the body's bytes: a load generator (as wrk) does not decode. */
 function fetchCounting(
   port: number,
   agent: http.Agent,
@@ -209,10 +153,10 @@ export async function benchBoard(): Promise<BoardBenchRow[]> {
     child = server.child;
     const port = server.port;
     const setupAgent = new http.Agent({ keepAlive: true });
-    const coord = await signIn(port, setupAgent, 'coordinator@bench.test');
+    const coord = await signInBench(port, setupAgent, 'coordinator@bench.test');
     const base = `/api/v1/rounds/${fx.round.id}`;
     const post = async (p: string) => {
-      const r = await request(
+      const r = await send(
         port,
         setupAgent,
         'POST',
@@ -228,7 +172,7 @@ export async function benchBoard(): Promise<BoardBenchRow[]> {
 
     // One session per role shared by the 20 clients (each with its own keep-alive connection):
     // the sign-in rate limit stops 40 sign-ins from one address, as it should.
-    const lab = await signIn(port, setupAgent, 'lab@bench.test');
+    const lab = await signInBench(port, setupAgent, 'lab@bench.test');
     const coordSessions: Session[] = Array.from({ length: CLIENTS }, () => coord);
     const labSessions: Session[] = Array.from({ length: CLIENTS }, () => lab);
     setupAgent.destroy();

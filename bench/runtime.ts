@@ -8,6 +8,7 @@
  *   round, and GET /health (the trivial reference, measured in the same run). Target: 0 errors.
  * Invented data (api/src/testing fixtures). Bounded: 5 starts; 20 s of load; stops by itself.
  */
+import { send, signIn } from './http-client';
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import http from 'node:http';
 import net from 'node:net';
@@ -52,48 +53,6 @@ function freePort(): Promise<number> {
   });
 }
 
-interface Answer {
-  status: number;
-  headers: http.IncomingHttpHeaders;
-  body: string;
-}
-function call(
-  port: number,
-  agent: http.Agent | undefined,
-  method: string,
-  path: string,
-  headers: Record<string, string> = {},
-  body?: string,
-): Promise<Answer> {
-  return new Promise((resolve, reject) => {
-    const req = http.request(
-      {
-        host: '127.0.0.1',
-        port,
-        method,
-        path,
-        agent,
-        headers: { ...headers, ...(body ? { 'content-type': 'application/json' } : {}) },
-      },
-      (res) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () =>
-          resolve({
-            status: res.statusCode ?? 0,
-            headers: res.headers,
-            body: Buffer.concat(chunks).toString('utf8'),
-          }),
-        );
-        res.on('error', reject);
-      },
-    );
-    req.on('error', reject);
-    if (body) req.write(body);
-    req.end();
-  });
-}
-
 /** Starts the compiled server on the database; resolves with the port once /health answers 200. */
 async function startCompiled(
   url: string,
@@ -124,7 +83,7 @@ async function startCompiled(
   });
   child.on('exit', () => (exited = true));
   while (!exited && performance.now() - t0 < 90_000) {
-    const ok = await call(port, undefined, 'GET', '/api/v1/health').then(
+    const ok = await send(port, undefined, 'GET', '/api/v1/health').then(
       (r) => r.status === 200,
       () => false,
     );
@@ -152,29 +111,9 @@ async function stop(child: ChildProcess): Promise<void> {
   });
 }
 
-async function signIn(
-  port: number,
-  agent: http.Agent,
-  email: string,
-  address: string,
-): Promise<{ cookie: string; csrf: string }> {
-  const xff = { 'x-forwarded-for': address };
-  const t1 = await call(port, agent, 'GET', '/api/v1/auth/csrf-token', xff);
-  let cookie = (t1.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
-  const token = (JSON.parse(t1.body) as { token: string }).token;
-  const r = await call(
-    port,
-    agent,
-    'POST',
-    '/api/v1/auth/sign-in',
-    { ...xff, cookie, 'x-csrf-token': token },
-    JSON.stringify({ email, password: TEST_PASSWORD }),
-  );
-  if (r.status !== 200) throw new Error(`sign-in ${email}: ${r.status} ${r.body}`);
-  cookie = (r.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ') || cookie;
-  const t2 = await call(port, agent, 'GET', '/api/v1/auth/csrf-token', { ...xff, cookie });
-  return { cookie, csrf: (JSON.parse(t2.body) as { token: string }).token };
-}
+/** Signs in from its own address (the sign-in limits count per address). */
+const signInFrom = (port: number, agent: http.Agent, email: string, address: string) =>
+  signIn(port, agent, email, TEST_PASSWORD, { 'x-forwarded-for': address });
 
 export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
   const build = spawnSync(process.execPath, [join(ROOT, 'scripts/server-build.mjs')], {
@@ -215,9 +154,9 @@ export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
     child = s.child;
     const port = s.port;
     const setup = new http.Agent({ keepAlive: true, maxSockets: 1 });
-    const coord = await signIn(port, setup, 'coordinator@load.test', '10.9.0.1');
+    const coord = await signInFrom(port, setup, 'coordinator@load.test', '10.9.0.1');
     for (const step of ['evaluation', 'evaluation/commit', 'publish']) {
-      const r = await call(
+      const r = await send(
         port,
         setup,
         'POST',
@@ -244,7 +183,7 @@ export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
         const address = `10.8.${Math.floor(i / 250)}.${(i % 250) + 1}`;
         const t0 = performance.now();
         try {
-          const session = await signIn(port, agent, `lab${i}@load.test`, address);
+          const session = await signInFrom(port, agent, `lab${i}@load.test`, address);
           lat.signIn.push(performance.now() - t0);
           return { agent, address, session };
         } catch (err) {
@@ -266,11 +205,11 @@ export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
           let revision = 0;
           while (performance.now() < until) {
             t0 = performance.now();
-            const b = await call(port, agent, 'GET', `/api/v1/rounds/${fx.round.id}/board`, h);
+            const b = await send(port, agent, 'GET', `/api/v1/rounds/${fx.round.id}/board`, h);
             lat.board.push(performance.now() - t0);
             if (b.status !== 200) errors.push(`board ${b.status}`);
             t0 = performance.now();
-            const d = await call(
+            const d = await send(
               port,
               agent,
               'PUT',
@@ -282,7 +221,7 @@ export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
             if (d.status !== 200) errors.push(`draft ${d.status} ${d.body.slice(0, 120)}`);
             else revision = (JSON.parse(d.body) as { draftRevision: number }).draftRevision;
             t0 = performance.now();
-            const hr = await call(port, agent, 'GET', '/api/v1/health', h);
+            const hr = await send(port, agent, 'GET', '/api/v1/health', h);
             lat.health.push(performance.now() - t0);
             if (hr.status !== 200) errors.push(`health ${hr.status}`);
           }

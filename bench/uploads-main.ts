@@ -1,16 +1,5 @@
 /** Prints the upload benchmark alone: `npx tsx bench/uploads-main.ts`. */
 import { benchUploads } from './uploads';
+import { printRows } from './print-rows';
 
-void benchUploads().then(
-  (rows) => {
-    for (const r of rows)
-      console.log(
-        `${r.name}\n  median ${r.median_ms} ms  p95 ${r.p95_ms} ms  runs ${r.runs}  ${r.target ?? ''}  ${r.extra ?? ''}`,
-      );
-    process.exit(0);
-  },
-  (err: unknown) => {
-    console.error(err);
-    process.exit(1);
-  },
-);
+printRows(benchUploads);

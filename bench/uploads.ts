@@ -9,6 +9,7 @@
  * one row too many (413 before parsing), a 17.8 MB workbook upload (413 at the edge), a 19 MB
  * correlation CSV attachment, and two workbooks with the CSV at once. Invented data; stops by itself.
  */
+import { send, signIn, type Answer } from './http-client';
 import { spawn, type ChildProcess } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { readFileSync } from 'node:fs';
@@ -29,70 +30,8 @@ export interface UploadBenchRow {
   extra?: string;
 }
 
-interface Res {
-  status: number;
-  headers: http.IncomingHttpHeaders;
-  body: Buffer;
-}
-
-function send(
-  port: number,
-  agent: http.Agent,
-  method: string,
-  path: string,
-  headers: Record<string, string>,
-  body?: Buffer,
-): Promise<Res> {
-  return new Promise((resolve, reject) => {
-    const req = http.request(
-      {
-        host: '127.0.0.1',
-        port,
-        method,
-        path,
-        agent,
-        headers: { ...headers, ...(body ? { 'content-length': String(body.length) } : {}) },
-      },
-      (res) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () =>
-          resolve({
-            status: res.statusCode ?? 0,
-            headers: res.headers,
-            body: Buffer.concat(chunks),
-          }),
-        );
-        res.on('error', reject);
-      },
-    );
-    req.on('error', reject);
-    if (body) req.write(body);
-    req.end();
-  });
-}
-
-async function signIn(
-  port: number,
-  agent: http.Agent,
-  email: string,
-): Promise<{ cookie: string; csrf: string }> {
-  const t1 = await send(port, agent, 'GET', '/api/v1/auth/csrf-token', {});
-  let cookie = (t1.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ');
-  const token = (JSON.parse(t1.body.toString()) as { token: string }).token;
-  const r = await send(
-    port,
-    agent,
-    'POST',
-    '/api/v1/auth/sign-in',
-    { cookie, 'x-csrf-token': token, 'content-type': 'application/json' },
-    Buffer.from(JSON.stringify({ email, password: 'correct horse battery' })),
-  );
-  if (r.status !== 200) throw new Error(`sign-in ${email}: ${r.status} ${r.body.toString()}`);
-  cookie = (r.headers['set-cookie'] ?? []).map((c) => c.split(';')[0]).join('; ') || cookie;
-  const t2 = await send(port, agent, 'GET', '/api/v1/auth/csrf-token', { cookie });
-  return { cookie, csrf: (JSON.parse(t2.body.toString()) as { token: string }).token };
-}
+const signInBench = (port: number, agent: http.Agent, email: string) =>
+  signIn(port, agent, email, 'correct horse battery');
 
 function multipart(name: string, filename: string, data: Buffer): { body: Buffer; type: string } {
   const b = `----ringletbench${randomBytes(8).toString('hex')}`;
@@ -200,7 +139,7 @@ export async function benchUploads(): Promise<UploadBenchRow[]> {
     const pid = child.pid!;
     const agent = new http.Agent({ keepAlive: true, maxSockets: 8 });
     const healthAgent = new http.Agent({ keepAlive: true, maxSockets: 1 });
-    const session = await signIn(port, agent, 'lab@uploads.bench');
+    const session = await signInBench(port, agent, 'lab@uploads.bench');
     // The multipart bodies are built before a scenario starts, so the client's own copying does not
     // count against the server's /health latency.
     const bodies = new Map<Buffer, { body: Buffer; type: string }>();
@@ -238,7 +177,7 @@ export async function benchUploads(): Promise<UploadBenchRow[]> {
     const rows: UploadBenchRow[] = [];
     const scenario = async (
       name: string,
-      work: () => Promise<Res[]>,
+      work: () => Promise<Answer[]>,
       expect: number[],
     ): Promise<void> => {
       let done = false;

@@ -19,6 +19,23 @@ export function fixed(v: number | null | undefined, decimals: number): string {
   return v.toFixed(Math.max(0, Math.min(10, decimals)));
 }
 
+/**
+ * Dates in reports: ISO 8601 calendar dates in UTC, the same for every reader (a report is a
+ * record, not a screen, so it does not follow a reader's locale). `day`: "2025-03-14";
+ * `dayTime`: "2025-03-14 09:30 UTC"; `—` for none.
+ */
+export function day(iso: string | Date | null | undefined): string {
+  const d = iso instanceof Date ? iso : iso ? new Date(iso) : null;
+  return d && !Number.isNaN(d.getTime()) ? d.toISOString().slice(0, 10) : '—';
+}
+
+export function dayTime(iso: string | Date | null | undefined): string {
+  const d = iso instanceof Date ? iso : iso ? new Date(iso) : null;
+  return d && !Number.isNaN(d.getTime())
+    ? `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`
+    : '—';
+}
+
 /** exceljs number format for a number of decimals: `0`, `0.0`, `0.000` … */
 export function numberFormat(decimals: number): string {
   const d = Math.max(0, Math.min(10, decimals));
@@ -28,28 +45,8 @@ export function numberFormat(decimals: number): string {
 /** Scores (z, z′, ζ, En) are shown with two decimals (common practice). */
 export const SCORE_DECIMALS = 2;
 
-/** Words for a signal, ISO 13528 thresholds (see docs/STATISTICS.md; words: docs/GLOSSARY.md). */
-export const SIGNAL_WORDS: Record<'acceptable' | 'warning' | 'action', string> = {
-  acceptable: 'acceptable',
-  warning: 'warning signal',
-  action: 'action signal',
-};
-
-/** Our palette (docs/QUALITY.md "Look"). */
-export const PALETTE = {
-  ink: '#1f3a5f',
-  teal: '#1b7f79',
-  saffron: '#b7791f',
-  carmine: '#a4262c',
-  grey: '#5b6470',
-  rule: '#c9cfd6',
-} as const;
-
-export const SIGNAL_COLOURS: Record<'acceptable' | 'warning' | 'action', string> = {
-  acceptable: PALETTE.teal,
-  warning: PALETTE.saffron,
-  action: PALETTE.carmine,
-};
+/** Signal words, colours and the palette: defined once in shared/charts/signals.ts. */
+export { PALETTE, SIGNAL_COLOURS, SIGNAL_RULE_TEXT, SIGNAL_WORDS } from '../shared/charts/signals';
 
 /**
  * Blunder hints described in general words for reports (the Lab bench shows each lab its own

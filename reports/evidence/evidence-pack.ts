@@ -5,8 +5,7 @@
  * manifest.json listing every file with its SHA-256 (the manifest does not list itself; the
  * README's count says so).
  */
-import archiver, { type Archiver } from 'archiver';
-import { PassThrough } from 'node:stream';
+import JSZip from 'jszip';
 import type { EvidenceManifest } from '../../shared/contracts/reports';
 import { sha256 } from '../model';
 
@@ -79,24 +78,13 @@ export async function buildEvidencePack(
   const readme = Buffer.from(evidenceReadme(meta, listed), 'utf8');
   const all = [...files, { path: 'README.txt', data: readme }];
   const manifest = evidenceManifest(all, meta);
-  // archiver 7 exports a factory function; the installed @types/archiver (8.x) describes classes.
-  const zip = (archiver as unknown as (format: 'zip', options: object) => Archiver)('zip', {
-    zlib: { level: 6 },
-  });
-  const out = new PassThrough();
-  const chunks: Buffer[] = [];
-  out.on('data', (c: Buffer) => chunks.push(c));
-  const done = new Promise<Buffer>((resolve, reject) => {
-    out.on('end', () => resolve(Buffer.concat(chunks)));
-    zip.on('error', reject);
-  });
-  zip.pipe(out);
+  const zip = new JSZip();
   const date = new Date(meta.generatedAt);
-  for (const f of all) zip.append(f.data, { name: f.path, date });
-  zip.append(Buffer.from(JSON.stringify(manifest, null, 2), 'utf8'), {
-    name: 'manifest.json',
-    date,
+  for (const f of all) zip.file(f.path, f.data, { date });
+  zip.file('manifest.json', Buffer.from(JSON.stringify(manifest, null, 2), 'utf8'), { date });
+  return zip.generateAsync({
+    type: 'nodebuffer',
+    compression: 'DEFLATE',
+    compressionOptions: { level: 6 },
   });
-  await zip.finalize();
-  return done;
 }

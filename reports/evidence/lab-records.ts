@@ -8,7 +8,7 @@ import type {
   AssessorInvestigation,
 } from '../../shared/contracts/reports';
 import type { ReportProviderInfo } from '../model';
-import { fixed, PALETTE, SCORE_DECIMALS, SCORE_LABEL, SIGNAL_WORDS } from '../text';
+import { day, dayTime, fixed, PALETTE, SCORE_DECIMALS, SCORE_LABEL, SIGNAL_WORDS } from '../text';
 import { createDoc, finishDoc, heading, MARGIN, wrapTable, write } from '../pdf/document';
 
 export interface LabRecordsMeta {
@@ -29,7 +29,7 @@ function head(doc: Parameters<typeof write>[0], title: string, meta: LabRecordsM
   write(doc, `Lab: ${meta.lab}`, { size: 11, gap: 2 });
   write(
     doc,
-    `Made ${meta.generatedAt.slice(0, 16).replace('T', ' ')} UTC for ${meta.generatedFor}, as part of an Evidence pack. The same records are in the JSON file beside this one.`,
+    `Made ${dayTime(meta.generatedAt)} for ${meta.generatedFor}, as part of an Evidence pack. The same records are in the JSON file beside this one.`,
     { size: 9, colour: PALETTE.grey, gap: 10 },
   );
 }
@@ -70,7 +70,7 @@ export async function buildInvestigationsPdf(
         `${r.roundCode}, ${r.participantCode}`,
         `${r.itemCode}, ${r.measurandName}`,
         `${SCORE_LABEL[r.scoreKind] ?? 'score'} = ${fixed(r.score, SCORE_DECIMALS)}, ${SIGNAL_WORDS[r.signal]}`,
-        `${STATE_WORDS[r.state]}, opened ${r.createdAt.slice(0, 10)}${r.closedAt ? `, closed ${r.closedAt.slice(0, 10)}` : ''}`,
+        `${STATE_WORDS[r.state]}, opened ${day(r.createdAt)}${r.closedAt ? `, closed ${day(r.closedAt)}` : ''}`,
         r.causeCategory
           ? (CAUSE_CATEGORY_LABELS[r.causeCategory as CauseCategory] ?? 'Other')
           : '—',
@@ -113,7 +113,7 @@ export async function buildInstrumentChecksPdf(
         { title: 'Notes', width: w - 395 },
       ],
       rows.map((r) => [
-        r.checkedAt.slice(0, 10),
+        day(r.checkedAt),
         r.instrument,
         r.material,
         `${r.referenceValueNm} ± ${r.toleranceNm}`,

@@ -1,6 +1,6 @@
 /** Certificate of participation (PDF, one landscape page). Participation only, not performance. */
 import { recordChecksum, type ParticipantReportInput } from '../model';
-import { PALETTE } from '../text';
+import { day, PALETTE } from '../text';
 import { artifact, createDoc, figure, finishDoc, write } from './document';
 import { docDates, footerText } from './round-report';
 
@@ -67,7 +67,7 @@ export async function buildCertificatePdf(input: ParticipantReportInput): Promis
   write(doc, `Test items: ${items}. Measurands: ${measurands}.`, { ...c, size: 10.5, gap: 4 });
   write(
     doc,
-    `Evaluation version ${input.evaluation.version}. Issued ${input.evaluation.publishedAt ? input.evaluation.publishedAt.slice(0, 10) : 'not yet (preview)'}; this file made ${input.generatedAt.slice(0, 10)}.`,
+    `Evaluation version ${input.evaluation.version}. Issued ${input.evaluation.publishedAt ? day(input.evaluation.publishedAt) : 'not yet (preview)'}; this file made ${day(input.generatedAt)}.`,
     { ...c, size: 10.5, gap: 14 },
   );
   if (input.evaluation.reissueReason)

@@ -95,7 +95,7 @@ describe('demo round report', () => {
     ],
     [
       'u(x_pt) and whether it is negligible',
-      /u\(x_pt\) is negligible when u\(x_pt\) <= 0\.3 σ_pt.*(negligible: z used|not negligible: z′ used)/,
+      /u\(x_pt\) is negligible when u\(x_pt\) ≤ 0\.3 σ_pt.*(negligible: z used|not negligible: z′ used)/,
     ],
     ['performance criteria', /warning signal.*action signal/],
     ['statistical methods with references', /3 Statistical methods.*ISO 13528/],

@@ -13,6 +13,14 @@ type Doc = InstanceType<typeof PDFDocument>;
 const DIR = join(require.resolve('@fontsource/noto-sans/package.json'), '..', 'files');
 const file = (subset: string, weight: number) =>
   join(DIR, `noto-sans-${subset}-${weight}-normal.woff`);
+const MATH = join(
+  require.resolve('@fontsource/noto-sans-math/package.json'),
+  '..',
+  'files',
+  'noto-sans-math-latin-400-normal.woff',
+);
+
+export type Subset = '' | '-ext' | '-greek' | '-math';
 
 export const FONT = { regular: 'Noto', bold: 'NotoBold' } as const;
 export type FontName = (typeof FONT)[keyof typeof FONT];
@@ -26,19 +34,22 @@ export function registerFonts(doc: Doc): void {
     doc.registerFont(name, file('latin', weight));
     doc.registerFont(`${name}-ext`, file('latin-ext', weight));
     doc.registerFont(`${name}-greek`, file('greek', weight));
+    doc.registerFont(`${name}-math`, MATH);
   }
 }
 
 /** Which registered subset draws a character. */
-function subsetOf(ch: number): '' | '-ext' | '-greek' {
+function subsetOf(ch: number): Subset {
   if (ch >= 0x0370 && ch <= 0x03ff) return '-greek';
+  // Mathematical Operators (U+2200–U+22FF): ≤ ≥ √ ∑ ≈ …; ± × · are in the latin file.
+  if (ch >= 0x2200 && ch <= 0x22ff && ch !== 0x2212) return '-math';
   if (ch >= 0x0100 && ch <= 0x024f) return '-ext';
   return '';
 }
 
 /** Splits text into runs drawn by one subset each (most text is one latin run). */
-export function fontRuns(text: string): { text: string; subset: '' | '-ext' | '-greek' }[] {
-  const runs: { text: string; subset: '' | '-ext' | '-greek' }[] = [];
+export function fontRuns(text: string): { text: string; subset: Subset }[] {
+  const runs: { text: string; subset: Subset }[] = [];
   for (const ch of text) {
     const s = subsetOf(ch.codePointAt(0)!);
     const last = runs[runs.length - 1];
@@ -48,19 +59,12 @@ export function fontRuns(text: string): { text: string; subset: '' | '-ext' | '-
   return runs;
 }
 
-/** Characters our subsets lack, replaced by look-alikes the latin file has. */
+/** Characters none of our font files has, replaced by look-alikes (subscript digits). */
 const REPLACE: Record<string, string> = {
-  '≤': '<=',
-  '≥': '>=',
-  '√': 'sqrt',
   '₁': '1',
   '₂': '2',
-  ȳ: 'y',
 };
 
 export function printable(text: string): string {
-  // "√p" would print as "sqrtp": a root over a bare symbol gets parentheses, sqrt(p).
-  return text
-    .replace(/√([\p{L}\p{N}_*]+)/gu, 'sqrt($1)')
-    .replace(/[≤≥√₁₂ȳ]/g, (c) => REPLACE[c] ?? c);
+  return text.replace(/[₁₂]/g, (c) => REPLACE[c] ?? c);
 }

@@ -4,12 +4,13 @@
  * marked), the score chart with its code marked, and its Track record. Other labs appear only
  * as codes (in the charts, unnamed bars).
  */
+import { SIGNAL_LIMITS } from '../../shared/stats/scores';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
 import { explainScore } from '../../shared/evaluation/explain';
 import { trackRecordOption } from '../charts/options';
 import { renderChartSvg } from '../charts/render';
 import { mainScore, type ParticipantReportInput, type ReportGroup } from '../model';
-import { fixed, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
+import { day, fixed, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
 import {
   createDoc,
   figure,
@@ -136,7 +137,7 @@ export async function buildParticipantReportPdf(input: ParticipantReportInput): 
   write(
     doc,
     issued
-      ? `Scores of rounds published up to this report’s issue date (${issued.slice(0, 10)}); later rounds are not shown.`
+      ? `Scores of rounds published up to this report’s issue date (${day(issued)}); later rounds are not shown.`
       : 'Scores of every round published so far (this is a preview, not an issued report).',
     { size: 9, colour: PALETTE.grey, gap: 4 },
   );
@@ -149,7 +150,7 @@ export async function buildParticipantReportPdf(input: ParticipantReportInput): 
     const width = doc.page.width - 2 * MARGIN;
     figure(
       doc,
-      `Track record of participant ${input.participantCode}: its z-scores per round and item, with the warning (±2) and action (±3) limits.`,
+      `Track record of participant ${input.participantCode}: its z-scores per round and item, with the warning (±${SIGNAL_LIMITS.warning}) and action (±${SIGNAL_LIMITS.action}) limits.`,
       () => {
         h = drawSvg(doc, renderChartSvg(option, 600, 280), MARGIN, y, width);
       },

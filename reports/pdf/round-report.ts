@@ -5,6 +5,9 @@
  * scores; blunder hints in general words; the confidentiality statement. Codes only: no lab
  * name is ever read by this builder.
  */
+import { SIGNAL_RULE_TEXT } from '../../shared/charts/signals';
+import { SIGNAL_LIMITS } from '../../shared/stats/scores';
+import { sigmaPtRuleWords } from '../../shared/contracts/rule-text';
 import { distributionOption, offScale, scoreBarOption, scoresOffScale } from '../charts/options';
 import { renderChartSvg } from '../charts/render';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
@@ -12,15 +15,16 @@ import {
   METHOD_WORDS,
   recordChecksum,
   reportStatusWords,
-  sigmaPtRuleWords,
   type ReportGroup,
   type ReportStudy,
   type RoundReportInput,
 } from '../model';
 import {
+  day,
+  dayTime,
   fixed,
-  hintWords,
   HINT_WORDS,
+  hintWords,
   PALETTE,
   SCORE_DECIMALS,
   SIGNAL_COLOURS,
@@ -93,8 +97,6 @@ export function reissueNotice(input: RoundReportInput): string | null {
     : null;
 }
 
-const day = (iso: string | null | undefined) => (iso ? iso.slice(0, 10) : '—');
-
 /** The document's dates: issued = published (creation date), file made = now (modification date). */
 export function docDates(input: RoundReportInput): { createdAt: Date; modifiedAt: Date } {
   const made = new Date(input.generatedAt);
@@ -160,10 +162,7 @@ export function cover(doc: Doc, input: RoundReportInput, kind: string, extra: st
         ? `${day(round.dispatchedAt)}${round.dispatchPlanned ? ' (planned date)' : ''}`
         : '—',
     ],
-    [
-      'Results due',
-      round.resultsDueAt ? `${round.resultsDueAt.slice(0, 16).replace('T', ' ')} UTC` : '—',
-    ],
+    ['Results due', dayTime(round.resultsDueAt)],
     [
       'Authorised by',
       input.provider.authoriserName
@@ -172,7 +171,7 @@ export function cover(doc: Doc, input: RoundReportInput, kind: string, extra: st
     ],
     [
       'This file made',
-      `${input.generatedAt.slice(0, 16).replace('T', ' ')} UTC with Ringlet ${evaluation.softwareVersion}${evaluation.publishedAt && input.generatedAt.slice(0, 10) !== evaluation.publishedAt.slice(0, 10) ? ' (regenerated from the record of the issued version; contents as issued)' : ''}`,
+      `${dayTime(input.generatedAt)} with Ringlet ${evaluation.softwareVersion}${evaluation.publishedAt && day(input.generatedAt) !== day(evaluation.publishedAt) ? ' (regenerated from the record of the issued version; contents as issued)' : ''}`,
     ],
   ];
   wrapTable(
@@ -338,7 +337,7 @@ function methodsSection(doc: Doc, input: RoundReportInput): void {
     'The standard deviation for proficiency assessment σ_pt follows ISO 13528:2015 §8, by the rule stated for each item and measurand in the table below.',
     'u(x_pt) is negligible when u(x_pt) ≤ 0.3 σ_pt (ISO 13528:2015 §9.2); then z = (x − x_pt)/σ_pt is used, otherwise z′ = (x − x_pt)/√(σ_pt² + u²(x_pt)). ' +
       'ζ = (x − x_pt)/√(u²(x) + u²(x_pt)) and En = (x − x_pt)/√(U²(x) + U²(x_pt)) where the participant reported an uncertainty.',
-    'Signals: |score| ≤ 2 acceptable, 2 < |score| < 3 warning signal, |score| ≥ 3 action signal; |En| ≤ 1 acceptable, > 1 action signal (ISO 13528:2015 §9; ISO/IEC 17043).',
+    `Signals: ${SIGNAL_RULE_TEXT} (ISO 13528:2015 §9; ISO/IEC 17043).`,
   ];
   if (input.groups.some((g) => g.sigmaPtRule.kind === 'precision')) {
     lines.push(
@@ -447,7 +446,7 @@ export function drawGroupCharts(
   );
   figure(
     doc,
-    `Scores of every participant for item ${g.itemCode}, ${g.measurandName}, in ascending order, with the warning (±2) and action (±3) limits.`,
+    `Scores of every participant for item ${g.itemCode}, ${g.measurandName}, in ascending order, with the warning (±${SIGNAL_LIMITS.warning}) and action (±${SIGNAL_LIMITS.action}) limits.`,
     () => {
       h2 = drawSvg(doc, renderChartSvg(bars, 400, 260), MARGIN + width + 10, y, width);
     },

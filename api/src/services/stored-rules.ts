@@ -5,11 +5,12 @@
  */
 import * as z from 'zod';
 import {
-  AssignedValueRuleSchema,
-  SigmaPtRuleSchema,
-  type AssignedValueRuleInput,
-  type SigmaPtRuleInput,
-} from '../../../shared/contracts/evaluation';
+  AssignedValueRuleInput as AssignedValueRuleSchema,
+  SigmaPtRuleInput as SigmaPtRuleSchema,
+} from '../../../shared/contracts/rules';
+
+type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;
+type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleSchema>;
 import { ruleBroken } from '../http/errors';
 
 const finite = z.number().refine(Number.isFinite);
@@ -25,6 +26,7 @@ const StoredSigmaPtRule: z.ZodType<SigmaPtRuleInput> = z.discriminatedUnion('kin
     sigmaRepeatability: finite.optional(),
     replicates: z.number().int().optional(),
     source: z.string().optional(),
+    study: z.object({ roundId: z.string(), roundCode: z.string() }).optional(),
   }),
 ]);
 

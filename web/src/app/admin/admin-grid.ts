@@ -21,11 +21,5 @@ ModuleRegistry.registerModules([
 
 export { ringletGridTheme } from '../grid/grid-theme';
 
-/** Dates on the wire are ISO 8601 UTC; show them in the user's locale. */
-export function formatDateTime(iso: string | null | undefined): string {
-  if (!iso) return '—';
-  const date = new Date(iso);
-  return Number.isNaN(date.getTime())
-    ? iso
-    : date.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-}
+/** Dates on the wire are ISO 8601 UTC; shown in the user's locale (core/format.ts). */
+export { formatDateTime } from '../core/format';

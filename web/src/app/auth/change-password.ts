@@ -5,16 +5,22 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { ChangePasswordRequest } from '@ringlet/shared/contracts/auth';
-import { NewPassword } from '@ringlet/shared/contracts/common';
 import { AuthService } from '../core/auth.service';
 import { fieldIssuesOf, problemMessage, problemOf } from '../core/problem';
-import { applyServerIssues, errorMessage, zodValidator } from '../core/zod-form-errors';
+import { applyServerIssues, errorMessage } from '../core/zod-form-errors';
+import { NEW_PASSWORD_VALIDATORS, NewPasswordField } from './new-password-field';
 
 /** A signed-in user changes their password; every other session of the account ends. */
 @Component({
   selector: 'app-change-password',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule, MatButtonModule],
+  imports: [
+    ReactiveFormsModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+    NewPasswordField,
+  ],
   template: `
     <section class="card">
       <h1 data-testid="page-heading">Change password</h1>
@@ -36,18 +42,7 @@ import { applyServerIssues, errorMessage, zodValidator } from '../core/zod-form-
             />
             <mat-error>{{ errorMessage(form.controls.currentPassword) }}</mat-error>
           </mat-form-field>
-          <mat-form-field>
-            <mat-label>New password</mat-label>
-            <input
-              matInput
-              formControlName="password"
-              type="password"
-              autocomplete="new-password"
-              required
-            />
-            <mat-hint>At least 12 characters.</mat-hint>
-            <mat-error>{{ errorMessage(form.controls.password) }}</mat-error>
-          </mat-form-field>
+          <app-new-password-field [control]="form.controls.password" />
           @if (failure(); as message) {
             <p class="form-error" role="alert">{{ message }}</p>
           }
@@ -68,7 +63,7 @@ export class ChangePassword {
   protected readonly errorMessage = errorMessage;
   protected readonly form = inject(NonNullableFormBuilder).group({
     currentPassword: ['', [Validators.required]],
-    password: ['', [Validators.required, zodValidator(NewPassword)]],
+    password: ['', NEW_PASSWORD_VALIDATORS],
   });
 
   protected submit(): void {

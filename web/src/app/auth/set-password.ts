@@ -12,10 +12,10 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { type PasswordTokenInfo, SetPasswordRequest } from '@ringlet/shared/contracts/auth';
-import { NewPassword } from '@ringlet/shared/contracts/common';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
 import { AuthService } from '../core/auth.service';
-import { applyServerIssues, errorMessage, zodValidator } from '../core/zod-form-errors';
+import { applyServerIssues, errorMessage } from '../core/zod-form-errors';
+import { NEW_PASSWORD_VALIDATORS, NewPasswordField } from './new-password-field';
 
 function passwordsMatch(group: AbstractControl): ValidationErrors | null {
   const password: unknown = group.get('password')?.value;
@@ -33,7 +33,14 @@ function passwordsMatch(group: AbstractControl): ValidationErrors | null {
 @Component({
   selector: 'app-set-password',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, RouterLink, MatFormFieldModule, MatInputModule, MatButtonModule],
+  imports: [
+    ReactiveFormsModule,
+    RouterLink,
+    MatFormFieldModule,
+    MatInputModule,
+    MatButtonModule,
+    NewPasswordField,
+  ],
   template: `
     <section class="card">
       <h1 data-testid="page-heading">
@@ -56,18 +63,7 @@ function passwordsMatch(group: AbstractControl): ValidationErrors | null {
             For <strong data-testid="token-email">{{ info()?.email }}</strong>
           </p>
           <form [formGroup]="form" (ngSubmit)="submit()" novalidate class="form-stack">
-            <mat-form-field>
-              <mat-label>New password</mat-label>
-              <input
-                matInput
-                formControlName="password"
-                type="password"
-                autocomplete="new-password"
-                required
-              />
-              <mat-hint>At least 12 characters.</mat-hint>
-              <mat-error>{{ errorMessage(form.controls.password) }}</mat-error>
-            </mat-form-field>
+            <app-new-password-field [control]="form.controls.password" />
             <mat-form-field>
               <mat-label>Confirm password</mat-label>
               <input
@@ -105,7 +101,7 @@ export class SetPassword implements OnInit {
   protected readonly errorMessage = errorMessage;
   protected readonly form = inject(NonNullableFormBuilder).group(
     {
-      password: ['', [Validators.required, zodValidator(NewPassword)]],
+      password: ['', NEW_PASSWORD_VALIDATORS],
       confirm: ['', [Validators.required]],
     },
     { validators: passwordsMatch },

@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } from '@angular/core';
+import { formatDate } from '../core/format';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -157,6 +158,6 @@ export class InvestigationPage implements OnInit {
   }
 
   protected date(iso: string): string {
-    return new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' });
+    return formatDate(iso);
   }
 }

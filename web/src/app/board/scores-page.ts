@@ -1,4 +1,5 @@
 import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } from '@angular/core';
+import { formatDate } from '../core/format';
 import { RouterLink } from '@angular/router';
 import type { LabScores } from '@ringlet/shared/contracts/evaluation';
 import { problemMessage } from '../core/problem';
@@ -119,6 +120,6 @@ export class ScoresPage implements OnInit {
   }
 
   protected date(iso: string): string {
-    return new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' });
+    return formatDate(iso);
   }
 }

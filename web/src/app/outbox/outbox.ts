@@ -6,6 +6,7 @@ import {
   inject,
   signal,
 } from '@angular/core';
+import { formatDateTime } from '../core/format';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatListModule } from '@angular/material/list';
@@ -156,6 +157,6 @@ export class Outbox implements OnInit {
   }
 
   protected when(iso: string): string {
-    return new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+    return formatDateTime(iso);
   }
 }

@@ -3,3 +3,4 @@ export * from './evaluate';
 export * from './board';
 export * from './explain';
 export * from './run-rules';
+export * from './precision-study';

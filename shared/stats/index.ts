@@ -9,3 +9,5 @@ export * from './blunder-hints';
 export * from './kde';
 export * from './evaluate-round';
 export * from './precision';
+export * from './precision-fit';
+export * from './precision-bias';

@@ -1,0 +1,113 @@
+import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { AgGridAngular } from 'ag-grid-angular';
+import type { ColDef, RowClassParams, RowStyle } from 'ag-grid-community';
+import {
+  PRECISION_TEST_LABELS,
+  type PrecisionCellResult,
+  type PrecisionMeasurandResult,
+} from '@ringlet/shared/contracts/precision';
+import { ClassCell } from './class-cell';
+import { ringletGridTheme } from './precision-grid';
+import { CLASS_WORDS, fix, replicatesText } from './precision-view';
+
+/** The cells of one level: each lab's replicates, n, mean, SD, h, k and what the tests made of it. */
+@Component({
+  selector: 'app-precision-cells-grid',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [AgGridAngular],
+  templateUrl: './cells-grid.html',
+  styles: `
+    .precision-grid {
+      width: 100%;
+      margin-bottom: 8px;
+    }
+  `,
+})
+export class CellsGrid {
+  readonly cells = input.required<readonly PrecisionCellResult[]>();
+  readonly measurand = input.required<PrecisionMeasurandResult>();
+  readonly caption = input.required<string>();
+  protected readonly theme = ringletGridTheme;
+  protected readonly rowId = (p: { data: PrecisionCellResult }) => p.data.participantCode;
+  /** A cell set aside reads grey and italic (its "Set aside" column says so in words). */
+  protected readonly rowStyle = ({
+    data,
+  }: RowClassParams<PrecisionCellResult>): RowStyle | undefined =>
+    data?.excluded ? { color: '#6b7685', fontStyle: 'italic' } : undefined;
+  protected readonly rows = computed(() => [...this.cells()]);
+  protected readonly columns = computed<ColDef<PrecisionCellResult>[]>(() => {
+    const m = this.measurand();
+    const u = m.unit ? ` (${m.unit})` : '';
+    const d = m.decimals;
+    return [
+      { field: 'participantCode', headerName: 'Code', width: 90 },
+      {
+        colId: 'replicates',
+        headerName: `Replicates${u}`,
+        minWidth: 200,
+        flex: 1,
+        valueGetter: ({ data }) => (data ? replicatesText(data, d) : ''),
+      },
+      { field: 'n', headerName: 'n', width: 60, type: 'rightAligned' },
+      {
+        field: 'mean',
+        headerName: `Cell mean${u}`,
+        width: 130,
+        type: 'rightAligned',
+        valueFormatter: ({ value }) => fix(value as number | null, d + 1),
+      },
+      {
+        field: 'sd',
+        headerName: `Cell SD${u}`,
+        width: 120,
+        type: 'rightAligned',
+        valueFormatter: ({ value }) => fix(value as number | null, d + 2),
+      },
+      {
+        field: 'h',
+        headerName: 'h',
+        width: 80,
+        type: 'rightAligned',
+        valueFormatter: ({ value }) => fix(value as number | null, 2),
+      },
+      {
+        field: 'k',
+        headerName: 'k',
+        width: 80,
+        type: 'rightAligned',
+        valueFormatter: ({ value }) => fix(value as number | null, 2),
+      },
+      {
+        field: 'classification',
+        headerName: 'Tests',
+        width: 130,
+        cellRenderer: ClassCell,
+      },
+      {
+        colId: 'flags',
+        headerName: 'Flags',
+        minWidth: 220,
+        flex: 1,
+        wrapText: true,
+        autoHeight: true,
+        valueGetter: ({ data }) =>
+          data
+            ? data.flags
+                .map((f) => `${PRECISION_TEST_LABELS[f.test]}: ${CLASS_WORDS[f.classification]}`)
+                .join('; ') || '—'
+            : '',
+      },
+      {
+        colId: 'excluded',
+        headerName: 'Set aside',
+        width: 110,
+        valueGetter: ({ data }) =>
+          data?.excluded
+            ? 'Whole cell'
+            : data?.replicates.some((r) => r.excluded)
+              ? 'Replicate'
+              : '—',
+      },
+    ];
+  });
+}

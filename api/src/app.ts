@@ -22,6 +22,7 @@ import { roundRoutes } from './routes/rounds';
 import { benchRoutes } from './routes/bench';
 import { systemRoutes } from './routes/system';
 import { evaluationRoutes } from './routes/evaluation';
+import { precisionRoutes } from './routes/precision';
 import { reportRoutes } from './routes/reports';
 import { providerRoutes } from './routes/provider';
 import { assessorRoutes } from './routes/assessor';
@@ -144,6 +145,7 @@ export function createApp(deps: AppDeps): RingletApp {
   reportRoutes(api, ctx);
   providerRoutes(api, ctx);
   assessorRoutes(api, ctx);
+  precisionRoutes(api, ctx);
 
   let openApi: object | undefined;
   const document = () => (openApi ??= buildOpenApi(api.routes, VERSION));

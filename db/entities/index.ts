@@ -21,6 +21,7 @@ import { HomogeneityStudy, ReminderLog } from './round-desk';
 import { AssessorGrant, Evaluation, EvaluationResult, Investigation } from './evaluation';
 import { Report } from './report';
 import { ProviderProfile } from './provider-profile';
+import { PrecisionExclusion, PrecisionReference } from './precision';
 
 export { AuditEvent, MailMessage, Membership, Organisation, PasswordToken, User };
 export {
@@ -40,6 +41,7 @@ export { Attachment, InstrumentCheck };
 export { AssessorGrant, Evaluation, EvaluationResult, Investigation };
 export { Report };
 export { ProviderProfile };
+export { PrecisionExclusion, PrecisionReference };
 
 /** Every entity, registered with the DataSource. Append new ones at the end. */
 export const entities = [
@@ -69,4 +71,6 @@ export const entities = [
   AssessorGrant,
   Report,
   ProviderProfile,
+  PrecisionReference,
+  PrecisionExclusion,
 ];

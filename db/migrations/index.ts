@@ -7,6 +7,7 @@ import { Reports1764651600000 } from './1764651600000-reports';
 import { LabInvitations1764900000201 } from './1764900000201-lab-invitations';
 import { AppendOnlyResults1764900000400 } from './1764900000400-append-only-results';
 import { ProviderProfile1764900000600 } from './1764900000600-provider-profile';
+import { PrecisionStudies1765000000100 } from './1765000000100-precision-studies';
 
 /** Every migration in order. Add new ones at the end (see DEVELOPERS.md, "Migrations"). */
 export const migrations = [
@@ -19,4 +20,5 @@ export const migrations = [
   LabInvitations1764900000201,
   AppendOnlyResults1764900000400,
   ProviderProfile1764900000600,
+  PrecisionStudies1765000000100,
 ];

@@ -35,6 +35,7 @@ import {
 } from '../../api/src/services/evaluation';
 import { loadSessionUser } from '../../api/src/services/users';
 import { CODE_ALPHABET } from '../../api/src/services/enrolment';
+import { seedPrecisionStudy } from './demo-precision';
 
 export const DEMO_SCHEME_CODE = 'NPS-DLS';
 
@@ -394,6 +395,7 @@ export async function seedScenario(
     await instrumentChecks(em, labIds, rnd, now);
     await grants(em, labIds, now);
   });
+  await seedPrecisionStudy(ds, ctx, actor, scheme.id, labIds, now);
 }
 
 /** One lab's results for a round, with the story's blunders written in. */

@@ -29,6 +29,8 @@ export const MyRound = z.object({
   roundId: Id,
   code: z.string(),
   title: z.string(),
+  /** 'precision': an ISO 5725-2 precision study (no scores for labs; the web says "Precision study"). */
+  kind: z.enum(['pt', 'precision']),
   state: RoundState,
   status: MyRoundStatus,
   participantCode: z.string().nullable(),

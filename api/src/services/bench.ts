@@ -128,6 +128,7 @@ function myRound(
     roundId: round.id,
     code: round.code,
     title: round.title,
+    kind: round.kind,
     state: round.state,
     status: statusOf(round, enrolment, version, now),
     participantCode: enrolment?.participantCode ?? null,

@@ -2,7 +2,7 @@
 import type { LabScores, ParticipantScore } from '../../../shared/contracts/evaluation';
 import { explainScore } from '../../../shared/evaluation/explain';
 import { labIds, type SessionUser } from '../auth/session-user';
-import { notFound } from '../http/errors';
+import { notFound, ruleBroken } from '../http/errors';
 import type { AppContext } from './context';
 
 /** Picks the user's lab enrolled in the round (or the one asked for); 404 for anything else. */
@@ -37,6 +37,15 @@ export async function myScores(
   labId?: string,
 ): Promise<LabScores> {
   const en = await myEnrolment(ctx, user, roundId, labId);
+  const kinds: { kind: string; code: string }[] = await ctx.ds.query(
+    'SELECT kind, code FROM round WHERE id = $1',
+    [roundId],
+  );
+  if (kinds[0]?.kind === 'precision')
+    throw ruleBroken(
+      'precision_study_no_scores',
+      `Round ${kinds[0].code} is a precision study (ISO 5725-2): labs get no z-scores.`,
+    );
   const heads: {
     id: string;
     version: number;

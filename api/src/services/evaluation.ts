@@ -386,6 +386,11 @@ export async function computeDraft(
   const settings = EvaluationSettings.parse(input ?? {});
   return ctx.ds.transaction(async (em) => {
     const round = await lockRound(em, roundId);
+    if (round.kind === 'precision')
+      throw ruleBroken(
+        'precision_study_no_scores',
+        `Round ${round.code} is a precision study (ISO 5725-2): labs get no z-scores; its repeatability and reproducibility are on the precision page.`,
+      );
     if (round.state !== 'closed') {
       throw conflict(
         'round_not_closed',

@@ -1,7 +1,7 @@
 import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } from '@angular/core';
 import { RouterLink } from '@angular/router';
 import type { LabScores } from '@ringlet/shared/contracts/evaluation';
-import { problemMessage } from '../core/problem';
+import { problemMessage, problemOf } from '../core/problem';
 import { SignalBadge } from '../core/signal-badge';
 import { BoardService } from './board.service';
 
@@ -109,7 +109,12 @@ export class ScoresPage implements OnInit {
   ngOnInit(): void {
     this.service.myScores(this.id()).subscribe({
       next: (d) => this.data.set(d),
-      error: (e: unknown) => this.error.set(problemMessage(e)),
+      error: (e: unknown) =>
+        this.error.set(
+          problemOf(e)?.code === 'precision_study_no_scores'
+            ? 'This round is a precision study: it estimates the method’s repeatability and reproducibility and does not score labs.'
+            : problemMessage(e),
+        ),
     });
   }
 

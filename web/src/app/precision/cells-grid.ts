@@ -7,7 +7,7 @@ import {
   type PrecisionMeasurandResult,
 } from '@ringlet/shared/contracts/precision';
 import { ClassCell } from './class-cell';
-import { ringletGridTheme } from './precision-grid';
+import { precisionGridTheme } from './precision-grid';
 import { CLASS_WORDS, fix, replicatesText } from './precision-view';
 
 /** The cells of one level: each lab's replicates, n, mean, SD, h, k and what the tests made of it. */
@@ -27,7 +27,7 @@ export class CellsGrid {
   readonly cells = input.required<readonly PrecisionCellResult[]>();
   readonly measurand = input.required<PrecisionMeasurandResult>();
   readonly caption = input.required<string>();
-  protected readonly theme = ringletGridTheme;
+  protected readonly theme = precisionGridTheme;
   protected readonly rowId = (p: { data: PrecisionCellResult }) => p.data.participantCode;
   /** A cell set aside reads grey and italic (its "Set aside" column says so in words). */
   protected readonly rowStyle = ({

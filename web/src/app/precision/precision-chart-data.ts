@@ -13,7 +13,7 @@ import {
   PRECISION_CLASS_WORDS,
   type FittedCurve,
   type LevelPoint,
-} from '@ringlet/shared/charts/precision-charts';
+} from '@ringlet/shared/charts/precision-level-charts';
 import type { ChartTable } from '../board/chart-panel';
 import { curveOf, mandelBars } from './precision-view';
 

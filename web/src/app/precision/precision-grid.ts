@@ -14,4 +14,7 @@ ModuleRegistry.registerModules([
   RowAutoHeightModule,
 ]);
 
-export { ringletGridTheme } from '../grid/grid-theme';
+import { ringletGridTheme } from '../grid/grid-theme';
+
+/** Ringlet's grid look; a short table (one row per level) does not keep an empty body below it. */
+export const precisionGridTheme = ringletGridTheme.withParams({ autoHeightMinBodyHeight: 0 });

@@ -89,6 +89,10 @@ export class PrecisionPage implements OnInit {
   );
   protected readonly reportBase = computed(() => `/rounds/${this.id()}/reports/`);
 
+  protected count(n: number, one: string, many: string): string {
+    return `${n} ${n === 1 ? one : many}`;
+  }
+
   ngOnInit(): void {
     this.service.analysis(this.id()).subscribe({
       next: (a) => this.stored.set(a),

@@ -16,7 +16,7 @@ import type {
   PrecisionTest,
 } from '@ringlet/shared/contracts/precision';
 import { PRECISION_TEST_LABELS } from '@ringlet/shared/contracts/precision';
-import type { FittedCurve, MandelBar } from '@ringlet/shared/charts/precision-charts';
+import type { FittedCurve, MandelBar } from '@ringlet/shared/charts/precision-level-charts';
 import type { SignalKind } from '../core/signal-badge';
 
 /**

@@ -5,7 +5,7 @@ import type {
   PrecisionLevelResult,
   PrecisionMeasurandResult,
 } from '@ringlet/shared/contracts/precision';
-import { ringletGridTheme } from './precision-grid';
+import { precisionGridTheme } from './precision-grid';
 import { fix } from './precision-view';
 
 /** One row per level of a measurand: p, Σn, m̂, s_r, s_L, s_R, r = 2.8·s_r, R = 2.8·s_R. */
@@ -23,7 +23,7 @@ import { fix } from './precision-view';
 })
 export class SummaryGrid {
   readonly measurand = input.required<PrecisionMeasurandResult>();
-  protected readonly theme = ringletGridTheme;
+  protected readonly theme = precisionGridTheme;
   protected readonly rowId = (p: { data: PrecisionLevelResult }) => p.data.itemCode;
   protected readonly columns = computed<ColDef<PrecisionLevelResult>[]>(() => {
     const m = this.measurand();
@@ -44,7 +44,14 @@ export class SummaryGrid {
       valueFormatter: ({ value }) => fix(value as number | null, decimals),
     });
     return [
-      { field: 'itemLabel', headerName: 'Level', minWidth: 160, flex: 1 },
+      {
+        field: 'itemLabel',
+        headerName: 'Level',
+        minWidth: 240,
+        flex: 1,
+        wrapText: true,
+        autoHeight: true,
+      },
       {
         colId: 'p',
         headerName: 'p (of reported)',

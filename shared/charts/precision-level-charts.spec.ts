@@ -8,7 +8,7 @@ import {
   mandelOption,
   mandelText,
   type MandelBar,
-} from './precision-charts';
+} from './precision-level-charts';
 
 interface BarSeries {
   data: { value: number; itemStyle: { color: string } }[];

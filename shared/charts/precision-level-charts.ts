@@ -1,6 +1,8 @@
 /**
- * ECharts option builders for a precision study (ISO 5725-2): Mandel's h and k per lab with the
- * 1 % and 5 % indicator lines, and the level dependence of s_r and s_R (§7.5). Pure functions, no
+ * ECharts option builders for one level of a precision study (ISO 5725-2): Mandel's h and k per
+ * lab with the 1 % and 5 % indicator lines and each bar's class by shape and word, and the level
+ * dependence of s_r and s_R (§7.5). (./precision-charts.ts draws h and k of all levels grouped per
+ * lab, for the report.) Pure functions, no
  * DOM, so the browser (ngx-echarts) and the server report (echarts SSR) draw the same charts.
  * Each builder has a text alternative beside it.
  *

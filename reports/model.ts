@@ -184,6 +184,6 @@ export function sigmaPtRuleWords(rule: ItemMeasurandEvaluation['sigmaPtRule']): 
     case 'robust-sd':
       return 'robust standard deviation of the participants’ results (Algorithm A)';
     case 'precision':
-      return `from a precision experiment (ISO 13528 §8.4; σ_R = ${rule.sigmaR}${rule.source ? `, ${rule.source}` : ''})`;
+      return `from a precision experiment (ISO 13528 §8.4; σ_R = ${rule.sigmaR}${rule.study ? `, precision study ${rule.study.roundCode}` : ''}${rule.source ? `, ${rule.source}` : ''})`;
   }
 }

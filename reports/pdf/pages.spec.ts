@@ -14,6 +14,8 @@ import { buildCertificatePdf } from './certificate';
 import { createDoc, figure, finishDoc, layoutProbe, write } from './document';
 import { buildParticipantReportPdf } from './participant-report';
 import { buildRoundReportPdf } from './round-report';
+import { buildPrecisionReportPdf } from './precision-report';
+import { syntheticPrecisionInput } from '../testing/synthetic-precision';
 
 /** A solid-black region larger than this (points², about 39 × 39 pt) fails a page. */
 const MAX_BLACK = 1500;
@@ -79,6 +81,7 @@ const builders: [string, () => Promise<Buffer>][] = [
   ],
   ['individual report', () => buildParticipantReportPdf(participantWithFarScores())],
   ['certificate', () => buildCertificatePdf(syntheticParticipantInput({ participants: 10 }, 1))],
+  ['precision study report', () => buildPrecisionReportPdf(syntheticPrecisionInput())],
   [
     'investigations',
     () =>

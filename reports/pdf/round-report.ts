@@ -67,7 +67,7 @@ export const USE_CAUTION =
 export const NO_SUBCONTRACTING_STATED =
   'The PT provider has not stated any subcontracted work for this round.';
 
-function providerName(input: RoundReportInput): string {
+function providerName(input: Pick<RoundReportInput, 'provider'>): string {
   return input.provider.name || 'PT provider (name not yet set in the provider profile)';
 }
 
@@ -105,7 +105,7 @@ export function docDates(input: RoundReportInput): { createdAt: Date; modifiedAt
 }
 
 /** The provider block: logo, name, address, contact, accreditation. */
-function providerBlock(doc: Doc, input: RoundReportInput): void {
+export function providerBlock(doc: Doc, input: Pick<RoundReportInput, 'provider'>): void {
   const p = input.provider;
   if (p.logo) {
     const y = doc.y;

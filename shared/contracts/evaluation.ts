@@ -28,6 +28,8 @@ export const SigmaPtRuleSchema = z.discriminatedUnion('kind', [
     sigmaRepeatability: boundedNumber('sigmaPt', { label: 'σ_r' }).optional(),
     replicates: z.number().int().min(1).max(20).optional(),
     source: singleLine(500).optional(),
+    /** The finished precision study σ_R comes from (see shared/contracts/rounds.ts). */
+    study: z.object({ roundId: Id, roundCode: singleLine(30, { min: 1 }) }).optional(),
   }),
 ]);
 export type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;

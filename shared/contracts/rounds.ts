@@ -38,6 +38,8 @@ export const SigmaPtRuleInput = z.discriminatedUnion('kind', [
     sigmaRepeatability: boundedNumber('sigmaPt', { label: 'σ_r' }).optional(),
     replicates: z.number().int().min(1).max(20).optional(),
     source: singleLine(500).optional(),
+    /** The finished precision study of the scheme that σ_R comes from (GET /schemes/{id}/precision-sources). */
+    study: z.object({ roundId: Id, roundCode: singleLine(30, { min: 1 }) }).optional(),
   }),
 ]);
 export type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleInput>;

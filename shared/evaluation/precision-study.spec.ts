@@ -91,4 +91,26 @@ describe('analysePrecisionStudy', () => {
     expect(b.bias).toBeCloseTo(a.measurands[0].levels[0].mean! - 196, 12);
     expect(b.n).toBe(5);
   });
+
+  it('degenerate studies give nulls and notes, never NaN or a throw', () => {
+    const a = analysePrecisionStudy(
+      input({
+        levels: [
+          { itemCode: 'A', label: 'A' },
+          { itemCode: 'B', label: 'B' },
+        ],
+        cells: [
+          { itemCode: 'A', measurandKey: 'z', participantCode: 'P1', values: [5] },
+          { itemCode: 'A', measurandKey: 'z', participantCode: 'P2', values: [5, 5] },
+        ],
+      }),
+    );
+    const [la, lb] = a.measurands[0].levels;
+    expect(la.sR).toBe(0); // both labs report 5 exactly
+    expect(la.warnings.length).toBeGreaterThan(0);
+    expect(lb.p).toBe(0);
+    expect(lb.warnings).toContain('No results kept at this level.');
+    expect(JSON.stringify(a)).not.toMatch(/NaN|Infinity/);
+    expect(a.measurands[0].fit.sR?.chosen ?? null).toBeNull();
+  });
 });

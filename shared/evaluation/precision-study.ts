@@ -21,7 +21,7 @@ import type {
   PrecisionPending,
   PrecisionStudyInput,
 } from '../contracts/precision';
-import { precisionAnalysis, type GrubbsResult } from '../stats/precision';
+import { precisionAnalysis, type GrubbsResult, type PrecisionResult } from '../stats/precision';
 import { fitLevelDependence } from '../stats/precision-fit';
 import { methodBias } from '../stats/precision-bias';
 
@@ -112,9 +112,17 @@ function analyseLevel(ctx: LevelContext): {
   });
 
   const warnings: string[] = [];
-  const result = kept.length > 0 ? precisionAnalysis(kept) : null;
-  if (!result) warnings.push('No results kept at this level.');
-  else warnings.push(...result.warnings);
+  let result: PrecisionResult | null = null;
+  if (kept.length > 0) {
+    try {
+      result = precisionAnalysis(kept);
+    } catch (e) {
+      // Stored data the statistics cannot take (never expected: values are bounded on entry).
+      warnings.push(`Not computed: ${e instanceof Error ? e.message : String(e)}`);
+    }
+  }
+  if (kept.length === 0) warnings.push('No results kept at this level.');
+  if (result) warnings.push(...result.warnings);
   const byCode = new Map(result?.cells.map((c) => [c.code, c]) ?? []);
 
   // Flags per cell from the tests and indicators.
@@ -220,7 +228,14 @@ function analyseLevel(ctx: LevelContext): {
 
   let bias: PrecisionLevelResult['bias'] = null;
   if (ctx.reference) {
-    if (result && result.sr !== null && result.sR !== null && mean !== null) {
+    if (
+      result &&
+      result.sr !== null &&
+      result.sR !== null &&
+      mean !== null &&
+      Number.isFinite(mean) &&
+      Number.isFinite(result.sR)
+    ) {
       const n = result.totalResults / result.p;
       const b = methodBias({
         mean,
@@ -305,7 +320,14 @@ function equation(name: string, relation: string, p: Record<string, number>): st
 }
 
 function fitOf(levels: PrecisionLevelResult[], statistic: 'sr' | 'sR'): PrecisionFit | null {
-  const used = levels.filter((l) => l.mean !== null && l.mean > 0 && (l[statistic] ?? 0) > 0);
+  const used = levels.filter(
+    (l) =>
+      l.mean !== null &&
+      Number.isFinite(l.mean) &&
+      l.mean > 0 &&
+      Number.isFinite(l[statistic] ?? NaN) &&
+      (l[statistic] ?? 0) > 0,
+  );
   if (levels.length < 2) return null;
   const m = used.map((l) => l.mean!);
   const s = used.map((l) => l[statistic]!);

@@ -203,6 +203,18 @@ describe('precision studies', () => {
       .expect(200);
     const mine = sources.body.studies.find((x: { roundId: string }) => x.roundId === s.round.id);
     expect(mine.measurands[0].levels[0].sR).toBeCloseTo(lv0.sR!, 12);
+    // a later PT round of the scheme takes σ_R from the study, named by id and code
+    const pt = await study([[100.1, 100.2]], { kind: 'pt', state: 'draft' });
+    const patch = (study: object) =>
+      coord.agent
+        .patch(api(`/rounds/${pt.round.id}/measurands/${pt.measurand.id}`))
+        .set('x-csrf-token', coord.csrf)
+        .send({
+          sigmaPtRule: { kind: 'precision', sigmaR: mine.measurands[0].levels[0].sR, study },
+        });
+    await patch({ roundId: s.round.id, roundCode: s.round.code }).expect(200);
+    const wrong = await patch({ roundId: s.round.id, roundCode: 'RR-OTHER' }).expect(422);
+    expect(wrong.body.error.code).toBe('sigma_source_invalid');
     // a finished study takes no more decisions
     await decide(s.round.id, {
       decisions: [
@@ -399,5 +411,84 @@ describe('precision studies', () => {
       .expect(404);
     const draft = await study([[1, 1.1]], { state: 'draft' });
     await coord.agent.get(api(`/rounds/${draft.round.id}/precision`)).expect(409);
+  });
+});
+
+describe('precision study reports', () => {
+  let t: TestApp;
+  let coord: Client;
+  let lab: Client;
+  let roundId: string;
+  beforeAll(async () => {
+    t = await startTestApp();
+    const scheme = await t.ds
+      .getRepository(Scheme)
+      .save({ code: 'RR-REP', name: 'Reports (test)' });
+    const labs = [];
+    for (let i = 0; i < 4; i++) labs.push((await createLab(t.ds, `Report lab ${i + 1}`)).id);
+    const s = await writePrecisionStudy(t.ds, {
+      schemeId: scheme.id,
+      code: 'RR-REP-1',
+      title: 'Report study',
+      state: 'closed',
+      levels: [
+        { code: 'A', material: 'latex 60 nm', nominalSizeNm: 60 },
+        { code: 'B', material: 'latex 200 nm', nominalSizeNm: 200 },
+      ],
+      measurand: { key: 'z', name: 'Z-average', unit: 'nm', decimals: 1, replicatesRequired: 2 },
+      labs: labs.map((organisationId, i) => ({
+        organisationId,
+        participantCode: `C${i + 1}`,
+        values: { A: [60 + i * 0.4, 60.2 + i * 0.3], B: [200 + i, 201 + i * 0.8] },
+      })),
+    });
+    roundId = s.round.id;
+    await createUser(t.ds, { email: 'coord@rep.test', roles: ['coordinator'] });
+    await createUser(t.ds, { email: 'lab@rep.test', lab: labs[0], manager: true });
+    coord = await signedIn(t, 'coord@rep.test');
+    lab = await signedIn(t, 'lab@rep.test');
+  });
+  afterAll(() => t.close());
+
+  it('PDF and workbook for the coordinator, codes only; a lab is refused', async () => {
+    const pdf = await coord.agent
+      .get(`/api/v1/rounds/${roundId}/reports/precision.pdf`)
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => cb(null, Buffer.concat(chunks)));
+      })
+      .expect(200);
+    expect(pdf.headers['content-type']).toBe('application/pdf');
+    const body = pdf.body as Buffer;
+    expect(body.subarray(0, 5).toString()).toBe('%PDF-');
+    expect(body.toString('latin1')).not.toContain('Report lab');
+    const xlsx = await coord.agent
+      .get(`/api/v1/rounds/${roundId}/reports/precision.xlsx`)
+      .buffer(true)
+      .parse((res, cb) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => cb(null, Buffer.concat(chunks)));
+      })
+      .expect(200);
+    const ExcelJS = (await import('exceljs')).default;
+    const wb = new ExcelJS.Workbook();
+    await wb.xlsx.load(xlsx.body as unknown as ArrayBuffer);
+    expect(wb.worksheets.map((w) => w.name)).toEqual([
+      'Summary',
+      'Data',
+      'Tests',
+      'Decisions',
+      'Level fit',
+      'Bias',
+    ]);
+    expect(wb.getWorksheet('Data')!.rowCount).toBe(1 + 2 * 4);
+    await lab.agent.get(`/api/v1/rounds/${roundId}/reports/precision.pdf`).expect(403);
+    const mine = await lab.agent.get('/api/v1/my/rounds').expect(200);
+    expect(mine.body.find((r: { roundId: string }) => r.roundId === roundId)?.kind).toBe(
+      'precision',
+    );
   });
 });

@@ -10,7 +10,10 @@ import {
 } from '../../../shared/contracts/precision';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../services/context';
+import { createHash } from 'node:crypto';
 import * as precision from '../services/precision';
+import { buildPrecisionReportPdf } from '../../../reports/pdf/precision-report';
+import { buildPrecisionWorkbook } from '../../../reports/excel/precision-workbook';
 
 /** Precision studies (rounds of kind 'precision', ISO 5725-2): analysis, decisions, references. */
 export function precisionRoutes(api: ApiRouter, ctx: AppContext): void {
@@ -110,4 +113,42 @@ export function precisionRoutes(api: ApiRouter, ctx: AppContext): void {
     response: PrecisionSigmaSources,
     handler: ({ params }) => precision.precisionSources(ctx, params.id),
   });
+  for (const kind of ['precision.pdf', 'precision.xlsx'] as const) {
+    const pdf = kind === 'precision.pdf';
+    api.add({
+      method: 'get',
+      path: `/rounds/{id}/reports/${kind}`,
+      tag: 'reports',
+      summary: pdf
+        ? 'Precision study report (PDF): design, data by participant code, decisions with reasons, tests, s_r, s_R, r, R, Mandel h/k charts, level fit, bias, references'
+        : 'Precision study workbook (Excel): summary, data, tests, decisions, level fit, bias',
+      description:
+        'From Collecting on; marked as a preview until the study is finished. Participant codes only.' +
+        notStudy,
+      access: coordinator,
+      params: IdParams,
+      produces: pdf
+        ? 'application/pdf'
+        : 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+      handler: async ({ params, res }) => {
+        const input = await precision.precisionReportInput(ctx, params.id);
+        const file = pdf
+          ? await buildPrecisionReportPdf(input)
+          : await buildPrecisionWorkbook(input);
+        res.setHeader(
+          'Content-Type',
+          pdf
+            ? 'application/pdf'
+            : 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+        );
+        res.setHeader(
+          'Content-Disposition',
+          `attachment; filename="${input.analysis.round.code}-precision.${pdf ? 'pdf' : 'xlsx'}"`,
+        );
+        res.setHeader('X-Content-SHA256', createHash('sha256').update(file).digest('hex'));
+        res.setHeader('Cache-Control', 'private, no-store');
+        res.status(200).send(file);
+      },
+    });
+  }
 }

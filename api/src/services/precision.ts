@@ -14,6 +14,7 @@ import {
   PrecisionExclusion,
   PrecisionReference,
   Round,
+  RoundTransition,
   Scheme,
   TestItem,
   User,
@@ -37,6 +38,9 @@ import { audit } from './audit';
 import type { AppContext } from './context';
 import { loadRoundInput } from './evaluation';
 import { lockRound, transitionRound } from './round-lifecycle';
+import { reportProvider } from './provider';
+import { VERSION } from '../version';
+import type { PrecisionReportInput } from '../../../reports/pdf/precision-report';
 
 /** States in which the analysis can be read (results may be coming in from "collecting" on). */
 const READABLE: readonly RoundState[] = [
@@ -453,4 +457,70 @@ export async function precisionSources(
     });
   }
   return { studies };
+}
+
+/** What the precision report builders read (GET /rounds/{id}/reports/precision.pdf|xlsx). */
+export async function precisionReportInput(
+  ctx: AppContext,
+  roundId: string,
+): Promise<PrecisionReportInput> {
+  const em = ctx.ds.manager;
+  const round = await em.findOne(Round, { where: { id: roundId } });
+  if (!round) throw notFound('The round');
+  assertPrecisionStudy(round);
+  assertReadable(round);
+  const { input, items } = await loadStudyInput(em, roundId);
+  const scheme = await em.findOne(Scheme, { where: { id: round.schemeId } });
+  const finished = FINISHED.includes(round.state)
+    ? await em.findOne(RoundTransition, {
+        where: { roundId, toState: 'evaluated' },
+        order: { at: 'DESC' },
+      })
+    : null;
+  return {
+    analysis: analysePrecisionStudy(input),
+    provider: await reportProvider(em),
+    schemeName: scheme?.name ?? '',
+    items: items.map((i) => ({
+      code: i.code,
+      material: i.material,
+      nominalSizeNm: i.nominalSizeNm,
+    })),
+    instructions: round.instructions,
+    protocolTemperatureC: round.protocolTemperatureC,
+    resultsDueAt: round.resultsDueAt ? round.resultsDueAt.toISOString() : null,
+    finishedAt: finished ? finished.at.toISOString() : null,
+    enrolled: await em.count(Enrolment, { where: { roundId, state: 'enrolled' } }),
+    generatedAt: new Date().toISOString(),
+    softwareVersion: VERSION,
+  };
+}
+
+/**
+ * A σ_pt rule of kind 'precision' that names its study must name a finished precision study of
+ * the same scheme, by id and code (422 naming the field otherwise).
+ */
+export async function assertSigmaSource(
+  em: EntityManager,
+  roundId: string,
+  rule: unknown,
+  field: string,
+): Promise<void> {
+  const r = rule as { kind?: string; study?: { roundId: string; roundCode: string } };
+  if (r?.kind !== 'precision' || !r.study) return;
+  const round = await em.findOne(Round, { where: { id: roundId } });
+  const study = await em.findOne(Round, { where: { id: r.study.roundId } });
+  if (
+    !round ||
+    !study ||
+    study.kind !== 'precision' ||
+    study.schemeId !== round.schemeId ||
+    study.code !== r.study.roundCode ||
+    !FINISHED.includes(study.state)
+  )
+    throw ruleBroken(
+      'sigma_source_invalid',
+      `${field}: σ_R must come from a finished precision study of the same scheme (code ${r.study.roundCode} does not name one).`,
+      [{ path: field, message: 'Pick a finished precision study of this scheme.' }],
+    );
 }

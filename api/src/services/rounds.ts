@@ -33,6 +33,7 @@ import { conflict, notFound, ruleBroken } from '../http/errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { hasOpenHomogeneityFailure, lockRound } from './round-lifecycle';
+import { assertSigmaSource } from './precision';
 
 type Out<T extends z.ZodType> = z.output<T>;
 
@@ -231,6 +232,7 @@ async function insertMeasurands(
         `measurands.${n}.key: the round already measures ${m.key}.`,
       );
     keys.add(m.key);
+    await assertSigmaSource(em, roundId, m.sigmaPtRule, `measurands.${n}.sigmaPtRule.study`);
     await em.save(
       Measurand,
       em.create(Measurand, {
@@ -473,6 +475,7 @@ export async function updateMeasurand(
     const { sigmaPtRule, assignedValueRule, ...rest } = patch;
     const key = m.key;
     Object.assign(m, rest);
+    if (sigmaPtRule) await assertSigmaSource(em, roundId, sigmaPtRule, 'sigmaPtRule.study');
     if (sigmaPtRule) m.sigmaPtRule = sigmaPtRule as Record<string, unknown>;
     if (assignedValueRule) m.assignedValueRule = assignedValueRule as Record<string, unknown>;
     const saved = await em.save(Measurand, m);

@@ -78,18 +78,18 @@ export class CellsGrid {
         valueFormatter: ({ value }) => fix(value as number | null, 2),
       },
       {
-        field: 'classification',
+        colId: 'classification',
         headerName: 'Tests',
         width: 130,
+        // A cell set aside is no longer tested: the renderer says "Set aside" instead of a class.
+        valueGetter: ({ data }) => (data?.excluded ? 'set-aside' : data?.classification),
         cellRenderer: ClassCell,
       },
       {
         colId: 'flags',
         headerName: 'Flags',
-        minWidth: 220,
+        minWidth: 260,
         flex: 1,
-        wrapText: true,
-        autoHeight: true,
         valueGetter: ({ data }) =>
           data
             ? data.flags

@@ -12,12 +12,12 @@ import { ClassBadge } from './class-badge';
   templateUrl: './class-cell.html',
 })
 export class ClassCell implements ICellRendererAngularComp {
-  protected readonly value = signal<PrecisionClassification | null>(null);
+  protected readonly value = signal<PrecisionClassification | 'set-aside' | null>(null);
   agInit(params: ICellRendererParams): void {
     this.refresh(params);
   }
   refresh(params: ICellRendererParams): boolean {
-    this.value.set((params.value as PrecisionClassification | undefined) ?? null);
+    this.value.set((params.value as PrecisionClassification | 'set-aside' | undefined) ?? null);
     return true;
   }
 }

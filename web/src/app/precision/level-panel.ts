@@ -28,4 +28,18 @@ export class LevelPanel {
   /** Test id suffix: level and measurand. */
   protected readonly tid = computed(() => `${this.level().itemCode}-${this.measurand().key}`);
   protected readonly d = computed(() => this.measurand().decimals + 2);
+  /** The bias sentence (ISO 5725-4): reference value, δ̂ = m̂ − µ and its 95 % interval. */
+  protected readonly biasText = computed(() => {
+    const b = this.level().bias;
+    if (!b) return '';
+    const u = this.unit();
+    const d = this.d();
+    const refU = b.referenceU === null ? '' : ` (u = ${fix(b.referenceU, d)}${u})`;
+    const rel = b.relativeBiasPercent === null ? '' : ` (${fix(b.relativeBiasPercent, 2)} %)`;
+    return (
+      `Reference value µ = ${fix(b.referenceValue, d)}${u}${refU} from ${b.referenceSource}. ` +
+      `Bias δ̂ = m̂ − µ = ${fix(b.bias, d)}${u}${rel}, 95 % interval ${fix(b.lower95, d)} to ` +
+      `${fix(b.upper95, d)}${u}.`
+    );
+  });
 }

@@ -38,8 +38,8 @@ export function mandelCharts(
     return {
       name: `mandel-${statistic}-${level.itemCode}-${measurand.key}`,
       caption,
-      option: mandelOption(statistic, bars, lines, caption),
-      text: mandelText(statistic, bars, lines, caption),
+      option: mandelOption(statistic, bars, lines, `Mandel's ${statistic} · ${level.itemCode}`),
+      text: mandelText(statistic, bars, lines, title),
       table: {
         columns: ['Participant code', statistic, 'Class'],
         rows: bars.map((b) => [
@@ -70,7 +70,7 @@ export function levelDependenceChart(measurand: PrecisionMeasurandResult): Preci
   return {
     name: `level-dependence-${measurand.key}`,
     caption,
-    option: levelDependenceOption(points, fits, measurand.unit, caption),
+    option: levelDependenceOption(points, fits, measurand.unit, 's_r and s_R against the level'),
     text: levelDependenceText(points, fits, measurand.unit, caption),
     table: {
       columns: ['Level', 'm', 's_r', 's_R'],

@@ -47,10 +47,8 @@ export class SummaryGrid {
       {
         field: 'itemLabel',
         headerName: 'Level',
-        minWidth: 240,
+        minWidth: 280,
         flex: 1,
-        wrapText: true,
-        autoHeight: true,
       },
       {
         colId: 'p',

@@ -28,6 +28,7 @@ interface TestRow {
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ClassBadge],
   templateUrl: './tests-table.html',
+  styleUrl: './precision.scss',
 })
 export class TestsTable {
   readonly level = input.required<PrecisionLevelResult>();

@@ -44,7 +44,7 @@ export class CellsGrid {
       {
         colId: 'replicates',
         headerName: `Replicates${u}`,
-        minWidth: 200,
+        minWidth: 170,
         flex: 1,
         valueGetter: ({ data }) => (data ? replicatesText(data, d) : ''),
       },
@@ -52,35 +52,35 @@ export class CellsGrid {
       {
         field: 'mean',
         headerName: `Cell mean${u}`,
-        width: 130,
+        width: 115,
         type: 'rightAligned',
         valueFormatter: ({ value }) => fix(value as number | null, d + 1),
       },
       {
         field: 'sd',
         headerName: `Cell SD${u}`,
-        width: 120,
+        width: 105,
         type: 'rightAligned',
         valueFormatter: ({ value }) => fix(value as number | null, d + 2),
       },
       {
         field: 'h',
         headerName: 'h',
-        width: 80,
+        width: 70,
         type: 'rightAligned',
         valueFormatter: ({ value }) => fix(value as number | null, 2),
       },
       {
         field: 'k',
         headerName: 'k',
-        width: 80,
+        width: 70,
         type: 'rightAligned',
         valueFormatter: ({ value }) => fix(value as number | null, 2),
       },
       {
         colId: 'classification',
         headerName: 'Tests',
-        width: 130,
+        width: 120,
         // A cell set aside is no longer tested: the renderer says "Set aside" instead of a class.
         valueGetter: ({ data }) => (data?.excluded ? 'set-aside' : data?.classification),
         cellRenderer: ClassCell,
@@ -88,7 +88,7 @@ export class CellsGrid {
       {
         colId: 'flags',
         headerName: 'Flags',
-        minWidth: 260,
+        minWidth: 150,
         flex: 1,
         valueGetter: ({ data }) =>
           data
@@ -96,17 +96,6 @@ export class CellsGrid {
                 .map((f) => `${PRECISION_TEST_LABELS[f.test]}: ${CLASS_WORDS[f.classification]}`)
                 .join('; ') || '—'
             : '',
-      },
-      {
-        colId: 'excluded',
-        headerName: 'Set aside',
-        width: 110,
-        valueGetter: ({ data }) =>
-          data?.excluded
-            ? 'Whole cell'
-            : data?.replicates.some((r) => r.excluded)
-              ? 'Replicate'
-              : '—',
       },
     ];
   });

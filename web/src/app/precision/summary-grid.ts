@@ -34,7 +34,7 @@ export class SummaryGrid {
       headerName: string,
       get: (l: PrecisionLevelResult) => number | null,
       decimals: number,
-      width = 110,
+      width = 95,
     ): ColDef<PrecisionLevelResult> => ({
       colId,
       headerName,
@@ -47,25 +47,23 @@ export class SummaryGrid {
       {
         field: 'itemLabel',
         headerName: 'Level',
-        minWidth: 280,
+        minWidth: 220,
         flex: 1,
       },
       {
         colId: 'p',
         headerName: 'p (of reported)',
-        width: 130,
+        width: 110,
         type: 'rightAligned',
         valueGetter: ({ data }) => (data ? `${data.p} / ${data.pReported}` : ''),
       },
-      num('n', 'Σn', (l) => l.n, 0, 80),
-      num('mean', `m̂${u}`, (l) => l.mean, d + 1, 120),
+      num('n', 'Σn', (l) => l.n, 0, 70),
+      num('mean', `m̂${u}`, (l) => l.mean, d + 1, 100),
       num('sr', `s_r${u}`, (l) => l.sr, d + 2),
       num('sL', `s_L${u}`, (l) => l.sL, d + 2),
       num('sR', `s_R${u}`, (l) => l.sR, d + 2),
       num('r', `r${u}`, (l) => l.r, d + 2),
       num('R', `R${u}`, (l) => l.R, d + 2),
-      num('srPercent', 's_r (%)', (l) => l.srPercent, 2, 100),
-      num('sRPercent', 's_R (%)', (l) => l.sRPercent, 2, 100),
     ];
   });
 }

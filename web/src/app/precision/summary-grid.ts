@@ -15,9 +15,15 @@ import { fix } from './precision-view';
   imports: [AgGridAngular],
   templateUrl: './summary-grid.html',
   styles: `
+    /* The page scrolls a wide table sideways; the grid itself never does (on a phone its own
+       scrollbar would cover the last row). */
+    .grid-wrap {
+      overflow-x: auto;
+      margin-bottom: 8px;
+    }
     .precision-grid {
       width: 100%;
-      margin-bottom: 8px;
+      min-width: 1000px;
     }
   `,
 })

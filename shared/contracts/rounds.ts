@@ -275,6 +275,13 @@ export const RoundSummary = z.object({
 });
 export type RoundSummary = z.infer<typeof RoundSummary>;
 
+/** What a round is: a PT round scores labs (ISO 13528); a precision study estimates s_r and s_R (ISO 5725-2). */
+export type RoundKind = RoundSummary['kind'];
+export const ROUND_KIND_LABELS: Record<RoundKind, string> = {
+  pt: 'PT round',
+  precision: 'Precision study',
+};
+
 export const RoundTransitionRecord = z.object({
   fromState: RoundState,
   toState: RoundState,

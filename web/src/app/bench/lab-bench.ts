@@ -52,6 +52,9 @@ export const STATUS_LABELS: Record<MyRoundStatus, string> = {
               @for (r of rounds(); track r.roundId) {
                 <tr [attr.data-status]="r.status">
                   <td>
+                    @if (r.kind === 'precision') {
+                      <span class="kind" data-testid="round-kind">Precision study</span>
+                    }
                     @if (r.status !== 'invited') {
                       <a [routerLink]="['/bench/rounds', r.roundId]"
                         >{{ r.code }} · {{ r.title }}</a
@@ -98,6 +101,11 @@ export const STATUS_LABELS: Record<MyRoundStatus, string> = {
     }
     .status {
       font-weight: 500;
+    }
+    .kind {
+      display: block;
+      font-size: 12px;
+      color: #1f3a5f;
     }
     .status-due-soon {
       color: var(--rl-saffron);

@@ -2,7 +2,7 @@ import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } fro
 import { formatDate } from '../core/format';
 import { RouterLink } from '@angular/router';
 import type { LabScores } from '@ringlet/shared/contracts/evaluation';
-import { problemMessage } from '../core/problem';
+import { problemMessage, problemOf } from '../core/problem';
 import { SignalBadge } from '../core/signal-badge';
 import { BoardService } from './board.service';
 
@@ -110,7 +110,12 @@ export class ScoresPage implements OnInit {
   ngOnInit(): void {
     this.service.myScores(this.id()).subscribe({
       next: (d) => this.data.set(d),
-      error: (e: unknown) => this.error.set(problemMessage(e)),
+      error: (e: unknown) =>
+        this.error.set(
+          problemOf(e)?.code === 'precision_study_no_scores'
+            ? 'This round is a precision study: it estimates the method’s repeatability and reproducibility and does not score labs.'
+            : problemMessage(e),
+        ),
     });
   }
 

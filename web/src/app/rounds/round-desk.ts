@@ -5,7 +5,11 @@ import { MatIconModule } from '@angular/material/icon';
 import { Router } from '@angular/router';
 import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef } from 'ag-grid-community';
-import type { RoundSummary, Scheme } from '@ringlet/shared/contracts/rounds';
+import {
+  ROUND_KIND_LABELS,
+  type RoundSummary,
+  type Scheme,
+} from '@ringlet/shared/contracts/rounds';
 import { ROUND_STATE_LABELS } from '@ringlet/shared/contracts/round-states';
 import { ActionCell, type RowAction } from '../grid/action-cell';
 import { RoundDialog } from './round-dialog';
@@ -72,6 +76,12 @@ export class RoundDesk implements OnInit {
   protected readonly columns: ColDef<RoundSummary>[] = [
     { field: 'code', headerName: 'Round', width: 150, filter: 'agTextColumnFilter' },
     { field: 'title', headerName: 'Title', flex: 1, minWidth: 200, filter: 'agTextColumnFilter' },
+    {
+      field: 'kind',
+      headerName: 'Kind',
+      width: 140,
+      valueFormatter: ({ value }) => ROUND_KIND_LABELS[value as RoundSummary['kind']],
+    },
     { field: 'schemeCode', headerName: 'Scheme', width: 130 },
     {
       field: 'state',

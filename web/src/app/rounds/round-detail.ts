@@ -50,6 +50,7 @@ import { SignalBadge } from '../core/signal-badge';
 import { errorMessage } from '../core/zod-form-errors';
 import { ActionCell, type RowAction } from '../grid/action-cell';
 import { FileDrop } from '../core/file-drop';
+import { PrecisionStudyLink } from '../precision/precision-study-link';
 import { DeskDialog, type DeskDialogData } from './desk-dialogs';
 import { ItemDialog, type ItemDialogData } from './item-dialog';
 import { MeasurandDialog, type MeasurandDialogData } from './measurand-dialog';
@@ -85,6 +86,7 @@ const RECEIPT_LABELS: Record<ReceiptStatus, string> = {
     RouterLink,
     SignalBadge,
     FileDrop,
+    PrecisionStudyLink,
   ],
   template: `
     <section class="page">
@@ -98,6 +100,7 @@ const RECEIPT_LABELS: Record<ReceiptStatus, string> = {
           {{ formatDate(r.dispatchOn) }} · Results due {{ formatDate(r.resultsDueAt, true) }} · Fee
           {{ formatMoney(r.feeMinor, r.currency) }}
         </p>
+        <app-precision-study-link [round]="r" />
         <div class="page-actions">
           @if (descriptionOpen()) {
             <button mat-stroked-button type="button" data-testid="edit-round" (click)="editRound()">
@@ -117,10 +120,11 @@ const RECEIPT_LABELS: Record<ReceiptStatus, string> = {
             </button>
           }
           @if (
-            r.state === 'closed' ||
-            r.state === 'evaluated' ||
-            r.state === 'published' ||
-            r.state === 'reissued'
+            r.kind === 'pt' &&
+            (r.state === 'closed' ||
+              r.state === 'evaluated' ||
+              r.state === 'published' ||
+              r.state === 'reissued')
           ) {
             <span
               >Evaluation, publication and corrections (reissue) run from the

@@ -6,7 +6,13 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { DEFAULT_INSTRUCTIONS, RoundCreate, type Scheme } from '@ringlet/shared/contracts/rounds';
+import {
+  DEFAULT_INSTRUCTIONS,
+  ROUND_KIND_LABELS,
+  RoundCreate,
+  type RoundKind,
+  type Scheme,
+} from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../core/zod-form-errors';
 import { parseWith, showServerError } from './form-errors';
 import { RoundScheduleFields } from './round-schedule-fields';
@@ -57,6 +63,15 @@ export function localToIso(value: string): string | null {
             <mat-error>{{ errorMessage(form.controls.code) }}</mat-error>
           </mat-form-field>
         </div>
+        <mat-form-field>
+          <mat-label>Kind</mat-label>
+          <mat-select formControlName="kind" data-testid="round-kind">
+            <mat-option value="pt">{{ kindLabels.pt }}: scores each lab (ISO 13528)</mat-option>
+            <mat-option value="precision"
+              >{{ kindLabels.precision }}: s_r and s_R of the method (ISO 5725-2)</mat-option
+            >
+          </mat-select>
+        </mat-form-field>
         <mat-form-field>
           <mat-label>Title</mat-label>
           <input matInput formControlName="title" />
@@ -177,11 +192,13 @@ export class RoundDialog {
   private readonly ref = inject<MatDialogRef<RoundDialog, string>>(MatDialogRef);
   private readonly fb = inject(NonNullableFormBuilder);
   protected readonly errorMessage = errorMessage;
+  protected readonly kindLabels = ROUND_KIND_LABELS;
   protected readonly busy = signal(false);
   protected readonly failure = signal<string | null>(null);
   protected readonly form = this.fb.group({
     schemeId: [this.data.schemes[0]?.id ?? ''],
     code: [''],
+    kind: ['pt' as RoundKind],
     title: [''],
     enrolmentClosesOn: [''],
     dispatchOn: [''],
@@ -219,6 +236,7 @@ export class RoundDialog {
       {
         schemeId: raw.schemeId,
         code: raw.code,
+        kind: raw.kind,
         title: raw.title,
         enrolmentClosesOn: raw.enrolmentClosesOn || null,
         dispatchOn: raw.dispatchOn || null,

@@ -11,4 +11,8 @@ export const ROUNDS_ROUTES: Routes = [
     title: 'Round · Round desk · Ringlet',
     loadComponent: () => import('./round-detail').then((m) => m.RoundDetail),
   },
+  {
+    path: 'rounds/:id/precision',
+    loadChildren: () => import('../precision/precision.routes').then((m) => m.PRECISION_ROUTES),
+  },
 ];

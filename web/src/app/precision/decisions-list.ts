@@ -1,0 +1,32 @@
+import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import {
+  PRECISION_DECISION_LABELS,
+  PRECISION_EXCLUSION_KIND_LABELS,
+  type PrecisionExclusion,
+} from '@ringlet/shared/contracts/precision';
+import { LOCAL_ID_PREFIX } from './precision-view';
+
+/** The decisions in force, newest first; those not stored yet say so. */
+@Component({
+  selector: 'app-precision-decisions',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  templateUrl: './decisions-list.html',
+  styleUrl: './precision.scss',
+})
+export class DecisionsList {
+  readonly decisions = input.required<readonly PrecisionExclusion[]>();
+  /** Measurand names by file code, and level names by item code. */
+  readonly measurandLabels = input.required<Readonly<Partial<Record<string, string>>>>();
+  readonly levelLabels = input.required<Readonly<Partial<Record<string, string>>>>();
+  protected readonly decisionLabels = PRECISION_DECISION_LABELS;
+  protected readonly kindLabels = PRECISION_EXCLUSION_KIND_LABELS;
+  protected isUnsaved(id: string): boolean {
+    return id.startsWith(LOCAL_ID_PREFIX);
+  }
+  protected when(iso: string): string {
+    const d = new Date(iso);
+    return Number.isNaN(d.getTime())
+      ? iso
+      : d.toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+  }
+}

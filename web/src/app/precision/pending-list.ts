@@ -1,0 +1,20 @@
+import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { ClassBadge } from './class-badge';
+import { testNames, type PendingCell } from './precision-view';
+
+/** The cells Cochran or Grubbs flagged that wait for the coordinator's decision. */
+@Component({
+  selector: 'app-precision-pending',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [MatButtonModule, ClassBadge],
+  templateUrl: './pending-list.html',
+  styleUrl: './precision.scss',
+})
+export class PendingList {
+  readonly cells = input.required<readonly PendingCell[]>();
+  /** Decisions can be recorded (the round is closed). */
+  readonly open = input.required<boolean>();
+  readonly decide = output<PendingCell>();
+  protected readonly testNames = testNames;
+}

@@ -70,7 +70,9 @@ export function readCsv(text: string, options: CsvReadOptions = {}): CsvRecord[]
       start = end;
     },
   });
-  if (problem) throw problem;
+  // Assigned inside the step callback, which control-flow analysis does not follow.
+  const failure = problem as CsvSyntaxError | null;
+  if (failure) throw failure;
   return out;
 }
 

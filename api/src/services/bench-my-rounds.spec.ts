@@ -19,7 +19,7 @@ describe('listMyRounds: queries do not grow with the number of rounds', () => {
     ctx = {
       ds: db.ds,
       config: testConfig(),
-      mailer: { send: async () => undefined, close: () => undefined },
+      mailer: { send: () => Promise.resolve(), close: () => undefined },
       log: () => undefined,
     };
   });

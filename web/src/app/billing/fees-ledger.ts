@@ -261,7 +261,7 @@ export class FeesLedger implements OnInit {
     this.dialog
       .open(MarkPaidDialog, { data: r, width: '440px', maxWidth: '95vw' })
       .afterClosed()
-      .subscribe((input) => {
+      .subscribe((input: { reference: string; paidOn: string } | undefined) => {
         if (input)
           this.act(this.api.markPaid(r.invoiceId, input), `${r.number} is recorded as paid.`);
       });

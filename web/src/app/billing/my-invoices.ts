@@ -77,7 +77,7 @@ const STATUS_ICON: Record<InvoiceStatus, string> = {
                 {{ inv.dueOn }}</small
               >
             </div>
-            <span class="status" [class]="'status ' + inv.status" data-testid="invoice-status">
+            <span [class]="'status ' + inv.status" data-testid="invoice-status">
               <mat-icon aria-hidden="true">{{ icon[inv.status] }}</mat-icon>
               {{ labels[inv.status] }}
               @if (inv.status === 'paid') {

@@ -32,3 +32,6 @@ export function formatDate(iso: string | null | undefined, withTime = false): st
 export function formatMoney(minor: number, currency: string): string {
   return `${(minor / 100).toFixed(2)} ${currency}`;
 }
+
+/** Rows keep their identity across reloads by their id. */
+export const rowId = (p: { data: { id: string } }): string => p.data.id;

@@ -9,6 +9,6 @@ export const ROUNDS_ROUTES: Routes = [
   {
     path: 'rounds/:id',
     title: 'Round · Round desk · Ringlet',
-    loadComponent: () => import('./round-detail').then((m) => m.RoundDetail),
+    loadComponent: () => import('./round-detail/round-detail').then((m) => m.RoundDetail),
   },
 ];

@@ -31,7 +31,8 @@ export const BOARD_ROUTES: Routes = [
       {
         path: 'rounds/:id/evaluation',
         title: 'Evaluation · Ringlet',
-        loadComponent: () => import('./evaluation-page').then((m) => m.EvaluationPage),
+        loadComponent: () =>
+          import('./evaluation-page/evaluation-page').then((m) => m.EvaluationPage),
       },
       {
         path: 'rounds/:id/scores',

@@ -173,17 +173,3 @@ export const METHOD_WORDS: Record<string, string> = {
   reference: 'reference value from a characterisation outside the round',
   none: 'not set (too few results)',
 };
-
-/** How σ_pt was set, in words. */
-export function sigmaPtRuleWords(rule: ItemMeasurandEvaluation['sigmaPtRule']): string {
-  switch (rule.kind) {
-    case 'fixed':
-      return `fixed value ${rule.value}`;
-    case 'percent':
-      return `${rule.percent} % of the assigned value`;
-    case 'robust-sd':
-      return 'robust standard deviation of the participants’ results (Algorithm A)';
-    case 'precision':
-      return `from a precision experiment (ISO 13528 §8.4; σ_R = ${rule.sigmaR}${rule.source ? `, ${rule.source}` : ''})`;
-  }
-}

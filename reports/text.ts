@@ -28,28 +28,8 @@ export function numberFormat(decimals: number): string {
 /** Scores (z, z′, ζ, En) are shown with two decimals (common practice). */
 export const SCORE_DECIMALS = 2;
 
-/** Words for a signal, ISO 13528 thresholds (see docs/STATISTICS.md; words: docs/GLOSSARY.md). */
-export const SIGNAL_WORDS: Record<'acceptable' | 'warning' | 'action', string> = {
-  acceptable: 'acceptable',
-  warning: 'warning signal',
-  action: 'action signal',
-};
-
-/** Our palette (docs/QUALITY.md "Look"). */
-export const PALETTE = {
-  ink: '#1f3a5f',
-  teal: '#1b7f79',
-  saffron: '#b7791f',
-  carmine: '#a4262c',
-  grey: '#5b6470',
-  rule: '#c9cfd6',
-} as const;
-
-export const SIGNAL_COLOURS: Record<'acceptable' | 'warning' | 'action', string> = {
-  acceptable: PALETTE.teal,
-  warning: PALETTE.saffron,
-  action: PALETTE.carmine,
-};
+/** Signal words, colours and the palette: defined once in shared/charts/signals.ts. */
+export { PALETTE, SIGNAL_COLOURS, SIGNAL_RULE_TEXT, SIGNAL_WORDS } from '../shared/charts/signals';
 
 /**
  * Blunder hints described in general words for reports (the Lab bench shows each lab its own

@@ -4,21 +4,28 @@
  * acceptable teal circle, warning saffron triangle, action carmine diamond.
  */
 import type { ParticipantScore, TrackSeries } from '../../shared/contracts/evaluation';
+import { SIGNAL_LIMITS } from '../../shared/stats/scores';
 import { mainScore, type ReportGroup } from '../model';
+import { SCORE_LIMIT_LINES, SIGNAL_SHAPES as SHAPES } from '../../shared/charts/signals';
 import { PALETTE, SIGNAL_COLOURS } from '../text';
 
 type Option = Record<string, unknown>;
+const W = SIGNAL_LIMITS.warning;
 
-const SHAPES = { acceptable: 'circle', warning: 'triangle', action: 'diamond' } as const;
 const BASE = { animation: false, textStyle: { fontFamily: 'sans-serif', color: PALETTE.ink } };
 
-function limitLines(values: { y: number; label: string; colour: string }[]): Option {
+/** The ±2 / ±3 limits (shared/charts/signals.ts, from shared/stats/scores.ts) as a markLine. */
+function limitLines(): Option {
   return {
     silent: true,
     symbol: 'none',
     label: { show: true, position: 'end', formatter: '{b}', fontSize: 9 },
     lineStyle: { type: 'dashed', width: 1 },
-    data: values.map((v) => ({ yAxis: v.y, name: v.label, lineStyle: { color: v.colour } })),
+    data: SCORE_LIMIT_LINES.map((v) => ({
+      yAxis: v.value,
+      name: v.label,
+      lineStyle: { color: v.colour },
+    })),
   };
 }
 
@@ -63,12 +70,7 @@ export function scoreBarOption(g: ReportGroup, highlightCode?: string): Option {
             symbol: 'none',
             data: rows.map((r) => Math.max(-5, Math.min(5, r.s))),
             lineStyle: { color: PALETTE.ink, width: 1.5 },
-            markLine: limitLines([
-              { y: 3, label: '+3', colour: PALETTE.carmine },
-              { y: 2, label: '+2', colour: PALETTE.saffron },
-              { y: -2, label: '−2', colour: PALETTE.saffron },
-              { y: -3, label: '−3', colour: PALETTE.carmine },
-            ]),
+            markLine: limitLines(),
             ...(highlightCode && rows.some((r) => r.p.code === highlightCode)
               ? {
                   markPoint: {
@@ -116,12 +118,7 @@ export function scoreBarOption(g: ReportGroup, highlightCode?: string): Option {
                   }
                 : {}),
             })),
-            markLine: limitLines([
-              { y: 3, label: '+3', colour: PALETTE.carmine },
-              { y: 2, label: '+2', colour: PALETTE.saffron },
-              { y: -2, label: '−2', colour: PALETTE.saffron },
-              { y: -3, label: '−3', colour: PALETTE.carmine },
-            ]),
+            markLine: limitLines(),
           },
     ],
   };
@@ -175,8 +172,8 @@ export function distributionOption(g: ReportGroup, ownResult?: number): Option {
   ];
   if (g.sigmaPt !== null) {
     lines.push(
-      { xAxis: x - 2 * s, name: '−2σ', lineStyle: { color: PALETTE.saffron } },
-      { xAxis: x + 2 * s, name: '+2σ', lineStyle: { color: PALETTE.saffron } },
+      { xAxis: x - W * s, name: `−${W}σ`, lineStyle: { color: SIGNAL_COLOURS.warning } },
+      { xAxis: x + W * s, name: `+${W}σ`, lineStyle: { color: SIGNAL_COLOURS.warning } },
     );
   }
   if (ownResult !== undefined) {
@@ -302,15 +299,7 @@ export function trackRecordOption(series: TrackSeries[]): Option {
             }
           : null;
       }),
-      markLine:
-        i === 0
-          ? limitLines([
-              { y: 3, label: '+3', colour: PALETTE.carmine },
-              { y: 2, label: '+2', colour: PALETTE.saffron },
-              { y: -2, label: '−2', colour: PALETTE.saffron },
-              { y: -3, label: '−3', colour: PALETTE.carmine },
-            ])
-          : undefined,
+      markLine: i === 0 ? limitLines() : undefined,
     })),
   };
 }

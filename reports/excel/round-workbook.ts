@@ -5,6 +5,8 @@
  * format (the cell keeps full precision); headers are frozen; every piece of user text goes
  * through neutraliseFormula so no formula runs when the file is opened.
  */
+import { SIGNAL_RULE_TEXT } from '../../shared/charts/signals';
+import { sigmaPtRuleWords } from '../../shared/contracts/rule-text';
 import ExcelJS from 'exceljs';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
 import {
@@ -16,7 +18,6 @@ import {
   METHOD_WORDS,
   recordChecksum,
   reportStatusWords,
-  sigmaPtRuleWords,
   type ReportGroup,
   type RoundReportInput,
 } from '../model';
@@ -228,7 +229,7 @@ function groupSheet(wb: ExcelJS.Workbook, g: ReportGroup, taken: Set<string>): v
     null,
   ]);
   ws.addRow([
-    `Signal follows ${g.uNegligible === false ? 'z′ (u(x_pt) not negligible)' : 'z'}; |score| ≤ 2 acceptable, 2 < |score| < 3 warning signal, ≥ 3 action signal (ISO 13528:2015 §9)`,
+    `Signal follows ${g.uNegligible === false ? 'z′ (u(x_pt) not negligible)' : 'z'}; ${SIGNAL_RULE_TEXT} (ISO 13528:2015 §9)`,
   ]);
   const heads = [
     'Participant',

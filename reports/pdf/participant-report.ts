@@ -4,6 +4,7 @@
  * marked), the score chart with its code marked, and its Track record. Other labs appear only
  * as codes (in the charts, unnamed bars).
  */
+import { SIGNAL_LIMITS } from '../../shared/stats/scores';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
 import { explainScore } from '../../shared/evaluation/explain';
 import { trackRecordOption } from '../charts/options';
@@ -149,7 +150,7 @@ export async function buildParticipantReportPdf(input: ParticipantReportInput): 
     const width = doc.page.width - 2 * MARGIN;
     figure(
       doc,
-      `Track record of participant ${input.participantCode}: its z-scores per round and item, with the warning (±2) and action (±3) limits.`,
+      `Track record of participant ${input.participantCode}: its z-scores per round and item, with the warning (±${SIGNAL_LIMITS.warning}) and action (±${SIGNAL_LIMITS.action}) limits.`,
       () => {
         h = drawSvg(doc, renderChartSvg(option, 600, 280), MARGIN, y, width);
       },

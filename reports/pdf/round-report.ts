@@ -5,6 +5,9 @@
  * scores; blunder hints in general words; the confidentiality statement. Codes only: no lab
  * name is ever read by this builder.
  */
+import { SIGNAL_RULE_TEXT } from '../../shared/charts/signals';
+import { SIGNAL_LIMITS } from '../../shared/stats/scores';
+import { sigmaPtRuleWords } from '../../shared/contracts/rule-text';
 import { distributionOption, offScale, scoreBarOption, scoresOffScale } from '../charts/options';
 import { renderChartSvg } from '../charts/render';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
@@ -12,7 +15,6 @@ import {
   METHOD_WORDS,
   recordChecksum,
   reportStatusWords,
-  sigmaPtRuleWords,
   type ReportGroup,
   type ReportStudy,
   type RoundReportInput,
@@ -338,7 +340,7 @@ function methodsSection(doc: Doc, input: RoundReportInput): void {
     'The standard deviation for proficiency assessment σ_pt follows ISO 13528:2015 §8, by the rule stated for each item and measurand in the table below.',
     'u(x_pt) is negligible when u(x_pt) ≤ 0.3 σ_pt (ISO 13528:2015 §9.2); then z = (x − x_pt)/σ_pt is used, otherwise z′ = (x − x_pt)/√(σ_pt² + u²(x_pt)). ' +
       'ζ = (x − x_pt)/√(u²(x) + u²(x_pt)) and En = (x − x_pt)/√(U²(x) + U²(x_pt)) where the participant reported an uncertainty.',
-    'Signals: |score| ≤ 2 acceptable, 2 < |score| < 3 warning signal, |score| ≥ 3 action signal; |En| ≤ 1 acceptable, > 1 action signal (ISO 13528:2015 §9; ISO/IEC 17043).',
+    `Signals: ${SIGNAL_RULE_TEXT} (ISO 13528:2015 §9; ISO/IEC 17043).`,
   ];
   if (input.groups.some((g) => g.sigmaPtRule.kind === 'precision')) {
     lines.push(
@@ -447,7 +449,7 @@ export function drawGroupCharts(
   );
   figure(
     doc,
-    `Scores of every participant for item ${g.itemCode}, ${g.measurandName}, in ascending order, with the warning (±2) and action (±3) limits.`,
+    `Scores of every participant for item ${g.itemCode}, ${g.measurandName}, in ascending order, with the warning (±${SIGNAL_LIMITS.warning}) and action (±${SIGNAL_LIMITS.action}) limits.`,
     () => {
       h2 = drawSvg(doc, renderChartSvg(bars, 400, 260), MARGIN + width + 10, y, width);
     },

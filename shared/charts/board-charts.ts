@@ -8,32 +8,30 @@
  * The option type is kept loose (Record) so this file imports nothing from echarts.
  */
 import { kde } from '../stats/kde';
+import { SIGNAL_LIMITS } from '../stats/scores';
+import { PALETTE, SCORE_LIMIT_LINES, SIGNAL_COLOURS, SIGNAL_SHAPES, SIGNAL_WORDS } from './signals';
 
 export type ChartOption = Record<string, unknown>;
 export type ChartSignal = 'acceptable' | 'warning' | 'action';
 
+/** Signal limits (shared/stats/scores.ts): warning beyond W, action from A on. */
+const { warning: W, action: A } = SIGNAL_LIMITS;
+
+/** Chart colours: the palette and signal colours of ./signals, plus chart-only tints. */
 export const CHART_COLORS = {
-  ink: '#1f3a5f',
-  acceptable: '#1b7f79',
-  warning: '#b7791f',
-  action: '#a4262c',
-  own: '#1f3a5f',
+  ink: PALETTE.ink,
+  acceptable: SIGNAL_COLOURS.acceptable,
+  warning: SIGNAL_COLOURS.warning,
+  action: SIGNAL_COLOURS.action,
+  own: PALETTE.ink,
   band2: 'rgba(183, 121, 31, 0.10)',
   band3: 'rgba(164, 38, 44, 0.08)',
   grid: '#d5dbe3',
   text: '#1b2430',
 } as const;
 
-const SYMBOLS: Record<ChartSignal, string> = {
-  acceptable: 'circle',
-  warning: 'triangle',
-  action: 'diamond',
-};
-const WORDS: Record<ChartSignal, string> = {
-  acceptable: 'acceptable',
-  warning: 'warning signal',
-  action: 'action signal',
-};
+const SYMBOLS = SIGNAL_SHAPES;
+const WORDS = SIGNAL_WORDS;
 
 const base = (title: string): ChartOption => ({
   animation: false,
@@ -102,12 +100,11 @@ export function zBarsOption(
           silent: true,
           symbol: 'none',
           label: { formatter: '{b}', position: 'insideEndTop', fontSize: 10 },
-          data: [
-            { yAxis: 2, name: '+2', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
-            { yAxis: -2, name: '−2', lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
-            { yAxis: 3, name: '+3', lineStyle: { color: CHART_COLORS.action, type: 'solid' } },
-            { yAxis: -3, name: '−3', lineStyle: { color: CHART_COLORS.action, type: 'solid' } },
-          ],
+          data: SCORE_LIMIT_LINES.map((l) => ({
+            yAxis: l.value,
+            name: l.label,
+            lineStyle: { color: l.colour, type: l.signal === 'warning' ? 'dashed' : 'solid' },
+          })),
         },
       },
     ],
@@ -186,9 +183,9 @@ export function densityOption(d: DensityInput, title: string): ChartOption {
         markArea: {
           silent: true,
           data: [
-            band(x - 3 * s, x - 2 * s, CHART_COLORS.band3),
-            band(x + 2 * s, x + 3 * s, CHART_COLORS.band3),
-            band(x - 2 * s, x + 2 * s, CHART_COLORS.band2),
+            band(x - A * s, x - W * s, CHART_COLORS.band3),
+            band(x + W * s, x + A * s, CHART_COLORS.band3),
+            band(x - W * s, x + W * s, CHART_COLORS.band2),
           ],
         },
         markLine: {
@@ -198,17 +195,17 @@ export function densityOption(d: DensityInput, title: string): ChartOption {
           data: [
             { xAxis: x, name: 'x_pt', lineStyle: { color: CHART_COLORS.ink, width: 2 } },
             {
-              xAxis: x - 2 * s,
-              name: '−2σ_pt',
+              xAxis: x - W * s,
+              name: `−${W}σ_pt`,
               lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
             },
             {
-              xAxis: x + 2 * s,
-              name: '+2σ_pt',
+              xAxis: x + W * s,
+              name: `+${W}σ_pt`,
               lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
             },
-            { xAxis: x - 3 * s, name: '−3σ_pt', lineStyle: { color: CHART_COLORS.action } },
-            { xAxis: x + 3 * s, name: '+3σ_pt', lineStyle: { color: CHART_COLORS.action } },
+            { xAxis: x - A * s, name: `−${A}σ_pt`, lineStyle: { color: CHART_COLORS.action } },
+            { xAxis: x + A * s, name: `+${A}σ_pt`, lineStyle: { color: CHART_COLORS.action } },
             ...(d.own !== undefined
               ? [
                   {
@@ -226,12 +223,12 @@ export function densityOption(d: DensityInput, title: string): ChartOption {
 }
 
 export function densityText(d: DensityInput, title: string): string {
-  const within2 = d.results.filter((v) => Math.abs(v - d.assignedValue) <= 2 * d.sigmaPt).length;
-  const beyond3 = d.results.filter((v) => Math.abs(v - d.assignedValue) >= 3 * d.sigmaPt).length;
+  const within2 = d.results.filter((v) => Math.abs(v - d.assignedValue) <= W * d.sigmaPt).length;
+  const beyond3 = d.results.filter((v) => Math.abs(v - d.assignedValue) >= A * d.sigmaPt).length;
   const u = d.unit ? ` ${d.unit}` : '';
   return (
     `${title}: distribution of ${d.results.length} results around the assigned value x_pt = ${d.assignedValue.toPrecision(5)}${u} ` +
-    `with σ_pt = ${d.sigmaPt.toPrecision(4)}${u}. ${within2} results lie within ±2σ_pt, ${beyond3} at or beyond ±3σ_pt.` +
+    `with σ_pt = ${d.sigmaPt.toPrecision(4)}${u}. ${within2} results lie within ±${W}σ_pt, ${beyond3} at or beyond ±${A}σ_pt.` +
     (d.own !== undefined ? ` Your result: ${d.own.toPrecision(5)}${u}.` : '')
   );
 }
@@ -337,13 +334,13 @@ export function uncertaintyOption(
               lineStyle: { color: CHART_COLORS.ink, width: 2 },
             },
             {
-              yAxis: assignedValue - 2 * sigmaPt,
-              name: '−2σ_pt',
+              yAxis: assignedValue - W * sigmaPt,
+              name: `−${W}σ_pt`,
               lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
             },
             {
-              yAxis: assignedValue + 2 * sigmaPt,
-              name: '+2σ_pt',
+              yAxis: assignedValue + W * sigmaPt,
+              name: `+${W}σ_pt`,
               lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
             },
           ],
@@ -365,7 +362,7 @@ export function uncertaintyText(
   const u = unit ? ` ${unit}` : '';
   return (
     `${title}: ${points.length} results with their expanded uncertainties against x_pt = ${assignedValue.toPrecision(5)}${u} ` +
-    `(dashed lines at ±2σ_pt = ±${(2 * sigmaPt).toPrecision(3)}${u}). ${withU.length} labs reported an uncertainty; ` +
+    `(dashed lines at ±${W}σ_pt = ±${(W * sigmaPt).toPrecision(3)}${u}). ${withU.length} labs reported an uncertainty; ` +
     `for ${covering} of them the interval result ± U contains x_pt.`
   );
 }
@@ -429,8 +426,8 @@ export function youdenOption(
           silent: true,
           data: [
             [
-              { coord: [xA - 2 * sA, xB - 2 * sB], itemStyle: { color: CHART_COLORS.band2 } },
-              { coord: [xA + 2 * sA, xB + 2 * sB] },
+              { coord: [xA - W * sA, xB - W * sB], itemStyle: { color: CHART_COLORS.band2 } },
+              { coord: [xA + W * sA, xB + W * sB] },
             ],
           ],
         },
@@ -457,12 +454,12 @@ export function youdenText(
   title: string,
 ): string {
   const box = points.filter(
-    (p) => Math.abs(p.a - xA) <= 2 * sA && Math.abs(p.b - xB) <= 2 * sB,
+    (p) => Math.abs(p.a - xA) <= W * sA && Math.abs(p.b - xB) <= W * sB,
   ).length;
   const same = points.filter((p) => Math.sign(p.a - xA) === Math.sign(p.b - xB)).length;
   const own = points.find((p) => p.own);
   return (
-    `${title}: results on ${labels[0]} against ${labels[1]} for ${points.length} labs. ${box} lie inside the ±2σ_pt box; ` +
+    `${title}: results on ${labels[0]} against ${labels[1]} for ${points.length} labs. ${box} lie inside the ±${W}σ_pt box; ` +
     `${same} are on the same side of both assigned values (a lab effect shows as points along the diagonal).` +
     (own ? ` Your code ${own.code}: ${own.a.toPrecision(5)} and ${own.b.toPrecision(5)}.` : '')
   );
@@ -509,10 +506,11 @@ export function trackOption(points: readonly TrackChartPoint[], title: string): 
           silent: true,
           symbol: 'none',
           data: [
-            { yAxis: 2, lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
-            { yAxis: -2, lineStyle: { color: CHART_COLORS.warning, type: 'dashed' } },
-            { yAxis: 3, lineStyle: { color: CHART_COLORS.action } },
-            { yAxis: -3, lineStyle: { color: CHART_COLORS.action } },
+            ...SCORE_LIMIT_LINES.map((l) => ({
+              yAxis: l.value,
+              lineStyle:
+                l.signal === 'warning' ? { color: l.colour, type: 'dashed' } : { color: l.colour },
+            })),
             { yAxis: 0, lineStyle: { color: CHART_COLORS.grid } },
           ],
         },
@@ -530,7 +528,7 @@ export function trackText(
   const last = points[points.length - 1]!;
   return (
     `${title}: ${points.length} z-scores from ${points[0]!.label} to ${last.label}; latest ${last.z.toFixed(2)} (${WORDS[last.signal]}). ` +
-    `${points.filter((p) => p.signal !== 'acceptable').length} outside ±2.` +
+    `${points.filter((p) => p.signal !== 'acceptable').length} outside ±${W}.` +
     (rsz !== null ? ` Rescaled sum of z-scores RSZ = ${rsz.toFixed(2)}.` : '')
   );
 }

@@ -1,7 +1,6 @@
 import * as z from 'zod';
 import { Id } from './common';
 import {
-  boundedNumber,
   DATE_MAX,
   DATE_MIN,
   dateOnly,
@@ -10,6 +9,7 @@ import {
   multiLine,
   singleLine,
 } from './ranges';
+import { AssignedValueRuleInput, SigmaPtRuleInput } from './rules';
 
 /**
  * Evaluation, Consensus board, lab scores, Track record, investigations and assessor grants.
@@ -17,33 +17,8 @@ import {
  * dimensionless; D% is percent.
  */
 
-/** σ_pt rule (shared/stats SigmaPtRule). */
-export const SigmaPtRuleSchema = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('fixed'), value: boundedNumber('sigmaPt') }),
-  z.object({ kind: z.literal('percent'), percent: boundedNumber('sigmaPtPercent') }),
-  z.object({ kind: z.literal('robust-sd') }),
-  z.object({
-    kind: z.literal('precision'),
-    sigmaR: boundedNumber('sigmaPt', { label: 'σ_R' }),
-    sigmaRepeatability: boundedNumber('sigmaPt', { label: 'σ_r' }).optional(),
-    replicates: z.number().int().min(1).max(20).optional(),
-    source: singleLine(500).optional(),
-  }),
-]);
-export type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;
-
-/** Assigned-value rule (shared/stats AssignedValueRule). */
-export const AssignedValueRuleSchema = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('consensus') }),
-  z.object({ kind: z.literal('median') }),
-  z.object({
-    kind: z.literal('reference'),
-    value: boundedNumber('measuredValue', { label: 'Reference value' }),
-    u: boundedNumber('referenceUncertainty'),
-    source: singleLine(500),
-  }),
-]);
-export type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleSchema>;
+/** σ_pt and assigned-value rules: defined once in ./rules (shared with the Round desk contracts). */
+export { AssignedValueRuleInput, SigmaPtRuleInput } from './rules';
 
 /** Why a result is kept out of the assigned value (the coordinator names one and explains). */
 export const EXCLUSION_RULES = [
@@ -70,7 +45,7 @@ export const SigmaPtOverride = z.object({
   measurandKey: singleLine(100, { min: 1 }),
   /** null: every item of the round. */
   itemCode: singleLine(100, { min: 1 }).nullable().default(null),
-  rule: SigmaPtRuleSchema,
+  rule: SigmaPtRuleInput,
   reason: Reason,
 });
 export type SigmaPtOverride = z.infer<typeof SigmaPtOverride>;
@@ -151,8 +126,8 @@ export const ItemMeasurandEvaluation = z.object({
   uAssigned: z.number().nullable(),
   sigmaPt: z.number().nullable(),
   uNegligible: z.boolean().nullable(),
-  sigmaPtRule: SigmaPtRuleSchema,
-  assignedValueRule: AssignedValueRuleSchema,
+  sigmaPtRule: SigmaPtRuleInput,
+  assignedValueRule: AssignedValueRuleInput,
   constants: z.record(z.string(), z.unknown()),
   warnings: z.array(z.string()),
   participants: z.array(ParticipantScore),
@@ -197,8 +172,8 @@ export const EvaluationView = z.object({
       name: z.string(),
       unit: z.string(),
       decimals: z.number().int(),
-      sigmaPtRule: SigmaPtRuleSchema,
-      assignedValueRule: AssignedValueRuleSchema,
+      sigmaPtRule: SigmaPtRuleInput,
+      assignedValueRule: AssignedValueRuleInput,
       minParticipants: z.number().int(),
     }),
   ),

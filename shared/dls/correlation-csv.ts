@@ -1,7 +1,10 @@
 /**
  * Parser for a measured correlation function exported as text: two columns, lag time (s) and
- * g2 − 1 (dimensionless). Pure function, no I/O (the caller reads the file).
+ * g2 − 1 (dimensionless). Pure function, no I/O (the caller reads the file). Quoting and line
+ * ends through the shared CSV reader (shared/files/csv.ts).
  */
+
+import { CsvSyntaxError, firstContentLine, readCsv } from '../files/csv';
 
 /** A parsed correlation function, ready for cumulantsFit. */
 export interface CorrelationData {
@@ -46,24 +49,20 @@ function parseNumber(field: string, allowDecimalComma: boolean): number | null {
  * @throws CorrelationCsvError naming the line (1-based) of the first problem
  */
 export function parseCorrelationCsv(text: string): CorrelationData {
-  const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\r|\n/);
+  const records = read(text);
   const lagTimesS: number[] = [];
   const g2Minus1: number[] = [];
   let header: string | null = null;
   let delimiter: string | null = null;
   let seenContent = false;
 
-  for (let i = 0; i < lines.length; i++) {
-    const lineNo = i + 1;
-    const raw = lines[i].trim();
-    if (raw === '' || raw.startsWith('#')) continue;
-    const delim: string = delimiter ?? detectDelimiter(raw);
-    const fields = raw.split(delim).map((f) => f.trim());
+  for (const { line: lineNo, fields: all, delimiter: delim, raw } of records) {
+    const fields = [...all];
     // A trailing delimiter ("1e-6;0.8;") leaves an empty last field: tolerate it.
     if (fields.length === 3 && fields[2] === '') fields.pop();
     const allowComma = delim !== ',';
-    const tau = fields.length === 2 ? parseNumber(fields[0], allowComma) : null;
-    const g = fields.length === 2 ? parseNumber(fields[1], allowComma) : null;
+    const tau = fields.length === 2 ? parseNumber(fields[0]!, allowComma) : null;
+    const g = fields.length === 2 ? parseNumber(fields[1]!, allowComma) : null;
 
     if (!seenContent) {
       seenContent = true;
@@ -79,7 +78,7 @@ export function parseCorrelationCsv(text: string): CorrelationData {
     if (fields.length !== 2) {
       throw new CorrelationCsvError(
         lineNo,
-        `expected 2 columns (lag time in s, g2 − 1) separated by "${printable(delim)}", found ${fields.length}`,
+        `expected 2 columns (lag time in s, g2 − 1) separated by "${printable(delimiter)}", found ${fields.length}`,
       );
     }
     if (tau === null)
@@ -107,6 +106,44 @@ export function parseCorrelationCsv(text: string): CorrelationData {
       'no data rows found (expected two columns: lag time in s, g2 − 1)',
     );
   return { lagTimesS, g2Minus1, header };
+}
+
+interface Row {
+  readonly line: number;
+  readonly fields: string[];
+  readonly delimiter: string;
+  /** The line as written (trimmed), kept for a header. */
+  readonly raw: string;
+}
+
+/**
+ * Records through the shared CSV reader. A first line that has no number in it is a header, read
+ * with its own delimiter; the data use the delimiter of the first data line.
+ */
+function read(text: string): Row[] {
+  const opts = { comment: '#', trim: true } as const;
+  const lines = text.replace(/^\uFEFF/, '').split(/\r\n|\r|\n/);
+  const rows = (delimiter: string): Row[] => {
+    try {
+      return readCsv(text, { ...opts, delimiter }).map((r) => ({
+        ...r,
+        delimiter,
+        raw: (lines[r.line - 1] ?? '').trim(),
+      }));
+    } catch (e) {
+      if (e instanceof CsvSyntaxError)
+        throw new CorrelationCsvError(e.line, 'a quoted field is not closed');
+      throw e;
+    }
+  };
+  const first = firstContentLine(text, '#');
+  if (first === '') return [];
+  const own = rows(detectDelimiter(first));
+  const head = own[0]!;
+  const isHeader = !head.fields.some((f) => parseNumber(f, head.delimiter !== ',') !== null);
+  if (!isHeader || own.length < 2) return own;
+  const data = rows(detectDelimiter(own[1]!.raw));
+  return [head, ...data.filter((r) => r.line > head.line)];
 }
 
 function detectDelimiter(line: string): string {

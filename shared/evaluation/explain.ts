@@ -4,6 +4,9 @@
  * 2 < |z| < 3 warning, |z| ≥ 3 action; |En| ≤ 1 acceptable).
  */
 import type { ParticipantScore } from '../contracts/evaluation';
+import { SIGNAL_LIMITS } from '../stats/scores';
+
+const { warning: WARN, action: ACT, en: EN } = SIGNAL_LIMITS;
 
 export interface ExplainContext {
   readonly measurandName: string;
@@ -44,31 +47,31 @@ export function explainScore(s: ParticipantScore, c: ExplainContext): string[] {
     );
   }
   if (s.signal === 'acceptable')
-    out.push('Acceptable: within ±2, as most competent labs are. No action is needed.');
+    out.push(`Acceptable: within ±${WARN}, as most competent labs are. No action is needed.`);
   if (s.signal === 'warning') {
     out.push(
-      'Warning signal: between 2 and 3 in size. One in about twenty results lands here by chance, so look for a cause, and watch the next rounds: two warnings in a row call for action.',
+      `Warning signal: between ${WARN} and ${ACT} in size. One in about twenty results lands here by chance, so look for a cause, and watch the next rounds: two warnings in a row call for action.`,
     );
   }
   if (s.signal === 'action') {
     out.push(
-      'Action signal: 3 or more in size, which chance alone rarely gives. Investigate the cause, correct it and check that the correction works (an investigation has been opened for you).',
+      `Action signal: ${ACT} or more in size, which chance alone rarely gives. Investigate the cause, correct it and check that the correction works (an investigation has been opened for you).`,
     );
   }
   if (s.zeta !== null) {
     out.push(
       `Your ζ-score is ${s.zeta.toFixed(2)}: it compares the difference with your own reported uncertainty and that of the assigned value. ` +
-        (Math.abs(s.zeta) > 2
-          ? 'Above 2 in size: your uncertainty may be too small for the agreement you achieve.'
-          : 'Within ±2: your reported uncertainty covers the difference.'),
+        (Math.abs(s.zeta) > WARN
+          ? `Above ${WARN} in size: your uncertainty may be too small for the agreement you achieve.`
+          : `Within ±${WARN}: your reported uncertainty covers the difference.`),
     );
   }
   if (s.en !== null) {
     out.push(
       `Your En number is ${s.en.toFixed(2)} (expanded uncertainties): ` +
-        (Math.abs(s.en) <= 1
-          ? 'within ±1, consistent with the assigned value.'
-          : 'beyond ±1, the difference is not covered by the uncertainties.'),
+        (Math.abs(s.en) <= EN
+          ? `within ±${EN}, consistent with the assigned value.`
+          : `beyond ±${EN}, the difference is not covered by the uncertainties.`),
     );
   }
   if (s.notScored) out.push(s.notScored.message);

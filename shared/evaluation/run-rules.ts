@@ -7,6 +7,9 @@
  * - nine on one side: nine consecutive z of the same sign (a bias);
  * - RSZ = Σz/√n, the rescaled sum of z-scores, read on the z scale (|RSZ| > 2 flags a bias).
  */
+import { SIGNAL_LIMITS } from '../stats/scores';
+
+const { warning: WARN, action: ACT } = SIGNAL_LIMITS;
 
 export type RunRule = 'action-signal' | 'two-warnings-in-a-row' | 'nine-on-one-side' | 'rsz';
 
@@ -36,16 +39,16 @@ export function runRules(points: readonly RunPoint[]): RunFinding[] {
   let run = 0;
   for (let i = 0; i < points.length; i++) {
     const p = points[i]!;
-    if (Math.abs(p.z) >= 3)
+    if (Math.abs(p.z) >= ACT)
       out.push({
         rule: 'action-signal',
         message: `Action signal (z = ${p.z.toFixed(2)}).`,
         roundCode: p.label,
       });
-    if (i > 0 && Math.abs(p.z) > 2 && Math.abs(points[i - 1]!.z) > 2) {
+    if (i > 0 && Math.abs(p.z) > WARN && Math.abs(points[i - 1]!.z) > WARN) {
       out.push({
         rule: 'two-warnings-in-a-row',
-        message: 'Two results in a row beyond ±2: act as on an action signal.',
+        message: `Two results in a row beyond ±${WARN}: act as on an action signal.`,
         roundCode: p.label,
       });
     }
@@ -64,10 +67,10 @@ export function runRules(points: readonly RunPoint[]): RunFinding[] {
     }
   }
   const rsz = rescaledSumZ(points.map((p) => p.z));
-  if (rsz !== null && Math.abs(rsz) > 2 && points.length > 1) {
+  if (rsz !== null && Math.abs(rsz) > WARN && points.length > 1) {
     out.push({
       rule: 'rsz',
-      message: `Rescaled sum of z-scores RSZ = ${rsz.toFixed(2)} beyond ±2: the results lean to one side overall.`,
+      message: `Rescaled sum of z-scores RSZ = ${rsz.toFixed(2)} beyond ±${WARN}: the results lean to one side overall.`,
       roundCode: points[points.length - 1]!.label,
     });
   }

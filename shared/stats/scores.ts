@@ -96,6 +96,14 @@ export function percentDifference(x: number, assignedValue: number): number {
 }
 
 /**
+ * The signal limits of ISO 13528:2015 §9 / ISO/IEC 17043, the one place they are written:
+ * z, z′, ζ beyond `warning` (2) give a warning signal, from `action` (3) on an action signal;
+ * |En| beyond `en` (1) gives an action signal. Everything else (run rules, explanations, chart
+ * lines, report text) reads them from here.
+ */
+export const SIGNAL_LIMITS = { warning: 2, action: 3, en: 1 } as const;
+
+/**
  * Signal for a score (ISO 13528:2015 §9; ISO/IEC 17043):
  * z, z′, ζ: |s| ≤ 2 acceptable, 2 < |s| < 3 warning, |s| ≥ 3 action;
  * En: |En| ≤ 1 acceptable, |En| > 1 action.
@@ -103,7 +111,7 @@ export function percentDifference(x: number, assignedValue: number): number {
  */
 export function signalFor(score: number, kind: ScoreKind = 'z'): Signal {
   const a = Math.abs(finite(score, 'score'));
-  if (kind === 'En') return a <= 1 ? 'acceptable' : 'action';
-  if (a <= 2) return 'acceptable';
-  return a < 3 ? 'warning' : 'action';
+  if (kind === 'En') return a <= SIGNAL_LIMITS.en ? 'acceptable' : 'action';
+  if (a <= SIGNAL_LIMITS.warning) return 'acceptable';
+  return a < SIGNAL_LIMITS.action ? 'warning' : 'action';
 }

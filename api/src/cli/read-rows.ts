@@ -7,7 +7,7 @@ import { extname } from 'node:path';
 import type { ResultRow } from '../../../shared/stats/evaluate-round';
 import type { Cell } from 'exceljs';
 import { CliInputError } from './cli-error';
-import { parseCsv } from './csv';
+import { readCsv } from '../../../shared/files/csv';
 
 export const REQUIRED_COLUMNS = ['participant', 'item', 'measurand', 'replicate', 'value'] as const;
 const OPTIONAL_NUMERIC = ['uncertainty', 'k'] as const;
@@ -47,7 +47,7 @@ export async function readTable(file: string): Promise<RawTable> {
 function csvTable(file: string, text: string): RawTable {
   let records;
   try {
-    records = parseCsv(text);
+    records = readCsv(text);
   } catch (e) {
     throw new CliInputError(`${file}: ${(e as Error).message}`);
   }

@@ -1,4 +1,5 @@
 import { createHash } from 'node:crypto';
+import { MIME_TYPES, sniffFileType } from '../../../shared/files/file-type';
 import { Attachment, Submission, TestItem } from '../../../db/entities';
 import type { AttachmentDto, Reanalysis } from '../../../shared/contracts/bench';
 import { readStoredSubmission } from '../../../shared/contracts/submission';
@@ -40,9 +41,9 @@ const XLSX_TYPE = 'application/vnd.openxmlformats-officedocument.spreadsheetml.s
 export function detectPackagedType(
   buf: Buffer,
 ): { kind: 'pdf' | 'xlsx'; contentType: string } | null {
-  if (buf.subarray(0, 5).toString('latin1') === '%PDF-')
-    return { kind: 'pdf', contentType: 'application/pdf' };
-  if (buf.length >= 4 && buf[0] === 0x50 && buf[1] === 0x4b && buf[2] === 0x03 && buf[3] === 0x04) {
+  const sniffed = sniffFileType(buf);
+  if (sniffed === 'pdf') return { kind: 'pdf', contentType: MIME_TYPES.pdf };
+  if (sniffed === 'zip') {
     try {
       const names = listZipEntries(buf).map((e) => e.name);
       if (names.includes('[Content_Types].xml') && names.some((n) => n.startsWith('xl/')))

@@ -1,4 +1,5 @@
 import type { EntityManager } from 'typeorm';
+import { sniffImageType } from '../../../shared/files/file-type';
 import { Enrolment, Measurand, Round, Shipment, Submission, TestItem } from '../../../db/entities';
 import type {
   MyRound,
@@ -229,21 +230,9 @@ export async function getMyRound(
   };
 }
 
-/** An image file type from its first bytes (JPEG, PNG, WebP), or null. */
+/** An image file type from its first bytes (JPEG, PNG, WebP), or null (shared/files/file-type.ts). */
 export function detectImageType(buf: Buffer): string | null {
-  if (buf.length >= 3 && buf[0] === 0xff && buf[1] === 0xd8 && buf[2] === 0xff) return 'image/jpeg';
-  if (
-    buf.length >= 8 &&
-    buf.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]))
-  )
-    return 'image/png';
-  if (
-    buf.length >= 12 &&
-    buf.subarray(0, 4).toString('latin1') === 'RIFF' &&
-    buf.subarray(8, 12).toString('latin1') === 'WEBP'
-  )
-    return 'image/webp';
-  return null;
+  return sniffImageType(buf, ['jpeg', 'png', 'webp']);
 }
 
 export const MAX_PHOTO_BYTES = 8 * 1024 * 1024;

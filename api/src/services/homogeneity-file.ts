@@ -1,3 +1,5 @@
+import { sniffFileType } from '../../../shared/files/file-type';
+import { CsvSyntaxError, readCsv } from '../../../shared/files/csv';
 import { formatCount, STUDY_FILE_LIMIT } from '../../../shared/contracts/upload-limits';
 import { HttpError, ruleBroken } from '../http/errors';
 import { countLines, type SheetOut } from '../workers/file-jobs';
@@ -9,7 +11,7 @@ import { runInWorker, transferable } from '../workers/pool';
  * and read in an upload worker thread.
  */
 export async function readRows(buffer: Buffer, filename: string): Promise<string[][]> {
-  const isXlsx = buffer.subarray(0, 4).equals(Buffer.from([0x50, 0x4b, 0x03, 0x04]));
+  const isXlsx = sniffFileType(buffer) === 'zip';
   if (isXlsx) {
     const { sheets } = await runInWorker<{ sheets: SheetOut[] }>(
       { type: 'xlsx', data: transferable(buffer), limit: STUDY_FILE_LIMIT },
@@ -47,10 +49,12 @@ export async function readRows(buffer: Buffer, filename: string): Promise<string
       : text.includes('\t') && !text.includes(',')
         ? '\t'
         : ',';
-  return text
-    .split(/\r?\n/)
-    .filter((l) => l.trim() !== '')
-    .map((l) => l.split(sep).map((c) => c.trim().replace(/^"(.*)"$/, '$1')));
+  try {
+    return readCsv(text, { delimiter: sep, trim: true }).map((r) => r.fields);
+  } catch (e) {
+    if (e instanceof CsvSyntaxError) throw ruleBroken('file_value', `file: ${e.message}.`);
+    throw e;
+  }
 }
 
 const num = (s: string) => (s.trim() === '' ? NaN : Number(s.trim()));

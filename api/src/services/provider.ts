@@ -2,6 +2,7 @@
  * The PT provider's profile (one row) and the coordinator's comments on a round. The profile
  * is printed on every report, certificate and e-mail; the comments in the round report.
  */
+import { sniffImageType } from '../../../shared/files/file-type';
 import type { EntityManager } from 'typeorm';
 import { ProviderProfile as ProfileRow } from '../../../db/entities/provider-profile';
 import {
@@ -90,14 +91,7 @@ export async function updateProviderProfile(
 
 /** The image type read from the file's first bytes (not from what the sender claims). */
 export function imageType(data: Buffer): 'image/png' | 'image/jpeg' | null {
-  if (
-    data.length >= 8 &&
-    data.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]))
-  )
-    return 'image/png';
-  if (data.length >= 4 && data[0] === 0xff && data[1] === 0xd8 && data[2] === 0xff)
-    return 'image/jpeg';
-  return null;
+  return sniffImageType(data, ['png', 'jpeg']);
 }
 
 export async function setProviderLogo(

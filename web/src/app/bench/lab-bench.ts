@@ -100,14 +100,14 @@ export const STATUS_LABELS: Record<MyRoundStatus, string> = {
       font-weight: 500;
     }
     .status-due-soon {
-      color: #b7791f;
+      color: var(--rl-saffron);
     }
     .status-submitted,
     .status-published {
-      color: #1b7f79;
+      color: var(--rl-teal);
     }
     .status-locked {
-      color: #a4262c;
+      color: var(--rl-carmine);
     }
     .visually-hidden {
       position: absolute;

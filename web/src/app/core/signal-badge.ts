@@ -1,19 +1,11 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
+import { SIGNAL_LOOKS, type Signal } from '@ringlet/shared/charts/signals';
 
 /** ISO 13528 signal classes. */
-export type SignalKind = 'acceptable' | 'warning' | 'action';
+export type SignalKind = Signal;
 
-interface SignalLook {
-  readonly word: string;
-  readonly shape: 'circle' | 'triangle' | 'diamond';
-}
-
-/** Each signal has its own colour, shape and word: never colour alone. */
-export const SIGNAL_LOOKS: Readonly<Record<SignalKind, SignalLook>> = {
-  acceptable: { word: 'Acceptable', shape: 'circle' },
-  warning: { word: 'Warning', shape: 'triangle' },
-  action: { word: 'Action', shape: 'diamond' },
-};
+/** Each signal has its own colour, shape and word (shared/charts/signals.ts): never colour alone. */
+export { SIGNAL_LOOKS };
 
 /** Shows a signal as shape + word + colour, e.g. a teal circle and "Acceptable". */
 @Component({
@@ -58,13 +50,13 @@ export const SIGNAL_LOOKS: Readonly<Record<SignalKind, SignalLook>> = {
       color: var(--rl-signal-color);
     }
     :host(.signal-acceptable) {
-      --rl-signal-color: var(--rl-signal-acceptable, #1b7f79);
+      --rl-signal-color: var(--rl-signal-acceptable);
     }
     :host(.signal-warning) {
-      --rl-signal-color: var(--rl-signal-warning, #b7791f);
+      --rl-signal-color: var(--rl-signal-warning);
     }
     :host(.signal-action) {
-      --rl-signal-color: var(--rl-signal-action, #a4262c);
+      --rl-signal-color: var(--rl-signal-action);
     }
     .shape {
       fill: currentColor;

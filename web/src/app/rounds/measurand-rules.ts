@@ -94,28 +94,8 @@ export function assignedRuleFromForm(f: AssignedValueRuleForm): unknown {
     : { kind: f.kind };
 }
 
-/** One line for the measurands table. */
-export function sigmaRuleText(rule: SigmaPtRuleInput, unit = ''): string {
-  const u = unit ? ` ${unit}` : '';
-  switch (rule.kind) {
-    case 'fixed':
-      return `fixed ${rule.value}${u}`;
-    case 'percent':
-      return `${rule.percent} % of x_pt`;
-    case 'robust-sd':
-      return 'robust SD s*';
-    case 'precision':
-      return `σ_R ${rule.sigmaR}${u}${rule.source ? ` (${rule.source})` : ''}`;
-  }
-}
-
-export function assignedRuleText(rule: AssignedValueRuleInput, unit = ''): string {
-  switch (rule.kind) {
-    case 'consensus':
-      return 'consensus (Algorithm A)';
-    case 'median':
-      return 'median';
-    case 'reference':
-      return `reference ${rule.value} ± ${rule.u}${unit ? ` ${unit}` : ''} (${rule.source})`;
-  }
-}
+/** One line for the measurands table: the shared words (shared/contracts/rule-text.ts). */
+export {
+  assignedValueRuleText as assignedRuleText,
+  sigmaPtRuleText as sigmaRuleText,
+} from '@ringlet/shared/contracts/rule-text';

@@ -1,0 +1,32 @@
+import { readCsv } from './csv';
+
+describe('readCsv (RFC 4180 quoting through papaparse)', () => {
+  it('handles quotes, escaped quotes, CRLF, BOM, blank lines and line numbers', () => {
+    const text = '\ufeffa,b,c\r\n"x, y","say ""hi""",3\r\n\r\n"multi\nline",,5\n';
+    expect(readCsv(text)).toEqual([
+      { line: 1, fields: ['a', 'b', 'c'] },
+      { line: 2, fields: ['x, y', 'say "hi"', '3'] },
+      { line: 4, fields: ['multi\nline', '', '5'] },
+    ]);
+  });
+  it('last line without newline, and an unclosed quote fails', () => {
+    expect(readCsv('a\n1')).toEqual([
+      { line: 1, fields: ['a'] },
+      { line: 2, fields: ['1'] },
+    ]);
+    expect(() => readCsv('a\n"1')).toThrow(/line 2/);
+  });
+  it('mixes line ends, skips comment lines and keeps their line numbers, trims when asked', () => {
+    expect(
+      readCsv('# note "x\rt;g\n 1 ; 2 \r\n\n# c\n3;4', {
+        delimiter: ';',
+        comment: '#',
+        trim: true,
+      }),
+    ).toEqual([
+      { line: 2, fields: ['t', 'g'] },
+      { line: 3, fields: ['1', '2'] },
+      { line: 6, fields: ['3', '4'] },
+    ]);
+  });
+});

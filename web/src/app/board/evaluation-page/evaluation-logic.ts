@@ -114,14 +114,3 @@ export function firstIssue(error: z.ZodError, what: string, fallback: string): s
   const i = error.issues[0];
   return `${i?.path.length ? fieldLabel(i.path.map(String).join('.')) : what}: ${i?.message ?? fallback}`;
 }
-
-/** A σ_pt rule in words (replaced by the shared rule text when it lands). */
-export function ruleText(r: SigmaPtRuleInput): string {
-  return r.kind === 'fixed'
-    ? `fixed ${r.value}`
-    : r.kind === 'percent'
-      ? `${r.percent} % of x_pt`
-      : r.kind === 'robust-sd'
-        ? 'robust SD s*'
-        : `precision σ_R ${r.sigmaR}`;
-}

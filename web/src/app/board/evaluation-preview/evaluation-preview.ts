@@ -1,3 +1,4 @@
+import { sigmaPtRuleText } from '@ringlet/shared/contracts/rule-text';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import type { EvaluationView } from '@ringlet/shared/contracts/evaluation';
 import {
@@ -5,7 +6,6 @@ import {
   fix,
   groupChanged,
   previewOf,
-  ruleText,
   signalChanges,
   signalCounts,
 } from '../evaluation-page/evaluation-logic';
@@ -23,7 +23,7 @@ export class EvaluationPreview {
   protected readonly preview = computed(() => previewOf(this.view(), this.settings()));
   protected readonly changes = computed(() => signalChanges(this.view(), this.preview()));
   protected readonly fix = fix;
-  protected readonly rule = ruleText;
+  protected readonly rule = sigmaPtRuleText;
   protected readonly counts = signalCounts;
   protected changed(gi: number): boolean {
     return groupChanged(this.preview()[gi], this.view().results[gi]);

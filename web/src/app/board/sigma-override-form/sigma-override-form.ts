@@ -1,3 +1,4 @@
+import { sigmaPtRuleText } from '@ringlet/shared/contracts/rule-text';
 import { ChangeDetectionStrategy, Component, effect, inject, input, output } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
@@ -7,7 +8,7 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { type EvaluationView, SigmaPtOverride } from '@ringlet/shared/contracts/evaluation';
-import { firstIssue, overrideRule, ruleText } from '../evaluation-page/evaluation-logic';
+import { firstIssue, overrideRule } from '../evaluation-page/evaluation-logic';
 
 type OverrideKind = 'robust-sd' | 'percent' | 'fixed';
 
@@ -35,7 +36,7 @@ export class SigmaOverrideForm {
   readonly removed = output<number>();
   /** Why the rule was refused (null when it was taken). */
   readonly failed = output<string | null>();
-  protected readonly rule = ruleText;
+  protected readonly rule = sigmaPtRuleText;
   protected readonly form = inject(NonNullableFormBuilder).group({
     measurandKey: [''],
     itemCode: [null as string | null],

@@ -9,7 +9,7 @@ export const BENCH_ROUTES: Routes = [
   {
     path: 'rounds/:id',
     title: 'Round · Lab bench · Ringlet',
-    loadComponent: () => import('./bench-round').then((m) => m.BenchRound),
+    loadComponent: () => import('./bench-round/bench-round').then((m) => m.BenchRound),
   },
   {
     path: 'track-record',

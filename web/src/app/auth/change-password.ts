@@ -6,7 +6,7 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { ChangePasswordRequest } from '@ringlet/shared/contracts/auth';
 import { NewPassword } from '@ringlet/shared/contracts/common';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { fieldIssuesOf, problemMessage, problemOf } from '../core/problem';
 import { applyServerIssues, errorMessage, zodValidator } from '../core/zod-form-errors';
 

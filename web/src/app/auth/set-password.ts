@@ -14,7 +14,7 @@ import { RouterLink } from '@angular/router';
 import { type PasswordTokenInfo, SetPasswordRequest } from '@ringlet/shared/contracts/auth';
 import { NewPassword } from '@ringlet/shared/contracts/common';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { applyServerIssues, errorMessage, zodValidator } from '../core/zod-form-errors';
 
 function passwordsMatch(group: AbstractControl): ValidationErrors | null {

@@ -10,7 +10,7 @@ import { DEFAULT_INSTRUCTIONS, RoundCreate, type Scheme } from '@ringlet/shared/
 import { errorMessage } from '../core/zod-form-errors';
 import { parseWith, showServerError } from './form-errors';
 import { RoundScheduleFields } from './round-schedule-fields';
-import { RoundsService } from './rounds.service';
+import { RoundsService } from './rounds-service';
 
 export interface RoundDialogData {
   readonly schemes: readonly Scheme[];

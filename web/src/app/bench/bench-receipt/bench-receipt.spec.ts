@@ -7,7 +7,7 @@ import { MatSelectHarness } from '@angular/material/select/testing';
 import { of } from 'rxjs';
 import type { MyRoundDetail } from '@ringlet/shared/contracts/bench';
 import { DAMAGED_PARCEL_CAUTIONS } from '@ringlet/shared/contracts/safety';
-import { BenchService } from '../bench.service';
+import { BenchService } from '../bench-service';
 import { BenchReceipt } from './bench-receipt';
 
 const round = { roundId: 'r1', receipt: null, items: [] } as unknown as MyRoundDetail;

@@ -24,7 +24,7 @@ import {
 import { DAMAGED_PARCEL_CAUTIONS } from '@ringlet/shared/contracts/safety';
 import { FileDrop } from '../../core/file-drop';
 import { problemMessage } from '../../core/problem';
-import { BenchService } from '../bench.service';
+import { BenchService } from '../bench-service';
 import { isParcelDamaged } from './receipt-rules';
 
 const CONDITIONS = (Object.entries(SHIPMENT_CONDITION_LABELS) as [ShipmentCondition, string][]).map(

@@ -35,7 +35,7 @@ import { RawFiles } from '../raw-files/raw-files';
 import { SubmittedVersions } from '../submitted-versions/submitted-versions';
 import { problemMessage, problemOf } from '../../core/problem';
 import { DraftAutosave, SAVE_STATE_LABELS } from '../autosave';
-import { BenchService } from '../bench.service';
+import { BenchService } from '../bench-service';
 import {
   CONDITION_FIELDS,
   buildResultsForm,

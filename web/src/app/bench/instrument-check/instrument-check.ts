@@ -16,7 +16,7 @@ import { MatInputModule } from '@angular/material/input';
 import { DEFAULT_CHECK } from '@ringlet/shared/bench/instrument-check';
 import { type InstrumentCheck, InstrumentCheckInput } from '@ringlet/shared/contracts/bench';
 import { fieldLabel, problemMessage } from '../../core/problem';
-import { BenchService } from '../bench.service';
+import { BenchService } from '../bench-service';
 import { checkPreview } from './check-preview';
 
 const run = () =>

@@ -24,7 +24,7 @@ import {
 import type { SubmissionData } from '@ringlet/shared/contracts/submission';
 import { FileDrop } from '../../core/file-drop';
 import { problemMessage, problemOf } from '../../core/problem';
-import { BenchService } from '../bench.service';
+import { BenchService } from '../bench-service';
 import { fileRefusal, parametersText } from './reanalysis-text';
 
 const ATTACHMENT_KIND_LABELS: Record<AttachmentDto['kind'], string> = {

@@ -21,7 +21,7 @@ import {
 } from '@ringlet/shared/contracts/evaluation';
 import { ROUND_STATE_LABELS, type RoundState } from '@ringlet/shared/contracts/round-states';
 import { problemMessage } from '../../core/problem';
-import { BoardService } from '../board.service';
+import { BoardService } from '../board-service';
 import { EvaluationPreview } from '../evaluation-preview/evaluation-preview';
 import { ExclusionForm } from '../exclusion-form/exclusion-form';
 import { RoundComments } from '../round-comments/round-comments';

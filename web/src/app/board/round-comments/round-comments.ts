@@ -13,7 +13,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { problemMessage } from '../../core/problem';
-import { ProviderService } from '../../provider/provider.service';
+import { ProviderService } from '../../provider/provider-service';
 
 /** The coordinator's comments on a round, printed in the round report; editable until published. */
 @Component({

@@ -30,7 +30,7 @@ import { RoundItems } from '../round-items/round-items';
 import { RoundMeasurands } from '../round-measurands/round-measurands';
 import { RoundStudies } from '../round-studies/round-studies';
 import { formatDate, formatMoney } from '../rounds-grid';
-import { RoundsService } from '../rounds.service';
+import { RoundsService } from '../rounds-service';
 import { deskMoves, evaluatedElsewhere, transitionAsk } from './round-moves';
 
 /**

@@ -17,7 +17,7 @@ import type { RowAction } from '../../grid/action-cell';
 import { actionsColumn } from '../../grid/columns';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
 import { ringletGridTheme, rowId } from '../rounds-grid';
-import { RoundsService } from '../rounds.service';
+import { RoundsService } from '../rounds-service';
 import { ENROLMENT_COLUMNS, receiptSummary } from './enrolment-columns';
 
 /** The enrolled labs with the receipt of their test items: dispatch, extension, withdrawal. */

@@ -25,7 +25,7 @@ import {
 import { errorMessage } from '../../core/zod-form-errors';
 import { parseWith, showServerError } from '../form-errors';
 import { ringletGridTheme } from '../rounds-grid';
-import { RoundsService } from '../rounds.service';
+import { RoundsService } from '../rounds-service';
 import { INVITATION_COLUMNS, invitationsFromRows } from './invitation-rows';
 
 /** Inviting labs to an enrolling round (known labs or new ones by address) and the invitations sent. */

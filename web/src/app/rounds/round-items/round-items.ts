@@ -10,7 +10,7 @@ import type { RowAction } from '../../grid/action-cell';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
 import { ItemDialog, type ItemDialogData } from '../item-dialog';
 import { ringletGridTheme, rowId } from '../rounds-grid';
-import { RoundsService } from '../rounds.service';
+import { RoundsService } from '../rounds-service';
 
 /** A round's test items: the grid, and adding, editing and removing while the design is open. */
 @Component({

@@ -24,7 +24,7 @@ import { actionsColumnWhile } from '../../grid/columns';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
 import { MeasurandDialog, type MeasurandDialogData } from '../measurand-dialog';
 import { ringletGridTheme, rowId } from '../rounds-grid';
-import { RoundsService } from '../rounds.service';
+import { RoundsService } from '../rounds-service';
 import { lacksDlsDefaults, MEASURAND_COLUMNS } from './measurand-columns';
 
 /** A round's measurands with their σ_pt and assigned-value rules. */

@@ -30,7 +30,7 @@ import { actionsColumn } from '../../grid/columns';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
 import { parseWith, showServerError } from '../form-errors';
 import { ringletGridTheme } from '../rounds-grid';
-import { RoundsService } from '../rounds.service';
+import { RoundsService } from '../rounds-service';
 import { studyNumbers } from '../study-numbers';
 import { STUDY_COLUMNS, studyInput, studyUpload, type StudyFormValue } from './study-input';
 

@@ -5,46 +5,46 @@ import {
   labManagerGuard,
   outboxGuard,
   roleGuard,
-} from './core/auth.guards';
+} from './core/auth-guards';
 
 export const routes: Routes = [
   { path: '', pathMatch: 'full', canActivate: [homeRedirectGuard], children: [] },
-  { path: '', loadChildren: () => import('./auth/auth.routes').then((m) => m.AUTH_ROUTES) },
+  { path: '', loadChildren: () => import('./auth/auth-routes').then((m) => m.AUTH_ROUTES) },
   {
     path: 'desk',
     canActivate: [authGuard, roleGuard('coordinator')],
-    loadChildren: () => import('./rounds/rounds.routes').then((m) => m.ROUNDS_ROUTES),
+    loadChildren: () => import('./rounds/rounds-routes').then((m) => m.ROUNDS_ROUTES),
   },
   {
     path: 'bench/lab-members',
     canActivate: [authGuard, labManagerGuard],
     loadChildren: () =>
-      import('./bench/lab-members/lab-members.routes').then((m) => m.LAB_MEMBERS_ROUTES),
+      import('./bench/lab-members/lab-members-routes').then((m) => m.LAB_MEMBERS_ROUTES),
   },
   {
     path: 'bench',
     canActivate: [authGuard, roleGuard('lab')],
-    loadChildren: () => import('./bench/bench.routes').then((m) => m.BENCH_ROUTES),
+    loadChildren: () => import('./bench/bench-routes').then((m) => m.BENCH_ROUTES),
   },
   {
     path: 'assessor',
     canActivate: [authGuard, roleGuard('assessor')],
-    loadChildren: () => import('./reports/reports.routes').then((m) => m.REPORTS_ROUTES),
+    loadChildren: () => import('./reports/reports-routes').then((m) => m.REPORTS_ROUTES),
   },
   {
     path: 'admin',
     canActivate: [authGuard, roleGuard('admin')],
-    loadChildren: () => import('./admin/admin.routes').then((m) => m.ADMIN_ROUTES),
+    loadChildren: () => import('./admin/admin-routes').then((m) => m.ADMIN_ROUTES),
   },
   {
     path: 'provider',
     canActivate: [authGuard],
-    loadChildren: () => import('./provider/provider.routes').then((m) => m.PROVIDER_ROUTES),
+    loadChildren: () => import('./provider/provider-routes').then((m) => m.PROVIDER_ROUTES),
   },
   {
     path: 'outbox',
     canActivate: [authGuard, outboxGuard],
-    loadChildren: () => import('./outbox/outbox.routes').then((m) => m.OUTBOX_ROUTES),
+    loadChildren: () => import('./outbox/outbox-routes').then((m) => m.OUTBOX_ROUTES),
   },
   {
     path: 'invitations/:token',
@@ -54,7 +54,7 @@ export const routes: Routes = [
   {
     path: 'board',
     canActivate: [authGuard],
-    loadChildren: () => import('./board/board.routes').then((m) => m.BOARD_ROUTES),
+    loadChildren: () => import('./board/board-routes').then((m) => m.BOARD_ROUTES),
   },
   {
     path: 'no-role',

@@ -1,6 +1,6 @@
 import { inject } from '@angular/core';
 import { Router, type CanActivateFn, type Routes } from '@angular/router';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 
 /** Admins and coordinators edit the provider profile; others go home. */
 export const providerEditorGuard: CanActivateFn = async () => {

@@ -2,7 +2,7 @@ import { HttpErrorResponse, type HttpInterceptorFn, type HttpRequest } from '@an
 import { inject } from '@angular/core';
 import { catchError, from, switchMap, throwError } from 'rxjs';
 import { loadContracts } from './contracts';
-import { CsrfService } from './csrf.service';
+import { CsrfService } from './csrf-service';
 
 export const CSRF_HEADER = 'x-csrf-token';
 const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);

@@ -1,5 +1,5 @@
 import type { Routes } from '@angular/router';
-import { authGuard } from '../core/auth.guards';
+import { authGuard } from '../core/auth-guards';
 
 export const AUTH_ROUTES: Routes = [
   {

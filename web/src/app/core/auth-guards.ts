@@ -2,8 +2,8 @@ import { inject } from '@angular/core';
 import { type CanActivateFn, Router, type UrlTree } from '@angular/router';
 import type { Role } from '@ringlet/shared/contracts/auth';
 import { loadContracts } from './contracts';
-import { AuthService } from './auth.service';
-import { HealthService } from './health.service';
+import { AuthService } from './auth-service';
+import { HealthService } from './health-service';
 
 function signInTree(router: Router, returnUrl: string): UrlTree {
   return router.createUrlTree(['/sign-in'], {

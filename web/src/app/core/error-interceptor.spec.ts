@@ -5,7 +5,7 @@ import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, provideRouter } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { HANDLED_STATUSES } from './api';
-import { errorInterceptor } from './error.interceptor';
+import { errorInterceptor } from './error-interceptor';
 import { settle } from './testing';
 
 describe('errorInterceptor', () => {

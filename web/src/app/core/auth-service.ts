@@ -10,7 +10,7 @@ import type {
 } from '@ringlet/shared/contracts/auth';
 import { API, HANDLED_STATUSES } from './api';
 import { loadContracts } from './contracts';
-import { CsrfService } from './csrf.service';
+import { CsrfService } from './csrf-service';
 
 const handled = (...statuses: number[]) => new HttpContext().set(HANDLED_STATUSES, statuses);
 

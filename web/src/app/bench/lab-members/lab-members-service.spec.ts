@@ -5,7 +5,7 @@ import { firstValueFrom } from 'rxjs';
 import type { AssessorGrantDto } from '@ringlet/shared/contracts/evaluation';
 import { HANDLED_STATUSES } from '../../core/api';
 import { grantState } from './assessor-grants';
-import { LabMembersService } from './lab-members.service';
+import { LabMembersService } from './lab-members-service';
 
 const LAB = '0b6a7c1e-2d3f-4a5b-8c9d-0e1f2a3b4c5d';
 const GRANT = '5c4b3a29-1807-4f6e-9d5c-4b3a29180706';

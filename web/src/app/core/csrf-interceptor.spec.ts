@@ -2,7 +2,7 @@ import { HttpClient, provideHttpClient, withInterceptors } from '@angular/common
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
-import { csrfInterceptor } from './csrf.interceptor';
+import { csrfInterceptor } from './csrf-interceptor';
 import { settle } from './testing';
 
 describe('csrfInterceptor', () => {

@@ -22,7 +22,7 @@ import {
 } from '@ringlet/shared/contracts/bench';
 import type { SubmissionData } from '@ringlet/shared/contracts/submission';
 import { API, HANDLED_STATUSES } from '../core/api';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 
 /** Calls whose errors the page shows itself (field errors, rule breaks, conflicts, offline). */
 const handled = (...statuses: number[]) => ({

@@ -9,7 +9,7 @@ import {
   UrlTree,
 } from '@angular/router';
 import type { Me } from '@ringlet/shared/contracts/auth';
-import { authGuard, homeRedirectGuard, labManagerGuard, roleGuard } from './auth.guards';
+import { authGuard, homeRedirectGuard, labManagerGuard, roleGuard } from './auth-guards';
 import { aMe, settle } from './testing';
 
 describe('auth guards', () => {

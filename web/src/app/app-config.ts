@@ -10,11 +10,11 @@ import { provideHttpClient, withFetch, withInterceptors } from '@angular/common/
 import { provideRouter, withComponentInputBinding } from '@angular/router';
 import { MatIconRegistry } from '@angular/material/icon';
 import { MAT_FORM_FIELD_DEFAULT_OPTIONS } from '@angular/material/form-field';
-import { routes } from './app.routes';
+import { routes } from './app-routes';
 import { AppErrorHandler } from './core/app-error-handler';
-import { HealthService } from './core/health.service';
-import { csrfInterceptor } from './core/csrf.interceptor';
-import { errorInterceptor } from './core/error.interceptor';
+import { HealthService } from './core/health-service';
+import { csrfInterceptor } from './core/csrf-interceptor';
+import { errorInterceptor } from './core/error-interceptor';
 
 export const appConfig: ApplicationConfig = {
   providers: [

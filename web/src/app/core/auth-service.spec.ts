@@ -2,9 +2,9 @@ import { provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
-import { AuthService } from './auth.service';
-import { csrfInterceptor } from './csrf.interceptor';
-import { CsrfService } from './csrf.service';
+import { AuthService } from './auth-service';
+import { csrfInterceptor } from './csrf-interceptor';
+import { CsrfService } from './csrf-service';
 import { aMe, settle } from './testing';
 
 describe('AuthService', () => {

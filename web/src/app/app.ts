@@ -16,8 +16,8 @@ import { MatToolbarModule } from '@angular/material/toolbar';
 import { MatTooltipModule } from '@angular/material/tooltip';
 import { Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
 import { map } from 'rxjs';
-import { AuthService } from './core/auth.service';
-import { HealthService } from './core/health.service';
+import { AuthService } from './core/auth-service';
+import { HealthService } from './core/health-service';
 import { LabChooser } from './core/lab-chooser';
 import { navEntries } from './core/nav';
 

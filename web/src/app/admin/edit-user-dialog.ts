@@ -12,7 +12,7 @@ import type { GlobalRole } from '@ringlet/shared/contracts/auth';
 import { type User, UserUpdate } from '@ringlet/shared/contracts/admin';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
 import { applyServerIssues, applyZodIssues, errorMessage } from '../core/zod-form-errors';
-import { AdminService } from './admin.service';
+import { AdminService } from './admin-service';
 import { GLOBAL_ROLE_LABELS, GLOBAL_ROLES } from './role-labels';
 
 @Component({

@@ -17,7 +17,7 @@ import {
   errorMessage,
   zodValidator,
 } from '../core/zod-form-errors';
-import { AdminService } from './admin.service';
+import { AdminService } from './admin-service';
 import { GLOBAL_ROLE_LABELS, GLOBAL_ROLES } from './role-labels';
 
 export interface InviteUserData {

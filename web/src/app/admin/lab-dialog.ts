@@ -21,7 +21,7 @@ import {
   errorMessage,
   zodValidator,
 } from '../core/zod-form-errors';
-import { AdminService } from './admin.service';
+import { AdminService } from './admin-service';
 
 /** Create a lab (data null) or edit one. */
 @Component({

@@ -16,7 +16,7 @@ import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import type { Membership, Organisation, User } from '@ringlet/shared/contracts/admin';
-import { AdminService } from './admin.service';
+import { AdminService } from './admin-service';
 
 /** One lab's members: add, remove, and toggle who manages the lab. */
 @Component({

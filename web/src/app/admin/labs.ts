@@ -8,7 +8,7 @@ import type { ColDef } from 'ag-grid-community';
 import type { Organisation } from '@ringlet/shared/contracts/admin';
 import { ActionCell, type RowAction } from '../grid/action-cell';
 import { formatDateTime, ringletGridTheme } from './admin-grid';
-import { AdminService } from './admin.service';
+import { AdminService } from './admin-service';
 import { LabDialog } from './lab-dialog';
 
 @Component({

@@ -10,7 +10,7 @@ import type { ColDef } from 'ag-grid-community';
 import type { Organisation, User } from '@ringlet/shared/contracts/admin';
 import { ActionCell, type RowAction } from '../grid/action-cell';
 import { formatDateTime, ringletGridTheme } from './admin-grid';
-import { AdminService } from './admin.service';
+import { AdminService } from './admin-service';
 import { EditUserDialog } from './edit-user-dialog';
 import { InviteUserDialog, type InviteUserData } from './invite-user-dialog';
 import { GLOBAL_ROLE_LABELS } from './role-labels';

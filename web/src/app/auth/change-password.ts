@@ -5,7 +5,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { ChangePasswordRequest } from '@ringlet/shared/contracts/auth';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { fieldIssuesOf, problemMessage, problemOf } from '../core/problem';
 import { applyServerIssues, errorMessage } from '../core/zod-form-errors';
 import { NEW_PASSWORD_VALIDATORS, NewPasswordField } from './new-password-field';

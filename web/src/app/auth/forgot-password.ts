@@ -7,7 +7,7 @@ import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { PasswordResetRequest } from '@ringlet/shared/contracts/auth';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { applyServerIssues, errorMessage, parseForm, zodValidator } from '../core/zod-form-errors';
 
 @Component({

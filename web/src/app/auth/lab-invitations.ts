@@ -7,7 +7,7 @@ import * as z from 'zod';
 import { LabInvitation } from '@ringlet/shared/contracts/admin';
 import { Me, homePath } from '@ringlet/shared/contracts/auth';
 import { API, HANDLED_STATUSES } from '../core/api';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { problemMessage } from '../core/problem';
 
 const handled = { context: new HttpContext().set(HANDLED_STATUSES, [404, 422]) };

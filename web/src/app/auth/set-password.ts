@@ -13,7 +13,7 @@ import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { type PasswordTokenInfo, SetPasswordRequest } from '@ringlet/shared/contracts/auth';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { applyServerIssues, errorMessage } from '../core/zod-form-errors';
 import { NEW_PASSWORD_VALIDATORS, NewPasswordField } from './new-password-field';
 

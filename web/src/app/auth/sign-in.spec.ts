@@ -5,8 +5,8 @@ import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { Router, provideRouter } from '@angular/router';
-import { csrfInterceptor } from '../core/csrf.interceptor';
-import { errorInterceptor } from '../core/error.interceptor';
+import { csrfInterceptor } from '../core/csrf-interceptor';
+import { errorInterceptor } from '../core/error-interceptor';
 import { aMe, settle } from '../core/testing';
 import { SignIn, safeReturnUrl } from './sign-in';
 

@@ -7,7 +7,7 @@ import { MatInputModule } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
 import { homePath, SignInRequest } from '@ringlet/shared/contracts/auth';
 import { fieldIssuesOf, problemMessage, problemOf } from '../core/problem';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { applyServerIssues, errorMessage, parseForm, zodValidator } from '../core/zod-form-errors';
 
 /** A return address is only followed if it stays inside the app. */

@@ -3,7 +3,7 @@ import { ChangeDetectionStrategy, Component, effect, inject, signal } from '@ang
 import { RouterLink } from '@angular/router';
 import type { MyRound, MyRoundStatus } from '@ringlet/shared/contracts/bench';
 import { LabChooser } from '../core/lab-chooser';
-import { BenchService } from './bench.service';
+import { BenchService } from './bench-service';
 
 export const STATUS_LABELS: Record<MyRoundStatus, string> = {
   invited: 'Invited',

@@ -11,7 +11,7 @@ import { provideEchartsCore } from 'ngx-echarts';
 import type { TrackRecord as TrackRecordData } from '@ringlet/shared/contracts/evaluation';
 import { trackOption, trackText } from '@ringlet/shared/charts/board-charts';
 import { ChartPanel } from '../board/chart-panel';
-import { BoardService } from '../board/board.service';
+import { BoardService } from '../board/board-service';
 import { SignalBadge } from '../core/signal-badge';
 
 /** A lab's Track record: z-scores across rounds per measurand, run rules and RSZ. */

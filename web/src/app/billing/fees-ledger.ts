@@ -32,7 +32,7 @@ import type { Observable } from 'rxjs';
 import { problemMessage } from '../core/problem';
 import { ActionCell, type RowAction } from '../grid/action-cell';
 import { ringletGridTheme } from '../grid/grid-theme';
-import { BillingService } from './billing.service';
+import { BillingService } from './billing-service';
 import { CreditDialog, MarkPaidDialog } from './ledger-dialogs';
 
 ModuleRegistry.registerModules([ClientSideRowModelModule, TextFilterModule, CellStyleModule]);

@@ -20,10 +20,10 @@ import {
   type Invoice,
   type InvoiceStatus,
 } from '@ringlet/shared/contracts/billing';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { problemMessage } from '../core/problem';
 import { applyZodIssues, errorMessage } from '../core/zod-form-errors';
-import { BillingService } from './billing.service';
+import { BillingService } from './billing-service';
 
 const STATUS_ICON: Record<InvoiceStatus, string> = {
   issued: 'schedule',

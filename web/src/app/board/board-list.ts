@@ -4,11 +4,11 @@ import { AgGridAngular, type ICellRendererAngularComp } from 'ag-grid-angular';
 import type { ColDef, ICellRendererParams } from 'ag-grid-community';
 import { EVALUATION_STATE_LABELS, type BoardListEntry } from '@ringlet/shared/contracts/evaluation';
 import { ROUND_STATE_LABELS, type RoundState } from '@ringlet/shared/contracts/round-states';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { SignalBadge, type SignalKind } from '../core/signal-badge';
 import { ActionCell, type RowAction } from '../grid/action-cell';
 import { ringletGridTheme } from './board-grid';
-import { BoardService } from './board.service';
+import { BoardService } from './board-service';
 
 /** Grid cell: a signal count as shape + number + colour (the header carries the word). */
 @Component({

@@ -26,11 +26,11 @@ import type {
   RowStyle,
 } from 'ag-grid-community';
 import type { BoardData, BoardRow } from '@ringlet/shared/contracts/evaluation';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { problemMessage } from '../core/problem';
 import { ringletGridTheme, safeCsvCell } from './board-grid';
 import { chartsFor } from './board-charts';
-import { BoardService } from './board.service';
+import { BoardService } from './board-service';
 import { ChartPanel } from './chart-panel';
 import { SignalCell } from './signal-cell';
 

@@ -5,9 +5,9 @@ import {
   INVESTIGATION_STATE_LABELS,
   type InvestigationDto,
 } from '@ringlet/shared/contracts/evaluation';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { SignalBadge } from '../core/signal-badge';
-import { BoardService } from './board.service';
+import { BoardService } from './board-service';
 
 /** Investigations: a lab's own; every one for the coordinator; granting labs' for an assessor. */
 @Component({

@@ -16,7 +16,7 @@ import {
 } from '@ringlet/shared/contracts/evaluation';
 import { problemMessage } from '../core/problem';
 import { SignalBadge } from '../core/signal-badge';
-import { BoardService } from './board.service';
+import { BoardService } from './board-service';
 
 /** One investigation: the lab records its findings; the manager closes it; others read. */
 @Component({

@@ -4,7 +4,7 @@ import { RouterLink } from '@angular/router';
 import type { LabScores } from '@ringlet/shared/contracts/evaluation';
 import { problemMessage, problemOf } from '../core/problem';
 import { SignalBadge } from '../core/signal-badge';
-import { BoardService } from './board.service';
+import { BoardService } from './board-service';
 
 /** A lab's own scores of a published round, each with a plain-language explanation. */
 @Component({

@@ -1,6 +1,6 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { RouterLink } from '@angular/router';
-import { AuthService } from './auth.service';
+import { AuthService } from './auth-service';
 
 @Component({
   selector: 'app-no-role',

@@ -1,5 +1,5 @@
 import { HttpErrorResponse } from '@angular/common/http';
-import { z } from 'zod';
+import * as z from 'zod';
 import { FieldIssue, ProblemBody } from '@ringlet/shared/contracts/common';
 
 const FieldIssues = z.array(FieldIssue);

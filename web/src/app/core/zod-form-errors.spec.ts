@@ -1,5 +1,5 @@
 import { FormControl, FormGroup } from '@angular/forms';
-import { z } from 'zod';
+import * as z from 'zod';
 import { SignInRequest } from '@ringlet/shared/contracts/auth';
 import {
   applyServerIssues,

@@ -1,5 +1,5 @@
 import type { AbstractControl, ValidationErrors, ValidatorFn } from '@angular/forms';
-import type { z } from 'zod';
+import type * as z from 'zod';
 import type { FieldIssue } from '@ringlet/shared/contracts/common';
 
 /** One problem with one field, as zod reports it (`path` is the field's path in the form). */

@@ -11,9 +11,9 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { MatListModule } from '@angular/material/list';
 import type { OutboxMessage } from '@ringlet/shared/contracts/admin';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { linkify } from './linkify';
-import { OutboxService } from './outbox.service';
+import { OutboxService } from './outbox-service';
 
 /** The development mail viewer: captured e-mails, newest first; links in them are clickable. */
 @Component({

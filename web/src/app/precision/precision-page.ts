@@ -20,7 +20,7 @@ import { DecisionsList } from './decisions-list';
 import { FitPanel } from './fit-panel';
 import { LevelPanel } from './level-panel';
 import { PendingList } from './pending-list';
-import { PrecisionService } from './precision.service';
+import { PrecisionService } from './precision-service';
 import {
   fix,
   inputFromAnalysis,

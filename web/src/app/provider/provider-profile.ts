@@ -13,7 +13,7 @@ import { API } from '../core/api';
 import { FileDrop } from '../core/file-drop';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
 import { applyServerIssues, applyZodIssues, errorMessage } from '../core/zod-form-errors';
-import { ProviderService } from './provider.service';
+import { ProviderService } from './provider-service';
 
 type FieldKey = keyof ProviderProfileInput;
 

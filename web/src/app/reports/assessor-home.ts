@@ -1,8 +1,8 @@
 import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
 import { RouterLink } from '@angular/router';
 import type { AssessorLab } from '@ringlet/shared/contracts/reports';
-import { AuthService } from '../core/auth.service';
-import { ReportsService } from './reports.service';
+import { AuthService } from '../core/auth-service';
+import { ReportsService } from './reports-service';
 
 /** The assessor's start page: the labs whose active grant lets the assessor read them. */
 @Component({

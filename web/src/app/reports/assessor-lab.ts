@@ -6,7 +6,7 @@ import type { AssessorLabDetail } from '@ringlet/shared/contracts/reports';
 import { ROUND_STATE_LABELS, type RoundState } from '@ringlet/shared/contracts/round-states';
 import { DownloadButton } from './download-button';
 import { ReportDownloads } from './report-downloads';
-import { ReportsService } from './reports.service';
+import { ReportsService } from './reports-service';
 
 /** One granting lab: its rounds with report downloads, investigations, instrument checks, and its Evidence pack. */
 @Component({

@@ -12,7 +12,7 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { timer, switchMap, takeWhile, last } from 'rxjs';
 import type { ReportStatus } from '@ringlet/shared/contracts/reports';
 import { BuildState } from './build-state';
-import { ReportsService, saveFile } from './reports.service';
+import { ReportsService, saveFile } from './reports-service';
 
 /**
  * One file download with its progress: bytes received, or the progress of a background build

@@ -3,9 +3,9 @@ import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } fro
 import { MatButtonModule } from '@angular/material/button';
 import { RouterLink } from '@angular/router';
 import type { InvitationAcceptResult, InvitationInfo } from '@ringlet/shared/contracts/rounds';
-import { AuthService } from '../core/auth.service';
+import { AuthService } from '../core/auth-service';
 import { problemMessage } from '../core/problem';
-import { RoundsService } from './rounds.service';
+import { RoundsService } from './rounds-service';
 
 /** The page an invitation e-mail links to: shows the round and enrols the lab on acceptance. */
 @Component({

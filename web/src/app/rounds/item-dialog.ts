@@ -8,7 +8,7 @@ import type { Observable } from 'rxjs';
 import { type TestItem, TestItemInput, TestItemUpdate } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../core/zod-form-errors';
 import { parseWith, pathMap, showServerError } from './form-errors';
-import { RoundsService } from './rounds.service';
+import { RoundsService } from './rounds-service';
 
 export interface ItemDialogData {
   readonly roundId: string;

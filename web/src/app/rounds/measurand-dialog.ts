@@ -19,7 +19,7 @@ import {
   sigmaRuleFromForm,
   sigmaRuleToForm,
 } from './measurand-rules';
-import { RoundsService } from './rounds.service';
+import { RoundsService } from './rounds-service';
 
 export interface MeasurandDialogData {
   readonly roundId: string;

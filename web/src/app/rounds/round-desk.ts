@@ -14,7 +14,7 @@ import { ROUND_STATE_LABELS } from '@ringlet/shared/contracts/round-states';
 import { ActionCell, type RowAction } from '../grid/action-cell';
 import { RoundDialog } from './round-dialog';
 import { formatDate, formatMoney, ringletGridTheme } from './rounds-grid';
-import { RoundsService } from './rounds.service';
+import { RoundsService } from './rounds-service';
 import { SchemeDialog } from './scheme-dialog';
 
 /** The coordinator's workspace: every round in one grid, and the way to start new ones. */

@@ -16,7 +16,7 @@ import {
 import { errorMessage } from '../core/zod-form-errors';
 import { parseWith, showServerError } from './form-errors';
 import { RoundScheduleFields } from './round-schedule-fields';
-import { RoundsService } from './rounds.service';
+import { RoundsService } from './rounds-service';
 
 export interface RoundDialogData {
   readonly schemes: readonly Scheme[];

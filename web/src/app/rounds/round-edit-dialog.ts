@@ -16,7 +16,7 @@ import { errorMessage } from '../core/zod-form-errors';
 import { parseWith, pathMap, showServerError } from './form-errors';
 import { localToIso } from './round-dialog';
 import { RoundScheduleFields } from './round-schedule-fields';
-import { RoundsService } from './rounds.service';
+import { RoundsService } from './rounds-service';
 
 /** ISO 8601 → the value a datetime-local input shows, in the user's time zone ("2026-06-30T14:00"). */
 export function isoToLocal(iso: string | null): string {

@@ -11,7 +11,7 @@ import {
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../core/zod-form-errors';
 import { parseWith, showServerError } from './form-errors';
-import { RoundsService } from './rounds.service';
+import { RoundsService } from './rounds-service';
 
 /** Create a PT scheme; new schemes measure the DLS defaults (Z-average and PDI). */
 @Component({

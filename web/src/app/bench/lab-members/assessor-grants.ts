@@ -21,7 +21,7 @@ import {
   errorMessage,
   zodValidator,
 } from '../../core/zod-form-errors';
-import { LabMembersService } from './lab-members.service';
+import { LabMembersService } from './lab-members-service';
 import { RevokeGrantDialog } from './revoke-grant-dialog';
 
 export type GrantState = 'active' | 'upcoming' | 'ended' | 'revoked';

@@ -20,7 +20,7 @@ import {
   LabMemberInvite,
   type Membership,
 } from '@ringlet/shared/contracts/admin';
-import { AuthService } from '../../core/auth.service';
+import { AuthService } from '../../core/auth-service';
 import * as z from 'zod';
 import { Email, FieldIssue } from '@ringlet/shared/contracts/common';
 import { fieldIssuesOf, problemMessage, problemOf } from '../../core/problem';
@@ -31,7 +31,7 @@ import {
   zodValidator,
 } from '../../core/zod-form-errors';
 import { AssessorGrants } from './assessor-grants';
-import { LabMembersService } from './lab-members.service';
+import { LabMembersService } from './lab-members-service';
 
 /** For lab managers: who belongs to the lab, invite a colleague, remove one; assessor access. */
 @Component({

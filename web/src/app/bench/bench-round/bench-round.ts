@@ -1,0 +1,277 @@
+import { DatePipe } from '@angular/common';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  DestroyRef,
+  OnInit,
+  computed,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { FormControl, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { RouterLink } from '@angular/router';
+import {
+  checkResults,
+  instrumentCheckNotice,
+  type CheckOutcome,
+} from '@ringlet/shared/bench/submission-checks';
+import {
+  type InstrumentCheck,
+  type MyRoundDetail,
+  type SubmissionVersionDto,
+} from '@ringlet/shared/contracts/bench';
+import type { SubmissionData } from '@ringlet/shared/contracts/submission';
+import { BenchReceipt } from '../bench-receipt/bench-receipt';
+import { InstrumentCheckCard } from '../instrument-check/instrument-check';
+import { HandlingCard } from '../handling-card/handling-card';
+import { RawFiles } from '../raw-files/raw-files';
+import { SubmittedVersions } from '../submitted-versions/submitted-versions';
+import { problemMessage, problemOf } from '../../core/problem';
+import { DraftAutosave, SAVE_STATE_LABELS } from '../autosave';
+import { BenchService } from '../bench-service';
+import {
+  CONDITION_FIELDS,
+  buildResultsForm,
+  resultsFromForm,
+  type ResultsForm,
+} from '../results-form';
+import { STATUS_LABELS } from '../lab-bench';
+
+const UNCERTAINTY_KINDS = [
+  { value: 'none', label: 'None given' },
+  { value: 'standard', label: 'Standard u' },
+  { value: 'expanded', label: 'Expanded U' },
+] as const;
+
+/** One round on the Lab bench: receipt, instrument check, results entry, files, submit and amend. */
+@Component({
+  selector: 'app-bench-round',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [
+    DatePipe,
+    RouterLink,
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatCheckboxModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    BenchReceipt,
+    InstrumentCheckCard,
+    SubmittedVersions,
+    RawFiles,
+    HandlingCard,
+  ],
+  templateUrl: './bench-round.html',
+  styleUrl: './bench-round.scss',
+})
+export class BenchRound implements OnInit {
+  readonly id = input.required<string>();
+  private readonly bench = inject(BenchService);
+  private readonly destroyRef = inject(DestroyRef);
+
+  protected readonly round = signal<MyRoundDetail | null>(null);
+  protected readonly loadError = signal<string | null>(null);
+  protected readonly statusLabels = STATUS_LABELS;
+  protected readonly uncertaintyKinds = UNCERTAINTY_KINDS;
+  protected readonly conditionFields = CONDITION_FIELDS;
+  protected readonly saveLabels = SAVE_STATE_LABELS;
+
+  protected readonly checks = signal<InstrumentCheck[]>([]);
+
+  // Results
+  protected form: ResultsForm | null = null;
+  protected readonly data = signal<SubmissionData | null>(null);
+  protected readonly acknowledged = signal<string[]>([]);
+  protected readonly explanation = new FormControl('', { nonNullable: true });
+  protected readonly amendNote = new FormControl('', { nonNullable: true });
+  protected autosave: DraftAutosave<SubmissionData> | null = null;
+  protected readonly outcome = computed<CheckOutcome | null>(() => {
+    const r = this.round();
+    const d = this.data();
+    if (!r || !d) return null;
+    return checkResults(
+      d,
+      { protocolTemperatureC: r.protocolTemperatureC, items: r.items, measurands: r.measurands },
+      false,
+    );
+  });
+  protected readonly errorsByPath = computed(
+    () => new Map((this.outcome()?.errors ?? []).map((e) => [e.path, e.message])),
+  );
+  protected readonly checkNotice = computed(() => {
+    const d = this.data();
+    const names = new Set(
+      (d?.items ?? []).map((i) => i.conditions.instrument.trim().toLowerCase()).filter(Boolean),
+    );
+    const list = this.checks();
+    const latest = names.size
+      ? (list.find((c) => names.has(c.instrument.trim().toLowerCase())) ?? null)
+      : (list[0] ?? null);
+    return instrumentCheckNotice(
+      latest
+        ? {
+            passed: latest.verdict.passed,
+            instrument: latest.instrument,
+            checkedAt: latest.checkedAt,
+          }
+        : null,
+    );
+  });
+  protected readonly versions = signal<SubmissionVersionDto[]>([]);
+  protected readonly submitting = signal(false);
+  protected readonly submitMessage = signal<{ kind: 'ok' | 'error'; text: string } | null>(null);
+  private submitKey: string | null = null;
+
+  ngOnInit(): void {
+    const online = () => this.autosave?.retry();
+    window.addEventListener('online', online);
+    this.destroyRef.onDestroy(() => {
+      window.removeEventListener('online', online);
+      this.autosave?.stop();
+    });
+    this.load();
+  }
+
+  private load(): void {
+    this.bench.round(this.id()).subscribe({
+      next: (r) => {
+        this.round.set(r);
+        this.loadSubmission(r);
+      },
+      error: (e) => this.loadError.set(problemMessage(e)),
+    });
+    this.bench.instrumentChecks().subscribe((c) => this.checks.set(c));
+  }
+
+  private loadSubmission(r: MyRoundDetail): void {
+    this.bench.submission(this.id()).subscribe((view) => {
+      this.autosave?.stop();
+      this.autosave = new DraftAutosave<SubmissionData>(
+        (data, base) => this.bench.saveDraft(this.id(), data, base),
+        `ringlet.draft.${this.bench.labId()}.${this.id()}`,
+      );
+      const local = this.autosave.start(view.draftRevision);
+      const draft = local ?? view.draft;
+      if (view.savedAt) this.autosave.savedAt.set(view.savedAt);
+      if (view.isLocked) this.autosave.state.set('locked');
+      else if (view.savedAt) this.autosave.state.set('saved');
+      this.versions.set(view.versions);
+      this.acknowledged.set(draft.acknowledgedWarnings);
+      this.explanation.setValue(draft.explanation, { emitEvent: false });
+      this.form = buildResultsForm(r.items, r.measurands, draft, r.protocolTemperatureC);
+      if (view.isLocked) this.form.disable({ emitEvent: false });
+      this.refreshData(false);
+      if (local) this.autosave.changed(this.data()!); // an unsaved copy from before a reload
+      this.form.valueChanges
+        .pipe(takeUntilDestroyed(this.destroyRef))
+        .subscribe(() => this.refreshData(true));
+      this.explanation.valueChanges
+        .pipe(takeUntilDestroyed(this.destroyRef))
+        .subscribe(() => this.refreshData(true));
+    });
+  }
+
+  private refreshData(save: boolean): void {
+    const r = this.round();
+    if (!r || !this.form) return;
+    const data = resultsFromForm(
+      this.form,
+      r.items,
+      r.measurands,
+      this.acknowledged(),
+      this.explanation.value,
+    );
+    this.data.set(data);
+    if (save) this.autosave?.changed(data);
+  }
+
+  protected rep(ii: number, mi: number, k: number): FormControl<number | null> {
+    return this.form!.at(ii).controls.results.at(mi).controls.replicates.at(k);
+  }
+  protected row(ii: number, mi: number) {
+    return this.form!.at(ii).controls.results.at(mi).controls;
+  }
+  protected cond(ii: number, key: string): FormControl {
+    return this.form!.at(ii).controls.conditions.get(key) as FormControl;
+  }
+  protected notes(ii: number): FormControl<string> {
+    return this.form!.at(ii).controls.methodNotes;
+  }
+  protected runIndexes(n: number): number[] {
+    return Array.from({ length: n }, (_, i) => i);
+  }
+  protected errorAt(path: string): string | undefined {
+    return this.errorsByPath().get(path);
+  }
+  protected isAcknowledged(code: string): boolean {
+    return this.acknowledged().includes(code);
+  }
+  protected acknowledge(code: string, on: boolean): void {
+    this.acknowledged.update((list) =>
+      on ? [...new Set([...list, code])] : list.filter((c) => c !== code),
+    );
+    this.refreshData(true);
+  }
+  protected retrySave(): void {
+    this.autosave?.retry();
+  }
+  protected reloadDraft(): void {
+    const r = this.round();
+    if (r) this.loadSubmission(r);
+  }
+
+  protected checkRecorded(c: InstrumentCheck): void {
+    this.checks.update((list) => [c, ...list]);
+  }
+
+  // ---------------------------------------------------------------- submit
+  protected submit(): void {
+    const data = this.data();
+    const outcome = this.outcome();
+    if (!data || !outcome) return;
+    const r = this.round()!;
+    const full = checkResults(
+      data,
+      { protocolTemperatureC: r.protocolTemperatureC, items: r.items, measurands: r.measurands },
+      true,
+    );
+    if (full.errors.length)
+      return this.submitMessage.set({ kind: 'error', text: full.errors[0]!.message });
+    if (full.unacknowledged.length)
+      return this.submitMessage.set({
+        kind: 'error',
+        text: `Acknowledge ${full.unacknowledged.length} warning(s) first.`,
+      });
+    if (this.checkNotice() && !data.explanation.trim())
+      return this.submitMessage.set({ kind: 'error', text: this.checkNotice()! });
+    this.submitKey ??= crypto.randomUUID();
+    this.submitting.set(true);
+    const note = this.versions().length ? this.amendNote.value.trim() || undefined : undefined;
+    this.bench.submit(this.id(), this.submitKey, data, note).subscribe({
+      next: (res) => {
+        this.submitKey = null;
+        this.submitting.set(false);
+        this.amendNote.setValue('');
+        this.submitMessage.set({ kind: 'ok', text: `Version ${res.version.version} submitted.` });
+        this.versions.update((v) =>
+          v.some((x) => x.version === res.version.version) ? v : [res.version, ...v],
+        );
+        this.reloadDraft();
+        this.bench.round(this.id()).subscribe((rr) => this.round.set(rr));
+      },
+      error: (e) => {
+        this.submitting.set(false);
+        if (problemOf(e)) this.submitKey = null; // the server answered: a new attempt is a new intent
+        this.submitMessage.set({ kind: 'error', text: problemMessage(e) });
+      },
+    });
+  }
+}

@@ -1,0 +1,78 @@
+import { sigmaPtRuleText } from '@ringlet/shared/contracts/rule-text';
+import { ChangeDetectionStrategy, Component, effect, inject, input, output } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import { type EvaluationView, SigmaPtOverride } from '@ringlet/shared/contracts/evaluation';
+import { firstIssue, overrideRule } from '../evaluation-page/evaluation-logic';
+
+type OverrideKind = 'robust-sd' | 'percent' | 'fixed';
+
+/** A σ_pt rule for one measurand (every item or one), with its reason, and the rules set so far. */
+@Component({
+  selector: 'app-sigma-override-form',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [
+    ReactiveFormsModule,
+    MatButtonModule,
+    MatFormFieldModule,
+    MatIconModule,
+    MatInputModule,
+    MatSelectModule,
+  ],
+  templateUrl: './sigma-override-form.html',
+  styleUrl: '../board.scss',
+})
+export class SigmaOverrideForm {
+  readonly view = input.required<Pick<EvaluationView, 'measurands' | 'items'>>();
+  readonly overrides = input.required<readonly SigmaPtOverride[]>();
+  /** A valid rule to apply. */
+  readonly added = output<SigmaPtOverride>();
+  /** The index of a rule to take back. */
+  readonly removed = output<number>();
+  /** Why the rule was refused (null when it was taken). */
+  readonly failed = output<string | null>();
+  protected readonly rule = sigmaPtRuleText;
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    measurandKey: [''],
+    itemCode: [null as string | null],
+    kind: ['percent' as OverrideKind],
+    value: [null as number | null],
+    reason: [''],
+  });
+  protected readonly kind = toSignal(this.form.controls.kind.valueChanges, {
+    initialValue: this.form.controls.kind.value,
+  });
+
+  constructor() {
+    effect(() => {
+      const first = this.view().measurands[0]?.key;
+      const c = this.form.controls.measurandKey;
+      if (!c.value && first) c.setValue(first);
+    });
+  }
+
+  protected measurandName(key: string): string {
+    return this.view().measurands.find((m) => m.key === key)?.name ?? key;
+  }
+
+  protected add(): void {
+    const v = this.form.getRawValue();
+    const parsed = SigmaPtOverride.safeParse({
+      measurandKey: v.measurandKey,
+      itemCode: v.itemCode,
+      rule: overrideRule(v.kind, v.value),
+      reason: v.reason,
+    });
+    if (!parsed.success) {
+      this.failed.emit(firstIssue(parsed.error, 'σ_pt rule', 'check the value'));
+      return;
+    }
+    this.failed.emit(null);
+    this.added.emit(parsed.data);
+  }
+}

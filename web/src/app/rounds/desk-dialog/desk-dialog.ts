@@ -1,0 +1,143 @@
+import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatCheckboxModule } from '@angular/material/checkbox';
+import {
+  MAT_DIALOG_DATA,
+  MatDialog,
+  MatDialogModule,
+  MatDialogRef,
+} from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatSelectModule } from '@angular/material/select';
+import type { Observable } from 'rxjs';
+import {
+  DispatchInput,
+  ExtensionGrant,
+  HOMOGENEITY_DECISION_LABELS,
+  type HomogeneityDecisionKind,
+  StudyDecision,
+  TransitionRequest,
+  Withdrawal,
+} from '@ringlet/shared/contracts/rounds';
+import { errorMessage } from '../../core/zod-form-errors';
+import { parseWith, showServerError } from '../form-errors';
+import { localToIso } from '../round-dialog';
+import { type DeskDialogData, deskConfirmLabel, deskFields } from './desk-dialog-data';
+
+const DECISION_LABELS: Record<HomogeneityDecisionKind, string> = {
+  ...HOMOGENEITY_DECISION_LABELS,
+  accept: `${HOMOGENEITY_DECISION_LABELS.accept} (state why)`,
+};
+
+/**
+ * The Round desk's small actions: a transition, a withdrawal, an extension, a dispatch, a
+ * homogeneity decision or confirming a removal. The data says the kind; each kind's `send` takes
+ * that kind's parsed contract value.
+ */
+@Component({
+  selector: 'app-desk-dialog',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [
+    ReactiveFormsModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    MatSelectModule,
+    MatCheckboxModule,
+    MatButtonModule,
+  ],
+  templateUrl: './desk-dialog.html',
+})
+export class DeskDialog<R> {
+  protected readonly data = inject<DeskDialogData<R>>(MAT_DIALOG_DATA);
+  private readonly ref = inject<MatDialogRef<DeskDialog<R>, R>>(MatDialogRef);
+  protected readonly errorMessage = errorMessage;
+  protected readonly busy = signal(false);
+  protected readonly failure = signal<string | null>(null);
+  protected readonly decisions = Object.entries(DECISION_LABELS);
+  protected readonly confirmLabel = deskConfirmLabel(this.data);
+  protected readonly fields = deskFields(this.data);
+  protected readonly whoIsTold = this.data.kind === 'transition' ? this.data.whoIsTold : undefined;
+  protected readonly cautions = this.data.kind === 'dispatch' ? this.data.cautions : [];
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    reason: [''],
+    force: [false],
+    courier: [''],
+    trackingNumber: [''],
+    dispatchedOn: [new Date().toISOString().slice(0, 10)],
+    until: [''],
+    decision: ['widen-sigma-pt' as HomogeneityDecisionKind],
+  });
+
+  /** The call for the kind with the parsed value, or null when a field is wrong. */
+  private request(): Observable<R> | null {
+    const d = this.data;
+    const v = this.form.getRawValue();
+    const parse = <S extends Parameters<typeof parseWith>[1]>(schema: S, value: unknown) =>
+      parseWith(this.form, schema, value, this.failure);
+    switch (d.kind) {
+      case 'transition': {
+        const body = { to: d.to, reason: v.reason.trim() || undefined, force: v.force };
+        const p = parse(TransitionRequest, body);
+        return p && d.send(p);
+      }
+      case 'withdrawal': {
+        const p = parse(Withdrawal, { reason: v.reason });
+        return p && d.send(p);
+      }
+      case 'extension': {
+        const p = parse(ExtensionGrant, { until: localToIso(v.until) ?? '', reason: v.reason });
+        return p && d.send(p);
+      }
+      case 'dispatch': {
+        const body = {
+          courier: v.courier,
+          trackingNumber: v.trackingNumber,
+          dispatchedOn: v.dispatchedOn,
+        };
+        const p = parse(DispatchInput, body);
+        return p && d.send(p);
+      }
+      case 'decision': {
+        const p = parse(StudyDecision, { decision: v.decision, reason: v.reason });
+        return p && d.send(p);
+      }
+      case 'confirm':
+        this.failure.set(null);
+        return d.send();
+    }
+  }
+
+  protected submit(): void {
+    const call = this.request();
+    if (!call) return;
+    this.busy.set(true);
+    call.subscribe({
+      next: (result) => this.ref.close(result),
+      error: (e: unknown) => {
+        this.busy.set(false);
+        showServerError(this.form, e, this.failure);
+      },
+    });
+  }
+}
+
+/** Opens the desk dialog for `data` and hands a successful answer to `after`. */
+export function openDeskDialog<R>(
+  dialog: MatDialog,
+  data: DeskDialogData<R>,
+  after: (value: R) => void,
+): void {
+  dialog
+    .open<DeskDialog<R>, DeskDialogData<R>, R>(DeskDialog<R>, {
+      data,
+      width: '480px',
+      maxWidth: '95vw',
+    })
+    .afterClosed()
+    .subscribe((v) => {
+      if (v) after(v);
+    });
+}

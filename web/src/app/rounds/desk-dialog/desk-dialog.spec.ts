@@ -1,4 +1,4 @@
-import { Component, inject } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
@@ -12,7 +12,7 @@ import { settle } from '../../core/testing';
 import { openDeskDialog } from './desk-dialog';
 import { type DeskDialogData, deskConfirmLabel, deskFields } from './desk-dialog-data';
 
-@Component({ selector: 'app-host', template: '' })
+@Component({ selector: 'app-host', template: '', changeDetection: ChangeDetectionStrategy.OnPush })
 class Host {
   readonly dialog = inject(MatDialog);
 }

@@ -34,8 +34,7 @@ import {
   type RoundBillingSettings,
 } from '../../../shared/contracts/billing';
 import type { PaymentSettings } from '../config';
-import { labIds, managesLab, type SessionUser } from '../auth/session-user';
-import { hasAnyRole } from '../http/route';
+import { hasAnyRole, labIds, managesLab, type SessionUser } from '../auth/session-user';
 import { conflict, forbidden, HttpError, notFound, ruleBroken } from '../http/errors';
 import { audit } from './audit';
 import type { AppContext } from './context';

@@ -60,9 +60,10 @@ export async function buildTemplate(
   const em = ctx.ds.manager;
   const { round, enrolment } = await findEnrolment(em, labId, roundId);
   const rules = await roundRules(em, roundId, round.protocolTemperatureC);
-  const sub = await em.query(`SELECT draft FROM submission WHERE enrolment_id = $1`, [
-    enrolment.id,
-  ]);
+  const sub: { draft: unknown }[] = await em.query(
+    `SELECT draft FROM submission WHERE enrolment_id = $1`,
+    [enrolment.id],
+  );
   const draft = readStoredSubmission(sub[0]?.draft);
   const runs = Math.max(1, ...rules.measurands.map((m) => m.replicatesRequired));
 
@@ -156,9 +157,16 @@ class Sheet {
   }
 }
 
+/** A plain cell value (the worker hands over strings, numbers, booleans, dates or null). */
+function cellString(v: unknown): string {
+  if (v === null || v === undefined) return '';
+  if (v instanceof Date) return v.toISOString();
+  return typeof v === 'object' ? JSON.stringify(v) : String(v as string | number | boolean);
+}
+
 function asText(v: unknown): string {
   if (v === null) return '';
-  const s = String(v).trim();
+  const s = cellString(v).trim();
   return s.startsWith("'") ? s.slice(1) : s;
 }
 
@@ -252,11 +260,11 @@ export async function uploadWorkbook(
 
   const num = (sheet: string, row: number, c: number, v: unknown): number | null => {
     if (v === null || v === '') return null;
-    const n = typeof v === 'number' ? v : Number(String(v).replace(',', '.'));
+    const n = typeof v === 'number' ? v : Number(cellString(v).replace(',', '.'));
     if (!Number.isFinite(n)) {
       issues.push({
         ...at(sheet, row, c),
-        message: `${sheet} row ${row}, column ${colLetter(c)} (${headers[c] ?? ''}): "${String(v)}" is not a number.`,
+        message: `${sheet} row ${row}, column ${colLetter(c)} (${headers[c] ?? ''}): "${cellString(v)}" is not a number.`,
       });
       return null;
     }
@@ -356,7 +364,7 @@ export async function uploadWorkbook(
           });
         }
       } else items[ii]!.conditions = parsed.data;
-      items[ii]!.methodNotes = String(methodNotes ?? '').slice(0, 4000);
+      items[ii]!.methodNotes = cellString(methodNotes ?? '').slice(0, 4000);
     });
   }
 

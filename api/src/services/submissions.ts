@@ -251,7 +251,10 @@ export async function submit(
     if (earlier[0]) return { version: versionDto(earlier[0]), replayed: true };
 
     // Re-read the round under a share lock: a state change waits for this submit, or this sees it.
-    const [roundRow] = await em.query(`SELECT id FROM round WHERE id = $1 FOR SHARE`, [roundId]);
+    const [roundRow]: { id: string }[] = await em.query(
+      `SELECT id FROM round WHERE id = $1 FOR SHARE`,
+      [roundId],
+    );
     if (!roundRow) throw conflict('submission_locked', 'The round is gone.');
     const { round, enrolment: fresh } = await findEnrolment(em, labId, roundId);
     const lock = lockState(round, fresh);

@@ -14,6 +14,7 @@ export function parseReplicateText(text: string): number[][] {
     );
 }
 
+const count = (x: unknown) => (typeof x === 'number' ? String(x) : '—');
 const f = (x: unknown, digits = 4) => (typeof x === 'number' ? x.toPrecision(digits) : '—');
 
 /** The check's numbers in one line, as the coordinator reads them (ISO 13528 Annex B symbols). */
@@ -21,7 +22,7 @@ export function studyNumbers(s: Study): string {
   const r = s.result as Record<string, unknown>;
   if (s.kind === 'homogeneity') {
     return (
-      `g = ${r['g']}, m = ${r['m']}, mean ${f(r['generalMean'], 6)}; s_x ${f(r['sx'])}, s_w ${f(r['sw'])}, s_s ${f(r['ss'])} ` +
+      `g = ${count(r['g'])}, m = ${count(r['m'])}, mean ${f(r['generalMean'], 6)}; s_x ${f(r['sx'])}, s_w ${f(r['sw'])}, s_s ${f(r['ss'])} ` +
       `vs 0.3σ_pt ${f(r['limit'])} (${r['passes'] ? 'met' : 'not met'}); extended ${r['passesExtended'] ? 'met' : 'not met'}; widened σ_pt ${f(r['widenedSigmaPt'])}`
     );
   }

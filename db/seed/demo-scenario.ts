@@ -15,7 +15,7 @@ import {
   InstrumentCheck,
   Investigation,
   Measurand,
-  Organisation,
+  type Organisation,
   Round,
   Scheme,
   Shipment,

@@ -14,16 +14,16 @@ import {
   isFeeOpen,
   MeasurandInput,
   type Measurand as MeasurandDto,
-  MeasurandUpdate,
-  RoundCreate,
+  type MeasurandUpdate,
+  type RoundCreate,
   type RoundDetail,
   type RoundSummary,
-  RoundUpdate,
+  type RoundUpdate,
   type Scheme as SchemeDto,
-  SchemeCreate,
+  type SchemeCreate,
   type TestItem as TestItemDto,
-  TestItemInput,
-  TestItemUpdate,
+  type TestItemInput,
+  type TestItemUpdate,
 } from '../../../shared/contracts/rounds';
 import type { RoundState } from '../../../shared/contracts/round-states';
 import { withSafetyBlock } from '../../../shared/contracts/safety';

@@ -1,4 +1,4 @@
-import { Round, Shipment } from '../../../db/entities';
+import { type Round, Shipment } from '../../../db/entities';
 import type { DispatchInput, Enrolment as EnrolmentDto } from '../../../shared/contracts/rounds';
 import {
   cautionLines,

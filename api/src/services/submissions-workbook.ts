@@ -2,7 +2,7 @@ import ExcelJS from 'exceljs';
 import type { SheetIssue, WorkbookUploadResult } from '../../../shared/contracts/bench';
 import { SAFETY_CAUTIONS } from '../../../shared/contracts/bench';
 import {
-  ItemResults,
+  type ItemResults,
   MeasurementConditions,
   readStoredSubmission,
   SubmissionData,

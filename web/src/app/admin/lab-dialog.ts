@@ -13,7 +13,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { type Organisation, OrganisationCreate } from '@ringlet/shared/contracts/admin';
 import { Email } from '@ringlet/shared/contracts/common';
-import { Observable } from 'rxjs';
+import { type Observable } from 'rxjs';
 import { fieldIssuesOf, problemMessage } from '../core/problem';
 import {
   applyServerIssues,

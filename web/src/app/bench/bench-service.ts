@@ -6,7 +6,7 @@ import {
   type HttpResponse,
 } from '@angular/common/http';
 import { Injectable, computed, inject } from '@angular/core';
-import { Observable, filter, map, tap } from 'rxjs';
+import { type Observable, filter, map, tap } from 'rxjs';
 import * as z from 'zod';
 import {
   AttachmentDto,

@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { Observable, map } from 'rxjs';
+import { type Observable, map } from 'rxjs';
 import {
   BillingDetails,
   CheckoutAnswer,

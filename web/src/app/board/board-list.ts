@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, type OnInit, inject, signal } from '@angular/core';
 import { Router, RouterLink } from '@angular/router';
 import { AgGridAngular, type ICellRendererAngularComp } from 'ag-grid-angular';
 import type { ColDef, ICellRendererParams } from 'ag-grid-community';

@@ -2,7 +2,7 @@ import './board-grid';
 import {
   ChangeDetectionStrategy,
   Component,
-  OnInit,
+  type OnInit,
   computed,
   inject,
   input,

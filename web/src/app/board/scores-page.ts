@@ -1,4 +1,11 @@
-import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  type OnInit,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
 import { formatDate } from '../core/format';
 import { RouterLink } from '@angular/router';
 import type { LabScores } from '@ringlet/shared/contracts/evaluation';

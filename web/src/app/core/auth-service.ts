@@ -1,6 +1,6 @@
 import { HttpClient, HttpContext, HttpErrorResponse } from '@angular/common/http';
 import { Injectable, computed, inject, signal } from '@angular/core';
-import { Observable, firstValueFrom, from, map, switchMap, tap } from 'rxjs';
+import { type Observable, firstValueFrom, from, map, switchMap, tap } from 'rxjs';
 import type {
   Me,
   PasswordTokenInfo,

@@ -1,6 +1,6 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import { Observable, catchError, from, shareReplay, switchMap, throwError } from 'rxjs';
+import { type Observable, catchError, from, shareReplay, switchMap, throwError } from 'rxjs';
 import { API } from './api';
 import { loadContracts } from './contracts';
 

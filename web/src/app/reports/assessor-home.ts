@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, OnInit, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, type OnInit, inject, signal } from '@angular/core';
 import { RouterLink } from '@angular/router';
 import type { AssessorLab } from '@ringlet/shared/contracts/reports';
 import { AuthService } from '../core/auth-service';

@@ -1,5 +1,12 @@
 import { DecimalPipe } from '@angular/common';
-import { ChangeDetectionStrategy, Component, OnInit, inject, input, signal } from '@angular/core';
+import {
+  ChangeDetectionStrategy,
+  Component,
+  type OnInit,
+  inject,
+  input,
+  signal,
+} from '@angular/core';
 import { RouterLink } from '@angular/router';
 import { INVESTIGATION_STATE_LABELS } from '@ringlet/shared/contracts/evaluation';
 import type { AssessorLabDetail } from '@ringlet/shared/contracts/reports';

@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import {
   MAT_DIALOG_DATA,
-  MatDialog,
+  type MatDialog,
   MatDialogModule,
   MatDialogRef,
 } from '@angular/material/dialog';

@@ -20,9 +20,11 @@ import {
   sigmaRuleToForm,
 } from './measurand-rules';
 import { RoundsService } from './rounds-service';
+import { SigmaSourcePicker, sigmaStudyLink } from './sigma-source-picker';
 
 export interface MeasurandDialogData {
   readonly roundId: string;
+  readonly schemeId: string; // its finished precision studies can give σ_R
   /** The measurand to edit; absent to add one. */
   readonly measurand?: Measurand;
 }
@@ -40,6 +42,7 @@ const num = (v: number | null) => (v === null || (v as unknown) === '' ? null : 
     MatInputModule,
     MatSelectModule,
     MatButtonModule,
+    SigmaSourcePicker,
   ],
   template: `
     <h2 mat-dialog-title>
@@ -124,6 +127,9 @@ const num = (v: number | null) => (v === null || (v as unknown) === '' ? null : 
                   >σ_R ({{ form.controls.unit.value || 'unit of the measurand' }})</mat-label
                 >
                 <input matInput type="number" formControlName="sigmaR" />
+                @if (link.study(); as s) {
+                  <mat-hint>from precision study {{ s.roundCode }}</mat-hint>
+                }
                 <mat-error>{{ errorMessage(form.controls.sigmaPtRule.controls.sigmaR) }}</mat-error>
               </mat-form-field>
               <mat-form-field class="grow">
@@ -131,6 +137,11 @@ const num = (v: number | null) => (v === null || (v as unknown) === '' ? null : 
                 <input matInput formControlName="source" />
                 <mat-error>{{ errorMessage(form.controls.sigmaPtRule.controls.source) }}</mat-error>
               </mat-form-field>
+              <app-sigma-source-picker
+                [schemeId]="data.schemeId"
+                [measurandKey]="form.controls.key.value"
+                (picked)="link.take($event, form.controls.replicatesRequired.value)"
+              />
             }
           }
         </fieldset>
@@ -245,6 +256,10 @@ export class MeasurandDialog {
       source: [this.assigned.source],
     }),
   });
+  protected readonly link = sigmaStudyLink(
+    this.form.controls.sigmaPtRule.controls.sigmaR,
+    this.m?.sigmaPtRule,
+  );
   /** Adding goes through the batch route, whose paths start with measurands.0. */
   private readonly paths = pathMap('measurands.0.');
 
@@ -257,7 +272,7 @@ export class MeasurandDialog {
       decimals: num(raw.decimals),
       replicatesRequired: num(raw.replicatesRequired),
       minParticipants: num(raw.minParticipants),
-      sigmaPtRule: sigmaRuleFromForm(raw.sigmaPtRule, this.m?.sigmaPtRule),
+      sigmaPtRule: sigmaRuleFromForm(raw.sigmaPtRule, this.link.rule()),
       assignedValueRule: assignedRuleFromForm(raw.assignedValueRule),
     };
     let call: Observable<unknown>;

@@ -55,8 +55,8 @@ function num(v: number | string | null): number | null {
 }
 
 /**
- * The rule the form describes. `previous` keeps the precision study's optional repeatability and
- * replicate count, which the form does not show, when the rule stays a precision rule.
+ * The rule the form describes. `previous` keeps the precision study's optional repeatability,
+ * replicate count and study link, which the form does not show, when the rule stays a precision rule.
  */
 export function sigmaRuleFromForm(f: SigmaPtRuleForm, previous?: SigmaPtRuleInput): unknown {
   switch (f.kind) {
@@ -74,6 +74,7 @@ export function sigmaRuleFromForm(f: SigmaPtRuleForm, previous?: SigmaPtRuleInpu
                 ? { sigmaRepeatability: previous.sigmaRepeatability }
                 : {}),
               ...(previous.replicates !== undefined ? { replicates: previous.replicates } : {}),
+              ...(previous.study !== undefined ? { study: previous.study } : {}),
             }
           : {};
       const source = f.source.trim();

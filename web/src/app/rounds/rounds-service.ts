@@ -3,6 +3,7 @@ import { Injectable, inject } from '@angular/core';
 import { type Observable, map } from 'rxjs';
 import * as z from 'zod';
 import { Organisation } from '@ringlet/shared/contracts/admin';
+import { PrecisionSigmaSources } from '@ringlet/shared/contracts/precision';
 import {
   type DispatchInput,
   Enrolment,
@@ -98,6 +99,12 @@ export class RoundsService {
     return this.http
       .delete(`${API}/rounds/${id}/measurands/${measurandId}`, formCall)
       .pipe(map(() => true as const));
+  }
+  /** The scheme's finished precision studies with s_r and s_R per level, to pick σ_pt from. */
+  precisionSources(schemeId: string): Observable<PrecisionSigmaSources> {
+    return this.http
+      .get<unknown>(`${API}/schemes/${schemeId}/precision-sources`)
+      .pipe(map((b) => PrecisionSigmaSources.parse(b)));
   }
   labs(): Observable<Organisation[]> {
     return this.http

@@ -67,7 +67,11 @@ export class RoundMeasurands {
 
   /** Add a measurand (no argument) or edit one with its σ_pt and assigned-value rules. */
   protected editMeasurand(measurand?: Measurand): void {
-    const data: MeasurandDialogData = { roundId: this.round().id, measurand };
+    const data: MeasurandDialogData = {
+      roundId: this.round().id,
+      schemeId: this.round().schemeId,
+      measurand,
+    };
     this.dialog
       .open(MeasurandDialog, { data, width: '720px', maxWidth: '95vw' })
       .afterClosed()

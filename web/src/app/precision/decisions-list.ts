@@ -1,4 +1,5 @@
-import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
 import {
   PRECISION_DECISION_LABELS,
   PRECISION_EXCLUSION_KIND_LABELS,
@@ -6,10 +7,11 @@ import {
 } from '@ringlet/shared/contracts/precision';
 import { LOCAL_ID_PREFIX } from './precision-view';
 
-/** The decisions in force, newest first; those not stored yet say so. */
+/** The decisions in force, newest first; those not stored yet say so. Each can be withdrawn while open. */
 @Component({
   selector: 'app-precision-decisions',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [MatButtonModule],
   templateUrl: './decisions-list.html',
   styleUrl: './precision.scss',
 })
@@ -18,6 +20,9 @@ export class DecisionsList {
   /** Measurand names by file code, and level names by item code. */
   readonly measurandLabels = input.required<Readonly<Partial<Record<string, string>>>>();
   readonly levelLabels = input.required<Readonly<Partial<Record<string, string>>>>();
+  /** Whether decisions can change (the round is Closed): shows the Withdraw action. */
+  readonly open = input(false);
+  readonly withdraw = output<PrecisionExclusion>();
   protected readonly decisionLabels = PRECISION_DECISION_LABELS;
   protected readonly kindLabels = PRECISION_EXCLUSION_KIND_LABELS;
   protected isUnsaved(id: string): boolean {

@@ -7,16 +7,18 @@ import {
   input,
   signal,
 } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
 import { MatButtonToggleModule } from '@angular/material/button-toggle';
 import { MatDialog } from '@angular/material/dialog';
 import { RouterLink } from '@angular/router';
-import type { PrecisionAnalysis } from '@ringlet/shared/contracts/precision';
+import type { PrecisionAnalysis, PrecisionExclusion } from '@ringlet/shared/contracts/precision';
 import { ROUND_STATE_LABELS } from '@ringlet/shared/contracts/round-states';
 import { analysePrecisionStudy } from '@ringlet/shared/evaluation/precision-study';
 import { problemMessage } from '../core/problem';
 import { DownloadButton } from '../reports/download-button';
 import { DecisionDialog, type DecisionDialogData, type DecisionResult } from './decision-dialog';
 import { DecisionsList } from './decisions-list';
+import { FinishDialog, type FinishDialogData } from './finish-dialog';
 import { FitPanel } from './fit-panel';
 import { LevelPanel } from './level-panel';
 import { PendingList } from './pending-list';
@@ -28,7 +30,9 @@ import {
   withDecisions,
   type PendingCell,
 } from './precision-view';
+import { ReferencesDialog, type ReferencesDialogData } from './references-dialog';
 import { SummaryGrid } from './summary-grid';
+import { WithdrawDialog, type WithdrawDialogData } from './withdraw-dialog';
 
 /**
  * The coordinator's precision study (ISO 5725-2): per level and measurand the cells, s_r, s_L,
@@ -41,6 +45,7 @@ import { SummaryGrid } from './summary-grid';
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     RouterLink,
+    MatButtonModule,
     MatButtonToggleModule,
     DownloadButton,
     DecisionsList,
@@ -89,11 +94,20 @@ export class PrecisionPage implements OnInit {
   );
   protected readonly reportBase = computed(() => `/rounds/${this.id()}/reports/`);
 
+  /** Reference values can change until the study is finished (Evaluated and after). */
+  protected finished(a: PrecisionAnalysis): boolean {
+    return ['evaluated', 'published', 'reissued'].includes(a.round.state);
+  }
+
   protected count(n: number, one: string, many: string): string {
     return `${n} ${n === 1 ? one : many}`;
   }
 
   ngOnInit(): void {
+    this.load();
+  }
+
+  private load(): void {
     this.service.analysis(this.id()).subscribe({
       next: (a) => this.stored.set(a),
       error: (e: unknown) => this.loadError.set(problemMessage(e)),
@@ -139,5 +153,53 @@ export class PrecisionPage implements OnInit {
         this.error.set(`The decision on ${d.participantCode} was not stored: ${problemMessage(e)}`);
       },
     });
+  }
+
+  /** Reference values per level × measurand; the answer (with the bias) replaces the page's. */
+  protected openReferences(): void {
+    const a = this.stored();
+    if (!a) return;
+    this.dialog
+      .open<ReferencesDialog, ReferencesDialogData, PrecisionAnalysis>(ReferencesDialog, {
+        data: { roundId: this.id(), analysis: a },
+        width: '760px',
+        maxWidth: '95vw',
+      })
+      .afterClosed()
+      .subscribe((r) => this.answered(r, 'Reference values stored.'));
+  }
+
+  protected openFinish(): void {
+    this.dialog
+      .open<FinishDialog, FinishDialogData, PrecisionAnalysis>(FinishDialog, {
+        data: { roundId: this.id() },
+        width: '480px',
+        maxWidth: '95vw',
+      })
+      .afterClosed()
+      .subscribe((r) => this.answered(r, 'The study is finished.'));
+  }
+
+  /** Withdraws a decision in force with a reason, then reloads the analysis. */
+  protected openWithdraw(decision: PrecisionExclusion): void {
+    this.dialog
+      .open<WithdrawDialog, WithdrawDialogData, PrecisionAnalysis>(WithdrawDialog, {
+        data: { roundId: this.id(), decision },
+        width: '560px',
+        maxWidth: '95vw',
+      })
+      .afterClosed()
+      .subscribe((r) => {
+        if (!r) return;
+        this.answered(r, `Decision on ${decision.participantCode} withdrawn.`);
+        this.load();
+      });
+  }
+
+  private answered(a: PrecisionAnalysis | undefined, message: string): void {
+    if (!a) return;
+    this.error.set(null);
+    this.stored.set(a);
+    this.message.set(message);
   }
 }

@@ -4,6 +4,8 @@ import { type Observable, map } from 'rxjs';
 import {
   PrecisionAnalysis,
   type PrecisionDecisionInput,
+  type PrecisionReferencesBody,
+  type PrecisionWithdrawBody,
 } from '@ringlet/shared/contracts/precision';
 import { API, HANDLED_STATUSES } from '../core/api';
 
@@ -25,6 +27,35 @@ export class PrecisionService {
   decide(roundId: string, decisions: PrecisionDecisionInput[]): Observable<PrecisionAnalysis> {
     return this.http
       .post<unknown>(`${API}/rounds/${roundId}/precision/exclusions`, { decisions }, decisionCall)
+      .pipe(map((b) => PrecisionAnalysis.parse(b)));
+  }
+
+  /** Withdraws a decision in force (with a reason); its flag is open again. */
+  withdraw(
+    roundId: string,
+    exclusionId: string,
+    body: PrecisionWithdrawBody,
+  ): Observable<PrecisionAnalysis> {
+    return this.http
+      .post<unknown>(
+        `${API}/rounds/${roundId}/precision/exclusions/${exclusionId}/withdraw`,
+        body,
+        decisionCall,
+      )
+      .pipe(map((b) => PrecisionAnalysis.parse(b)));
+  }
+
+  /** Replaces the levels' accepted reference values; answers the analysis with the bias. */
+  references(roundId: string, body: PrecisionReferencesBody): Observable<PrecisionAnalysis> {
+    return this.http
+      .put<unknown>(`${API}/rounds/${roundId}/precision/references`, body, decisionCall)
+      .pipe(map((b) => PrecisionAnalysis.parse(b)));
+  }
+
+  /** Finishes the study (Closed → Evaluated); 422 `undecided_flags` while a flag is open. */
+  finish(roundId: string): Observable<PrecisionAnalysis> {
+    return this.http
+      .post<unknown>(`${API}/rounds/${roundId}/precision/finish`, {}, decisionCall)
       .pipe(map((b) => PrecisionAnalysis.parse(b)));
   }
 }

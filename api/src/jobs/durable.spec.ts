@@ -168,10 +168,15 @@ describe('durable background work (pg-boss)', () => {
       return s.body.status === 'failed' ? s.body : null;
     });
     expect(failed.error).toMatch(/could not be built/);
-    const jobs: { state: string; retry_count: number }[] = await t.ds.query(
-      `SELECT state, retry_count FROM pgboss.job WHERE name = $1 AND data->>'reportId' = $2`,
-      [REPORT_QUEUE, row.id],
-    );
+    // The handler marks the report failed before pg-boss records the job's own
+    // end, so wait for the queue to settle rather than read it at once.
+    const jobs = await until('the job to settle', async () => {
+      const rows: { state: string; retry_count: number }[] = await t.ds.query(
+        `SELECT state, retry_count FROM pgboss.job WHERE name = $1 AND data->>'reportId' = $2`,
+        [REPORT_QUEUE, row.id],
+      );
+      return rows.every((r) => r.state !== 'active' && r.state !== 'retry') ? rows : null;
+    });
     expect(jobs).toEqual([{ state: 'failed', retry_count: 1 }]); // the first attempt and one retry
     await b.jobs.stop(1000);
   });

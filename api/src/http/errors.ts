@@ -87,7 +87,14 @@ export function isDatabaseUnavailable(err: unknown, depth = 0): boolean {
 
 /** The one error middleware, last in the chain: every error becomes the problem-style body. */
 export function errorHandler(log: (msg: string, err: unknown) => void): ErrorRequestHandler {
-  return (err, _req, res, _next) => {
+  return (err, _req, res, next) => {
+    if (res.headersSent) {
+      // The answer was already on its way (a streamed file, a request that timed out): it can
+      // no longer become a problem body. Express's own handler ends the connection.
+      log('error after the answer was sent', err);
+      next(err);
+      return;
+    }
     if (err instanceof HttpError) {
       res.status(err.status).json({
         error: {

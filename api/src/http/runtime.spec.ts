@@ -86,7 +86,12 @@ describe('request ids and structured logs', () => {
 describe('graceful shutdown', () => {
   it('finishes an in-flight request, refuses new connections, then runs the shutdown steps', async () => {
     const app = express();
-    app.get('/slow', (_req, res) => void setTimeout(() => res.json({ finished: true }), 600));
+    let arrived!: () => void;
+    const handling = new Promise<void>((r) => (arrived = r));
+    app.get('/slow', (_req, res) => {
+      arrived();
+      setTimeout(() => res.json({ finished: true }), 600);
+    });
     const server = app.listen(0, '127.0.0.1');
     await new Promise((r) => server.once('listening', r));
     const port = (server.address() as AddressInfo).port;
@@ -112,7 +117,7 @@ describe('graceful shutdown', () => {
         })
         .on('error', reject);
     });
-    await new Promise((r) => setTimeout(r, 150)); // the request is being handled
+    await handling; // the request is being handled (a fixed wait raced on a loaded machine)
     const done = shutdown();
     const refused = await new Promise<string>((resolve) => {
       http
@@ -131,7 +136,9 @@ describe('graceful shutdown', () => {
 
   it('cuts requests that outlast the grace period and still runs the steps', async () => {
     const app = express();
-    app.get('/hang', () => undefined); // never answers
+    let arrived!: () => void;
+    const handling = new Promise<void>((r) => (arrived = r));
+    app.get('/hang', () => arrived()); // never answers
     const server = app.listen(0, '127.0.0.1');
     await new Promise((r) => server.once('listening', r));
     const port = (server.address() as AddressInfo).port;
@@ -145,7 +152,7 @@ describe('graceful shutdown', () => {
         .get({ host: '127.0.0.1', port, path: '/hang' }, () => resolve('answered'))
         .on('error', (e: NodeJS.ErrnoException) => resolve(e.code ?? 'error'));
     });
-    await new Promise((r) => setTimeout(r, 100));
+    await handling;
     await shutdown();
     expect(await outcome).toBe('ECONNRESET');
     expect(steps).toEqual(['closed']);

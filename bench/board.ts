@@ -5,7 +5,8 @@
  * Builds a 1,000 × 2 × 2 × 3 round (api/src/testing/evaluation-fixtures, seeded, invented data)
  * in a fresh test database, evaluates and publishes it through the API, starts the app in a
  * child process on 127.0.0.1, and fires a bounded number of requests from 20 signed-in
- * keep-alive clients: GET /rounds/{id}/board (coordinator and lab views) and GET /health.
+ * keep-alive clients: GET /rounds/{id}/board (coordinator and lab views) and GET /health, each
+ * accepting gzip as a browser does (the KiB in the notes are the bytes on the wire).
  * Bounded in count and time; stops by itself.
  */
 import { send, signIn, type Session } from './http-client';
@@ -74,7 +75,11 @@ async function load(
       while (issued < total && performance.now() - started < TIME_LIMIT_MS) {
         issued++;
         const t0 = performance.now();
-        const r = await fetchCounting(port, agent, path, { cookie: s.cookie });
+        // As a browser asks: it always accepts gzip (the board answers compressed; /health is tiny).
+        const r = await fetchCounting(port, agent, path, {
+          cookie: s.cookie,
+          'accept-encoding': 'gzip, deflate, br',
+        });
         latencies.push(performance.now() - t0);
         if (r.status !== 200) throw new Error(`${path}: ${r.status}`);
         bytes = r.bytes;

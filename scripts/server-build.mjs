@@ -25,7 +25,7 @@ const SOURCES = [
  * property is read, or it is called or constructed. Only for packages imported as a default
  * import (`import ExcelJS from 'exceljs'`), which is how the code uses them.
  */
-const LAZY_PACKAGES = ['exceljs', 'jszip', 'pdfkit'];
+const LAZY_PACKAGES = ['exceljs', 'jszip', 'pdfkit', 'stripe', 'nodemailer'];
 
 export const lazyPackages = {
   name: 'lazy-packages',

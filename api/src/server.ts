@@ -6,7 +6,7 @@ import { createApp } from './app';
 import { hasOutbox, readConfig } from './config';
 import { createLogger, logFunction } from './http/logging';
 import { gracefulShutdown } from './http/shutdown';
-import { startJobs } from './jobs/queue';
+import { startJobsInBackground } from './jobs/queue';
 import { createMailer } from './mail/mailer';
 import { runQueuedBuild } from './services/reports';
 import { DEFAULT_DEMO_PASSWORD, DEMO_USERS } from '../../db/seed/demo-people';
@@ -32,10 +32,10 @@ async function main(): Promise<void> {
   const config = readConfig();
   // Migrations (and the demo seed) run as the owner role; the server itself connects as the runtime role.
   const ownerUrl = config.databaseOwnerUrl ?? ownerDatabaseUrl();
-  await migrateDatabase(ownerUrl);
-  phase('migrations');
+  // The runtime connection opens while the owner role checks the migrations (it only connects:
+  // no schema is read until the first query).
   const ds = createDataSource(config.databaseUrl ?? databaseUrl());
-  await ds.initialize();
+  await Promise.all([migrateDatabase(ownerUrl), ds.initialize()]);
   phase('database');
   const demoPassword = config.demoPassword ?? DEFAULT_DEMO_PASSWORD;
   if (config.mode === 'demo' && (await isEmpty(ds))) {
@@ -66,8 +66,9 @@ async function main(): Promise<void> {
     providerName: () => providerName(ds.manager),
   });
   // The PostgreSQL-backed job queue: mail retries, publication mail, report builds, round
-  // reminders (shared by every instance; jobs survive a restart).
-  const jobs = await startJobs({
+  // reminders (shared by every instance; jobs survive a restart). Background work: it starts
+  // while the server already listens; a request that enqueues meanwhile waits for it.
+  const jobs = startJobsInBackground({
     connectionString: config.databaseUrl ?? databaseUrl(),
     ds,
     mailer: smtpMailer,
@@ -75,11 +76,19 @@ async function main(): Promise<void> {
     log,
     workers: process.env['RINGLET_JOB_WORKERS'] !== 'off',
   });
-  phase('jobQueue');
   const mailer = jobs.mailer;
   const { app, context } = createApp({ ds, config, mailer, log, logger, queue: jobs.queue });
-  await jobs.attach(context, runQueuedBuild);
   phase('app');
+  jobs.ready.then(
+    async (j) => {
+      await j.attach(context, runQueuedBuild);
+      logger.info({ jobQueueMs: Math.round(performance.now() - mark) }, 'job queue started');
+    },
+    (err: unknown) => {
+      logger.error({ err }, 'the job queue did not start');
+      logger.flush(() => process.exit(1));
+    },
+  );
   const server = app.listen(config.port, config.host, () => {
     const addr = server.address();
     const port = typeof addr === 'object' && addr ? addr.port : config.port;
@@ -105,7 +114,7 @@ async function main(): Promise<void> {
   const shutdown = gracefulShutdown(
     server,
     [
-      () => jobs.stop(JOB_GRACE_MS),
+      async () => (await jobs.ready).stop(JOB_GRACE_MS),
       () => mailer.close(),
       async () => void (await fake?.close()),
       async () => void (await payFake?.close()),

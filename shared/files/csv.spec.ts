@@ -30,3 +30,21 @@ describe('readCsv (RFC 4180 quoting through papaparse)', () => {
     ]);
   });
 });
+
+describe('readCsv without any quote character (split directly)', () => {
+  it('gives the records papaparse gives: blank lines skipped, line numbers, trim, comments', () => {
+    const text = '\ufeffa,b\r\n1, 2\r\n\r\n  \n# c\n3,\n';
+    const expected = [
+      { line: 1, fields: ['a', 'b'] },
+      { line: 2, fields: ['1', '2'] },
+      { line: 6, fields: ['3', ''] },
+    ];
+    expect(readCsv(text, { trim: true, comment: '#' })).toEqual(expected);
+    // the same text with one quoted field goes through papaparse and reads the same
+    expect(readCsv(text.replace('a,', '"a",'), { trim: true, comment: '#' })).toEqual(expected);
+    expect(readCsv('x;y\n1;2', { delimiter: ';' })).toEqual([
+      { line: 1, fields: ['x', 'y'] },
+      { line: 2, fields: ['1', '2'] },
+    ]);
+  });
+});

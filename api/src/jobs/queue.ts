@@ -214,3 +214,39 @@ export async function startJobs(o: JobsOptions): Promise<Jobs> {
     },
   };
 }
+
+/**
+ * The job queue started in the background, for a server that listens first: `queue` and `mailer`
+ * are usable at once and wait for pg-boss when it is not started yet (a request that enqueues
+ * during the first moments waits, it does not fail). `ready` settles once pg-boss and its
+ * workers run (rejected when they cannot start: the caller stops the process).
+ */
+export function startJobsInBackground(o: JobsOptions): {
+  queue: JobQueue;
+  mailer: Mailer;
+  ready: Promise<Jobs>;
+} {
+  const ready = startJobs(o);
+  ready.catch(() => undefined); // the caller handles it; no unhandled rejection meanwhile
+  return {
+    ready,
+    queue: {
+      enqueueReportBuild: async (reportId, em) =>
+        (await ready).queue.enqueueReportBuild(reportId, em),
+      enqueueMails: async (mails, em) => (await ready).queue.enqueueMails(mails, em),
+      kick: () =>
+        void ready.then(
+          (j) => j.queue.kick(),
+          () => undefined,
+        ),
+    },
+    mailer: {
+      send: async (mail) => (await ready).mailer.send(mail),
+      close: () =>
+        void ready.then(
+          (j) => j.mailer.close(),
+          () => undefined,
+        ),
+    },
+  };
+}

@@ -1,4 +1,4 @@
-import nodemailer from 'nodemailer';
+import nodemailer, { type Transporter } from 'nodemailer';
 import type { AppConfig } from '../config';
 
 export interface OutgoingMail {
@@ -35,29 +35,33 @@ export function createMailer(
   const smtp = config.smtp ?? (fallbackSmtp ? { ...fallbackSmtp, secure: false } : null);
   if (!smtp)
     throw new Error('No SMTP server configured (set SMTP_HOST) and no local mail fake running.');
-  const transport = nodemailer.createTransport({
-    host: smtp.host,
-    port: smtp.port,
-    secure: smtp.secure,
-    ignoreTLS: !smtp.secure && smtp.host === '127.0.0.1',
-    auth: 'user' in smtp && smtp.user ? { user: smtp.user, pass: smtp.password ?? '' } : undefined,
-  });
+  // Created at the first mail: loading nodemailer is a noticeable part of start-up.
+  let transport: Transporter | undefined;
+  const transporter = () =>
+    (transport ??= nodemailer.createTransport({
+      host: smtp.host,
+      port: smtp.port,
+      secure: smtp.secure,
+      ignoreTLS: !smtp.secure && smtp.host === '127.0.0.1',
+      auth:
+        'user' in smtp && smtp.user ? { user: smtp.user, pass: smtp.password ?? '' } : undefined,
+    }));
   return {
     async send(mail) {
       const name = (await (options.providerName?.() ?? Promise.resolve('')).catch(() => '')).trim();
       if (!name) {
-        await transport.sendMail({ from: config.mailFrom, ...mail });
+        await transporter().sendMail({ from: config.mailFrom, ...mail });
         return;
       }
       // The PT provider's name (its profile) is the From display name and signs the message.
-      await transport.sendMail({
+      await transporter().sendMail({
         ...mail,
         from: { name, address: mailAddress(config.mailFrom) },
         text: `${mail.text}\n\n-- \n${name}\n`,
       });
     },
     close() {
-      transport.close();
+      transport?.close();
     },
   };
 }

@@ -1,4 +1,4 @@
-import { simpleParser, type AddressObject } from 'mailparser';
+import type { AddressObject } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import type { DataSource } from 'typeorm';
 import { MailMessage } from '../../../db/entities';
@@ -28,7 +28,9 @@ export async function startSmtpFake(
     disabledCommands: ['STARTTLS'],
     logger: false,
     onData(stream, _session, callback) {
-      simpleParser(stream)
+      // mailparser loads at the first message, not at start-up.
+      import('mailparser')
+        .then(({ simpleParser }) => simpleParser(stream))
         .then(async (parsed) => {
           await ds.getRepository(MailMessage).insert({
             from: addresses(parsed.from).join(', ') || 'unknown',

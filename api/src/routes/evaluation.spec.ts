@@ -310,6 +310,40 @@ describe('evaluation, board, scores and investigations', () => {
     expect(entry.action).toBeGreaterThan(0); // the blunder lab
   });
 
+  it('the kept board answers stay per viewer: each lab its own code, gzip and plain alike', async () => {
+    const plain = async (c: Client) =>
+      JSON.parse(
+        (
+          await c.agent
+            .get(api(`/rounds/${roundId()}/board`))
+            .set('Accept-Encoding', 'identity')
+            .buffer(true)
+            .parse((res, done) => {
+              let text = '';
+              res.on('data', (chunk: Buffer) => (text += chunk.toString()));
+              res.on('end', () => done(null, text));
+            })
+            .expect(200)
+            .expect((res) => expect(res.headers['content-encoding']).toBeUndefined())
+        ).body as string,
+      ) as { ownCodes: string[] };
+    const zipped = async (c: Client) => {
+      const res = await c.agent.get(api(`/rounds/${roundId()}/board`)).expect(200);
+      expect(res.headers['content-encoding']).toBe('gzip');
+      return res.body as { ownCodes: string[] };
+    };
+    // asked twice each, in turns, so the second answers come from the kept ones
+    for (let i = 0; i < 2; i++) {
+      const [a, b] = [await zipped(labA), await zipped(labB)];
+      expect(a.ownCodes).toEqual([codeOf(0)]);
+      expect(b.ownCodes).toEqual([codeOf(3)]);
+      expect(await plain(labA)).toEqual(a);
+      expect(await plain(labB)).toEqual(b);
+      expectNoLabNames(a);
+      expectNoLabNames(b);
+    }
+  });
+
   it('a lab reads its own scores with a plain explanation, and nothing of the others', async () => {
     const res = await labB.agent.get(api(`/my/rounds/${roundId()}/scores`)).expect(200);
     expect(res.body.participantCode).toBe(codeOf(3));

@@ -12,8 +12,6 @@ import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../services/context';
 import { createHash } from 'node:crypto';
 import * as precision from '../services/precision';
-import { buildPrecisionReportPdf } from '../../../reports/pdf/precision-report';
-import { buildPrecisionWorkbook } from '../../../reports/excel/precision-workbook';
 
 /** Precision studies (rounds of kind 'precision', ISO 5725-2): analysis, decisions, references. */
 export function precisionRoutes(api: ApiRouter, ctx: AppContext): void {
@@ -132,9 +130,14 @@ export function precisionRoutes(api: ApiRouter, ctx: AppContext): void {
         : 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
       handler: async ({ params, res }) => {
         const input = await precision.precisionReportInput(ctx, params.id);
+        // Loaded at the first report: the PDF's charts bring ECharts, a large part of start-up.
         const file = pdf
-          ? await buildPrecisionReportPdf(input)
-          : await buildPrecisionWorkbook(input);
+          ? await (
+              await import('../../../reports/pdf/precision-report')
+            ).buildPrecisionReportPdf(input)
+          : await (
+              await import('../../../reports/excel/precision-workbook')
+            ).buildPrecisionWorkbook(input);
         res.setHeader(
           'Content-Type',
           pdf

@@ -6,6 +6,9 @@
  * cached per evaluation id and computed_at (immutable content, so each API instance may keep
  * its own copy) to answer a 1,000-participant board in a few milliseconds.
  */
+import { createHash } from 'node:crypto';
+import { promisify } from 'node:util';
+import { gzip } from 'node:zlib';
 import type { EntityManager } from 'typeorm';
 import type { BoardListEntry } from '../../../shared/contracts/evaluation';
 import { hasAnyRole, labIds, type SessionUser } from '../auth/session-user';
@@ -27,9 +30,25 @@ interface Head {
   round_title: string;
 }
 
+/** Least recently used first: a hit moves to the end, the first entry goes when full. */
+function remember<V>(cache: Map<string, V>, key: string, value: V, limit: number): V {
+  if (cache.size >= limit) cache.delete(cache.keys().next().value!);
+  cache.set(key, value);
+  return value;
+}
+
+function recall<V>(cache: Map<string, V>, key: string): V | undefined {
+  const hit = cache.get(key);
+  if (hit !== undefined) {
+    cache.delete(key);
+    cache.set(key, hit);
+  }
+  return hit;
+}
+
 async function bodyBytes(em: EntityManager, head: Head): Promise<Buffer> {
-  const key = `${head.id}/${head.computed_at.getTime()}`;
-  const hit = bodyCache.get(key);
+  const key = bodyKey(head);
+  const hit = recall(bodyCache, key);
   if (hit !== undefined) return hit;
   const rows: { board: { groups: unknown[]; rows: unknown[] } }[] = await em.query(
     'SELECT board FROM evaluation WHERE id = $1',
@@ -39,9 +58,31 @@ async function bodyBytes(em: EntityManager, head: Head): Promise<Buffer> {
   const text = Buffer.from(
     `"groups":${JSON.stringify(b.groups ?? [])},"rows":${JSON.stringify(b.rows ?? [])}}`,
   );
-  if (bodyCache.size >= CACHE_LIMIT) bodyCache.delete(bodyCache.keys().next().value!);
-  bodyCache.set(key, text);
-  return text;
+  return remember(bodyCache, key, text, CACHE_LIMIT);
+}
+
+const bodyKey = (head: Head) => `${head.id}/${head.computed_at.getTime()}`;
+
+/**
+ * One board answer as sent: the whole JSON text, and its gzip form made at the first request that
+ * accepts it. The same viewer head over the same evaluation gives the same bytes, so they are kept
+ * (keyed by the evaluation, its computed_at and a hash of the head) and a repeated request costs
+ * no serialising, copying or compressing. Each head names who may see it (its own codes, the names
+ * shown), so a kept answer is only ever sent to a viewer whose own head is identical.
+ */
+export interface BoardAnswer {
+  readonly json: Buffer;
+  gzip?: Promise<Buffer>;
+}
+
+const ANSWER_LIMIT = 32;
+const answerCache = new Map<string, BoardAnswer>();
+
+const gzipAsync = promisify(gzip);
+
+/** The answer gzip-compressed, once, on libuv's thread pool (the event loop goes on serving). */
+export function gzipOf(answer: BoardAnswer): Promise<Buffer> {
+  return (answer.gzip ??= gzipAsync(answer.json));
 }
 
 type Viewer = 'coordinator' | 'lab' | 'assessor';
@@ -62,7 +103,7 @@ export async function boardJson(
   user: SessionUser,
   roundId: string,
   revealNames: boolean,
-): Promise<Buffer[]> {
+): Promise<BoardAnswer> {
   const em = ctx.ds.manager;
   const viewer = viewerOf(user);
   let ownCodes: string[] = [];
@@ -111,13 +152,16 @@ export async function boardJson(
       labs: rows.length,
     });
   }
-  const body = await bodyBytes(em, head);
   const prefix =
     `{"roundId":${JSON.stringify(roundId)},"roundCode":${JSON.stringify(head.round_code)},"roundTitle":${JSON.stringify(head.round_title)},` +
     `"evaluationId":"${head.id}","version":${head.version},"state":"${head.state}",` +
     `"publishedAt":${head.published_at ? `"${head.published_at.toISOString()}"` : 'null'},` +
     `"ownCodes":${JSON.stringify(ownCodes)},"labNames":${JSON.stringify(labNames)},"canRevealNames":${viewer === 'coordinator'},`;
-  return [Buffer.from(prefix), body];
+  const key = `${bodyKey(head)}/${createHash('sha256').update(prefix).digest('base64')}`;
+  const kept = recall(answerCache, key);
+  if (kept) return kept;
+  const json = Buffer.concat([Buffer.from(prefix), await bodyBytes(em, head)]);
+  return remember(answerCache, key, { json }, ANSWER_LIMIT);
 }
 
 /** GET /boards: the rounds whose board the user may open. */

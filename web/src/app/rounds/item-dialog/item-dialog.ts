@@ -1,0 +1,59 @@
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import type { Observable } from 'rxjs';
+import { type TestItem, TestItemInput, TestItemUpdate } from '@ringlet/shared/contracts/rounds';
+import { errorMessage } from '../../core/zod-form-errors';
+import { DialogActions } from '../../shared/dialog-actions';
+import { DialogSubmit } from '../../shared/dialog-submit';
+import { pathMap } from '../../shared/form-errors';
+import { RoundsService } from '../rounds-service';
+import { testItemFromForm, testItemGroup } from './test-item-form';
+
+export interface ItemDialogData {
+  readonly roundId: string;
+  /** The item to edit; absent to add one. */
+  readonly item?: TestItem;
+}
+
+/** Add or edit one test item of a round (draft or enrolling). Closes with true once saved. */
+@Component({
+  selector: 'app-item-dialog',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [
+    ReactiveFormsModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    DialogActions,
+  ],
+  templateUrl: './item-dialog.html',
+  styleUrl: '../round-form/round-form.scss',
+})
+export class ItemDialog {
+  protected readonly data = inject<ItemDialogData>(MAT_DIALOG_DATA);
+  private readonly api = inject(RoundsService);
+  private readonly ref = inject<MatDialogRef<ItemDialog, true>>(MatDialogRef);
+  protected readonly errorMessage = errorMessage;
+  protected readonly form = testItemGroup(inject(NonNullableFormBuilder), this.data.item);
+  /** Adding goes through the batch route, whose paths start with items.0. */
+  protected readonly submission = new DialogSubmit(this.form, pathMap('items.0.'));
+
+  protected submit(): void {
+    const candidate = testItemFromForm(this.form.getRawValue());
+    const item = this.data.item;
+    let call: Observable<unknown>;
+    if (item) {
+      const value = this.submission.parse(TestItemUpdate, candidate);
+      if (!value) return;
+      call = this.api.updateItem(this.data.roundId, item.id, value);
+    } else {
+      const value = this.submission.parse(TestItemInput, candidate);
+      if (!value) return;
+      call = this.api.addItems(this.data.roundId, [value]);
+    }
+    this.submission.send(call, () => this.ref.close(true));
+  }
+}

@@ -1,0 +1,53 @@
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import {
+  DLS_DEFAULT_MEASURANDS,
+  type Scheme,
+  SchemeCreate,
+} from '@ringlet/shared/contracts/rounds';
+import { errorMessage } from '../../core/zod-form-errors';
+import { DialogActions } from '../../shared/dialog-actions';
+import { DialogSubmit } from '../../shared/dialog-submit';
+import { RoundsService } from '../rounds-service';
+
+/** Create a PT scheme; new schemes measure the DLS defaults (Z-average and PDI). */
+@Component({
+  selector: 'app-scheme-dialog',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [
+    ReactiveFormsModule,
+    MatDialogModule,
+    MatFormFieldModule,
+    MatInputModule,
+    DialogActions,
+  ],
+  templateUrl: './scheme-dialog.html',
+  styles: `
+    .chip {
+      display: block;
+      margin-left: 12px;
+    }
+  `,
+})
+export class SchemeDialog {
+  private readonly api = inject(RoundsService);
+  private readonly ref = inject<MatDialogRef<SchemeDialog, Scheme>>(MatDialogRef);
+  protected readonly errorMessage = errorMessage;
+  protected readonly defaults = DLS_DEFAULT_MEASURANDS;
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    code: [''],
+    name: [''],
+    description: [''],
+    rules: [''],
+  });
+  protected readonly submission = new DialogSubmit(this.form);
+
+  protected submit(): void {
+    const value = this.submission.parse(SchemeCreate, this.form.getRawValue());
+    if (!value) return;
+    this.submission.send(this.api.createScheme(value), (s) => this.ref.close(s));
+  }
+}

@@ -61,4 +61,15 @@ export class DialogSubmit implements SubmitTarget {
   send<R>(call: Observable<R>, done: (result: R) => void): void {
     submitDialog(this, call, done);
   }
+
+  /** Parses `value` and, when it fits the schema, sends `call(parsed)`; see parse and send. */
+  submit<S extends z.ZodType, R>(
+    schema: S,
+    value: unknown,
+    call: (parsed: z.output<S>) => Observable<R>,
+    done: (result: R) => void,
+  ): void {
+    const parsed = this.parse(schema, value);
+    if (parsed !== null) this.send(call(parsed), done);
+  }
 }

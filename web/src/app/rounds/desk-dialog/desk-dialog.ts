@@ -1,14 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { NonNullableFormBuilder } from '@angular/forms';
 import { MatCheckboxModule } from '@angular/material/checkbox';
-import {
-  MAT_DIALOG_DATA,
-  type MatDialog,
-  MatDialogModule,
-  MatDialogRef,
-} from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
+import { MAT_DIALOG_DATA, type MatDialog, MatDialogRef } from '@angular/material/dialog';
 import { MatSelectModule } from '@angular/material/select';
 import type { Observable } from 'rxjs';
 import {
@@ -21,7 +14,7 @@ import {
   Withdrawal,
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
-import { DialogActions } from '../../shared/dialog-actions';
+import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
 import { DialogSubmit } from '../../shared/dialog-submit';
 import { localToIso } from '../../shared/form-values';
 import { openDialog } from '../../shared/open-dialog';
@@ -40,15 +33,7 @@ const DECISION_LABELS: Record<HomogeneityDecisionKind, string> = {
 @Component({
   selector: 'app-desk-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatSelectModule,
-    MatCheckboxModule,
-    DialogActions,
-  ],
+  imports: [FORM_DIALOG_IMPORTS, MatSelectModule, MatCheckboxModule],
   templateUrl: './desk-dialog.html',
 })
 export class DeskDialog<R> {
@@ -104,7 +89,6 @@ export class DeskDialog<R> {
         return p && d.send(p);
       }
       case 'confirm':
-        this.submission.failure.set(null);
         return d.send();
     }
   }

@@ -1,12 +1,9 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
-import type { Observable } from 'rxjs';
+import { NonNullableFormBuilder } from '@angular/forms';
+import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { type TestItem, TestItemInput, TestItemUpdate } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
-import { DialogActions } from '../../shared/dialog-actions';
+import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
 import { DialogSubmit } from '../../shared/dialog-submit';
 import { pathMap } from '../../shared/form-errors';
 import { RoundsService } from '../rounds-service';
@@ -22,13 +19,7 @@ export interface ItemDialogData {
 @Component({
   selector: 'app-item-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    DialogActions,
-  ],
+  imports: [FORM_DIALOG_IMPORTS],
   templateUrl: './item-dialog.html',
   styleUrl: '../round-form/round-form.scss',
 })
@@ -43,17 +34,22 @@ export class ItemDialog {
 
   protected submit(): void {
     const candidate = testItemFromForm(this.form.getRawValue());
-    const item = this.data.item;
-    let call: Observable<unknown>;
+    const { roundId, item } = this.data;
+    const saved = () => this.ref.close(true);
     if (item) {
-      const value = this.submission.parse(TestItemUpdate, candidate);
-      if (!value) return;
-      call = this.api.updateItem(this.data.roundId, item.id, value);
+      this.submission.submit(
+        TestItemUpdate,
+        candidate,
+        (v) => this.api.updateItem(roundId, item.id, v),
+        saved,
+      );
     } else {
-      const value = this.submission.parse(TestItemInput, candidate);
-      if (!value) return;
-      call = this.api.addItems(this.data.roundId, [value]);
+      this.submission.submit(
+        TestItemInput,
+        candidate,
+        (v) => this.api.addItems(roundId, [v]),
+        saved,
+      );
     }
-    this.submission.send(call, () => this.ref.close(true));
   }
 }

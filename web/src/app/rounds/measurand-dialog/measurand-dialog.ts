@@ -1,13 +1,10 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
+import { NonNullableFormBuilder } from '@angular/forms';
+import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { MatSelectModule } from '@angular/material/select';
-import type { Observable } from 'rxjs';
 import { type Measurand, MeasurandInput, MeasurandUpdate } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
-import { DialogActions } from '../../shared/dialog-actions';
+import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
 import { DialogSubmit } from '../../shared/dialog-submit';
 import { pathMap } from '../../shared/form-errors';
 import { numberOrNull } from '../../shared/form-values';
@@ -33,15 +30,7 @@ export interface MeasurandDialogData {
 @Component({
   selector: 'app-measurand-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatSelectModule,
-    DialogActions,
-    SigmaRuleFields,
-  ],
+  imports: [FORM_DIALOG_IMPORTS, MatSelectModule, SigmaRuleFields],
   templateUrl: './measurand-dialog.html',
   styleUrl: './measurand-form.scss',
 })
@@ -87,16 +76,14 @@ export class MeasurandDialog {
       sigmaPtRule: sigmaRuleFromForm(raw.sigmaPtRule, this.link.rule()),
       assignedValueRule: assignedRuleFromForm(raw.assignedValueRule),
     };
-    let call: Observable<unknown>;
-    if (this.m) {
-      const value = this.submission.parse(MeasurandUpdate, candidate);
-      if (!value) return;
-      call = this.api.updateMeasurand(this.data.roundId, this.m.id, value);
+    const { roundId, measurand } = this.data;
+    const saved = () => this.ref.close(true);
+    if (measurand) {
+      const update = (v: MeasurandUpdate) => this.api.updateMeasurand(roundId, measurand.id, v);
+      this.submission.submit(MeasurandUpdate, candidate, update, saved);
     } else {
-      const value = this.submission.parse(MeasurandInput, candidate);
-      if (!value) return;
-      call = this.api.addMeasurands(this.data.roundId, [value]);
+      const add = (v: MeasurandInput) => this.api.addMeasurands(roundId, [v]);
+      this.submission.submit(MeasurandInput, candidate, add, saved);
     }
-    this.submission.send(call, () => this.ref.close(true));
   }
 }

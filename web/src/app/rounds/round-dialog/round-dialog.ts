@@ -1,10 +1,8 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { NonNullableFormBuilder } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
+import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import {
   DEFAULT_INSTRUCTIONS,
@@ -14,7 +12,7 @@ import {
   type Scheme,
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
-import { DialogActions } from '../../shared/dialog-actions';
+import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
 import { DialogSubmit } from '../../shared/dialog-submit';
 import { testItemFromForm, testItemGroup } from '../item-dialog/test-item-form';
 import {
@@ -34,17 +32,7 @@ export interface RoundDialogData {
 @Component({
   selector: 'app-round-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    RoundTermsFields,
-    DialogActions,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatSelectModule,
-    MatButtonModule,
-    MatIconModule,
-  ],
+  imports: [FORM_DIALOG_IMPORTS, RoundTermsFields, MatSelectModule, MatButtonModule, MatIconModule],
   templateUrl: './round-dialog.html',
   styleUrls: ['../round-form/round-form.scss', './round-dialog.scss'],
 })
@@ -75,15 +63,15 @@ export class RoundDialog {
 
   protected submit(): void {
     const raw = this.form.getRawValue();
-    const value = this.submission.parse(RoundCreate, {
+    const candidate = {
       schemeId: raw.schemeId,
       code: raw.code,
       kind: raw.kind,
       ...roundTermsFromForm(raw),
       instructions: raw.instructions,
       items: raw.items.map(testItemFromForm),
-    });
-    if (!value) return;
-    this.submission.send(this.api.createRound(value), (r) => this.ref.close(r.id));
+    };
+    const create = (v: RoundCreate) => this.api.createRound(v);
+    this.submission.submit(RoundCreate, candidate, create, (r) => this.ref.close(r.id));
   }
 }

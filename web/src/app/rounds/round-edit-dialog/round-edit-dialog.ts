@@ -1,8 +1,6 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
+import { NonNullableFormBuilder } from '@angular/forms';
+import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import {
   isFeeOpen,
   type RoundDetail,
@@ -11,7 +9,7 @@ import {
 } from '@ringlet/shared/contracts/rounds';
 import { withoutSafetyBlock } from '@ringlet/shared/contracts/safety';
 import { errorMessage } from '../../core/zod-form-errors';
-import { DialogActions } from '../../shared/dialog-actions';
+import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
 import { DialogSubmit } from '../../shared/dialog-submit';
 import {
   changedFields,
@@ -28,14 +26,7 @@ import { RoundsService } from '../rounds-service';
 @Component({
   selector: 'app-round-edit-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    RoundTermsFields,
-    DialogActions,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-  ],
+  imports: [FORM_DIALOG_IMPORTS, RoundTermsFields],
   templateUrl: './round-edit-dialog.html',
   styles: `
     .cautions-head {

@@ -79,9 +79,8 @@ export class RoundInvitations implements OnInit {
 
   protected invite(): void {
     const body = invitationsFromRows(this.form.getRawValue().invitations);
-    const value = this.submission.parse(InvitationsCreate, body);
-    if (!value) return;
-    this.submission.send(this.api.invite(this.round().id, value.invitations), () => {
+    const send = (v: InvitationsCreate) => this.api.invite(this.round().id, v.invitations);
+    this.submission.submit(InvitationsCreate, body, send, () => {
       this.form.controls.invitations.clear();
       this.addInvite();
       this.changed.emit();

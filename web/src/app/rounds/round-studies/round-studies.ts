@@ -15,7 +15,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import type { ColDef } from 'ag-grid-community';
-import type { Observable } from 'rxjs';
 import {
   type RoundDetail,
   type Study,
@@ -107,16 +106,15 @@ export class RoundStudies {
 
   protected recordStudy(): void {
     const body = studyInput(this.form.getRawValue());
-    const value = this.submission.parse(StudyInput, body);
-    if (!value) return;
-    this.send(this.api.recordStudy(this.round().id, value));
+    const record = (v: StudyInput) => this.api.recordStudy(this.round().id, v);
+    this.submission.submit(StudyInput, body, record, () => this.changed.emit());
   }
 
   protected upload(file: File): void {
-    this.send(this.api.uploadStudy(this.round().id, studyUpload(this.form.getRawValue(), file)));
-  }
-
-  private send(call: Observable<Study>): void {
-    this.submission.send(call, () => this.changed.emit());
+    const upload = this.api.uploadStudy(
+      this.round().id,
+      studyUpload(this.form.getRawValue(), file),
+    );
+    this.submission.send(upload, () => this.changed.emit());
   }
 }

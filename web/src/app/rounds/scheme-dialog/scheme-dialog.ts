@@ -1,15 +1,13 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
+import { NonNullableFormBuilder } from '@angular/forms';
+import { MatDialogRef } from '@angular/material/dialog';
 import {
   DLS_DEFAULT_MEASURANDS,
   type Scheme,
   SchemeCreate,
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
-import { DialogActions } from '../../shared/dialog-actions';
+import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
 import { DialogSubmit } from '../../shared/dialog-submit';
 import { RoundsService } from '../rounds-service';
 
@@ -17,13 +15,7 @@ import { RoundsService } from '../rounds-service';
 @Component({
   selector: 'app-scheme-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    DialogActions,
-  ],
+  imports: [FORM_DIALOG_IMPORTS],
   templateUrl: './scheme-dialog.html',
   styles: `
     .chip {
@@ -46,8 +38,7 @@ export class SchemeDialog {
   protected readonly submission = new DialogSubmit(this.form);
 
   protected submit(): void {
-    const value = this.submission.parse(SchemeCreate, this.form.getRawValue());
-    if (!value) return;
-    this.submission.send(this.api.createScheme(value), (s) => this.ref.close(s));
+    const create = (v: SchemeCreate) => this.api.createScheme(v);
+    this.submission.submit(SchemeCreate, this.form.getRawValue(), create, (s) => this.ref.close(s));
   }
 }

@@ -25,6 +25,18 @@ describe('DialogSubmit', () => {
     expect(submit.failure()).toBeNull();
   });
 
+  it('submit: sends the parsed value only when it fits the schema', () => {
+    const { submit } = aForm();
+    const Schema = z.object({ code: z.string().trim().min(1, { message: 'Enter a code.' }) });
+    const call = jest.fn((v: { code: string }) => of(v.code));
+    const done = jest.fn();
+    submit.submit(Schema, { code: ' ' }, call, done);
+    expect(call).not.toHaveBeenCalled();
+    submit.submit(Schema, { code: ' B ' }, call, done);
+    expect(call).toHaveBeenCalledWith({ code: 'B' });
+    expect(done).toHaveBeenCalledWith('B');
+  });
+
   it('is busy while the call runs and hands the answer on', () => {
     const { submit } = aForm();
     const call = new Subject<string>();

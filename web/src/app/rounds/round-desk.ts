@@ -11,11 +11,14 @@ import {
   type Scheme,
 } from '@ringlet/shared/contracts/rounds';
 import { ROUND_STATE_LABELS } from '@ringlet/shared/contracts/round-states';
-import { ActionCell, type RowAction } from '../grid/action-cell';
-import { RoundDialog } from './round-dialog';
+import type { RowAction } from '../grid/action-cell';
+import { actionsColumn } from '../grid/columns';
+import { openDialog } from '../shared/open-dialog';
+import { rowId } from '../shared/section-grid';
+import { RoundDialog, type RoundDialogData } from './round-dialog/round-dialog';
 import { formatDate, formatMoney, ringletGridTheme } from './rounds-grid';
 import { RoundsService } from './rounds-service';
-import { SchemeDialog } from './scheme-dialog';
+import { SchemeDialog } from './scheme-dialog/scheme-dialog';
 
 /** The coordinator's workspace: every round in one grid, and the way to start new ones. */
 @Component({
@@ -63,7 +66,7 @@ export class RoundDesk implements OnInit {
   protected readonly rounds = signal<RoundSummary[]>([]);
   protected readonly schemes = signal<Scheme[]>([]);
   protected readonly loading = signal(true);
-  protected readonly rowId = (p: { data: RoundSummary }) => p.data.id;
+  protected readonly rowId = rowId;
 
   private readonly actions: RowAction<RoundSummary>[] = [
     {
@@ -104,14 +107,7 @@ export class RoundDesk implements OnInit {
       type: 'rightAligned',
       valueGetter: ({ data }) => (data ? formatMoney(data.feeMinor, data.currency) : ''),
     },
-    {
-      colId: 'actions',
-      headerName: '',
-      width: 110,
-      sortable: false,
-      cellRenderer: ActionCell,
-      cellRendererParams: { actions: this.actions },
-    },
+    actionsColumn(this.actions, 110),
   ];
 
   ngOnInit(): void {
@@ -126,20 +122,15 @@ export class RoundDesk implements OnInit {
   }
 
   protected newScheme(): void {
-    this.dialog
-      .open(SchemeDialog, { width: '520px', maxWidth: '95vw' })
-      .afterClosed()
-      .subscribe((s?: Scheme) => {
-        if (s) this.schemes.update((list) => [...list, s]);
-      });
+    openDialog(this.dialog, SchemeDialog, undefined, '520px', (s: Scheme) =>
+      this.schemes.update((list) => [...list, s]),
+    );
   }
 
   protected newRound(): void {
-    this.dialog
-      .open(RoundDialog, { data: { schemes: this.schemes() }, width: '760px', maxWidth: '95vw' })
-      .afterClosed()
-      .subscribe((id?: string) => {
-        if (id) void this.router.navigate(['/desk/rounds', id]);
-      });
+    const data: RoundDialogData = { schemes: this.schemes() };
+    openDialog(this.dialog, RoundDialog, data, '760px', (id: string) => {
+      void this.router.navigate(['/desk/rounds', id]);
+    });
   }
 }

@@ -20,6 +20,3 @@ export { ringletGridTheme } from '../grid/grid-theme';
 
 /** Dates and money: one set of helpers for every screen (core/format.ts). */
 export { formatDate, formatMoney } from '../core/format';
-
-/** Rows keep their identity across reloads by their id. */
-export const rowId = (p: { data: { id: string } }): string => p.data.id;

@@ -12,7 +12,7 @@ import { of } from 'rxjs';
 import type { PrecisionSigmaSources } from '@ringlet/shared/contracts/precision';
 import type { Measurand, MeasurandUpdate } from '@ringlet/shared/contracts/rounds';
 import { settle } from '../core/testing';
-import { MeasurandDialog, type MeasurandDialogData } from './measurand-dialog';
+import { MeasurandDialog, type MeasurandDialogData } from './measurand-dialog/measurand-dialog';
 import { RoundsService } from './rounds-service';
 import { sigmaSourceChoices } from './sigma-source-picker';
 

@@ -13,9 +13,14 @@ interface DeskDialogBase {
   readonly intro?: string;
 }
 
+/** A desk dialog of one kind whose `send` performs the call with that kind's parsed value. */
+interface SendsValue<K extends string, V, R> extends DeskDialogBase {
+  readonly kind: K;
+  readonly send: (value: V) => Observable<R>;
+}
+
 /** A round moving to another state; `send` gets the parsed transition request. */
-export interface TransitionDialogData<R> extends DeskDialogBase {
-  readonly kind: 'transition';
+export interface TransitionDialogData<R> extends SendsValue<'transition', TransitionRequest, R> {
   readonly to: RoundState;
   /** Whether the move may close early (before results are due). */
   readonly offerForce: boolean;
@@ -24,26 +29,14 @@ export interface TransitionDialogData<R> extends DeskDialogBase {
   readonly moveLabel?: string;
   /** Who hears of the move. */
   readonly whoIsTold?: string;
-  readonly send: (value: TransitionRequest) => Observable<R>;
 }
-export interface WithdrawalDialogData<R> extends DeskDialogBase {
-  readonly kind: 'withdrawal';
-  readonly send: (value: Withdrawal) => Observable<R>;
-}
-export interface ExtensionDialogData<R> extends DeskDialogBase {
-  readonly kind: 'extension';
-  readonly send: (value: ExtensionGrant) => Observable<R>;
-}
-export interface DispatchDialogData<R> extends DeskDialogBase {
-  readonly kind: 'dispatch';
+export type WithdrawalDialogData<R> = SendsValue<'withdrawal', Withdrawal, R>;
+export type ExtensionDialogData<R> = SendsValue<'extension', ExtensionGrant, R>;
+export interface DispatchDialogData<R> extends SendsValue<'dispatch', DispatchInput, R> {
   /** Packing and transport cautions (shared/contracts/safety.ts). */
   readonly cautions: readonly string[];
-  readonly send: (value: DispatchInput) => Observable<R>;
 }
-export interface DecisionDialogData<R> extends DeskDialogBase {
-  readonly kind: 'decision';
-  readonly send: (value: StudyDecision) => Observable<R>;
-}
+export type DecisionDialogData<R> = SendsValue<'decision', StudyDecision, R>;
 export interface ConfirmDialogData<R> extends DeskDialogBase {
   readonly kind: 'confirm';
   /** The button's label (e.g. "Remove item C"). */

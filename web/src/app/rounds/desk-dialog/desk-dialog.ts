@@ -1,15 +1,7 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
+import { NonNullableFormBuilder } from '@angular/forms';
 import { MatCheckboxModule } from '@angular/material/checkbox';
-import {
-  MAT_DIALOG_DATA,
-  type MatDialog,
-  MatDialogModule,
-  MatDialogRef,
-} from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
+import { MAT_DIALOG_DATA, type MatDialog, MatDialogRef } from '@angular/material/dialog';
 import { MatSelectModule } from '@angular/material/select';
 import type { Observable } from 'rxjs';
 import {
@@ -22,8 +14,10 @@ import {
   Withdrawal,
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
-import { parseWith, showServerError } from '../form-errors';
-import { localToIso } from '../round-dialog';
+import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
+import { DialogSubmit } from '../../shared/dialog-submit';
+import { localToIso } from '../../shared/form-values';
+import { openDialog } from '../../shared/open-dialog';
 import { type DeskDialogData, deskConfirmLabel, deskFields } from './desk-dialog-data';
 
 const DECISION_LABELS: Record<HomogeneityDecisionKind, string> = {
@@ -39,23 +33,13 @@ const DECISION_LABELS: Record<HomogeneityDecisionKind, string> = {
 @Component({
   selector: 'app-desk-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatSelectModule,
-    MatCheckboxModule,
-    MatButtonModule,
-  ],
+  imports: [FORM_DIALOG_IMPORTS, MatSelectModule, MatCheckboxModule],
   templateUrl: './desk-dialog.html',
 })
 export class DeskDialog<R> {
   protected readonly data = inject<DeskDialogData<R>>(MAT_DIALOG_DATA);
   private readonly ref = inject<MatDialogRef<DeskDialog<R>, R>>(MatDialogRef);
   protected readonly errorMessage = errorMessage;
-  protected readonly busy = signal(false);
-  protected readonly failure = signal<string | null>(null);
   protected readonly decisions = Object.entries(DECISION_LABELS);
   protected readonly confirmLabel = deskConfirmLabel(this.data);
   protected readonly fields = deskFields(this.data);
@@ -70,13 +54,13 @@ export class DeskDialog<R> {
     until: [''],
     decision: ['widen-sigma-pt' as HomogeneityDecisionKind],
   });
+  protected readonly submission = new DialogSubmit(this.form);
 
   /** The call for the kind with the parsed value, or null when a field is wrong. */
   private request(): Observable<R> | null {
     const d = this.data;
     const v = this.form.getRawValue();
-    const parse = <S extends Parameters<typeof parseWith>[1]>(schema: S, value: unknown) =>
-      parseWith(this.form, schema, value, this.failure);
+    const parse = this.submission.parse.bind(this.submission);
     switch (d.kind) {
       case 'transition': {
         const body = { to: d.to, reason: v.reason.trim() || undefined, force: v.force };
@@ -105,22 +89,13 @@ export class DeskDialog<R> {
         return p && d.send(p);
       }
       case 'confirm':
-        this.failure.set(null);
         return d.send();
     }
   }
 
   protected submit(): void {
     const call = this.request();
-    if (!call) return;
-    this.busy.set(true);
-    call.subscribe({
-      next: (result) => this.ref.close(result),
-      error: (e: unknown) => {
-        this.busy.set(false);
-        showServerError(this.form, e, this.failure);
-      },
-    });
+    if (call) this.submission.send(call, (result) => this.ref.close(result));
   }
 }
 
@@ -130,14 +105,5 @@ export function openDeskDialog<R>(
   data: DeskDialogData<R>,
   after: (value: R) => void,
 ): void {
-  dialog
-    .open<DeskDialog<R>, DeskDialogData<R>, R>(DeskDialog<R>, {
-      data,
-      width: '480px',
-      maxWidth: '95vw',
-    })
-    .afterClosed()
-    .subscribe((v) => {
-      if (v) after(v);
-    });
+  openDialog<DeskDialog<R>, DeskDialogData<R>, R>(dialog, DeskDialog<R>, data, '480px', after);
 }

@@ -22,8 +22,9 @@ import {
   type RoundState,
 } from '@ringlet/shared/contracts/round-states';
 import { SignalBadge } from '../../core/signal-badge';
+import { openDialog } from '../../shared/open-dialog';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
-import { RoundEditDialog } from '../round-edit-dialog';
+import { RoundEditDialog } from '../round-edit-dialog/round-edit-dialog';
 import { RoundEnrolments } from '../round-enrolments/round-enrolments';
 import { RoundInvitations } from '../round-invitations/round-invitations';
 import { RoundItems } from '../round-items/round-items';
@@ -106,11 +107,8 @@ export class RoundDetail implements OnInit {
   protected editRound(): void {
     const r = this.round();
     if (!r) return;
-    this.dialog
-      .open(RoundEditDialog, { data: r, width: '720px', maxWidth: '95vw' })
-      .afterClosed()
-      .subscribe((updated?: RoundDetailDto) => {
-        if (updated) this.round.set(updated);
-      });
+    openDialog(this.dialog, RoundEditDialog, r, '720px', (updated: RoundDetailDto) =>
+      this.round.set(updated),
+    );
   }
 }

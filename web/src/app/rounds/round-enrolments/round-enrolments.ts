@@ -9,14 +9,13 @@ import {
   untracked,
 } from '@angular/core';
 import { MatDialog } from '@angular/material/dialog';
-import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef } from 'ag-grid-community';
 import type { Enrolment, RoundDetail } from '@ringlet/shared/contracts/rounds';
 import { DISPATCH_CAUTIONS } from '@ringlet/shared/contracts/safety';
 import type { RowAction } from '../../grid/action-cell';
 import { actionsColumn } from '../../grid/columns';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
-import { ringletGridTheme, rowId } from '../rounds-grid';
+import { SectionGrid } from '../../shared/section-grid';
 import { RoundsService } from '../rounds-service';
 import { ENROLMENT_COLUMNS, receiptSummary } from './enrolment-columns';
 
@@ -24,7 +23,7 @@ import { ENROLMENT_COLUMNS, receiptSummary } from './enrolment-columns';
 @Component({
   selector: 'app-round-enrolments',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular],
+  imports: [SectionGrid],
   templateUrl: './round-enrolments.html',
   styleUrl: '../desk-sections.scss',
 })
@@ -32,8 +31,6 @@ export class RoundEnrolments {
   readonly round = input.required<RoundDetail>();
   private readonly api = inject(RoundsService);
   private readonly dialog = inject(MatDialog);
-  protected readonly theme = ringletGridTheme;
-  protected readonly rowId = rowId;
   protected readonly enrolments = signal<Enrolment[]>([]);
   protected readonly summary = computed(() => receiptSummary(this.enrolments()));
 

@@ -15,7 +15,6 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { AgGridAngular } from 'ag-grid-angular';
 import type { Organisation } from '@ringlet/shared/contracts/admin';
 import {
   type Invitation,
@@ -23,8 +22,8 @@ import {
   type RoundDetail,
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
-import { parseWith, showServerError } from '../form-errors';
-import { ringletGridTheme } from '../rounds-grid';
+import { DialogSubmit } from '../../shared/dialog-submit';
+import { SectionGrid } from '../../shared/section-grid';
 import { RoundsService } from '../rounds-service';
 import { INVITATION_COLUMNS, invitationsFromRows } from './invitation-rows';
 
@@ -33,7 +32,7 @@ import { INVITATION_COLUMNS, invitationsFromRows } from './invitation-rows';
   selector: 'app-round-invitations',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
-    AgGridAngular,
+    SectionGrid,
     ReactiveFormsModule,
     MatButtonModule,
     MatIconModule,
@@ -50,14 +49,12 @@ export class RoundInvitations implements OnInit {
   readonly changed = output<void>();
   private readonly api = inject(RoundsService);
   private readonly fb = inject(NonNullableFormBuilder);
-  protected readonly theme = ringletGridTheme;
   protected readonly columns = INVITATION_COLUMNS;
   protected readonly errorMessage = errorMessage;
   protected readonly labs = signal<Organisation[]>([]);
   protected readonly invitations = signal<Invitation[]>([]);
-  protected readonly busy = signal(false);
-  protected readonly failure = signal<string | null>(null);
   protected readonly form = this.fb.group({ invitations: this.fb.array([this.row()]) });
+  protected readonly submission = new DialogSubmit(this.form);
 
   constructor() {
     effect(() => {
@@ -82,20 +79,11 @@ export class RoundInvitations implements OnInit {
 
   protected invite(): void {
     const body = invitationsFromRows(this.form.getRawValue().invitations);
-    const value = parseWith(this.form, InvitationsCreate, body, this.failure);
-    if (!value) return;
-    this.busy.set(true);
-    this.api.invite(this.round().id, value.invitations).subscribe({
-      next: () => {
-        this.busy.set(false);
-        this.form.controls.invitations.clear();
-        this.addInvite();
-        this.changed.emit();
-      },
-      error: (e: unknown) => {
-        this.busy.set(false);
-        showServerError(this.form, e, this.failure);
-      },
+    const send = (v: InvitationsCreate) => this.api.invite(this.round().id, v.invitations);
+    this.submission.submit(InvitationsCreate, body, send, () => {
+      this.form.controls.invitations.clear();
+      this.addInvite();
+      this.changed.emit();
     });
   }
 }

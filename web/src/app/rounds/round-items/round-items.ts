@@ -2,21 +2,21 @@ import { ChangeDetectionStrategy, Component, computed, inject, input, output } f
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef } from 'ag-grid-community';
 import { isDesignOpen, type RoundDetail, type TestItem } from '@ringlet/shared/contracts/rounds';
 import { actionsColumnWhile } from '../../grid/columns';
 import type { RowAction } from '../../grid/action-cell';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
-import { ItemDialog, type ItemDialogData } from '../item-dialog';
-import { ringletGridTheme, rowId } from '../rounds-grid';
+import { ItemDialog, type ItemDialogData } from '../item-dialog/item-dialog';
+import { openDialog } from '../../shared/open-dialog';
+import { SectionGrid } from '../../shared/section-grid';
 import { RoundsService } from '../rounds-service';
 
 /** A round's test items: the grid, and adding, editing and removing while the design is open. */
 @Component({
   selector: 'app-round-items',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular, MatButtonModule, MatIconModule],
+  imports: [SectionGrid, MatButtonModule, MatIconModule],
   templateUrl: './round-items.html',
   styleUrl: '../desk-sections.scss',
 })
@@ -26,8 +26,6 @@ export class RoundItems {
   readonly changed = output<void>();
   private readonly api = inject(RoundsService);
   private readonly dialog = inject(MatDialog);
-  protected readonly theme = ringletGridTheme;
-  protected readonly rowId = rowId;
   protected readonly designOpen = computed(() => isDesignOpen(this.round().state));
 
   private readonly actions: RowAction<TestItem>[] = [
@@ -46,12 +44,7 @@ export class RoundItems {
   /** Add a test item (no argument) or edit one. */
   protected editItem(item?: TestItem): void {
     const data: ItemDialogData = { roundId: this.round().id, item };
-    this.dialog
-      .open(ItemDialog, { data, width: '560px', maxWidth: '95vw' })
-      .afterClosed()
-      .subscribe((saved?: true) => {
-        if (saved) this.changed.emit();
-      });
+    openDialog(this.dialog, ItemDialog, data, '560px', () => this.changed.emit());
   }
 
   private removeItem(item: TestItem): void {

@@ -10,7 +10,6 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
-import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef } from 'ag-grid-community';
 import {
   DLS_DEFAULT_MEASURANDS,
@@ -22,8 +21,9 @@ import { problemMessage } from '../../core/problem';
 import type { RowAction } from '../../grid/action-cell';
 import { actionsColumnWhile } from '../../grid/columns';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
-import { MeasurandDialog, type MeasurandDialogData } from '../measurand-dialog';
-import { ringletGridTheme, rowId } from '../rounds-grid';
+import { MeasurandDialog, type MeasurandDialogData } from '../measurand-dialog/measurand-dialog';
+import { openDialog } from '../../shared/open-dialog';
+import { SectionGrid } from '../../shared/section-grid';
 import { RoundsService } from '../rounds-service';
 import { lacksDlsDefaults, MEASURAND_COLUMNS } from './measurand-columns';
 
@@ -31,7 +31,7 @@ import { lacksDlsDefaults, MEASURAND_COLUMNS } from './measurand-columns';
 @Component({
   selector: 'app-round-measurands',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular, MatButtonModule, MatIconModule],
+  imports: [SectionGrid, MatButtonModule, MatIconModule],
   templateUrl: './round-measurands.html',
   styleUrl: '../desk-sections.scss',
 })
@@ -41,8 +41,6 @@ export class RoundMeasurands {
   readonly changed = output<void>();
   private readonly api = inject(RoundsService);
   private readonly dialog = inject(MatDialog);
-  protected readonly theme = ringletGridTheme;
-  protected readonly rowId = rowId;
   protected readonly busy = signal(false);
   protected readonly message = signal<string | null>(null);
   protected readonly designOpen = computed(() => isDesignOpen(this.round().state));
@@ -72,12 +70,7 @@ export class RoundMeasurands {
       schemeId: this.round().schemeId,
       measurand,
     };
-    this.dialog
-      .open(MeasurandDialog, { data, width: '720px', maxWidth: '95vw' })
-      .afterClosed()
-      .subscribe((saved?: true) => {
-        if (saved) this.changed.emit();
-      });
+    openDialog(this.dialog, MeasurandDialog, data, '720px', () => this.changed.emit());
   }
 
   private removeMeasurand(m: Measurand): void {

@@ -14,9 +14,7 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
-import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef } from 'ag-grid-community';
-import type { Observable } from 'rxjs';
 import {
   type RoundDetail,
   type Study,
@@ -28,8 +26,8 @@ import { errorMessage } from '../../core/zod-form-errors';
 import type { RowAction } from '../../grid/action-cell';
 import { actionsColumn } from '../../grid/columns';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
-import { parseWith, showServerError } from '../form-errors';
-import { ringletGridTheme } from '../rounds-grid';
+import { DialogSubmit } from '../../shared/dialog-submit';
+import { SectionGrid } from '../../shared/section-grid';
 import { RoundsService } from '../rounds-service';
 import { studyNumbers } from '../study-numbers';
 import { STUDY_COLUMNS, studyInput, studyUpload, type StudyFormValue } from './study-input';
@@ -39,7 +37,7 @@ import { STUDY_COLUMNS, studyInput, studyUpload, type StudyFormValue } from './s
   selector: 'app-round-studies',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
-    AgGridAngular,
+    SectionGrid,
     ReactiveFormsModule,
     MatButtonModule,
     MatFormFieldModule,
@@ -56,11 +54,8 @@ export class RoundStudies {
   readonly changed = output<void>();
   private readonly api = inject(RoundsService);
   private readonly dialog = inject(MatDialog);
-  protected readonly theme = ringletGridTheme;
   protected readonly errorMessage = errorMessage;
   protected readonly studies = signal<Study[]>([]);
-  protected readonly busy = signal(false);
-  protected readonly failure = signal<string | null>(null);
   protected readonly form = inject(NonNullableFormBuilder).group({
     kind: ['homogeneity' as StudyFormValue['kind']],
     testItemId: [''],
@@ -68,6 +63,7 @@ export class RoundStudies {
     sigmaPt: [null as number | null],
     text: [''],
   });
+  protected readonly submission = new DialogSubmit(this.form);
 
   private readonly actions: RowAction<Study>[] = [
     {
@@ -110,27 +106,15 @@ export class RoundStudies {
 
   protected recordStudy(): void {
     const body = studyInput(this.form.getRawValue());
-    const value = parseWith(this.form, StudyInput, body, this.failure);
-    if (!value) return;
-    this.send(this.api.recordStudy(this.round().id, value));
+    const record = (v: StudyInput) => this.api.recordStudy(this.round().id, v);
+    this.submission.submit(StudyInput, body, record, () => this.changed.emit());
   }
 
   protected upload(file: File): void {
-    this.send(this.api.uploadStudy(this.round().id, studyUpload(this.form.getRawValue(), file)));
-  }
-
-  private send(call: Observable<Study>): void {
-    this.failure.set(null);
-    this.busy.set(true);
-    call.subscribe({
-      next: () => {
-        this.busy.set(false);
-        this.changed.emit();
-      },
-      error: (e: unknown) => {
-        this.busy.set(false);
-        showServerError(this.form, e, this.failure);
-      },
-    });
+    const upload = this.api.uploadStudy(
+      this.round().id,
+      studyUpload(this.form.getRawValue(), file),
+    );
+    this.submission.send(upload, () => this.changed.emit());
   }
 }

@@ -1,0 +1,57 @@
+import { ChangeDetectionStrategy, Component, input } from '@angular/core';
+import { ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatDialogModule } from '@angular/material/dialog';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import type { DialogSubmit } from './dialog-submit';
+
+/**
+ * The foot of a form dialog: the form's message (what no field shows), Cancel, which closes
+ * without a result, and the submit button (inside the dialog's form), off while the form is busy.
+ */
+@Component({
+  selector: 'app-dialog-actions',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [MatDialogModule, MatButtonModule],
+  template: `
+    @if (submission().failure(); as message) {
+      <p class="form-error" role="alert">{{ message }}</p>
+    }
+    <mat-dialog-actions align="end">
+      <button mat-button type="button" mat-dialog-close>Cancel</button>
+      <button
+        mat-flat-button
+        type="submit"
+        [disabled]="submission().busy()"
+        [attr.data-testid]="testId() || null"
+      >
+        {{ label() }}
+      </button>
+    </mat-dialog-actions>
+  `,
+  styles: `
+    :host {
+      display: block;
+    }
+    .form-error {
+      padding: 0 24px;
+    }
+  `,
+})
+export class DialogActions {
+  /** The submit button's text. */
+  readonly label = input.required<string>();
+  /** The form's submit state (busy, and the message above the buttons). */
+  readonly submission = input.required<DialogSubmit>();
+  readonly testId = input('');
+}
+
+/** What a form dialog's component imports: reactive forms, the dialog, text fields, its foot. */
+export const FORM_DIALOG_IMPORTS = [
+  ReactiveFormsModule,
+  MatDialogModule,
+  MatFormFieldModule,
+  MatInputModule,
+  DialogActions,
+] as const;

@@ -379,18 +379,17 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
         const ex = excluded.get(`${r.code}\u0000${item.code}\u0000${m.key}`) ?? null;
         const valueIssue = problems.get(r.code) ?? null;
         const { lab, problem: uIssue } = labUncertainty(r.uncertainty);
-        const base = {
-          code: r.code,
-          result: x,
-          replicates: r.values.length,
-          replicateSd: sd,
-          scoreKind,
-          hints: [] as ParticipantScore['hints'],
-          excluded: ex,
-        };
+        // Plain literals with every field in one order (no spreads): V8 then gives all scores
+        // one hidden class and builds them on the fast path.
         if (valueIssue) {
           return {
-            ...base,
+            code: r.code,
+            result: x,
+            replicates: r.values.length,
+            replicateSd: sd,
+            scoreKind,
+            hints: [],
+            excluded: ex,
             u: lab?.u ?? null,
             z: null,
             zPrime: null,
@@ -441,8 +440,14 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
           };
         }
         const d = xpt === null ? null : finiteOrNull(x - xpt);
-        return {
-          ...base,
+        const score: ParticipantScore = {
+          code: r.code,
+          result: x,
+          replicates: r.values.length,
+          replicateSd: sd,
+          scoreKind,
+          hints: [],
+          excluded: ex,
           u: lab?.u ?? null,
           z,
           zPrime,
@@ -451,8 +456,9 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
           d,
           dPct: xpt === null || xpt === 0 || d === null ? null : finiteOrNull((100 * d) / xpt),
           signal: governing === null ? null : signalFor(governing, scoreKind),
-          ...(notScored ? { notScored } : {}),
         };
+        if (notScored) score.notScored = notScored;
+        return score;
       });
       out.push({
         testItemId: item.id,

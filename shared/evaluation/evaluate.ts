@@ -372,36 +372,12 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
       const u = c.uAssigned;
       const scoreKind: ParticipantScore['scoreKind'] = c.uNegligible === false ? 'zPrime' : 'z';
       const zpDen = sigma === null || u === null ? null : Math.sqrt(sigma * sigma + u * u);
-      const participants: ParticipantScore[] = rows.map((r) => {
-        const stats = replicateStats(r.values);
-        const x = Number.isFinite(stats.mean) ? stats.mean : r.values[0]!;
-        const sd = finiteOrNull(stats.sd);
-        const ex = excluded.get(`${r.code}\u0000${item.code}\u0000${m.key}`) ?? null;
-        const valueIssue = problems.get(r.code) ?? null;
-        const { lab, problem: uIssue } = labUncertainty(r.uncertainty);
-        const base = {
-          code: r.code,
-          result: x,
-          replicates: r.values.length,
-          replicateSd: sd,
-          scoreKind,
-          hints: [] as ParticipantScore['hints'],
-          excluded: ex,
-        };
-        if (valueIssue) {
-          return {
-            ...base,
-            u: lab?.u ?? null,
-            z: null,
-            zPrime: null,
-            zeta: null,
-            en: null,
-            d: null,
-            dPct: null,
-            signal: null,
-            notScored: valueIssue,
-          };
-        }
+      /** z, z′, ζ, En, D, D%, the signal and why a score is missing, for a result x. */
+      const scoresOf = (
+        x: number,
+        lab: { u: number; U: number } | null,
+        uIssue: NotScored | null,
+      ) => {
         const z = xpt === null || sigma === null ? null : safeScore(() => (x - xpt) / sigma);
         const zPrime = xpt === null || zpDen === null ? null : safeScore(() => (x - xpt) / zpDen);
         let zeta: number | null = null;
@@ -442,8 +418,6 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
         }
         const d = xpt === null ? null : finiteOrNull(x - xpt);
         return {
-          ...base,
-          u: lab?.u ?? null,
           z,
           zPrime,
           zeta,
@@ -451,8 +425,40 @@ export function evaluateRecord(input: EvaluationInput): ItemMeasurandEvaluation[
           d,
           dPct: xpt === null || xpt === 0 || d === null ? null : finiteOrNull((100 * d) / xpt),
           signal: governing === null ? null : signalFor(governing, scoreKind),
-          ...(notScored ? { notScored } : {}),
+          notScored,
         };
+      };
+      const participants: ParticipantScore[] = rows.map((r) => {
+        const stats = replicateStats(r.values);
+        const x = Number.isFinite(stats.mean) ? stats.mean : r.values[0]!;
+        const sd = finiteOrNull(stats.sd);
+        const ex = excluded.get(`${r.code}\u0000${item.code}\u0000${m.key}`) ?? null;
+        const valueIssue = problems.get(r.code) ?? null;
+        const { lab, problem: uIssue } = labUncertainty(r.uncertainty);
+        // A result outside its plausible range gets no scores, only the reason.
+        const scored = valueIssue ? null : scoresOf(x, lab, uIssue);
+        // One plain literal with every field in one order (no spreads): V8 then gives all
+        // scores one hidden class and builds them on its fast path.
+        const score: ParticipantScore = {
+          code: r.code,
+          result: x,
+          replicates: r.values.length,
+          replicateSd: sd,
+          scoreKind,
+          hints: [],
+          excluded: ex,
+          u: lab?.u ?? null,
+          z: scored?.z ?? null,
+          zPrime: scored?.zPrime ?? null,
+          zeta: scored?.zeta ?? null,
+          en: scored?.en ?? null,
+          d: scored?.d ?? null,
+          dPct: scored?.dPct ?? null,
+          signal: scored?.signal ?? null,
+        };
+        const notScored = valueIssue ?? scored?.notScored ?? null;
+        if (notScored) score.notScored = notScored;
+        return score;
       });
       out.push({
         testItemId: item.id,

@@ -1,6 +1,8 @@
 import creosote from './fixtures/creosote.json';
-import { evaluateRound, type ResultRow } from './evaluate-round';
-import { syntheticRound } from './synthetic-round';
+import { algorithmA } from './algorithm-a';
+import { consensusUncertainty } from './assigned-value';
+import { evaluateColumns, evaluateRound, toColumns, type ResultRow } from './evaluate-round';
+import { mulberry32, syntheticRound } from './synthetic-round';
 
 function rowsFromMeans(means: readonly number[], replicates = 1): ResultRow[] {
   const rows: ResultRow[] = [];
@@ -99,5 +101,98 @@ describe('evaluateRound', () => {
     expect(() =>
       evaluateRound([{ participant: 'a', item: 'b', measurand: 'c', replicate: 1, value: NaN }]),
     ).toThrow(/row 0/);
+  });
+});
+
+/**
+ * The per-row object path the engine replaced, kept here as the reference: rows grouped under
+ * string keys in Maps, codes sorted, each participant's replicates averaged (two-pass, centred
+ * on the first replicate), Algorithm A (validated entry point) on the means in code order, then
+ * u(x_pt), z and z′ with σ_pt = s*.
+ */
+function objectPath(rows: readonly ResultRow[]) {
+  const groups = new Map<string, Map<string, number[]>>();
+  for (const r of rows) {
+    const key = `${r.item}\u0000${r.measurand}`;
+    let byCode = groups.get(key);
+    if (!byCode) groups.set(key, (byCode = new Map()));
+    let vs = byCode.get(r.participant);
+    if (!vs) byCode.set(r.participant, (vs = []));
+    vs.push(r.value);
+  }
+  return new Map([...groups].map(([key, byCode]) => [key, referenceGroup(byCode)] as const));
+}
+
+function referenceGroup(byCode: ReadonlyMap<string, number[]>) {
+  const codes = [...byCode.keys()].sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+  const means = codes.map((c) => {
+    const vs = byCode.get(c)!;
+    const s = vs.reduce((acc, v) => acc + (v - vs[0]), 0);
+    return vs[0] + s / vs.length;
+  });
+  const a = algorithmA(means);
+  const u = consensusUncertainty(a.robustSd, means.length);
+  const zpDen = Math.sqrt(a.robustSd * a.robustSd + u * u);
+  return {
+    x: a.robustMean,
+    s: a.robustSd,
+    u,
+    codes,
+    means,
+    z: means.map((m) => (m - a.robustMean) / a.robustSd),
+    zPrime: means.map((m) => (m - a.robustMean) / zpDen),
+  };
+}
+
+describe('evaluateColumns (typed columns) against the per-row object path', () => {
+  // Invented data (seeded synthetic round); exact equality, so any change of a number fails.
+  it.each([12, 250, 3000])(
+    'gives identical x*, s*, u(x_pt), results and z, z′ for %i participants',
+    (n) => {
+      const rows = syntheticRound({
+        participants: n,
+        items: 2,
+        measurands: 2,
+        replicates: 3,
+        seed: 20240601,
+      });
+      // The same rows shuffled: the engine's slower path (rows not in code order) must agree too.
+      const shuffled = rows.slice();
+      const rnd = mulberry32(n);
+      for (let i = shuffled.length - 1; i > 0; i--) {
+        const j = Math.floor(rnd() * (i + 1));
+        [shuffled[i], shuffled[j]] = [shuffled[j], shuffled[i]];
+      }
+      const ref = objectPath(rows);
+      for (const input of [rows, shuffled]) {
+        const cols = toColumns(input);
+        const { evaluations } = evaluateColumns(cols);
+        expect(evaluations).toHaveLength(ref.size);
+        evaluations.forEach((e) => {
+          const r = ref.get(`${e.item}\u0000${e.measurand}`)!;
+          expect(e.assignedValue).toBe(r.x);
+          expect(e.robustSd).toBe(r.s);
+          expect(e.sigmaPt).toBe(r.s);
+          expect(e.uAssigned).toBe(r.u);
+          expect(Array.from(e.columns.code, (c) => cols.codes[c])).toEqual(r.codes);
+          expect(Array.from(e.columns.result)).toEqual(r.means);
+          expect(Array.from(e.columns.z!)).toEqual(r.z);
+          expect(Array.from(e.columns.zPrime!)).toEqual(r.zPrime);
+          // The objects built on reading carry the same numbers.
+          expect(e.participants.map((p) => [p.code, p.result, p.z, p.zPrime])).toEqual(
+            r.codes.map((c, i) => [c, r.means[i], r.z[i], r.zPrime[i]]),
+          );
+        });
+      }
+    },
+  );
+
+  it('builds the participant objects once, on first read, and includes them in JSON', () => {
+    const e = evaluateRound(
+      syntheticRound({ participants: 20, items: 1, measurands: 1, replicates: 2, seed: 5 }),
+    ).evaluations[0];
+    expect(e.participants).toBe(e.participants);
+    const json = JSON.parse(JSON.stringify(e)) as { participants: { code: string }[] };
+    expect(json.participants.map((p) => p.code)).toEqual(e.participants.map((p) => p.code));
   });
 });

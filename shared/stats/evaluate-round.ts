@@ -64,6 +64,25 @@ export type EvaluationWarning =
   | 'sigma-pt-unavailable'
   | 'u-not-negligible';
 
+/**
+ * The per-participant numbers of one item × measurand as typed columns, index i = the i-th
+ * participant in code order. The engine fills these; `ItemEvaluation.participants` builds its
+ * objects from them only when a caller reads it.
+ */
+export interface ParticipantColumns {
+  /** Index into the round's participant codes (`ResultColumns.codes`). */
+  readonly code: Int32Array;
+  /** Mean of the participant's replicates, unit of the measurand. */
+  readonly result: Float64Array;
+  readonly replicates: Int32Array;
+  /** SD (n − 1) of the replicates; NaN for a single replicate. */
+  readonly replicateSd: Float64Array;
+  /** z per participant; null when σ_pt could not be set. */
+  readonly z: Float64Array | null;
+  /** z′ per participant; null when σ_pt could not be set. */
+  readonly zPrime: Float64Array | null;
+}
+
 export interface ItemEvaluation {
   readonly item: string;
   readonly measurand: string;
@@ -84,6 +103,12 @@ export interface ItemEvaluation {
   readonly uNegligible: boolean | null;
   readonly sigmaPtRule: SigmaPtRule;
   readonly warnings: readonly EvaluationWarning[];
+  /** The participants' numbers as typed columns (what the engine computes). */
+  readonly columns: ParticipantColumns;
+  /**
+   * The same numbers as one object per participant, in code order. Built from `columns` on
+   * first read and kept (an own enumerable getter, so spreading and JSON include it).
+   */
   readonly participants: readonly ParticipantEvaluation[];
 }
 
@@ -171,10 +196,16 @@ export function evaluateRound(
   return evaluateColumns(toColumns(rows), options);
 }
 
+/** Work buffers for the rows in (group, code) order, reused from call to call. */
+let scratchValue = new Float64Array(0);
+let scratchCode = new Int32Array(0);
+
 /**
- * Evaluates a round given as columns. Linear in the number of rows: codes are ranked once for
- * the whole round, the rows are put in (group, code) order by two stable counting passes instead
- * of a comparison sort, and Algorithm A finds its medians by selection.
+ * Evaluates a round given as columns. Linear in the number of rows and free of per-participant
+ * objects: rows are put in (group, code) order by stable counting passes over integer indices
+ * (one pass when each group's rows already arrive in code order, as uploads and the database
+ * give them), per-participant numbers stay in typed columns (`ItemEvaluation.columns`), and
+ * Algorithm A finds its medians by selection.
  * @throws RangeError when a column's length or an index is out of step with the others.
  */
 export function evaluateColumns(
@@ -189,33 +220,25 @@ export function evaluateColumns(
   if (cols.participant.length !== nRows || cols.group.length !== nRows) {
     throw new RangeError('columns: participant, group and value must have the same length');
   }
-  for (let r = 0; r < nRows; r++) {
-    const p = cols.participant[r];
-    const g = cols.group[r];
-    if (!(p >= 0 && p < nCodes && g >= 0 && g < nGroups))
-      throw new RangeError(`row ${r}: participant or group index out of range`);
-    if (!Number.isFinite(cols.value[r]))
-      throw new RangeError(`row ${r}: value is not a finite number (${String(cols.value[r])})`);
-  }
-
-  // Rank the codes once (TimSort is linear when codes arrive in order, as they usually do).
-  const byRank = Array.from({ length: nCodes }, (_, i) => i).sort((a, b) =>
-    codes[a] < codes[b] ? -1 : codes[a] > codes[b] ? 1 : 0,
-  );
-  const rank = new Int32Array(nCodes);
-  for (let k = 0; k < nCodes; k++) rank[byRank[k]] = k;
-
-  // Two stable counting passes: rows by code rank, then by group. Values and participant numbers
-  // are then copied in that order, so each group below is read front to back.
-  const byCodeRank = countingOrder(nRows, nCodes, rank, cols.participant, null);
   const groupStart = new Int32Array(nGroups + 1);
-  const order = countingOrder(nRows, nGroups, null, cols.group, byCodeRank, groupStart);
-  const value = new Float64Array(nRows);
-  const code = new Int32Array(nRows);
-  for (let i = 0; i < nRows; i++) {
-    const r = order[i];
-    value[i] = cols.value[r];
-    code[i] = cols.participant[r];
+  checkAndCount(cols, groupStart);
+  for (let g = 0; g < nGroups; g++) groupStart[g + 1] += groupStart[g];
+
+  // Values and participant numbers copied in (group, code) order, so each group is read front
+  // to back below: one stable pass by group, which is enough when each group's rows arrive in
+  // code order (as uploads and the database give them); otherwise the rows are first put in
+  // code order by a counting pass over the code ranks.
+  if (scratchValue.length < nRows) {
+    scratchValue = new Float64Array(nRows);
+    scratchCode = new Int32Array(nRows);
+  }
+  const value = scratchValue;
+  const code = scratchCode;
+  const rank = codeRanks(codes);
+  scatterByGroup(cols, null, groupStart.slice(0, nGroups), value, code);
+  if (!inCodeOrder(code, nRows, rank, groupStart)) {
+    const byCode = countingOrder(nRows, nCodes, rank, cols.participant);
+    scatterByGroup(cols, byCode, groupStart.slice(0, nGroups), value, code);
   }
 
   const evaluations: ItemEvaluation[] = [];
@@ -237,29 +260,101 @@ export function evaluateColumns(
   return { evaluations };
 }
 
+/*
+ * The loops below each sit in a small function of their own: V8 optimises each on its own
+ * feedback, and one large function with many loops was deoptimised again and again (its
+ * doubles then went through the heap as garbage).
+ */
+
+/** One pass over the rows: checks the indices and values and counts the rows per group into `counts[g + 1]`. */
+function checkAndCount(cols: ResultColumns, counts: Int32Array): void {
+  const { participant, group, value } = cols;
+  const nRows = value.length;
+  const nCodes = cols.codes.length;
+  const nGroups = cols.groups.length;
+  for (let r = 0; r < nRows; r++) {
+    const p = participant[r];
+    const g = group[r];
+    if (!(p >= 0 && p < nCodes && g >= 0 && g < nGroups))
+      throw new RangeError(`row ${r}: participant or group index out of range`);
+    const v = value[r];
+    if (!Number.isFinite(v)) throw new RangeError(`row ${r}: value is not a finite number (${v})`);
+    counts[g + 1]++;
+  }
+}
+
+/** Whether every group's block of `code` (bounds in `groupStart`) is in code order. */
+function inCodeOrder(
+  code: Int32Array,
+  nRows: number,
+  rank: Int32Array | null,
+  groupStart: Int32Array,
+): boolean {
+  let g = 0;
+  for (let i = 1; i < nRows; i++) {
+    while (groupStart[g + 1] <= i - 1) g++;
+    if (i === groupStart[g + 1]) continue; // first row of the next group
+    const a = code[i - 1];
+    const b = code[i];
+    if (rank === null ? b < a : rank[b] < rank[a]) return false;
+  }
+  return true;
+}
+
 /**
- * Stable counting sort of row indices by an integer key in [0, nKeys): the key of row r is
- * `keys[r]`, mapped through `map` when given. Visits rows in the order of `input` (or 0…n−1).
- * Writes each key's first position into `starts` (length nKeys + 1) when given.
+ * Stable scatter of the rows (in the order `order`, or as stored) to their group's block:
+ * `next[g]` is the next free position of group g.
+ */
+function scatterByGroup(
+  cols: ResultColumns,
+  order: Int32Array | null,
+  next: Int32Array,
+  value: Float64Array,
+  code: Int32Array,
+): void {
+  const { participant, group } = cols;
+  const values = cols.value;
+  const nRows = values.length;
+  for (let q = 0; q < nRows; q++) {
+    const r = order === null ? q : order[q];
+    const i = next[group[r]]++;
+    value[i] = values[r];
+    code[i] = participant[r];
+  }
+}
+
+/**
+ * Rank of each code in code order, or null when the codes are already in strictly increasing
+ * order (the usual case: one linear pass, no sort).
+ */
+function codeRanks(codes: readonly string[]): Int32Array | null {
+  const n = codes.length;
+  let sorted = true;
+  for (let k = 1; k < n && sorted; k++) if (!(codes[k - 1] < codes[k])) sorted = false;
+  if (sorted) return null;
+  const byRank = Array.from({ length: n }, (_, i) => i).sort((a, b) =>
+    codes[a] < codes[b] ? -1 : codes[a] > codes[b] ? 1 : 0,
+  );
+  const rank = new Int32Array(n);
+  for (let k = 0; k < n; k++) rank[byRank[k]] = k;
+  return rank;
+}
+
+/**
+ * Stable counting sort of row indices 0…n−1 by an integer key in [0, nKeys): the key of row r
+ * is `keys[r]`, mapped through `map` when given.
  */
 function countingOrder(
   nRows: number,
   nKeys: number,
   map: Int32Array | null,
   keys: Int32Array,
-  input: Int32Array | null,
-  starts: Int32Array = new Int32Array(nKeys + 1),
 ): Int32Array {
   const next = new Int32Array(nKeys + 1);
   for (let r = 0; r < nRows; r++) next[(map === null ? keys[r] : map[keys[r]]) + 1]++;
   for (let k = 0; k < nKeys; k++) next[k + 1] += next[k];
-  starts.set(next);
   const out = new Int32Array(nRows);
-  for (let i = 0; i < nRows; i++) {
-    const r = input === null ? i : input[i];
-    const k = map === null ? keys[r] : map[keys[r]];
-    out[next[k]++] = r;
-  }
+  for (let r = 0; r < nRows; r++) out[next[map === null ? keys[r] : map[keys[r]]]++] = r;
   return out;
 }
 
@@ -274,38 +369,12 @@ function evaluateGroup(
   options: EvaluateOptions,
   minResults: number,
 ): ItemEvaluation {
-  // Participants of this group: runs of equal code in [from, to), already in code order.
-  let p = 0;
-  for (let i = from; i < to; i++) if (i === from || code[i] !== code[i - 1]) p++;
+  const p = countRuns(code, from, to);
   const results = new Float64Array(p);
   const sdValues = new Float64Array(p);
   const counts = new Int32Array(p);
-  const firstRow = new Int32Array(p);
-  let i = from;
-  for (let k = 0; k < p; k++) {
-    const c = code[i];
-    let j = i;
-    while (j < to && code[j] === c) j++;
-    const m = j - i;
-    // Two-pass mean and SD of a handful of replicates, centred on the first one.
-    const x0 = value[i];
-    let s = 0;
-    for (let q = i; q < j; q++) s += value[q] - x0;
-    const dm = s / m;
-    results[k] = x0 + dm;
-    if (m > 1) {
-      let ss = 0;
-      for (let q = i; q < j; q++) {
-        const d = value[q] - x0 - dm;
-        ss += d * d;
-      }
-      sdValues[k] = Math.sqrt(ss / (m - 1));
-    }
-    counts[k] = m;
-    firstRow[k] = i;
-    i = j;
-  }
-  const g = { item, measurand };
+  const codeOf = new Int32Array(p);
+  replicateMeans(value, code, from, to, results, sdValues, counts, codeOf);
 
   const a = algorithmAUnchecked(results);
   const warnings: EvaluationWarning[] = [];
@@ -315,7 +384,7 @@ function evaluateGroup(
 
   const opt = options.sigmaPt;
   const rule: SigmaPtRule =
-    opt === undefined ? ROBUST_SD : typeof opt === 'function' ? opt(g.item, g.measurand) : opt;
+    opt === undefined ? ROBUST_SD : typeof opt === 'function' ? opt(item, measurand) : opt;
   let sigma: number | null = null;
   try {
     sigma = sigmaPtByRule(rule, { assignedValue: a.robustMean, robustSd: a.robustSd });
@@ -326,28 +395,25 @@ function evaluateGroup(
   if (uNegligible === false) warnings.push('u-not-negligible');
 
   const xpt = a.robustMean;
-  const zDen = sigma;
-  const zpDen = sigma === null ? null : Math.sqrt(sigma * sigma + uAssigned * uAssigned);
-  const participants = new Array<ParticipantEvaluation>(p);
-  for (let i = 0; i < p; i++) {
-    const x = results[i];
-    const z = zDen === null ? null : (x - xpt) / zDen;
-    const zPrime = zpDen === null ? null : (x - xpt) / zpDen;
-    const governing = uNegligible ? z : zPrime;
-    participants[i] = {
-      code: codes[code[firstRow[i]]],
-      result: x,
-      replicates: counts[i],
-      replicateSd: counts[i] > 1 ? sdValues[i] : null,
-      z,
-      zPrime,
-      signal: governing === null ? null : signalFor(governing, uNegligible ? 'z' : 'zPrime'),
-    };
+  let z: Float64Array | null = null;
+  let zPrime: Float64Array | null = null;
+  if (sigma !== null) {
+    const zpDen = Math.sqrt(sigma * sigma + uAssigned * uAssigned);
+    z = new Float64Array(p);
+    zPrime = new Float64Array(p);
+    scores(results, xpt, sigma, zpDen, z, zPrime);
   }
-
-  return {
-    item: g.item,
-    measurand: g.measurand,
+  const columns: ParticipantColumns = {
+    code: codeOf,
+    result: results,
+    replicates: counts,
+    replicateSd: sdValues,
+    z,
+    zPrime,
+  };
+  const evaluation: Omit<ItemEvaluation, 'participants'> = {
+    item,
+    measurand,
     n: p,
     method: 'algorithm-a',
     iterations: a.iterations,
@@ -359,6 +425,99 @@ function evaluateGroup(
     uNegligible,
     sigmaPtRule: rule,
     warnings,
-    participants,
+    columns,
   };
+  let built: ParticipantEvaluation[] | undefined;
+  return Object.defineProperty(evaluation as ItemEvaluation, 'participants', {
+    enumerable: true,
+    get: () => (built ??= participantObjects(columns, codes, uNegligible)),
+  });
+}
+
+/** Number of runs of equal code in code[from, to): the group's participants. */
+function countRuns(code: Int32Array, from: number, to: number): number {
+  let p = 0;
+  for (let i = from; i < to; i++) if (i === from || code[i] !== code[i - 1]) p++;
+  return p;
+}
+
+/**
+ * Per participant (a run of equal code in [from, to)): mean and SD (n − 1; NaN for one
+ * replicate) of its replicates by the two-pass formula centred on the first replicate, the
+ * replicate count and the code.
+ */
+function replicateMeans(
+  value: Float64Array,
+  code: Int32Array,
+  from: number,
+  to: number,
+  results: Float64Array,
+  sdValues: Float64Array,
+  counts: Int32Array,
+  codeOf: Int32Array,
+): void {
+  const p = results.length;
+  let i = from;
+  for (let k = 0; k < p; k++) {
+    const c = code[i];
+    let j = i + 1;
+    while (j < to && code[j] === c) j++;
+    const m = j - i;
+    const x0 = value[i];
+    let s = 0;
+    for (let q = i; q < j; q++) s += value[q] - x0;
+    const dm = s / m;
+    results[k] = x0 + dm;
+    let ss = 0;
+    for (let q = i; q < j; q++) {
+      const d = value[q] - x0 - dm;
+      ss += d * d;
+    }
+    sdValues[k] = m > 1 ? Math.sqrt(ss / (m - 1)) : NaN;
+    counts[k] = m;
+    codeOf[k] = c;
+    i = j;
+  }
+}
+
+/** z = (x − x_pt)/σ_pt and z′ = (x − x_pt)/√(σ_pt² + u²(x_pt)) per participant. */
+function scores(
+  results: Float64Array,
+  xpt: number,
+  sigma: number,
+  zpDen: number,
+  z: Float64Array,
+  zPrime: Float64Array,
+): void {
+  for (let k = 0; k < results.length; k++) {
+    const x = results[k];
+    z[k] = (x - xpt) / sigma;
+    zPrime[k] = (x - xpt) / zpDen;
+  }
+}
+
+/** One object per participant from the columns (the form reports and the API read). */
+function participantObjects(
+  c: ParticipantColumns,
+  codes: readonly string[],
+  uNegligible: boolean | null,
+): ParticipantEvaluation[] {
+  const p = c.result.length;
+  const kind = uNegligible ? 'z' : 'zPrime';
+  const out = new Array<ParticipantEvaluation>(p);
+  for (let k = 0; k < p; k++) {
+    const z = c.z === null ? null : c.z[k];
+    const zPrime = c.zPrime === null ? null : c.zPrime[k];
+    const governing = uNegligible ? z : zPrime;
+    out[k] = {
+      code: codes[c.code[k]],
+      result: c.result[k],
+      replicates: c.replicates[k],
+      replicateSd: c.replicates[k] > 1 ? c.replicateSd[k] : null,
+      z,
+      zPrime,
+      signal: governing === null ? null : signalFor(governing, kind),
+    };
+  }
+  return out;
 }

@@ -29,32 +29,36 @@ const VISITS = Number(process.env['RINGLET_BENCH_VISITS'] ?? 7);
 /** RINGLET_BENCH_WATERFALL=1 prints each request of one first visit per page (start → end, ms). */
 const WATERFALL = process.env['RINGLET_BENCH_WATERFALL'] === '1';
 
-function waterfall(page: Page): { print: (title: string, total: number) => void } {
+function waterfall(page: Page): { print: (title: string, total: number) => Promise<void> } {
   const t0 = performance.now();
-  const lines: { start: number; end: number; text: string }[] = [];
   const started = new Map<Request, number>();
+  const ended = new Map<Request, number>();
+  const sizes: Promise<unknown>[] = [];
+  const kB = new Map<Request, string>();
   page.on('request', (r) => started.set(r, performance.now() - t0));
   page.on('requestfinished', (r) => {
-    void r.sizes().then(
-      (s) => {
-        const start = started.get(r) ?? 0;
-        const url = r.url().replace(/^https?:\/\/[^/]+/, '');
-        lines.push({
-          start,
-          end: performance.now() - t0,
-          text: `${url.slice(0, 70)} (${(s.responseBodySize / 1024).toFixed(1)} kB)`,
-        });
-      },
-      () => undefined,
+    ended.set(r, performance.now() - t0);
+    sizes.push(
+      r.sizes().then(
+        (s) => kB.set(r, `${(s.responseBodySize / 1024).toFixed(1)} kB`),
+        () => undefined,
+      ),
     );
   });
+  page.on('requestfailed', (r) => ended.set(r, performance.now() - t0));
   return {
-    print: (title, total) => {
+    // Every request asked for until the page showed its data; "…" for one still running then.
+    print: async (title, total) => {
+      await Promise.all(sizes);
       process.stderr.write(`\n${title}: ${total.toFixed(0)} ms\n`);
-      for (const l of lines.sort((a, b) => a.start - b.start))
+      const rows = [...started].sort((a, b) => a[1] - b[1]);
+      for (const [r, start] of rows) {
+        const end = ended.get(r);
+        const url = r.url().replace(/^https?:\/\/[^/]+/, '');
         process.stderr.write(
-          `  ${l.start.toFixed(0).padStart(5)} → ${l.end.toFixed(0).padStart(5)}  ${l.text}\n`,
+          `  ${start.toFixed(0).padStart(5)} → ${end === undefined ? '    …' : end.toFixed(0).padStart(5)}  ${url.slice(0, 70)} (${kB.get(r) ?? r.failure()?.errorText ?? '-'})\n`,
         );
+      }
     },
   };
 }
@@ -179,7 +183,7 @@ export async function benchFirstVisit(): Promise<(Row & { target?: string; extra
             throw err;
           });
         first.push(performance.now() - s1);
-        log?.print(`first visit: ${p.name}`, first[0]!);
+        await log?.print(`first visit: ${p.name}`, first[0]!);
         const s2 = performance.now();
         await page.goto(p.path, { waitUntil: 'commit' });
         await page.locator(p.ready).first().waitFor({ state: 'visible', timeout: 30_000 });
@@ -197,4 +201,18 @@ export async function benchFirstVisit(): Promise<(Row & { target?: string; extra
     server?.kill('SIGTERM');
     await db.drop();
   }
+}
+
+// `npx tsx bench/first-visit.ts` runs this bench alone (npm run bench runs it among the others).
+if (require.main === module) {
+  benchFirstVisit().then(
+    (rows) => {
+      console.table(rows);
+      process.exit(0);
+    },
+    (err: unknown) => {
+      console.error(err);
+      process.exit(1);
+    },
+  );
 }

@@ -45,7 +45,10 @@ describe('the built web app', () => {
   });
 
   it('revalidates unhashed files and the page itself', async () => {
-    expect(cacheControlFor('/x/favicon.ico')).toBe('public, max-age=3600');
+    for (const hashed of ['/chunk-Cla-rRO_.js', '/chunk--v9guhuW.js.br', '/media/a-DUBPJEHV.woff2'])
+      expect(cacheControlFor(hashed)).toBe(IMMUTABLE);
+    for (const plain of ['/x/favicon.ico', '/favicon.svg', '/3rdpartylicenses.txt'])
+      expect(cacheControlFor(plain)).toBe('public, max-age=3600');
     const page = await request(app).get('/rounds/7').set('Accept', 'text/html');
     expect(page.status).toBe(200);
     expect(page.headers['cache-control']).toBe('no-cache');

@@ -10,8 +10,11 @@ import { join } from 'node:path';
 import express, { type Router } from 'express';
 import expressStaticGzip from 'express-static-gzip';
 
-/** `name-HASH.ext` as Angular's production build writes it, or its precompressed copy. */
-const HASHED = /-[A-Z0-9]{8}\.(js|css|woff2?|ttf|svg|png|jpg|webp)(\.br|\.gz)?$/;
+/**
+ * `name-HASH.ext` as Angular's production build writes it (`main-ABCD1234.js`; the chunk
+ * optimizer's chunks carry a base64url hash, `chunk-Cla-rRO_.js`), or its precompressed copy.
+ */
+const HASHED = /-[A-Za-z0-9_-]{8}\.(js|css|woff2?|ttf|svg|png|jpg|webp)(\.br|\.gz)?$/;
 
 export const IMMUTABLE = 'public, max-age=31536000, immutable';
 

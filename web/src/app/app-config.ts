@@ -16,6 +16,7 @@ import { AuthService } from './core/auth-service';
 import { loadContracts } from './core/contracts';
 import { AppErrorHandler } from './core/app-error-handler';
 import { HealthService } from './core/health-service';
+import { prefetchPage } from './core/page-prefetch';
 import { csrfInterceptor } from './core/csrf-interceptor';
 import { errorInterceptor } from './core/error-interceptor';
 
@@ -41,10 +42,13 @@ export const appConfig: ApplicationConfig = {
       void loadContracts();
       // On a page behind sign-in, ask who is signed in now, while the router loads the page's
       // code, rather than once its guard runs (the guard then finds the answer on its way).
-      if (opensSignedInArea(inject(DOCUMENT).location.pathname))
+      const pathname = inject(DOCUMENT).location.pathname;
+      if (opensSignedInArea(pathname))
         void inject(AuthService)
           .ensureLoaded()
           .catch(() => undefined);
+      // And load the page's code now too: the router would wait for that answer first.
+      void prefetchPage(routes, pathname);
     }),
   ],
 };

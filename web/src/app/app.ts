@@ -8,12 +8,11 @@ import {
   viewChild,
 } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
-import { MatButtonModule } from '@angular/material/button';
-import { MatIconModule } from '@angular/material/icon';
-import { MatListModule } from '@angular/material/list';
-import { MatSidenav, MatSidenavModule } from '@angular/material/sidenav';
-import { MatToolbarModule } from '@angular/material/toolbar';
-import { MatTooltipModule } from '@angular/material/tooltip';
+import { MatButton, MatIconButton } from '@angular/material/button';
+import { MatIcon } from '@angular/material/icon';
+import { MatListItem, MatListItemIcon, MatListItemTitle, MatNavList } from '@angular/material/list';
+import { MatSidenav, MatSidenavContainer, MatSidenavContent } from '@angular/material/sidenav';
+import { MatToolbar } from '@angular/material/toolbar';
 import { Router, RouterLink, RouterLinkActive, RouterOutlet } from '@angular/router';
 import { map } from 'rxjs';
 import { AuthService } from './core/auth-service';
@@ -21,7 +20,11 @@ import { HealthService } from './core/health-service';
 import { LabChooser } from './core/lab-chooser';
 import { navEntries } from './core/nav';
 
-/** The shell: toolbar, role-dependent navigation, and the routed page. */
+/**
+ * The shell: toolbar, role-dependent navigation, and the routed page. It imports the Material
+ * components it uses one by one, not their NgModules: MatListModule alone brought the selection
+ * list and @angular/forms into the script every first visit loads (docs/TOOLCHAIN.md).
+ */
 @Component({
   selector: 'app-root',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -29,12 +32,17 @@ import { navEntries } from './core/nav';
     RouterOutlet,
     RouterLink,
     RouterLinkActive,
-    MatToolbarModule,
-    MatSidenavModule,
-    MatListModule,
-    MatButtonModule,
-    MatIconModule,
-    MatTooltipModule,
+    MatToolbar,
+    MatSidenav,
+    MatSidenavContainer,
+    MatSidenavContent,
+    MatNavList,
+    MatListItem,
+    MatListItemIcon,
+    MatListItemTitle,
+    MatButton,
+    MatIconButton,
+    MatIcon,
     LabChooser,
   ],
   templateUrl: './app.html',

@@ -1,6 +1,6 @@
-import { type ErrorHandler, Injectable, inject } from '@angular/core';
+import { type ErrorHandler, Injectable, Injector, inject } from '@angular/core';
 import { HttpErrorResponse } from '@angular/common/http';
-import { MatSnackBar } from '@angular/material/snack-bar';
+import { openSnackBar } from './snack-bar';
 
 /**
  * The app's one ErrorHandler: logs unexpected errors and tells the user calmly. HTTP errors are
@@ -8,12 +8,12 @@ import { MatSnackBar } from '@angular/material/snack-bar';
  */
 @Injectable()
 export class AppErrorHandler implements ErrorHandler {
-  private readonly snackBar = inject(MatSnackBar);
+  private readonly injector = inject(Injector);
 
   handleError(error: unknown): void {
     console.error(error);
     if (error instanceof HttpErrorResponse) return;
-    this.snackBar.open('Something went wrong on this page. Reload it if it misbehaves.', 'Close', {
+    openSnackBar(this.injector, 'Something went wrong on this page. Reload it if it misbehaves.', {
       duration: 8000,
     });
   }

@@ -1,9 +1,9 @@
 import { HttpErrorResponse, type HttpInterceptorFn } from '@angular/common/http';
-import { inject } from '@angular/core';
-import { MatSnackBar } from '@angular/material/snack-bar';
+import { Injector, inject } from '@angular/core';
 import { Router } from '@angular/router';
 import { catchError, throwError } from 'rxjs';
 import { HANDLED_STATUSES } from './api';
+import { openSnackBar } from './snack-bar';
 
 /**
  * One place for API errors: 401 sends the user to the sign-in page (keeping where they were),
@@ -12,7 +12,7 @@ import { HANDLED_STATUSES } from './api';
  */
 export const errorInterceptor: HttpInterceptorFn = (req, next) => {
   const router = inject(Router);
-  const snackBar = inject(MatSnackBar);
+  const injector = inject(Injector);
   return next(req).pipe(
     catchError((error: unknown) => {
       if (
@@ -25,7 +25,7 @@ export const errorInterceptor: HttpInterceptorFn = (req, next) => {
           void router.navigate(['/sign-in'], { queryParams: returnUrl ? { returnUrl } : {} });
         } else {
           void import('./problem').then(({ problemMessage }) =>
-            snackBar.open(problemMessage(error), 'Close', {
+            openSnackBar(injector, problemMessage(error), {
               duration: 8000,
               politeness: 'assertive',
             }),

@@ -93,19 +93,19 @@ export async function labFileTarget(
     : labIds(user).length
       ? labIds(user)
       : readable;
-  const lab = await labInRound(em, roundId, candidates);
+  const lab = await enrolledLab(em, roundId, candidates);
   if (!lab) throw notFound('The round');
   const head = await evaluationHead(em, roundId, true);
   if (!head) throw notFound('Published reports of this round');
   return { head, lab };
 }
 
-/** The first (by lab name) of these labs enrolled in the round, or null. */
-async function labInRound(
+/** The first (by lab name) of these labs enrolled in the round, with its enrolment, or null. */
+export async function enrolledLab(
   em: EntityManager,
   roundId: string,
   organisationIds: string[],
-): Promise<LabInRound | null> {
+): Promise<(LabInRound & { enrolmentId: string }) | null> {
   if (organisationIds.length === 0) return null;
   const e = (await em
     .createQueryBuilder(Enrolment, 'e')
@@ -115,7 +115,12 @@ async function labInRound(
     .orderBy('o.name')
     .getOne()) as (Enrolment & { lab: Organisation }) | null;
   return e
-    ? { organisationId: e.organisationId, participantCode: e.participantCode, labName: e.lab.name }
+    ? {
+        enrolmentId: e.id,
+        organisationId: e.organisationId,
+        participantCode: e.participantCode,
+        labName: e.lab.name,
+      }
     : null;
 }
 
@@ -359,7 +364,7 @@ export async function runQueuedBuild(
     return;
   const head = await evaluationHeadById(ctx.ds.manager, row.evaluationId);
   const lab = row.organisationId
-    ? await labInRound(ctx.ds.manager, row.roundId, [row.organisationId])
+    ? await enrolledLab(ctx.ds.manager, row.roundId, [row.organisationId])
     : null;
   await repo.update({ id: row.id }, { status: 'running', progress: 5 });
   if (!head) {

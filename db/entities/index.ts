@@ -34,6 +34,7 @@ import { Invoice } from './invoice';
 import { CreditNote } from './credit-note';
 import { PaymentEvent } from './payment-event';
 import { RoundBilling } from './round-billing';
+import { LabInvitation, type LabInvitationAnswer } from './lab-invitation';
 
 export {
   Organisation,
@@ -65,7 +66,8 @@ export {
 };
 export { PrecisionExclusion, PrecisionReference };
 export { BillingDetails, BillingCounter, Invoice, CreditNote, PaymentEvent, RoundBilling };
-export type { ReportKind };
+export { LabInvitation };
+export type { ReportKind, LabInvitationAnswer };
 
 /** Every entity, registered with the DataSource. Append new ones at the end. */
 export const entities = [
@@ -103,4 +105,5 @@ export const entities = [
   CreditNote,
   PaymentEvent,
   RoundBilling,
+  LabInvitation,
 ];

@@ -13,17 +13,19 @@ import { issuePasswordToken, sendLinkMail } from './passwords';
 
 /** Lab (organisation) ids whose active grant lets this assessor read them today. */
 export async function grantedLabIds(em: EntityManager, assessorId: string): Promise<string[]> {
-  const rows: { organisation_id: string }[] = await em.query(
-    `SELECT DISTINCT organisation_id FROM assessor_grant
-      WHERE assessor_id = $1 AND revoked_at IS NULL AND starts_on <= CURRENT_DATE AND (ends_on IS NULL OR ends_on >= CURRENT_DATE)`,
-    [assessorId],
-  );
-  return rows.map((r) => r.organisation_id);
+  const grants = await em
+    .createQueryBuilder(AssessorGrant, 'g')
+    .select(['g.id', 'g.organisationId'])
+    .where('g.assessorId = :assessorId', { assessorId })
+    .andWhere('g.revokedAt IS NULL AND g.startsOn <= CURRENT_DATE')
+    .andWhere('(g.endsOn IS NULL OR g.endsOn >= CURRENT_DATE)')
+    .getMany();
+  return [...new Set(grants.map((g) => g.organisationId))];
 }
 
 const today = () => new Date().toISOString().slice(0, 10);
 
-function dto(g: AssessorGrant, u: User): AssessorGrantDto {
+function dto(g: AssessorGrant, u: Pick<User, 'email' | 'name'>): AssessorGrantDto {
   const t = today();
   return {
     id: g.id,
@@ -142,7 +144,7 @@ export async function createGrant(
     ctx.log('grant mail failed', err);
   }
   // Built from the input, not from the account, so a known and an unknown address answer alike.
-  return dto(out.g, { email: input.email, name: typedName } as User);
+  return dto(out.g, { email: input.email, name: typedName });
 }
 
 export async function revokeGrant(

@@ -1,6 +1,6 @@
 import bcrypt from 'bcryptjs';
 import { createHash, randomBytes } from 'node:crypto';
-import type { EntityManager } from 'typeorm';
+import { IsNull, Raw, type EntityManager } from 'typeorm';
 import type { PasswordTokenInfo } from '../../../shared/contracts/auth';
 import { PasswordToken, User } from '../../../db/entities';
 import type { AppContext } from './context';
@@ -93,13 +93,18 @@ export async function endOtherSessions(
   userId: string,
   keepSid: string | undefined,
 ): Promise<number> {
-  const res: unknown = await em.query(
-    `DELETE FROM session WHERE sess -> 'passport' ->> 'user' = $1 AND sid <> $2`,
-    [userId, keepSid ?? ''],
-  );
+  // `session` is the session store's table (connect-pg-simple), not an entity.
+  const res = await em
+    .createQueryBuilder()
+    .delete()
+    .from('session')
+    .where(`sess -> 'passport' ->> 'user' = :userId AND sid <> :keepSid`, {
+      userId,
+      keepSid: keepSid ?? '',
+    })
+    .execute();
   forgetSessionUser(userId);
-  // TypeORM answers [rows, count] for a DELETE on postgres
-  return Array.isArray(res) && typeof res[1] === 'number' ? res[1] : 0;
+  return res.affected ?? 0;
 }
 
 /**
@@ -145,23 +150,24 @@ export async function setPasswordWithToken(
   const hash = await hashPassword(password);
   let userId: string | null = null;
   await ctx.ds.transaction(async (em) => {
-    const rows: { user_id: string; purpose: string }[] = await em.query(
-      `UPDATE password_token SET used_at = now()
-       WHERE token_hash = $1 AND used_at IS NULL AND expires_at > now()
-       RETURNING user_id, purpose`,
-      [sha256(token)],
-    );
-    // TypeORM returns [rows, count] for UPDATE … RETURNING on postgres
-    const list = Array.isArray(rows[0]) ? (rows[0] as unknown as typeof rows) : rows;
-    const hit = list[0];
+    // Locked, then marked used: a concurrent use of the same link waits and then finds it used.
+    const hit = await em.findOne(PasswordToken, {
+      where: {
+        tokenHash: sha256(token),
+        usedAt: IsNull(),
+        expiresAt: Raw((at) => `${at} > now()`),
+      },
+      lock: { mode: 'pessimistic_write' },
+    });
     if (!hit) throw invalidLink();
-    await em.update(User, { id: hit.user_id }, { passwordHash: hash });
-    const ended = await endOtherSessions(em, hit.user_id, keepSid);
-    await audit(em, hit.user_id, 'password.set', 'user', hit.user_id, {
+    await em.update(PasswordToken, { id: hit.id }, { usedAt: () => 'now()' });
+    await em.update(User, { id: hit.userId }, { passwordHash: hash });
+    const ended = await endOtherSessions(em, hit.userId, keepSid);
+    await audit(em, hit.userId, 'password.set', 'user', hit.userId, {
       purpose: hit.purpose,
       otherSessionsEnded: ended,
     });
-    userId = hit.user_id;
+    userId = hit.userId;
   });
   if (userId) forgetSessionUser(userId);
 }

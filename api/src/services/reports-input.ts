@@ -6,6 +6,7 @@ import type { EntityManager } from 'typeorm';
 import type { ParticipantReportInput, ReportStudy, RoundReportInput } from '../../../reports/model';
 import type { TrackSeries } from '../../../shared/contracts/evaluation';
 import { rescaledSumZ, runRules } from '../../../shared/evaluation/run-rules';
+import { Enrolment, Evaluation, Measurand, TestItem } from '../../../db/entities';
 import { notFound } from '../http/errors';
 import { loadResults } from './evaluation';
 import { reportProvider } from './provider';
@@ -24,18 +25,41 @@ export interface EvaluationHead {
   coordinator_comments: string;
 }
 
+/** The evaluation's head in the shape reports read (snake_case, as the builders were written for). */
+function headOf(e: Evaluation): EvaluationHead {
+  return {
+    id: e.id,
+    round_id: e.roundId,
+    version: e.version,
+    state: e.state,
+    published_at: e.publishedAt,
+    computed_at: e.computedAt,
+    reissue_reason: e.reissueReason,
+    software_version: e.softwareVersion,
+    coordinator_comments: e.coordinatorComments,
+  };
+}
+
 /** The newest evaluation of a round (published only, or any state), or null. */
 export async function evaluationHead(
   em: EntityManager,
   roundId: string,
   publishedOnly: boolean,
 ): Promise<EvaluationHead | null> {
-  const rows: EvaluationHead[] = await em.query(
-    `SELECT id, round_id, version, state, published_at, computed_at, reissue_reason, software_version, coordinator_comments FROM evaluation
-      WHERE round_id = $1 ${publishedOnly ? `AND state = 'published'` : ''} ORDER BY version DESC LIMIT 1`,
-    [roundId],
-  );
-  return rows[0] ?? null;
+  const e = await em.findOne(Evaluation, {
+    where: publishedOnly ? { roundId, state: 'published' } : { roundId },
+    order: { version: 'DESC' },
+  });
+  return e ? headOf(e) : null;
+}
+
+/** One evaluation's head by id, or null. */
+export async function evaluationHeadById(
+  em: EntityManager,
+  id: string,
+): Promise<EvaluationHead | null> {
+  const e = await em.findOne(Evaluation, { where: { id } });
+  return e ? headOf(e) : null;
 }
 
 export async function roundReportInput(
@@ -65,28 +89,11 @@ export async function roundReportInput(
   );
   const r = rounds[0];
   if (!r) throw notFound('The round');
-  const items: {
-    id: string;
-    code: string;
-    material: string;
-    nominal_size_nm: number | null;
-    storage_notes: string;
-    handling_notes: string;
-  }[] = await em.query(
-    'SELECT id, code, material, nominal_size_nm, storage_notes, handling_notes FROM test_item WHERE round_id = $1 ORDER BY position, code',
-    [r.id],
-  );
-  const measurands: {
-    id: string;
-    key: string;
-    name: string;
-    unit: string;
-    decimals: number;
-    replicates_required: number;
-  }[] = await em.query(
-    'SELECT id, key, name, unit, decimals, replicates_required FROM measurand WHERE round_id = $1 ORDER BY position, key',
-    [r.id],
-  );
+  const [items, measurands, enrolled] = await Promise.all([
+    em.find(TestItem, { where: { roundId: r.id }, order: { position: 'ASC', code: 'ASC' } }),
+    em.find(Measurand, { where: { roundId: r.id }, order: { position: 'ASC', key: 'ASC' } }),
+    em.find(Enrolment, { where: { roundId: r.id }, order: { participantCode: 'ASC' } }),
+  ]);
   // Read straight from the Round desk's table (its service has no plain reader for reports).
   const studies: {
     item_code: string;
@@ -113,10 +120,6 @@ export async function roundReportInput(
     return { ...g, replicates };
   });
   const reported = new Set(groups.flatMap((g) => g.participants.map((p) => p.code)));
-  const enrolled: { participant_code: string; state: string }[] = await em.query(
-    'SELECT participant_code, state FROM enrolment WHERE round_id = $1 ORDER BY participant_code',
-    [r.id],
-  );
   return {
     round: {
       id: r.id,
@@ -137,9 +140,9 @@ export async function roundReportInput(
       id: i.id,
       code: i.code,
       material: i.material,
-      nominalSizeNm: i.nominal_size_nm,
-      storageNotes: i.storage_notes,
-      handlingNotes: i.handling_notes,
+      nominalSizeNm: i.nominalSizeNm,
+      storageNotes: i.storageNotes,
+      handlingNotes: i.handlingNotes,
     })),
     measurands: measurands.map((m) => ({
       id: m.id,
@@ -147,7 +150,7 @@ export async function roundReportInput(
       name: m.name,
       unit: m.unit,
       decimals: m.decimals,
-      replicatesRequired: m.replicates_required,
+      replicatesRequired: m.replicatesRequired,
     })),
     studies: studies.map((s): ReportStudy => ({
       itemCode: s.item_code,
@@ -172,8 +175,8 @@ export async function roundReportInput(
     groups,
     provider: await reportProvider(em),
     nonReporters: enrolled
-      .filter((e) => !reported.has(e.participant_code))
-      .map((e) => ({ code: e.participant_code, withdrawn: e.state === 'withdrawn' })),
+      .filter((e) => !reported.has(e.participantCode))
+      .map((e) => ({ code: e.participantCode, withdrawn: e.state === 'withdrawn' })),
     generatedAt: new Date().toISOString(),
   };
 }

@@ -10,8 +10,8 @@
  * again when done. Without a queue (tests and benches that start the app alone) the build runs
  * in this process. A 'running' row older than STALE_MINUTES (an instance that died) is rebuilt.
  */
-import type { EntityManager } from 'typeorm';
-import { Report, type ReportKind } from '../../../db/entities';
+import { In, type EntityManager } from 'typeorm';
+import { Enrolment, Organisation, Report, Round, type ReportKind } from '../../../db/entities';
 import { sha256 } from '../../../reports/model';
 import type { ReportStatus } from '../../../shared/contracts/reports';
 import { hasAnyRole, labIds, type SessionUser } from '../auth/session-user';
@@ -20,6 +20,7 @@ import type { AppContext } from './context';
 import { grantedLabIds } from './grants';
 import {
   evaluationHead,
+  evaluationHeadById,
   participantReportInput,
   roundReportInput,
   type EvaluationHead,
@@ -69,13 +70,10 @@ export async function roundFileHead(
     return head;
   }
   const labs = await readableLabIds(em, user);
-  const rows: unknown[] = labs.length
-    ? await em.query(
-        `SELECT 1 FROM enrolment WHERE round_id = $1 AND organisation_id = ANY($2) LIMIT 1`,
-        [roundId, labs],
-      )
-    : [];
-  if (rows.length === 0) throw notFound('The round');
+  const enrolled =
+    labs.length > 0 &&
+    (await em.exists(Enrolment, { where: { roundId, organisationId: In(labs) } }));
+  if (!enrolled) throw notFound('The round');
   const head = await evaluationHead(em, roundId, true);
   if (!head) throw notFound('Published reports of this round');
   return head;
@@ -95,26 +93,35 @@ export async function labFileTarget(
     : labIds(user).length
       ? labIds(user)
       : readable;
-  const rows: { organisation_id: string; participant_code: string; name: string }[] =
-    candidates.length
-      ? await em.query(
-          `SELECT e.organisation_id, e.participant_code, o.name FROM enrolment e JOIN organisation o ON o.id = e.organisation_id
-          WHERE e.round_id = $1 AND e.organisation_id = ANY($2) ORDER BY o.name LIMIT 1`,
-          [roundId, candidates],
-        )
-      : [];
-  const row = rows[0];
-  if (!row) throw notFound('The round');
+  const lab = await enrolledLab(em, roundId, candidates);
+  if (!lab) throw notFound('The round');
   const head = await evaluationHead(em, roundId, true);
   if (!head) throw notFound('Published reports of this round');
-  return {
-    head,
-    lab: {
-      organisationId: row.organisation_id,
-      participantCode: row.participant_code,
-      labName: row.name,
-    },
-  };
+  return { head, lab };
+}
+
+/** The first (by lab name) of these labs enrolled in the round, with its enrolment, or null. */
+export async function enrolledLab(
+  em: EntityManager,
+  roundId: string,
+  organisationIds: string[],
+): Promise<(LabInRound & { enrolmentId: string }) | null> {
+  if (organisationIds.length === 0) return null;
+  const e = (await em
+    .createQueryBuilder(Enrolment, 'e')
+    .innerJoinAndMapOne('e.lab', Organisation, 'o', 'o.id = e.organisationId')
+    .where('e.roundId = :roundId', { roundId })
+    .andWhere('e.organisationId IN (:...organisationIds)', { organisationIds })
+    .orderBy('o.name')
+    .getOne()) as (Enrolment & { lab: Organisation }) | null;
+  return e
+    ? {
+        enrolmentId: e.id,
+        organisationId: e.organisationId,
+        participantCode: e.participantCode,
+        labName: e.lab.name,
+      }
+    : null;
 }
 
 export interface BuiltFile {
@@ -160,8 +167,8 @@ async function findRow(em: EntityManager, k: CacheKey): Promise<Report | null> {
 }
 
 async function readFile(em: EntityManager, id: string): Promise<Buffer> {
-  const rows: { file: Buffer }[] = await em.query('SELECT file FROM report WHERE id = $1', [id]);
-  return rows[0]!.file;
+  const row = await em.findOneOrFail(Report, { where: { id }, select: { id: true, file: true } });
+  return row.file!;
 }
 
 /** Builds one file from the stored evaluation (the work of a background job too). */
@@ -241,16 +248,21 @@ async function runBuild(
       await repo.update({ id: row.id }, { status: 'queued', progress: 0 });
       throw err;
     }
-    await repo.update(
-      { id: row.id },
-      {
-        status: 'failed',
-        error: 'The file could not be built. Try again; if it fails again, tell the coordinator.',
-        finishedAt: new Date(),
-      },
-    );
+    await markFailed(ctx, row.id);
     throw err;
   }
+}
+
+/** A build that will not be retried: the row says so to its reader. */
+async function markFailed(ctx: AppContext, id: string): Promise<void> {
+  await ctx.ds.getRepository(Report).update(
+    { id },
+    {
+      status: 'failed',
+      error: 'The file could not be built. Try again; if it fails again, tell the coordinator.',
+      finishedAt: new Date(),
+    },
+  );
 }
 
 /**
@@ -266,11 +278,9 @@ export async function reportFile(
   wait = false,
 ): Promise<BuiltFile | { pending: ReportStatus }> {
   const em = ctx.ds.manager;
-  const codes: { code: string }[] = await em.query('SELECT code FROM round WHERE id = $1', [
-    k.roundId,
-  ]);
+  const round = await em.findOne(Round, { where: { id: k.roundId }, select: { code: true } });
   const meta = {
-    fileName: fileName(k, codes[0]?.code ?? 'round', lab),
+    fileName: fileName(k, round?.code ?? 'round', lab),
     contentType: CONTENT_TYPES[k.kind],
   };
   for (let attempt = 0; attempt < 600; attempt++) {
@@ -352,33 +362,24 @@ export async function runQueuedBuild(
   const row = await repo.findOne({ where: { id: reportId } });
   if (!row || row.status === 'done' || row.status === 'failed' || !row.roundId || !row.evaluationId)
     return;
-  const heads: EvaluationHead[] = await ctx.ds.query(
-    `SELECT id, round_id, version, state, published_at, computed_at, reissue_reason, software_version FROM evaluation WHERE id = $1`,
-    [row.evaluationId],
-  );
-  let lab: LabInRound | null = null;
-  if (row.organisationId) {
-    const labs: { participant_code: string; name: string }[] = await ctx.ds.query(
-      `SELECT e.participant_code, o.name FROM enrolment e JOIN organisation o ON o.id = e.organisation_id
-        WHERE e.round_id = $1 AND e.organisation_id = $2`,
-      [row.roundId, row.organisationId],
-    );
-    if (labs[0])
-      lab = {
-        organisationId: row.organisationId,
-        participantCode: labs[0].participant_code,
-        labName: labs[0].name,
-      };
-  }
+  const head = await evaluationHeadById(ctx.ds.manager, row.evaluationId);
+  const lab = row.organisationId
+    ? await enrolledLab(ctx.ds.manager, row.roundId, [row.organisationId])
+    : null;
   await repo.update({ id: row.id }, { status: 'running', progress: 5 });
-  const head = heads[0];
+  if (!head) {
+    // The evaluation is gone: the build fails for good (no retry can find it).
+    ctx.log(`report build ${row.kind} for round ${row.roundId} failed`, 'its evaluation is gone');
+    await markFailed(ctx, row.id);
+    throw new Error(`evaluation ${row.evaluationId} of report ${row.id} is gone`);
+  }
   const k: CacheKey = {
     roundId: row.roundId,
     kind: row.kind,
     organisationId: row.organisationId,
-    head: head ?? ({ id: row.evaluationId } as EvaluationHead),
+    head,
   };
-  await runBuild(ctx, row, k, lab, lastAttempt || !head);
+  await runBuild(ctx, row, k, lab, lastAttempt);
 }
 
 /** GET /reports/{reportId}: a build's status, for its requester, coordinators, or readers of its lab and round. */

@@ -8,6 +8,10 @@ import {
   AssignedValueRuleInput as AssignedValueRuleSchema,
   SigmaPtRuleInput as SigmaPtRuleSchema,
 } from '../../../shared/contracts/rules';
+import {
+  ParticipantScore as ParticipantScoreSchema,
+  type ParticipantScore,
+} from '../../../shared/contracts/evaluation';
 
 type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;
 type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleSchema>;
@@ -74,4 +78,26 @@ export function measurandRules(m: {
     sigmaPtRule: storedSigmaPtRule(m.sigmaPtRule, `Measurand ${m.key}`),
     assignedValueRule: storedAssignedValueRule(m.assignedValueRule, `Measurand ${m.key}`),
   };
+}
+
+/** One lab's entry of an evaluation result's stored `participants`; `what` names it in the 422. */
+export function storedParticipantScore(raw: unknown, what: string): ParticipantScore {
+  const r = ParticipantScoreSchema.safeParse(raw);
+  if (r.success) return r.data;
+  throw ruleBroken(
+    'stored_result_unreadable',
+    `${what}: the stored score cannot be read; ask the coordinator to evaluate the round again.`,
+  );
+}
+
+/** The display constants an evaluation result stores (`constants` jsonb); missing ones stay absent. */
+const StoredConstants = z.object({
+  measurandName: z.string().optional().catch(undefined),
+  unit: z.string().optional().catch(undefined),
+  decimals: z.number().int().optional().catch(undefined),
+});
+
+export function storedConstants(raw: unknown): z.infer<typeof StoredConstants> {
+  const r = StoredConstants.safeParse(raw);
+  return r.success ? r.data : {};
 }

@@ -1,5 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import { Measurand, Submission, TestItem } from '../../../db/entities';
+import { Measurand, Round, Submission, SubmissionVersion, TestItem } from '../../../db/entities';
 import type {
   DraftSave,
   DraftSaved,
@@ -50,41 +50,43 @@ export async function roundRules(
   };
 }
 
-/** TypeORM answers an UPDATE … RETURNING on PostgreSQL with [rows, affected]. */
-function returned<T>(result: unknown): T[] {
-  const r = result as unknown[];
-  return (Array.isArray(r[0]) ? r[0] : r) as T[];
+/** A submission's versions with the submitter's name; callers add the where and order. */
+function versionQuery(em: EntityManager, submissionId: string) {
+  return em
+    .createQueryBuilder(SubmissionVersion, 'v')
+    .leftJoin('v.submitter', 'u')
+    .addSelect(['u.id', 'u.name'])
+    .where('v.submissionId = :submissionId', { submissionId });
 }
 
-interface VersionRow {
-  version: number;
-  data: unknown;
-  submitted_at: Date;
-  submitted_by_name: string | null;
-  note: string | null;
-  is_late: boolean;
-}
-
-const VERSION_SELECT = `SELECT v.version, v.data, v.submitted_at, u.name AS submitted_by_name, v.note, v.is_late
-  FROM submission_version v LEFT JOIN app_user u ON u.id = v.submitted_by`;
-
-function versionDto(r: VersionRow): SubmissionVersionDto {
+function versionDto(v: SubmissionVersion): SubmissionVersionDto {
   return {
-    version: r.version,
-    data: readStoredSubmission(r.data),
-    submittedAt: r.submitted_at.toISOString(),
-    submittedBy: r.submitted_by_name,
-    note: r.note,
-    isLate: r.is_late,
+    version: v.version,
+    data: readStoredSubmission(v.data),
+    submittedAt: v.submittedAt.toISOString(),
+    submittedBy: v.submitter?.name ?? null,
+    note: v.note,
+    isLate: v.isLate,
   };
+}
+
+/** The draft's revision and save time as stored (after an update that set them in SQL). */
+async function savedRevision(em: EntityManager, id: string): Promise<Submission> {
+  return em.findOneOrFail(Submission, {
+    where: { id },
+    select: { id: true, draftRevision: true, updatedAt: true },
+  });
 }
 
 /** Creates the submission row if missing and locks it for this transaction (serialises saves and submits). */
 async function lockSubmission(em: EntityManager, enrolmentId: string): Promise<Submission> {
-  await em.query(
-    `INSERT INTO submission (enrolment_id) VALUES ($1) ON CONFLICT (enrolment_id) DO NOTHING`,
-    [enrolmentId],
-  );
+  await em
+    .createQueryBuilder()
+    .insert()
+    .into(Submission)
+    .values({ enrolmentId })
+    .orIgnore()
+    .execute();
   const sub = await em
     .getRepository(Submission)
     .createQueryBuilder('s')
@@ -104,11 +106,7 @@ export async function getSubmission(
   const { round, enrolment } = await findEnrolment(em, labId, roundId);
   const sub = await em.findOne(Submission, { where: { enrolmentId: enrolment.id } });
   const lock = lockState(round, enrolment);
-  const versions: VersionRow[] = sub
-    ? await em.query(`${VERSION_SELECT} WHERE v.submission_id = $1 ORDER BY v.version DESC`, [
-        sub.id,
-      ])
-    : [];
+  const versions = sub ? await versionQuery(em, sub.id).orderBy('v.version', 'DESC').getMany() : [];
   return {
     state: sub ? sub.state : 'none',
     draft: readStoredSubmission(sub?.draft),
@@ -191,17 +189,17 @@ export async function saveDraft(
       );
     }
     const revision = sub.draftRevision + 1;
-    const rows = returned<{ updated_at: Date }>(
-      await em.query(
-        `UPDATE submission SET draft = $2, draft_revision = $3, updated_at = now() WHERE id = $1 RETURNING updated_at`,
-        [sub.id, JSON.stringify(input.data), revision],
-      ),
+    await em.update(
+      Submission,
+      { id: sub.id },
+      { draft: input.data, draftRevision: revision, updatedAt: () => 'now()' },
     );
+    const saved = await savedRevision(em, sub.id);
     await audit(em, actor.id, 'submission.draft-saved', 'submission', sub.id, {
       roundId,
       revision,
     });
-    return { draftRevision: revision, savedAt: rows[0]!.updated_at.toISOString() };
+    return { draftRevision: revision, savedAt: saved.updatedAt.toISOString() };
   });
 }
 
@@ -213,17 +211,17 @@ export async function replaceDraft(
   data: SubmissionData,
   source: string,
 ): Promise<number> {
-  const rows = returned<{ draft_revision: number }>(
-    await em.query(
-      `UPDATE submission SET draft = $2, draft_revision = draft_revision + 1, updated_at = now() WHERE id = $1 RETURNING draft_revision`,
-      [submissionId, JSON.stringify(data)],
-    ),
+  await em.update(
+    Submission,
+    { id: submissionId },
+    { draft: data, draftRevision: () => 'draft_revision + 1', updatedAt: () => 'now()' },
   );
+  const { draftRevision } = await savedRevision(em, submissionId);
   await audit(em, actor.id, 'submission.draft-replaced', 'submission', submissionId, {
     source,
-    revision: rows[0]!.draft_revision,
+    revision: draftRevision,
   });
-  return rows[0]!.draft_revision;
+  return draftRevision;
 }
 
 export { lockSubmission };
@@ -244,17 +242,17 @@ export async function submit(
   return ctx.ds.transaction(async (em) => {
     const { enrolment } = await findEnrolment(em, labId, roundId);
     const sub = await lockSubmission(em, enrolment.id);
-    const earlier: VersionRow[] = await em.query(
-      `${VERSION_SELECT} WHERE v.submission_id = $1 AND v.idempotency_key = $2`,
-      [sub.id, input.idempotencyKey],
-    );
-    if (earlier[0]) return { version: versionDto(earlier[0]), replayed: true };
+    const earlier = await versionQuery(em, sub.id)
+      .andWhere('v.idempotencyKey = :key', { key: input.idempotencyKey })
+      .getOne();
+    if (earlier) return { version: versionDto(earlier), replayed: true };
 
     // Re-read the round under a share lock: a state change waits for this submit, or this sees it.
-    const [roundRow]: { id: string }[] = await em.query(
-      `SELECT id FROM round WHERE id = $1 FOR SHARE`,
-      [roundId],
-    );
+    const roundRow = await em.findOne(Round, {
+      where: { id: roundId },
+      select: { id: true },
+      lock: { mode: 'pessimistic_read' },
+    });
     if (!roundRow) throw conflict('submission_locked', 'The round is gone.');
     const { round, enrolment: fresh } = await findEnrolment(em, labId, roundId);
     const lock = lockState(round, fresh);
@@ -300,25 +298,26 @@ export async function submit(
     }
 
     const version = sub.currentVersion + 1;
-    await em.query(
-      `INSERT INTO submission_version (submission_id, version, data, submitted_by, note, idempotency_key, is_late, instrument_check_id)
-       VALUES ($1, $2, $3, $4, $5, $6, $7, $8)`,
-      [
-        sub.id,
-        version,
-        JSON.stringify(data),
-        actor.id,
-        input.note ?? null,
-        input.idempotencyKey,
-        lock.isLate,
-        check?.id ?? null,
-      ],
-    );
-    await em.query(
-      `UPDATE submission SET state = 'submitted', current_version = $2, submitted_at = now(), updated_at = now()
-         ${input.data ? ', draft = $3, draft_revision = draft_revision + 1' : ''}
-       WHERE id = $1`,
-      [sub.id, version, ...(input.data ? [JSON.stringify(input.data)] : [])],
+    await em.insert(SubmissionVersion, {
+      submissionId: sub.id,
+      version,
+      data,
+      submittedBy: actor.id,
+      note: input.note ?? null,
+      idempotencyKey: input.idempotencyKey,
+      isLate: lock.isLate,
+      instrumentCheckId: check?.id ?? null,
+    });
+    await em.update(
+      Submission,
+      { id: sub.id },
+      {
+        state: 'submitted',
+        currentVersion: version,
+        submittedAt: () => 'now()',
+        updatedAt: () => 'now()',
+        ...(input.data ? { draft: input.data, draftRevision: () => 'draft_revision + 1' } : {}),
+      },
     );
     await audit(
       em,
@@ -336,10 +335,9 @@ export async function submit(
         acknowledgedWarnings: outcome.warnings.map((w) => w.code),
       },
     );
-    const [row] = (await em.query(
-      `${VERSION_SELECT} WHERE v.submission_id = $1 AND v.version = $2`,
-      [sub.id, version],
-    )) as VersionRow[];
-    return { version: versionDto(row!), replayed: false };
+    const row = await versionQuery(em, sub.id)
+      .andWhere('v.version = :version', { version })
+      .getOneOrFail();
+    return { version: versionDto(row), replayed: false };
   });
 }

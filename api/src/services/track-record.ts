@@ -2,10 +2,17 @@
  * A lab's Track record: its z-scores (the score its signal followed: z or z′) across published
  * rounds, per measurand, with run rules and the rescaled sum of z-scores (shared/evaluation).
  */
-import type { TrackRecord, TrackSeries } from '../../../shared/contracts/evaluation';
+import {
+  ScoreKind,
+  Signal,
+  type TrackRecord,
+  type TrackSeries,
+} from '../../../shared/contracts/evaluation';
 import { runRules, rescaledSumZ } from '../../../shared/evaluation/run-rules';
 import { labIds, type SessionUser } from '../auth/session-user';
-import { notFound } from '../http/errors';
+import * as z from 'zod';
+import { Organisation } from '../../../db/entities';
+import { notFound, ruleBroken } from '../http/errors';
 import type { EntityManager } from 'typeorm';
 import type { AppContext } from './context';
 
@@ -17,15 +24,42 @@ export async function trackRecord(
   const labs = labIds(user);
   const lab = labId ?? labs[0];
   if (!lab || !labs.includes(lab)) throw notFound('The lab');
-  const org: { name: string }[] = await ctx.ds.query(
-    'SELECT name FROM organisation WHERE id = $1',
-    [lab],
-  );
+  const org = await ctx.ds.manager.findOne(Organisation, {
+    where: { id: lab },
+    select: { id: true, name: true },
+  });
   return {
     labId: lab,
-    labName: org[0]?.name ?? '',
+    labName: org?.name ?? '',
     series: await labTrackRecord(ctx.ds.manager, lab),
   };
+}
+
+/**
+ * One row of a lab's published scores: the round, the item and measurand of an evaluation result,
+ * and the lab's entry of its stored `participants` (jsonb, the ParticipantScore contract).
+ */
+const TrackRow = z.object({
+  round_id: z.string(),
+  round_code: z.string(),
+  published_at: z.date().nullable(),
+  item_code: z.string(),
+  measurand_key: z.string(),
+  measurand_name: z.string(),
+  z: z.number().nullable(),
+  zp: z.number().nullable(),
+  kind: ScoreKind.nullable(),
+  signal: Signal.nullable(),
+});
+
+function trackRow(raw: unknown): z.infer<typeof TrackRow> {
+  const r = TrackRow.safeParse(raw);
+  if (r.success) return r.data;
+  const round = z.object({ round_code: z.string() }).safeParse(raw);
+  throw ruleBroken(
+    'stored_result_unreadable',
+    `Round ${round.success ? round.data.round_code : '(unknown)'}: a stored score cannot be read; ask the coordinator to evaluate the round again.`,
+  );
 }
 
 /**
@@ -33,18 +67,7 @@ export async function trackRecord(
  * granted access): z or z′ per published round, per measurand, with run rules and RSZ.
  */
 export async function labTrackRecord(em: EntityManager, labId: string): Promise<TrackSeries[]> {
-  const rows: {
-    round_id: string;
-    round_code: string;
-    published_at: Date | null;
-    item_code: string;
-    measurand_key: string;
-    measurand_name: string;
-    z: number | null;
-    zp: number | null;
-    kind: string;
-    signal: 'acceptable' | 'warning' | 'action' | null;
-  }[] = await em.query(
+  const raw: unknown[] = await em.query(
     `SELECT r.id AS round_id, r.code AS round_code, e.published_at, er.item_code, er.measurand_key,
             COALESCE(er.constants->>'measurandName', er.measurand_key) AS measurand_name,
             (p->>'z')::float8 AS z, (p->>'zPrime')::float8 AS zp, p->>'scoreKind' AS kind, p->>'signal' AS signal
@@ -58,7 +81,7 @@ export async function labTrackRecord(em: EntityManager, labId: string): Promise<
     [labId],
   );
   const series = new Map<string, TrackSeries>();
-  for (const r of rows) {
+  for (const r of raw.map(trackRow)) {
     const z = r.kind === 'zPrime' ? r.zp : r.z;
     if (z === null || r.signal === null) continue;
     let s = series.get(r.measurand_key);

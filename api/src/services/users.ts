@@ -1,4 +1,4 @@
-import type { EntityManager } from 'typeorm';
+import { IsNull, type EntityManager } from 'typeorm';
 import type { GlobalRole, Role } from '../../../shared/contracts/auth';
 import type {
   LabInvitation as LabInvitationDto,
@@ -11,7 +11,13 @@ import type {
   UserInvite,
   UserUpdate,
 } from '../../../shared/contracts/admin';
-import { Membership, Organisation, User } from '../../../db/entities';
+import {
+  LabInvitation,
+  type LabInvitationAnswer,
+  Membership,
+  Organisation,
+  User,
+} from '../../../db/entities';
 import { forgetSessionUser } from '../auth/session-cache';
 import type { SessionUser } from '../auth/session-user';
 import { conflict, notFound, ruleBroken } from '../http/errors';
@@ -221,10 +227,11 @@ export async function listOrganisations(ctx: AppContext): Promise<OrganisationDt
 }
 
 async function assertNameFree(em: EntityManager, name: string, exceptId?: string): Promise<void> {
-  const rows: { id: string }[] = await em.query(
-    `SELECT id FROM organisation WHERE lower(name) = lower($1)`,
-    [name],
-  );
+  const rows = await em
+    .createQueryBuilder(Organisation, 'o')
+    .select('o.id')
+    .where('lower(o.name) = lower(:name)', { name })
+    .getMany();
   if (rows.some((r) => r.id !== exceptId))
     throw conflict('name_taken', `name: an organisation called "${name}" already exists.`);
 }
@@ -358,44 +365,47 @@ export const STAFF_ROLES: readonly GlobalRole[] = ['admin', 'coordinator', 'asse
 /** How long a lab's invitation to an existing account stays open. */
 export const LAB_INVITATION_DAYS = 14;
 
-interface InvitationRow {
-  id: string;
-  organisation_id: string;
-  organisation_name: string;
-  user_id: string;
-  email: string;
-  name: string;
-  invited_by_name: string | null;
-  is_manager: boolean;
-  created_at: Date;
-  expires_at: Date;
+/** Open invitations with the lab, the invited person and the inviter, newest first. */
+function invitationQuery(em: EntityManager) {
+  return em
+    .createQueryBuilder(LabInvitation, 'i')
+    .innerJoin('i.organisation', 'o')
+    .innerJoin('i.user', 'u')
+    .leftJoin('i.inviter', 'b')
+    .select(['i', 'o.id', 'o.name', 'u.id', 'u.email', 'u.name', 'b.id', 'b.name'])
+    .orderBy('i.createdAt', 'DESC');
 }
 
-const INVITATION_SELECT = `
-  SELECT i.id, i.organisation_id, o.name AS organisation_name, i.user_id, u.email, u.name,
-         b.name AS invited_by_name, i.is_manager, i.created_at, i.expires_at
-    FROM lab_invitation i
-    JOIN organisation o ON o.id = i.organisation_id
-    JOIN app_user u ON u.id = i.user_id
-    LEFT JOIN app_user b ON b.id = i.invited_by`;
+function openInvitations(em: EntityManager) {
+  return invitationQuery(em).where('i.answeredAt IS NULL').andWhere('i.expiresAt > now()');
+}
 
-function invitationDto(r: InvitationRow): LabInvitationDto {
+function invitationDto(i: LabInvitation): LabInvitationDto {
   return {
-    id: r.id,
-    organisationId: r.organisation_id,
-    organisationName: r.organisation_name,
-    email: r.email,
-    name: r.name,
-    invitedByName: r.invited_by_name,
-    isManager: r.is_manager,
-    createdAt: r.created_at.toISOString(),
-    expiresAt: r.expires_at.toISOString(),
+    id: i.id,
+    organisationId: i.organisationId,
+    organisationName: i.organisation!.name,
+    email: i.user!.email,
+    name: i.user!.name,
+    invitedByName: i.inviter?.name ?? null,
+    isManager: i.isManager,
+    createdAt: i.createdAt.toISOString(),
+    expiresAt: i.expiresAt.toISOString(),
   };
 }
 
-async function getInvitation(em: EntityManager, id: string): Promise<InvitationRow | null> {
-  const rows: InvitationRow[] = await em.query(`${INVITATION_SELECT} WHERE i.id = $1`, [id]);
-  return rows[0] ?? null;
+/** Answers the open invitations matching `where` (an answered one keeps its answer); how many. */
+async function answerOpen(
+  em: EntityManager,
+  where: { id?: string; organisationId: string; userId?: string },
+  answer: LabInvitationAnswer,
+): Promise<number> {
+  const r = await em.update(
+    LabInvitation,
+    { ...where, answeredAt: IsNull() },
+    { answeredAt: () => 'now()', answer },
+  );
+  return r.affected ?? 0;
 }
 
 /**
@@ -451,16 +461,15 @@ export async function inviteLabMember(
       throw conflict('already_member', `${input.email} is already a member of this lab.`);
     }
     // One open invitation per lab and person: inviting again renews it.
-    await em.query(
-      `UPDATE lab_invitation SET answered_at = now(), answer = 'withdrawn' WHERE organisation_id = $1 AND user_id = $2 AND answered_at IS NULL`,
-      [organisationId, user.id],
-    );
-    const inserted: { id: string }[] = await em.query(
-      `INSERT INTO lab_invitation (organisation_id, user_id, is_manager, invited_by, expires_at)
-       VALUES ($1, $2, $3, $4, now() + make_interval(days => $5)) RETURNING id`,
-      [organisationId, user.id, input.isManager, actor.id, LAB_INVITATION_DAYS],
-    );
-    const invitationId = inserted[0]!.id;
+    await answerOpen(em, { organisationId, userId: user.id }, 'withdrawn');
+    const inserted = await em.insert(LabInvitation, {
+      organisationId,
+      userId: user.id,
+      isManager: input.isManager,
+      invitedBy: actor.id,
+      expiresAt: () => `now() + make_interval(days => ${LAB_INVITATION_DAYS})`,
+    });
+    const invitationId = (inserted.identifiers[0] as { id: string }).id;
     await audit(em, actor.id, 'lab-invitation.created', 'organisation', organisationId, {
       invitationId,
       userId: user.id,
@@ -470,7 +479,9 @@ export async function inviteLabMember(
       result: {
         outcome: 'invitation-sent' as const,
         membership: null,
-        invitation: invitationDto((await getInvitation(em, invitationId))!),
+        invitation: invitationDto(
+          await invitationQuery(em).where('i.id = :id', { id: invitationId }).getOneOrFail(),
+        ),
       },
       mail: { kind: 'invitation' as const, user, lab, inviter: actor.name },
     };
@@ -499,10 +510,9 @@ export async function listLabInvitations(
   em: EntityManager,
   organisationId: string,
 ): Promise<LabInvitationDto[]> {
-  const rows: InvitationRow[] = await em.query(
-    `${INVITATION_SELECT} WHERE i.organisation_id = $1 AND i.answered_at IS NULL AND i.expires_at > now() ORDER BY i.created_at DESC`,
-    [organisationId],
-  );
+  const rows = await openInvitations(em)
+    .andWhere('i.organisationId = :organisationId', { organisationId })
+    .getMany();
   return rows.map(invitationDto);
 }
 
@@ -514,12 +524,8 @@ export async function withdrawLabInvitation(
   id: string,
 ): Promise<void> {
   await ctx.ds.transaction(async (em) => {
-    const rows: unknown = await em.query(
-      `UPDATE lab_invitation SET answered_at = now(), answer = 'withdrawn' WHERE id = $1 AND organisation_id = $2 AND answered_at IS NULL RETURNING id`,
-      [id, organisationId],
-    );
-    const list = Array.isArray(rows) && Array.isArray(rows[0]) ? rows[0] : rows;
-    if (!Array.isArray(list) || list.length === 0) throw notFound('The invitation');
+    if ((await answerOpen(em, { id, organisationId }, 'withdrawn')) === 0)
+      throw notFound('The invitation');
     await audit(em, actor.id, 'lab-invitation.withdrawn', 'organisation', organisationId, {
       invitationId: id,
     });
@@ -531,10 +537,7 @@ export async function listMyInvitations(
   em: EntityManager,
   userId: string,
 ): Promise<LabInvitationDto[]> {
-  const rows: InvitationRow[] = await em.query(
-    `${INVITATION_SELECT} WHERE i.user_id = $1 AND i.answered_at IS NULL AND i.expires_at > now() ORDER BY i.created_at DESC`,
-    [userId],
-  );
+  const rows = await openInvitations(em).andWhere('i.userId = :userId', { userId }).getMany();
   return rows.map(invitationDto);
 }
 
@@ -549,12 +552,11 @@ export async function answerInvitation(
   accept: boolean,
 ): Promise<void> {
   await ctx.ds.transaction(async (em) => {
-    const rows: (InvitationRow & { answered_at: Date | null })[] = await em.query(
-      `SELECT i.*, NULL AS organisation_name FROM lab_invitation i WHERE i.id = $1 AND i.user_id = $2 FOR UPDATE`,
-      [id, user.id],
-    );
-    const inv = rows[0];
-    if (!inv || inv.answered_at || inv.expires_at.getTime() <= Date.now())
+    const inv = await em.findOne(LabInvitation, {
+      where: { id, userId: user.id },
+      lock: { mode: 'pessimistic_write' },
+    });
+    if (!inv || inv.answeredAt || inv.expiresAt.getTime() <= Date.now())
       throw notFound('The invitation');
     if (accept) {
       const account = await em.findOneOrFail(User, { where: { id: user.id } });
@@ -566,34 +568,35 @@ export async function answerInvitation(
       }
       if (
         !(await em.findOne(Membership, {
-          where: { userId: user.id, organisationId: inv.organisation_id },
+          where: { userId: user.id, organisationId: inv.organisationId },
         }))
       ) {
         const m = await em.save(
           Membership,
           em.create(Membership, {
             userId: user.id,
-            organisationId: inv.organisation_id,
-            isManager: inv.is_manager,
+            organisationId: inv.organisationId,
+            isManager: inv.isManager,
           }),
         );
         await audit(em, user.id, 'membership.created', 'membership', m.id, {
           userId: user.id,
-          organisationId: inv.organisation_id,
+          organisationId: inv.organisationId,
           invitationId: id,
         });
       }
     }
-    await em.query(`UPDATE lab_invitation SET answered_at = now(), answer = $2 WHERE id = $1`, [
-      id,
-      accept ? 'accepted' : 'declined',
-    ]);
+    await em.update(
+      LabInvitation,
+      { id },
+      { answeredAt: () => 'now()', answer: accept ? 'accepted' : 'declined' },
+    );
     await audit(
       em,
       user.id,
       accept ? 'lab-invitation.accepted' : 'lab-invitation.declined',
       'organisation',
-      inv.organisation_id,
+      inv.organisationId,
       { invitationId: id },
     );
   });

@@ -4,7 +4,7 @@ import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
 import type { AssessorGrantDto } from '@ringlet/shared/contracts/evaluation';
 import { HANDLED_STATUSES } from '../../core/api';
-import { grantState } from './assessor-grants';
+import { grantState } from './grant-state';
 import { LabMembersService } from './lab-members-service';
 
 const LAB = '0b6a7c1e-2d3f-4a5b-8c9d-0e1f2a3b4c5d';

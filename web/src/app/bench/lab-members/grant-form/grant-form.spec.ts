@@ -1,0 +1,95 @@
+import { HttpErrorResponse } from '@angular/common/http';
+import { TestBed } from '@angular/core/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import { MatButtonHarness } from '@angular/material/button/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
+import { MatFormFieldHarness } from '@angular/material/form-field/testing';
+import { MatInputHarness } from '@angular/material/input/testing';
+import { MatSnackBar } from '@angular/material/snack-bar';
+import { type Observable, of, throwError } from 'rxjs';
+import type { AssessorGrantDto } from '@ringlet/shared/contracts/evaluation';
+import { LabMembersService } from '../lab-members-service';
+import { GrantForm } from './grant-form';
+
+const LAB = '0b6a7c1e-2d3f-4a5b-8c9d-0e1f2a3b4c5d';
+const saved: AssessorGrantDto = {
+  id: '5c4b3a29-1807-4f6e-9d5c-4b3a29180706',
+  organisationId: LAB,
+  assessorId: '9e8d7c6b-5a49-4382-a716-f5e4d3c2b1a0',
+  assessorEmail: 'tove.lindqvist@example.test',
+  assessorName: 'Tove Lindqvist',
+  startsOn: '2026-01-01',
+  endsOn: '2026-12-31',
+  revokedAt: null,
+  isActive: true,
+  createdAt: '2026-01-01T09:00:00.000Z',
+};
+
+async function setup(answer: Observable<AssessorGrantDto> = of(saved)) {
+  const grant = jest.fn(() => answer);
+  TestBed.configureTestingModule({
+    imports: [GrantForm],
+    providers: [
+      { provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } },
+      { provide: LabMembersService, useValue: { grant } },
+      { provide: MatSnackBar, useValue: { open: jest.fn() } },
+    ],
+  });
+  const fixture = TestBed.createComponent(GrantForm);
+  fixture.componentRef.setInput('labId', LAB);
+  const granted: AssessorGrantDto[] = [];
+  fixture.componentInstance.granted.subscribe((g) => granted.push(g));
+  await fixture.whenStable();
+  const loader = TestbedHarnessEnvironment.loader(fixture);
+  const field = (label: string) =>
+    loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: label }));
+  const fill = async (label: string, value: string) =>
+    (await (await field(label)).getControl(MatInputHarness))!.setValue(value);
+  const send = async () =>
+    (await loader.getHarness(MatButtonHarness.with({ text: 'Grant access' }))).click();
+  return { grant, granted, field, fill, send };
+}
+
+describe('GrantForm', () => {
+  it('grants access for the period and hands the grant to the list', async () => {
+    const { grant, granted, fill, send } = await setup();
+    await fill("Assessor's e-mail", 'tove.lindqvist@example.test');
+    await fill('From', '2026-01-01');
+    await fill('Until', '2026-12-31');
+    await send();
+    expect(grant).toHaveBeenCalledWith(LAB, {
+      email: 'tove.lindqvist@example.test',
+      startsOn: '2026-01-01',
+      endsOn: '2026-12-31',
+    });
+    expect(granted).toEqual([saved]);
+  });
+
+  it('refuses an end before the start under "Until" without asking the server', async () => {
+    const { grant, field, fill, send } = await setup();
+    await fill("Assessor's e-mail", 'tove.lindqvist@example.test');
+    await fill('From', '2026-05-02');
+    await fill('Until', '2026-05-01');
+    await send();
+    expect(grant).not.toHaveBeenCalled();
+    expect(await (await field('Until')).getTextErrors()).toEqual([
+      'The access must end on or after its start.',
+    ]);
+  });
+
+  it("puts the server's rule break that names a field under that field", async () => {
+    const refusal = new HttpErrorResponse({
+      status: 422,
+      error: { error: { code: 'x', message: 'email: This account is PT provider staff.' } },
+    });
+    const { granted, field, fill, send } = await setup(throwError(() => refusal));
+    await fill("Assessor's e-mail", 'staff@example.test');
+    await fill('From', '2026-01-01');
+    await fill('Until', '2026-12-31');
+    await send();
+    expect(granted).toEqual([]);
+    expect(await (await field("Assessor's e-mail")).getTextErrors()).toEqual([
+      'This account is PT provider staff.',
+    ]);
+  });
+});

@@ -8,22 +8,12 @@ import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { type Observable, of, throwError } from 'rxjs';
 import type { AssessorGrantDto } from '@ringlet/shared/contracts/evaluation';
+import { aGrant, GRANT_LAB } from '../grant-fixtures';
 import { LabMembersService } from '../lab-members-service';
 import { GrantForm } from './grant-form';
 
-const LAB = '0b6a7c1e-2d3f-4a5b-8c9d-0e1f2a3b4c5d';
-const saved: AssessorGrantDto = {
-  id: '5c4b3a29-1807-4f6e-9d5c-4b3a29180706',
-  organisationId: LAB,
-  assessorId: '9e8d7c6b-5a49-4382-a716-f5e4d3c2b1a0',
-  assessorEmail: 'tove.lindqvist@example.test',
-  assessorName: 'Tove Lindqvist',
-  startsOn: '2026-01-01',
-  endsOn: '2026-12-31',
-  revokedAt: null,
-  isActive: true,
-  createdAt: '2026-01-01T09:00:00.000Z',
-};
+const LAB = GRANT_LAB;
+const saved = aGrant();
 
 async function setup(answer: Observable<AssessorGrantDto> = of(saved)) {
   const grant = jest.fn(() => answer);

@@ -1,13 +1,10 @@
-import { HttpErrorResponse } from '@angular/common/http';
 import { TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { MatButtonHarness } from '@angular/material/button/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldHarness } from '@angular/material/form-field/testing';
-import { MatInputHarness } from '@angular/material/input/testing';
 import { type Observable, of, throwError } from 'rxjs';
 import type { User } from '@ringlet/shared/contracts/admin';
+import { formFields, problemResponse } from '../shared/form-testing';
 import { AdminService } from './admin-service';
 import { InviteUserDialog } from './invite-user-dialog';
 
@@ -28,12 +25,8 @@ async function setup(answer: Observable<User> = of(invited)) {
   const fixture = TestBed.createComponent(InviteUserDialog);
   await fixture.whenStable();
   const loader = TestbedHarnessEnvironment.loader(fixture);
-  const field = (label: string) =>
-    loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: label }));
-  const fill = async (label: string, value: string) =>
-    (await (await field(label)).getControl(MatInputHarness))!.setValue(value);
-  const send = async () =>
-    (await loader.getHarness(MatButtonHarness.with({ text: 'Send invitation' }))).click();
+  const { field, fill, press } = formFields(loader);
+  const send = () => press('Send invitation');
   return { fixture, inviteUser, close, field, fill, send };
 }
 
@@ -50,16 +43,9 @@ describe('InviteUserDialog', () => {
   });
 
   it("puts the server's 400 under its field and stays open", async () => {
-    const taken = new HttpErrorResponse({
-      status: 400,
-      error: {
-        error: {
-          code: 'invalid',
-          message: 'Invalid input',
-          details: [{ path: 'email', message: 'This address is already in use.' }],
-        },
-      },
-    });
+    const taken = problemResponse(400, 'Invalid input', [
+      { path: 'email', message: 'This address is already in use.' },
+    ]);
     const first = await setup(throwError(() => taken));
     await first.fill('E-mail', 'ines.duarte@example.test');
     await first.fill('Name', 'Ines Duarte');
@@ -71,10 +57,7 @@ describe('InviteUserDialog', () => {
   });
 
   it('shows a refusal that names no field above the buttons', async () => {
-    const conflict = new HttpErrorResponse({
-      status: 409,
-      error: { error: { code: 'conflict', message: 'The lab was removed meanwhile.' } },
-    });
+    const conflict = problemResponse(409, 'The lab was removed meanwhile.');
     const { fixture, close, fill, send } = await setup(throwError(() => conflict));
     await fill('E-mail', 'ines.duarte@example.test');
     await fill('Name', 'Ines Duarte');

@@ -1,11 +1,10 @@
-import { HttpErrorResponse } from '@angular/common/http';
 import { FormControl, FormGroup } from '@angular/forms';
 import { Subject, throwError } from 'rxjs';
 import * as z from 'zod';
 import { FormSubmit, placeProblem } from './form-submit';
+import { problemResponse } from './form-testing';
 
-const problem = (status: number, message: string, details?: unknown) =>
-  new HttpErrorResponse({ status, error: { error: { code: 'x', message, details } } });
+const problem = problemResponse;
 
 function aForm() {
   return new FormGroup({ email: new FormControl(''), name: new FormControl('') });

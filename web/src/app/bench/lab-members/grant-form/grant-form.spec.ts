@@ -1,13 +1,10 @@
-import { HttpErrorResponse } from '@angular/common/http';
 import { TestBed } from '@angular/core/testing';
 import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
-import { MatButtonHarness } from '@angular/material/button/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
-import { MatFormFieldHarness } from '@angular/material/form-field/testing';
-import { MatInputHarness } from '@angular/material/input/testing';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { type Observable, of, throwError } from 'rxjs';
 import type { AssessorGrantDto } from '@ringlet/shared/contracts/evaluation';
+import { formFields, problemResponse } from '../../../shared/form-testing';
 import { aGrant, GRANT_LAB } from '../grant-fixtures';
 import { LabMembersService } from '../lab-members-service';
 import { GrantForm } from './grant-form';
@@ -31,12 +28,8 @@ async function setup(answer: Observable<AssessorGrantDto> = of(saved)) {
   fixture.componentInstance.granted.subscribe((g) => granted.push(g));
   await fixture.whenStable();
   const loader = TestbedHarnessEnvironment.loader(fixture);
-  const field = (label: string) =>
-    loader.getHarness(MatFormFieldHarness.with({ floatingLabelText: label }));
-  const fill = async (label: string, value: string) =>
-    (await (await field(label)).getControl(MatInputHarness))!.setValue(value);
-  const send = async () =>
-    (await loader.getHarness(MatButtonHarness.with({ text: 'Grant access' }))).click();
+  const { field, fill, press } = formFields(loader);
+  const send = () => press('Grant access');
   return { grant, granted, field, fill, send };
 }
 
@@ -68,10 +61,7 @@ describe('GrantForm', () => {
   });
 
   it("puts the server's rule break that names a field under that field", async () => {
-    const refusal = new HttpErrorResponse({
-      status: 422,
-      error: { error: { code: 'x', message: 'email: This account is PT provider staff.' } },
-    });
+    const refusal = problemResponse(422, 'email: This account is PT provider staff.');
     const { granted, field, fill, send } = await setup(throwError(() => refusal));
     await fill("Assessor's e-mail", 'staff@example.test');
     await fill('From', '2026-01-01');

@@ -1,5 +1,4 @@
-import { HttpErrorResponse } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -10,13 +9,8 @@ import { MatSelectModule } from '@angular/material/select';
 import { type GlobalRole } from '@ringlet/shared/contracts/auth';
 import { type Organisation, type User, UserInvite } from '@ringlet/shared/contracts/admin';
 import { Email } from '@ringlet/shared/contracts/common';
-import { fieldIssuesOf, problemMessage } from '../core/problem';
-import {
-  applyServerIssues,
-  applyZodIssues,
-  errorMessage,
-  zodValidator,
-} from '../core/zod-form-errors';
+import { errorMessage, zodValidator } from '../core/zod-form-errors';
+import { FormSubmit } from '../shared/form-submit';
 import { AdminService } from './admin-service';
 import { GLOBAL_ROLE_LABELS, GLOBAL_ROLES } from './role-labels';
 
@@ -36,54 +30,7 @@ export interface InviteUserData {
     MatCheckboxModule,
     MatButtonModule,
   ],
-  template: `
-    <h2 mat-dialog-title>Invite user</h2>
-    <form [formGroup]="form" (ngSubmit)="submit()" novalidate>
-      <mat-dialog-content class="form-stack">
-        <p>The person gets an e-mail with a link to choose a password.</p>
-        <mat-form-field>
-          <mat-label>E-mail</mat-label>
-          <input matInput formControlName="email" type="email" required cdkFocusInitial />
-          <mat-error>{{ errorMessage(form.controls.email) }}</mat-error>
-        </mat-form-field>
-        <mat-form-field>
-          <mat-label>Name</mat-label>
-          <input matInput formControlName="name" required />
-          <mat-error>{{ errorMessage(form.controls.name) }}</mat-error>
-        </mat-form-field>
-        <mat-form-field>
-          <mat-label>Roles</mat-label>
-          <mat-select formControlName="roles" multiple>
-            @for (role of roles; track role) {
-              <mat-option [value]="role">{{ roleLabels[role] }}</mat-option>
-            }
-          </mat-select>
-          <mat-hint>Leave empty for a lab member only.</mat-hint>
-          <mat-error>{{ errorMessage(form.controls.roles) }}</mat-error>
-        </mat-form-field>
-        <mat-form-field>
-          <mat-label>Lab (optional)</mat-label>
-          <mat-select formControlName="organisationId">
-            <mat-option value="">No lab</mat-option>
-            @for (lab of data.labs; track lab.id) {
-              <mat-option [value]="lab.id">{{ lab.name }}</mat-option>
-            }
-          </mat-select>
-          <mat-error>{{ errorMessage(form.controls.organisationId) }}</mat-error>
-        </mat-form-field>
-        <mat-checkbox formControlName="isManager"
-          >Lab manager (can invite and remove colleagues)</mat-checkbox
-        >
-        @if (failure(); as message) {
-          <p class="form-error" role="alert">{{ message }}</p>
-        }
-      </mat-dialog-content>
-      <mat-dialog-actions align="end">
-        <button mat-button type="button" mat-dialog-close>Cancel</button>
-        <button mat-flat-button type="submit" [disabled]="busy()">Send invitation</button>
-      </mat-dialog-actions>
-    </form>
-  `,
+  templateUrl: './invite-user-dialog.html',
 })
 export class InviteUserDialog {
   protected readonly data = inject<InviteUserData>(MAT_DIALOG_DATA);
@@ -92,8 +39,6 @@ export class InviteUserDialog {
   protected readonly roles = GLOBAL_ROLES;
   protected readonly roleLabels = GLOBAL_ROLE_LABELS;
   protected readonly errorMessage = errorMessage;
-  protected readonly busy = signal(false);
-  protected readonly failure = signal<string | null>(null);
   protected readonly form = inject(NonNullableFormBuilder).group({
     email: ['', [Validators.required, zodValidator(Email)]],
     name: ['', [Validators.required]],
@@ -101,6 +46,7 @@ export class InviteUserDialog {
     organisationId: [''],
     isManager: [{ value: false, disabled: true }],
   });
+  protected readonly submit = new FormSubmit(this.form);
 
   constructor() {
     this.form.controls.organisationId.valueChanges.subscribe((labId) => {
@@ -113,29 +59,13 @@ export class InviteUserDialog {
     });
   }
 
-  protected submit(): void {
-    this.failure.set(null);
+  protected save(): void {
     const raw = this.form.getRawValue();
-    const candidate = { ...raw, organisationId: raw.organisationId || undefined };
-    const parsed = UserInvite.safeParse(candidate);
-    if (!parsed.success) {
-      this.form.markAllAsTouched();
-      const unplaced = applyZodIssues(this.form, parsed.error.issues);
-      if (unplaced.length) this.failure.set(unplaced.join(' '));
-      return;
-    }
-    this.busy.set(true);
-    this.admin.inviteUser(parsed.data).subscribe({
-      next: (user) => this.dialogRef.close(user),
-      error: (error: unknown) => {
-        this.busy.set(false);
-        if (error instanceof HttpErrorResponse && error.status === 400) {
-          const unplaced = applyServerIssues(this.form, fieldIssuesOf(error));
-          this.failure.set(unplaced.length ? unplaced.join(' ') : null);
-        } else {
-          this.failure.set(problemMessage(error));
-        }
-      },
+    const invite = this.submit.parse(UserInvite, {
+      ...raw,
+      organisationId: raw.organisationId || undefined,
     });
+    if (invite)
+      this.submit.run(this.admin.inviteUser(invite), (user) => this.dialogRef.close(user));
   }
 }

@@ -26,7 +26,7 @@ export const BOARD_ROUTES: Routes = [
       {
         path: 'rounds/:id',
         title: 'Consensus board · Ringlet',
-        loadComponent: () => import('./board-page').then((m) => m.BoardPage),
+        loadComponent: () => import('./board-page/board-page').then((m) => m.BoardPage),
       },
       {
         path: 'rounds/:id/evaluation',

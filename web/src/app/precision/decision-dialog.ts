@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -15,7 +15,7 @@ import {
 } from '@ringlet/shared/contracts/precision';
 import type * as z from 'zod';
 import { errorMessage } from '../core/zod-form-errors';
-import { parseWith } from '../rounds/form-errors';
+import { FormSubmit } from '../shared/form-submit';
 import { ClassBadge } from './class-badge';
 import { testNames, type PendingCell } from './precision-view';
 
@@ -58,7 +58,6 @@ export class DecisionDialog {
   protected readonly data = inject<DecisionDialogData>(MAT_DIALOG_DATA);
   private readonly ref = inject<MatDialogRef<DecisionDialog, DecisionResult>>(MatDialogRef);
   protected readonly errorMessage = errorMessage;
-  protected readonly failure = signal<string | null>(null);
   protected readonly kinds = PRECISION_EXCLUSION_KINDS.map((k) => ({
     value: k,
     label: PRECISION_EXCLUSION_KIND_LABELS[k],
@@ -70,24 +69,22 @@ export class DecisionDialog {
     kind: [this.data.cell.classification as PrecisionExclusionKind],
     reason: ['', Validators.required],
   });
+  protected readonly submit = new FormSubmit(this.form, {
+    placed: 'Check the highlighted fields.',
+  });
 
-  protected submit(): void {
+  protected save(): void {
     const v = this.form.getRawValue();
     const c = this.data.cell;
-    const value = parseWith(
-      this.form,
-      PrecisionDecisionInput,
-      {
-        itemCode: c.itemCode,
-        measurandKey: c.measurandKey,
-        participantCode: c.participantCode,
-        replicate: v.scope === 'replicate' ? c.suspectReplicate : null,
-        kind: v.kind,
-        decision: v.decision,
-        reason: v.reason,
-      },
-      this.failure,
-    );
+    const value = this.submit.parse(PrecisionDecisionInput, {
+      itemCode: c.itemCode,
+      measurandKey: c.measurandKey,
+      participantCode: c.participantCode,
+      replicate: v.scope === 'replicate' ? c.suspectReplicate : null,
+      kind: v.kind,
+      decision: v.decision,
+      reason: v.reason,
+    });
     if (value) this.ref.close(value);
   }
 }

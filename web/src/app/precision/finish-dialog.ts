@@ -1,8 +1,9 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
 import type { PrecisionAnalysis } from '@ringlet/shared/contracts/precision';
 import { problemMessage, problemOf } from '../core/problem';
+import { FormSubmit } from '../shared/form-submit';
 import { PrecisionService } from './precision-service';
 
 export interface FinishDialogData {
@@ -36,7 +37,7 @@ export function finishRefusal(error: unknown): string {
         The round becomes Evaluated: decisions and reference values can no longer change, and its
         s_R can be picked as σ_pt in a later PT round of the scheme.
       </p>
-      @if (failure(); as message) {
+      @if (submit.failure(); as message) {
         <p class="form-error" role="alert" data-testid="finish-error">{{ message }}</p>
       }
     </mat-dialog-content>
@@ -45,7 +46,7 @@ export function finishRefusal(error: unknown): string {
       <button
         mat-flat-button
         type="button"
-        [disabled]="saving()"
+        [disabled]="submit.busy()"
         (click)="finish()"
         data-testid="finish-confirm"
       >
@@ -58,18 +59,9 @@ export class FinishDialog {
   private readonly data = inject<FinishDialogData>(MAT_DIALOG_DATA);
   private readonly ref = inject<MatDialogRef<FinishDialog, PrecisionAnalysis>>(MatDialogRef);
   private readonly service = inject(PrecisionService);
-  protected readonly failure = signal<string | null>(null);
-  protected readonly saving = signal(false);
+  protected readonly submit = new FormSubmit(null, { refusal: finishRefusal });
 
   protected finish(): void {
-    this.failure.set(null);
-    this.saving.set(true);
-    this.service.finish(this.data.roundId).subscribe({
-      next: (a) => this.ref.close(a),
-      error: (e: unknown) => {
-        this.saving.set(false);
-        this.failure.set(finishRefusal(e));
-      },
-    });
+    this.submit.run(this.service.finish(this.data.roundId), (a) => this.ref.close(a));
   }
 }

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -9,7 +9,7 @@ import {
   type PrecisionAnalysis,
 } from '@ringlet/shared/contracts/precision';
 import { errorMessage } from '../core/zod-form-errors';
-import { parseWith, showServerError, type PathMap } from '../rounds/form-errors';
+import { FormSubmit } from '../shared/form-submit';
 import { PrecisionService } from './precision-service';
 
 export interface ReferencesDialogData {
@@ -61,8 +61,6 @@ export class ReferencesDialog {
   private readonly service = inject(PrecisionService);
   private readonly fb = inject(NonNullableFormBuilder);
   protected readonly errorMessage = errorMessage;
-  protected readonly failure = signal<string | null>(null);
-  protected readonly saving = signal(false);
   protected readonly rows: readonly Row[] = this.data.analysis.measurands.flatMap((m) =>
     m.levels.map((l) => ({
       itemCode: l.itemCode,
@@ -85,13 +83,21 @@ export class ReferencesDialog {
       }),
     ),
   });
+  /** The form rows of the filled references, in the order they are sent. */
+  private filled: number[] = [];
+  protected readonly submit = new FormSubmit(this.form, {
+    placed: 'Check the highlighted fields.',
+    // the contract's "references.3.value" is the form's "rows.<row of the 4th filled one>.value"
+    map: (path) =>
+      path.replace(/^references\.(\d+)/, (_, k: string) => `rows.${this.filled[Number(k)] ?? k}`),
+  });
 
   /** Clears one level's reference (saved with the rest). */
   protected clear(i: number): void {
     this.form.controls.rows.at(i).reset({ value: null, u: null, source: '' });
   }
 
-  protected submit(): void {
+  protected save(): void {
     const filled: number[] = [];
     const references = this.form.controls.rows.getRawValue().flatMap((v, i) => {
       if (v.value === null && v.u === null && v.source.trim() === '') return [];
@@ -99,24 +105,9 @@ export class ReferencesDialog {
       const r = this.rows[i]!;
       return [{ itemCode: r.itemCode, measurandKey: r.measurandKey, ...v }];
     });
-    // the contract's "references.3.value" is the form's "rows.<row of the 4th filled one>.value"
-    const toForm: PathMap = (path) =>
-      path.replace(/^references\.(\d+)/, (_, k: string) => `rows.${filled[Number(k)] ?? k}`);
-    const body = parseWith(
-      this.form,
-      PrecisionReferencesBody,
-      { references },
-      this.failure,
-      toForm,
-    );
-    if (!body) return;
-    this.saving.set(true);
-    this.service.references(this.data.roundId, body).subscribe({
-      next: (a) => this.ref.close(a),
-      error: (e: unknown) => {
-        this.saving.set(false);
-        showServerError(this.form, e, this.failure, toForm);
-      },
-    });
+    this.filled = filled;
+    const body = this.submit.parse(PrecisionReferencesBody, { references });
+    if (body)
+      this.submit.run(this.service.references(this.data.roundId, body), (a) => this.ref.close(a));
   }
 }

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
@@ -11,7 +11,7 @@ import {
   type PrecisionExclusion,
 } from '@ringlet/shared/contracts/precision';
 import { errorMessage } from '../core/zod-form-errors';
-import { parseWith, showServerError } from '../rounds/form-errors';
+import { FormSubmit } from '../shared/form-submit';
 import { PrecisionService } from './precision-service';
 
 export interface WithdrawDialogData {
@@ -41,22 +41,18 @@ export class WithdrawDialog {
   private readonly service = inject(PrecisionService);
   protected readonly errorMessage = errorMessage;
   protected readonly decisionLabel = PRECISION_DECISION_LABELS[this.data.decision.decision];
-  protected readonly failure = signal<string | null>(null);
-  protected readonly saving = signal(false);
   protected readonly form = inject(NonNullableFormBuilder).group({
     reason: ['', Validators.required],
   });
+  protected readonly submit = new FormSubmit(this.form, {
+    placed: 'Check the highlighted fields.',
+  });
 
-  protected submit(): void {
-    const body = parseWith(this.form, PrecisionWithdrawBody, this.form.getRawValue(), this.failure);
-    if (!body) return;
-    this.saving.set(true);
-    this.service.withdraw(this.data.roundId, this.data.decision.id, body).subscribe({
-      next: (a) => this.ref.close(a),
-      error: (e: unknown) => {
-        this.saving.set(false);
-        showServerError(this.form, e, this.failure);
-      },
-    });
+  protected save(): void {
+    const body = this.submit.parse(PrecisionWithdrawBody, this.form.getRawValue());
+    if (body)
+      this.submit.run(this.service.withdraw(this.data.roundId, this.data.decision.id, body), (a) =>
+        this.ref.close(a),
+      );
   }
 }

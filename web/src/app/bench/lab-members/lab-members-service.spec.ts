@@ -2,29 +2,13 @@ import { HttpErrorResponse, provideHttpClient } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
-import type { AssessorGrantDto } from '@ringlet/shared/contracts/evaluation';
 import { HANDLED_STATUSES } from '../../core/api';
-import { grantState } from './assessor-grants';
+import { aGrant, GRANT_LAB } from './grant-fixtures';
+import { grantState } from './grant-state';
 import { LabMembersService } from './lab-members-service';
 
-const LAB = '0b6a7c1e-2d3f-4a5b-8c9d-0e1f2a3b4c5d';
-const GRANT = '5c4b3a29-1807-4f6e-9d5c-4b3a29180706';
-
-function aGrant(overrides: Partial<AssessorGrantDto> = {}): AssessorGrantDto {
-  return {
-    id: GRANT,
-    organisationId: LAB,
-    assessorId: '9e8d7c6b-5a49-4382-a716-f5e4d3c2b1a0',
-    assessorEmail: 'tove.lindqvist@example.test',
-    assessorName: 'Tove Lindqvist',
-    startsOn: '2026-01-01',
-    endsOn: '2026-12-31',
-    revokedAt: null,
-    isActive: true,
-    createdAt: '2026-01-01T09:00:00.000Z',
-    ...overrides,
-  };
-}
+const LAB = GRANT_LAB;
+const GRANT = aGrant().id;
 
 describe('LabMembersService: assessor grants', () => {
   let service: LabMembersService;

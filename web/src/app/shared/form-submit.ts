@@ -1,0 +1,107 @@
+import { HttpErrorResponse } from '@angular/common/http';
+import { signal } from '@angular/core';
+import type { AbstractControl } from '@angular/forms';
+import type { Observable } from 'rxjs';
+import * as z from 'zod';
+import { FieldIssue } from '@ringlet/shared/contracts/common';
+import { fieldIssuesOf, problemMessage, problemOf } from '../core/problem';
+import { applyServerIssues, applyZodIssues } from '../core/zod-form-errors';
+
+/** Maps a contract path to the form's control path where they differ ("references.0" → "rows.2"). */
+export type PathMap = (path: string) => string;
+const samePath: PathMap = (p) => p;
+const FieldIssues = z.array(FieldIssue);
+
+/** How a form shows a refusal. */
+export interface SubmitOptions {
+  /** Contract path → control path (default: the same). */
+  readonly map?: PathMap;
+  /** The message above the buttons when every issue found its field (default: none). */
+  readonly placed?: string | null;
+  /** The message for a refusal that names no field (default: the server's words). */
+  readonly refusal?: (error: unknown) => string;
+}
+
+/** A rule break (409/422) that names fields: its details as field issues, or "field: words". */
+function ruleIssues(error: HttpErrorResponse): FieldIssue[] {
+  const problem = problemOf(error);
+  const details = FieldIssues.safeParse(problem?.details);
+  if (details.success && details.data.length) return details.data;
+  const named = /^([A-Za-z][\w.]*): (.+)$/s.exec(problem?.message ?? '');
+  return named ? [{ path: named[1]!, message: named[2]! }] : [];
+}
+
+/**
+ * Shows a failed call on its form: a 400's field issues and a 409/422 rule break that names a
+ * field go under those controls; what names no control becomes the message returned (null when
+ * everything found its field and `placed` is null). Anything else is the server's words.
+ */
+export function placeProblem(
+  form: AbstractControl | null,
+  error: unknown,
+  options: SubmitOptions = {},
+): string | null {
+  const map = options.map ?? samePath;
+  const placed = options.placed ?? null;
+  const fallback = options.refusal ?? problemMessage;
+  if (!form || !(error instanceof HttpErrorResponse)) return fallback(error);
+  const onFields =
+    error.status === 400
+      ? fieldIssuesOf(error)
+      : error.status === 409 || error.status === 422
+        ? ruleIssues(error).filter((i) => form.get(map(i.path)) !== null)
+        : [];
+  if (!onFields.length) return fallback(error);
+  const unplaced = applyServerIssues(
+    form,
+    onFields.map((i) => ({ ...i, path: map(i.path) })),
+  );
+  return unplaced.length ? unplaced.join(' ') : placed;
+}
+
+/**
+ * One submit flow for a form or dialog: check the value against the shared contract, run the
+ * call while `busy`, put a refusal on the form (`placeProblem`) and hand the result on (a dialog
+ * closes with it). The template binds `busy()` to the submit button and `failure()` to the alert.
+ */
+export class FormSubmit {
+  readonly busy = signal(false);
+  readonly failure = signal<string | null>(null);
+
+  constructor(
+    private readonly form: AbstractControl | null,
+    private readonly options: SubmitOptions = {},
+  ) {}
+
+  /** The contract's value, or null with the issues under their controls and the rest above. */
+  parse<S extends z.ZodType>(schema: S, value: unknown): z.output<S> | null {
+    this.failure.set(null);
+    const parsed = schema.safeParse(value);
+    if (parsed.success) return parsed.data;
+    const map = this.options.map ?? samePath;
+    const issues = parsed.error.issues.map((i) => ({
+      ...i,
+      path: map(i.path.map(String).join('.')).split('.').filter(Boolean),
+    }));
+    const unplaced = this.form ? applyZodIssues(this.form, issues) : issues.map((i) => i.message);
+    this.form?.markAllAsTouched();
+    this.failure.set(unplaced.length ? unplaced.join(' ') : (this.options.placed ?? null));
+    return null;
+  }
+
+  /** Runs the call; `done` gets the result, a refusal stays on the form. */
+  run<T>(call: Observable<T>, done: (result: T) => void): void {
+    this.failure.set(null);
+    this.busy.set(true);
+    call.subscribe({
+      next: (result) => {
+        this.busy.set(false);
+        done(result);
+      },
+      error: (error: unknown) => {
+        this.busy.set(false);
+        this.failure.set(placeProblem(this.form, error, this.options));
+      },
+    });
+  }
+}

@@ -164,6 +164,14 @@ export function linkToken(text: string): string {
   return m[1]!;
 }
 
+/** supertest: collect a binary response body into a Buffer (`.buffer(true).parse(binary)`). */
+export function binary(res: unknown, done: (err: Error | null, body: Buffer) => void): void {
+  const stream = res as NodeJS.ReadableStream;
+  const chunks: Buffer[] = [];
+  stream.on('data', (c: Buffer) => chunks.push(c));
+  stream.on('end', () => done(null, Buffer.concat(chunks)));
+}
+
 /** Every API path starts here. */
 export const api = (path: string): string => `/api/v1${path}`;
 

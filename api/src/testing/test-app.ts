@@ -235,3 +235,16 @@ export async function createCast(t: TestApp, spec: CastSpec): Promise<Cast> {
 export async function startCast(spec: CastSpec, overrides: Partial<AppConfig> = {}): Promise<Cast> {
   return createCast(await startTestApp(overrides), spec);
 }
+
+/** As a new coordinator `email`: evaluate a closed round, commit the evaluation and publish it. */
+export async function publishAsCoordinator(
+  t: TestApp,
+  roundId: string,
+  email: string,
+): Promise<void> {
+  await createUser(t.ds, { email, roles: ['coordinator'] });
+  const coord = await signedIn(t, email);
+  await send(coord, `/rounds/${roundId}/evaluation`, {}).expect(201);
+  await send(coord, `/rounds/${roundId}/evaluation/commit`, {}).expect(200);
+  await send(coord, `/rounds/${roundId}/publish`, {}).expect(200);
+}

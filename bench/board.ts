@@ -18,15 +18,7 @@ import { createUser } from '../api/src/testing/test-app';
 import { createTestDatabase } from '../db/testing';
 import { evaluateRecord } from '../shared/evaluation/evaluate';
 import { loadRoundInput } from '../api/src/services/evaluation';
-
-export interface BoardBenchRow {
-  name: string;
-  median_ms: number;
-  p95_ms: number;
-  runs: number;
-  target?: string;
-  extra?: string;
-}
+import { stopServer, type BenchRow } from './rows';
 
 const CLIENTS = 20;
 const PARTICIPANTS = 1000;
@@ -96,7 +88,7 @@ function stats(
   seconds: number,
   target?: string,
   extra?: string,
-): BoardBenchRow & { rps: number } {
+): BenchRow & { rps: number } {
   const t = [...l].sort((a, b) => a - b);
   const rank = (q: number) => t[Math.min(t.length - 1, Math.max(0, Math.ceil(q * t.length) - 1))]!;
   const r3 = (v: number) => Math.round(v * 1000) / 1000;
@@ -132,7 +124,7 @@ function startServer(url: string): Promise<{ child: ChildProcess; port: number }
   });
 }
 
-export async function benchBoard(): Promise<BoardBenchRow[]> {
+export async function benchBoard(): Promise<BenchRow[]> {
   const db = await createTestDatabase();
   let child: ChildProcess | undefined;
   try {
@@ -217,11 +209,7 @@ export async function benchBoard(): Promise<BoardBenchRow[]> {
     e.extra = undefined;
     return [e, h, b, l].map(({ rps: _rps, ...row }) => row);
   } finally {
-    if (child && child.exitCode === null) {
-      child.removeAllListeners('exit');
-      child.kill('SIGTERM');
-      await new Promise((r) => setTimeout(r, 300));
-    }
+    await stopServer(child);
     await db.drop();
   }
 }

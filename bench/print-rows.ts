@@ -1,14 +1,7 @@
-/** Runs one benchmark alone and prints its rows (the *-main.ts entry points); exits 1 on failure. */
-export interface PrintedRow {
-  name: string;
-  median_ms: number;
-  p95_ms: number;
-  runs: number;
-  target?: string;
-  extra?: string;
-}
+import type { BenchRow } from './rows';
 
-export function printRows(run: () => Promise<PrintedRow[]>): void {
+/** Runs one benchmark alone and prints its rows (the *-main.ts entry points); exits 1 on failure. */
+export function printRows(run: () => Promise<BenchRow[]>): void {
   void run().then(
     (rows) => {
       for (const r of rows)

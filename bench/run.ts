@@ -2,16 +2,8 @@
  * npm run bench: the speed goals of docs/QUALITY.md, measured on this machine (not timed tests).
  * Each area exports a function returning rows; this prints them as one table.
  */
+import type { BenchRow } from './rows';
 import { benchStats } from './stats';
-
-export interface BenchRow {
-  name: string;
-  median_ms: number;
-  p95_ms: number;
-  runs: number;
-  target?: string;
-  extra?: string;
-}
 
 // A bench may be synchronous (the offline command, engine growth) or async.
 type Load = () => BenchRow[] | Promise<BenchRow[]>;

@@ -17,15 +17,7 @@ import { cleanResults, createBenchRound, enrol } from '../api/src/testing/bench-
 import { buildEvaluationFixture } from '../api/src/testing/evaluation-fixtures';
 import { createUser, TEST_PASSWORD } from '../api/src/testing/test-app';
 import { createTestDatabase } from '../db/testing';
-
-export interface RuntimeBenchRow {
-  name: string;
-  median_ms: number;
-  p95_ms: number;
-  runs: number;
-  target?: string;
-  extra?: string;
-}
+import type { BenchRow } from './rows';
 
 const ROOT = join(__dirname, '..');
 /** The compiled server; RINGLET_BENCH_SERVER names another build (to compare two in one sitting). */
@@ -34,7 +26,7 @@ const STARTS = 5;
 const CLIENTS = 50;
 const LOAD_SECONDS = 20;
 
-function row(name: string, l: number[], target?: string, extra?: string): RuntimeBenchRow {
+function row(name: string, l: number[], target?: string, extra?: string): BenchRow {
   const t = [...l].sort((a, b) => a - b);
   const rank = (q: number) =>
     t.length ? t[Math.min(t.length - 1, Math.max(0, Math.ceil(q * t.length) - 1))]! : NaN;
@@ -115,7 +107,7 @@ async function stop(child: ChildProcess): Promise<void> {
 const signInFrom = (port: number, agent: http.Agent, email: string, address: string) =>
   signIn(port, agent, email, TEST_PASSWORD, { 'x-forwarded-for': address });
 
-export async function benchRuntime(): Promise<RuntimeBenchRow[]> {
+export async function benchRuntime(): Promise<BenchRow[]> {
   const build = spawnSync(process.execPath, [join(ROOT, 'scripts/server-build.mjs')], {
     cwd: ROOT,
     stdio: ['ignore', 'ignore', 'inherit'],

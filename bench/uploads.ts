@@ -20,15 +20,7 @@ import { ATTACHMENT_LIMIT, RESULTS_WORKBOOK_LIMIT } from '../shared/contracts/up
 import { createBenchRound, enrol } from '../api/src/testing/bench-fixtures';
 import { createLab, createUser } from '../api/src/testing/test-app';
 import { createTestDatabase } from '../db/testing';
-
-export interface UploadBenchRow {
-  name: string;
-  median_ms: number;
-  p95_ms: number;
-  runs: number;
-  target?: string;
-  extra?: string;
-}
+import { stopServer, type BenchRow } from './rows';
 
 const signInBench = (port: number, agent: http.Agent, email: string) =>
   signIn(port, agent, email, 'correct horse battery');
@@ -125,7 +117,7 @@ function rank(sorted: number[], q: number): number {
   return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil(q * sorted.length) - 1))] ?? NaN;
 }
 
-export async function benchUploads(): Promise<UploadBenchRow[]> {
+export async function benchUploads(): Promise<BenchRow[]> {
   const db = await createTestDatabase();
   let child: ChildProcess | undefined;
   try {
@@ -174,7 +166,7 @@ export async function benchUploads(): Promise<UploadBenchRow[]> {
     await new Promise((r) => setTimeout(r, 500));
     const idleRss = rssMb(pid);
 
-    const rows: UploadBenchRow[] = [];
+    const rows: BenchRow[] = [];
     const scenario = async (
       name: string,
       work: () => Promise<Answer[]>,
@@ -271,11 +263,7 @@ export async function benchUploads(): Promise<UploadBenchRow[]> {
     });
     return rows;
   } finally {
-    if (child && child.exitCode === null) {
-      child.removeAllListeners('exit');
-      child.kill('SIGTERM');
-      await new Promise((r) => setTimeout(r, 300));
-    }
+    await stopServer(child);
     await db.drop();
   }
 }

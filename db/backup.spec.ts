@@ -5,8 +5,7 @@ import request from 'supertest';
 import { createApp } from '../api/src/app';
 import { buildEvaluationFixture } from '../api/src/testing/evaluation-fixtures';
 import {
-  createUser,
-  signedIn,
+  publishAsCoordinator,
   startTestApp,
   testConfig,
   TEST_PASSWORD,
@@ -29,17 +28,7 @@ describe('backup and restore', () => {
     t = await startTestApp();
     const fx = await buildEvaluationFixture(t.ds, { participants: 7, seed: 7 });
     roundId = fx.round.id;
-    await createUser(t.ds, { email: 'coord@backup.test', roles: ['coordinator'] });
-    const coord = await signedIn(t, 'coord@backup.test');
-    const post = (p: string, status: number) =>
-      coord.agent
-        .post(`/api/v1/rounds/${roundId}${p}`)
-        .set('x-csrf-token', coord.csrf)
-        .send({})
-        .expect(status);
-    await post('/evaluation', 201);
-    await post('/evaluation/commit', 200);
-    await post('/publish', 200);
+    await publishAsCoordinator(t, roundId, 'coord@backup.test');
     const rows: { assigned_value: number; published_at: Date }[] = await t.ds.query(
       `SELECT r.assigned_value, e.published_at FROM evaluation e JOIN evaluation_result r ON r.evaluation_id = e.id
        WHERE e.round_id = $1 AND e.state = 'published' ORDER BY r.item_code, r.measurand_key`,

@@ -1,6 +1,6 @@
 import { Client as PgClient } from 'pg';
 import { buildEvaluationFixture } from '../api/src/testing/evaluation-fixtures';
-import { createUser, signedIn, startTestApp, type TestApp } from '../api/src/testing/test-app';
+import { publishAsCoordinator, startTestApp, type TestApp } from '../api/src/testing/test-app';
 import { databaseUrl, ownerDatabaseUrl, RUNTIME_ROLE } from './data-source';
 
 jest.setTimeout(120_000);
@@ -18,17 +18,7 @@ describe('database roles: the server cannot alter submitted or published results
     t = await startTestApp();
     const fx = await buildEvaluationFixture(t.ds, { participants: 6 });
     roundId = fx.round.id;
-    await createUser(t.ds, { email: 'coord@roles.test', roles: ['coordinator'] });
-    const coord = await signedIn(t, 'coord@roles.test');
-    const post = (p: string, status: number) =>
-      coord.agent
-        .post(`/api/v1/rounds/${roundId}${p}`)
-        .set('x-csrf-token', coord.csrf)
-        .send({})
-        .expect(status);
-    await post('/evaluation', 201);
-    await post('/evaluation/commit', 200);
-    await post('/publish', 200);
+    await publishAsCoordinator(t, roundId, 'coord@roles.test');
   });
   afterAll(() => t.close());
 

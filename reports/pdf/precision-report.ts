@@ -25,7 +25,6 @@ import { renderChartSvg } from '../charts/render';
 import type { ReportProviderInfo } from '../model';
 import { fixed, PALETTE } from '../text';
 import {
-  artifact,
   banner,
   createDoc,
   ensureSpace,
@@ -39,7 +38,7 @@ import {
   write,
   type Doc,
 } from './document';
-import { providerBlock } from './round-report';
+import { authoriserWords, coverFacts, coverHead } from './round-report';
 import { drawSvg } from './svg';
 
 export interface PrecisionReportInput {
@@ -106,30 +105,9 @@ function footer(input: PrecisionReportInput): string {
 
 function cover(doc: Doc, input: PrecisionReportInput): void {
   const a = input.analysis;
-  artifact(doc, () => doc.rect(0, 0, doc.page.width, 8).fillColor(PALETTE.ink, 1).fill());
-  doc.y = 50;
-  providerBlock(doc, input);
-  doc.y = Math.max(doc.y, 170);
-  write(doc, 'Precision study report', {
-    size: 24,
-    bold: true,
-    colour: PALETTE.ink,
-    gap: 8,
-    tag: 'H1',
-  });
-  write(doc, `Round ${a.round.code}: ${a.round.title}`, { size: 14, gap: 4 });
-  write(doc, `Scheme ${a.round.schemeCode}: ${input.schemeName}`, {
-    size: 11,
-    colour: PALETTE.grey,
-    gap: 14,
-  });
-  const p = input.provider;
-  wrapTable(
+  coverHead(doc, input, 'Precision study report', { ...a.round, schemeName: input.schemeName });
+  coverFacts(
     doc,
-    [
-      { title: 'Report', width: 130 },
-      { title: '', width: doc.page.width - 2 * MARGIN - 130 },
-    ],
     [
       ['Kind', 'Interlaboratory precision study (round robin) after ISO 5725-2'],
       ['Report status', statusWords(input)],
@@ -137,24 +115,14 @@ function cover(doc: Doc, input: PrecisionReportInput): void {
         'Results due',
         input.resultsDueAt ? `${input.resultsDueAt.slice(0, 16).replace('T', ' ')} UTC` : '—',
       ],
-      [
-        'Authorised by',
-        p.authoriserName
-          ? `${p.authoriserName}${p.authoriserRole ? `, ${p.authoriserRole}` : ''}`
-          : 'not named in the provider profile',
-      ],
+      ['Authorised by', authoriserWords(input.provider)],
       [
         'This file made',
         `${input.generatedAt.slice(0, 16).replace('T', ' ')} UTC with Ringlet ${input.softwareVersion}`,
       ],
     ],
-    9.5,
+    precisionChecksum(a),
   );
-  write(doc, `Record checksum (SHA-256): ${precisionChecksum(a)}`, {
-    size: 8,
-    colour: PALETTE.grey,
-    gap: 12,
-  });
   if (!input.finishedAt)
     banner(
       doc,

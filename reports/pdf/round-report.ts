@@ -135,19 +135,54 @@ export function providerBlock(doc: Doc, input: Pick<RoundReportInput, 'provider'
   );
 }
 
-export function cover(doc: Doc, input: RoundReportInput, kind: string, extra: string[] = []): void {
-  const { round, evaluation } = input;
+/** Who authorised the report, as the cover names them. */
+export function authoriserWords(p: RoundReportInput['provider']): string {
+  return p.authoriserName
+    ? `${p.authoriserName}${p.authoriserRole ? `, ${p.authoriserRole}` : ''}`
+    : 'not named in the provider profile';
+}
+
+/** The head of a cover page: the ink bar, the provider block, the title, the round and its scheme. */
+export function coverHead(
+  doc: Doc,
+  input: Pick<RoundReportInput, 'provider'>,
+  title: string,
+  round: { code: string; title: string; schemeCode: string; schemeName: string },
+): void {
   artifact(doc, () => doc.rect(0, 0, doc.page.width, 8).fillColor(PALETTE.ink, 1).fill());
   doc.y = 50;
   providerBlock(doc, input);
   doc.y = Math.max(doc.y, 170);
-  write(doc, kind, { size: 24, bold: true, colour: PALETTE.ink, gap: 8, tag: 'H1' });
+  write(doc, title, { size: 24, bold: true, colour: PALETTE.ink, gap: 8, tag: 'H1' });
   write(doc, `Round ${round.code}: ${round.title}`, { size: 14, gap: 4 });
   write(doc, `Scheme ${round.schemeCode}: ${round.schemeName}`, {
     size: 11,
     colour: PALETTE.grey,
     gap: 14,
   });
+}
+
+/** The cover's table of facts about the report, then the record checksum it was made from. */
+export function coverFacts(doc: Doc, rows: string[][], checksum: string): void {
+  wrapTable(
+    doc,
+    [
+      { title: 'Report', width: 130 },
+      { title: '', width: doc.page.width - 2 * MARGIN - 130 },
+    ],
+    rows,
+    9.5,
+  );
+  write(doc, `Record checksum (SHA-256): ${checksum}`, {
+    size: 8,
+    colour: PALETTE.grey,
+    gap: 12,
+  });
+}
+
+export function cover(doc: Doc, input: RoundReportInput, kind: string, extra: string[] = []): void {
+  const { round, evaluation } = input;
+  coverHead(doc, input, kind, round);
   for (const line of extra) write(doc, line, { size: 11, gap: 4 });
   doc.moveDown(0.6);
   const rows: string[][] = [
@@ -163,31 +198,13 @@ export function cover(doc: Doc, input: RoundReportInput, kind: string, extra: st
         : '—',
     ],
     ['Results due', dayTime(round.resultsDueAt)],
-    [
-      'Authorised by',
-      input.provider.authoriserName
-        ? `${input.provider.authoriserName}${input.provider.authoriserRole ? `, ${input.provider.authoriserRole}` : ''}`
-        : 'not named in the provider profile',
-    ],
+    ['Authorised by', authoriserWords(input.provider)],
     [
       'This file made',
       `${dayTime(input.generatedAt)} with Ringlet ${evaluation.softwareVersion}${evaluation.publishedAt && day(input.generatedAt) !== day(evaluation.publishedAt) ? ' (regenerated from the record of the issued version; contents as issued)' : ''}`,
     ],
   ];
-  wrapTable(
-    doc,
-    [
-      { title: 'Report', width: 130 },
-      { title: '', width: doc.page.width - 2 * MARGIN - 130 },
-    ],
-    rows,
-    9.5,
-  );
-  write(doc, `Record checksum (SHA-256): ${recordChecksum(input)}`, {
-    size: 8,
-    colour: PALETTE.grey,
-    gap: 12,
-  });
+  coverFacts(doc, rows, recordChecksum(input));
   const notice = reissueNotice(input);
   if (notice) banner(doc, notice);
   doc.moveDown(0.6);

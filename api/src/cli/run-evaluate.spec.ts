@@ -1,6 +1,5 @@
-import { execFile } from 'node:child_process';
+import { spawn, type ChildProcess } from 'node:child_process';
 import { join } from 'node:path';
-import { promisify } from 'node:util';
 import { algorithmA } from '../../../shared/stats/algorithm-a';
 import { precisionAnalysis } from '../../../shared/stats/precision';
 import type { PrecisionJson, PtJson } from './evaluation-output';
@@ -143,20 +142,51 @@ describe('evaluate command, bad input → exit code 2 with row and column named'
   });
 
   it('the real process exits with code 2 and prints the message (npx tsx)', async () => {
-    const run = promisify(execFile);
-    const root = join(__dirname, '..', '..', '..');
-    const err = await run('npx', ['tsx', 'api/src/cli/evaluate.ts', fx('bad-value.csv')], {
-      cwd: root,
-    }).then(
-      () => null,
-      (e: { code: number; stderr: string; stdout: string }) => e,
-    );
-    expect(err).not.toBeNull();
-    expect(err!.code).toBe(2);
-    expect(err!.stderr).toMatch(/row 3, column "value"/);
-    const ok = await run('npx', ['tsx', 'api/src/cli/evaluate.ts', fx('small-round.csv')], {
-      cwd: root,
-    });
+    const err = await npxTsxEvaluate([fx('bad-value.csv')]);
+    expect(err.code).toBe(2);
+    expect(err.stderr).toMatch(/row 3, column "value"/);
+    const ok = await npxTsxEvaluate([fx('small-round.csv')]);
+    expect(ok.code).toBe(0);
     expect((JSON.parse(ok.stdout) as PtJson).evaluations[0].n).toBe(6);
-  }, 30000);
+  });
 });
+
+/**
+ * Commands still running when a test ends. npx starts tsx, which starts node: each command runs in
+ * its own process group, and a test that ends early (a time-out) ends the whole group, so no
+ * process outlives the test file and keeps the jest worker from exiting.
+ */
+const running = new Set<ChildProcess>();
+afterEach(() => {
+  for (const child of running) {
+    try {
+      process.kill(-child.pid!, 'SIGKILL');
+    } catch {
+      // already gone
+    }
+  }
+  running.clear();
+});
+
+/** `npx tsx api/src/cli/evaluate.ts ARGS` from the repository root, as the README runs it. */
+function npxTsxEvaluate(
+  args: string[],
+): Promise<{ code: number | null; stdout: string; stderr: string }> {
+  return new Promise((resolve, reject) => {
+    const child = spawn('npx', ['tsx', 'api/src/cli/evaluate.ts', ...args], {
+      cwd: join(__dirname, '..', '..', '..'),
+      detached: true,
+      stdio: ['ignore', 'pipe', 'pipe'],
+    });
+    running.add(child);
+    let stdout = '';
+    let stderr = '';
+    child.stdout.on('data', (d: Buffer) => (stdout += d.toString()));
+    child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
+    child.on('error', reject);
+    child.on('close', (code) => {
+      running.delete(child);
+      resolve({ code, stdout, stderr });
+    });
+  });
+}

@@ -1,13 +1,5 @@
 import type { Role } from '../../../shared/contracts/auth';
-import {
-  client,
-  createLab,
-  createUser,
-  signedIn,
-  startTestApp,
-  type Client,
-  type TestApp,
-} from '../testing/test-app';
+import { client, startCast, type Client, type TestApp } from '../testing/test-app';
 
 /**
  * Walks every route the app declares: anonymous callers get 401 on everything that is not public,
@@ -17,14 +9,20 @@ describe('authorization of every route', () => {
   let t: TestApp;
   const clients = new Map<Role, Client>();
   beforeAll(async () => {
-    t = await startTestApp();
-    const lab = await createLab(t.ds, 'Walk Lab');
-    await createUser(t.ds, { email: 'admin@walk.test', roles: ['admin'] });
-    await createUser(t.ds, { email: 'coordinator@walk.test', roles: ['coordinator'] });
-    await createUser(t.ds, { email: 'assessor@walk.test', roles: ['assessor'] });
-    await createUser(t.ds, { email: 'lab@walk.test', lab: lab.id });
+    const cast = await startCast({
+      labs: ['Walk Lab'],
+      users: [
+        ...(['admin', 'coordinator', 'assessor'] as const).map((role) => ({
+          email: `${role}@walk.test`,
+          roles: [role],
+          signIn: true,
+        })),
+        { email: 'lab@walk.test', lab: 0, signIn: true },
+      ],
+    });
+    t = cast.t;
     for (const role of ['admin', 'coordinator', 'assessor', 'lab'] as const) {
-      clients.set(role, await signedIn(t, `${role}@walk.test`));
+      clients.set(role, cast.as(`${role}@walk.test`));
     }
   });
   afterAll(() => t.close());

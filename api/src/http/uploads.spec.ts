@@ -7,26 +7,11 @@ import {
   STUDY_FILE_LIMIT,
 } from '../../../shared/contracts/upload-limits';
 import { cleanResults, createBenchRound, enrol, type BenchRound } from '../testing/bench-fixtures';
-import {
-  createLab,
-  createUser,
-  signedIn,
-  startTestApp,
-  type Client,
-  type TestApp,
-} from '../testing/test-app';
+import { api, binary, send, startCast, type Client, type TestApp } from '../testing/test-app';
 import type { TextJobResult } from '../workers/file-jobs';
 import { closeUploadWorkers, runInWorker, UPLOAD_WORKER_LIMITS } from '../workers/pool';
 import { HttpError } from './errors';
 import { cleanFileName } from './uploads';
-
-/** supertest: collect a binary response body into a Buffer. */
-function binary(res: unknown, done: (err: Error | null, body: Buffer) => void): void {
-  const stream = res as NodeJS.ReadableStream;
-  const chunks: Buffer[] = [];
-  stream.on('data', (c: Buffer) => chunks.push(c));
-  stream.on('end', () => done(null, Buffer.concat(chunks)));
-}
 
 /** A hand-made multipart body, so broken forms can be sent exactly as a faulty client would. */
 function multipart(
@@ -59,15 +44,19 @@ describe('Uploads: one rule at the edge, limits before parsing, heavy work off t
   let coord: Client;
   let r: BenchRound;
   let labA: string;
-  const api = (p: string) => `/api/v1${p}`;
 
   beforeAll(async () => {
-    t = await startTestApp();
-    labA = (await createLab(t.ds, 'Alder Particle Lab')).id;
-    await createUser(t.ds, { email: 'a@up.test', lab: labA });
-    await createUser(t.ds, { email: 'coord@up.test', roles: ['coordinator'] });
-    a = await signedIn(t, 'a@up.test');
-    coord = await signedIn(t, 'coord@up.test');
+    const cast = await startCast({
+      labs: ['Alder Particle Lab'],
+      users: [
+        { email: 'a@up.test', lab: 0, signIn: true },
+        { email: 'coord@up.test', roles: ['coordinator'], signIn: true },
+      ],
+    });
+    ({ t } = cast);
+    labA = cast.labIds[0]!;
+    a = cast.as('a@up.test');
+    coord = cast.as('coord@up.test');
     r = await createBenchRound(t.ds, { code: 'UP-1' });
     await enrol(t.ds, r.round.id, labA, 'P-101');
   });
@@ -238,11 +227,12 @@ describe('Uploads: one rule at the edge, limits before parsing, heavy work off t
   describe('results workbook: limits checked before parsing, health answers meanwhile', () => {
     it('reads the largest allowed workbook while /health answers, and refuses one row too many with 413 naming the limit', async () => {
       const limit = RESULTS_WORKBOOK_LIMIT;
-      await a.agent
-        .put(api(`/rounds/${r.round.id}/submission`))
-        .set('x-csrf-token', a.csrf)
-        .send({ data: cleanResults(r), baseRevision: 0 })
-        .expect(200);
+      await send(
+        a,
+        `/rounds/${r.round.id}/submission`,
+        { data: cleanResults(r), baseRevision: 0 },
+        'put',
+      ).expect(200);
 
       // Largest allowed: the Results sheet filled to the row limit (rows without item and measurand
       // are skipped) and a notes sheet of random text, so the file is close to the byte limit.

@@ -2,20 +2,21 @@ import { AuditEvent, Membership, User } from '../../../db/entities';
 import { createBenchRound, enrol } from '../testing/bench-fixtures';
 import { buildEvaluationFixture } from '../testing/evaluation-fixtures';
 import {
+  api,
   client,
   createLab,
   createUser,
   linkToken,
   mailTo,
+  send,
   signedIn,
+  startCast,
   startTestApp,
   TEST_PASSWORD,
   type Client,
   type TestApp,
 } from '../testing/test-app';
 import { HSTS } from '../app';
-
-const api = (p: string) => `/api/v1${p}`;
 
 async function auditRows(t: TestApp, action: string): Promise<AuditEvent[]> {
   return t.ds.getRepository(AuditEvent).find({ where: { action }, order: { id: 'ASC' } });
@@ -28,42 +29,29 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
   let admin: Client;
   let boss: Client; // manager of lab A
   beforeAll(async () => {
-    t = await startTestApp();
-    labA = (await createLab(t.ds, 'Alder Particle Lab')).id;
-    labB = (await createLab(t.ds, 'Birch Sizing Lab')).id;
-    await createUser(t.ds, { email: 'admin@acc.test', name: 'Ada Admin', roles: ['admin'] });
-    await createUser(t.ds, { email: 'coord@acc.test', name: 'Cora Coord', roles: ['coordinator'] });
-    await createUser(t.ds, {
-      email: 'assessor@acc.test',
-      name: 'Asa Assessor',
-      roles: ['assessor'],
+    const cast = await startCast({
+      labs: ['Alder Particle Lab', 'Birch Sizing Lab'],
+      users: [
+        { email: 'admin@acc.test', name: 'Ada Admin', roles: ['admin'], signIn: true },
+        { email: 'coord@acc.test', name: 'Cora Coord', roles: ['coordinator'] },
+        { email: 'assessor@acc.test', name: 'Asa Assessor', roles: ['assessor'] },
+        { email: 'boss@acc.test', name: 'Bo Boss', lab: 0, manager: true, signIn: true },
+        { email: 'analyst@acc.test', name: 'Ann Analyst', lab: 0 },
+        { email: 'birch@acc.test', name: 'Bert Birch', lab: 1, manager: true },
+      ],
     });
-    await createUser(t.ds, { email: 'boss@acc.test', name: 'Bo Boss', lab: labA, manager: true });
-    await createUser(t.ds, { email: 'analyst@acc.test', name: 'Ann Analyst', lab: labA });
-    await createUser(t.ds, {
-      email: 'birch@acc.test',
-      name: 'Bert Birch',
-      lab: labB,
-      manager: true,
-    });
-    admin = await signedIn(t, 'admin@acc.test');
-    boss = await signedIn(t, 'boss@acc.test');
+    ({ t } = cast);
+    [labA, labB] = cast.labIds as [string, string];
+    admin = cast.as('admin@acc.test');
+    boss = cast.as('boss@acc.test');
   });
   afterAll(() => t.close());
 
   describe('Outbox', () => {
     it("shows a lab user only mail addressed to them, never the admin's reset link; the admin sees all", async () => {
       const anon = await client(t);
-      await anon.agent
-        .post(api('/auth/password-reset'))
-        .set('x-csrf-token', anon.csrf)
-        .send({ email: 'admin@acc.test' })
-        .expect(202);
-      await anon.agent
-        .post(api('/auth/password-reset'))
-        .set('x-csrf-token', anon.csrf)
-        .send({ email: 'analyst@acc.test' })
-        .expect(202);
+      await send(anon, '/auth/password-reset', { email: 'admin@acc.test' }).expect(202);
+      await send(anon, '/auth/password-reset', { email: 'analyst@acc.test' }).expect(202);
       const [adminMail] = await mailTo(t.ds, 'admin@acc.test');
       const [analystMail] = await mailTo(t.ds, 'analyst@acc.test');
       expect(adminMail).toBeDefined();
@@ -91,18 +79,16 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       const second = await signedIn(t, 'twice@acc.test');
       await first.agent.get(api('/auth/me')).expect(200); // cached for the second that follows
       await second.agent.get(api('/auth/me')).expect(200);
-      const wrong = await second.agent
-        .post(api('/auth/password/change'))
-        .set('x-csrf-token', second.csrf)
-        .send({ currentPassword: 'not the password', password: 'a fresh password here' })
-        .expect(422);
+      const wrong = await send(second, '/auth/password/change', {
+        currentPassword: 'not the password',
+        password: 'a fresh password here',
+      }).expect(422);
       expect(wrong.body.error.details[0].path).toBe('currentPassword');
       await first.agent.get(api('/auth/me')).expect(200); // a refused change ends nothing
-      await second.agent
-        .post(api('/auth/password/change'))
-        .set('x-csrf-token', second.csrf)
-        .send({ currentPassword: TEST_PASSWORD, password: 'a fresh password here' })
-        .expect(204);
+      await send(second, '/auth/password/change', {
+        currentPassword: TEST_PASSWORD,
+        password: 'a fresh password here',
+      }).expect(204);
       await first.agent.get(api('/auth/me')).expect(401);
       await second.agent.get(api('/auth/me')).expect(200);
       await signedIn(t, 'twice@acc.test', 'a fresh password here');
@@ -115,17 +101,9 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       const signedInElsewhere = await signedIn(t, 'reset@acc.test');
       await signedInElsewhere.agent.get(api('/auth/me')).expect(200);
       const anon = await client(t);
-      await anon.agent
-        .post(api('/auth/password-reset'))
-        .set('x-csrf-token', anon.csrf)
-        .send({ email: 'reset@acc.test' })
-        .expect(202);
+      await send(anon, '/auth/password-reset', { email: 'reset@acc.test' }).expect(202);
       const token = linkToken((await mailTo(t.ds, 'reset@acc.test'))[0]!.text);
-      await anon.agent
-        .post(api('/auth/password'))
-        .set('x-csrf-token', anon.csrf)
-        .send({ token, password: 'the reset password' })
-        .expect(204);
+      await send(anon, '/auth/password', { token, password: 'the reset password' }).expect(204);
       await signedInElsewhere.agent.get(api('/auth/me')).expect(401);
     });
   });
@@ -133,11 +111,7 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
   describe('lab membership needs consent', () => {
     it('refuses staff accounts (admin, coordinator, assessor) and changes nothing', async () => {
       for (const email of ['admin@acc.test', 'coord@acc.test', 'assessor@acc.test']) {
-        const res = await boss.agent
-          .post(api(`/labs/${labA}/members`))
-          .set('x-csrf-token', boss.csrf)
-          .send({ email, name: 'Staff' })
-          .expect(422);
+        const res = await send(boss, `/labs/${labA}/members`, { email, name: 'Staff' }).expect(422);
         expect(res.body.error.code).toBe('staff_account');
         expect(res.body.error.message).toMatch(/^email: /);
         const u = await t.ds.getRepository(User).findOneByOrFail({ email });
@@ -148,11 +122,10 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
     });
 
     it('a new address gets an account and the membership at once', async () => {
-      const res = await boss.agent
-        .post(api(`/labs/${labA}/members`))
-        .set('x-csrf-token', boss.csrf)
-        .send({ email: 'newbie@acc.test', name: 'Nina New' })
-        .expect(201);
+      const res = await send(boss, `/labs/${labA}/members`, {
+        email: 'newbie@acc.test',
+        name: 'Nina New',
+      }).expect(201);
       expect(res.body.outcome).toBe('member-added');
       expect(res.body.membership).toMatchObject({
         userEmail: 'newbie@acc.test',
@@ -164,11 +137,10 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
     });
 
     it('an existing account gets an invitation, and no membership until it accepts', async () => {
-      const res = await boss.agent
-        .post(api(`/labs/${labA}/members`))
-        .set('x-csrf-token', boss.csrf)
-        .send({ email: 'birch@acc.test', name: 'Bert' })
-        .expect(201);
+      const res = await send(boss, `/labs/${labA}/members`, {
+        email: 'birch@acc.test',
+        name: 'Bert',
+      }).expect(201);
       expect(res.body.outcome).toBe('invitation-sent');
       expect(res.body.membership).toBeNull();
       expect(res.body.invitation).toMatchObject({
@@ -234,11 +206,9 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
 
     it('a declined invitation leaves no membership; a withdrawn one cannot be accepted', async () => {
       await createUser(t.ds, { email: 'solo@acc.test', name: 'Sol Solo' });
-      await boss.agent
-        .post(api(`/labs/${labA}/members`))
-        .set('x-csrf-token', boss.csrf)
-        .send({ email: 'solo@acc.test', name: 'Sol' })
-        .expect(201);
+      await send(boss, `/labs/${labA}/members`, { email: 'solo@acc.test', name: 'Sol' }).expect(
+        201,
+      );
       const solo = await signedIn(t, 'solo@acc.test');
       const [inv] = (await solo.agent.get(api('/my/lab-invitations')).expect(200)).body;
       await solo.agent
@@ -247,11 +217,9 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
         .expect(204);
       expect((await solo.agent.get(api('/auth/me')).expect(200)).body.memberships).toEqual([]);
 
-      await boss.agent
-        .post(api(`/labs/${labA}/members`))
-        .set('x-csrf-token', boss.csrf)
-        .send({ email: 'solo@acc.test', name: 'Sol' })
-        .expect(201);
+      await send(boss, `/labs/${labA}/members`, { email: 'solo@acc.test', name: 'Sol' }).expect(
+        201,
+      );
       const [again] = (await solo.agent.get(api('/my/lab-invitations')).expect(200)).body;
       await boss.agent
         .delete(api(`/labs/${labA}/invitations/${again.id}`))
@@ -278,20 +246,12 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       const unchosen = await c.agent.get(api('/my/rounds')).expect(400);
       expect(unchosen.body.error.message).toMatch(/^labId: /);
 
-      await c.agent
-        .put(api('/auth/acting-lab'))
-        .set('x-csrf-token', c.csrf)
-        .send({ labId: labB })
-        .expect(200);
+      await send(c, '/auth/acting-lab', { labId: labB }, 'put').expect(200);
       let rounds = await c.agent.get(api('/my/rounds')).expect(200);
       expect(rounds.body.map((r: { code: string }) => r.code)).toEqual(['ACT-B']);
       expect((await c.agent.get(api('/auth/me')).expect(200)).body.actingLabId).toBe(labB);
 
-      await c.agent
-        .put(api('/auth/acting-lab'))
-        .set('x-csrf-token', c.csrf)
-        .send({ labId: labA })
-        .expect(200);
+      await send(c, '/auth/acting-lab', { labId: labA }, 'put').expect(200);
       rounds = await c.agent.get(api('/my/rounds')).expect(200);
       expect(rounds.body.map((r: { code: string }) => r.code)).toEqual(['ACT-A']);
       // an explicit labId still wins for the one request
@@ -300,16 +260,8 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
 
       // a lab that is not mine: 404, choice unchanged
       const other = (await createLab(t.ds, 'Cedar Lab')).id;
-      await c.agent
-        .put(api('/auth/acting-lab'))
-        .set('x-csrf-token', c.csrf)
-        .send({ labId: other })
-        .expect(404);
-      await c.agent
-        .put(api('/auth/acting-lab'))
-        .set('x-csrf-token', c.csrf)
-        .send({ labId: 'nope' })
-        .expect(400);
+      await send(c, '/auth/acting-lab', { labId: other }, 'put').expect(404);
+      await send(c, '/auth/acting-lab', { labId: 'nope' }, 'put').expect(400);
       expect((await c.agent.get(api('/auth/me')).expect(200)).body.actingLabId).toBe(labA);
 
       // the choice belongs to the session: another sign-in starts unchosen
@@ -323,17 +275,13 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       await createUser(t.ds, { email: 'target@acc.test' });
       const c = await client(t);
       for (let i = 0; i < 5; i++) {
-        await c.agent
-          .post(api('/auth/sign-in'))
-          .set('x-csrf-token', c.csrf)
-          .send({ email: 'target@acc.test', password: `wrong-${i}` })
-          .expect(401);
+        await send(c, '/auth/sign-in', { email: 'target@acc.test', password: `wrong-${i}` }).expect(
+          401,
+        );
       }
-      await c.agent
-        .post(api('/auth/sign-in'))
-        .set('x-csrf-token', c.csrf)
-        .send({ email: 'target@acc.test', password: TEST_PASSWORD })
-        .expect(429);
+      await send(c, '/auth/sign-in', { email: 'target@acc.test', password: TEST_PASSWORD }).expect(
+        429,
+      );
       const target = await t.ds.getRepository(User).findOneByOrFail({ email: 'target@acc.test' });
       const failed = (await auditRows(t, 'auth.sign-in-failed')).filter(
         (r) => r.subjectId === target.id,
@@ -352,11 +300,10 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
       expect(refused).toHaveLength(1);
 
       // an unknown address is audited by the address typed
-      await c.agent
-        .post(api('/auth/sign-in'))
-        .set('x-csrf-token', c.csrf)
-        .send({ email: 'ghost@acc.test', password: 'whatever-it-is' })
-        .expect(401);
+      await send(c, '/auth/sign-in', {
+        email: 'ghost@acc.test',
+        password: 'whatever-it-is',
+      }).expect(401);
       const ghost = (await auditRows(t, 'auth.sign-in-failed')).filter(
         (r) => (r.details as { email: string }).email === 'ghost@acc.test',
       );
@@ -367,15 +314,17 @@ describe('accounts: outbox, sessions, lab invitations, audit, grants', () => {
 
   describe('assessor grants', () => {
     it('answers alike for an unknown address, an assessor and a non-assessor account', async () => {
-      const send = (email: string) =>
-        boss.agent
-          .post(api(`/labs/${labA}/assessor-grants`))
-          .set('x-csrf-token', boss.csrf)
-          .send({ email, name: 'Given Name', startsOn: '2026-01-01', endsOn: null });
+      const grant = (email: string) =>
+        send(boss, `/labs/${labA}/assessor-grants`, {
+          email,
+          name: 'Given Name',
+          startsOn: '2026-01-01',
+          endsOn: null,
+        });
       const answers = [
-        await send('fresh-auditor@acc.test'),
-        await send('assessor@acc.test'),
-        await send('analyst@acc.test'),
+        await grant('fresh-auditor@acc.test'),
+        await grant('assessor@acc.test'),
+        await grant('analyst@acc.test'),
       ];
       const shape = (b: Record<string, unknown>) => {
         const { id: _id, assessorId: _a, createdAt: _c, assessorEmail: _e, ...rest } = b;
@@ -410,11 +359,7 @@ describe('coordinator reveal of lab names is audited', () => {
     const fx = await buildEvaluationFixture(t.ds, { participants: 12, seed: 11 });
     const coordUser = await createUser(t.ds, { email: 'coord@rev.test', roles: ['coordinator'] });
     const coord = await signedIn(t, 'coord@rev.test');
-    await coord.agent
-      .post(api(`/rounds/${fx.round.id}/evaluation`))
-      .set('x-csrf-token', coord.csrf)
-      .send({})
-      .expect(201);
+    await send(coord, `/rounds/${fx.round.id}/evaluation`, {}).expect(201);
     await coord.agent.get(api(`/rounds/${fx.round.id}/board`)).expect(200);
     expect(await auditRows(t, 'board.names-revealed')).toHaveLength(0);
     const named = await coord.agent

@@ -1,12 +1,11 @@
 import { AuditEvent, Membership, User } from '../../../db/entities';
 import {
   client,
-  createLab,
   createUser,
   linkToken,
   mailTo,
   signedIn,
-  startTestApp,
+  startCast,
   type Client,
   type TestApp,
 } from '../testing/test-app';
@@ -17,13 +16,17 @@ describe('admin: users, labs, memberships', () => {
   let labA: string;
   let labB: string;
   beforeAll(async () => {
-    t = await startTestApp();
-    labA = (await createLab(t.ds, 'Lab Alpha')).id;
-    labB = (await createLab(t.ds, 'Lab Beta')).id;
-    await createUser(t.ds, { email: 'root@x.test', roles: ['admin'] });
-    await createUser(t.ds, { email: 'boss@a.test', lab: labA, manager: true });
-    await createUser(t.ds, { email: 'analyst@a.test', lab: labA });
-    admin = await signedIn(t, 'root@x.test');
+    const cast = await startCast({
+      labs: ['Lab Alpha', 'Lab Beta'],
+      users: [
+        { email: 'root@x.test', roles: ['admin'], signIn: true },
+        { email: 'boss@a.test', lab: 0, manager: true },
+        { email: 'analyst@a.test', lab: 0 },
+      ],
+    });
+    ({ t } = cast);
+    [labA, labB] = cast.labIds as [string, string];
+    admin = cast.as('root@x.test');
   });
   afterAll(() => t.close());
 

@@ -1,11 +1,11 @@
 import { AuditEvent, User } from '../../../db/entities';
 import {
   client,
-  createLab,
   createUser,
   linkToken,
   mailTo,
   signedIn,
+  startCast,
   startTestApp,
   TEST_PASSWORD,
   type TestApp,
@@ -15,10 +15,15 @@ describe('auth routes', () => {
   let t: TestApp;
   let labId: string;
   beforeAll(async () => {
-    t = await startTestApp();
-    labId = (await createLab(t.ds, 'Test Lab One')).id;
-    await createUser(t.ds, { email: 'coord@x.test', name: 'Co Ord', roles: ['coordinator'] });
-    await createUser(t.ds, { email: 'member@x.test', name: 'Mem Ber', lab: labId, manager: true });
+    const cast = await startCast({
+      labs: ['Test Lab One'],
+      users: [
+        { email: 'coord@x.test', name: 'Co Ord', roles: ['coordinator'] },
+        { email: 'member@x.test', name: 'Mem Ber', lab: 0, manager: true },
+      ],
+    });
+    ({ t } = cast);
+    labId = cast.labIds[0]!;
   });
   afterAll(() => t.close());
 

@@ -16,10 +16,12 @@ import {
   type BenchRound,
 } from '../testing/bench-fixtures';
 import {
+  api,
+  binary,
   createLab,
-  createUser,
+  send,
   signedIn,
-  startTestApp,
+  startCast,
   type Client,
   type TestApp,
 } from '../testing/test-app';
@@ -37,14 +39,6 @@ function correlationCsv(diameterNm: number, temperatureC = 25): string {
   return lines.join('\n');
 }
 
-/** supertest: collect a binary response body into a Buffer. */
-function binary(res: unknown, done: (err: Error | null, body: Buffer) => void): void {
-  const stream = res as NodeJS.ReadableStream;
-  const chunks: Buffer[] = [];
-  stream.on('data', (c: Buffer) => chunks.push(c));
-  stream.on('end', () => done(null, Buffer.concat(chunks)));
-}
-
 describe('Lab bench API', () => {
   let t: TestApp;
   let labA: string;
@@ -55,36 +49,31 @@ describe('Lab bench API', () => {
   let coord: Client;
   let r: BenchRound;
 
-  const api = (p: string) => `/api/v1${p}`;
-  const put = (c: Client, p: string, body: unknown) =>
-    c.agent
-      .put(api(p))
-      .set('x-csrf-token', c.csrf)
-      .send(body as object);
-  const post = (c: Client, p: string, body: unknown) =>
-    c.agent
-      .post(api(p))
-      .set('x-csrf-token', c.csrf)
-      .send(body as object);
+  const put = (c: Client, p: string, body: unknown) => send(c, p, body, 'put');
+  const post = (c: Client, p: string, body: unknown) => send(c, p, body);
   const submit = (c: Client, roundId: string, body: Record<string, unknown>) =>
     post(c, `/rounds/${roundId}/submission/submit`, { idempotencyKey: randomUUID(), ...body });
 
   beforeAll(async () => {
-    t = await startTestApp();
-    labA = (await createLab(t.ds, 'Alder Particle Lab')).id;
-    labB = (await createLab(t.ds, 'Birch Colloid Lab')).id;
-    await createUser(t.ds, { email: 'a@bench.test', name: 'Ann Alder', lab: labA });
-    await createUser(t.ds, { email: 'b@bench.test', name: 'Ben Birch', lab: labB });
-    const m = await createUser(t.ds, { email: 'multi@bench.test', name: 'Mo Multi', lab: labA });
+    const cast = await startCast({
+      labs: ['Alder Particle Lab', 'Birch Colloid Lab'],
+      users: [
+        { email: 'a@bench.test', name: 'Ann Alder', lab: 0, signIn: true },
+        { email: 'b@bench.test', name: 'Ben Birch', lab: 1, signIn: true },
+        { email: 'multi@bench.test', name: 'Mo Multi', lab: 0 },
+        { email: 'coord@bench.test', roles: ['coordinator'], signIn: true },
+      ],
+    });
+    ({ t } = cast);
+    [labA, labB] = cast.labIds as [string, string];
     await t.ds.query(
       `INSERT INTO membership (user_id, organisation_id, is_manager) VALUES ($1, $2, false)`,
-      [m.id, labB],
+      [cast.users[2]!.id, labB],
     );
-    await createUser(t.ds, { email: 'coord@bench.test', roles: ['coordinator'] });
-    a = await signedIn(t, 'a@bench.test');
-    b = await signedIn(t, 'b@bench.test');
+    a = cast.as('a@bench.test');
+    b = cast.as('b@bench.test');
     multi = await signedIn(t, 'multi@bench.test');
-    coord = await signedIn(t, 'coord@bench.test');
+    coord = cast.as('coord@bench.test');
     r = await createBenchRound(t.ds, { code: 'LB-MAIN' });
     await enrol(t.ds, r.round.id, labA, 'P-017');
     await enrol(t.ds, r.round.id, labB, 'P-042');

@@ -3,9 +3,12 @@ import { writePrecisionStudy, type WrittenPrecisionStudy } from '../../../db/see
 import type { PrecisionAnalysis } from '../../../shared/contracts/precision';
 import nistAnova from '../../../shared/stats/fixtures/precision-nist-anova.json';
 import {
+  api,
   createLab,
   createUser,
+  send,
   signedIn,
+  startCast,
   startTestApp,
   type Client,
   type TestApp,
@@ -22,18 +25,18 @@ describe('precision studies', () => {
   let schemeId: string;
   let labIds: string[];
   let studies = 0;
-  const api = (p: string) => `/api/v1${p}`;
 
   beforeAll(async () => {
-    t = await startTestApp();
+    const cast = await startCast({
+      labs: Array.from({ length: 8 }, (_, i) => `Study lab ${i + 1}`),
+      users: [{ email: 'coord@rr.test', roles: ['coordinator'], signIn: true }],
+    });
+    ({ t, labIds } = cast);
     const scheme = await t.ds
       .getRepository(Scheme)
       .save({ code: 'RR-SCHEME', name: 'Round robins (test)' });
     schemeId = scheme.id;
-    labIds = [];
-    for (let i = 0; i < 8; i++) labIds.push((await createLab(t.ds, `Study lab ${i + 1}`)).id);
-    await createUser(t.ds, { email: 'coord@rr.test', roles: ['coordinator'] });
-    coord = await signedIn(t, 'coord@rr.test');
+    coord = cast.as('coord@rr.test');
   });
   afterAll(() => t.close());
 
@@ -62,10 +65,7 @@ describe('precision studies', () => {
   const get = async (id: string): Promise<PrecisionAnalysis> =>
     (await coord.agent.get(api(`/rounds/${id}/precision`)).expect(200)).body;
   const decide = (id: string, body: object) =>
-    coord.agent
-      .post(api(`/rounds/${id}/precision/exclusions`))
-      .set('x-csrf-token', coord.csrf)
-      .send(body);
+    send(coord, `/rounds/${id}/precision/exclusions`, body);
 
   it('NIST StRD SiRstv as 5 labs × 5 replicates: s_r = certified residual SD 1.04076068334656E-01', async () => {
     // Source: NIST Statistical Reference Datasets, ANOVA, SiRstv (shared/stats/fixtures/precision-nist-anova.json).
@@ -206,12 +206,14 @@ describe('precision studies', () => {
     // a later PT round of the scheme takes σ_R from the study, named by id and code
     const pt = await study([[100.1, 100.2]], { kind: 'pt', state: 'draft' });
     const patch = (study: object) =>
-      coord.agent
-        .patch(api(`/rounds/${pt.round.id}/measurands/${pt.measurand.id}`))
-        .set('x-csrf-token', coord.csrf)
-        .send({
+      send(
+        coord,
+        `/rounds/${pt.round.id}/measurands/${pt.measurand.id}`,
+        {
           sigmaPtRule: { kind: 'precision', sigmaR: mine.measurands[0].levels[0].sR, study },
-        });
+        },
+        'patch',
+      );
     await patch({ roundId: s.round.id, roundCode: s.round.code }).expect(200);
     const wrong = await patch({ roundId: s.round.id, roundCode: 'RR-OTHER' }).expect(422);
     expect(wrong.body.error.code).toBe('sigma_source_invalid');
@@ -337,11 +339,12 @@ describe('precision studies', () => {
       const res = await decide(s.round.id, { decisions: [decision] }).expect(400);
       expect(JSON.stringify(res.body)).toContain(path);
     }
-    const ref = await coord.agent
-      .put(api(`/rounds/${s.round.id}/precision/references`))
-      .set('x-csrf-token', coord.csrf)
-      .send({ references: [{ itemCode: 'A', measurandKey: 'x', value: 1e300, source: 'x' }] })
-      .expect(400);
+    const ref = await send(
+      coord,
+      `/rounds/${s.round.id}/precision/references`,
+      { references: [{ itemCode: 'A', measurandKey: 'x', value: 1e300, source: 'x' }] },
+      'put',
+    ).expect(400);
     expect(JSON.stringify(ref.body)).toContain('references.0.value');
     expect(
       await t.ds.getRepository(PrecisionExclusion).count({ where: { roundId: s.round.id } }),
@@ -355,15 +358,16 @@ describe('precision studies', () => {
       [10.0, 10.2],
       [10.3, 10.2],
     ]);
-    const res = await coord.agent
-      .put(api(`/rounds/${s.round.id}/precision/references`))
-      .set('x-csrf-token', coord.csrf)
-      .send({
+    const res = await send(
+      coord,
+      `/rounds/${s.round.id}/precision/references`,
+      {
         references: [
           { itemCode: 'A', measurandKey: 'x', value: 10.0, u: null, source: 'Certificate' },
         ],
-      })
-      .expect(200);
+      },
+      'put',
+    ).expect(200);
     const lv = (res.body as PrecisionAnalysis).measurands[0]!.levels[0]!;
     expect(lv.bias!.bias).toBeCloseTo(lv.mean! - 10.0, 12);
     expect(lv.bias!.significant).toBe(true);
@@ -400,11 +404,7 @@ describe('precision studies', () => {
       [1.2, 1.0],
       [1.1, 1.3],
     ]);
-    const r2 = await coord.agent
-      .post(api(`/rounds/${rr.round.id}/evaluation`))
-      .set('x-csrf-token', coord.csrf)
-      .send({})
-      .expect(422);
+    const r2 = await send(coord, `/rounds/${rr.round.id}/evaluation`, {}).expect(422);
     expect(r2.body.error.code).toBe('precision_study_no_scores');
     await coord.agent
       .get(api(`/rounds/00000000-0000-4000-8000-000000000000/precision`))

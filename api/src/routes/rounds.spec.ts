@@ -17,12 +17,11 @@ import { CODE_ALPHABET, freshParticipantCode, randomParticipantCode } from '../s
 import { assertPublishable, transitionRound } from '../services/round-lifecycle';
 import {
   client,
-  createLab,
-  createUser,
   linkToken,
   mailTo,
+  send,
   signedIn,
-  startTestApp,
+  startCast,
   type Client,
   type TestApp,
 } from '../testing/test-app';
@@ -36,13 +35,17 @@ describe('Round desk API', () => {
   let labB: string;
   let schemeId: string;
   beforeAll(async () => {
-    t = await startTestApp();
-    labA = (await createLab(t.ds, 'Lab Alpha')).id;
-    labB = (await createLab(t.ds, 'Lab Beta')).id;
-    await createUser(t.ds, { email: 'coord@x.test', name: 'Cora Ordin', roles: ['coordinator'] });
-    await createUser(t.ds, { email: 'alice@a.test', lab: labA, manager: true });
-    await createUser(t.ds, { email: 'bob@b.test', lab: labB });
-    coord = await signedIn(t, 'coord@x.test');
+    const cast = await startCast({
+      labs: ['Lab Alpha', 'Lab Beta'],
+      users: [
+        { email: 'coord@x.test', name: 'Cora Ordin', roles: ['coordinator'], signIn: true },
+        { email: 'alice@a.test', lab: 0, manager: true },
+        { email: 'bob@b.test', lab: 1 },
+      ],
+    });
+    ({ t } = cast);
+    [labA, labB] = cast.labIds as [string, string];
+    coord = cast.as('coord@x.test');
     const s = await post(coord, '/schemes', {
       code: 'NANO-DLS',
       name: 'Nanoparticle sizing by DLS',
@@ -52,11 +55,7 @@ describe('Round desk API', () => {
   });
   afterAll(() => t.close());
 
-  const post = (c: Client, path: string, body: unknown) =>
-    c.agent
-      .post(`/api/v1${path}`)
-      .set('x-csrf-token', c.csrf)
-      .send(body as object);
+  const post = (c: Client, path: string, body: unknown) => send(c, path, body);
 
   /** A round in draft with two items; returns its id. */
   async function newRound(code: string, extra: Record<string, unknown> = {}): Promise<string> {

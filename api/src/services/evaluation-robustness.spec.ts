@@ -11,15 +11,14 @@ import {
 } from '../testing/bench-fixtures';
 import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evaluation-fixtures';
 import {
-  createLab,
+  api,
   createUser,
+  send,
   signedIn,
-  startTestApp,
+  startCast,
   type Client,
   type TestApp,
 } from '../testing/test-app';
-
-const api = (p: string) => `/api/v1${p}`;
 
 /**
  * Absurd numbers and duplicates: refused at submit with a 400 naming the field; stored data that
@@ -33,27 +32,27 @@ describe('absurd values and duplicates', () => {
   let fx: EvaluationFixture;
 
   beforeAll(async () => {
-    t = await startTestApp();
-    const org = await createLab(t.ds, 'Range Lab');
-    await createUser(t.ds, { email: 'lab@range.test', lab: org.id, manager: true });
-    await createUser(t.ds, { email: 'coord@range.test', roles: ['coordinator'] });
-    lab = await signedIn(t, 'lab@range.test');
-    coord = await signedIn(t, 'coord@range.test');
+    const cast = await startCast({
+      labs: ['Range Lab'],
+      users: [
+        { email: 'lab@range.test', lab: 0, manager: true, signIn: true },
+        { email: 'coord@range.test', roles: ['coordinator'], signIn: true },
+      ],
+    });
+    t = cast.t;
+    lab = cast.as('lab@range.test');
+    coord = cast.as('coord@range.test');
     r = await createBenchRound(t.ds);
-    await enrol(t.ds, r.round.id, org.id, 'P01');
-    await lab.agent
-      .post(api('/my/instrument-checks'))
-      .set('x-csrf-token', lab.csrf)
-      .send(passingCheck())
-      .expect(201);
+    await enrol(t.ds, r.round.id, cast.labIds[0]!, 'P01');
+    await send(lab, '/my/instrument-checks', passingCheck()).expect(201);
   });
   afterAll(() => t.close());
 
   async function submit(data: unknown) {
-    return lab.agent
-      .post(api(`/rounds/${r.round.id}/submission/submit`))
-      .set('x-csrf-token', lab.csrf)
-      .send({ idempotencyKey: `key-${Math.random().toString(36).slice(2)}`, data });
+    return send(lab, `/rounds/${r.round.id}/submission/submit`, {
+      idempotencyKey: `key-${Math.random().toString(36).slice(2)}`,
+      data,
+    });
   }
   const versions = async () => await t.ds.getRepository(SubmissionVersion).count();
 
@@ -200,10 +199,7 @@ describe('absurd values and duplicates', () => {
         `UPDATE measurand SET sigma_pt_rule = '{"kind":"fixed","value":1e-320}' WHERE id = $1`,
         [pdi!.id],
       );
-      const res = await coord.agent
-        .post(api(`/rounds/${fx.round.id}/evaluation`))
-        .set('x-csrf-token', coord.csrf)
-        .send({});
+      const res = await send(coord, `/rounds/${fx.round.id}/evaluation`, {});
       expect(res.status).toBe(201);
       ev = res.body;
     });
@@ -256,16 +252,8 @@ describe('absurd values and duplicates', () => {
 
     it('commits, publishes and shows each lab its scores with the reason', async () => {
       await coord.agent.get(api(`/rounds/${fx.round.id}/evaluation`)).expect(200);
-      await coord.agent
-        .post(api(`/rounds/${fx.round.id}/evaluation/commit`))
-        .set('x-csrf-token', coord.csrf)
-        .send({})
-        .expect(200);
-      await coord.agent
-        .post(api(`/rounds/${fx.round.id}/publish`))
-        .set('x-csrf-token', coord.csrf)
-        .send({})
-        .expect(200);
+      await send(coord, `/rounds/${fx.round.id}/evaluation/commit`, {}).expect(200);
+      await send(coord, `/rounds/${fx.round.id}/publish`, {}).expect(200);
       const board = await coord.agent.get(api(`/rounds/${fx.round.id}/board`)).expect(200);
       const gi = (board.body.groups as { itemCode: string; measurandKey: string }[]).findIndex(
         (g) => g.itemCode === 'B' && g.measurandKey === 'z_average',

@@ -163,3 +163,88 @@ export function linkToken(text: string): string {
   if (!m) throw new Error(`no password link in: ${text}`);
   return m[1]!;
 }
+
+/** supertest: collect a binary response body into a Buffer (`.buffer(true).parse(binary)`). */
+export function binary(res: unknown, done: (err: Error | null, body: Buffer) => void): void {
+  const stream = res as NodeJS.ReadableStream;
+  const chunks: Buffer[] = [];
+  stream.on('data', (c: Buffer) => chunks.push(c));
+  stream.on('end', () => done(null, Buffer.concat(chunks)));
+}
+
+/** Every API path starts here. */
+export const api = (path: string): string => `/api/v1${path}`;
+
+/** A JSON request under /api/v1 with the client's CSRF token (POST unless told). */
+export function send(
+  c: Client,
+  path: string,
+  body: unknown,
+  method: 'post' | 'put' | 'patch' | 'delete' = 'post',
+): ReturnType<Client['agent']['post']> {
+  return c.agent[method](api(path))
+    .set('x-csrf-token', c.csrf)
+    .send(body as object);
+}
+
+/** A user of a spec's cast: `lab` is an index into the cast's labs; `signIn` gives a client. */
+export interface CastMember extends Omit<TestUserSpec, 'lab'> {
+  lab?: number;
+  signIn?: boolean;
+}
+
+/** The people a spec works with: labs, then users (in order), then the sign-ins. */
+export interface CastSpec {
+  labs?: string[];
+  users?: CastMember[];
+}
+
+export interface Cast {
+  t: TestApp;
+  /** The ids of `labs`, in order. */
+  labIds: string[];
+  /** The users, in the order of `users`. */
+  users: User[];
+  /** The signed-in client of a user marked `signIn` (throws for anyone else). */
+  as(email: string): Client;
+}
+
+/** Creates a spec's labs and users on `t` and signs in those marked `signIn`. */
+export async function createCast(t: TestApp, spec: CastSpec): Promise<Cast> {
+  const labIds: string[] = [];
+  for (const name of spec.labs ?? []) labIds.push((await createLab(t.ds, name)).id);
+  const users: User[] = [];
+  for (const { lab, signIn: _signIn, ...u } of spec.users ?? []) {
+    users.push(await createUser(t.ds, { ...u, lab: lab === undefined ? undefined : labIds[lab] }));
+  }
+  const clients = new Map<string, Client>();
+  for (const u of spec.users ?? []) if (u.signIn) clients.set(u.email, await signedIn(t, u.email));
+  return {
+    t,
+    labIds,
+    users,
+    as(email) {
+      const c = clients.get(email);
+      if (!c) throw new Error(`${email} is not signed in in this cast`);
+      return c;
+    },
+  };
+}
+
+/** The real app on a fresh database with a spec's cast (see createCast). */
+export async function startCast(spec: CastSpec, overrides: Partial<AppConfig> = {}): Promise<Cast> {
+  return createCast(await startTestApp(overrides), spec);
+}
+
+/** As a new coordinator `email`: evaluate a closed round, commit the evaluation and publish it. */
+export async function publishAsCoordinator(
+  t: TestApp,
+  roundId: string,
+  email: string,
+): Promise<void> {
+  await createUser(t.ds, { email, roles: ['coordinator'] });
+  const coord = await signedIn(t, email);
+  await send(coord, `/rounds/${roundId}/evaluation`, {}).expect(201);
+  await send(coord, `/rounds/${roundId}/evaluation/commit`, {}).expect(200);
+  await send(coord, `/rounds/${roundId}/publish`, {}).expect(200);
+}

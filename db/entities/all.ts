@@ -1,0 +1,37 @@
+// The one list of entities: one line an entity, re-exported by the index (`db/entities`), which
+// also registers every class named here with the DataSource. Append new ones at the end.
+export { Organisation } from './organisation';
+export { User } from './user';
+export { Membership } from './membership';
+export { PasswordToken } from './password-token';
+export { AuditEvent } from './audit-event';
+export { MailMessage } from './mail-message';
+export { Scheme } from './scheme';
+export { Round } from './round';
+export { RoundTransition } from './round-transition';
+export { TestItem } from './test-item';
+export { Measurand } from './measurand';
+export { Enrolment } from './enrolment';
+export { Invitation } from './invitation';
+export { Shipment } from './shipment';
+export { Submission } from './submission';
+export { SubmissionVersion } from './submission-version';
+export { HomogeneityStudy } from './homogeneity-study';
+export { ReminderLog } from './reminder-log';
+export { InstrumentCheck } from './instrument-check';
+export { Attachment } from './attachment';
+export { Evaluation } from './evaluation';
+export { EvaluationResult } from './evaluation-result';
+export { Investigation } from './investigation';
+export { AssessorGrant } from './assessor-grant';
+export { Report } from './report';
+export { ProviderProfile } from './provider-profile';
+export { PrecisionReference } from './precision-reference';
+export { PrecisionExclusion } from './precision-exclusion';
+export { BillingDetails } from './billing-details';
+export { BillingCounter } from './billing-counter';
+export { Invoice } from './invoice';
+export { CreditNote } from './credit-note';
+export { PaymentEvent } from './payment-event';
+export { RoundBilling } from './round-billing';
+export { LabInvitation } from './lab-invitation';

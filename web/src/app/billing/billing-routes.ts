@@ -15,7 +15,7 @@ export const BILLING_ROUTES: Routes = [
     path: '',
     title: 'Invoices · Ringlet',
     canActivate: [hasRole('lab')],
-    loadComponent: () => import('./my-invoices').then((m) => m.MyInvoices),
+    loadComponent: () => import('./my-invoices/my-invoices').then((m) => m.MyInvoices),
   },
   {
     path: 'rounds/:id/ledger',

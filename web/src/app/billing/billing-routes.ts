@@ -21,6 +21,6 @@ export const BILLING_ROUTES: Routes = [
     path: 'rounds/:id/ledger',
     title: 'Fees ledger · Ringlet',
     canActivate: [hasRole('coordinator')],
-    loadComponent: () => import('./fees-ledger').then((m) => m.FeesLedger),
+    loadComponent: () => import('./fees-ledger/fees-ledger').then((m) => m.FeesLedger),
   },
 ];

@@ -13,7 +13,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { BillingDetailsInput } from '@ringlet/shared/contracts/billing';
 import { problemMessage } from '../../core/problem';
-import { applyZodIssues, errorMessage } from '../../core/zod-form-errors';
+import { errorMessage, parseForm } from '../../core/zod-form-errors';
 import { BillingService } from '../billing-service';
 
 /** The lab manager's billing details, printed on the lab's invoices. */
@@ -52,13 +52,10 @@ export class BillingDetails implements OnInit {
   }
 
   protected saveDetails(): void {
-    const parsed = BillingDetailsInput.safeParse(this.form.getRawValue());
-    if (!parsed.success) {
-      applyZodIssues(this.form, parsed.error.issues);
-      return;
-    }
+    const { value } = parseForm(this.form, BillingDetailsInput);
+    if (!value) return;
     this.busy.set(true);
-    this.api.saveDetails(parsed.data).subscribe({
+    this.api.saveDetails(value).subscribe({
       next: () => {
         this.busy.set(false);
         this.snack.open('Billing details saved.', 'Close', { duration: 4000 });

@@ -5,8 +5,8 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { ProviderProfileInput, type ProviderProfile } from '@ringlet/shared/contracts/provider';
 import { problemMessage } from '../../core/problem';
-import { applyZodIssues, errorMessage } from '../../core/zod-form-errors';
-import { formRefusal } from '../../shared/form-refusal';
+import { errorMessage } from '../../core/zod-form-errors';
+import { checkFormValue, formRefusal } from '../../shared/form-refusal';
 import { ProviderLogo } from '../provider-logo/provider-logo';
 import { ProviderService } from '../provider-service';
 import { FIELDS, formValueOf, profileInputOf } from './profile-form';
@@ -56,15 +56,14 @@ export class ProviderProfilePage implements OnInit {
   protected save(): void {
     this.failure.set(null);
     this.saved.set(false);
-    const parsed = ProviderProfileInput.safeParse(profileInputOf(this.form.getRawValue()));
-    if (!parsed.success) {
-      this.form.markAllAsTouched();
-      const unplaced = applyZodIssues(this.form, parsed.error.issues);
-      if (unplaced.length) this.failure.set(unplaced.join(' '));
-      return;
-    }
+    const { value, failure } = checkFormValue(
+      this.form,
+      ProviderProfileInput,
+      profileInputOf(this.form.getRawValue()),
+    );
+    if (!value) return this.failure.set(failure);
     this.busy.set(true);
-    this.service.save(parsed.data).subscribe({
+    this.service.save(value).subscribe({
       next: (p) => {
         this.busy.set(false);
         this.saved.set(true);

@@ -1,22 +1,7 @@
-import type { ProviderProfile } from '@ringlet/shared/contracts/provider';
+import { PROFILE } from './profile-fixture';
 import { FIELDS, formValueOf, profileInputOf } from './profile-form';
 
-const profile = {
-  name: 'Ringlet PT',
-  address: 'Street 1\nTown',
-  contactEmail: 'pt@example.org',
-  contactPhone: '',
-  website: '',
-  accreditationBody: '',
-  accreditationNumber: '',
-  authoriserName: 'A. Person',
-  authoriserRole: 'Technical manager',
-  subcontracting: 'None.',
-  taxRateBp: 2000,
-  hasLogo: false,
-  logoType: null,
-  updatedAt: '2026-03-02T10:00:00Z',
-} satisfies ProviderProfile;
+const profile = PROFILE;
 
 describe('the provider profile form', () => {
   it('shows every text field of the profile, and the tax rate in percent', () => {

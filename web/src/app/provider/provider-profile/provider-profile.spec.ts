@@ -5,27 +5,12 @@ import { MatButtonHarness } from '@angular/material/button/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatInputHarness } from '@angular/material/input/testing';
-import type { ProviderProfile } from '@ringlet/shared/contracts/provider';
 import { of, throwError } from 'rxjs';
 import { ProviderService } from '../provider-service';
+import { PROFILE } from './profile-fixture';
 import { ProviderProfilePage } from './provider-profile';
 
-const profile: ProviderProfile = {
-  name: 'Ringlet PT',
-  address: '',
-  contactEmail: '',
-  contactPhone: '',
-  website: '',
-  accreditationBody: '',
-  accreditationNumber: '',
-  authoriserName: '',
-  authoriserRole: '',
-  subcontracting: '',
-  taxRateBp: 2000,
-  hasLogo: false,
-  logoType: null,
-  updatedAt: '2026-03-02T10:00:00Z',
-};
+const profile = PROFILE;
 
 async function setup(save: jest.Mock) {
   TestBed.configureTestingModule({

@@ -15,12 +15,12 @@ export const BILLING_ROUTES: Routes = [
     path: '',
     title: 'Invoices · Ringlet',
     canActivate: [hasRole('lab')],
-    loadComponent: () => import('./my-invoices').then((m) => m.MyInvoices),
+    loadComponent: () => import('./my-invoices/my-invoices').then((m) => m.MyInvoices),
   },
   {
     path: 'rounds/:id/ledger',
     title: 'Fees ledger · Ringlet',
     canActivate: [hasRole('coordinator')],
-    loadComponent: () => import('./fees-ledger').then((m) => m.FeesLedger),
+    loadComponent: () => import('./fees-ledger/fees-ledger').then((m) => m.FeesLedger),
   },
 ];

@@ -14,6 +14,7 @@ export const PROVIDER_ROUTES: Routes = [
     path: '',
     title: 'PT provider · Ringlet',
     canActivate: [providerEditorGuard],
-    loadComponent: () => import('./provider-profile').then((m) => m.ProviderProfilePage),
+    loadComponent: () =>
+      import('./provider-profile/provider-profile').then((m) => m.ProviderProfilePage),
   },
 ];

@@ -15,13 +15,8 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import { MatSelectModule } from '@angular/material/select';
 import { RouterLink } from '@angular/router';
-import {
-  checkResults,
-  instrumentCheckNotice,
-  type CheckOutcome,
-} from '@ringlet/shared/bench/submission-checks';
+import { checkResults, type CheckOutcome } from '@ringlet/shared/bench/submission-checks';
 import {
   type InstrumentCheck,
   type MyRoundDetail,
@@ -32,23 +27,14 @@ import { BenchReceipt } from '../bench-receipt/bench-receipt';
 import { InstrumentCheckCard } from '../instrument-check/instrument-check';
 import { HandlingCard } from '../handling-card/handling-card';
 import { RawFiles } from '../raw-files/raw-files';
+import { ResultsEntry } from '../results-entry/results-entry';
 import { SubmittedVersions } from '../submitted-versions/submitted-versions';
 import { problemMessage, problemOf } from '../../core/problem';
 import { DraftAutosave, SAVE_STATE_LABELS } from '../autosave';
 import { BenchService } from '../bench-service';
-import {
-  CONDITION_FIELDS,
-  buildResultsForm,
-  resultsFromForm,
-  type ResultsForm,
-} from '../results-form';
+import { buildResultsForm, resultsFromForm, type ResultsForm } from '../results-form';
 import { STATUS_LABELS } from '../lab-bench';
-
-const UNCERTAINTY_KINDS = [
-  { value: 'none', label: 'None given' },
-  { value: 'standard', label: 'Standard u' },
-  { value: 'expanded', label: 'Expanded U' },
-] as const;
+import { checkNoticeFor, submitBlocker, withVersion } from './submit-rules';
 
 /** One round on the Lab bench: receipt, instrument check, results entry, files, submit and amend. */
 @Component({
@@ -62,8 +48,8 @@ const UNCERTAINTY_KINDS = [
     MatCheckboxModule,
     MatFormFieldModule,
     MatInputModule,
-    MatSelectModule,
     BenchReceipt,
+    ResultsEntry,
     InstrumentCheckCard,
     SubmittedVersions,
     RawFiles,
@@ -80,8 +66,6 @@ export class BenchRound implements OnInit {
   protected readonly round = signal<MyRoundDetail | null>(null);
   protected readonly loadError = signal<string | null>(null);
   protected readonly statusLabels = STATUS_LABELS;
-  protected readonly uncertaintyKinds = UNCERTAINTY_KINDS;
-  protected readonly conditionFields = CONDITION_FIELDS;
   protected readonly saveLabels = SAVE_STATE_LABELS;
 
   protected readonly checks = signal<InstrumentCheck[]>([]);
@@ -106,25 +90,7 @@ export class BenchRound implements OnInit {
   protected readonly errorsByPath = computed(
     () => new Map((this.outcome()?.errors ?? []).map((e) => [e.path, e.message])),
   );
-  protected readonly checkNotice = computed(() => {
-    const d = this.data();
-    const names = new Set(
-      (d?.items ?? []).map((i) => i.conditions.instrument.trim().toLowerCase()).filter(Boolean),
-    );
-    const list = this.checks();
-    const latest = names.size
-      ? (list.find((c) => names.has(c.instrument.trim().toLowerCase())) ?? null)
-      : (list[0] ?? null);
-    return instrumentCheckNotice(
-      latest
-        ? {
-            passed: latest.verdict.passed,
-            instrument: latest.instrument,
-            checkedAt: latest.checkedAt,
-          }
-        : null,
-    );
-  });
+  protected readonly checkNotice = computed(() => checkNoticeFor(this.data(), this.checks()));
   protected readonly versions = signal<SubmissionVersionDto[]>([]);
   protected readonly submitting = signal(false);
   protected readonly submitMessage = signal<{ kind: 'ok' | 'error'; text: string } | null>(null);
@@ -193,24 +159,6 @@ export class BenchRound implements OnInit {
     if (save) this.autosave?.changed(data);
   }
 
-  protected rep(ii: number, mi: number, k: number): FormControl<number | null> {
-    return this.form!.at(ii).controls.results.at(mi).controls.replicates.at(k);
-  }
-  protected row(ii: number, mi: number) {
-    return this.form!.at(ii).controls.results.at(mi).controls;
-  }
-  protected cond(ii: number, key: string): FormControl {
-    return this.form!.at(ii).controls.conditions.get(key) as FormControl;
-  }
-  protected notes(ii: number): FormControl<string> {
-    return this.form!.at(ii).controls.methodNotes;
-  }
-  protected runIndexes(n: number): number[] {
-    return Array.from({ length: n }, (_, i) => i);
-  }
-  protected errorAt(path: string): string | undefined {
-    return this.errorsByPath().get(path);
-  }
   protected isAcknowledged(code: string): boolean {
     return this.acknowledged().includes(code);
   }
@@ -243,15 +191,8 @@ export class BenchRound implements OnInit {
       { protocolTemperatureC: r.protocolTemperatureC, items: r.items, measurands: r.measurands },
       true,
     );
-    if (full.errors.length)
-      return this.submitMessage.set({ kind: 'error', text: full.errors[0]!.message });
-    if (full.unacknowledged.length)
-      return this.submitMessage.set({
-        kind: 'error',
-        text: `Acknowledge ${full.unacknowledged.length} warning(s) first.`,
-      });
-    if (this.checkNotice() && !data.explanation.trim())
-      return this.submitMessage.set({ kind: 'error', text: this.checkNotice()! });
+    const blocker = submitBlocker(full, this.checkNotice(), data.explanation);
+    if (blocker) return this.submitMessage.set({ kind: 'error', text: blocker });
     this.submitKey ??= crypto.randomUUID();
     this.submitting.set(true);
     const note = this.versions().length ? this.amendNote.value.trim() || undefined : undefined;
@@ -261,9 +202,7 @@ export class BenchRound implements OnInit {
         this.submitting.set(false);
         this.amendNote.setValue('');
         this.submitMessage.set({ kind: 'ok', text: `Version ${res.version.version} submitted.` });
-        this.versions.update((v) =>
-          v.some((x) => x.version === res.version.version) ? v : [res.version, ...v],
-        );
+        this.versions.update((v) => withVersion(v, res.version));
         this.reloadDraft();
         this.bench.round(this.id()).subscribe((rr) => this.round.set(rr));
       },

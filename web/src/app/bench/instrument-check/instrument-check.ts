@@ -30,6 +30,14 @@ const run = () =>
     ),
   });
 
+/** The cells of one check replicate, in the table's order, with what a screen reader hears. */
+const RUN_CELLS = [
+  { key: 'zAverageNm', label: 'Z-average (nm)' },
+  { key: 'pdi', label: 'PDI' },
+  { key: 'temperatureC', label: 'temperature (°C)' },
+  { key: 'equilibrationMin', label: 'equilibration (min)' },
+] as const;
+
 /** The lab's instrument check on a reference material: the form with its live verdict, and the history. */
 @Component({
   selector: 'app-instrument-check',
@@ -51,6 +59,7 @@ export class InstrumentCheckCard {
   /** A check the server stored. */
   readonly recorded = output<InstrumentCheck>();
   private readonly bench = inject(BenchService);
+  protected readonly runCells = RUN_CELLS;
   protected readonly checkForm = new FormGroup({
     instrument: new FormControl('', { nonNullable: true }),
     material: new FormControl<string>(DEFAULT_CHECK.material, { nonNullable: true }),

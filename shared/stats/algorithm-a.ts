@@ -91,7 +91,8 @@ export function algorithmAUnchecked(
     sortBuf = new Float64Array(Math.max(n, sortBuf.length * 2));
     centred = new Float64Array(sortBuf.length);
   }
-  // Medians by selection, not sorting: linear in n. The sums below run in input order.
+  // Medians by selection, not sorting: linear in n. The winsorized sums come from a bucket
+  // order with running sums (see bucketOrder), also linear.
   const a = sortBuf.subarray(0, n);
   for (let i = 0; i < n; i++) a[i] = xs[i];
   const m0 = medianInPlace(a);
@@ -126,28 +127,15 @@ export function algorithmAUnchecked(
   // no underflow or overflow of squares for data on extreme scales. x* = m0 + s0·mc.
   const s0 = s;
   for (let i = 0; i < n; i++) d[i] /= s0;
+  const b = bucketOrder(d);
   s = 1;
   let mc = 0;
   for (let it = 1; it <= c.maxIterations; it++) {
     const delta = c.k * s;
-    const lo = mc - delta;
-    const hi = mc + delta;
-    let sum = 0;
-    for (let i = 0; i < n; i++) {
-      const v = d[i];
-      sum += v < lo ? lo : v > hi ? hi : v;
-    }
-    const m1 = sum / n;
-    let sd1 = 0;
-    let sd2 = 0;
-    for (let i = 0; i < n; i++) {
-      const v = d[i];
-      const r = (v < lo ? lo : v > hi ? hi : v) - m1;
-      sd1 += r;
-      sd2 += r * r;
-    }
-    const newMean = m1 + sd1 / n;
-    const varW = (sd2 - (sd1 * sd1) / n) / (n - 1);
+    const w = winsorizedSums(b, mc - delta, mc + delta);
+    const m1 = w.sum / n;
+    const varW = (w.squares - w.sum * m1) / (n - 1);
+    const newMean = m1;
     const newS = c.sdFactor * Math.sqrt(varW > 0 ? varW : 0);
     const done =
       Math.abs(newMean - mc) <= c.tolerance * newS && Math.abs(newS - s) <= c.tolerance * newS;
@@ -183,4 +171,130 @@ export function algorithmAUnchecked(
     converged: false,
     outcome: 'not-converged',
   };
+}
+
+/**
+ * Half-width W of the binned range [−W, W] in units of the starting s* (values outside go to
+ * two overflow bins, still exact, only scanned one by one). The winsorizing limits x* ± 1.5 s*
+ * stay well inside it for any sample whose s* does not grow past about 3× its start.
+ */
+const BIN_HALF_WIDTH = 6;
+
+/**
+ * The centred and scaled values in bucket order (a counting sort by value bin: linear in n),
+ * with running sums of the values and of their squares over the inner bins, so that the sums
+ * of any run of whole inner bins are two subtractions.
+ */
+interface BucketOrder {
+  readonly n: number;
+  /** Number of inner bins; bin 0 holds v < −W, bin `bins + 1` holds v ≥ W. */
+  readonly bins: number;
+  /** Bins per unit of v. */
+  readonly scale: number;
+  /** The values, bin by bin (bins in increasing order; any order inside a bin). */
+  readonly v: Float64Array;
+  /** `start[k]` = index in `v` of bin k's first value; `start[bins + 2]` = n. */
+  readonly start: Int32Array;
+  /** Σ v and Σ v² over v[start[1] … i − 1] (0 at i = start[1]); defined for i ≥ start[1]. */
+  readonly sum: Float64Array;
+  readonly squares: Float64Array;
+}
+
+let bucketValues = new Float64Array(64);
+let bucketSum = new Float64Array(65);
+let bucketSquares = new Float64Array(65);
+let bucketStart = new Int32Array(64);
+let bucketOf = new Int32Array(64);
+
+/**
+ * Bin of v: monotone in v (the same floating-point formula for data and limits), so a value in
+ * a lower bin than a limit is below it and one in a higher bin is above it.
+ */
+function binOf(v: number, bins: number, scale: number): number {
+  if (v < -BIN_HALF_WIDTH) return 0;
+  if (v >= BIN_HALF_WIDTH) return bins + 1;
+  const k = Math.floor((v + BIN_HALF_WIDTH) * scale);
+  return 1 + (k < bins - 1 ? k : bins - 1);
+}
+
+function bucketOrder(d: Float64Array): BucketOrder {
+  const n = d.length;
+  const bins = Math.max(16, n >> 2);
+  const scale = bins / (2 * BIN_HALF_WIDTH);
+  if (bucketValues.length < n) {
+    bucketValues = new Float64Array(n);
+    bucketSum = new Float64Array(n + 1);
+    bucketSquares = new Float64Array(n + 1);
+    bucketOf = new Int32Array(n);
+  }
+  if (bucketStart.length < bins + 3) bucketStart = new Int32Array(bins + 3);
+  const start = bucketStart.subarray(0, bins + 3);
+  start.fill(0);
+  const of = bucketOf;
+  for (let i = 0; i < n; i++) {
+    const k = binOf(d[i], bins, scale);
+    of[i] = k;
+    start[k + 1]++;
+  }
+  for (let k = 0; k < bins + 2; k++) start[k + 1] += start[k];
+  const v = bucketValues;
+  // start[k] is used as bin k's next free slot, then restored.
+  for (let i = 0; i < n; i++) v[start[of[i]]++] = d[i];
+  for (let k = bins + 2; k > 0; k--) start[k] = start[k - 1];
+  start[0] = 0;
+  const sum = bucketSum;
+  const squares = bucketSquares;
+  const first = start[1];
+  const last = start[bins + 1];
+  sum[first] = 0;
+  squares[first] = 0;
+  for (let i = first; i < last; i++) {
+    const x = v[i];
+    sum[i + 1] = sum[i] + x;
+    squares[i + 1] = squares[i] + x * x;
+  }
+  return { n, bins, scale, v, start, sum, squares };
+}
+
+/**
+ * Σ w and Σ w² of the values winsorized to [lo, hi]: values in bins below lo's bin count as lo,
+ * above hi's bin as hi, whole bins in between from the running sums, and only the values of the
+ * (at most two) bins that hold a limit one by one.
+ */
+function winsorizedSums(b: BucketOrder, lo: number, hi: number): { sum: number; squares: number } {
+  const { n, bins, scale, v, start } = b;
+  const kLo = binOf(lo, bins, scale);
+  const kHi = binOf(hi, bins, scale);
+  const a0 = start[kLo];
+  const a1 = start[kLo + 1];
+  const b0 = start[kHi];
+  const b1 = start[kHi + 1];
+  const nHi = n - b1;
+  let sum = a0 * lo + nHi * hi;
+  let squares = a0 * lo * lo + nHi * hi * hi;
+  if (kLo === kHi) {
+    for (let i = a0; i < a1; i++) {
+      const x = v[i];
+      const w = x < lo ? lo : x > hi ? hi : x;
+      sum += w;
+      squares += w * w;
+    }
+    return { sum, squares };
+  }
+  for (let i = a0; i < a1; i++) {
+    const x = v[i];
+    const w = x < lo ? lo : x; // below hi: its bin is below hi's
+    sum += w;
+    squares += w * w;
+  }
+  // Whole bins kLo + 1 … kHi − 1: inside [lo, hi]; inner bins only, as kLo < kHi.
+  sum += b.sum[b0] - b.sum[a1];
+  squares += b.squares[b0] - b.squares[a1];
+  for (let i = b0; i < b1; i++) {
+    const x = v[i];
+    const w = x > hi ? hi : x;
+    sum += w;
+    squares += w * w;
+  }
+  return { sum, squares };
 }

@@ -50,6 +50,8 @@ export interface RingletApp {
   /** Every API route, as declared (for the OpenAPI document and the authorization tests). */
   routes: readonly AnyRoute[];
   context: AppContext;
+  /** Stops what the app itself keeps running (the session store's prune timer). */
+  readonly stopTimers: () => void;
 }
 
 /** The Content-Security-Policy the built Angular app runs under. */
@@ -110,19 +112,20 @@ export function createApp(deps: AppDeps): RingletApp {
   // Sessions live in PostgreSQL so several server instances share them.
   const PgStore = connectPgSimple(session);
   const pool = (deps.ds.driver as unknown as { master: Pool }).master;
+  const sessionStore = new PgStore({
+    pool,
+    tableName: 'session',
+    createTableIfMissing: false,
+    disableTouch: true,
+    pruneSessionInterval: deps.config.mode === 'test' ? false : 900,
+  });
   app.use(
     session({
       name: 'ringlet.sid',
       secret: deps.config.sessionSecret,
       // disableTouch + no rolling: a session lasts 8 hours from sign-in (an absolute timeout), and a
       // request costs one session read instead of a read and a write.
-      store: new PgStore({
-        pool,
-        tableName: 'session',
-        createTableIfMissing: false,
-        disableTouch: true,
-        pruneSessionInterval: deps.config.mode === 'test' ? false : 900,
-      }),
+      store: sessionStore,
       resave: false,
       saveUninitialized: false,
       rolling: false,
@@ -182,5 +185,5 @@ export function createApp(deps: AppDeps): RingletApp {
   app.use('/api', (_req, _res, next) => next(notFound('That API route')));
 
   app.use(errorHandler(log));
-  return { app, routes: api.routes, context: ctx };
+  return { app, routes: api.routes, context: ctx, stopTimers: () => sessionStore.close() };
 }

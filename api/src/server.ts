@@ -77,7 +77,14 @@ async function main(): Promise<void> {
     workers: process.env['RINGLET_JOB_WORKERS'] !== 'off',
   });
   const mailer = jobs.mailer;
-  const { app, context } = createApp({ ds, config, mailer, log, logger, queue: jobs.queue });
+  const { app, context, stopTimers } = createApp({
+    ds,
+    config,
+    mailer,
+    log,
+    logger,
+    queue: jobs.queue,
+  });
   phase('app');
   jobs.ready.then(
     async (j) => {
@@ -116,6 +123,7 @@ async function main(): Promise<void> {
     [
       async () => (await jobs.ready).stop(JOB_GRACE_MS),
       () => mailer.close(),
+      () => stopTimers(),
       async () => void (await fake?.close()),
       async () => void (await payFake?.close()),
       () => ds.destroy(),

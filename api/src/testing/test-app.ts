@@ -67,6 +67,7 @@ export async function startTestApp(overrides: Partial<AppConfig> = {}): Promise<
     payments,
     mailer,
     async close() {
+      app.stopTimers();
       mailer.close();
       await payments.close();
       await smtp.close();

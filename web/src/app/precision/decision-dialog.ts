@@ -69,9 +69,7 @@ export class DecisionDialog {
     kind: [this.data.cell.classification as PrecisionExclusionKind],
     reason: ['', Validators.required],
   });
-  protected readonly submit = new FormSubmit(this.form, {
-    placed: 'Check the highlighted fields.',
-  });
+  protected readonly submit = new FormSubmit(this.form);
 
   protected save(): void {
     const v = this.form.getRawValue();

@@ -86,7 +86,6 @@ export class ReferencesDialog {
   /** The form rows of the filled references, in the order they are sent. */
   private filled: number[] = [];
   protected readonly submit = new FormSubmit(this.form, {
-    placed: 'Check the highlighted fields.',
     // the contract's "references.3.value" is the form's "rows.<row of the 4th filled one>.value"
     map: (path) =>
       path.replace(/^references\.(\d+)/, (_, k: string) => `rows.${this.filled[Number(k)] ?? k}`),

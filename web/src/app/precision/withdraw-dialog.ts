@@ -44,9 +44,7 @@ export class WithdrawDialog {
   protected readonly form = inject(NonNullableFormBuilder).group({
     reason: ['', Validators.required],
   });
-  protected readonly submit = new FormSubmit(this.form, {
-    placed: 'Check the highlighted fields.',
-  });
+  protected readonly submit = new FormSubmit(this.form);
 
   protected save(): void {
     const body = this.submit.parse(PrecisionWithdrawBody, this.form.getRawValue());

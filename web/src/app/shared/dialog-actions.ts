@@ -4,7 +4,7 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialogModule } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
-import type { DialogSubmit } from './dialog-submit';
+import type { FormSubmit } from './form-submit';
 
 /**
  * The foot of a form dialog: the form's message (what no field shows), Cancel, which closes
@@ -43,14 +43,18 @@ export class DialogActions {
   /** The submit button's text. */
   readonly label = input.required<string>();
   /** The form's submit state (busy, and the message above the buttons). */
-  readonly submission = input.required<DialogSubmit>();
+  readonly submission = input.required<FormSubmit>();
   readonly testId = input('');
 }
 
-/** What a form dialog's component imports: reactive forms, the dialog, text fields, its foot. */
+/**
+ * What a form dialog's component imports: reactive forms, the dialog, buttons, text fields and its
+ * foot (`app-dialog-actions`). `imports: [FORM_DIALOG_IMPORTS, …]` (add what else it uses).
+ */
 export const FORM_DIALOG_IMPORTS = [
   ReactiveFormsModule,
   MatDialogModule,
+  MatButtonModule,
   MatFormFieldModule,
   MatInputModule,
   DialogActions,

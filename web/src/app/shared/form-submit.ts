@@ -12,12 +12,21 @@ export type PathMap = (path: string) => string;
 const samePath: PathMap = (p) => p;
 const FieldIssues = z.array(FieldIssue);
 
+/** A PathMap that strips a batch prefix ("items.0.") and renames a few fields (feeMinor → fee). */
+export function pathMap(prefix = '', renames: Record<string, string> = {}): PathMap {
+  return (path) => {
+    const p = prefix && path.startsWith(prefix) ? path.slice(prefix.length) : path;
+    return renames[p] ?? p;
+  };
+}
+
+/** The message above the buttons when every issue found its field. */
+export const CHECK_FIELDS = 'Check the highlighted fields.';
+
 /** How a form shows a refusal. */
 export interface SubmitOptions {
   /** Contract path → control path (default: the same). */
   readonly map?: PathMap;
-  /** The message above the buttons when every issue found its field (default: none). */
-  readonly placed?: string | null;
   /** The message for a refusal that names no field (default: the server's words). */
   readonly refusal?: (error: unknown) => string;
 }
@@ -28,13 +37,14 @@ function ruleIssues(error: HttpErrorResponse): FieldIssue[] {
   const details = FieldIssues.safeParse(problem?.details);
   if (details.success && details.data.length) return details.data;
   const named = /^([A-Za-z][\w.]*): (.+)$/s.exec(problem?.message ?? '');
-  return named ? [{ path: named[1]!, message: named[2]! }] : [];
+  if (!named) return [];
+  return [{ path: named[1]!, message: named[2]!.charAt(0).toUpperCase() + named[2]!.slice(1) }];
 }
 
 /**
  * Shows a failed call on its form: a 400's field issues and a 409/422 rule break that names a
- * field go under those controls; what names no control becomes the message returned (null when
- * everything found its field and `placed` is null). Anything else is the server's words.
+ * field go under those controls; what names no control becomes the message returned
+ * (CHECK_FIELDS when everything found its field). Anything else is the server's words.
  */
 export function placeProblem(
   form: AbstractControl | null,
@@ -42,7 +52,6 @@ export function placeProblem(
   options: SubmitOptions = {},
 ): string | null {
   const map = options.map ?? samePath;
-  const placed = options.placed ?? null;
   const fallback = options.refusal ?? problemMessage;
   if (!form || !(error instanceof HttpErrorResponse)) return fallback(error);
   const onFields =
@@ -56,13 +65,14 @@ export function placeProblem(
     form,
     onFields.map((i) => ({ ...i, path: map(i.path) })),
   );
-  return unplaced.length ? unplaced.join(' ') : placed;
+  return unplaced.length ? unplaced.join(' ') : CHECK_FIELDS;
 }
 
 /**
- * One submit flow for a form or dialog: check the value against the shared contract, run the
- * call while `busy`, put a refusal on the form (`placeProblem`) and hand the result on (a dialog
- * closes with it). The template binds `busy()` to the submit button and `failure()` to the alert.
+ * The one submit flow for every form and dialog: check the value against the shared contract,
+ * run the call while `busy`, put a refusal on the form (`placeProblem`) and hand the result on (a
+ * dialog closes with it). The template binds `busy()` to the submit button and `failure()` to the
+ * alert (a dialog's foot, `app-dialog-actions`, does both).
  */
 export class FormSubmit {
   readonly busy = signal(false);
@@ -85,7 +95,7 @@ export class FormSubmit {
     }));
     const unplaced = this.form ? applyZodIssues(this.form, issues) : issues.map((i) => i.message);
     this.form?.markAllAsTouched();
-    this.failure.set(unplaced.length ? unplaced.join(' ') : (this.options.placed ?? null));
+    this.failure.set(unplaced.length ? unplaced.join(' ') : CHECK_FIELDS);
     return null;
   }
 
@@ -103,5 +113,16 @@ export class FormSubmit {
         this.failure.set(placeProblem(this.form, error, this.options));
       },
     });
+  }
+
+  /** Parses `value` and, when it fits the schema, runs `call(parsed)`; see parse and run. */
+  submit<S extends z.ZodType, R>(
+    schema: S,
+    value: unknown,
+    call: (parsed: z.output<S>) => Observable<R>,
+    done: (result: R) => void,
+  ): void {
+    const parsed = this.parse(schema, value);
+    if (parsed !== null) this.run(call(parsed), done);
   }
 }

@@ -10,6 +10,7 @@ import {
   signal,
 } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { catchError, forkJoin, of } from 'rxjs';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
@@ -18,9 +19,11 @@ import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { checkResults, type CheckOutcome } from '@ringlet/shared/bench/submission-checks';
 import {
+  type AttachmentDto,
   type InstrumentCheck,
   type MyRoundDetail,
   type SubmissionVersionDto,
+  type SubmissionView,
 } from '@ringlet/shared/contracts/bench';
 import type { SubmissionData } from '@ringlet/shared/contracts/submission';
 import { BenchReceipt } from '../bench-receipt/bench-receipt';
@@ -69,6 +72,8 @@ export class BenchRound implements OnInit {
   protected readonly saveLabels = SAVE_STATE_LABELS;
 
   protected readonly checks = signal<InstrumentCheck[]>([]);
+  /** The files stored with the submission. */
+  protected readonly attachments = signal<AttachmentDto[]>([]);
 
   // Results
   protected form: ResultsForm | null = null;
@@ -106,43 +111,50 @@ export class BenchRound implements OnInit {
     this.load();
   }
 
+  /** The round, its submission and its files need only the route's id: all asked at once (#17). */
   private load(): void {
-    this.bench.round(this.id()).subscribe({
-      next: (r) => {
+    const id = this.id();
+    // the page shows nothing of the submission without the round; a refused submission shows none
+    const submission = this.bench.submission(id).pipe(catchError(() => of(null)));
+    forkJoin([this.bench.round(id), submission]).subscribe({
+      next: ([r, view]) => {
         this.round.set(r);
-        this.loadSubmission(r);
+        if (view) this.showSubmission(r, view);
       },
       error: (e) => this.loadError.set(problemMessage(e)),
     });
+    this.bench.attachments(id).subscribe((a) => this.attachments.set(a));
     this.bench.instrumentChecks().subscribe((c) => this.checks.set(c));
   }
 
   private loadSubmission(r: MyRoundDetail): void {
-    this.bench.submission(this.id()).subscribe((view) => {
-      this.autosave?.stop();
-      this.autosave = new DraftAutosave<SubmissionData>(
-        (data, base) => this.bench.saveDraft(this.id(), data, base),
-        `ringlet.draft.${this.bench.labId()}.${this.id()}`,
-      );
-      const local = this.autosave.start(view.draftRevision);
-      const draft = local ?? view.draft;
-      if (view.savedAt) this.autosave.savedAt.set(view.savedAt);
-      if (view.isLocked) this.autosave.state.set('locked');
-      else if (view.savedAt) this.autosave.state.set('saved');
-      this.versions.set(view.versions);
-      this.acknowledged.set(draft.acknowledgedWarnings);
-      this.explanation.setValue(draft.explanation, { emitEvent: false });
-      this.form = buildResultsForm(r.items, r.measurands, draft, r.protocolTemperatureC);
-      if (view.isLocked) this.form.disable({ emitEvent: false });
-      this.refreshData(false);
-      if (local) this.autosave.changed(this.data()!); // an unsaved copy from before a reload
-      this.form.valueChanges
-        .pipe(takeUntilDestroyed(this.destroyRef))
-        .subscribe(() => this.refreshData(true));
-      this.explanation.valueChanges
-        .pipe(takeUntilDestroyed(this.destroyRef))
-        .subscribe(() => this.refreshData(true));
-    });
+    this.bench.submission(this.id()).subscribe((view) => this.showSubmission(r, view));
+  }
+
+  private showSubmission(r: MyRoundDetail, view: SubmissionView): void {
+    this.autosave?.stop();
+    this.autosave = new DraftAutosave<SubmissionData>(
+      (data, base) => this.bench.saveDraft(this.id(), data, base),
+      `ringlet.draft.${this.bench.labId()}.${this.id()}`,
+    );
+    const local = this.autosave.start(view.draftRevision);
+    const draft = local ?? view.draft;
+    if (view.savedAt) this.autosave.savedAt.set(view.savedAt);
+    if (view.isLocked) this.autosave.state.set('locked');
+    else if (view.savedAt) this.autosave.state.set('saved');
+    this.versions.set(view.versions);
+    this.acknowledged.set(draft.acknowledgedWarnings);
+    this.explanation.setValue(draft.explanation, { emitEvent: false });
+    this.form = buildResultsForm(r.items, r.measurands, draft, r.protocolTemperatureC);
+    if (view.isLocked) this.form.disable({ emitEvent: false });
+    this.refreshData(false);
+    if (local) this.autosave.changed(this.data()!); // an unsaved copy from before a reload
+    this.form.valueChanges
+      .pipe(takeUntilDestroyed(this.destroyRef))
+      .subscribe(() => this.refreshData(true));
+    this.explanation.valueChanges
+      .pipe(takeUntilDestroyed(this.destroyRef))
+      .subscribe(() => this.refreshData(true));
   }
 
   private refreshData(save: boolean): void {

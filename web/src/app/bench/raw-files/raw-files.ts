@@ -3,12 +3,11 @@ import {
   ChangeDetectionStrategy,
   Component,
   computed,
-  effect,
   inject,
   input,
+  linkedSignal,
   output,
   signal,
-  untracked,
 } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, ReactiveFormsModule } from '@angular/forms';
@@ -60,7 +59,9 @@ export class RawFiles {
   protected readonly kindLabels = ATTACHMENT_KIND_LABELS;
   protected readonly defaults = REANALYSIS_DEFAULTS;
   protected readonly parametersText = parametersText;
-  protected readonly attachments = signal<AttachmentDto[]>([]);
+  /** The files already stored with the submission (the round page loads them with the round). */
+  readonly stored = input<AttachmentDto[]>([]);
+  protected readonly attachments = linkedSignal(() => this.stored());
   protected readonly fileMessage = signal<string | null>(null);
   protected readonly fileItem = new FormControl<string | null>(null);
   protected readonly fileWavelength = new FormControl<number | null>(null);
@@ -78,13 +79,6 @@ export class RawFiles {
     };
   });
   private readonly roundId = computed(() => this.round().roundId);
-
-  constructor() {
-    effect(() => {
-      const id = this.roundId();
-      untracked(() => this.bench.attachments(id).subscribe((a) => this.attachments.set(a)));
-    });
-  }
 
   protected filePicked(file: File): void {
     const wavelength = this.fileWavelength.value;

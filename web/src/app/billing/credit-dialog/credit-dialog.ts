@@ -3,7 +3,7 @@ import { NonNullableFormBuilder } from '@angular/forms';
 import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { CreditNoteInput } from '@ringlet/shared/contracts/billing';
 import { errorMessage, parseForm } from '../../core/zod-form-errors';
-import { FORM_DIALOG_IMPORTS } from '../../shared/form-dialog';
+import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
 import type { LedgerDialogData } from '../mark-paid-dialog/mark-paid-dialog';
 
 /** Credits the invoice of a withdrawn lab with a reason (issues a credit note). */

@@ -3,7 +3,7 @@ import { NonNullableFormBuilder } from '@angular/forms';
 import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { BankTransferInput } from '@ringlet/shared/contracts/billing';
 import { errorMessage, parseForm } from '../../core/zod-form-errors';
-import { FORM_DIALOG_IMPORTS } from '../../shared/form-dialog';
+import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
 
 /** The ledger row a ledger dialog is about. */
 export interface LedgerDialogData {

@@ -6,7 +6,7 @@ import { MatInputModule } from '@angular/material/input';
 import { ProviderProfileInput, type ProviderProfile } from '@ringlet/shared/contracts/provider';
 import { problemMessage } from '../../core/problem';
 import { errorMessage } from '../../core/zod-form-errors';
-import { checkFormValue, formRefusal } from '../../shared/form-refusal';
+import { FormSubmit } from '../../shared/form-submit';
 import { ProviderLogo } from '../provider-logo/provider-logo';
 import { ProviderService } from '../provider-service';
 import { FIELDS, formValueOf, profileInputOf } from './profile-form';
@@ -24,9 +24,7 @@ export class ProviderProfilePage implements OnInit {
   protected readonly fields = FIELDS;
   protected readonly errorMessage = errorMessage;
   protected readonly profile = signal<ProviderProfile | null>(null);
-  protected readonly busy = signal(false);
   protected readonly saved = signal(false);
-  protected readonly failure = signal<string | null>(null);
   protected readonly form = inject(NonNullableFormBuilder).group({
     name: [''],
     address: [''],
@@ -40,11 +38,12 @@ export class ProviderProfilePage implements OnInit {
     subcontracting: [''],
     taxRatePercent: [0],
   });
+  protected readonly submit = new FormSubmit(this.form);
 
   ngOnInit(): void {
     this.service.profile().subscribe({
       next: (p) => this.show(p),
-      error: (e: unknown) => this.failure.set(problemMessage(e)),
+      error: (e: unknown) => this.submit.failure.set(problemMessage(e)),
     });
   }
 
@@ -54,25 +53,15 @@ export class ProviderProfilePage implements OnInit {
   }
 
   protected save(): void {
-    this.failure.set(null);
     this.saved.set(false);
-    const { value, failure } = checkFormValue(
-      this.form,
+    this.submit.submit(
       ProviderProfileInput,
       profileInputOf(this.form.getRawValue()),
-    );
-    if (!value) return this.failure.set(failure);
-    this.busy.set(true);
-    this.service.save(value).subscribe({
-      next: (p) => {
-        this.busy.set(false);
+      (value) => this.service.save(value),
+      (p) => {
         this.saved.set(true);
         this.show(p);
       },
-      error: (error: unknown) => {
-        this.busy.set(false);
-        this.failure.set(formRefusal(this.form, error));
-      },
-    });
+    );
   }
 }

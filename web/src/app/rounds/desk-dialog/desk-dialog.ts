@@ -15,7 +15,7 @@ import {
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { DialogSubmit } from '../../shared/dialog-submit';
+import { FormSubmit } from '../../shared/form-submit';
 import { localToIso } from '../../shared/form-values';
 import { openDialog } from '../../shared/open-dialog';
 import { type DeskDialogData, deskConfirmLabel, deskFields } from './desk-dialog-data';
@@ -54,7 +54,7 @@ export class DeskDialog<R> {
     until: [''],
     decision: ['widen-sigma-pt' as HomogeneityDecisionKind],
   });
-  protected readonly submission = new DialogSubmit(this.form);
+  protected readonly submission = new FormSubmit(this.form);
 
   /** The call for the kind with the parsed value, or null when a field is wrong. */
   private request(): Observable<R> | null {
@@ -95,7 +95,7 @@ export class DeskDialog<R> {
 
   protected submit(): void {
     const call = this.request();
-    if (call) this.submission.send(call, (result) => this.ref.close(result));
+    if (call) this.submission.run(call, (result) => this.ref.close(result));
   }
 }
 

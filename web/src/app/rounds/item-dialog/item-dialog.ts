@@ -4,8 +4,7 @@ import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { type TestItem, TestItemInput, TestItemUpdate } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { DialogSubmit } from '../../shared/dialog-submit';
-import { pathMap } from '../../shared/form-errors';
+import { FormSubmit, pathMap } from '../../shared/form-submit';
 import { RoundsService } from '../rounds-service';
 import { testItemFromForm, testItemGroup } from './test-item-form';
 
@@ -30,7 +29,7 @@ export class ItemDialog {
   protected readonly errorMessage = errorMessage;
   protected readonly form = testItemGroup(inject(NonNullableFormBuilder), this.data.item);
   /** Adding goes through the batch route, whose paths start with items.0. */
-  protected readonly submission = new DialogSubmit(this.form, pathMap('items.0.'));
+  protected readonly submission = new FormSubmit(this.form, { map: pathMap('items.0.') });
 
   protected submit(): void {
     const candidate = testItemFromForm(this.form.getRawValue());

@@ -5,8 +5,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { type Measurand, MeasurandInput, MeasurandUpdate } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { DialogSubmit } from '../../shared/dialog-submit';
-import { pathMap } from '../../shared/form-errors';
+import { FormSubmit, pathMap } from '../../shared/form-submit';
 import { numberOrNull } from '../../shared/form-values';
 import {
   ASSIGNED_VALUE_KIND_LABELS,
@@ -62,7 +61,7 @@ export class MeasurandDialog {
     this.m?.sigmaPtRule,
   );
   /** Adding goes through the batch route, whose paths start with measurands.0. */
-  protected readonly submission = new DialogSubmit(this.form, pathMap('measurands.0.'));
+  protected readonly submission = new FormSubmit(this.form, { map: pathMap('measurands.0.') });
 
   protected submit(): void {
     const raw = this.form.getRawValue();

@@ -13,7 +13,7 @@ import {
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { DialogSubmit } from '../../shared/dialog-submit';
+import { FormSubmit } from '../../shared/form-submit';
 import { testItemFromForm, testItemGroup } from '../item-dialog/test-item-form';
 import {
   NEW_ROUND_TERMS,
@@ -51,7 +51,7 @@ export class RoundDialog {
     instructions: [DEFAULT_INSTRUCTIONS],
     items: this.fb.array([testItemGroup(this.fb)]),
   });
-  protected readonly submission = new DialogSubmit(this.form, ROUND_TERMS_PATHS);
+  protected readonly submission = new FormSubmit(this.form, { map: ROUND_TERMS_PATHS });
 
   protected addItem(): void {
     this.form.controls.items.push(testItemGroup(this.fb));

@@ -10,7 +10,7 @@ import {
 import { withoutSafetyBlock } from '@ringlet/shared/contracts/safety';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { DialogSubmit } from '../../shared/dialog-submit';
+import { FormSubmit } from '../../shared/form-submit';
 import {
   changedFields,
   composeInstructions,
@@ -55,7 +55,7 @@ export class RoundEditDialog {
     ...roundTermsControls(this.fb, roundTermsOf(this.round), this.feeOpen),
     instructions: [withoutSafetyBlock(this.round.instructions)],
   });
-  protected readonly submission = new DialogSubmit(this.form, ROUND_TERMS_PATHS);
+  protected readonly submission = new FormSubmit(this.form, { map: ROUND_TERMS_PATHS });
 
   protected submit(): void {
     const raw = this.form.getRawValue();
@@ -69,6 +69,6 @@ export class RoundEditDialog {
       this.ref.close();
       return;
     }
-    this.submission.send(this.api.updateRound(this.round.id, changes), (r) => this.ref.close(r));
+    this.submission.run(this.api.updateRound(this.round.id, changes), (r) => this.ref.close(r));
   }
 }

@@ -1,8 +1,8 @@
 import type { NonNullableFormBuilder } from '@angular/forms';
 import type { RoundDetail, RoundUpdate } from '@ringlet/shared/contracts/rounds';
 import { SAFETY_BLOCK } from '@ringlet/shared/contracts/safety';
-import { pathMap } from '../../shared/form-errors';
 import { isoToLocal, localToIso, numberOrNull } from '../../shared/form-values';
+import { pathMap } from '../../shared/form-submit';
 
 /** A round's terms as the new-round and edit-round forms hold them (dates as the inputs show them). */
 export interface RoundTermsForm {

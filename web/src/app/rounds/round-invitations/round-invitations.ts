@@ -22,7 +22,7 @@ import {
   type RoundDetail,
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
-import { DialogSubmit } from '../../shared/dialog-submit';
+import { FormSubmit } from '../../shared/form-submit';
 import { SectionGrid } from '../../shared/section-grid';
 import { RoundsService } from '../rounds-service';
 import { INVITATION_COLUMNS, invitationsFromRows } from './invitation-rows';
@@ -54,7 +54,7 @@ export class RoundInvitations implements OnInit {
   protected readonly labs = signal<Organisation[]>([]);
   protected readonly invitations = signal<Invitation[]>([]);
   protected readonly form = this.fb.group({ invitations: this.fb.array([this.row()]) });
-  protected readonly submission = new DialogSubmit(this.form);
+  protected readonly submission = new FormSubmit(this.form);
 
   constructor() {
     effect(() => {

@@ -26,7 +26,7 @@ import { errorMessage } from '../../core/zod-form-errors';
 import type { RowAction } from '../../grid/action-cell';
 import { actionsColumn } from '../../grid/columns';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
-import { DialogSubmit } from '../../shared/dialog-submit';
+import { FormSubmit } from '../../shared/form-submit';
 import { SectionGrid } from '../../shared/section-grid';
 import { RoundsService } from '../rounds-service';
 import { studyNumbers } from '../study-numbers';
@@ -63,7 +63,7 @@ export class RoundStudies {
     sigmaPt: [null as number | null],
     text: [''],
   });
-  protected readonly submission = new DialogSubmit(this.form);
+  protected readonly submission = new FormSubmit(this.form);
 
   private readonly actions: RowAction<Study>[] = [
     {
@@ -115,6 +115,6 @@ export class RoundStudies {
       this.round().id,
       studyUpload(this.form.getRawValue(), file),
     );
-    this.submission.send(upload, () => this.changed.emit());
+    this.submission.run(upload, () => this.changed.emit());
   }
 }

@@ -8,7 +8,7 @@ import {
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { DialogSubmit } from '../../shared/dialog-submit';
+import { FormSubmit } from '../../shared/form-submit';
 import { RoundsService } from '../rounds-service';
 
 /** Create a PT scheme; new schemes measure the DLS defaults (Z-average and PDI). */
@@ -35,7 +35,7 @@ export class SchemeDialog {
     description: [''],
     rules: [''],
   });
-  protected readonly submission = new DialogSubmit(this.form);
+  protected readonly submission = new FormSubmit(this.form);
 
   protected submit(): void {
     const create = (v: SchemeCreate) => this.api.createScheme(v);

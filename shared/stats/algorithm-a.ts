@@ -96,9 +96,7 @@ export function algorithmAUnchecked(
   const a = sortBuf.subarray(0, n);
   for (let i = 0; i < n; i++) a[i] = xs[i];
   const m0 = medianInPlace(a);
-  const d = centred.subarray(0, n);
-  for (let i = 0; i < n; i++) d[i] = xs[i] - m0;
-  for (let i = 0; i < n; i++) a[i] = Math.abs(d[i]);
+  for (let i = 0; i < n; i++) a[i] = Math.abs(xs[i] - m0);
   let s = c.madFactor * medianInPlace(a);
 
   const base = { n, constants: c };
@@ -126,8 +124,7 @@ export function algorithmAUnchecked(
   // Iterate in centred and scaled coordinates, x = m0 + s0·d: no digits lost to an offset, and
   // no underflow or overflow of squares for data on extreme scales. x* = m0 + s0·mc.
   const s0 = s;
-  for (let i = 0; i < n; i++) d[i] /= s0;
-  const b = bucketOrder(d);
+  const b = bucketOrder(xs, m0, s0);
   s = 1;
   let mc = 0;
   for (let it = 1; it <= c.maxIterations; it++) {
@@ -217,8 +214,9 @@ function binOf(v: number, bins: number, scale: number): number {
   return 1 + (k < bins - 1 ? k : bins - 1);
 }
 
-function bucketOrder(d: Float64Array): BucketOrder {
-  const n = d.length;
+/** Bucket order of the values (x − m0)/s0 of `xs`. */
+function bucketOrder(xs: ArrayLike<number>, m0: number, s0: number): BucketOrder {
+  const n = xs.length;
   const bins = Math.max(16, n >> 2);
   const scale = bins / (2 * BIN_HALF_WIDTH);
   if (bucketValues.length < n) {
@@ -231,8 +229,11 @@ function bucketOrder(d: Float64Array): BucketOrder {
   const start = bucketStart.subarray(0, bins + 3);
   start.fill(0);
   const of = bucketOf;
+  const d = centred;
   for (let i = 0; i < n; i++) {
-    const k = binOf(d[i], bins, scale);
+    const x = (xs[i] - m0) / s0;
+    d[i] = x;
+    const k = binOf(x, bins, scale);
     of[i] = k;
     start[k + 1]++;
   }

@@ -105,14 +105,15 @@ export function medianOfSorted(a: ArrayLike<number>): number {
 }
 
 /**
- * Median of `a` in linear expected time, reordering `a` in place (Hoare's selection with a
- * median-of-three pivot). Same value as `medianOfSorted` of the sorted values: even n gives the
- * mean of the two middle values. No input checks; `a` must not be empty.
+ * Median of `a` in linear expected time, reordering `a` in place (Floyd–Rivest selection). Same
+ * value as `medianOfSorted` of the sorted values: even n gives the mean of the two middle values.
+ * No input checks; `a` must not be empty.
  */
 export function medianInPlace(a: Float64Array): number {
   const n = a.length;
   const h = n >> 1;
-  const upper = selectInPlace(a, h);
+  selectInPlace(a, h, 0, n - 1);
+  const upper = a[h];
   if (n % 2 === 1) return upper;
   // The lower middle value is the largest of a[0..h-1], all ≤ a[h] after selection.
   let lower = a[0];
@@ -120,33 +121,46 @@ export function medianInPlace(a: Float64Array): number {
   return (lower + upper) / 2;
 }
 
-/** k-th smallest value (0-based) of `a`, partially ordering `a` in place around it. */
-function selectInPlace(a: Float64Array, k: number): number {
-  let lo = 0;
-  let hi = a.length - 1;
-  while (hi > lo) {
-    const mid = (lo + hi) >> 1;
-    // Median of three as the pivot: sorted data (the common case here) stays linear.
-    if (a[mid] < a[lo]) swap(a, mid, lo);
-    if (a[hi] < a[lo]) swap(a, hi, lo);
-    if (a[hi] < a[mid]) swap(a, hi, mid);
-    const pivot = a[mid];
-    let i = lo;
-    let j = hi;
-    while (i <= j) {
-      while (a[i] < pivot) i++;
-      while (a[j] > pivot) j--;
-      if (i <= j) {
-        swap(a, i, j);
-        i++;
-        j--;
-      }
+/**
+ * Puts the k-th smallest value (0-based) of a[left..right] at a[k], smaller or equal ones before
+ * it and larger or equal ones after it. Floyd & Rivest's SELECT (CACM 18(3), 1975, Algorithm
+ * 489): on a long range it first selects within a sample around k of about n^(2/3) values, so
+ * that a[k] is a pivot close to the k-th value and one partition of the range leaves few values
+ * to look at (about n + min(k, n − k) comparisons instead of about 3.4 n for the median by
+ * median-of-three quickselect).
+ */
+function selectInPlace(a: Float64Array, k: number, left: number, right: number): void {
+  while (right > left) {
+    if (right - left > 600) {
+      const n = right - left + 1;
+      const m = k - left + 1;
+      const z = Math.log(n);
+      const s = 0.5 * Math.exp((2 * z) / 3);
+      const sd = 0.5 * Math.sqrt((z * s * (n - s)) / n) * (m - n / 2 < 0 ? -1 : 1);
+      const sampleLeft = Math.max(left, Math.floor(k - (m * s) / n + sd));
+      const sampleRight = Math.min(right, Math.floor(k + ((n - m) * s) / n + sd));
+      selectInPlace(a, k, sampleLeft, sampleRight);
     }
-    if (k <= j) hi = j;
-    else if (k >= i) lo = i;
-    else return a[k];
+    const t = a[k];
+    let i = left;
+    let j = right;
+    swap(a, left, k);
+    if (a[right] > t) swap(a, left, right);
+    while (i < j) {
+      swap(a, i, j);
+      i++;
+      j--;
+      while (a[i] < t) i++;
+      while (a[j] > t) j--;
+    }
+    if (a[left] === t) swap(a, left, j);
+    else {
+      j++;
+      swap(a, j, right);
+    }
+    if (j <= k) left = j + 1;
+    if (k <= j) right = j - 1;
   }
-  return a[k];
 }
 
 function swap(a: Float64Array, i: number, j: number): void {

@@ -196,16 +196,19 @@ export function evaluateRound(
   return evaluateColumns(toColumns(rows), options);
 }
 
-/** Work buffers for the rows in (group, code) order, reused from call to call. */
+/** Work buffers for the rows in (group, code) order (only when rows arrive out of code order). */
 let scratchValue = new Float64Array(0);
 let scratchCode = new Int32Array(0);
+let scratchGroup = new Int32Array(0);
 
 /**
  * Evaluates a round given as columns. Linear in the number of rows and free of per-participant
- * objects: rows are put in (group, code) order by stable counting passes over integer indices
- * (one pass when each group's rows already arrive in code order, as uploads and the database
- * give them), per-participant numbers stay in typed columns (`ItemEvaluation.columns`), and
- * Algorithm A finds its medians by selection.
+ * objects: one pass checks the rows and counts each group's participants, a second computes every
+ * participant's replicate mean and SD straight from the rows into the output columns. That holds
+ * when each group's rows arrive in code order (as uploads and the database give them); otherwise
+ * the rows are first put in (group, code) order by stable counting passes over integer indices.
+ * Per-participant numbers stay in typed columns (`ItemEvaluation.columns`), and Algorithm A finds
+ * its medians by selection.
  * @throws RangeError when a column's length or an index is out of step with the others.
  */
 export function evaluateColumns(
@@ -215,48 +218,32 @@ export function evaluateColumns(
   const minResults = options.minResults ?? 12;
   const { codes, groups } = cols;
   const nRows = cols.value.length;
-  const nCodes = codes.length;
   const nGroups = groups.length;
   if (cols.participant.length !== nRows || cols.group.length !== nRows) {
     throw new RangeError('columns: participant, group and value must have the same length');
   }
-  const groupStart = new Int32Array(nGroups + 1);
-  checkAndCount(cols, groupStart);
-  for (let g = 0; g < nGroups; g++) groupStart[g + 1] += groupStart[g];
-
-  // Values and participant numbers copied in (group, code) order, so each group is read front
-  // to back below: one stable pass by group, which is enough when each group's rows arrive in
-  // code order (as uploads and the database give them); otherwise the rows are first put in
-  // code order by a counting pass over the code ranks.
-  if (scratchValue.length < nRows) {
-    scratchValue = new Float64Array(nRows);
-    scratchCode = new Int32Array(nRows);
-  }
-  const value = scratchValue;
-  const code = scratchCode;
   const rank = codeRanks(codes);
-  scatterByGroup(cols, null, groupStart.slice(0, nGroups), value, code);
-  if (!inCodeOrder(code, nRows, rank, groupStart)) {
-    const byCode = countingOrder(nRows, nCodes, rank, cols.participant);
-    scatterByGroup(cols, byCode, groupStart.slice(0, nGroups), value, code);
+  // runStart[g + 1]: participants of group g, then (summed) each group's first output entry.
+  const runStart = new Int32Array(nGroups + 1);
+  const stream = participantStream(nRows);
+  let entries = replicateMeans(cols, codes.length, rank, runStart, stream);
+  if (entries < 0) {
+    checkRows(cols);
+    runStart.fill(0);
+    entries = replicateMeans(inGroupCodeOrder(cols, rank), codes.length, rank, runStart, stream);
   }
+  for (let g = 0; g < nGroups; g++) runStart[g + 1] += runStart[g];
 
   // All groups' output columns live in one Float64 and one Int32 allocation: two fresh blocks
   // per call instead of six per group (fresh large typed arrays dominated the time).
-  const runStart = new Int32Array(nGroups + 1);
-  for (let g = 0; g < nGroups; g++)
-    runStart[g + 1] = runStart[g] + countRuns(code, groupStart[g], groupStart[g + 1]);
   const out = outputBlocks(runStart[nGroups]);
+  distribute(stream, entries, runStart, out);
   const evaluations: ItemEvaluation[] = [];
   for (let g = 0; g < nGroups; g++) {
     evaluations.push(
       evaluateGroup(
         groups[g].item,
         groups[g].measurand,
-        value,
-        code,
-        groupStart[g],
-        groupStart[g + 1],
         columnsAt(out, runStart[g], runStart[g + 1]),
         codes,
         options,
@@ -273,48 +260,69 @@ export function evaluateColumns(
  * doubles then went through the heap as garbage).
  */
 
-/** One pass over the rows: checks the indices and values and counts the rows per group into `counts[g + 1]`. */
-function checkAndCount(cols: ResultColumns, counts: Int32Array): void {
-  const { participant, group, value } = cols;
-  const nRows = value.length;
-  const nCodes = cols.codes.length;
-  const nGroups = cols.groups.length;
-  for (let r = 0; r < nRows; r++) {
-    const p = participant[r];
-    const g = group[r];
-    if (!(p >= 0 && p < nCodes && g >= 0 && g < nGroups))
-      throw new RangeError(`row ${r}: participant or group index out of range`);
-    const v = value[r];
-    if (!Number.isFinite(v)) throw new RangeError(`row ${r}: value is not a finite number (${v})`);
-    counts[g + 1]++;
-  }
+/** The row columns the passes below read (a round's, or the same rows reordered). */
+interface RowColumns {
+  readonly participant: Int32Array;
+  readonly group: Int32Array;
+  readonly value: Float64Array;
 }
 
-/** Whether every group's block of `code` (bounds in `groupStart`) is in code order. */
-function inCodeOrder(
-  code: Int32Array,
-  nRows: number,
-  rank: Int32Array | null,
-  groupStart: Int32Array,
-): boolean {
-  let g = 0;
-  for (let i = 1; i < nRows; i++) {
-    while (groupStart[g + 1] <= i - 1) g++;
-    if (i === groupStart[g + 1]) continue; // first row of the next group
-    const a = code[i - 1];
-    const b = code[i];
-    if (rank === null ? b < a : rank[b] < rank[a]) return false;
-  }
-  return true;
+/** Checks the indices and values of every row. @throws RangeError naming the first bad row. */
+function checkRows(cols: ResultColumns): void {
+  const { participant, group, value } = cols;
+  const nCodes = cols.codes.length;
+  const nGroups = cols.groups.length;
+  for (let r = 0; r < value.length; r++)
+    checkRow(r, participant[r], group[r], value[r], nCodes, nGroups);
+}
+
+/** @throws RangeError naming row r when an index is out of range or the value not finite. */
+function checkRow(
+  r: number,
+  p: number,
+  g: number,
+  v: number,
+  nCodes: number,
+  nGroups: number,
+): void {
+  if (!(p >= 0 && p < nCodes && g >= 0 && g < nGroups))
+    throw new RangeError(`row ${r}: participant or group index out of range`);
+  if (!Number.isFinite(v)) throw new RangeError(`row ${r}: value is not a finite number (${v})`);
 }
 
 /**
- * Stable scatter of the rows (in the order `order`, or as stored) to their group's block:
- * `next[g]` is the next free position of group g.
+ * The rows in (group, code) order: a stable counting pass by code rank, then a stable scatter by
+ * group into reused work buffers.
+ */
+function inGroupCodeOrder(cols: ResultColumns, rank: Int32Array | null): RowColumns {
+  const nRows = cols.value.length;
+  const nGroups = cols.groups.length;
+  if (scratchValue.length < nRows) {
+    scratchValue = new Float64Array(nRows);
+    scratchCode = new Int32Array(nRows);
+    scratchGroup = new Int32Array(nRows);
+  }
+  const value = scratchValue.subarray(0, nRows);
+  const code = scratchCode.subarray(0, nRows);
+  const group = scratchGroup.subarray(0, nRows);
+  const byCode = countingOrder(nRows, cols.codes.length, rank, cols.participant);
+  const next = new Int32Array(nGroups + 1);
+  for (let r = 0; r < nRows; r++) next[cols.group[r] + 1]++;
+  for (let g = 0; g < nGroups; g++) {
+    next[g + 1] += next[g];
+    group.fill(g, next[g], next[g + 1]);
+  }
+  scatterByGroup(cols, byCode, next, value, code);
+  return { participant: code, group, value };
+}
+
+/**
+ * Stable scatter of the rows (in the order `order`) to their group's block: `next[g]` is the next
+ * free position of group g.
  */
 function scatterByGroup(
   cols: ResultColumns,
-  order: Int32Array | null,
+  order: Int32Array,
   next: Int32Array,
   value: Float64Array,
   code: Int32Array,
@@ -323,7 +331,7 @@ function scatterByGroup(
   const values = cols.value;
   const nRows = values.length;
   for (let q = 0; q < nRows; q++) {
-    const r = order === null ? q : order[q];
+    const r = order[q];
     const i = next[group[r]]++;
     value[i] = values[r];
     code[i] = participant[r];
@@ -368,10 +376,6 @@ function countingOrder(
 function evaluateGroup(
   item: string,
   measurand: string,
-  value: Float64Array,
-  code: Int32Array,
-  from: number,
-  to: number,
   cols: GroupColumns,
   codes: readonly string[],
   options: EvaluateOptions,
@@ -379,7 +383,6 @@ function evaluateGroup(
 ): ItemEvaluation {
   const { results, sdValues, counts, codeOf } = cols;
   const p = results.length;
-  replicateMeans(value, code, from, to, results, sdValues, counts, codeOf);
 
   const a = algorithmAUnchecked(results);
   const warnings: EvaluationWarning[] = [];
@@ -474,49 +477,131 @@ function columnsAt(b: OutputBlocks, from: number, to: number): GroupColumns {
   };
 }
 
-/** Number of runs of equal code in code[from, to): the group's participants. */
-function countRuns(code: Int32Array, from: number, to: number): number {
-  let p = 0;
-  for (let i = from; i < to; i++) if (i === from || code[i] !== code[i - 1]) p++;
-  return p;
+/**
+ * Each participant's numbers in the order the row pass completes them (any group), before they
+ * are put in their group's output columns. Work buffers, reused from call to call.
+ */
+interface ParticipantStream {
+  readonly group: Int32Array;
+  readonly code: Int32Array;
+  readonly count: Int32Array;
+  readonly mean: Float64Array;
+  readonly sd: Float64Array;
+}
+
+let streamBuffers: ParticipantStream = participantStreamOf(0);
+
+function participantStreamOf(n: number): ParticipantStream {
+  return {
+    group: new Int32Array(n),
+    code: new Int32Array(n),
+    count: new Int32Array(n),
+    mean: new Float64Array(n),
+    sd: new Float64Array(n),
+  };
+}
+
+/** Work buffers for up to `nRows` participant entries (a round has at most one per row). */
+function participantStream(nRows: number): ParticipantStream {
+  if (streamBuffers.mean.length < nRows) streamBuffers = participantStreamOf(nRows);
+  return streamBuffers;
 }
 
 /**
- * Per participant (a run of equal code in [from, to)): mean and SD (n − 1; NaN for one
- * replicate) of its replicates by the two-pass formula centred on the first replicate, the
- * replicate count and the code.
+ * One pass over the rows: checks each row and, per participant (a run of equal code within a
+ * group), computes the mean and SD (n − 1; NaN for one replicate) of its replicates from the sums
+ * of the deviations from its first replicate and of their squares (shifted data: mean =
+ * x₀ + Σd/m, SD² = (Σd² − (Σd)²/m)/(m − 1)), appended to `stream` with its group, code and
+ * replicate count; `perGroup[g + 1]` counts group g's participants. Returns the number of
+ * entries, or −1 as soon as a group's rows leave code order (by `rank`, or by index when null):
+ * the rows must then be reordered and the pass run again.
+ * @throws RangeError naming the first bad row.
  */
 function replicateMeans(
-  value: Float64Array,
-  code: Int32Array,
-  from: number,
-  to: number,
-  results: Float64Array,
-  sdValues: Float64Array,
-  counts: Int32Array,
-  codeOf: Int32Array,
-): void {
-  const p = results.length;
-  let i = from;
-  for (let k = 0; k < p; k++) {
-    const c = code[i];
-    let j = i + 1;
-    while (j < to && code[j] === c) j++;
-    const m = j - i;
-    const x0 = value[i];
-    let s = 0;
-    for (let q = i; q < j; q++) s += value[q] - x0;
-    const dm = s / m;
-    results[k] = x0 + dm;
-    let ss = 0;
-    for (let q = i; q < j; q++) {
-      const d = value[q] - x0 - dm;
-      ss += d * d;
+  rows: RowColumns,
+  nCodes: number,
+  rank: Int32Array | null,
+  perGroup: Int32Array,
+  stream: ParticipantStream,
+): number {
+  const { participant, group, value } = rows;
+  const nRows = value.length;
+  const nGroups = perGroup.length - 1;
+  const cur = new Int32Array(nGroups).fill(-1);
+  const m = new Int32Array(nGroups);
+  const x0 = new Float64Array(nGroups);
+  const sum = new Float64Array(nGroups);
+  const squares = new Float64Array(nGroups);
+  let e = 0;
+  for (let r = 0; r < nRows; r++) {
+    const p = participant[r];
+    const g = group[r];
+    const v = value[r];
+    if (!(p >= 0 && p < nCodes && g >= 0 && g < nGroups && Number.isFinite(v)))
+      checkRow(r, p, g, v, nCodes, nGroups);
+    const c = cur[g];
+    if (p === c) {
+      const d = v - x0[g];
+      sum[g] += d;
+      squares[g] += d * d;
+      m[g]++;
+      continue;
     }
-    sdValues[k] = m > 1 ? Math.sqrt(ss / (m - 1)) : NaN;
-    counts[k] = m;
-    codeOf[k] = c;
-    i = j;
+    if (c >= 0) {
+      if (rank === null ? p < c : rank[p] < rank[c]) return -1;
+      writeParticipant(stream, e++, g, c, m[g], x0[g], sum[g], squares[g]);
+      perGroup[g + 1]++;
+    }
+    cur[g] = p;
+    m[g] = 1;
+    x0[g] = v;
+    sum[g] = 0;
+    squares[g] = 0;
+  }
+  for (let g = 0; g < nGroups; g++) {
+    if (cur[g] < 0) continue;
+    writeParticipant(stream, e++, g, cur[g], m[g], x0[g], sum[g], squares[g]);
+    perGroup[g + 1]++;
+  }
+  return e;
+}
+
+/** Writes one participant's group, code, count, mean and replicate SD at entry e of `s`. */
+function writeParticipant(
+  s: ParticipantStream,
+  e: number,
+  g: number,
+  code: number,
+  m: number,
+  x0: number,
+  sum: number,
+  squares: number,
+): void {
+  const dm = sum / m;
+  const ss = squares - sum * dm;
+  s.group[e] = g;
+  s.code[e] = code;
+  s.count[e] = m;
+  s.mean[e] = x0 + dm;
+  s.sd[e] = m > 1 ? Math.sqrt((ss > 0 ? ss : 0) / (m - 1)) : NaN;
+}
+
+/** Puts the stream's entries at their group's next output entry (`start[g]` onwards). */
+function distribute(
+  s: ParticipantStream,
+  entries: number,
+  start: Int32Array,
+  out: OutputBlocks,
+): void {
+  const { total: t, f64, i32 } = out;
+  const next = start.slice(0, start.length - 1);
+  const { group, code, count, mean, sd } = s;
+  for (let e = 0; e < entries; e++) {
+    const k = next[group[e]]++;
+    f64[k] = mean[e];
+    f64[t + k] = sd[e];
+    i32[k] = count[e];
+    i32[t + k] = code[e];
   }
 }
 

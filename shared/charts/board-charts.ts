@@ -33,7 +33,16 @@ export const CHART_COLORS = {
 const SYMBOLS = SIGNAL_SHAPES;
 const WORDS = SIGNAL_WORDS;
 
-const base = (title: string): ChartOption => ({
+/** Chart margins inside the drawing area (ECharts `grid`). */
+export interface ChartMargins {
+  readonly left: number;
+  readonly right: number;
+  readonly top: number;
+  readonly bottom: number;
+}
+
+/** The part every Ringlet chart shares: no animation, our font and ink, the title top left. */
+export const chartBase = (title: string, margins: ChartMargins): ChartOption => ({
   animation: false,
   textStyle: { fontFamily: 'Noto Sans, sans-serif', color: CHART_COLORS.text },
   title: {
@@ -42,7 +51,17 @@ const base = (title: string): ChartOption => ({
     top: 4,
     textStyle: { fontSize: 13, fontWeight: 600, color: CHART_COLORS.ink },
   },
-  grid: { left: 56, right: 24, top: 40, bottom: 48, containLabel: true },
+  grid: { ...margins, containLabel: true },
+});
+
+const base = (title: string): ChartOption =>
+  chartBase(title, { left: 56, right: 24, top: 40, bottom: 48 });
+
+/** A mark in its signal's colour; the viewer's own participant is outlined in ink. */
+const signalMarkStyle = (signal: ChartSignal, own: boolean | undefined) => ({
+  color: CHART_COLORS[signal],
+  borderColor: own ? CHART_COLORS.ink : undefined,
+  borderWidth: own ? 2 : 0,
 });
 
 const fmt = (v: number, d = 3) => (Number.isFinite(v) ? v.toFixed(d) : '–');
@@ -90,11 +109,7 @@ export function zBarsOption(
         barCategoryGap: sorted.length > 200 ? '0%' : '20%',
         data: sorted.map((b) => ({
           value: Math.max(-lim, Math.min(lim, b.score)),
-          itemStyle: {
-            color: CHART_COLORS[b.signal],
-            borderColor: b.own ? CHART_COLORS.ink : undefined,
-            borderWidth: b.own ? 2 : 0,
-          },
+          itemStyle: signalMarkStyle(b.signal, b.own),
         })),
         markLine: {
           silent: true,
@@ -317,11 +332,7 @@ export function uncertaintyOption(
         data: sorted.map((p) => ({
           value: [p.code, p.result],
           symbol: SYMBOLS[p.signal],
-          itemStyle: {
-            color: CHART_COLORS[p.signal],
-            borderColor: p.own ? CHART_COLORS.ink : undefined,
-            borderWidth: p.own ? 2 : 0,
-          },
+          itemStyle: signalMarkStyle(p.signal, p.own),
         })),
         markLine: {
           silent: true,

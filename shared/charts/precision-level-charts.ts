@@ -10,7 +10,7 @@
  * saffron triangle, outlier carmine diamond; the word is printed above every bar that is not
  * accepted and in the text alternative.
  */
-import { CHART_COLORS, type ChartOption } from './board-charts';
+import { CHART_COLORS, chartBase, type ChartOption } from './board-charts';
 
 /** ISO 5725-2 outcome of a consistency check or outlier test. */
 export type PrecisionClass = 'accepted' | 'straggler' | 'outlier';
@@ -61,17 +61,8 @@ export function classifyMandel(
   return 'accepted';
 }
 
-const base = (title: string): ChartOption => ({
-  animation: false,
-  textStyle: { fontFamily: 'Noto Sans, sans-serif', color: CHART_COLORS.text },
-  title: {
-    text: title,
-    left: 8,
-    top: 4,
-    textStyle: { fontSize: 13, fontWeight: 600, color: CHART_COLORS.ink },
-  },
-  grid: { left: 48, right: 56, top: 44, bottom: 40, containLabel: true },
-});
+const base = (title: string): ChartOption =>
+  chartBase(title, { left: 48, right: 56, top: 44, bottom: 40 });
 
 const line = (value: number, name: string, color: string, type: 'dashed' | 'solid') => ({
   yAxis: value,

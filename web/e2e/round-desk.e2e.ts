@@ -1,6 +1,12 @@
 import { Invitation, Round } from '../../db/entities';
 import { createLab, createUser, mailTo } from '../../api/src/testing/test-app';
 import { startE2E, type E2E } from './support/harness';
+import {
+  createScheme,
+  fillTwoItemRound,
+  inviteHarbourAndNewRidgeLab,
+  openEnrolment,
+} from './support/round-steps';
 
 jest.setTimeout(180_000);
 
@@ -24,24 +30,14 @@ describe('Round desk in a real browser', () => {
     await page.waitForURL((u) => u.pathname === '/desk');
 
     // a scheme with the DLS default measurands
-    await page.getByTestId('new-scheme').click();
-    await page.getByLabel('Code').fill('NANO-DLS');
-    await page.getByLabel('Name', { exact: true }).fill('Nanoparticle sizing by DLS');
-    await page.getByRole('button', { name: 'Create scheme' }).click();
-    await page.getByRole('dialog').waitFor({ state: 'detached' });
+    await createScheme(page, 'NANO-DLS', 'Nanoparticle sizing by DLS');
 
     // a round with two test items
-    await page.getByTestId('new-round').click();
-    await page.getByLabel('Round code').fill('DLS-2026-1');
-    await page.getByLabel('Title').fill('Latex and silica, spring 2026');
-    await page.getByLabel('Results due').fill('2026-06-30T12:00');
-    await page.getByTestId('item-0').getByLabel('Item code').fill('A');
-    await page.getByTestId('item-0').getByLabel('Material').fill('Polystyrene latex in water');
-    await page.getByTestId('item-0').getByLabel('Nominal size (nm)').fill('100');
-    await page.getByTestId('add-item').click();
-    await page.getByTestId('item-1').getByLabel('Item code').fill('B');
-    await page.getByTestId('item-1').getByLabel('Material').fill('Silica in water');
-    await page.getByTestId('item-1').getByLabel('Nominal size (nm)').fill('60');
+    await fillTwoItemRound(page, {
+      code: 'DLS-2026-1',
+      title: 'Latex and silica, spring 2026',
+      resultsDue: '2026-06-30T12:00',
+    });
     await e.shot(page, 'round-desk-new-round');
     await page.getByRole('button', { name: 'Create round' }).click();
     await page.waitForURL((u) => u.pathname.startsWith('/desk/rounds/'));
@@ -56,21 +52,10 @@ describe('Round desk in a real browser', () => {
       .waitFor();
 
     // open enrolment through the lifecycle dialog
-    await page.getByTestId('move-enrolling').click();
-    await page.getByTestId('dialog-confirm').click();
-    await page.getByTestId('round-state').getByText('Enrolling').waitFor();
+    await openEnrolment(page);
 
     // invite an existing lab and a new lab by contact address
-    await page.getByTestId('invite-lab-0').click();
-    await page.getByRole('option', { name: 'Harbour Sizing Lab' }).click();
-    await page.getByTestId('invite-form').getByLabel('E-mail').first().fill('head@harbour.test');
-    await page.getByTestId('add-invitation').click();
-    await page.getByLabel('New lab name').fill('Ridge Particle Lab');
-    await page.getByTestId('invite-form').getByLabel('E-mail').nth(1).fill('contact@ridge.test');
-    await page.getByTestId('send-invitations').click();
-    const invitations = page.locator('ag-grid-angular[aria-label="Invitations"]');
-    await invitations.getByText('head@harbour.test').waitFor();
-    await invitations.getByText('Ridge Particle Lab (new)').waitFor();
+    await inviteHarbourAndNewRidgeLab(page, 'head@harbour.test');
     await e.shot(page, 'round-desk-invitations');
 
     const round = await e.ds.getRepository(Round).findOneByOrFail({ code: 'DLS-2026-1' });

@@ -26,6 +26,12 @@ import {
 import type { SubmissionData } from '../../shared/contracts/submission';
 import { seriousViolations, type AxeViolation } from './support/axe';
 import { startE2E, type E2E } from './support/harness';
+import {
+  createScheme,
+  fillTwoItemRound,
+  inviteHarbourAndNewRidgeLab,
+  openEnrolment,
+} from './support/round-steps';
 
 jest.setTimeout(300_000);
 
@@ -186,23 +192,13 @@ describe('the whole loop in a real browser', () => {
       coordPage = await e.page();
       const page = coordPage;
       await e.signIn(page, 'cora@wl.test');
-      await page.getByTestId('new-scheme').click();
-      await page.getByLabel('Code').fill('WL-DLS');
-      await page.getByLabel('Name', { exact: true }).fill('Nanoparticle sizing by DLS');
-      await page.getByRole('button', { name: 'Create scheme' }).click();
-      await page.getByRole('dialog').waitFor({ state: 'detached' });
+      await createScheme(page, 'WL-DLS', 'Nanoparticle sizing by DLS');
 
-      await page.getByTestId('new-round').click();
-      await page.getByLabel('Round code').fill(ROUND);
-      await page.getByLabel('Title').fill('Latex and silica, whole loop');
-      await page.getByLabel('Results due').fill(localInDays(30));
-      await page.getByTestId('item-0').getByLabel('Item code').fill('A');
-      await page.getByTestId('item-0').getByLabel('Material').fill('Polystyrene latex in water');
-      await page.getByTestId('item-0').getByLabel('Nominal size (nm)').fill('100');
-      await page.getByTestId('add-item').click();
-      await page.getByTestId('item-1').getByLabel('Item code').fill('B');
-      await page.getByTestId('item-1').getByLabel('Material').fill('Silica in water');
-      await page.getByTestId('item-1').getByLabel('Nominal size (nm)').fill('60');
+      await fillTwoItemRound(page, {
+        code: ROUND,
+        title: 'Latex and silica, whole loop',
+        resultsDue: localInDays(30),
+      });
       await page.getByRole('button', { name: 'Create round' }).click();
       await page.waitForURL((u) => u.pathname.startsWith('/desk/rounds/'));
       roundId = new URL(page.url()).pathname.split('/').pop()!;
@@ -215,21 +211,10 @@ describe('the whole loop in a real browser', () => {
         .getByText('Polydispersity index (PDI)')
         .waitFor();
 
-      await page.getByTestId('move-enrolling').click();
-      await page.getByTestId('dialog-confirm').click();
-      await page.getByTestId('round-state').getByText('Enrolling').waitFor();
+      await openEnrolment(page);
 
       // an existing lab and a new lab through the page
-      await page.getByTestId('invite-lab-0').click();
-      await page.getByRole('option', { name: 'Harbour Sizing Lab' }).click();
-      await page.getByTestId('invite-form').getByLabel('E-mail').first().fill('lena@harbour.test');
-      await page.getByTestId('add-invitation').click();
-      await page.getByLabel('New lab name').fill('Ridge Particle Lab');
-      await page.getByTestId('invite-form').getByLabel('E-mail').nth(1).fill('contact@ridge.test');
-      await page.getByTestId('send-invitations').click();
-      const invitations = page.locator('ag-grid-angular[aria-label="Invitations"]');
-      await invitations.getByText('lena@harbour.test').waitFor();
-      await invitations.getByText('Ridge Particle Lab (new)').waitFor();
+      await inviteHarbourAndNewRidgeLab(page, 'lena@harbour.test');
       await axe(page, 'round detail (enrolling)');
       await e.shot(page, 'loop-01-round-invitations');
 

@@ -3,18 +3,18 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { Router } from '@angular/router';
-import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef } from 'ag-grid-community';
 import type { Organisation } from '@ringlet/shared/contracts/admin';
 import { ActionCell, type RowAction } from '../grid/action-cell';
-import { formatDateTime, ringletGridTheme } from './admin-grid';
+import { PageGrid } from '../shared/page-grid';
+import { formatDateTime } from './admin-grid';
 import { AdminService } from './admin-service';
 import { LabDialog } from './lab-dialog';
 
 @Component({
   selector: 'app-labs',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular, MatButtonModule, MatIconModule],
+  imports: [MatButtonModule, MatIconModule, PageGrid],
   template: `
     <section class="page">
       <h1 data-testid="page-heading">Organisations</h1>
@@ -23,15 +23,11 @@ import { LabDialog } from './lab-dialog';
           <mat-icon>add</mat-icon> New organisation
         </button>
       </div>
-      <ag-grid-angular
-        class="grid-box"
-        [theme]="theme"
-        [loadThemeGoogleFonts]="false"
-        [rowData]="labs()"
-        [columnDefs]="columns"
-        [getRowId]="rowId"
+      <app-page-grid
+        [rows]="labs()"
+        [columns]="columns"
         [loading]="loading()"
-        aria-label="Organisations"
+        label="Organisations"
       />
     </section>
   `,
@@ -40,10 +36,8 @@ export class Labs implements OnInit {
   private readonly admin = inject(AdminService);
   private readonly dialog = inject(MatDialog);
   private readonly router = inject(Router);
-  protected readonly theme = ringletGridTheme;
   protected readonly labs = signal<Organisation[]>([]);
   protected readonly loading = signal(true);
-  protected readonly rowId = (params: { data: Organisation }) => params.data.id;
 
   private readonly actions: RowAction<Organisation>[] = [
     { label: 'Edit', ariaLabel: (lab) => `Edit ${lab.name}`, run: (lab) => this.edit(lab) },

@@ -5,11 +5,11 @@ import { MatDialog } from '@angular/material/dialog';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef } from 'ag-grid-community';
 import type { Organisation, User } from '@ringlet/shared/contracts/admin';
 import { ActionCell, type RowAction } from '../grid/action-cell';
-import { formatDateTime, ringletGridTheme } from './admin-grid';
+import { PageGrid } from '../shared/page-grid';
+import { formatDateTime } from './admin-grid';
 import { AdminService } from './admin-service';
 import { EditUserDialog } from './edit-user-dialog';
 import { InviteUserDialog, type InviteUserData } from './invite-user-dialog';
@@ -19,12 +19,12 @@ import { GLOBAL_ROLE_LABELS } from './role-labels';
   selector: 'app-users',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
-    AgGridAngular,
     FormsModule,
     MatButtonModule,
     MatIconModule,
     MatFormFieldModule,
     MatInputModule,
+    PageGrid,
   ],
   template: `
     <section class="page">
@@ -38,17 +38,13 @@ import { GLOBAL_ROLE_LABELS } from './role-labels';
           <input matInput [ngModel]="filter()" (ngModelChange)="filter.set($event)" />
         </mat-form-field>
       </div>
-      <ag-grid-angular
-        class="grid-box"
-        [theme]="theme"
-        [loadThemeGoogleFonts]="false"
-        [rowData]="users()"
-        [columnDefs]="columns"
-        [quickFilterText]="filter()"
-        [getRowId]="rowId"
+      <app-page-grid
+        [rows]="users()"
+        [columns]="columns"
+        [quickFilter]="filter()"
         [loading]="loading()"
-        [overlayNoRowsTemplate]="'No users yet.'"
-        aria-label="Users"
+        noRowsText="No users yet."
+        label="Users"
       />
     </section>
   `,
@@ -61,12 +57,10 @@ import { GLOBAL_ROLE_LABELS } from './role-labels';
 export class Users implements OnInit {
   private readonly admin = inject(AdminService);
   private readonly dialog = inject(MatDialog);
-  protected readonly theme = ringletGridTheme;
   protected readonly users = signal<User[]>([]);
   protected readonly labs = signal<Organisation[]>([]);
   protected readonly loading = signal(true);
   protected readonly filter = signal('');
-  protected readonly rowId = (params: { data: User }) => params.data.id;
 
   private readonly actions: RowAction<User>[] = [
     { label: 'Edit', ariaLabel: (user) => `Edit ${user.name}`, run: (user) => this.edit(user) },

@@ -1,13 +1,14 @@
 import { ChangeDetectionStrategy, Component, type OnInit, inject, signal } from '@angular/core';
 import { Router, RouterLink } from '@angular/router';
-import { AgGridAngular, type ICellRendererAngularComp } from 'ag-grid-angular';
+import type { ICellRendererAngularComp } from 'ag-grid-angular';
 import type { ColDef, ICellRendererParams } from 'ag-grid-community';
 import { EVALUATION_STATE_LABELS, type BoardListEntry } from '@ringlet/shared/contracts/evaluation';
 import { ROUND_STATE_LABELS, type RoundState } from '@ringlet/shared/contracts/round-states';
 import { AuthService } from '../core/auth-service';
 import { SignalBadge, type SignalKind } from '../core/signal-badge';
 import { ActionCell, type RowAction } from '../grid/action-cell';
-import { ringletGridTheme } from './board-grid';
+import { PageGrid } from '../shared/page-grid';
+import './board-grid';
 import { BoardService } from './board-service';
 
 /** Grid cell: a signal count as shape + number + colour (the header carries the word). */
@@ -38,7 +39,7 @@ export class SignalCountCell implements ICellRendererAngularComp {
 @Component({
   selector: 'app-board-list',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular, RouterLink],
+  imports: [PageGrid, RouterLink],
   template: `
     <section class="page">
       <h1 data-testid="page-heading">Consensus board</h1>
@@ -46,16 +47,13 @@ export class SignalCountCell implements ICellRendererAngularComp {
       @if (!loading() && rounds().length === 0) {
         <p>No round has results to show yet.</p>
       } @else {
-        <ag-grid-angular
-          class="grid-box"
-          [theme]="theme"
-          [loadThemeGoogleFonts]="false"
-          [rowData]="rounds()"
-          [columnDefs]="columns"
-          [getRowId]="rowId"
+        <app-page-grid
+          [rows]="rounds()"
+          [columns]="columns"
+          [rowIdOf]="rowId"
           [loading]="loading()"
-          aria-label="Rounds"
-          data-testid="board-rounds"
+          label="Rounds"
+          testId="board-rounds"
         />
       }
     </section>
@@ -65,7 +63,6 @@ export class BoardList implements OnInit {
   private readonly service = inject(BoardService);
   private readonly auth = inject(AuthService);
   private readonly router = inject(Router);
-  protected readonly theme = ringletGridTheme;
   protected readonly rounds = signal<BoardListEntry[]>([]);
   protected readonly loading = signal(true);
   protected readonly rowId = (p: { data: BoardListEntry }) => p.data.roundId;

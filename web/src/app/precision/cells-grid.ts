@@ -1,5 +1,4 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
-import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef, RowClassParams, RowStyle } from 'ag-grid-community';
 import {
   PRECISION_TEST_LABELS,
@@ -7,33 +6,20 @@ import {
   type PrecisionMeasurandResult,
 } from '@ringlet/shared/contracts/precision';
 import { ClassCell } from './class-cell';
-import { precisionGridTheme } from './precision-grid';
+import { PrecisionTable } from './precision-table';
 import { CLASS_WORDS, fix, replicatesText } from './precision-view';
 
 /** The cells of one level: each lab's replicates, n, mean, SD, h, k and what the tests made of it. */
 @Component({
   selector: 'app-precision-cells-grid',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular],
+  imports: [PrecisionTable],
   templateUrl: './cells-grid.html',
-  styles: `
-    /* The page scrolls a wide table sideways; the grid itself never does (on a phone its own
-       scrollbar would cover the last row). */
-    .grid-wrap {
-      overflow-x: auto;
-      margin-bottom: 8px;
-    }
-    .precision-grid {
-      width: 100%;
-      min-width: 980px;
-    }
-  `,
 })
 export class CellsGrid {
   readonly cells = input.required<readonly PrecisionCellResult[]>();
   readonly measurand = input.required<PrecisionMeasurandResult>();
   readonly caption = input.required<string>();
-  protected readonly theme = precisionGridTheme;
   protected readonly rowId = (p: { data: PrecisionCellResult }) => p.data.participantCode;
   /** A cell set aside reads grey and italic (its "Set aside" column says so in words). */
   protected readonly rowStyle = ({

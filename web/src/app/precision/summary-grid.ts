@@ -1,35 +1,21 @@
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
-import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef } from 'ag-grid-community';
 import type {
   PrecisionLevelResult,
   PrecisionMeasurandResult,
 } from '@ringlet/shared/contracts/precision';
-import { precisionGridTheme } from './precision-grid';
+import { PrecisionTable } from './precision-table';
 import { fix } from './precision-view';
 
 /** One row per level of a measurand: p, Σn, m̂, s_r, s_L, s_R, r = 2.8·s_r, R = 2.8·s_R. */
 @Component({
   selector: 'app-precision-summary-grid',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular],
+  imports: [PrecisionTable],
   templateUrl: './summary-grid.html',
-  styles: `
-    /* The page scrolls a wide table sideways; the grid itself never does (on a phone its own
-       scrollbar would cover the last row). */
-    .grid-wrap {
-      overflow-x: auto;
-      margin-bottom: 8px;
-    }
-    .precision-grid {
-      width: 100%;
-      min-width: 1000px;
-    }
-  `,
 })
 export class SummaryGrid {
   readonly measurand = input.required<PrecisionMeasurandResult>();
-  protected readonly theme = precisionGridTheme;
   protected readonly rowId = (p: { data: PrecisionLevelResult }) => p.data.itemCode;
   protected readonly columns = computed<ColDef<PrecisionLevelResult>[]>(() => {
     const m = this.measurand();

@@ -3,7 +3,6 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { Router } from '@angular/router';
-import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef } from 'ag-grid-community';
 import {
   ROUND_KIND_LABELS,
@@ -14,9 +13,9 @@ import { ROUND_STATE_LABELS } from '@ringlet/shared/contracts/round-states';
 import type { RowAction } from '../grid/action-cell';
 import { actionsColumn } from '../grid/columns';
 import { openDialog } from '../shared/open-dialog';
-import { rowId } from '../shared/section-grid';
+import { PageGrid } from '../shared/page-grid';
 import { RoundDialog, type RoundDialogData } from './round-dialog/round-dialog';
-import { formatDate, formatMoney, ringletGridTheme } from './rounds-grid';
+import { formatDate, formatMoney } from './rounds-grid';
 import { RoundsService } from './rounds-service';
 import { SchemeDialog } from './scheme-dialog/scheme-dialog';
 
@@ -24,7 +23,7 @@ import { SchemeDialog } from './scheme-dialog/scheme-dialog';
 @Component({
   selector: 'app-round-desk',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [AgGridAngular, MatButtonModule, MatIconModule],
+  imports: [MatButtonModule, MatIconModule, PageGrid],
   template: `
     <section class="page">
       <h1 data-testid="page-heading">Round desk</h1>
@@ -45,16 +44,7 @@ import { SchemeDialog } from './scheme-dialog/scheme-dialog';
           <span>Create a scheme first; rounds belong to a scheme.</span>
         }
       </div>
-      <ag-grid-angular
-        class="grid-box"
-        [theme]="theme"
-        [loadThemeGoogleFonts]="false"
-        [rowData]="rounds()"
-        [columnDefs]="columns"
-        [getRowId]="rowId"
-        [loading]="loading()"
-        aria-label="Rounds"
-      />
+      <app-page-grid [rows]="rounds()" [columns]="columns" [loading]="loading()" label="Rounds" />
     </section>
   `,
 })
@@ -62,11 +52,9 @@ export class RoundDesk implements OnInit {
   private readonly api = inject(RoundsService);
   private readonly dialog = inject(MatDialog);
   private readonly router = inject(Router);
-  protected readonly theme = ringletGridTheme;
   protected readonly rounds = signal<RoundSummary[]>([]);
   protected readonly schemes = signal<Scheme[]>([]);
   protected readonly loading = signal(true);
-  protected readonly rowId = rowId;
 
   private readonly actions: RowAction<RoundSummary>[] = [
     {

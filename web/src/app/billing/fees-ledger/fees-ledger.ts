@@ -13,7 +13,6 @@ import { MatIconModule } from '@angular/material/icon';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { RouterLink } from '@angular/router';
-import { AgGridAngular } from 'ag-grid-angular';
 import {
   CellStyleModule,
   ClientSideRowModelModule,
@@ -24,7 +23,7 @@ import type { Invoice, Ledger, LedgerRow } from '@ringlet/shared/contracts/billi
 import type { Observable } from 'rxjs';
 import { problemMessage } from '../../core/problem';
 import type { RowAction } from '../../grid/action-cell';
-import { ringletGridTheme } from '../../grid/grid-theme';
+import { PageGrid } from '../../shared/page-grid';
 import { BillingService } from '../billing-service';
 import { CreditDialog } from '../credit-dialog/credit-dialog';
 import { MarkPaidDialog } from '../mark-paid-dialog/mark-paid-dialog';
@@ -39,11 +38,11 @@ ModuleRegistry.registerModules([ClientSideRowModelModule, TextFilterModule, Cell
   changeDetection: ChangeDetectionStrategy.OnPush,
   providers: [CurrencyPipe],
   imports: [
-    AgGridAngular,
     LedgerTotals,
     MatButtonModule,
     MatIconModule,
     MatSlideToggleModule,
+    PageGrid,
     RouterLink,
   ],
   templateUrl: './fees-ledger.html',
@@ -56,7 +55,6 @@ export class FeesLedger implements OnInit {
   private readonly dialog = inject(MatDialog);
   private readonly snack = inject(MatSnackBar);
   private readonly currency = inject(CurrencyPipe);
-  protected readonly theme = ringletGridTheme;
   protected readonly ledger = signal<Ledger | null>(null);
   protected readonly loading = signal(true);
   protected readonly rowId = (p: { data: LedgerRow }) => p.data.invoiceId;

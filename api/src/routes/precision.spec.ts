@@ -406,6 +406,12 @@ describe('precision studies', () => {
     ]);
     const r2 = await send(coord, `/rounds/${rr.round.id}/evaluation`, {}).expect(422);
     expect(r2.body.error.code).toBe('precision_study_no_scores');
+    // The Consensus board lists PT rounds only: a study has no board of scores to open.
+    const boards = (await coord.agent.get(api('/boards')).expect(200)).body as {
+      roundId: string;
+    }[];
+    expect(boards.map((b) => b.roundId)).toContain(pt.round.id);
+    expect(boards.map((b) => b.roundId)).not.toContain(rr.round.id);
     await coord.agent
       .get(api(`/rounds/00000000-0000-4000-8000-000000000000/precision`))
       .expect(404);

@@ -165,6 +165,7 @@ export async function boardJson(
 }
 
 /** GET /boards: the rounds whose board the user may open. */
+/** PT rounds only: a precision study has no scores, so no board (its page is the study page). */
 export async function listBoards(ctx: AppContext, user: SessionUser): Promise<BoardListEntry[]> {
   const viewer = viewerOf(user);
   const params: unknown[] = [];
@@ -203,7 +204,7 @@ export async function listBoards(ctx: AppContext, user: SessionUser): Promise<Bo
                   count(*) FILTER (WHERE p->>'signal' = 'action') AS action
              FROM evaluation_result er CROSS JOIN LATERAL jsonb_array_elements(er.participants) p
             WHERE er.evaluation_id = e.id) c ON true
-        WHERE ${where}
+        WHERE r.kind = 'pt' AND ${where}
         ORDER BY r.created_at DESC LIMIT 500`,
     params,
   );

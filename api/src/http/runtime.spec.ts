@@ -88,14 +88,17 @@ describe('graceful shutdown', () => {
     const app = express();
     let arrived!: () => void;
     const handling = new Promise<void>((r) => (arrived = r));
+    const order: string[] = [];
     app.get('/slow', (_req, res) => {
       arrived();
+      // The server's side of "finished": the whole answer handed to the connection. (The
+      // client's 'end' event can come after the shutdown steps on a loaded machine.)
+      res.on('finish', () => order.push('response'));
       setTimeout(() => res.json({ finished: true }), 600);
     });
     const server = app.listen(0, '127.0.0.1');
     await new Promise((r) => server.once('listening', r));
     const port = (server.address() as AddressInfo).port;
-    const order: string[] = [];
     const shutdown = gracefulShutdown(
       server,
       [() => void order.push('jobs stopped'), () => void order.push('database closed')],
@@ -110,10 +113,7 @@ describe('graceful shutdown', () => {
         .get({ host: '127.0.0.1', port, path: '/slow', agent }, (res) => {
           let body = '';
           res.on('data', (c: Buffer) => (body += c.toString()));
-          res.on('end', () => {
-            order.push('response');
-            resolve({ status: res.statusCode ?? 0, body });
-          });
+          res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
         })
         .on('error', reject);
     });

@@ -165,6 +165,13 @@ export function linkToken(text: string): string {
   return m[1]!;
 }
 
+/** The token of the first /invitations/ link in a message (a round's invitation to a lab). */
+export function invitationToken(text: string): string {
+  const m = /\/invitations\/([A-Za-z0-9_-]+)/.exec(text);
+  if (!m) throw new Error(`no invitation link in: ${text}`);
+  return m[1]!;
+}
+
 /** supertest: collect a binary response body into a Buffer (`.buffer(true).parse(binary)`). */
 export function binary(res: unknown, done: (err: Error | null, body: Buffer) => void): void {
   const stream = res as NodeJS.ReadableStream;

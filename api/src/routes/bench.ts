@@ -1,4 +1,4 @@
-import type { Request, Response } from 'express';
+import type { Request } from 'express';
 import * as z from 'zod';
 import type { ZodType } from 'zod';
 import {
@@ -28,6 +28,7 @@ import {
   RESULTS_WORKBOOK_LIMIT,
 } from '../../../shared/contracts/upload-limits';
 import type { SessionUser } from '../auth/session-user';
+import { sendDownload } from '../http/downloads';
 import { badRequest } from '../http/errors';
 import { uploadedFile, uploadRule } from '../http/uploads';
 import type { ApiRouter, Infer, RouteContext, RouteDefinition } from '../http/route';
@@ -51,24 +52,6 @@ function labOf(req: Request, user: SessionUser, query: { labId?: string }): stri
     ]);
   }
   return bench.resolveLab(user, query.labId ?? header);
-}
-
-function sendFile(
-  res: Response,
-  data: Buffer,
-  contentType: string,
-  fileName: string,
-  sha256?: string,
-): void {
-  res.setHeader('Content-Type', contentType);
-  res.setHeader('Content-Length', String(data.length));
-  res.setHeader(
-    'Content-Disposition',
-    `attachment; filename="${fileName.replace(/[^\x20-\x7e]|"/g, '_')}"; filename*=UTF-8''${encodeURIComponent(fileName)}`,
-  );
-  res.setHeader('Cache-Control', 'private, no-store');
-  if (sha256) res.setHeader('X-Checksum-Sha256', sha256);
-  res.status(200).end(data);
 }
 
 /** A lab bench route: for lab members, acting for the one lab that `labOf` resolves. */
@@ -139,7 +122,7 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
     handler: async ({ res, params, labId }) => {
       const { enrolment } = await bench.findEnrolment(ctx.ds.manager, labId, params.id);
       const photo = await bench.receiptPhoto(ctx, enrolment.id);
-      sendFile(res, photo.data, photo.type, 'receipt-photo');
+      sendDownload(res, { file: photo.data, contentType: photo.type, fileName: 'receipt-photo' });
     },
   });
 
@@ -252,7 +235,7 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
       const labId = user.roles.includes('coordinator') ? null : labOf(req, user, query);
       const file = await attachments.readAttachment(ctx, labId, params.id, params.attachmentId);
       await attachments.auditDownload(ctx, user, file);
-      sendFile(res, file.data, file.contentType, file.fileName, file.sha256);
+      sendDownload(res, { ...file, file: file.data });
     },
   });
 
@@ -265,12 +248,11 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
     produces: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
     handler: async ({ res, params, labId }) => {
       const { buffer, fileName } = await workbook.buildTemplate(ctx, labId, params.id);
-      sendFile(
-        res,
-        buffer,
-        'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+      sendDownload(res, {
+        file: buffer,
+        contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
         fileName,
-      );
+      });
     },
   });
   api.router.post('/rounds/:id/submission/upload.xlsx', uploadRule(RESULTS_WORKBOOK_LIMIT, lab));

@@ -1,16 +1,8 @@
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const pdfParse = require('pdf-parse') as (b: Buffer) => Promise<{ text: string }>;
 import { demoLogoPng } from '../../../db/seed/demo-provider';
-import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evaluation-fixtures';
-import {
-  commitAndPublish,
-  createCast,
-  download,
-  send,
-  startTestApp,
-  type Client,
-  type TestApp,
-} from '../testing/test-app';
+import { startFixtureCast, type EvaluationFixture } from '../testing/evaluation-fixtures';
+import { commitAndPublish, download, send, type Client, type TestApp } from '../testing/test-app';
 
 const profile = {
   name: 'Invented PT Office',
@@ -33,15 +25,12 @@ describe('provider profile and round comments', () => {
   let lab: Client;
 
   beforeAll(async () => {
-    t = await startTestApp();
-    fx = await buildEvaluationFixture(t.ds, { participants: 12, labPrefix: 'Comment Lab' });
-    const cast = await createCast(t, {
-      users: [
-        { email: 'coord@prov.test', roles: ['coordinator'], signIn: true },
-        { email: 'admin@prov.test', roles: ['admin'], signIn: true },
-        { email: 'lab@prov.test', lab: fx.labs[0]!.id, signIn: true },
-      ],
-    });
+    const cast = await startFixtureCast({ participants: 12, labPrefix: 'Comment Lab' }, (fx) => [
+      { email: 'coord@prov.test', roles: ['coordinator'], signIn: true },
+      { email: 'admin@prov.test', roles: ['admin'], signIn: true },
+      { email: 'lab@prov.test', lab: fx.labs[0]!.id, signIn: true },
+    ]);
+    ({ t, fx } = cast);
     coordinator = cast.as('coord@prov.test');
     admin = cast.as('admin@prov.test');
     lab = cast.as('lab@prov.test');

@@ -2,16 +2,8 @@ import ExcelJS from 'exceljs';
 import JSZip from 'jszip';
 import { createHash } from 'node:crypto';
 import { AssessorGrant } from '../../../db/entities';
-import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evaluation-fixtures';
-import {
-  commitAndPublish,
-  createCast,
-  download,
-  send,
-  startTestApp,
-  type Client,
-  type TestApp,
-} from '../testing/test-app';
+import { startFixtureCast, type EvaluationFixture } from '../testing/evaluation-fixtures';
+import { commitAndPublish, download, send, type Client, type TestApp } from '../testing/test-app';
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const pdfParse = require('pdf-parse') as (b: Buffer) => Promise<{ text: string }>;
 
@@ -36,20 +28,16 @@ describe('reports and assessor access', () => {
   };
 
   beforeAll(async () => {
-    t = await startTestApp();
-    fx = await buildEvaluationFixture(t.ds, {
-      participants: 20,
-      labPrefix: 'Secretive Lab',
-      blunders: { 2: 2 },
-    });
-    const cast = await createCast(t, {
-      users: [
+    const cast = await startFixtureCast(
+      { participants: 20, labPrefix: 'Secretive Lab', blunders: { 2: 2 } },
+      (fx) => [
         { email: 'coord@rep.test', roles: ['coordinator'], signIn: true },
         { email: 'lab@rep.test', lab: fx.labs[0]!.id, manager: true, signIn: true },
         { email: 'assessor@rep.test', roles: ['assessor'], signIn: true },
         { email: 'stranger@rep.test', roles: ['assessor'], signIn: true },
       ],
-    });
+    );
+    ({ t, fx } = cast);
     coordinator = cast.as('coord@rep.test');
     lab = cast.as('lab@rep.test');
     assessor = cast.as('assessor@rep.test');

@@ -16,6 +16,7 @@ import {
   TestItem,
 } from '../../../db/entities';
 import { mulberry32 } from '../../../shared/stats/synthetic-round';
+import { createCast, startTestApp, type Cast, type CastMember } from './test-app';
 
 export interface EvaluationFixtureSpec {
   participants: number;
@@ -190,4 +191,17 @@ export async function buildEvaluationFixture(
     );
     return { round, items, measurands, labs, enrolments: ordered, values };
   });
+}
+
+/**
+ * The real app on a fresh database with a fixture round, and a cast whose `users` may join the
+ * fixture's labs by id (`lab: fx.labs[0]!.id`).
+ */
+export async function startFixtureCast(
+  spec: EvaluationFixtureSpec,
+  users: (fx: EvaluationFixture) => CastMember[],
+): Promise<Cast & { fx: EvaluationFixture }> {
+  const t = await startTestApp();
+  const fx = await buildEvaluationFixture(t.ds, spec);
+  return { ...(await createCast(t, { users: users(fx) })), fx };
 }

@@ -40,6 +40,14 @@ export function parseSigmaPt(text: string): SigmaPtRule {
   return isPercent ? { kind: 'percent', percent: v } : { kind: 'fixed', value: v };
 }
 
+/** The value of option `option`, which must be one of `choices`. */
+function oneOf<T extends string>(option: string, value: string, choices: readonly T[]): T {
+  if (!(choices as readonly string[]).includes(value)) {
+    throw new CliInputError(`option ${option}: "${value}" is not one of ${choices.join(', ')}`);
+  }
+  return value as T;
+}
+
 /** Parses the command line (without `node script`). Accepts `--opt value` and `--opt=value`. */
 export function parseArgs(argv: readonly string[]): EvaluateArgs {
   let file: string | undefined;
@@ -66,22 +74,12 @@ export function parseArgs(argv: readonly string[]): EvaluateArgs {
         return next;
       };
       switch (name) {
-        case '--mode': {
-          const v = takeValue();
-          if (v !== 'pt' && v !== 'precision') {
-            throw new CliInputError(`option --mode: "${v}" is not one of pt, precision`);
-          }
-          mode = v;
+        case '--mode':
+          mode = oneOf(name, takeValue(), ['pt', 'precision']);
           break;
-        }
-        case '--format': {
-          const v = takeValue();
-          if (v !== 'json' && v !== 'table') {
-            throw new CliInputError(`option --format: "${v}" is not one of json, table`);
-          }
-          format = v;
+        case '--format':
+          format = oneOf(name, takeValue(), ['json', 'table']);
           break;
-        }
         case '--sigma-pt':
           sigmaPt = parseSigmaPt(takeValue());
           break;

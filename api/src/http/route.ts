@@ -14,7 +14,8 @@ export { hasAnyRole };
 export type Access = 'public' | 'signed-in' | readonly Role[];
 export type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
-type Infer<T> = T extends ZodType ? z.output<T> : undefined;
+/** What a route's schema (or its absence) hands the handler. */
+export type Infer<T> = T extends ZodType ? z.output<T> : undefined;
 
 export interface RouteContext<B, P, Q> {
   req: Request;

@@ -12,6 +12,7 @@ import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evalu
 import {
   createLab,
   createUser,
+  send,
   signedIn,
   startTestApp,
   testConfig,
@@ -92,16 +93,8 @@ describe('durable background work (pg-boss)', () => {
     fx = await buildEvaluationFixture(t.ds, { participants: 12, labPrefix: 'Durable Lab' });
     await createUser(t.ds, { email: 'coord@durable.test', roles: ['coordinator'] });
     const c: Client = await signedIn(t, 'coord@durable.test');
-    await c.agent
-      .post(`/api/v1/rounds/${fx.round.id}/evaluation`)
-      .set('x-csrf-token', c.csrf)
-      .send({})
-      .expect(201);
-    await c.agent
-      .post(`/api/v1/rounds/${fx.round.id}/evaluation/commit`)
-      .set('x-csrf-token', c.csrf)
-      .send({})
-      .expect(200);
+    await send(c, `/rounds/${fx.round.id}/evaluation`, {}).expect(201);
+    await send(c, `/rounds/${fx.round.id}/evaluation/commit`, {}).expect(200);
   });
   afterEach(async () => {
     for (const j of running.splice(0)) await j.stop(1000).catch(() => undefined);
@@ -191,11 +184,7 @@ describe('durable background work (pg-boss)', () => {
       close: () => undefined,
     };
     const a = await instance({ mailer: down });
-    const res = await a.coordinator.agent
-      .post(`/api/v1/rounds/${fx.round.id}/publish`)
-      .set('x-csrf-token', a.coordinator.csrf)
-      .send({})
-      .expect(200);
+    const res = await send(a.coordinator, `/rounds/${fx.round.id}/publish`, {}).expect(200);
     expect(res.body.labsNotified).toBe(12);
     // The publication committed with one job per lab; A tries, SMTP refuses, the jobs wait for a retry.
     await until('the first attempts', () => refused.length >= 12);

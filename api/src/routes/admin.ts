@@ -1,4 +1,5 @@
 import * as z from 'zod';
+import type { ZodType } from 'zod';
 import { Me } from '../../../shared/contracts/auth';
 import {
   LabInvitation,
@@ -19,7 +20,7 @@ import {
 import { IdParams } from '../../../shared/contracts/common';
 import { actingFor, managesLab, toMe } from '../auth/session-user';
 import { notFound } from '../http/errors';
-import type { ApiRouter } from '../http/route';
+import type { ApiRouter, RouteDefinition } from '../http/route';
 import type { AppContext } from '../services/context';
 import * as users from '../services/users';
 
@@ -146,80 +147,69 @@ export function adminRoutes(api: ApiRouter, ctx: AppContext): void {
   });
 
   // A lab manager looks after the lab's own users. Another lab's id answers 404.
-  const labAccess = ['admin', 'lab'] as const;
-  const assertManager = (user: Parameters<typeof managesLab>[0], labId: string) => {
-    if (!user.roles.includes('admin') && !managesLab(user, labId)) throw notFound('The lab');
-  };
-  api.add({
+  /** A route on /labs/{id}/…: for an admin or a manager of lab `id` (anyone else: 404). */
+  function addLabRoute<B extends ZodType | undefined, P extends ZodType>(
+    def: Omit<RouteDefinition<B, P>, 'tag' | 'access'>,
+  ): void {
+    api.add<B, P>({
+      ...def,
+      tag: 'labs',
+      access: ['admin', 'lab'],
+      handler: (route) => {
+        const labId = (route.params as { id: string }).id;
+        if (!route.user.roles.includes('admin') && !managesLab(route.user, labId))
+          throw notFound('The lab');
+        return def.handler(route);
+      },
+    });
+  }
+  addLabRoute({
     method: 'get',
     path: '/labs/{id}/members',
-    tag: 'labs',
     summary: 'Members of my lab (lab managers)',
-    access: labAccess,
     params: IdParams,
     response: z.array(Membership),
-    handler: ({ params, user }) => {
-      assertManager(user, params.id);
-      return users.listMemberships(ctx.ds.manager, params.id);
-    },
+    handler: ({ params }) => users.listMemberships(ctx.ds.manager, params.id),
   });
-  api.add({
+  addLabRoute({
     method: 'post',
     path: '/labs/{id}/members',
-    tag: 'labs',
     summary: 'Invite a colleague into my lab (lab managers)',
     description:
       'A new address gets an account, the membership and a first-password link (outcome member-added). An existing account gets an invitation ' +
       'it accepts or declines, and no membership until it accepts (outcome invitation-sent). A PT provider staff account (admin, coordinator, ' +
       'assessor) answers 422 staff_account; a member already, 409.',
-    access: labAccess,
     params: IdParams,
     body: LabMemberInvite,
     status: 201,
     response: LabMemberInviteResult,
-    handler: ({ params, body, user }) => {
-      assertManager(user, params.id);
-      return users.inviteLabMember(ctx, user, params.id, body);
-    },
+    handler: ({ params, body, user }) => users.inviteLabMember(ctx, user, params.id, body),
   });
-  api.add({
+  addLabRoute({
     method: 'delete',
     path: '/labs/{id}/members/{membershipId}',
-    tag: 'labs',
     summary: 'Remove a colleague from my lab (lab managers)',
-    access: labAccess,
     params: LabMemberParams,
     status: 204,
-    handler: ({ params, user }) => {
-      assertManager(user, params.id);
-      return users.deleteMembership(ctx, user, params.membershipId, params.id);
-    },
+    handler: ({ params, user }) =>
+      users.deleteMembership(ctx, user, params.membershipId, params.id),
   });
-  api.add({
+  addLabRoute({
     method: 'get',
     path: '/labs/{id}/invitations',
-    tag: 'labs',
     summary: 'Open invitations of my lab (lab managers)',
-    access: labAccess,
     params: IdParams,
     response: z.array(LabInvitation),
-    handler: ({ params, user }) => {
-      assertManager(user, params.id);
-      return users.listLabInvitations(ctx.ds.manager, params.id);
-    },
+    handler: ({ params }) => users.listLabInvitations(ctx.ds.manager, params.id),
   });
-  api.add({
+  addLabRoute({
     method: 'delete',
     path: '/labs/{id}/invitations/{invitationId}',
-    tag: 'labs',
     summary: 'Withdraw an open invitation of my lab (lab managers)',
-    access: labAccess,
     params: LabInvitationParams,
     status: 204,
-    handler: ({ params, user }) => {
-      assertManager(user, params.id);
-      return users.withdrawLabInvitation(ctx, user, params.id, params.invitationId);
-    },
+    handler: ({ params, user }) =>
+      users.withdrawLabInvitation(ctx, user, params.id, params.invitationId),
   });
 
   // The invited person answers. Any signed-in account may hold invitations (it has no lab yet).

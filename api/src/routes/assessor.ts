@@ -1,10 +1,10 @@
 import { IdParams } from '../../../shared/contracts/common';
 import { AssessorLab, AssessorLabDetail } from '../../../shared/contracts/reports';
 import * as z from 'zod';
+import { sendDownload } from '../http/downloads';
 import type { ApiRouter } from '../http/route';
 import { assessorLabDetail, assessorLabs, evidencePack } from '../services/assessor';
 import type { AppContext } from '../services/context';
-import { sha256 } from '../../../reports/model';
 
 /** The assessor's reading room: labs with an active grant, their rounds, and Evidence packs. */
 export function assessorRoutes(api: ApiRouter, ctx: AppContext): void {
@@ -42,11 +42,7 @@ export function assessorRoutes(api: ApiRouter, ctx: AppContext): void {
     produces: 'application/zip',
     handler: async ({ user, params, res }) => {
       const out = await evidencePack(ctx, user, params.id);
-      res.setHeader('Content-Type', 'application/zip');
-      res.setHeader('Content-Disposition', `attachment; filename="${out.fileName}"`);
-      res.setHeader('X-Content-SHA256', sha256(out.file));
-      res.setHeader('Cache-Control', 'private, no-store');
-      res.status(200).send(out.file);
+      sendDownload(res, { ...out, contentType: 'application/zip' });
     },
   });
 }

@@ -4,6 +4,7 @@ import {
   createUser,
   linkToken,
   mailTo,
+  send,
   signedIn,
   startCast,
   startTestApp,
@@ -43,7 +44,7 @@ describe('auth routes', () => {
         isManager: true,
       }),
     ]);
-    await c.agent.post('/api/v1/auth/sign-out').set('x-csrf-token', c.csrf).expect(204);
+    await send(c, '/auth/sign-out', {}).expect(204);
     await c.agent.get('/api/v1/auth/me').expect(401);
   });
 
@@ -51,11 +52,10 @@ describe('auth routes', () => {
     const c = await client(t);
     const before = await c.agent.get('/api/v1/auth/csrf-token');
     const cookieBefore = String(before.headers['set-cookie'] ?? '');
-    const res = await c.agent
-      .post('/api/v1/auth/sign-in')
-      .set('x-csrf-token', c.csrf)
-      .send({ email: 'coord@x.test', password: TEST_PASSWORD })
-      .expect(200);
+    const res = await send(c, '/auth/sign-in', {
+      email: 'coord@x.test',
+      password: TEST_PASSWORD,
+    }).expect(200);
     const cookieAfter = String(res.headers['set-cookie'] ?? '');
     expect(cookieAfter).toMatch(/ringlet\.sid=/);
     expect(cookieAfter.split(';')[0]).not.toBe(cookieBefore.split(';')[0]);
@@ -66,27 +66,21 @@ describe('auth routes', () => {
 
   it('gives the same message for an unknown user and a wrong password', async () => {
     const c = await client(t);
-    const wrong = await c.agent
-      .post('/api/v1/auth/sign-in')
-      .set('x-csrf-token', c.csrf)
-      .send({ email: 'coord@x.test', password: 'nope-nope-nope' })
-      .expect(401);
-    const unknown = await c.agent
-      .post('/api/v1/auth/sign-in')
-      .set('x-csrf-token', c.csrf)
-      .send({ email: 'ghost@x.test', password: 'nope-nope-nope' })
-      .expect(401);
+    const wrong = await send(c, '/auth/sign-in', {
+      email: 'coord@x.test',
+      password: 'nope-nope-nope',
+    }).expect(401);
+    const unknown = await send(c, '/auth/sign-in', {
+      email: 'ghost@x.test',
+      password: 'nope-nope-nope',
+    }).expect(401);
     expect(wrong.body).toEqual(unknown.body);
     expect(wrong.body.error.message).toBe('E-mail or password is incorrect.');
   });
 
   it('names the field on bad input', async () => {
     const c = await client(t);
-    const res = await c.agent
-      .post('/api/v1/auth/sign-in')
-      .set('x-csrf-token', c.csrf)
-      .send({ email: 'not-an-email', password: '' })
-      .expect(400);
+    const res = await send(c, '/auth/sign-in', { email: 'not-an-email', password: '' }).expect(400);
     expect(res.body.error.code).toBe('validation_failed');
     const paths = res.body.error.details.map((d: { path: string }) => d.path);
     expect(paths).toEqual(expect.arrayContaining(['email', 'password']));
@@ -106,30 +100,22 @@ describe('auth routes', () => {
     await createUser(t.ds, { email: 'victim@x.test' });
     const c = await client(t);
     for (let i = 0; i < 5; i++) {
-      await c.agent
-        .post('/api/v1/auth/sign-in')
-        .set('x-csrf-token', c.csrf)
-        .send({ email: 'victim@x.test', password: `wrong-${i}` })
-        .expect(401);
+      await send(c, '/auth/sign-in', { email: 'victim@x.test', password: `wrong-${i}` }).expect(
+        401,
+      );
     }
-    const res = await c.agent
-      .post('/api/v1/auth/sign-in')
-      .set('x-csrf-token', c.csrf)
-      .send({ email: 'victim@x.test', password: TEST_PASSWORD })
-      .expect(429);
+    const res = await send(c, '/auth/sign-in', {
+      email: 'victim@x.test',
+      password: TEST_PASSWORD,
+    }).expect(429);
     expect(res.body.error.code).toBe('locked');
     // an unknown address locks the same way (no enumeration)
     for (let i = 0; i < 5; i++) {
-      await c.agent
-        .post('/api/v1/auth/sign-in')
-        .set('x-csrf-token', c.csrf)
-        .send({ email: 'nobody@x.test', password: `wrong-${i}` });
+      await send(c, '/auth/sign-in', { email: 'nobody@x.test', password: `wrong-${i}` });
     }
-    const ghost = await c.agent
-      .post('/api/v1/auth/sign-in')
-      .set('x-csrf-token', c.csrf)
-      .send({ email: 'nobody@x.test', password: 'x' })
-      .expect(429);
+    const ghost = await send(c, '/auth/sign-in', { email: 'nobody@x.test', password: 'x' }).expect(
+      429,
+    );
     expect(ghost.body.error.code).toBe('locked');
   });
 
@@ -141,37 +127,20 @@ describe('auth routes', () => {
   it('resets a password through an e-mailed single-use link', async () => {
     await createUser(t.ds, { email: 'forgetful@x.test', name: 'Fay Forget' });
     const c = await client(t);
-    await c.agent
-      .post('/api/v1/auth/password-reset')
-      .set('x-csrf-token', c.csrf)
-      .send({ email: 'forgetful@x.test' })
-      .expect(202);
-    await c.agent
-      .post('/api/v1/auth/password-reset')
-      .set('x-csrf-token', c.csrf)
-      .send({ email: 'unknown@x.test' })
-      .expect(202);
+    await send(c, '/auth/password-reset', { email: 'forgetful@x.test' }).expect(202);
+    await send(c, '/auth/password-reset', { email: 'unknown@x.test' }).expect(202);
     const [mail] = await mailTo(t.ds, 'forgetful@x.test');
     expect(mail!.subject).toBe('Reset your Ringlet password');
     const token = linkToken(mail!.text);
     const info = await c.agent.get(`/api/v1/auth/password-tokens/${token}`).expect(200);
     expect(info.body).toMatchObject({ email: 'forgetful@x.test', purpose: 'reset' });
-    await c.agent
-      .post('/api/v1/auth/password')
-      .set('x-csrf-token', c.csrf)
-      .send({ token, password: 'short' })
-      .expect(400);
-    await c.agent
-      .post('/api/v1/auth/password')
-      .set('x-csrf-token', c.csrf)
-      .send({ token, password: 'a brand new password' })
-      .expect(204);
+    await send(c, '/auth/password', { token, password: 'short' }).expect(400);
+    await send(c, '/auth/password', { token, password: 'a brand new password' }).expect(204);
     // used once: refused the second time
-    const again = await c.agent
-      .post('/api/v1/auth/password')
-      .set('x-csrf-token', c.csrf)
-      .send({ token, password: 'another new password' })
-      .expect(404);
+    const again = await send(c, '/auth/password', {
+      token,
+      password: 'another new password',
+    }).expect(404);
     expect(again.body.error.code).toBe('link_invalid');
     await c.agent.get(`/api/v1/auth/password-tokens/${token}`).expect(404);
     await signedIn(t, 'forgetful@x.test', 'a brand new password');
@@ -185,18 +154,10 @@ describe('auth routes', () => {
   it('refuses an expired link', async () => {
     await createUser(t.ds, { email: 'late@x.test' });
     const c = await client(t);
-    await c.agent
-      .post('/api/v1/auth/password-reset')
-      .set('x-csrf-token', c.csrf)
-      .send({ email: 'late@x.test' })
-      .expect(202);
+    await send(c, '/auth/password-reset', { email: 'late@x.test' }).expect(202);
     const token = linkToken((await mailTo(t.ds, 'late@x.test'))[0]!.text);
     await t.ds.query(`UPDATE password_token SET expires_at = now() - interval '1 second'`);
-    await c.agent
-      .post('/api/v1/auth/password')
-      .set('x-csrf-token', c.csrf)
-      .send({ token, password: 'a brand new password' })
-      .expect(404);
+    await send(c, '/auth/password', { token, password: 'a brand new password' }).expect(404);
   });
 
   it('keeps an append-only audit trail', async () => {
@@ -218,11 +179,7 @@ describe('auth in production mode', () => {
 
   it('refuses demo accounts', async () => {
     const c = await client(t);
-    await c.agent
-      .post('/api/v1/auth/sign-in')
-      .set('x-csrf-token', c.csrf)
-      .send({ email: 'demo@x.test', password: TEST_PASSWORD })
-      .expect(401);
+    await send(c, '/auth/sign-in', { email: 'demo@x.test', password: TEST_PASSWORD }).expect(401);
   });
 
   it('has no outbox', async () => {

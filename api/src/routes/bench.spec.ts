@@ -524,7 +524,7 @@ describe('Lab bench API', () => {
         createHash('sha256')
           .update(own.body as Buffer)
           .digest('hex'),
-      ).toBe(own.headers['x-checksum-sha256']);
+      ).toBe(own.headers['x-content-sha256']);
       expect(own.headers['content-disposition']).toContain('item-A.csv');
       await coord.agent
         .get(api(`/rounds/${r.round.id}/submission/attachments/${fileId}`))

@@ -1,5 +1,6 @@
-import type { Request, Response } from 'express';
+import type { Request } from 'express';
 import * as z from 'zod';
+import type { ZodType } from 'zod';
 import {
   AttachmentDto,
   AttachmentParams,
@@ -27,9 +28,10 @@ import {
   RESULTS_WORKBOOK_LIMIT,
 } from '../../../shared/contracts/upload-limits';
 import type { SessionUser } from '../auth/session-user';
+import { sendDownload } from '../http/downloads';
 import { badRequest } from '../http/errors';
 import { uploadedFile, uploadRule } from '../http/uploads';
-import type { ApiRouter } from '../http/route';
+import type { ApiRouter, Infer, RouteContext, RouteDefinition } from '../http/route';
 import * as attachments from '../services/attachments';
 import * as bench from '../services/bench';
 import type { AppContext } from '../services/context';
@@ -52,111 +54,87 @@ function labOf(req: Request, user: SessionUser, query: { labId?: string }): stri
   return bench.resolveLab(user, query.labId ?? header);
 }
 
-function sendFile(
-  res: Response,
-  data: Buffer,
-  contentType: string,
-  fileName: string,
-  sha256?: string,
-): void {
-  res.setHeader('Content-Type', contentType);
-  res.setHeader('Content-Length', String(data.length));
-  res.setHeader(
-    'Content-Disposition',
-    `attachment; filename="${fileName.replace(/[^\x20-\x7e]|"/g, '_')}"; filename*=UTF-8''${encodeURIComponent(fileName)}`,
-  );
-  res.setHeader('Cache-Control', 'private, no-store');
-  if (sha256) res.setHeader('X-Checksum-Sha256', sha256);
-  res.status(200).end(data);
+/** A lab bench route: for lab members, acting for the one lab that `labOf` resolves. */
+interface BenchRoute<B extends ZodType | undefined, P extends ZodType | undefined> extends Omit<
+  RouteDefinition<B, P, typeof LabQuery>,
+  'tag' | 'access' | 'query' | 'handler'
+> {
+  handler: (
+    route: RouteContext<Infer<B>, Infer<P>, z.output<typeof LabQuery>> & { labId: string },
+  ) => unknown;
 }
 
 /** Lab bench: the lab's rounds, receipt, instrument checks, results (draft, submit, amend), files, workbook. */
 export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
-  api.add({
+  /** Declares a lab bench route (`description` follows LAB_DESCRIPTION); the handler gets `labId`. */
+  function addBenchRoute<
+    B extends ZodType | undefined = undefined,
+    P extends ZodType | undefined = undefined,
+  >(def: BenchRoute<B, P>): void {
+    api.add<B, P, typeof LabQuery>({
+      ...def,
+      tag: 'lab bench',
+      description: def.description ? `${LAB_DESCRIPTION} ${def.description}` : LAB_DESCRIPTION,
+      access: lab,
+      query: LabQuery,
+      handler: (route) =>
+        def.handler({ ...route, labId: labOf(route.req, route.user, route.query) }),
+    });
+  }
+  addBenchRoute({
     method: 'get',
     path: '/my/rounds',
-    tag: 'lab bench',
     summary: 'My lab\u2019s rounds: invited, enrolled, due soon, submitted, published',
-    description: LAB_DESCRIPTION,
-    access: lab,
-    query: LabQuery,
     response: z.array(MyRound),
-    handler: ({ req, user, query }) => bench.listMyRounds(ctx, labOf(req, user, query)),
+    handler: ({ labId }) => bench.listMyRounds(ctx, labId),
   });
-  api.add({
+  addBenchRoute({
     method: 'get',
     path: '/my/rounds/{id}',
-    tag: 'lab bench',
     summary:
       'One of my rounds: items, measurands, instructions with safety cautions, receipt, submission state',
-    description: LAB_DESCRIPTION,
-    access: lab,
     params: RoundIdParams,
-    query: LabQuery,
     response: MyRoundDetail,
-    handler: ({ req, user, query, params }) =>
-      bench.getMyRound(ctx, labOf(req, user, query), params.id),
+    handler: ({ params, labId }) => bench.getMyRound(ctx, labId, params.id),
   });
 
   // Receipt (JSON, or multipart with an optional `photo`).
   // Uploads: every multipart route goes through the one upload rule (api/src/http/uploads.ts).
   api.router.put('/rounds/:id/receipt', uploadRule(RECEIPT_PHOTO_LIMIT, lab));
-  api.add({
+  addBenchRoute({
     method: 'put',
     path: '/rounds/{id}/receipt',
-    tag: 'lab bench',
     summary:
       'Record the arrival of the test items: date, condition, notes, optional photo (multipart field `photo`, JPEG/PNG/WebP)',
-    description: `${LAB_DESCRIPTION} ${describeLimit(RECEIPT_PHOTO_LIMIT)}`,
-    access: lab,
+    description: describeLimit(RECEIPT_PHOTO_LIMIT),
     params: RoundIdParams,
-    query: LabQuery,
     body: ReceiptInput,
     response: MyRoundDetail,
-    handler: ({ req, user, query, params, body }) =>
-      bench.saveReceipt(
-        ctx,
-        user,
-        labOf(req, user, query),
-        params.id,
-        body,
-        uploadedFile(req)?.buffer ?? null,
-      ),
+    handler: ({ req, user, params, body, labId }) =>
+      bench.saveReceipt(ctx, user, labId, params.id, body, uploadedFile(req)?.buffer ?? null),
   });
-  api.add({
+  addBenchRoute({
     method: 'get',
     path: '/rounds/{id}/receipt/photo',
-    tag: 'lab bench',
     summary: 'The receipt photo',
-    access: lab,
     params: RoundIdParams,
-    query: LabQuery,
     produces: 'image/*',
-    handler: async ({ req, res, user, query, params }) => {
-      const { enrolment } = await bench.findEnrolment(
-        ctx.ds.manager,
-        labOf(req, user, query),
-        params.id,
-      );
+    handler: async ({ res, params, labId }) => {
+      const { enrolment } = await bench.findEnrolment(ctx.ds.manager, labId, params.id);
       const photo = await bench.receiptPhoto(ctx, enrolment.id);
-      sendFile(res, photo.data, photo.type, 'receipt-photo');
+      sendDownload(res, { file: photo.data, contentType: photo.type, fileName: 'receipt-photo' });
     },
   });
 
   // Instrument checks.
-  api.add({
+  addBenchRoute({
     method: 'post',
     path: '/my/instrument-checks',
-    tag: 'lab bench',
     summary: 'Record an instrument check with a reference material; Ringlet judges it',
-    description: LAB_DESCRIPTION,
-    access: lab,
-    query: LabQuery,
     body: InstrumentCheckInput,
     status: 201,
     response: InstrumentCheck,
-    handler: ({ req, user, query, body }) =>
-      checks.recordInstrumentCheck(ctx, user, labOf(req, user, query), body),
+    handler: ({ user, body, labId }) => checks.recordInstrumentCheck(ctx, user, labId, body),
   });
   api.add({
     method: 'get',
@@ -172,49 +150,36 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
   });
 
   // Results: draft, submit, versions.
-  api.add({
+  addBenchRoute({
     method: 'get',
     path: '/rounds/{id}/submission',
-    tag: 'lab bench',
     summary: 'My results for the round: the draft and every submitted version',
-    description: LAB_DESCRIPTION,
-    access: lab,
     params: RoundIdParams,
-    query: LabQuery,
     response: SubmissionView,
-    handler: ({ req, user, query, params }) =>
-      submissions.getSubmission(ctx, labOf(req, user, query), params.id),
+    handler: ({ params, labId }) => submissions.getSubmission(ctx, labId, params.id),
   });
-  api.add({
+  addBenchRoute({
     method: 'put',
     path: '/rounds/{id}/submission',
-    tag: 'lab bench',
     summary:
       'Save the draft (autosave); 409 draft_conflict when baseRevision is stale, 409 submission_locked after the lock',
-    description: LAB_DESCRIPTION,
-    access: lab,
     params: RoundIdParams,
-    query: LabQuery,
     body: DraftSave,
     response: DraftSaved,
-    handler: ({ req, user, query, params, body }) =>
-      submissions.saveDraft(ctx, user, labOf(req, user, query), params.id, body),
+    handler: ({ user, params, body, labId }) =>
+      submissions.saveDraft(ctx, user, labId, params.id, body),
   });
-  api.add({
+  addBenchRoute({
     method: 'post',
     path: '/rounds/{id}/submission/submit',
-    tag: 'lab bench',
     summary:
       'Submit or amend: one new version, atomic and idempotent (idempotencyKey); 422 names a broken rule, 409 after the lock',
-    description: LAB_DESCRIPTION,
-    access: lab,
     params: RoundIdParams,
-    query: LabQuery,
     body: SubmitRequest,
     status: 201,
     response: SubmitResult,
-    handler: async ({ req, res, user, query, params, body }) => {
-      const result = await submissions.submit(ctx, user, labOf(req, user, query), params.id, body);
+    handler: async ({ res, user, params, body, labId }) => {
+      const result = await submissions.submit(ctx, user, labId, params.id, body);
       res.status(result.replayed ? 200 : 201).json(result);
     },
   });
@@ -249,18 +214,13 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
       );
     },
   });
-  api.add({
+  addBenchRoute({
     method: 'get',
     path: '/rounds/{id}/submission/attachments',
-    tag: 'lab bench',
     summary: 'My files for the round, with checksums and re-analysis',
-    description: LAB_DESCRIPTION,
-    access: lab,
     params: RoundIdParams,
-    query: LabQuery,
     response: z.array(AttachmentDto),
-    handler: ({ req, user, query, params }) =>
-      attachments.listAttachments(ctx, labOf(req, user, query), params.id),
+    handler: ({ params, labId }) => attachments.listAttachments(ctx, labId, params.id),
   });
   api.add({
     method: 'get',
@@ -275,54 +235,36 @@ export function benchRoutes(api: ApiRouter, ctx: AppContext): void {
       const labId = user.roles.includes('coordinator') ? null : labOf(req, user, query);
       const file = await attachments.readAttachment(ctx, labId, params.id, params.attachmentId);
       await attachments.auditDownload(ctx, user, file);
-      sendFile(res, file.data, file.contentType, file.fileName, file.sha256);
+      sendDownload(res, { ...file, file: file.data });
     },
   });
 
   // Bulk entry.
-  api.add({
+  addBenchRoute({
     method: 'get',
     path: '/rounds/{id}/submission/template.xlsx',
-    tag: 'lab bench',
     summary: 'The results workbook for the round, prefilled with my draft',
-    description: LAB_DESCRIPTION,
-    access: lab,
     params: RoundIdParams,
-    query: LabQuery,
     produces: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-    handler: async ({ req, res, user, query, params }) => {
-      const { buffer, fileName } = await workbook.buildTemplate(
-        ctx,
-        labOf(req, user, query),
-        params.id,
-      );
-      sendFile(
-        res,
-        buffer,
-        'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    handler: async ({ res, params, labId }) => {
+      const { buffer, fileName } = await workbook.buildTemplate(ctx, labId, params.id);
+      sendDownload(res, {
+        file: buffer,
+        contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
         fileName,
-      );
+      });
     },
   });
   api.router.post('/rounds/:id/submission/upload.xlsx', uploadRule(RESULTS_WORKBOOK_LIMIT, lab));
-  api.add({
+  addBenchRoute({
     method: 'post',
     path: '/rounds/{id}/submission/upload.xlsx',
-    tag: 'lab bench',
     summary:
       'Upload the filled workbook (multipart field `file`) into the draft; problems name sheet, row and column',
-    description: `${LAB_DESCRIPTION} ${describeLimit(RESULTS_WORKBOOK_LIMIT)} More answers 413 naming the limit; a formula cell answers 422 naming the cell.`,
-    access: lab,
+    description: `${describeLimit(RESULTS_WORKBOOK_LIMIT)} More answers 413 naming the limit; a formula cell answers 422 naming the cell.`,
     params: RoundIdParams,
-    query: LabQuery,
     response: WorkbookUploadResult,
-    handler: ({ req, user, query, params }) =>
-      workbook.uploadWorkbook(
-        ctx,
-        user,
-        labOf(req, user, query),
-        params.id,
-        uploadedFile(req)?.buffer,
-      ),
+    handler: ({ req, user, params, labId }) =>
+      workbook.uploadWorkbook(ctx, user, labId, params.id, uploadedFile(req)?.buffer),
   });
 }

@@ -11,7 +11,9 @@ import {
   client,
   createLab,
   createUser,
+  invitationToken,
   mailTo,
+  send,
   signedIn,
   startTestApp,
   type Client,
@@ -38,15 +40,11 @@ describe('participation fees', () => {
     roundId: string,
     invitations: { organisationId?: string; email: string; labName?: string }[],
   ): Promise<string[]> {
-    await coordinator.agent
-      .post(`/api/v1/rounds/${roundId}/invitations`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({ invitations })
-      .expect(201);
+    await send(coordinator, `/rounds/${roundId}/invitations`, { invitations }).expect(201);
     const tokens: string[] = [];
     for (const i of invitations) {
       const [mail] = await mailTo(t.ds, i.email);
-      tokens.push(/\/invitations\/([A-Za-z0-9_-]+)/.exec(mail!.text)![1]!);
+      tokens.push(invitationToken(mail!.text));
     }
     return tokens;
   }
@@ -55,11 +53,9 @@ describe('participation fees', () => {
     const roundId = await feeRound(code);
     const email = `contact-${code.toLowerCase()}@pay.test`;
     const [token] = await invite(roundId, [{ organisationId: labId, email }]);
-    await manager.agent
-      .post(`/api/v1/invitations/${token}/accept`)
-      .set('x-csrf-token', manager.csrf)
-      .send({})
-      .expect((r) => expect(r.status).toBeLessThan(300));
+    await send(manager, `/invitations/${token}/accept`, {}).expect((r) =>
+      expect(r.status).toBeLessThan(300),
+    );
     await manager.refreshCsrf();
     const mine = await manager.agent.get('/api/v1/my/invoices').expect(200);
     const inv = (mine.body as { id: string; roundId: string }[]).find((i) => i.roundId === roundId);
@@ -146,10 +142,7 @@ describe('participation fees', () => {
 
   it('pays by card: checkout through the SDK, the fake’s page, the signed webhook, paid', async () => {
     const { invoiceId } = await enrolOwnLab('FEE-2');
-    const checkout = await manager.agent
-      .post(`/api/v1/invoices/${invoiceId}/checkout`)
-      .set('x-csrf-token', manager.csrf)
-      .expect(200);
+    const checkout = await send(manager, `/invoices/${invoiceId}/checkout`, {}).expect(200);
     const url = new URL(checkout.body.url as string);
     const session = t.payments.sessions.get(checkout.body.sessionId)!;
     expect(session).toMatchObject({
@@ -184,10 +177,7 @@ describe('participation fees', () => {
     expect(mails.some((m) => m.subject === `Payment received for invoice ${row.number}`)).toBe(
       true,
     );
-    await manager.agent
-      .post(`/api/v1/invoices/${invoiceId}/checkout`)
-      .set('x-csrf-token', manager.csrf)
-      .expect(409);
+    await send(manager, `/invoices/${invoiceId}/checkout`, {}).expect(409);
   });
 
   function completedEvent(eventId: string, invoiceId: string, amount = 57_600): string {
@@ -279,12 +269,7 @@ describe('participation fees', () => {
     }
     const anon = await client(t);
     const answers = await Promise.all(
-      tokens.map((token) =>
-        anon.agent
-          .post(`/api/v1/invitations/${token}/accept`)
-          .set('x-csrf-token', anon.csrf)
-          .send({}),
-      ),
+      tokens.map((token) => send(anon, `/invitations/${token}/accept`, {})),
     );
     expect(answers.filter((a) => a.status >= 300).map((a) => [a.status, a.body])).toEqual([]);
     const rows = await t.ds.getRepository(Invoice).find({ where: { year: YEAR } });
@@ -297,11 +282,7 @@ describe('participation fees', () => {
     const { roundId, invoiceId } = await enrolOwnLab('FEE-5');
     const [token] = await invite(roundId, [{ email: 'beta@pay.test', labName: 'Sizing Lab Beta' }]);
     const anon = await client(t);
-    await anon.agent
-      .post(`/api/v1/invitations/${token}/accept`)
-      .set('x-csrf-token', anon.csrf)
-      .send({})
-      .expect(201);
+    await send(anon, `/invitations/${token}/accept`, {}).expect(201);
     const ledger0 = (await coordinator.agent.get(`/api/v1/rounds/${roundId}/ledger`).expect(200))
       .body;
     expect(ledger0.totals).toEqual({
@@ -318,41 +299,32 @@ describe('participation fees', () => {
     await manager.agent.get(`/api/v1/rounds/${roundId}/ledger`).expect(403);
 
     // Bank transfer for our lab, a reminder for Beta, then Beta withdraws before dispatch.
-    const paid = await coordinator.agent
-      .post(`/api/v1/invoices/${invoiceId}/payment`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({ reference: 'BANK-REF-1', paidOn: new Date().toISOString().slice(0, 10) })
-      .expect(200);
+    const paid = await send(coordinator, `/invoices/${invoiceId}/payment`, {
+      reference: 'BANK-REF-1',
+      paidOn: new Date().toISOString().slice(0, 10),
+    }).expect(200);
     expect(paid.body).toMatchObject({ status: 'paid', paidMethod: 'bank-transfer' });
-    await coordinator.agent
-      .post(`/api/v1/invoices/${invoiceId}/payment`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({ reference: 'x\u0007', paidOn: '2026-13-01' })
-      .expect(400);
-    await coordinator.agent
-      .post(`/api/v1/invoices/${beta.invoiceId}/reminder`)
-      .set('x-csrf-token', coordinator.csrf)
-      .expect(200);
+    await send(coordinator, `/invoices/${invoiceId}/payment`, {
+      reference: 'x\u0007',
+      paidOn: '2026-13-01',
+    }).expect(400);
+    await send(coordinator, `/invoices/${beta.invoiceId}/reminder`, {}).expect(200);
     expect(
       (await mailTo(t.ds, 'beta@pay.test', 3)).some((m) => m.subject.startsWith('Reminder')),
     ).toBe(true);
     // Crediting an enrolled lab is refused.
-    await coordinator.agent
-      .post(`/api/v1/invoices/${beta.invoiceId}/credit-note`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({ reason: 'Changed its mind' })
-      .expect(422);
+    await send(coordinator, `/invoices/${beta.invoiceId}/credit-note`, {
+      reason: 'Changed its mind',
+    }).expect(422);
     const enrolments = (
       await coordinator.agent.get(`/api/v1/rounds/${roundId}/enrolments`).expect(200)
     ).body;
     const betaEnrolment = enrolments.find(
       (e: { organisationName: string }) => e.organisationName === 'Sizing Lab Beta',
     );
-    await coordinator.agent
-      .post(`/api/v1/rounds/${roundId}/enrolments/${betaEnrolment.id}/withdrawal`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({ reason: 'Instrument out of service' })
-      .expect(200);
+    await send(coordinator, `/rounds/${roundId}/enrolments/${betaEnrolment.id}/withdrawal`, {
+      reason: 'Instrument out of service',
+    }).expect(200);
     const ledger = (await coordinator.agent.get(`/api/v1/rounds/${roundId}/ledger`).expect(200))
       .body;
     expect(ledger.totals).toEqual({
@@ -366,11 +338,9 @@ describe('participation fees', () => {
       status: 'credited',
       creditNoteNumber: documentNumber('CN', YEAR, 1),
     });
-    await coordinator.agent
-      .post(`/api/v1/invoices/${beta.invoiceId}/credit-note`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({ reason: 'Again' })
-      .expect(409);
+    await send(coordinator, `/invoices/${beta.invoiceId}/credit-note`, { reason: 'Again' }).expect(
+      409,
+    );
     const xlsx = await coordinator.agent.get(`/api/v1/rounds/${roundId}/ledger.xlsx`).expect(200);
     expect(xlsx.headers['content-type']).toContain('spreadsheetml');
   });
@@ -380,27 +350,24 @@ describe('participation fees', () => {
     const enrolment = (await t.ds.getRepository(Invoice).findOneByOrFail({ id: invoiceId }))
       .enrolmentId;
     const dispatch = () =>
-      coordinator.agent
-        .post(`/api/v1/rounds/${roundId}/enrolments/${enrolment}/dispatch`)
-        .set('x-csrf-token', coordinator.csrf)
-        .send({
-          courier: 'Parcel Co',
-          trackingNumber: 'TRK-1',
-          dispatchedOn: new Date().toISOString().slice(0, 10),
-        });
-    await coordinator.agent
-      .put(`/api/v1/rounds/${roundId}/billing-settings`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({ shipUnpaid: false })
-      .expect(200);
+      send(coordinator, `/rounds/${roundId}/enrolments/${enrolment}/dispatch`, {
+        courier: 'Parcel Co',
+        trackingNumber: 'TRK-1',
+        dispatchedOn: new Date().toISOString().slice(0, 10),
+      });
+    await send(
+      coordinator,
+      `/rounds/${roundId}/billing-settings`,
+      { shipUnpaid: false },
+      'put',
+    ).expect(200);
     const refused = await dispatch().expect(422);
     expect(refused.body.error.code).toBe('fee_outstanding');
     expect(await t.ds.getRepository(Shipment).countBy({ enrolmentId: enrolment })).toBe(0);
-    await coordinator.agent
-      .post(`/api/v1/invoices/${invoiceId}/payment`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({ reference: 'BANK-REF-2', paidOn: new Date().toISOString().slice(0, 10) })
-      .expect(200);
+    await send(coordinator, `/invoices/${invoiceId}/payment`, {
+      reference: 'BANK-REF-2',
+      paidOn: new Date().toISOString().slice(0, 10),
+    }).expect(200);
     await dispatch().expect(200);
   });
 });

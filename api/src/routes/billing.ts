@@ -15,6 +15,7 @@ import { IdParams } from '../../../shared/contracts/common';
 import { buildLedgerWorkbook } from '../../../reports/excel/ledger-workbook';
 import { buildInvoicePdf } from '../../../reports/pdf/invoice';
 import { fileSafe } from '../../../reports/text';
+import { sendDownload } from '../http/downloads';
 import type { ApiRouter } from '../http/route';
 import {
   creditInvoice,
@@ -101,13 +102,11 @@ export function billingRoutes(api: ApiRouter, ctx: AppContext): void {
         provider: await reportProvider(ctx.ds.manager),
         generatedAt: new Date().toISOString(),
       });
-      res.setHeader('Content-Type', 'application/pdf');
-      res.setHeader(
-        'Content-Disposition',
-        `attachment; filename="${fileSafe(invoice.number)}${invoice.status === 'paid' ? '-receipt' : ''}.pdf"`,
-      );
-      res.setHeader('Cache-Control', 'private, no-store');
-      res.status(200).send(pdf);
+      sendDownload(res, {
+        file: pdf,
+        contentType: 'application/pdf',
+        fileName: `${fileSafe(invoice.number)}${invoice.status === 'paid' ? '-receipt' : ''}.pdf`,
+      });
     },
   });
   api.add({
@@ -168,15 +167,11 @@ export function billingRoutes(api: ApiRouter, ctx: AppContext): void {
     handler: async ({ params, res }) => {
       const ledger = await roundLedger(ctx, params.id);
       const file = await buildLedgerWorkbook(ledger, new Date());
-      res.setHeader(
-        'Content-Type',
-        'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-      );
-      res.setHeader(
-        'Content-Disposition',
-        `attachment; filename="fees-${fileSafe(ledger.roundCode)}.xlsx"`,
-      );
-      res.status(200).send(file);
+      sendDownload(res, {
+        file,
+        contentType: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+        fileName: `fees-${fileSafe(ledger.roundCode)}.xlsx`,
+      });
     },
   });
   api.add({

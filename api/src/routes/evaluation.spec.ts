@@ -5,15 +5,8 @@ import { Evaluation, Round } from '../../../db/entities';
 import type { EvaluationView, InvestigationDto } from '../../../shared/contracts/evaluation';
 import { runEvaluate } from '../cli/run-evaluate';
 import { transitionRound } from '../services/round-lifecycle';
-import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evaluation-fixtures';
-import {
-  createUser,
-  mailTo,
-  signedIn,
-  startTestApp,
-  type Client,
-  type TestApp,
-} from '../testing/test-app';
+import { startFixtureCast, type EvaluationFixture } from '../testing/evaluation-fixtures';
+import { mailTo, signedIn, type Client, type TestApp } from '../testing/test-app';
 
 /**
  * Evaluation → commit → publish → reissue on a fixture round of 30 invented labs, as the
@@ -36,24 +29,28 @@ describe('evaluation, board, scores and investigations', () => {
   };
 
   beforeAll(async () => {
-    t = await startTestApp();
-    fx = await buildEvaluationFixture(t.ds, {
-      participants: 30,
-      seed: 7,
-      blunders: { 3: 2.0 },
-      withUncertainty: true,
-      labPrefix: 'Secretlab',
-    });
-    await createUser(t.ds, { email: 'coord@ev.test', roles: ['coordinator'] });
-    await createUser(t.ds, { email: 'a@ev.test', lab: fx.labs[0]!.id, manager: true });
-    await createUser(t.ds, { email: 'b@ev.test', lab: fx.labs[3]!.id, manager: true });
-    await createUser(t.ds, { email: 'b2@ev.test', lab: fx.labs[3]!.id, manager: false });
-    await createUser(t.ds, { email: 'stranger@ev.test', roles: ['assessor'] });
-    coord = await signedIn(t, 'coord@ev.test');
-    labA = await signedIn(t, 'a@ev.test');
-    labB = await signedIn(t, 'b@ev.test');
-    labBMember = await signedIn(t, 'b2@ev.test');
-    stranger = await signedIn(t, 'stranger@ev.test');
+    const cast = await startFixtureCast(
+      {
+        participants: 30,
+        seed: 7,
+        blunders: { 3: 2.0 },
+        withUncertainty: true,
+        labPrefix: 'Secretlab',
+      },
+      (fx) => [
+        { email: 'coord@ev.test', roles: ['coordinator'], signIn: true },
+        { email: 'a@ev.test', lab: fx.labs[0]!.id, manager: true, signIn: true },
+        { email: 'b@ev.test', lab: fx.labs[3]!.id, manager: true, signIn: true },
+        { email: 'b2@ev.test', lab: fx.labs[3]!.id, manager: false, signIn: true },
+        { email: 'stranger@ev.test', roles: ['assessor'], signIn: true },
+      ],
+    );
+    ({ t, fx } = cast);
+    coord = cast.as('coord@ev.test');
+    labA = cast.as('a@ev.test');
+    labB = cast.as('b@ev.test');
+    labBMember = cast.as('b2@ev.test');
+    stranger = cast.as('stranger@ev.test');
   });
   afterAll(() => t.close());
 

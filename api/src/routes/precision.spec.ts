@@ -2,17 +2,14 @@ import { AuditEvent, PrecisionExclusion, Round, Scheme } from '../../../db/entit
 import { writePrecisionStudy, type WrittenPrecisionStudy } from '../../../db/seed/demo-precision';
 import type { PrecisionAnalysis } from '../../../shared/contracts/precision';
 import nistAnova from '../../../shared/stats/fixtures/precision-nist-anova.json';
-import {
-  api,
-  createLab,
-  createUser,
-  send,
-  signedIn,
-  startCast,
-  startTestApp,
-  type Client,
-  type TestApp,
-} from '../testing/test-app';
+import { api, binary, send, startCast, type Client, type TestApp } from '../testing/test-app';
+
+/** Three labs × two replicates of one level, no flag: a study the analysis accepts. */
+const THREE_LABS = [
+  [1, 1.1],
+  [1.2, 1.0],
+  [1.1, 1.3],
+];
 
 /**
  * Precision studies through the API: the analysis from submitted versions, decisions (audited,
@@ -66,6 +63,17 @@ describe('precision studies', () => {
     (await coord.agent.get(api(`/rounds/${id}/precision`)).expect(200)).body;
   const decide = (id: string, body: object) =>
     send(coord, `/rounds/${id}/precision/exclusions`, body);
+  /** One decision on level 'A' of 'x' (an outlier confirmed, unless `over` says otherwise). */
+  const decision = (participantCode: string, over: Record<string, unknown> = {}) => ({
+    itemCode: 'A',
+    measurandKey: 'x',
+    participantCode,
+    kind: 'outlier',
+    decision: 'confirmed',
+    reason: 'r r r',
+    ...over,
+  });
+  const finish = (id: string) => send(coord, `/rounds/${id}/precision/finish`, {});
 
   it('NIST StRD SiRstv as 5 labs × 5 replicates: s_r = certified residual SD 1.04076068334656E-01', async () => {
     // Source: NIST Statistical Reference Datasets, ANOVA, SiRstv (shared/stats/fixtures/precision-nist-anova.json).
@@ -136,31 +144,13 @@ describe('precision studies', () => {
     expect(before.pending.some((p) => p.participantCode === 'L8')).toBe(true);
 
     const rejected = await decide(s.round.id, {
-      decisions: [
-        {
-          itemCode: 'A',
-          measurandKey: 'x',
-          participantCode: 'L8',
-          kind: 'outlier',
-          decision: 'rejected',
-          reason: 'Kept for the test',
-        },
-      ],
+      decisions: [decision('L8', { decision: 'rejected', reason: 'Kept for the test' })],
     }).expect(201);
     expect(rejected.body.measurands[0].levels[0].sR).toBe(lv0.sR);
     expect(rejected.body.pending).toHaveLength(0);
 
     const confirmed = await decide(s.round.id, {
-      decisions: [
-        {
-          itemCode: 'A',
-          measurandKey: 'x',
-          participantCode: 'L8',
-          kind: 'outlier',
-          decision: 'confirmed',
-          reason: 'Wrong temperature',
-        },
-      ],
+      decisions: [decision('L8', { reason: 'Wrong temperature' })],
     }).expect(201);
     const lv1 = (confirmed.body as PrecisionAnalysis).measurands[0]!.levels[0]!;
     expect(lv1.p).toBe(7);
@@ -178,24 +168,17 @@ describe('precision studies', () => {
       .get(api(`/rounds/${s.round.id}/precision/exclusions`))
       .expect(200);
     expect(list.body.exclusions).toHaveLength(2);
-    const withdrawn = await coord.agent
-      .post(
-        api(
-          `/rounds/${s.round.id}/precision/exclusions/${confirmed.body.exclusions[0].id}/withdraw`,
-        ),
-      )
-      .set('x-csrf-token', coord.csrf)
-      .send({ reason: 'Decided too early' })
-      .expect(200);
+    const withdrawn = await send(
+      coord,
+      `/rounds/${s.round.id}/precision/exclusions/${confirmed.body.exclusions[0].id}/withdraw`,
+      { reason: 'Decided too early' },
+    ).expect(200);
     // the older "kept" decision is in force again
     expect(withdrawn.body.measurands[0].levels[0].p).toBe(8);
     expect(withdrawn.body.exclusions[0].decision).toBe('rejected');
 
     // finish: no open flag left → evaluated; the study then lists as a σ_pt source
-    await coord.agent
-      .post(api(`/rounds/${s.round.id}/precision/finish`))
-      .set('x-csrf-token', coord.csrf)
-      .expect(200);
+    await finish(s.round.id).expect(200);
     const round = await t.ds.getRepository(Round).findOneByOrFail({ id: s.round.id });
     expect(round.state).toBe('evaluated');
     const sources = await coord.agent
@@ -219,16 +202,7 @@ describe('precision studies', () => {
     expect(wrong.body.error.code).toBe('sigma_source_invalid');
     // a finished study takes no more decisions
     await decide(s.round.id, {
-      decisions: [
-        {
-          itemCode: 'A',
-          measurandKey: 'x',
-          participantCode: 'L1',
-          kind: 'other',
-          decision: 'confirmed',
-          reason: 'Too late',
-        },
-      ],
+      decisions: [decision('L1', { kind: 'other', reason: 'Too late' })],
     }).expect(409);
   });
 
@@ -241,99 +215,20 @@ describe('precision studies', () => {
       [1.02, 1.08],
       [3.0, 3.1],
     ]);
-    const res = await coord.agent
-      .post(api(`/rounds/${s.round.id}/precision/finish`))
-      .set('x-csrf-token', coord.csrf)
-      .expect(422);
+    const res = await finish(s.round.id).expect(422);
     expect(res.body.error.code).toBe('undecided_flags');
   });
 
   it('bad input answers 400 naming the field and stores nothing', async () => {
-    const s = await study([
-      [1, 1.1],
-      [1.2, 1.0],
-      [1.1, 1.3],
-    ]);
+    const s = await study(THREE_LABS);
     const bad = [
-      [
-        {
-          itemCode: 'A',
-          measurandKey: 'x',
-          participantCode: 'NOPE',
-          kind: 'outlier',
-          decision: 'confirmed',
-          reason: 'r r r',
-        },
-        'decisions.0.participantCode',
-      ],
-      [
-        {
-          itemCode: 'Z',
-          measurandKey: 'x',
-          participantCode: 'L1',
-          kind: 'outlier',
-          decision: 'confirmed',
-          reason: 'r r r',
-        },
-        'decisions.0.itemCode',
-      ],
-      [
-        {
-          itemCode: 'A',
-          measurandKey: 'x',
-          participantCode: 'L1',
-          replicate: 3,
-          kind: 'outlier',
-          decision: 'confirmed',
-          reason: 'r r r',
-        },
-        'decisions.0.replicate',
-      ],
-      [
-        {
-          itemCode: 'A',
-          measurandKey: 'x',
-          participantCode: 'L1',
-          replicate: 99,
-          kind: 'outlier',
-          decision: 'confirmed',
-          reason: 'r r r',
-        },
-        'decisions.0.replicate',
-      ],
-      [
-        {
-          itemCode: 'A',
-          measurandKey: 'x',
-          participantCode: 'L1',
-          kind: 'outlier',
-          decision: 'confirmed',
-          reason: '',
-        },
-        'decisions.0.reason',
-      ],
-      [
-        {
-          itemCode: 'A',
-          measurandKey: 'x',
-          participantCode: 'L1',
-          kind: 'nonsense',
-          decision: 'confirmed',
-          reason: 'r r r',
-        },
-        'decisions.0.kind',
-      ],
-      [
-        {
-          itemCode: 'A',
-          measurandKey: 'x',
-          participantCode: 'L1\u0007',
-          kind: 'outlier',
-          decision: 'confirmed',
-          reason: 'r r r',
-        },
-        'decisions.0.participantCode',
-      ],
+      [decision('NOPE'), 'decisions.0.participantCode'],
+      [decision('L1', { itemCode: 'Z' }), 'decisions.0.itemCode'],
+      [decision('L1', { replicate: 3 }), 'decisions.0.replicate'],
+      [decision('L1', { replicate: 99 }), 'decisions.0.replicate'],
+      [decision('L1', { reason: '' }), 'decisions.0.reason'],
+      [decision('L1', { kind: 'nonsense' }), 'decisions.0.kind'],
+      [decision('L1\u0007'), 'decisions.0.participantCode'],
     ] as const;
     for (const [decision, path] of bad) {
       const res = await decide(s.round.id, { decisions: [decision] }).expect(400);
@@ -377,33 +272,11 @@ describe('precision studies', () => {
   });
 
   it('a PT round answers 422 on the precision routes; a precision study 422 on the PT evaluation', async () => {
-    const pt = await study(
-      [
-        [1, 1.1],
-        [1.2, 1.0],
-        [1.1, 1.3],
-      ],
-      { kind: 'pt' },
-    );
+    const pt = await study(THREE_LABS, { kind: 'pt' });
     const r1 = await coord.agent.get(api(`/rounds/${pt.round.id}/precision`)).expect(422);
     expect(r1.body.error.code).toBe('not_a_precision_study');
-    await decide(pt.round.id, {
-      decisions: [
-        {
-          itemCode: 'A',
-          measurandKey: 'x',
-          participantCode: 'L1',
-          kind: 'outlier',
-          decision: 'confirmed',
-          reason: 'r r r',
-        },
-      ],
-    }).expect(422);
-    const rr = await study([
-      [1, 1.1],
-      [1.2, 1.0],
-      [1.1, 1.3],
-    ]);
+    await decide(pt.round.id, { decisions: [decision('L1')] }).expect(422);
+    const rr = await study(THREE_LABS);
     const r2 = await send(coord, `/rounds/${rr.round.id}/evaluation`, {}).expect(422);
     expect(r2.body.error.code).toBe('precision_study_no_scores');
     // The Consensus board lists PT rounds only: a study has no board of scores to open.
@@ -426,12 +299,17 @@ describe('precision study reports', () => {
   let lab: Client;
   let roundId: string;
   beforeAll(async () => {
-    t = await startTestApp();
+    const cast = await startCast({
+      labs: Array.from({ length: 4 }, (_, i) => `Report lab ${i + 1}`),
+      users: [
+        { email: 'coord@rep.test', roles: ['coordinator'], signIn: true },
+        { email: 'lab@rep.test', lab: 0, manager: true, signIn: true },
+      ],
+    });
+    t = cast.t;
     const scheme = await t.ds
       .getRepository(Scheme)
       .save({ code: 'RR-REP', name: 'Reports (test)' });
-    const labs = [];
-    for (let i = 0; i < 4; i++) labs.push((await createLab(t.ds, `Report lab ${i + 1}`)).id);
     const s = await writePrecisionStudy(t.ds, {
       schemeId: scheme.id,
       code: 'RR-REP-1',
@@ -442,42 +320,32 @@ describe('precision study reports', () => {
         { code: 'B', material: 'latex 200 nm', nominalSizeNm: 200 },
       ],
       measurand: { key: 'z', name: 'Z-average', unit: 'nm', decimals: 1, replicatesRequired: 2 },
-      labs: labs.map((organisationId, i) => ({
+      labs: cast.labIds.map((organisationId, i) => ({
         organisationId,
         participantCode: `C${i + 1}`,
         values: { A: [60 + i * 0.4, 60.2 + i * 0.3], B: [200 + i, 201 + i * 0.8] },
       })),
     });
     roundId = s.round.id;
-    await createUser(t.ds, { email: 'coord@rep.test', roles: ['coordinator'] });
-    await createUser(t.ds, { email: 'lab@rep.test', lab: labs[0], manager: true });
-    coord = await signedIn(t, 'coord@rep.test');
-    lab = await signedIn(t, 'lab@rep.test');
+    coord = cast.as('coord@rep.test');
+    lab = cast.as('lab@rep.test');
   });
   afterAll(() => t.close());
 
   it('PDF and workbook for the coordinator, codes only; a lab is refused', async () => {
     const pdf = await coord.agent
-      .get(`/api/v1/rounds/${roundId}/reports/precision.pdf`)
+      .get(api(`/rounds/${roundId}/reports/precision.pdf`))
       .buffer(true)
-      .parse((res, cb) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => cb(null, Buffer.concat(chunks)));
-      })
+      .parse(binary)
       .expect(200);
     expect(pdf.headers['content-type']).toBe('application/pdf');
     const body = pdf.body as Buffer;
     expect(body.subarray(0, 5).toString()).toBe('%PDF-');
     expect(body.toString('latin1')).not.toContain('Report lab');
     const xlsx = await coord.agent
-      .get(`/api/v1/rounds/${roundId}/reports/precision.xlsx`)
+      .get(api(`/rounds/${roundId}/reports/precision.xlsx`))
       .buffer(true)
-      .parse((res, cb) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => cb(null, Buffer.concat(chunks)));
-      })
+      .parse(binary)
       .expect(200);
     const ExcelJS = (await import('exceljs')).default;
     const wb = new ExcelJS.Workbook();
@@ -491,7 +359,7 @@ describe('precision study reports', () => {
       'Bias',
     ]);
     expect(wb.getWorksheet('Data')!.rowCount).toBe(1 + 2 * 4);
-    await lab.agent.get(`/api/v1/rounds/${roundId}/reports/precision.pdf`).expect(403);
+    await lab.agent.get(api(`/rounds/${roundId}/reports/precision.pdf`)).expect(403);
     const mine = await lab.agent.get('/api/v1/my/rounds').expect(200);
     expect(mine.body.find((r: { roundId: string }) => r.roundId === roundId)?.kind).toBe(
       'precision',

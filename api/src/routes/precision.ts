@@ -8,9 +8,9 @@ import {
   PrecisionSigmaSources,
   PrecisionWithdrawBody,
 } from '../../../shared/contracts/precision';
+import { sendDownload } from '../http/downloads';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../services/context';
-import { createHash } from 'node:crypto';
 import * as precision from '../services/precision';
 
 /** Precision studies (rounds of kind 'precision', ISO 5725-2): analysis, decisions, references. */
@@ -138,19 +138,13 @@ export function precisionRoutes(api: ApiRouter, ctx: AppContext): void {
           : await (
               await import('../../../reports/excel/precision-workbook')
             ).buildPrecisionWorkbook(input);
-        res.setHeader(
-          'Content-Type',
-          pdf
+        sendDownload(res, {
+          file,
+          contentType: pdf
             ? 'application/pdf'
             : 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-        );
-        res.setHeader(
-          'Content-Disposition',
-          `attachment; filename="${input.analysis.round.code}-precision.${pdf ? 'pdf' : 'xlsx'}"`,
-        );
-        res.setHeader('X-Content-SHA256', createHash('sha256').update(file).digest('hex'));
-        res.setHeader('Cache-Control', 'private, no-store');
-        res.status(200).send(file);
+          fileName: `${input.analysis.round.code}-precision.${pdf ? 'pdf' : 'xlsx'}`,
+        });
       },
     });
   }

@@ -2,18 +2,10 @@ import ExcelJS from 'exceljs';
 import JSZip from 'jszip';
 import { createHash } from 'node:crypto';
 import { AssessorGrant } from '../../../db/entities';
-import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evaluation-fixtures';
-import { createUser, signedIn, startTestApp, type Client, type TestApp } from '../testing/test-app';
+import { startFixtureCast, type EvaluationFixture } from '../testing/evaluation-fixtures';
+import { commitAndPublish, download, send, type Client, type TestApp } from '../testing/test-app';
 // eslint-disable-next-line @typescript-eslint/no-require-imports
 const pdfParse = require('pdf-parse') as (b: Buffer) => Promise<{ text: string }>;
-
-/** Binary bodies for supertest. */
-const binary = (res: unknown, cb: (err: Error | null, body: Buffer) => void) => {
-  const chunks: Buffer[] = [];
-  const stream = res as NodeJS.ReadableStream;
-  stream.on('data', (c: Buffer) => chunks.push(c));
-  stream.on('end', () => cb(null, Buffer.concat(chunks)));
-};
 
 describe('reports and assessor access', () => {
   let t: TestApp;
@@ -36,40 +28,26 @@ describe('reports and assessor access', () => {
   };
 
   beforeAll(async () => {
-    t = await startTestApp();
-    fx = await buildEvaluationFixture(t.ds, {
-      participants: 20,
-      labPrefix: 'Secretive Lab',
-      blunders: { 2: 2 },
-    });
-    await createUser(t.ds, { email: 'coord@rep.test', roles: ['coordinator'] });
-    await createUser(t.ds, { email: 'lab@rep.test', lab: fx.labs[0]!.id, manager: true });
-    const a = await createUser(t.ds, { email: 'assessor@rep.test', roles: ['assessor'] });
-    await createUser(t.ds, { email: 'stranger@rep.test', roles: ['assessor'] });
-    coordinator = await signedIn(t, 'coord@rep.test');
-    lab = await signedIn(t, 'lab@rep.test');
-    assessor = await signedIn(t, 'assessor@rep.test');
-    stranger = await signedIn(t, 'stranger@rep.test');
+    const cast = await startFixtureCast(
+      { participants: 20, labPrefix: 'Secretive Lab', blunders: { 2: 2 } },
+      (fx) => [
+        { email: 'coord@rep.test', roles: ['coordinator'], signIn: true },
+        { email: 'lab@rep.test', lab: fx.labs[0]!.id, manager: true, signIn: true },
+        { email: 'assessor@rep.test', roles: ['assessor'], signIn: true },
+        { email: 'stranger@rep.test', roles: ['assessor'], signIn: true },
+      ],
+    );
+    ({ t, fx } = cast);
+    coordinator = cast.as('coord@rep.test');
+    lab = cast.as('lab@rep.test');
+    assessor = cast.as('assessor@rep.test');
+    stranger = cast.as('stranger@rep.test');
     const id = fx.round.id;
-    const ev = await coordinator.agent
-      .post(`/api/v1/rounds/${id}/evaluation`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({})
-      .expect(201);
-    evaluation = ev.body;
-    await coordinator.agent
-      .post(`/api/v1/rounds/${id}/evaluation/commit`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({})
-      .expect(200);
-    await coordinator.agent
-      .post(`/api/v1/rounds/${id}/publish`)
-      .set('x-csrf-token', coordinator.csrf)
-      .send({})
-      .expect(200);
+    evaluation = (await send(coordinator, `/rounds/${id}/evaluation`, {}).expect(201)).body;
+    await commitAndPublish(coordinator, id);
     await t.ds.getRepository(AssessorGrant).insert({
       organisationId: fx.labs[0]!.id,
-      assessorId: a.id,
+      assessorId: cast.users[2]!.id,
       grantedBy: null,
       startsOn: '2020-01-01',
       endsOn: null,
@@ -79,11 +57,9 @@ describe('reports and assessor access', () => {
   afterAll(() => t.close());
 
   it('serves the workbook whose numbers are the stored evaluation’s', async () => {
-    const res = await coordinator.agent
-      .get(`/api/v1/rounds/${fx.round.id}/reports/round.xlsx`)
-      .buffer(true)
-      .parse(binary)
-      .expect(200);
+    const res = await download(coordinator, `/rounds/${fx.round.id}/reports/round.xlsx`).expect(
+      200,
+    );
     expect(res.headers['content-type']).toContain('spreadsheetml');
     expect(res.headers['x-content-sha256']).toBe(
       createHash('sha256').update(res.body).digest('hex'),
@@ -103,20 +79,14 @@ describe('reports and assessor access', () => {
       expect(sheet.getRow(5 + i).getCell(8).value).toBe(p.z);
     });
     // Cached: the second answer is the same bytes.
-    const again = await coordinator.agent
-      .get(`/api/v1/rounds/${fx.round.id}/reports/round.xlsx`)
-      .buffer(true)
-      .parse(binary)
-      .expect(200);
+    const again = await download(coordinator, `/rounds/${fx.round.id}/reports/round.xlsx`).expect(
+      200,
+    );
     expect(again.headers['x-content-sha256']).toBe(res.headers['x-content-sha256']);
   });
 
   it('serves the round PDF with assigned values and codes and no lab names, to a lab of the round', async () => {
-    const res = await lab.agent
-      .get(`/api/v1/rounds/${fx.round.id}/reports/round.pdf`)
-      .buffer(true)
-      .parse(binary)
-      .expect(200);
+    const res = await download(lab, `/rounds/${fx.round.id}/reports/round.pdf`).expect(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     const { text } = await pdfParse(res.body);
     for (const g of evaluation.results)
@@ -130,20 +100,12 @@ describe('reports and assessor access', () => {
 
   it('serves a lab its own individual report and certificate with its own name only', async () => {
     const code = fx.enrolments[0]!.participantCode;
-    const res = await lab.agent
-      .get(`/api/v1/rounds/${fx.round.id}/reports/participant.pdf`)
-      .buffer(true)
-      .parse(binary)
-      .expect(200);
+    const res = await download(lab, `/rounds/${fx.round.id}/reports/participant.pdf`).expect(200);
     const { text } = await pdfParse(res.body);
     expect(text).toContain(`Participant code: ${code}`);
     expect(text).toContain(fx.labs[0]!.name);
     expect(text).not.toContain(fx.labs[1]!.name);
-    const cert = await lab.agent
-      .get(`/api/v1/rounds/${fx.round.id}/reports/certificate.pdf`)
-      .buffer(true)
-      .parse(binary)
-      .expect(200);
+    const cert = await download(lab, `/rounds/${fx.round.id}/reports/certificate.pdf`).expect(200);
     expect((await pdfParse(cert.body)).text).toContain('Certificate of participation');
   });
 
@@ -173,11 +135,9 @@ describe('reports and assessor access', () => {
   });
 
   it('builds an evidence pack whose manifest checksums match its files', async () => {
-    const res = await assessor.agent
-      .get(`/api/v1/assessor/labs/${fx.labs[0]!.id}/evidence.zip`)
-      .buffer(true)
-      .parse(binary)
-      .expect(200);
+    const res = await download(assessor, `/assessor/labs/${fx.labs[0]!.id}/evidence.zip`).expect(
+      200,
+    );
     expect(res.headers['content-type']).toBe('application/zip');
     const zip = await JSZip.loadAsync(res.body);
     const manifest = JSON.parse(await zip.file('manifest.json')!.async('string')) as {

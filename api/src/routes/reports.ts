@@ -1,6 +1,7 @@
 import type { Response } from 'express';
 import { IdParams } from '../../../shared/contracts/common';
 import { ReportIdParams, ReportLabQuery, ReportStatus } from '../../../shared/contracts/reports';
+import { sendDownload } from '../http/downloads';
 import type { ApiRouter } from '../http/route';
 import type { AppContext } from '../services/context';
 import {
@@ -19,11 +20,7 @@ export function sendFile(res: Response, out: BuiltFile | { pending: Status }): v
     res.status(202).json(out.pending);
     return;
   }
-  res.setHeader('Content-Type', out.contentType);
-  res.setHeader('Content-Disposition', `attachment; filename="${out.fileName}"`);
-  res.setHeader('X-Content-SHA256', out.sha256);
-  res.setHeader('Cache-Control', 'private, no-store');
-  res.status(200).send(out.file);
+  sendDownload(res, out);
 }
 
 /** Round workbook and PDF, individual report, certificate, and the status of background builds. */

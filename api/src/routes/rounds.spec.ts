@@ -16,7 +16,9 @@ import {
 import { CODE_ALPHABET, freshParticipantCode, randomParticipantCode } from '../services/enrolment';
 import { assertPublishable, transitionRound } from '../services/round-lifecycle';
 import {
+  api,
   client,
+  invitationToken,
   linkToken,
   mailTo,
   send,
@@ -27,6 +29,12 @@ import {
 } from '../testing/test-app';
 
 const PLUS_DAYS = (d: number) => new Date(Date.now() + d * 86400_000).toISOString();
+/** Three items far apart with nearly equal pairs: fails the homogeneity check at σ_pt = 2. */
+const FAILING_ITEMS = [
+  [100, 100.2],
+  [105, 105.2],
+  [95, 95.2],
+];
 
 describe('Round desk API', () => {
   let t: TestApp;
@@ -74,20 +82,60 @@ describe('Round desk API', () => {
   function moveTo(id: string, to: string, extra: Record<string, unknown> = {}) {
     return post(coord, `/rounds/${id}/transitions`, { to, ...extra });
   }
-  async function inviteAndAccept(
-    roundId: string,
-    labId: string,
-    email: string,
-    member: Client,
-  ): Promise<string> {
-    await post(coord, `/rounds/${roundId}/invitations`, {
-      invitations: [{ organisationId: labId, email }],
-    }).expect(201);
+  const patch = (path: string, body: unknown) => send(coord, path, body, 'patch');
+  const del = (path: string) => send(coord, path, undefined, 'delete');
+  const detail = async (id: string) =>
+    (await coord.agent.get(api(`/rounds/${id}`)).expect(200)).body;
+  const enrolments = async (roundId: string) =>
+    (await coord.agent.get(api(`/rounds/${roundId}/enrolments`)).expect(200)).body;
+  /** A coordinator's action on one enrolment: `withdrawal`, `dispatch` or `extension`. */
+  const onEnrolment = (roundId: string, enrolmentId: string, action: string, body: object) =>
+    post(coord, `/rounds/${roundId}/enrolments/${enrolmentId}/${action}`, body);
+  const invite = (roundId: string, invitations: object[]) =>
+    post(coord, `/rounds/${roundId}/invitations`, { invitations });
+  const accept = (member: Client, token: string) =>
+    post(member, `/invitations/${token}/accept`, {});
+  /** The token of the invitation link in the newest mail to `email`. */
+  async function invitationFor(email: string): Promise<string> {
     const [mail] = await mailTo(t.ds, email);
-    const token = invitationToken(mail!.text);
-    const res = await post(member, `/invitations/${token}/accept`, {}).expect(201);
+    return invitationToken(mail!.text);
+  }
+  /** Invites the lab `labId` by `email`, whose owner signs in and accepts; the participant code. */
+  async function inviteAndAccept(roundId: string, labId: string, email: string): Promise<string> {
+    await invite(roundId, [{ organisationId: labId, email }]).expect(201);
+    const token = await invitationFor(email);
+    const res = await accept(await signedIn(t, email), token).expect(201);
     return res.body.participantCode;
   }
+  /** A round in enrolling, due in `dueInDays`, with the lab of `email` enrolled; returns its id. */
+  async function roundWithLab(
+    code: string,
+    dueInDays: number,
+    labId: string,
+    email: string,
+  ): Promise<string> {
+    const id = await newRound(code, { resultsDueAt: PLUS_DAYS(dueInDays) });
+    await moveTo(id, 'enrolling').expect(200);
+    await inviteAndAccept(id, labId, email);
+    return id;
+  }
+  /** Records a homogeneity study of one item × measurand; `items` holds each item's replicates. */
+  const homogeneityStudy = (
+    roundId: string,
+    testItemId: string,
+    measurandId: string,
+    items: number[][],
+    sigmaPt?: number,
+  ) =>
+    post(coord, `/rounds/${roundId}/homogeneity`, {
+      kind: 'homogeneity',
+      testItemId,
+      measurandId,
+      sigmaPt,
+      data: { items },
+    });
+  const decide = (roundId: string, studyId: string, body: object) =>
+    post(coord, `/rounds/${roundId}/homogeneity/${studyId}/decision`, body);
 
   describe('schemes', () => {
     it('stores the DLS default measurands (Z-average nm 1 decimal 3 replicates; PDI 3 decimals 3 replicates)', async () => {
@@ -114,18 +162,18 @@ describe('Round desk API', () => {
   describe('rounds, items, measurands', () => {
     it('creates a draft round with two items, the scheme measurands and the safety cautions', async () => {
       const id = await newRound('R-CREATE');
-      const res = await coord.agent.get(`/api/v1/rounds/${id}`).expect(200);
-      expect(res.body.state).toBe('draft');
-      expect(res.body.items.map((i: { code: string }) => i.code)).toEqual(['A', 'B']);
+      const round = await detail(id);
+      expect(round.state).toBe('draft');
+      expect(round.items.map((i: { code: string }) => i.code)).toEqual(['A', 'B']);
       expect(
-        res.body.measurands.map((m: { key: string; decimals: number }) => [m.key, m.decimals]),
+        round.measurands.map((m: { key: string; decimals: number }) => [m.key, m.decimals]),
       ).toEqual([
         ['z_average', 1],
         ['pdi', 3],
       ]);
-      expect(res.body.instructions).toContain('eye protection and gloves');
-      expect(res.body.instructions).toContain('laser interlock');
-      expect(res.body.instructions).toContain('safety officer');
+      expect(round.instructions).toContain('eye protection and gloves');
+      expect(round.instructions).toContain('laser interlock');
+      expect(round.instructions).toContain('safety officer');
       const list = await coord.agent.get('/api/v1/rounds').expect(200);
       expect(list.body.find((r: { id: string }) => r.id === id)).toMatchObject({
         itemCount: 2,
@@ -134,32 +182,40 @@ describe('Round desk API', () => {
       });
     });
 
-    it('refuses dates out of order (400 naming resultsDueAt) and saves nothing', async () => {
+    /** Creating the round `fields` describe answers `status` and stores no round; the error. */
+    async function refusedRound(fields: Record<string, unknown>, status: number) {
       const before = await t.ds.getRepository(Round).count();
-      const res = await post(coord, '/rounds', {
-        schemeId,
-        code: 'R-DATES',
-        title: 'Dates',
-        dispatchOn: '2026-05-10',
-        resultsDueAt: '2026-05-01T12:00:00Z',
-      }).expect(400);
-      expect(res.body.error.details[0].path).toBe('resultsDueAt');
+      const res = await post(coord, '/rounds', { schemeId, ...fields }).expect(status);
       expect(await t.ds.getRepository(Round).count()).toBe(before);
+      return res.body.error;
+    }
+
+    it('refuses dates out of order (400 naming resultsDueAt) and saves nothing', async () => {
+      const error = await refusedRound(
+        {
+          code: 'R-DATES',
+          title: 'Dates',
+          dispatchOn: '2026-05-10',
+          resultsDueAt: '2026-05-01T12:00:00Z',
+        },
+        400,
+      );
+      expect(error.details[0].path).toBe('resultsDueAt');
     });
 
     it('refuses a duplicate item code without half-saving the round', async () => {
-      const before = await t.ds.getRepository(Round).count();
-      const res = await post(coord, '/rounds', {
-        schemeId,
-        code: 'R-DUP',
-        title: 'Dup',
-        items: [
-          { code: 'A', material: 'x' },
-          { code: 'a', material: 'y' },
-        ],
-      }).expect(409);
-      expect(res.body.error.code).toBe('item_code_taken');
-      expect(await t.ds.getRepository(Round).count()).toBe(before);
+      const error = await refusedRound(
+        {
+          code: 'R-DUP',
+          title: 'Dup',
+          items: [
+            { code: 'A', material: 'x' },
+            { code: 'a', material: 'y' },
+          ],
+        },
+        409,
+      );
+      expect(error.code).toBe('item_code_taken');
     });
 
     it('adds items and measurands in draft; patches fields; rejects a negative nominal size', async () => {
@@ -204,19 +260,13 @@ describe('Round desk API', () => {
         ],
       }).expect(409);
       expect(dup.body.error.code).toBe('measurand_key_taken');
-      const patched = await coord.agent
-        .patch(`/api/v1/rounds/${id}`)
-        .set('x-csrf-token', coord.csrf)
-        .send({ title: 'Renamed', feeMinor: 45000 })
-        .expect(200);
+      const patched = await patch(`/rounds/${id}`, { title: 'Renamed', feeMinor: 45000 }).expect(
+        200,
+      );
       expect(patched.body).toMatchObject({ title: 'Renamed', feeMinor: 45000 });
       // The basic cautions cannot be removed: text without them gets them back in front; own cautions stay.
       const own = 'Measure at 25 °C.\n- Use a fume hood for the silica item.';
-      const stripped = await coord.agent
-        .patch(`/api/v1/rounds/${id}`)
-        .set('x-csrf-token', coord.csrf)
-        .send({ instructions: own })
-        .expect(200);
+      const stripped = await patch(`/rounds/${id}`, { instructions: own }).expect(200);
       expect(stripped.body.instructions).toBe(`${SAFETY_BLOCK}\n\n${own}`);
       const stored = await t.ds.getRepository(Round).findOneByOrFail({ id });
       for (const c of SAFETY_CAUTIONS) expect(stored.instructions).toContain(c);
@@ -228,15 +278,6 @@ describe('Round desk API', () => {
   });
 
   describe('one test item or measurand at a time', () => {
-    const patch = (path: string, body: unknown) =>
-      coord.agent
-        .patch(`/api/v1${path}`)
-        .set('x-csrf-token', coord.csrf)
-        .send(body as object);
-    const del = (path: string) =>
-      coord.agent.delete(`/api/v1${path}`).set('x-csrf-token', coord.csrf);
-    const detail = async (id: string) =>
-      (await coord.agent.get(`/api/v1/rounds/${id}`).expect(200)).body;
     const auditCount = (action: string) => t.ds.getRepository(AuditEvent).countBy({ action });
 
     it('edits an item in draft (audited); a taken code is 409 item_code_taken and a bad size is 400 naming the field; nothing half-saved', async () => {
@@ -298,18 +339,16 @@ describe('Round desk API', () => {
     it('refuses to remove an item or measurand with a recorded homogeneity check (409)', async () => {
       const id = await newRound('R-ITEM-CHECK');
       const d = await detail(id);
-      await post(coord, `/rounds/${id}/homogeneity`, {
-        kind: 'homogeneity',
-        testItemId: d.items[0].id,
-        measurandId: d.measurands[0].id,
-        sigmaPt: 2,
-        data: {
-          items: [
-            [100, 100.2],
-            [100.1, 100.3],
-          ],
-        },
-      }).expect(201);
+      await homogeneityStudy(
+        id,
+        d.items[0].id,
+        d.measurands[0].id,
+        [
+          [100, 100.2],
+          [100.1, 100.3],
+        ],
+        2,
+      ).expect(201);
       expect((await del(`/rounds/${id}/items/${d.items[0].id}`).expect(409)).body.error.code).toBe(
         'item_has_checks',
       );
@@ -388,9 +427,7 @@ describe('Round desk API', () => {
     });
 
     it('after enrolment, items and measurands are fixed: 409 round_not_editable, nothing changes', async () => {
-      const id = await newRound('R-DESIGN-LOCK', { resultsDueAt: PLUS_DAYS(20) });
-      await moveTo(id, 'enrolling').expect(200);
-      await inviteAndAccept(id, labA, 'alice@a.test', await signedIn(t, 'alice@a.test'));
+      const id = await roundWithLab('R-DESIGN-LOCK', 20, labA, 'alice@a.test');
       await moveTo(id, 'in-transit').expect(200);
       const d = await detail(id);
       for (const res of [
@@ -434,8 +471,7 @@ describe('Round desk API', () => {
       const id = await newRound('R-WALK', { resultsDueAt: PLUS_DAYS(10) });
       await moveTo(id, 'enrolling').expect(200);
       expect((await moveTo(id, 'in-transit').expect(422)).body.error.code).toBe('no_participants');
-      const alice = await signedIn(t, 'alice@a.test');
-      await inviteAndAccept(id, labA, 'alice@a.test', alice);
+      await inviteAndAccept(id, labA, 'alice@a.test');
       expect(
         (await moveTo(id, 'draft', { reason: 'Wrong items chosen' }).expect(409)).body.error.code,
       ).toBe('round_has_enrolments');
@@ -483,10 +519,7 @@ describe('Round desk API', () => {
     });
 
     it('closes without force once results are due', async () => {
-      const id = await newRound('R-DUE', { resultsDueAt: PLUS_DAYS(5) });
-      await moveTo(id, 'enrolling').expect(200);
-      const bob = await signedIn(t, 'bob@b.test');
-      await inviteAndAccept(id, labB, 'bob@b.test', bob);
+      const id = await roundWithLab('R-DUE', 5, labB, 'bob@b.test');
       await moveTo(id, 'in-transit').expect(200);
       await moveTo(id, 'collecting').expect(200);
       await t.ds
@@ -502,20 +535,14 @@ describe('Round desk API', () => {
 
     it('blocks publication while a failing homogeneity check has no decision (service API for the evaluation)', async () => {
       const id = await newRound('R-PUB', { resultsDueAt: PLUS_DAYS(1) });
-      const detail = (await coord.agent.get(`/api/v1/rounds/${id}`)).body;
-      const failing = await post(coord, `/rounds/${id}/homogeneity`, {
-        kind: 'homogeneity',
-        testItemId: detail.items[0].id,
-        measurandId: detail.measurands[0].id,
-        sigmaPt: 2,
-        data: {
-          items: [
-            [100, 100.2],
-            [105, 105.2],
-            [95, 95.2],
-          ],
-        },
-      }).expect(201);
+      const d = await detail(id);
+      const failing = await homogeneityStudy(
+        id,
+        d.items[0].id,
+        d.measurands[0].id,
+        FAILING_ITEMS,
+        2,
+      ).expect(201);
       expect(failing.body.passes).toBe(false);
       await t.ds.getRepository(Round).update({ id }, { state: 'closed' });
       const actor = await t.ds.getRepository(User).findOneByOrFail({ email: 'coord@x.test' });
@@ -526,11 +553,11 @@ describe('Round desk API', () => {
         status: 422,
         code: 'homogeneity_decision_missing',
       });
-      expect((await coord.agent.get(`/api/v1/rounds/${id}`)).body).toMatchObject({
+      expect(await detail(id)).toMatchObject({
         state: 'evaluated',
         hasOpenHomogeneityFailure: true,
       });
-      await post(coord, `/rounds/${id}/homogeneity/${failing.body.id}/decision`, {
+      await decide(id, failing.body.id, {
         decision: 'widen-sigma-pt',
         reason: 'σ_pt widened to include s_s',
       }).expect(200);
@@ -543,11 +570,7 @@ describe('Round desk API', () => {
       await expect(
         t.ds.transaction((em) => transitionRound(em, id, 'closed', { id: actor.id })),
       ).rejects.toMatchObject({ status: 409, code: 'transition_not_allowed' });
-      const locked = await coord.agent
-        .patch(`/api/v1/rounds/${id}`)
-        .set('x-csrf-token', coord.csrf)
-        .send({ title: 'Changed in place' })
-        .expect(409);
+      const locked = await patch(`/rounds/${id}`, { title: 'Changed in place' }).expect(409);
       expect(locked.body.error.code).toBe('round_locked');
       await expect(
         t.ds.transaction((em) => transitionRound(em, id, 'reissued', { id: actor.id })),
@@ -561,11 +584,8 @@ describe('Round desk API', () => {
           { reason: 'Corrected unit of lab P' },
         ),
       );
-      const patch = await coord.agent
-        .patch(`/api/v1/rounds/${id}`)
-        .set('x-csrf-token', coord.csrf)
-        .send({ title: 'x y' });
-      expect(patch.status).toBe(200); // a reissue reopens the description for the correction
+      const renamed = await patch(`/rounds/${id}`, { title: 'x y' });
+      expect(renamed.status).toBe(200); // a reissue reopens the description for the correction
     });
   });
 
@@ -576,26 +596,22 @@ describe('Round desk API', () => {
     });
 
     it('refuses invitations before enrolment opens', async () => {
-      const res = await post(coord, `/rounds/${roundId}/invitations`, {
-        invitations: [{ organisationId: labA, email: 'alice@a.test' }],
-      }).expect(409);
+      const res = await invite(roundId, [{ organisationId: labA, email: 'alice@a.test' }]).expect(
+        409,
+      );
       expect(res.body.error.code).toBe('round_not_enrolling');
       await moveTo(roundId, 'enrolling').expect(200);
     });
 
     it('names the field of a bad invitation', async () => {
-      const res = await post(coord, `/rounds/${roundId}/invitations`, {
-        invitations: [{ email: 'not-an-address' }],
-      }).expect(400);
+      const res = await invite(roundId, [{ email: 'not-an-address' }]).expect(400);
       expect(res.body.error.details.map((d: { path: string }) => d.path)).toContain(
         'invitations.0.email',
       );
     });
 
     it('e-mails an existing lab; only a signed-in member accepts; the link works once', async () => {
-      await post(coord, `/rounds/${roundId}/invitations`, {
-        invitations: [{ organisationId: labA, email: 'alice@a.test' }],
-      }).expect(201);
+      await invite(roundId, [{ organisationId: labA, email: 'alice@a.test' }]).expect(201);
       const [mail] = await mailTo(t.ds, 'alice@a.test');
       expect(mail!.to).toEqual(['alice@a.test']);
       expect(mail!.subject).toBe('Invitation to proficiency-testing round R-INV');
@@ -608,22 +624,17 @@ describe('Round desk API', () => {
         isNewLab: false,
       });
       // anonymous: 401, and the link still works afterwards (nothing half-saved)
-      expect(
-        (await post(anon, `/invitations/${token}/accept`, {}).expect(401)).body.error.code,
-      ).toBe('unauthenticated');
+      expect((await accept(anon, token).expect(401)).body.error.code).toBe('unauthenticated');
       const bob = await signedIn(t, 'bob@b.test');
-      expect(
-        (await post(bob, `/invitations/${token}/accept`, {}).expect(403)).body.error.code,
-      ).toBe('not_a_member');
+      expect((await accept(bob, token).expect(403)).body.error.code).toBe('not_a_member');
       const alice = await signedIn(t, 'alice@a.test');
-      const ok = await post(alice, `/invitations/${token}/accept`, {}).expect(201);
+      const ok = await accept(alice, token).expect(201);
       expect(ok.body.participantCode).toMatch(/^P[ABCDEFGHJKMNPQRSTUVWXYZ23456789]{4}$/);
       expect(ok.body.accountCreated).toBe(false);
-      const again = await post(alice, `/invitations/${token}/accept`, {}).expect(404);
+      const again = await accept(alice, token).expect(404);
       expect(again.body.error.code).toBe('link_invalid');
       await anon.agent.get(`/api/v1/invitations/${token}`).expect(404);
-      const enrolments = await coord.agent.get(`/api/v1/rounds/${roundId}/enrolments`).expect(200);
-      expect(enrolments.body).toEqual([
+      expect(await enrolments(roundId)).toEqual([
         expect.objectContaining({
           organisationName: 'Lab Alpha',
           participantCode: ok.body.participantCode,
@@ -633,25 +644,15 @@ describe('Round desk API', () => {
       ]);
       // a second invitation for an enrolled lab is refused
       expect(
-        (
-          await post(coord, `/rounds/${roundId}/invitations`, {
-            invitations: [{ organisationId: labA, email: 'alice@a.test' }],
-          }).expect(409)
-        ).body.error.code,
+        (await invite(roundId, [{ organisationId: labA, email: 'alice@a.test' }]).expect(409)).body
+          .error.code,
       ).toBe('already_enrolled');
     });
 
     it('a new lab by contact address: accepting creates the lab and an account with a first-password link (once)', async () => {
-      await post(coord, `/rounds/${roundId}/invitations`, {
-        invitations: [{ email: 'Head@Gamma.test', labName: 'Lab Gamma' }],
-      }).expect(201);
-      const [invite] = await mailTo(t.ds, 'head@gamma.test');
+      await invite(roundId, [{ email: 'Head@Gamma.test', labName: 'Lab Gamma' }]).expect(201);
       const anon = await client(t);
-      const accepted = await post(
-        anon,
-        `/invitations/${invitationToken(invite!.text)}/accept`,
-        {},
-      ).expect(201);
+      const accepted = await accept(anon, await invitationFor('head@gamma.test')).expect(201);
       expect(accepted.body.accountCreated).toBe(true);
       const lab = await t.ds.getRepository(Organisation).findOneByOrFail({ name: 'Lab Gamma' });
       expect(lab.contactEmail).toBe('head@gamma.test');
@@ -681,28 +682,21 @@ describe('Round desk API', () => {
     });
 
     it('an expired invitation is refused', async () => {
-      await post(coord, `/rounds/${roundId}/invitations`, {
-        invitations: [{ organisationId: labB, email: 'bob@b.test' }],
-      }).expect(201);
-      const [mail] = await mailTo(t.ds, 'bob@b.test');
-      const token = invitationToken(mail!.text);
+      await invite(roundId, [{ organisationId: labB, email: 'bob@b.test' }]).expect(201);
+      const token = await invitationFor('bob@b.test');
       await t.ds.query(
         `UPDATE invitation SET expires_at = now() - interval '1 minute' WHERE email = 'bob@b.test' AND round_id = $1`,
         [roundId],
       );
       const bob = await signedIn(t, 'bob@b.test');
-      expect(
-        (await post(bob, `/invitations/${token}/accept`, {}).expect(404)).body.error.code,
-      ).toBe('link_invalid');
+      expect((await accept(bob, token).expect(404)).body.error.code).toBe('link_invalid');
     });
 
     it('withdraws an enrolment with a reason, once', async () => {
-      const [e] = (await coord.agent.get(`/api/v1/rounds/${roundId}/enrolments`)).body;
-      const bad = await post(coord, `/rounds/${roundId}/enrolments/${e.id}/withdrawal`, {
-        reason: '',
-      }).expect(400);
+      const [e] = await enrolments(roundId);
+      const bad = await onEnrolment(roundId, e.id, 'withdrawal', { reason: '' }).expect(400);
       expect(bad.body.error.details[0].path).toBe('reason');
-      const ok = await post(coord, `/rounds/${roundId}/enrolments/${e.id}/withdrawal`, {
+      const ok = await onEnrolment(roundId, e.id, 'withdrawal', {
         reason: 'Lab asked to withdraw',
       }).expect(200);
       expect(ok.body).toMatchObject({
@@ -710,11 +704,8 @@ describe('Round desk API', () => {
         withdrawnReason: 'Lab asked to withdraw',
       });
       expect(
-        (
-          await post(coord, `/rounds/${roundId}/enrolments/${e.id}/withdrawal`, {
-            reason: 'Again please',
-          }).expect(409)
-        ).body.error.code,
+        (await onEnrolment(roundId, e.id, 'withdrawal', { reason: 'Again please' }).expect(409))
+          .body.error.code,
       ).toBe('already_withdrawn');
       const audit = await t.ds
         .getRepository(AuditEvent)
@@ -724,10 +715,8 @@ describe('Round desk API', () => {
 
     it('an enrolment of another round answers 404', async () => {
       const other = await newRound('R-OTHER');
-      const [e] = (await coord.agent.get(`/api/v1/rounds/${roundId}/enrolments`)).body;
-      await post(coord, `/rounds/${other}/enrolments/${e.id}/withdrawal`, {
-        reason: 'wrong round',
-      }).expect(404);
+      const [e] = await enrolments(roundId);
+      await onEnrolment(other, e.id, 'withdrawal', { reason: 'wrong round' }).expect(404);
     });
   });
 
@@ -762,21 +751,18 @@ describe('Round desk API', () => {
     let roundId: string;
     let enrolmentId: string;
     beforeAll(async () => {
-      roundId = await newRound('R-SHIP', { resultsDueAt: PLUS_DAYS(3) });
-      await moveTo(roundId, 'enrolling').expect(200);
-      const bob = await signedIn(t, 'bob@b.test');
-      await inviteAndAccept(roundId, labB, 'bob@b.test', bob);
-      enrolmentId = (await coord.agent.get(`/api/v1/rounds/${roundId}/enrolments`)).body[0].id;
+      roundId = await roundWithLab('R-SHIP', 3, labB, 'bob@b.test');
+      enrolmentId = (await enrolments(roundId))[0].id;
     });
 
     it('records the dispatch and e-mails the lab', async () => {
-      const bad = await post(coord, `/rounds/${roundId}/enrolments/${enrolmentId}/dispatch`, {
+      const bad = await onEnrolment(roundId, enrolmentId, 'dispatch', {
         courier: 'Swift Parcel',
         trackingNumber: 'SP-1',
         dispatchedOn: '31/03/2026',
       }).expect(400);
       expect(bad.body.error.details[0].path).toBe('dispatchedOn');
-      const res = await post(coord, `/rounds/${roundId}/enrolments/${enrolmentId}/dispatch`, {
+      const res = await onEnrolment(roundId, enrolmentId, 'dispatch', {
         courier: 'Swift Parcel',
         trackingNumber: 'SP-123',
         dispatchedOn: '2026-03-02',
@@ -803,12 +789,12 @@ describe('Round desk API', () => {
       await t.ds
         .getRepository(Shipment)
         .update({ enrolmentId }, { receivedOn: '2026-03-04', condition: 'arrived-warm' });
-      const [e] = (await coord.agent.get(`/api/v1/rounds/${roundId}/enrolments`)).body;
+      const [e] = await enrolments(roundId);
       expect(e).toMatchObject({
         receiptStatus: 'received-with-problem',
         shipment: { receivedOn: '2026-03-04', condition: 'arrived-warm' },
       });
-      const res = await post(coord, `/rounds/${roundId}/enrolments/${enrolmentId}/dispatch`, {
+      const res = await onEnrolment(roundId, enrolmentId, 'dispatch', {
         courier: 'Other',
         trackingNumber: 'X',
         dispatchedOn: '2026-03-05',
@@ -818,13 +804,13 @@ describe('Round desk API', () => {
 
     it('grants an extension after the due date with a reason, audited', async () => {
       await moveTo(roundId, 'in-transit').expect(200);
-      const early = await post(coord, `/rounds/${roundId}/enrolments/${enrolmentId}/extension`, {
+      const early = await onEnrolment(roundId, enrolmentId, 'extension', {
         until: PLUS_DAYS(1),
         reason: 'Instrument repair',
       }).expect(422);
       expect(early.body.error.code).toBe('extension_before_due');
       const until = PLUS_DAYS(7);
-      const ok = await post(coord, `/rounds/${roundId}/enrolments/${enrolmentId}/extension`, {
+      const ok = await onEnrolment(roundId, enrolmentId, 'extension', {
         until,
         reason: 'Instrument repair',
       }).expect(200);
@@ -844,27 +830,39 @@ describe('Round desk API', () => {
     let zId: string;
     beforeAll(async () => {
       roundId = await newRound('R-HOM');
-      const d = (await coord.agent.get(`/api/v1/rounds/${roundId}`)).body;
+      const d = await detail(roundId);
       itemId = d.items[0].id;
       zId = d.measurands[0].id;
     });
+    /** A homogeneity study of the first item's Z-average. */
+    const study = (items: number[][], sigmaPt?: number) =>
+      homogeneityStudy(roundId, itemId, zId, items, sigmaPt);
+    /** A study of the first item's Z-average sent as a file (multipart), σ_pt as typed. */
+    function upload(kind: string, sigmaPt: string | undefined, file: Buffer, name: string) {
+      const req = coord.agent
+        .post(api(`/rounds/${roundId}/homogeneity/upload`))
+        .set('x-csrf-token', coord.csrf)
+        .field('kind', kind)
+        .field('testItemId', itemId)
+        .field('measurandId', zId);
+      return (sigmaPt === undefined ? req : req.field('sigmaPt', sigmaPt)).attach(
+        'file',
+        file,
+        name,
+      );
+    }
 
     it('computes a passing homogeneity check with the numbers (hand-computed)', async () => {
       // item means 101, 102, 100 → s_x = 1; each pair differs by 2 → s_t² = 2, s_w² = 2;
       // s_s² = max(0, 1 − 2/2) = 0. σ_pt = 1 → limit 0.3 (ISO 13528:2015 B.2, from memory)
-      const res = await post(coord, `/rounds/${roundId}/homogeneity`, {
-        kind: 'homogeneity',
-        testItemId: itemId,
-        measurandId: zId,
-        sigmaPt: 1,
-        data: {
-          items: [
-            [100, 102],
-            [101, 103],
-            [99, 101],
-          ],
-        },
-      }).expect(201);
+      const res = await study(
+        [
+          [100, 102],
+          [101, 103],
+          [99, 101],
+        ],
+        1,
+      ).expect(201);
       expect(res.body.passes).toBe(true);
       expect(res.body.result.sx).toBeCloseTo(1, 12);
       expect(res.body.result.sw).toBeCloseTo(Math.SQRT2, 12);
@@ -876,19 +874,7 @@ describe('Round desk API', () => {
     it('a failing check: s_s = √24.99, widened σ_pt, decision needed; 409 on a decision for a passing check', async () => {
       // means 100.1, 105.1, 95.1 → s_x = 5; s_t² = 0.02 → s_w² = 0.02; s_s² = 25 − 0.01 = 24.99
       // F1 = χ²(0.95; 2)/2 = 5.9915/2 = 2.9957 (χ² table); extended limit² = 2.9957·0.36 + F2·0.02 ≪ 24.99
-      const res = await post(coord, `/rounds/${roundId}/homogeneity`, {
-        kind: 'homogeneity',
-        testItemId: itemId,
-        measurandId: zId,
-        sigmaPt: 2,
-        data: {
-          items: [
-            [100, 100.2],
-            [105, 105.2],
-            [95, 95.2],
-          ],
-        },
-      }).expect(201);
+      const res = await study(FAILING_ITEMS, 2).expect(201);
       expect(res.body.passes).toBe(false);
       expect(res.body.result.ss).toBeCloseTo(Math.sqrt(24.99), 10);
       expect(res.body.result.f1).toBeCloseTo(2.9957, 4);
@@ -896,15 +882,13 @@ describe('Round desk API', () => {
       expect(res.body.result.widenedSigmaPt).toBeCloseTo(Math.sqrt(4 + 24.99), 10);
       const list = await coord.agent.get(`/api/v1/rounds/${roundId}/homogeneity`).expect(200);
       expect(list.body).toHaveLength(1); // replaced the earlier study of the same item × measurand
-      expect(
-        (await coord.agent.get(`/api/v1/rounds/${roundId}`)).body.hasOpenHomogeneityFailure,
-      ).toBe(true);
-      const bad = await post(coord, `/rounds/${roundId}/homogeneity/${res.body.id}/decision`, {
+      expect((await detail(roundId)).hasOpenHomogeneityFailure).toBe(true);
+      const bad = await decide(roundId, res.body.id, {
         decision: 'shrug',
         reason: 'whatever',
       }).expect(400);
       expect(bad.body.error.details[0].path).toBe('decision');
-      const ok = await post(coord, `/rounds/${roundId}/homogeneity/${res.body.id}/decision`, {
+      const ok = await decide(roundId, res.body.id, {
         decision: 'widen-sigma-pt',
         reason: 'Include s_s in σ_pt',
       }).expect(200);
@@ -912,9 +896,7 @@ describe('Round desk API', () => {
         decision: 'widen-sigma-pt',
         decisionReason: 'Include s_s in σ_pt',
       });
-      expect(
-        (await coord.agent.get(`/api/v1/rounds/${roundId}`)).body.hasOpenHomogeneityFailure,
-      ).toBe(false);
+      expect((await detail(roundId)).hasOpenHomogeneityFailure).toBe(false);
     });
 
     it('stability: |ȳ₁ − ȳ₂| = 0.5 ≤ 0.3·2 passes', async () => {
@@ -931,47 +913,27 @@ describe('Round desk API', () => {
     });
 
     it('needs σ_pt when the measurand rule depends on the results (422 sigma_pt_needed)', async () => {
-      const res = await post(coord, `/rounds/${roundId}/homogeneity`, {
-        kind: 'homogeneity',
-        testItemId: itemId,
-        measurandId: zId,
-        data: {
-          items: [
-            [1, 2],
-            [1, 2],
-          ],
-        },
-      }).expect(422);
+      const res = await study([
+        [1, 2],
+        [1, 2],
+      ]).expect(422);
       expect(res.body.error.code).toBe('sigma_pt_needed');
     });
 
     it('names the field for unequal replicate counts', async () => {
-      const res = await post(coord, `/rounds/${roundId}/homogeneity`, {
-        kind: 'homogeneity',
-        testItemId: itemId,
-        measurandId: zId,
-        sigmaPt: 1,
-        data: {
-          items: [
-            [1, 2],
-            [1, 2, 3],
-          ],
-        },
-      }).expect(400);
+      const res = await study(
+        [
+          [1, 2],
+          [1, 2, 3],
+        ],
+        1,
+      ).expect(400);
       expect(res.body.error.details[0].path).toBe('data.items');
     });
 
     it('accepts a CSV upload and computes the same numbers', async () => {
       const csv = 'item,rep1,rep2\nH01,100,102\nH02,101,103\nH03,99,101\n';
-      const res = await coord.agent
-        .post(`/api/v1/rounds/${roundId}/homogeneity/upload`)
-        .set('x-csrf-token', coord.csrf)
-        .field('kind', 'homogeneity')
-        .field('testItemId', itemId)
-        .field('measurandId', zId)
-        .field('sigmaPt', '1')
-        .attach('file', Buffer.from(csv), 'homogeneity.csv')
-        .expect(201);
+      const res = await upload('homogeneity', '1', Buffer.from(csv), 'homogeneity.csv').expect(201);
       expect(res.body.data.items).toEqual([
         [100, 102],
         [101, 103],
@@ -987,15 +949,7 @@ describe('Round desk API', () => {
       for (const v of [100, 101, 102]) ws.addRow(['first', v]);
       for (const v of [103, 104, 105]) ws.addRow(['second', v]);
       const buf = Buffer.from(await wb.xlsx.writeBuffer());
-      const res = await coord.agent
-        .post(`/api/v1/rounds/${roundId}/homogeneity/upload`)
-        .set('x-csrf-token', coord.csrf)
-        .field('kind', 'stability')
-        .field('testItemId', itemId)
-        .field('measurandId', zId)
-        .field('sigmaPt', '2')
-        .attach('file', buf, 'stability.xlsx')
-        .expect(201);
+      const res = await upload('stability', '2', buf, 'stability.xlsx').expect(201);
       // |101 − 104| = 3 > 0.6; extended 0.6 + 2·√(1/3 + 1/3) = 2.233 → fails
       expect(res.body.result.difference).toBeCloseTo(3, 12);
       expect(res.body.result.extendedLimit).toBeCloseTo(0.6 + 2 * Math.sqrt(2 / 3), 12);
@@ -1003,22 +957,9 @@ describe('Round desk API', () => {
     });
 
     it('refuses a binary file that is not a workbook', async () => {
-      const res = await coord.agent
-        .post(`/api/v1/rounds/${roundId}/homogeneity/upload`)
-        .set('x-csrf-token', coord.csrf)
-        .field('kind', 'homogeneity')
-        .field('testItemId', itemId)
-        .field('measurandId', zId)
-        .attach('file', Buffer.from([0x89, 0x50, 0x4e, 0x47, 0, 0, 0]), 'x.csv')
-        .expect(422);
+      const png = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0, 0, 0]);
+      const res = await upload('homogeneity', undefined, png, 'x.csv').expect(422);
       expect(res.body.error.code).toBe('file_type');
     });
   });
 });
-
-/** The token of the first /invitations/ link in a message. */
-function invitationToken(text: string): string {
-  const m = /\/invitations\/([A-Za-z0-9_-]+)/.exec(text);
-  if (!m) throw new Error(`no invitation link in: ${text}`);
-  return m[1]!;
-}

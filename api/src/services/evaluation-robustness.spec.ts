@@ -12,6 +12,7 @@ import {
 import { buildEvaluationFixture, type EvaluationFixture } from '../testing/evaluation-fixtures';
 import {
   api,
+  commitAndPublish,
   createUser,
   send,
   signedIn,
@@ -252,8 +253,7 @@ describe('absurd values and duplicates', () => {
 
     it('commits, publishes and shows each lab its scores with the reason', async () => {
       await coord.agent.get(api(`/rounds/${fx.round.id}/evaluation`)).expect(200);
-      await send(coord, `/rounds/${fx.round.id}/evaluation/commit`, {}).expect(200);
-      await send(coord, `/rounds/${fx.round.id}/publish`, {}).expect(200);
+      await commitAndPublish(coord, fx.round.id);
       const board = await coord.agent.get(api(`/rounds/${fx.round.id}/board`)).expect(200);
       const gi = (board.body.groups as { itemCode: string; measurandKey: string }[]).findIndex(
         (g) => g.itemCode === 'B' && g.measurandKey === 'z_average',

@@ -16,6 +16,7 @@ import {
   TestItem,
 } from '../../../db/entities';
 import { mulberry32 } from '../../../shared/stats/synthetic-round';
+import { createCast, startTestApp, type Cast, type CastMember } from './test-app';
 
 export interface EvaluationFixtureSpec {
   participants: number;
@@ -78,60 +79,31 @@ export async function buildEvaluationFixture(
         state: spec.state ?? 'closed',
       }),
     );
-    const items = [
-      await em.save(
-        TestItem,
-        em.create(TestItem, {
-          roundId: round.id,
-          code: 'A',
-          material: 'polystyrene latex, 100 nm nominal',
-          nominalSizeNm: 100,
-          position: 0,
-        }),
-      ),
-      await em.save(
-        TestItem,
-        em.create(TestItem, {
-          roundId: round.id,
-          code: 'B',
-          material: 'polystyrene latex, 200 nm nominal',
-          nominalSizeNm: 200,
-          position: 1,
-        }),
-      ),
-    ];
-    const measurands = [
-      await em.save(
-        Measurand,
+    const items = await em.save(
+      TestItem,
+      [
+        { code: 'A', material: 'polystyrene latex, 100 nm nominal', nominalSizeNm: 100 },
+        { code: 'B', material: 'polystyrene latex, 200 nm nominal', nominalSizeNm: 200 },
+      ].map((item, position) => em.create(TestItem, { roundId: round.id, ...item, position })),
+    );
+    // Both measurands: 3 replicates, robust SD as σ_pt and the consensus as assigned value.
+    const measurands = await em.save(
+      Measurand,
+      [
+        { key: 'z_average', name: 'Z-average', unit: 'nm', decimals: 1 },
+        { key: 'pdi', name: 'PDI', unit: '', decimals: 3 },
+      ].map((m, position) =>
         em.create(Measurand, {
           roundId: round.id,
-          key: 'z_average',
-          name: 'Z-average',
-          unit: 'nm',
-          decimals: 1,
+          ...m,
           replicatesRequired: 3,
           sigmaPtRule: { kind: 'robust-sd' },
           assignedValueRule: { kind: 'consensus' },
           minParticipants: 12,
-          position: 0,
+          position,
         }),
       ),
-      await em.save(
-        Measurand,
-        em.create(Measurand, {
-          roundId: round.id,
-          key: 'pdi',
-          name: 'PDI',
-          unit: '',
-          decimals: 3,
-          replicatesRequired: 3,
-          sigmaPtRule: { kind: 'robust-sd' },
-          assignedValueRule: { kind: 'consensus' },
-          minParticipants: 12,
-          position: 1,
-        }),
-      ),
-    ];
+    );
     const width = String(spec.participants).length;
     const labRows = Array.from({ length: spec.participants }, (_, i) => ({
       name: `${prefix} ${String(i + 1).padStart(width, '0')}`,
@@ -219,4 +191,17 @@ export async function buildEvaluationFixture(
     );
     return { round, items, measurands, labs, enrolments: ordered, values };
   });
+}
+
+/**
+ * The real app on a fresh database with a fixture round, and a cast whose `users` may join the
+ * fixture's labs by id (`lab: fx.labs[0]!.id`).
+ */
+export async function startFixtureCast(
+  spec: EvaluationFixtureSpec,
+  users: (fx: EvaluationFixture) => CastMember[],
+): Promise<Cast & { fx: EvaluationFixture }> {
+  const t = await startTestApp();
+  const fx = await buildEvaluationFixture(t.ds, spec);
+  return { ...(await createCast(t, { users: users(fx) })), fx };
 }

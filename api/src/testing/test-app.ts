@@ -165,6 +165,13 @@ export function linkToken(text: string): string {
   return m[1]!;
 }
 
+/** The token of the first /invitations/ link in a message (a round's invitation to a lab). */
+export function invitationToken(text: string): string {
+  const m = /\/invitations\/([A-Za-z0-9_-]+)/.exec(text);
+  if (!m) throw new Error(`no invitation link in: ${text}`);
+  return m[1]!;
+}
+
 /** supertest: collect a binary response body into a Buffer (`.buffer(true).parse(binary)`). */
 export function binary(res: unknown, done: (err: Error | null, body: Buffer) => void): void {
   const stream = res as NodeJS.ReadableStream;
@@ -175,6 +182,11 @@ export function binary(res: unknown, done: (err: Error | null, body: Buffer) => 
 
 /** Every API path starts here. */
 export const api = (path: string): string => `/api/v1${path}`;
+
+/** A file download under /api/v1 with its body collected into a Buffer. */
+export function download(c: Client, path: string): ReturnType<Client['agent']['get']> {
+  return c.agent.get(api(path)).buffer(true).parse(binary);
+}
 
 /** A JSON request under /api/v1 with the client's CSRF token (POST unless told). */
 export function send(
@@ -188,9 +200,12 @@ export function send(
     .send(body as object);
 }
 
-/** A user of a spec's cast: `lab` is an index into the cast's labs; `signIn` gives a client. */
+/**
+ * A user of a spec's cast: `lab` is an index into the cast's labs, or the id of a lab made
+ * elsewhere (a fixture's); `signIn` gives a client.
+ */
 export interface CastMember extends Omit<TestUserSpec, 'lab'> {
-  lab?: number;
+  lab?: number | string;
   signIn?: boolean;
 }
 
@@ -216,7 +231,7 @@ export async function createCast(t: TestApp, spec: CastSpec): Promise<Cast> {
   for (const name of spec.labs ?? []) labIds.push((await createLab(t.ds, name)).id);
   const users: User[] = [];
   for (const { lab, signIn: _signIn, ...u } of spec.users ?? []) {
-    users.push(await createUser(t.ds, { ...u, lab: lab === undefined ? undefined : labIds[lab] }));
+    users.push(await createUser(t.ds, { ...u, lab: typeof lab === 'number' ? labIds[lab] : lab }));
   }
   const clients = new Map<string, Client>();
   for (const u of spec.users ?? []) if (u.signIn) clients.set(u.email, await signedIn(t, u.email));
@@ -246,6 +261,11 @@ export async function publishAsCoordinator(
   await createUser(t.ds, { email, roles: ['coordinator'] });
   const coord = await signedIn(t, email);
   await send(coord, `/rounds/${roundId}/evaluation`, {}).expect(201);
+  await commitAndPublish(coord, roundId);
+}
+
+/** As coordinator `coord`: commit a round's evaluation draft, then publish it. */
+export async function commitAndPublish(coord: Client, roundId: string): Promise<void> {
   await send(coord, `/rounds/${roundId}/evaluation/commit`, {}).expect(200);
   await send(coord, `/rounds/${roundId}/publish`, {}).expect(200);
 }

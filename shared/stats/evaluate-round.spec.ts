@@ -144,14 +144,20 @@ function referenceGroup(byCode: ReadonlyMap<string, number[]>) {
   };
 }
 
-describe('evaluateColumns (typed columns) against the per-row object path', () => {
+describe('evaluateColumns (columns) against the per-row object path', () => {
   // Invented data (seeded synthetic round); exact equality, so any change of a number fails.
-  it.each([12, 250, 3000])(
-    'gives identical x*, s*, u(x_pt), results and z, z′ for %i participants',
-    (n) => {
+  // Above 16,000 participants a group's columns are typed arrays, below plain arrays: both kinds.
+  it.each([
+    [12, 2],
+    [250, 2],
+    [3000, 2],
+    [16_001, 1],
+  ])(
+    'gives identical x*, s*, u(x_pt), results and z, z′ for %i participants, %i item(s)',
+    (n, items) => {
       const rows = syntheticRound({
         participants: n,
-        items: 2,
+        items,
         measurands: 2,
         replicates: 3,
         seed: 20240601,

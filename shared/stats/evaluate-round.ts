@@ -65,22 +65,28 @@ export type EvaluationWarning =
   | 'u-not-negligible';
 
 /**
- * The per-participant numbers of one item × measurand as typed columns, index i = the i-th
+ * The per-participant numbers of one item × measurand as columns, index i = the i-th
  * participant in code order. The engine fills these; `ItemEvaluation.participants` builds its
  * objects from them only when a caller reads it.
+ *
+ * Up to 16,000 participants the columns are plain number arrays, above that typed arrays. Plain
+ * arrays live on the JavaScript heap, whose pages V8 keeps and reuses; a fresh typed array over
+ * about 128 kB is memory the C allocator maps afresh until the garbage collector frees it, so
+ * every evaluation paid a page fault per 4 kB of results (about 400 at 10,000 participants; see
+ * docs/QUALITY.md). Above 16,000 a plain array is mapped afresh too and takes more room.
  */
 export interface ParticipantColumns {
   /** Index into the round's participant codes (`ResultColumns.codes`). */
-  readonly code: Int32Array;
+  readonly code: ArrayLike<number>;
   /** Mean of the participant's replicates, unit of the measurand. */
-  readonly result: Float64Array;
-  readonly replicates: Int32Array;
+  readonly result: ArrayLike<number>;
+  readonly replicates: ArrayLike<number>;
   /** SD (n − 1) of the replicates; NaN for a single replicate. */
-  readonly replicateSd: Float64Array;
+  readonly replicateSd: ArrayLike<number>;
   /** z per participant; null when σ_pt could not be set. */
-  readonly z: Float64Array | null;
+  readonly z: ArrayLike<number> | null;
   /** z′ per participant; null when σ_pt could not be set. */
-  readonly zPrime: Float64Array | null;
+  readonly zPrime: ArrayLike<number> | null;
 }
 
 export interface ItemEvaluation {
@@ -103,7 +109,7 @@ export interface ItemEvaluation {
   readonly uNegligible: boolean | null;
   readonly sigmaPtRule: SigmaPtRule;
   readonly warnings: readonly EvaluationWarning[];
-  /** The participants' numbers as typed columns (what the engine computes). */
+  /** The participants' numbers as columns (what the engine computes). */
   readonly columns: ParticipantColumns;
   /**
    * The same numbers as one object per participant, in code order. Built from `columns` on
@@ -207,7 +213,7 @@ let scratchGroup = new Int32Array(0);
  * participant's replicate mean and SD straight from the rows into the output columns. That holds
  * when each group's rows arrive in code order (as uploads and the database give them); otherwise
  * the rows are first put in (group, code) order by stable counting passes over integer indices.
- * Per-participant numbers stay in typed columns (`ItemEvaluation.columns`), and Algorithm A finds
+ * Per-participant numbers stay in columns (`ItemEvaluation.columns`), and Algorithm A finds
  * its medians by selection.
  * @throws RangeError when a column's length or an index is out of step with the others.
  */
@@ -223,32 +229,22 @@ export function evaluateColumns(
     throw new RangeError('columns: participant, group and value must have the same length');
   }
   const rank = codeRanks(codes);
-  // runStart[g + 1]: participants of group g, then (summed) each group's first output entry.
-  const runStart = new Int32Array(nGroups + 1);
+  // perGroup[g + 1]: number of participants of group g.
+  const perGroup = new Int32Array(nGroups + 1);
   const stream = participantStream(nRows);
-  let entries = replicateMeans(cols, codes.length, rank, runStart, stream);
+  let entries = replicateMeans(cols, codes.length, rank, perGroup, stream);
   if (entries < 0) {
     checkRows(cols);
-    runStart.fill(0);
-    entries = replicateMeans(inGroupCodeOrder(cols, rank), codes.length, rank, runStart, stream);
+    perGroup.fill(0);
+    entries = replicateMeans(inGroupCodeOrder(cols, rank), codes.length, rank, perGroup, stream);
   }
-  for (let g = 0; g < nGroups; g++) runStart[g + 1] += runStart[g];
-
-  // All groups' output columns live in one Float64 and one Int32 allocation: two fresh blocks
-  // per call instead of six per group (fresh large typed arrays dominated the time).
-  const out = outputBlocks(runStart[nGroups]);
-  distribute(stream, entries, runStart, out);
+  const out: GroupColumns[] = [];
+  for (let g = 0; g < nGroups; g++) out.push(groupColumns(perGroup[g + 1]));
+  distribute(stream, entries, out);
   const evaluations: ItemEvaluation[] = [];
   for (let g = 0; g < nGroups; g++) {
     evaluations.push(
-      evaluateGroup(
-        groups[g].item,
-        groups[g].measurand,
-        columnsAt(out, runStart[g], runStart[g + 1]),
-        codes,
-        options,
-        minResults,
-      ),
+      evaluateGroup(groups[g].item, groups[g].measurand, out[g], codes, options, minResults),
     );
   }
   return { evaluations };
@@ -403,12 +399,12 @@ function evaluateGroup(
   if (uNegligible === false) warnings.push('u-not-negligible');
 
   const xpt = a.robustMean;
-  let z: Float64Array | null = null;
-  let zPrime: Float64Array | null = null;
+  let z: Doubles | null = null;
+  let zPrime: Doubles | null = null;
   if (sigma !== null) {
     const zpDen = Math.sqrt(sigma * sigma + uAssigned * uAssigned);
-    z = cols.z;
-    zPrime = cols.zPrime;
+    z = freshDoubles(p);
+    zPrime = freshDoubles(p);
     scores(results, xpt, sigma, zpDen, z, zPrime);
   }
   const columns: ParticipantColumns = {
@@ -435,45 +431,91 @@ function evaluateGroup(
     warnings,
     columns,
   };
-  let built: ParticipantEvaluation[] | undefined;
-  return Object.defineProperty(evaluation as ItemEvaluation, 'participants', {
-    enumerable: true,
-    get: () => (built ??= participantObjects(columns, codes, uNegligible)),
+  const source: ParticipantSource = { codes, built: undefined };
+  return Object.defineProperties(evaluation as ItemEvaluation, {
+    [PARTICIPANT_SOURCE]: { value: source },
+    participants: { enumerable: true, get: participantsGetter },
   });
 }
 
-/** The output columns of all groups of one call, `total` participant entries each. */
-interface OutputBlocks {
-  readonly total: number;
-  /** results, replicate SDs, z and z′, one after the other. */
-  readonly f64: Float64Array;
-  /** replicate counts and codes, one after the other. */
-  readonly i32: Int32Array;
+/** Key of what an evaluation's `participants` getter reads besides its columns (hidden). */
+const PARTICIPANT_SOURCE = Symbol('participant source');
+
+interface ParticipantSource {
+  readonly codes: readonly string[];
+  /** The objects, once built. */
+  built: ParticipantEvaluation[] | undefined;
 }
 
-/** One group's output columns: views of the call's blocks at participant entries [from, to). */
+/**
+ * The `participants` getter: one function shared by every evaluation, reading its state through
+ * `this`. A closure per evaluation gave each result its own V8 hidden class (allocated in the old
+ * generation) holding that closure, so every young-generation collection kept every result
+ * alive until the next full collection and moved it to the old generation: at 10,000
+ * participants about 6 MB copied per collection and fresh old-generation pages to fault in.
+ */
+function participantsGetter(
+  this: ItemEvaluation & { readonly [PARTICIPANT_SOURCE]: ParticipantSource },
+): readonly ParticipantEvaluation[] {
+  const s = this[PARTICIPANT_SOURCE];
+  return (s.built ??= participantObjects(this.columns, s.codes, this.uNegligible));
+}
+
+/** One group's output columns, filled by `distribute`. */
 interface GroupColumns {
-  readonly results: Float64Array;
-  readonly sdValues: Float64Array;
-  readonly z: Float64Array;
-  readonly zPrime: Float64Array;
-  readonly counts: Int32Array;
-  readonly codeOf: Int32Array;
+  readonly results: Doubles;
+  readonly sdValues: Doubles;
+  readonly counts: Integers;
+  readonly codeOf: Integers;
 }
 
-function outputBlocks(total: number): OutputBlocks {
-  return { total, f64: new Float64Array(4 * total), i32: new Int32Array(2 * total) };
+/**
+ * Longest column kept on the JavaScript heap: a longer array goes to V8's large-object space,
+ * mapped afresh for each array like a typed array's memory, and a typed array is then the
+ * smaller of the two (4 bytes per integer instead of 8). A packed double array of n elements
+ * takes 16 + 8n bytes; V8's regular heap objects end at 128 kB.
+ */
+const HEAP_COLUMN_MAX = 16_000;
+
+type Doubles = number[] | Float64Array;
+type Integers = number[] | Int32Array;
+
+/*
+ * Fresh output arrays are copies of a template of the right element kind (slice copies the
+ * backing store in one go): exact length, doubles stored unboxed (V8's packed-double arrays),
+ * integers as small integers, and no change of element kind while they are filled.
+ */
+let doubleTemplate: number[] = [0.5];
+let integerTemplate: number[] = [0];
+
+function grownTemplate(t: number[], n: number, fill: number): number[] {
+  const grown = t.slice();
+  while (grown.length < n) grown.push(fill);
+  return grown;
 }
 
-function columnsAt(b: OutputBlocks, from: number, to: number): GroupColumns {
-  const t = b.total;
+/** A fresh array of n doubles (values to be overwritten). */
+function freshDoubles(n: number): Doubles {
+  if (n > HEAP_COLUMN_MAX) return new Float64Array(n);
+  if (doubleTemplate.length < n)
+    doubleTemplate = grownTemplate(doubleTemplate, Math.max(n, 2 * doubleTemplate.length), 0.5);
+  return doubleTemplate.slice(0, n);
+}
+
+/** A fresh array of n small integers (values to be overwritten). */
+function freshIntegers(n: number): Integers {
+  if (n > HEAP_COLUMN_MAX) return new Int32Array(n);
+  if (integerTemplate.length < n)
+    integerTemplate = grownTemplate(integerTemplate, Math.max(n, 2 * integerTemplate.length), 0);
+  return integerTemplate.slice(0, n);
+}
+
+function groupColumns(p: number): GroupColumns {
   return {
-    results: b.f64.subarray(from, to),
-    sdValues: b.f64.subarray(t + from, t + to),
-    z: b.f64.subarray(2 * t + from, 2 * t + to),
-    zPrime: b.f64.subarray(3 * t + from, 3 * t + to),
-    counts: b.i32.subarray(from, to),
-    codeOf: b.i32.subarray(t + from, t + to),
+    results: freshDoubles(p),
+    sdValues: freshDoubles(p),
+    counts: freshIntegers(p),
+    codeOf: freshIntegers(p),
   };
 }
 
@@ -586,33 +628,29 @@ function writeParticipant(
   s.sd[e] = m > 1 ? Math.sqrt((ss > 0 ? ss : 0) / (m - 1)) : NaN;
 }
 
-/** Puts the stream's entries at their group's next output entry (`start[g]` onwards). */
-function distribute(
-  s: ParticipantStream,
-  entries: number,
-  start: Int32Array,
-  out: OutputBlocks,
-): void {
-  const { total: t, f64, i32 } = out;
-  const next = start.slice(0, start.length - 1);
+/** Puts the stream's entries in their group's output columns, in stream order. */
+function distribute(s: ParticipantStream, entries: number, out: readonly GroupColumns[]): void {
+  const next = new Int32Array(out.length);
   const { group, code, count, mean, sd } = s;
   for (let e = 0; e < entries; e++) {
-    const k = next[group[e]]++;
-    f64[k] = mean[e];
-    f64[t + k] = sd[e];
-    i32[k] = count[e];
-    i32[t + k] = code[e];
+    const g = group[e];
+    const k = next[g]++;
+    const c = out[g];
+    c.results[k] = mean[e];
+    c.sdValues[k] = sd[e];
+    c.counts[k] = count[e];
+    c.codeOf[k] = code[e];
   }
 }
 
 /** z = (x − x_pt)/σ_pt and z′ = (x − x_pt)/√(σ_pt² + u²(x_pt)) per participant. */
 function scores(
-  results: Float64Array,
+  results: Doubles,
   xpt: number,
   sigma: number,
   zpDen: number,
-  z: Float64Array,
-  zPrime: Float64Array,
+  z: Doubles,
+  zPrime: Doubles,
 ): void {
   for (let k = 0; k < results.length; k++) {
     const x = results[k];

@@ -1,4 +1,5 @@
 import { Column, Entity, PrimaryColumn } from 'typeorm';
+import { UuidColumn } from './columns';
 
 /** What a lab's invoices are addressed to (entered by the lab; the lab's name by default). */
 @Entity({ name: 'billing_details' })
@@ -9,5 +10,5 @@ export class BillingDetails {
   @Column({ type: 'text', name: 'tax_id', default: '' }) taxId!: string;
   @Column({ type: 'text', name: 'po_number', default: '' }) poNumber!: string;
   @Column({ type: 'timestamptz', name: 'updated_at', default: () => 'now()' }) updatedAt!: Date;
-  @Column({ type: 'uuid', name: 'updated_by', nullable: true }) updatedBy!: string | null;
+  @UuidColumn('updated_by', { nullable: true }) updatedBy!: string | null;
 }

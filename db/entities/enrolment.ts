@@ -1,11 +1,12 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn, UuidColumn } from './columns';
 
 /** A lab's participation in a round, known to others only by its participant code. */
 @Entity({ name: 'enrolment' })
 export class Enrolment {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'round_id' }) roundId!: string;
-  @Column({ type: 'uuid', name: 'organisation_id' }) organisationId!: string;
+  @UuidColumn('round_id') roundId!: string;
+  @UuidColumn('organisation_id') organisationId!: string;
   @Column({ type: 'text', name: 'participant_code' }) participantCode!: string;
   @Column({ type: 'text', default: 'enrolled' }) state!: 'enrolled' | 'withdrawn';
   @Column({ type: 'text', name: 'withdrawn_reason', nullable: true }) withdrawnReason!:
@@ -13,5 +14,5 @@ export class Enrolment {
   /** A deadline extension the coordinator granted (audited). */
   @Column({ type: 'timestamptz', name: 'extension_until', nullable: true })
   extensionUntil!: Date | null;
-  @CreateDateColumn({ type: 'timestamptz', name: 'enrolled_at' }) enrolledAt!: Date;
+  @CreatedAtColumn('enrolled_at') enrolledAt!: Date;
 }

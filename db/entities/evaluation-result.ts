@@ -1,12 +1,13 @@
 import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { UuidColumn } from './columns';
 
 /** The stored record of one item × measurand of an evaluation, with everything to reproduce it. */
 @Entity({ name: 'evaluation_result' })
 export class EvaluationResult {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'evaluation_id' }) evaluationId!: string;
-  @Column({ type: 'uuid', name: 'test_item_id' }) testItemId!: string;
-  @Column({ type: 'uuid', name: 'measurand_id' }) measurandId!: string;
+  @UuidColumn('evaluation_id') evaluationId!: string;
+  @UuidColumn('test_item_id') testItemId!: string;
+  @UuidColumn('measurand_id') measurandId!: string;
   @Column({ type: 'text', name: 'item_code' }) itemCode!: string;
   @Column({ type: 'text', name: 'measurand_key' }) measurandKey!: string;
   @Column({ type: 'integer' }) n!: number;

@@ -1,12 +1,13 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn, UuidColumn } from './columns';
 
 /** A homogeneity or stability study of one test item × measurand (ISO 13528 Annex B), with its result. */
 @Entity({ name: 'homogeneity_study' })
 export class HomogeneityStudy {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'round_id' }) roundId!: string;
-  @Column({ type: 'uuid', name: 'test_item_id' }) testItemId!: string;
-  @Column({ type: 'uuid', name: 'measurand_id' }) measurandId!: string;
+  @UuidColumn('round_id') roundId!: string;
+  @UuidColumn('test_item_id') testItemId!: string;
+  @UuidColumn('measurand_id') measurandId!: string;
   @Column({ type: 'text' }) kind!: 'homogeneity' | 'stability';
   /** σ_pt the check used, unit of the measurand. */
   @Column({ type: 'double precision', name: 'sigma_pt' }) sigmaPt!: number;
@@ -18,8 +19,8 @@ export class HomogeneityStudy {
   @Column({ type: 'text', nullable: true }) decision!:
     'accept' | 'widen-sigma-pt' | 'exclude-item' | null;
   @Column({ type: 'text', name: 'decision_reason', nullable: true }) decisionReason!: string | null;
-  @Column({ type: 'uuid', name: 'decided_by', nullable: true }) decidedBy!: string | null;
+  @UuidColumn('decided_by', { nullable: true }) decidedBy!: string | null;
   @Column({ type: 'timestamptz', name: 'decided_at', nullable: true }) decidedAt!: Date | null;
-  @Column({ type: 'uuid', name: 'created_by', nullable: true }) createdBy!: string | null;
-  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
+  @UuidColumn('created_by', { nullable: true }) createdBy!: string | null;
+  @CreatedAtColumn() createdAt!: Date;
 }

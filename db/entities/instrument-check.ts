@@ -1,10 +1,11 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn, UuidColumn } from './columns';
 
 /** A lab's check of one instrument against a reference material (history per instrument). */
 @Entity({ name: 'instrument_check' })
 export class InstrumentCheck {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'organisation_id' }) organisationId!: string;
+  @UuidColumn('organisation_id') organisationId!: string;
   @Column({ type: 'text' }) instrument!: string;
   @Column({ type: 'text' }) material!: string;
   @Column({ type: 'double precision', name: 'reference_value_nm' }) referenceValueNm!: number;
@@ -21,6 +22,6 @@ export class InstrumentCheck {
   @Column({ type: 'jsonb' }) verdict!: Record<string, unknown>;
   @Column({ type: 'text', default: '' }) notes!: string;
   @Column({ type: 'timestamptz', name: 'checked_at' }) checkedAt!: Date;
-  @Column({ type: 'uuid', name: 'recorded_by', nullable: true }) recordedBy!: string | null;
-  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
+  @UuidColumn('recorded_by', { nullable: true }) recordedBy!: string | null;
+  @CreatedAtColumn() createdAt!: Date;
 }

@@ -1,4 +1,5 @@
 import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { UuidColumn } from './columns';
 
 export interface BillTo {
   billingName: string;
@@ -15,9 +16,9 @@ export class Invoice {
   @Column({ type: 'integer' }) year!: number;
   @Column({ type: 'integer' }) seq!: number;
   @Column({ type: 'text', unique: true }) number!: string;
-  @Column({ type: 'uuid', name: 'round_id' }) roundId!: string;
-  @Column({ type: 'uuid', name: 'enrolment_id', unique: true }) enrolmentId!: string;
-  @Column({ type: 'uuid', name: 'organisation_id' }) organisationId!: string;
+  @UuidColumn('round_id') roundId!: string;
+  @UuidColumn('enrolment_id', { unique: true }) enrolmentId!: string;
+  @UuidColumn('organisation_id') organisationId!: string;
   @Column({ type: 'jsonb', name: 'bill_to' }) billTo!: BillTo;
   @Column({ type: 'integer', name: 'net_minor' }) netMinor!: number;
   @Column({ type: 'integer', name: 'tax_rate_bp' }) taxRateBp!: number;

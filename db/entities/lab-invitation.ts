@@ -1,11 +1,5 @@
-import {
-  Column,
-  CreateDateColumn,
-  Entity,
-  JoinColumn,
-  ManyToOne,
-  PrimaryGeneratedColumn,
-} from 'typeorm';
+import { Column, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn, UuidColumn } from './columns';
 import type { Organisation } from './organisation';
 import type { User } from './user';
 
@@ -19,11 +13,11 @@ export type LabInvitationAnswer = 'accepted' | 'declined' | 'withdrawn';
 @Entity({ name: 'lab_invitation' })
 export class LabInvitation {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'organisation_id' }) organisationId!: string;
-  @Column({ type: 'uuid', name: 'user_id' }) userId!: string;
+  @UuidColumn('organisation_id') organisationId!: string;
+  @UuidColumn('user_id') userId!: string;
   @Column({ type: 'boolean', name: 'is_manager', default: false }) isManager!: boolean;
-  @Column({ type: 'uuid', name: 'invited_by', nullable: true }) invitedBy!: string | null;
-  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
+  @UuidColumn('invited_by', { nullable: true }) invitedBy!: string | null;
+  @CreatedAtColumn() createdAt!: Date;
   @Column({ type: 'timestamptz', name: 'expires_at' }) expiresAt!: Date;
   @Column({ type: 'timestamptz', name: 'answered_at', nullable: true }) answeredAt!: Date | null;
   @Column({ type: 'text', nullable: true }) answer!: LabInvitationAnswer | null;

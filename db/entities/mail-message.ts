@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 
 /**
  * A message captured by the local SMTP fake (development and demo only), shown on the Outbox page.
@@ -12,5 +13,5 @@ export class MailMessage {
   @Column({ type: 'text' }) subject!: string;
   @Column({ type: 'text' }) text!: string;
   @Column({ type: 'text', nullable: true }) html!: string | null;
-  @CreateDateColumn({ type: 'timestamptz', name: 'received_at' }) receivedAt!: Date;
+  @CreatedAtColumn('received_at') receivedAt!: Date;
 }

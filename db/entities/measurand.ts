@@ -1,10 +1,11 @@
 import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { UuidColumn } from './columns';
 
 /** What is measured on each item of a round, with its scoring rules. */
 @Entity({ name: 'measurand' })
 export class Measurand {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'round_id' }) roundId!: string;
+  @UuidColumn('round_id') roundId!: string;
   /** Stable key used in files and APIs: 'z_average', 'pdi', or a coordinator's own. */
   @Column({ type: 'text' }) key!: string;
   @Column({ type: 'text' }) name!: string;

@@ -1,4 +1,5 @@
 import { Column, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn, Unique } from 'typeorm';
+import { UuidColumn } from './columns';
 import type { Organisation } from './organisation';
 import type { User } from './user';
 
@@ -7,8 +8,8 @@ import type { User } from './user';
 @Unique('membership_user_org', ['userId', 'organisationId'])
 export class Membership {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'user_id' }) userId!: string;
-  @Column({ type: 'uuid', name: 'organisation_id' }) organisationId!: string;
+  @UuidColumn('user_id') userId!: string;
+  @UuidColumn('organisation_id') organisationId!: string;
   @Column({ type: 'boolean', name: 'is_manager', default: false }) isManager!: boolean;
   @ManyToOne('User', (u: User) => u.memberships, { onDelete: 'CASCADE' })
   @JoinColumn({ name: 'user_id' })

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, OneToMany, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, OneToMany, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import type { Membership } from './membership';
 
 /** A participating lab, or the PT provider itself. */
@@ -9,6 +10,6 @@ export class Organisation {
   @Column({ type: 'text', default: 'lab' }) kind!: 'lab' | 'provider';
   @Column({ type: 'text', nullable: true }) country!: string | null;
   @Column({ type: 'text', name: 'contact_email', nullable: true }) contactEmail!: string | null;
-  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
+  @CreatedAtColumn() createdAt!: Date;
   @OneToMany('Membership', (m: Membership) => m.organisation) memberships?: Membership[];
 }

@@ -1,4 +1,5 @@
 import { Column, Entity, PrimaryColumn } from 'typeorm';
+import { UuidColumn } from './columns';
 
 /** The PT provider's identity printed on every report, certificate and e-mail (one row, id 1). */
 @Entity({ name: 'provider_profile' })
@@ -20,5 +21,5 @@ export class ProviderProfile {
   /** Tax rate on participation fees, basis points (billing). */
   @Column({ type: 'integer', name: 'tax_rate_bp', default: 0 }) taxRateBp!: number;
   @Column({ type: 'timestamptz', name: 'updated_at', default: () => 'now()' }) updatedAt!: Date;
-  @Column({ type: 'uuid', name: 'updated_by', nullable: true }) updatedBy!: string | null;
+  @UuidColumn('updated_by', { nullable: true }) updatedBy!: string | null;
 }

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn, UuidColumn } from './columns';
 
 export type ReportKind =
   'round.xlsx' | 'round.pdf' | 'participant.pdf' | 'certificate.pdf' | 'evidence.zip';
@@ -7,11 +8,11 @@ export type ReportKind =
 @Entity({ name: 'report' })
 export class Report {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'round_id', nullable: true }) roundId!: string | null;
+  @UuidColumn('round_id', { nullable: true }) roundId!: string | null;
   @Column({ type: 'text' }) kind!: ReportKind;
   /** The lab of a lab-specific file (individual report, certificate, evidence pack). */
-  @Column({ type: 'uuid', name: 'organisation_id', nullable: true }) organisationId!: string | null;
-  @Column({ type: 'uuid', name: 'evaluation_id', nullable: true }) evaluationId!: string | null;
+  @UuidColumn('organisation_id', { nullable: true }) organisationId!: string | null;
+  @UuidColumn('evaluation_id', { nullable: true }) evaluationId!: string | null;
   @Column({ type: 'integer', name: 'evaluation_version', nullable: true }) evaluationVersion!:
     number | null;
   @Column({ type: 'text', default: 'queued' }) status!: 'queued' | 'running' | 'done' | 'failed';
@@ -20,7 +21,7 @@ export class Report {
   @Column({ type: 'text', nullable: true }) sha256!: string | null;
   @Column({ type: 'integer', name: 'size_bytes', nullable: true }) sizeBytes!: number | null;
   @Column({ type: 'text', nullable: true }) error!: string | null;
-  @Column({ type: 'uuid', name: 'requested_by', nullable: true }) requestedBy!: string | null;
-  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
+  @UuidColumn('requested_by', { nullable: true }) requestedBy!: string | null;
+  @CreatedAtColumn() createdAt!: Date;
   @Column({ type: 'timestamptz', name: 'finished_at', nullable: true }) finishedAt!: Date | null;
 }

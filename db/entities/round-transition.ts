@@ -1,15 +1,16 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn, UuidColumn } from './columns';
 import type { RoundState } from '../../shared/contracts/round-states';
 
 /** A recorded state change of a round (also in the audit trail). */
 @Entity({ name: 'round_transition' })
 export class RoundTransition {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'round_id' }) roundId!: string;
+  @UuidColumn('round_id') roundId!: string;
   @Column({ type: 'text', name: 'from_state' }) fromState!: RoundState;
   @Column({ type: 'text', name: 'to_state' }) toState!: RoundState;
-  @Column({ type: 'uuid', name: 'actor_id', nullable: true }) actorId!: string | null;
+  @UuidColumn('actor_id', { nullable: true }) actorId!: string | null;
   @Column({ type: 'text', nullable: true }) reason!: string | null;
   @Column({ type: 'boolean', default: false }) forced!: boolean;
-  @CreateDateColumn({ type: 'timestamptz', name: 'at' }) at!: Date;
+  @CreatedAtColumn('at') at!: Date;
 }

@@ -1,17 +1,12 @@
-import {
-  Column,
-  CreateDateColumn,
-  Entity,
-  PrimaryGeneratedColumn,
-  UpdateDateColumn,
-} from 'typeorm';
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn, UpdatedAtColumn, UuidColumn } from './columns';
 import type { RoundState } from '../../shared/contracts/round-states';
 
 /** One round of a scheme. Its state changes only through the round lifecycle service. */
 @Entity({ name: 'round' })
 export class Round {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'scheme_id' }) schemeId!: string;
+  @UuidColumn('scheme_id') schemeId!: string;
   @Column({ type: 'text', unique: true }) code!: string;
   @Column({ type: 'text' }) title!: string;
   @Column({ type: 'text', default: 'pt' }) kind!: 'pt' | 'precision';
@@ -29,6 +24,6 @@ export class Round {
   /** Participation fee in minor units (cents). */
   @Column({ type: 'integer', name: 'fee_minor', default: 0 }) feeMinor!: number;
   @Column({ type: 'text', default: 'EUR' }) currency!: string;
-  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
-  @UpdateDateColumn({ type: 'timestamptz', name: 'updated_at' }) updatedAt!: Date;
+  @CreatedAtColumn() createdAt!: Date;
+  @UpdatedAtColumn() updatedAt!: Date;
 }

@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 
 /** A PT scheme (e.g. nanoparticle sizing by DLS): the frame that rounds repeat. */
 @Entity({ name: 'scheme' })
@@ -12,5 +13,5 @@ export class Scheme {
   defaultMeasurands!: unknown[];
   /** Free-form scheme rules shown to labs (participation, confidentiality, scoring). */
   @Column({ type: 'text', default: '' }) rules!: string;
-  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
+  @CreatedAtColumn() createdAt!: Date;
 }

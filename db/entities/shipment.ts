@@ -1,10 +1,11 @@
 import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { UuidColumn } from './columns';
 
 /** Dispatch of the test items to one enrolment, and the lab's receipt. */
 @Entity({ name: 'shipment' })
 export class Shipment {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'enrolment_id', unique: true }) enrolmentId!: string;
+  @UuidColumn('enrolment_id', { unique: true }) enrolmentId!: string;
   @Column({ type: 'text', nullable: true }) courier!: string | null;
   @Column({ type: 'text', name: 'tracking_number', nullable: true }) trackingNumber!: string | null;
   @Column({ type: 'date', name: 'dispatched_on', nullable: true }) dispatchedOn!: string | null;
@@ -16,5 +17,5 @@ export class Shipment {
   receiptPhoto!: Buffer | null;
   @Column({ type: 'text', name: 'receipt_photo_type', nullable: true }) receiptPhotoType!:
     string | null;
-  @Column({ type: 'uuid', name: 'received_by', nullable: true }) receivedBy!: string | null;
+  @UuidColumn('received_by', { nullable: true }) receivedBy!: string | null;
 }

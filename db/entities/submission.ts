@@ -1,10 +1,11 @@
-import { Column, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { UpdatedAtColumn, UuidColumn } from './columns';
 
 /** A lab's results for a round: a draft saved as it types, then submitted and amended in versions. */
 @Entity({ name: 'submission' })
 export class Submission {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'enrolment_id', unique: true }) enrolmentId!: string;
+  @UuidColumn('enrolment_id', { unique: true }) enrolmentId!: string;
   @Column({ type: 'text', default: 'draft' }) state!: 'draft' | 'submitted';
   /** The working copy (shared/contracts/submission SubmissionData). */
   @Column({ type: 'jsonb', default: () => "'{}'" }) draft!: Record<string, unknown>;
@@ -13,5 +14,5 @@ export class Submission {
   /** Latest submitted version number (0 before the first submit). */
   @Column({ type: 'integer', name: 'current_version', default: 0 }) currentVersion!: number;
   @Column({ type: 'timestamptz', name: 'submitted_at', nullable: true }) submittedAt!: Date | null;
-  @UpdateDateColumn({ type: 'timestamptz', name: 'updated_at' }) updatedAt!: Date;
+  @UpdatedAtColumn() updatedAt!: Date;
 }

@@ -1,10 +1,11 @@
 import { Column, Entity, PrimaryGeneratedColumn } from 'typeorm';
+import { UuidColumn } from './columns';
 
 /** A test item shipped to every participant of a round. */
 @Entity({ name: 'test_item' })
 export class TestItem {
   @PrimaryGeneratedColumn('uuid') id!: string;
-  @Column({ type: 'uuid', name: 'round_id' }) roundId!: string;
+  @UuidColumn('round_id') roundId!: string;
   @Column({ type: 'text' }) code!: string;
   @Column({ type: 'text' }) material!: string;
   @Column({ type: 'double precision', name: 'nominal_size_nm', nullable: true }) nominalSizeNm!:

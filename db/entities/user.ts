@@ -1,4 +1,5 @@
-import { Column, CreateDateColumn, Entity, OneToMany, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, OneToMany, PrimaryGeneratedColumn } from 'typeorm';
+import { CreatedAtColumn } from './columns';
 import type { GlobalRole } from '../../shared/contracts/auth';
 import type { Membership } from './membership';
 
@@ -15,6 +16,6 @@ export class User {
   @Column({ type: 'boolean', name: 'is_demo', default: false }) isDemo!: boolean;
   @Column({ type: 'timestamptz', name: 'last_sign_in_at', nullable: true })
   lastSignInAt!: Date | null;
-  @CreateDateColumn({ type: 'timestamptz', name: 'created_at' }) createdAt!: Date;
+  @CreatedAtColumn() createdAt!: Date;
   @OneToMany('Membership', (m: Membership) => m.user) memberships?: Membership[];
 }

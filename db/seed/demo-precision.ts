@@ -10,8 +10,16 @@
  * the study go through the product's services (audited like a coordinator's work).
  */
 import type { DataSource, EntityManager } from 'typeorm';
-import { Enrolment, Measurand, Round, Submission, SubmissionVersion, TestItem } from '../entities';
+import {
+  Enrolment,
+  type Measurand,
+  Round,
+  Submission,
+  SubmissionVersion,
+  TestItem,
+} from '../entities';
 import { DEFAULT_INSTRUCTIONS } from '../../shared/contracts/rounds';
+import { saveDemoMeasurand } from './demo-rows';
 import type { RoundState } from '../../shared/contracts/round-states';
 import type { SessionUser } from '../../api/src/auth/session-user';
 import type { AppContext } from '../../api/src/services/context';
@@ -84,21 +92,16 @@ export async function writePrecisionStudy(
         ),
       );
     }
-    const m = spec.measurand;
-    const measurand = await em.save(
-      Measurand,
-      em.create(Measurand, {
-        roundId: round.id,
-        key: m.key,
-        name: m.name,
-        unit: m.unit,
-        decimals: m.decimals,
-        replicatesRequired: m.replicatesRequired,
+    const measurand = await saveDemoMeasurand(
+      em,
+      round.id,
+      {
+        ...spec.measurand,
         sigmaPtRule: { kind: 'robust-sd' },
         assignedValueRule: { kind: 'consensus' },
         minParticipants: 8,
-        position: 0,
-      }),
+      },
+      0,
     );
     const enrolments: Enrolment[] = [];
     for (const lab of spec.labs) {

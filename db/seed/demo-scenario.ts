@@ -14,7 +14,6 @@ import {
   Enrolment,
   InstrumentCheck,
   Investigation,
-  Measurand,
   type Organisation,
   Round,
   Scheme,
@@ -25,6 +24,7 @@ import {
 } from '../entities';
 import { judgeInstrumentCheck } from '../../shared/bench/instrument-check';
 import { DEFAULT_INSTRUCTIONS, DLS_DEFAULT_MEASURANDS } from '../../shared/contracts/rounds';
+import { saveDemoMeasurand } from './demo-rows';
 import type { SubmissionData } from '../../shared/contracts/submission';
 import { mulberry32 } from '../../shared/stats/synthetic-round';
 import type { AppContext } from '../../api/src/services/context';
@@ -270,22 +270,16 @@ export async function seedScenario(
       const measurands = [];
       for (const [i, m] of DLS_DEFAULT_MEASURANDS.entries()) {
         measurands.push(
-          await em.save(
-            Measurand,
-            em.create(Measurand, {
-              roundId: round.id,
-              key: m.key,
-              name: m.name,
-              unit: m.unit,
-              decimals: m.decimals,
-              replicatesRequired: m.replicatesRequired,
+          await saveDemoMeasurand(
+            em,
+            round.id,
+            {
+              ...m,
               // fitness for purpose: 4 % of x_pt for the Z-average; the round's robust SD for PDI
               sigmaPtRule:
                 m.key === 'z_average' ? { kind: 'percent', percent: 4 } : { kind: 'robust-sd' },
-              assignedValueRule: { kind: 'consensus' },
-              minParticipants: m.minParticipants,
-              position: i,
-            }),
+            },
+            i,
           ),
         );
       }

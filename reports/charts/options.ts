@@ -14,6 +14,23 @@ const W = SIGNAL_LIMITS.warning;
 
 const BASE = { animation: false, textStyle: { fontFamily: 'sans-serif', color: PALETTE.ink } };
 
+/** A chart's title, centred above it. */
+function chartTitle(text: string): Option {
+  return { text, left: 'center', top: 2, textStyle: { fontSize: 12, color: PALETTE.ink } };
+}
+
+/** A score axis from −limit to +limit, one grid line a unit. */
+function scoreAxis(limit: number): Option {
+  return {
+    type: 'value',
+    min: -limit,
+    max: limit,
+    interval: 1,
+    axisLabel: { fontSize: 9 },
+    splitLine: { lineStyle: { color: '#e6e9ed' } },
+  };
+}
+
 /** The ±2 / ±3 limits (shared/charts/signals.ts, from shared/stats/scores.ts) as a markLine. */
 function limitLines(): Option {
   return {
@@ -42,26 +59,14 @@ export function scoreBarOption(g: ReportGroup, highlightCode?: string): Option {
   return {
     ...BASE,
     grid: { left: 40, right: 40, top: 34, bottom: 30 },
-    title: {
-      text: `${kind}-scores, item ${g.itemCode}, ${g.measurandName}`,
-      left: 'center',
-      top: 2,
-      textStyle: { fontSize: 12, color: PALETTE.ink },
-    },
+    title: chartTitle(`${kind}-scores, item ${g.itemCode}, ${g.measurandName}`),
     xAxis: {
       type: 'category',
       data: rows.map((r) => r.p.code),
       axisLabel: { show: rows.length <= 40, fontSize: 8, rotate: 90 },
       axisTick: { show: false },
     },
-    yAxis: {
-      type: 'value',
-      min: -5,
-      max: 5,
-      interval: 1,
-      axisLabel: { fontSize: 9 },
-      splitLine: { lineStyle: { color: '#e6e9ed' } },
-    },
+    yAxis: scoreAxis(5),
     // Past 200 participants the sorted scores are one line (one SVG path instead of a bar each).
     series: [
       rows.length > 200
@@ -210,12 +215,9 @@ export function distributionOption(g: ReportGroup, ownResult?: number): Option {
     ...BASE,
     // The title sits above the limit-line labels (x_pt, ±2σ), which sit above the plot area.
     grid: { left: 40, right: 20, top: 52, bottom: off ? 42 : 30 },
-    title: {
-      text: `Results, item ${g.itemCode}, ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`,
-      left: 'center',
-      top: 2,
-      textStyle: { fontSize: 12, color: PALETTE.ink },
-    },
+    title: chartTitle(
+      `Results, item ${g.itemCode}, ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`,
+    ),
     graphic: notes,
     xAxis: {
       type: 'value',
@@ -255,22 +257,10 @@ export function trackRecordOption(series: TrackSeries[]): Option {
   return {
     ...BASE,
     grid: { left: 40, right: 40, top: 48, bottom: 50 },
-    title: {
-      text: 'Track record',
-      left: 'center',
-      top: 2,
-      textStyle: { fontSize: 12, color: PALETTE.ink },
-    },
+    title: chartTitle('Track record'),
     legend: { top: 22, textStyle: { fontSize: 9 } },
     xAxis: { type: 'category', data: labels, axisLabel: { fontSize: 8, rotate: 30 } },
-    yAxis: {
-      type: 'value',
-      min: -4,
-      max: 4,
-      interval: 1,
-      axisLabel: { fontSize: 9 },
-      splitLine: { lineStyle: { color: '#e6e9ed' } },
-    },
+    yAxis: scoreAxis(4),
     series: series.map((s, i) => ({
       type: 'line',
       name: s.measurandName,

@@ -508,50 +508,31 @@ export function wrapTable(doc: Doc, columns: Column[], rows: string[][], size = 
           .stroke(),
       );
     let x = left;
-    const cells = r.map((t, i) => {
-      const c = columns[i]!;
+    const lefts = columns.map((c) => {
       const cx = x;
       x += c.width;
-      const draw = () =>
-        writeRaw(doc, t || ' ', {
-          x: cx + pad,
-          y: y + pad,
-          width: c.width - 2 * pad,
-          size,
-          bold,
-          colour: bold ? PALETTE.ink : '#1a1f26',
-          align: c.align ?? 'left',
-          gap: 0,
-        });
-      return asArtifact ? null : doc.struct(tag, {}, draw);
+      return cx;
     });
-    if (asArtifact) {
-      x = left;
-      artifact(
-        doc,
-        () =>
-          r.forEach((t, i) => {
-            const c = columns[i]!;
-            writeRaw(doc, t || ' ', {
-              x: x + pad,
-              y: y + pad,
-              width: c.width - 2 * pad,
-              size,
-              bold,
-              colour: PALETTE.ink,
-              align: c.align ?? 'left',
-              gap: 0,
-            });
-            x += c.width;
-          }),
-        'Pagination',
-      );
-    } else
+    const drawCell = (t: string, i: number) => {
+      const c = columns[i]!;
+      writeRaw(doc, t || ' ', {
+        x: lefts[i]! + pad,
+        y: y + pad,
+        width: c.width - 2 * pad,
+        size,
+        bold,
+        colour: bold ? PALETTE.ink : '#1a1f26',
+        align: c.align ?? 'left',
+        gap: 0,
+      });
+    };
+    if (asArtifact) artifact(doc, () => r.forEach(drawCell), 'Pagination');
+    else
       tableEl.add(
         doc.struct(
           'TR',
           {},
-          cells.filter((c): c is PDFKit.PDFStructureElement => c !== null),
+          r.map((t, i) => doc.struct(tag, {}, () => drawCell(t, i))),
         ),
       );
     doc.y = y + h;

@@ -8,22 +8,19 @@ import { SIGNAL_LIMITS } from '../../shared/stats/scores';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
 import { explainScore } from '../../shared/evaluation/explain';
 import { trackRecordOption } from '../charts/options';
-import { renderChartSvg } from '../charts/render';
 import { mainScore, type ParticipantReportInput, type ReportGroup } from '../model';
 import { day, fixed, PALETTE, SCORE_DECIMALS, SIGNAL_COLOURS, SIGNAL_WORDS } from '../text';
+import { createDoc, finishDoc, heading, MARGIN, table, write, type Doc } from './document';
 import {
-  createDoc,
-  figure,
-  finishDoc,
-  heading,
-  MARGIN,
-  plotArea,
-  table,
-  write,
-  type Doc,
-} from './document';
-import { closingSections, cover, docDates, drawGroupCharts, footerText } from './round-report';
-import { drawSvg } from './svg';
+  closingSections,
+  cover,
+  docDates,
+  drawGroupCharts,
+  footerText,
+  groupTitle,
+  groupValuesLine,
+} from './round-report';
+import { chartFigure } from './chart-figure';
 
 /** Share of the other participants' results below this one (0–100 %), and the rank from the lowest. */
 export function position(
@@ -46,15 +43,8 @@ function ownGroup(doc: Doc, input: ParticipantReportInput, g: ReportGroup, index
   if (!p) return;
   doc.addPage();
   const u = g.unit ? ` ${g.unit}` : '';
-  heading(
-    doc,
-    `${index + 1} Item ${g.itemCode}: ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`,
-  );
-  write(
-    doc,
-    `Assigned value x_pt = ${fixed(g.assignedValue, g.decimals + 1)}${u}   u(x_pt) = ${fixed(g.uAssigned, g.decimals + 1)}${u}   σ_pt = ${fixed(g.sigmaPt, g.decimals + 1)}${u}   n = ${g.n}`,
-    { size: 10, gap: 4 },
-  );
+  heading(doc, `${index + 1} ${groupTitle(g)}`);
+  write(doc, groupValuesLine(g), { size: 10, gap: 4 });
   const reps = g.replicates[p.code] ?? [];
   table(
     doc,
@@ -145,16 +135,12 @@ export async function buildParticipantReportPdf(input: ParticipantReportInput): 
   if (points === 0) write(doc, 'No published score yet.', { size: 9.5 });
   else {
     const y = doc.y + 4;
-    let h = 0;
-    const option = trackRecordOption(input.track);
-    const width = doc.page.width - 2 * MARGIN;
-    figure(
+    const h = chartFigure(
       doc,
+      trackRecordOption(input.track),
       `Track record of participant ${input.participantCode}: its z-scores per round and item, with the warning (±${SIGNAL_LIMITS.warning}) and action (±${SIGNAL_LIMITS.action}) limits.`,
-      () => {
-        h = drawSvg(doc, renderChartSvg(option, 600, 280), MARGIN, y, width);
-      },
-      plotArea(option, 600, 280, MARGIN, y, width),
+      { w: 600, h: 280 },
+      { x: MARGIN, y, width: doc.page.width - 2 * MARGIN },
     );
     doc.y = y + h + 8;
     doc.x = MARGIN;

@@ -21,25 +21,22 @@ import {
   type PrecisionMeasurandResult,
   type PrecisionTest,
 } from '../../shared/contracts/precision';
-import { renderChartSvg } from '../charts/render';
 import type { ReportProviderInfo } from '../model';
 import { fixed, PALETTE } from '../text';
 import {
   banner,
   createDoc,
   ensureSpace,
-  figure,
   finishDoc,
   heading,
   MARGIN,
-  plotArea,
   table,
   wrapTable,
   write,
   type Doc,
 } from './document';
 import { authoriserWords, coverFacts, coverHead } from './round-report';
-import { drawSvg } from './svg';
+import { chartFigure } from './chart-figure';
 
 export interface PrecisionReportInput {
   analysis: PrecisionAnalysis;
@@ -310,21 +307,15 @@ function fitRows(fit: PrecisionFit | null, name: string): string[][] {
 }
 
 function chart(doc: Doc, m: PrecisionMeasurandResult, stat: 'h' | 'k'): void {
-  const option = mandelOption(m, stat);
   const width = doc.page.width - 2 * MARGIN;
-  const svgW = 600;
-  const svgH = 260;
-  ensureSpace(doc, (width / svgW) * svgH + 10);
+  const svg = { w: 600, h: 260 };
+  ensureSpace(doc, (width / svg.w) * svg.h + 10);
   const y = doc.y;
-  let h = 0;
-  figure(
-    doc,
-    mandelAlt(m, stat),
-    () => {
-      h = drawSvg(doc, renderChartSvg(option, svgW, svgH), MARGIN, y, width);
-    },
-    plotArea(option, svgW, svgH, MARGIN, y, width),
-  );
+  const h = chartFigure(doc, mandelOption(m, stat), mandelAlt(m, stat), svg, {
+    x: MARGIN,
+    y,
+    width,
+  });
   doc.y = y + h + 6;
   doc.x = MARGIN;
 }

@@ -9,7 +9,6 @@ import { SIGNAL_RULE_TEXT } from '../../shared/charts/signals';
 import { SIGNAL_LIMITS } from '../../shared/stats/scores';
 import { sigmaPtRuleWords } from '../../shared/contracts/rule-text';
 import { distributionOption, offScale, scoreBarOption, scoresOffScale } from '../charts/options';
-import { renderChartSvg } from '../charts/render';
 import { EXCLUSION_RULE_LABELS } from '../../shared/contracts/evaluation';
 import {
   METHOD_WORDS,
@@ -39,13 +38,12 @@ import {
   finishDoc,
   heading,
   MARGIN,
-  plotArea,
   table,
   wrapTable,
   write,
   type Doc,
 } from './document';
-import { drawSvg } from './svg';
+import { chartFigure } from './chart-figure';
 import {
   HOMOGENEITY_DECISION_LABELS,
   STUDY_KIND_LABELS,
@@ -448,26 +446,21 @@ export function drawGroupCharts(
   const width = (doc.page.width - 2 * MARGIN - 10) / 2;
   ensureSpace(doc, width * 0.65 + 10);
   const y = doc.y + 4;
-  let h1 = 0;
-  let h2 = 0;
   const u = g.unit ? ` ${g.unit}` : '';
-  const dist = distributionOption(g, ownResult);
-  const bars = scoreBarOption(g, highlight);
-  figure(
+  const svg = { w: 400, h: 260 };
+  const h1 = chartFigure(
     doc,
+    distributionOption(g, ownResult),
     `Histogram of the participants’ results for item ${g.itemCode}, ${g.measurandName}, with x_pt = ${fixed(g.assignedValue, g.decimals + 1)}${u} and x_pt ± 2σ_pt marked.`,
-    () => {
-      h1 = drawSvg(doc, renderChartSvg(dist, 400, 260), MARGIN, y, width);
-    },
-    plotArea(dist, 400, 260, MARGIN, y, width),
+    svg,
+    { x: MARGIN, y, width },
   );
-  figure(
+  const h2 = chartFigure(
     doc,
+    scoreBarOption(g, highlight),
     `Scores of every participant for item ${g.itemCode}, ${g.measurandName}, in ascending order, with the warning (±${SIGNAL_LIMITS.warning}) and action (±${SIGNAL_LIMITS.action}) limits.`,
-    () => {
-      h2 = drawSvg(doc, renderChartSvg(bars, 400, 260), MARGIN + width + 10, y, width);
-    },
-    plotArea(bars, 400, 260, MARGIN + width + 10, y, width),
+    svg,
+    { x: MARGIN + width + 10, y, width },
   );
   doc.y = y + Math.max(h1, h2) + 6;
   doc.x = MARGIN;
@@ -492,21 +485,25 @@ export function drawGroupCharts(
   }
 }
 
+/** An item × measurand as its section heading names it: "Item A: Z-average diameter (nm)". */
+export function groupTitle(g: ReportGroup): string {
+  return `Item ${g.itemCode}: ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`;
+}
+
+/** The line under a group's heading: x_pt, u(x_pt) and σ_pt (one decimal more than the results) and n. */
+export function groupValuesLine(g: ReportGroup): string {
+  const d = g.decimals + 1;
+  const u = g.unit ? ` ${g.unit}` : '';
+  return `Assigned value x_pt = ${fixed(g.assignedValue, d)}${u}   u(x_pt) = ${fixed(g.uAssigned, d)}${u}   σ_pt = ${fixed(g.sigmaPt, d)}${u}   n = ${g.n}`;
+}
+
 function groupSection(doc: Doc, g: ReportGroup, index: number, highlight?: string): void {
   doc.addPage();
   if (index === 0) heading(doc, '4 Results by item and measurand');
-  heading(
-    doc,
-    `4.${index + 1} Item ${g.itemCode}: ${g.measurandName}${g.unit ? ` (${g.unit})` : ''}`,
-    2,
-  );
+  heading(doc, `4.${index + 1} ${groupTitle(g)}`, 2);
   const d = g.decimals;
   const u = g.unit ? ` ${g.unit}` : '';
-  write(
-    doc,
-    `Assigned value x_pt = ${fixed(g.assignedValue, d + 1)}${u}   u(x_pt) = ${fixed(g.uAssigned, d + 1)}${u}   σ_pt = ${fixed(g.sigmaPt, d + 1)}${u}   n = ${g.n}`,
-    { bold: true, size: 10.5, gap: 3 },
-  );
+  write(doc, groupValuesLine(g), { bold: true, size: 10.5, gap: 3 });
   write(
     doc,
     `x_pt: ${METHOD_WORDS[g.method] ?? g.method}. σ_pt: ${sigmaPtRuleWords(g.sigmaPtRule)}. Signal follows ${g.uNegligible === false ? 'z′ (u(x_pt) is not negligible)' : 'z'}.`,

@@ -64,6 +64,55 @@ const signalMarkStyle = (signal: ChartSignal, own: boolean | undefined) => ({
   borderWidth: own ? 2 : 0,
 });
 
+/**
+ * The category axis of participant codes under a chart of one mark per lab; the codes are hidden
+ * past 60 labs (too dense to read).
+ */
+export const participantCodeAxis = (
+  codes: readonly string[],
+  nameGap: number,
+  rotate: number,
+): ChartOption => ({
+  type: 'category',
+  name: 'participant code',
+  nameLocation: 'middle',
+  nameGap,
+  data: codes,
+  axisLabel: { show: codes.length <= 60, rotate, fontSize: 10 },
+});
+
+/** The tooltip of a bar chart: the whole category (one lab) under the pointer. */
+export const BAR_TOOLTIP = { trigger: 'axis', axisPointer: { type: 'shadow' } } as const;
+
+/**
+ * The x_pt line and the ±W·σ_pt warning lines (dashed) on the value axis `axis`, with the ±A·σ_pt
+ * action lines when `action` is set, as markLine data.
+ */
+function assignedValueLines(
+  axis: 'xAxis' | 'yAxis',
+  x: number,
+  s: number,
+  action: boolean,
+): ChartOption[] {
+  const at = (value: number, name: string, lineStyle: ChartOption) => ({
+    [axis]: value,
+    name,
+    lineStyle,
+  });
+  const warningStyle = { color: CHART_COLORS.warning, type: 'dashed' };
+  return [
+    at(x, 'x_pt', { color: CHART_COLORS.ink, width: 2 }),
+    at(x - W * s, `−${W}σ_pt`, warningStyle),
+    at(x + W * s, `+${W}σ_pt`, warningStyle),
+    ...(action
+      ? [
+          at(x - A * s, `−${A}σ_pt`, { color: CHART_COLORS.action }),
+          at(x + A * s, `+${A}σ_pt`, { color: CHART_COLORS.action }),
+        ]
+      : []),
+  ];
+}
+
 const fmt = (v: number, d = 3) => (Number.isFinite(v) ? v.toFixed(d) : '–');
 
 /* ---------------------------------------------------------------- z-scores as ordered bars */
@@ -86,15 +135,12 @@ export function zBarsOption(
   const lim = Math.max(3.5, ...sorted.map((b) => Math.min(Math.abs(b.score), 10) + 0.5));
   return {
     ...base(title),
-    tooltip: { trigger: 'axis', axisPointer: { type: 'shadow' } },
-    xAxis: {
-      type: 'category',
-      name: 'participant code',
-      nameLocation: 'middle',
-      nameGap: 32,
-      data: sorted.map((b) => b.code),
-      axisLabel: { show: sorted.length <= 60, rotate: 90, fontSize: 10 },
-    },
+    tooltip: BAR_TOOLTIP,
+    xAxis: participantCodeAxis(
+      sorted.map((b) => b.code),
+      32,
+      90,
+    ),
     yAxis: {
       type: 'value',
       name: scoreName,
@@ -208,19 +254,7 @@ export function densityOption(d: DensityInput, title: string): ChartOption {
           symbol: 'none',
           label: { formatter: '{b}', fontSize: 10 },
           data: [
-            { xAxis: x, name: 'x_pt', lineStyle: { color: CHART_COLORS.ink, width: 2 } },
-            {
-              xAxis: x - W * s,
-              name: `−${W}σ_pt`,
-              lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
-            },
-            {
-              xAxis: x + W * s,
-              name: `+${W}σ_pt`,
-              lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
-            },
-            { xAxis: x - A * s, name: `−${A}σ_pt`, lineStyle: { color: CHART_COLORS.action } },
-            { xAxis: x + A * s, name: `+${A}σ_pt`, lineStyle: { color: CHART_COLORS.action } },
+            ...assignedValueLines('xAxis', x, s, true),
             ...(d.own !== undefined
               ? [
                   {
@@ -272,14 +306,7 @@ export function uncertaintyOption(
   return {
     ...base(title),
     tooltip: { trigger: 'item' },
-    xAxis: {
-      type: 'category',
-      data: codes,
-      name: 'participant code',
-      nameLocation: 'middle',
-      nameGap: 32,
-      axisLabel: { show: codes.length <= 60, rotate: 90, fontSize: 10 },
-    },
+    xAxis: participantCodeAxis(codes, 32, 90),
     yAxis: {
       type: 'value',
       name: unit ? `result (${unit})` : 'result',
@@ -338,23 +365,7 @@ export function uncertaintyOption(
           silent: true,
           symbol: 'none',
           label: { formatter: '{b}', fontSize: 10 },
-          data: [
-            {
-              yAxis: assignedValue,
-              name: 'x_pt',
-              lineStyle: { color: CHART_COLORS.ink, width: 2 },
-            },
-            {
-              yAxis: assignedValue - W * sigmaPt,
-              name: `−${W}σ_pt`,
-              lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
-            },
-            {
-              yAxis: assignedValue + W * sigmaPt,
-              name: `+${W}σ_pt`,
-              lineStyle: { color: CHART_COLORS.warning, type: 'dashed' },
-            },
-          ],
+          data: assignedValueLines('yAxis', assignedValue, sigmaPt, false),
         },
       },
     ],

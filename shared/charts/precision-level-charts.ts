@@ -10,7 +10,13 @@
  * saffron triangle, outlier carmine diamond; the word is printed above every bar that is not
  * accepted and in the text alternative.
  */
-import { CHART_COLORS, chartBase, type ChartOption } from './board-charts';
+import {
+  BAR_TOOLTIP,
+  CHART_COLORS,
+  chartBase,
+  participantCodeAxis,
+  type ChartOption,
+} from './board-charts';
 
 /** ISO 5725-2 outcome of a consistency check or outlier test. */
 export type PrecisionClass = 'accepted' | 'straggler' | 'outlier';
@@ -101,15 +107,12 @@ export function mandelOption(
     : [];
   return {
     ...base(title),
-    tooltip: { trigger: 'axis', axisPointer: { type: 'shadow' } },
-    xAxis: {
-      type: 'category',
-      name: 'participant code',
-      nameLocation: 'middle',
-      nameGap: 30,
-      data: shown.map((b) => b.code),
-      axisLabel: { show: shown.length <= 60, rotate: shown.length > 12 ? 90 : 0, fontSize: 10 },
-    },
+    tooltip: BAR_TOOLTIP,
+    xAxis: participantCodeAxis(
+      shown.map((b) => b.code),
+      30,
+      shown.length > 12 ? 90 : 0,
+    ),
     yAxis: {
       type: 'value',
       name: statistic,
@@ -223,6 +226,24 @@ export function levelDependenceOption(
     }).filter(([, s]) => Number.isFinite(s!));
   };
   const u = unit ? ` (${unit})` : '';
+  /** One SD's points per level (s_r ink blue circles, s_R teal squares). */
+  const measured = (name: string, sd: 'sr' | 'sR', symbol: string, color: string) => ({
+    type: 'scatter',
+    name,
+    symbol,
+    symbolSize: 8,
+    itemStyle: { color },
+    data: points.filter((p) => p[sd] !== null).map((p) => [p.m, p[sd]]),
+  });
+  /** One SD's fitted relation as a line (s_r dashed, s_R solid). */
+  const fitted = (name: string, fit: FittedCurve | null, color: string, type: string) => ({
+    type: 'line',
+    name: fit ? `${name}: ${fit.name}` : `${name} fitted`,
+    showSymbol: false,
+    lineStyle: { color, type },
+    itemStyle: { color },
+    data: curve(fit),
+  });
   const srColor = CHART_COLORS.ink;
   const sRColor = CHART_COLORS.acceptable;
   return {
@@ -245,38 +266,10 @@ export function levelDependenceOption(
       splitLine: { lineStyle: { color: CHART_COLORS.grid } },
     },
     series: [
-      {
-        type: 'scatter',
-        name: 's_r',
-        symbol: 'circle',
-        symbolSize: 8,
-        itemStyle: { color: srColor },
-        data: points.filter((p) => p.sr !== null).map((p) => [p.m, p.sr]),
-      },
-      {
-        type: 'scatter',
-        name: 's_R',
-        symbol: 'rect',
-        symbolSize: 8,
-        itemStyle: { color: sRColor },
-        data: points.filter((p) => p.sR !== null).map((p) => [p.m, p.sR]),
-      },
-      {
-        type: 'line',
-        name: fits.sr ? `s_r: ${fits.sr.name}` : 's_r fitted',
-        showSymbol: false,
-        lineStyle: { color: srColor, type: 'dashed' },
-        itemStyle: { color: srColor },
-        data: curve(fits.sr),
-      },
-      {
-        type: 'line',
-        name: fits.sR ? `s_R: ${fits.sR.name}` : 's_R fitted',
-        showSymbol: false,
-        lineStyle: { color: sRColor },
-        itemStyle: { color: sRColor },
-        data: curve(fits.sR),
-      },
+      measured('s_r', 'sr', 'circle', srColor),
+      measured('s_R', 'sR', 'rect', sRColor),
+      fitted('s_r', fits.sr, srColor, 'dashed'),
+      fitted('s_R', fits.sR, sRColor, 'solid'),
     ],
   };
 }

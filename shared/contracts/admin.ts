@@ -1,9 +1,10 @@
 import * as z from 'zod';
-import { Email, Id, Timestamp } from './common';
+import { changeSomething, changesSomething, Email, Id, Timestamp } from './common';
 import { GlobalRole } from './auth';
 import { singleLine } from './ranges';
 
-const changeSomething = { message: 'Change at least one field.' };
+/** A person's name as an admin or a lab manager enters it. */
+const PersonName = singleLine(200, { min: 1, required: "Enter the person's name." });
 
 export const OrganisationKind = z.enum(['lab', 'provider']);
 export type OrganisationKind = z.infer<typeof OrganisationKind>;
@@ -33,7 +34,7 @@ export const OrganisationUpdate = z
     contactEmail: OrganisationCreate.shape.contactEmail,
   })
   .partial()
-  .refine((o) => Object.values(o).some((v) => v !== undefined), changeSomething);
+  .refine(changesSomething, changeSomething);
 
 export const Membership = z.object({
   id: Id,
@@ -62,7 +63,7 @@ export type User = z.infer<typeof User>;
 /** Inviting a user creates the account and e-mails a first-password link. */
 export const UserInvite = z.object({
   email: Email,
-  name: singleLine(200, { min: 1, required: "Enter the person's name." }),
+  name: PersonName,
   roles: z.array(GlobalRole).default([]),
   organisationId: Id.optional(),
   isManager: z.boolean().default(false),
@@ -71,14 +72,11 @@ export type UserInvite = z.input<typeof UserInvite>;
 
 export const UserUpdate = z
   .object({
-    name: singleLine(200, { min: 1, required: "Enter the person's name." }).optional(),
+    name: PersonName.optional(),
     roles: z.array(GlobalRole).max(3).optional(),
     isActive: z.boolean().optional(),
   })
-  .refine(
-    (u) => u.name !== undefined || u.roles !== undefined || u.isActive !== undefined,
-    changeSomething,
-  );
+  .refine(changesSomething, changeSomething);
 export type UserUpdate = z.infer<typeof UserUpdate>;
 
 export const MembershipCreate = z.object({
@@ -92,7 +90,7 @@ export const MembershipUpdate = z.object({ isManager: z.boolean() });
 /** A lab manager invites a colleague into the lab. */
 export const LabMemberInvite = z.object({
   email: Email,
-  name: singleLine(200, { min: 1, required: "Enter the person's name." }),
+  name: PersonName,
   isManager: z.boolean().default(false),
 });
 export type LabMemberInvite = z.input<typeof LabMemberInvite>;

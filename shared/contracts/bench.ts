@@ -2,6 +2,7 @@ import * as z from 'zod';
 import { Id, Timestamp } from './common';
 import { boundedNumber, boundedTimestamp, dateOnly, multiLine, singleLine } from './ranges';
 import { RoundState } from './round-states';
+import { Measurand, RoundKind, TestItem } from './rounds';
 import { StoredSubmissionData, SubmissionData } from './submission';
 
 /** The lab a multi-lab user acts for: `?labId=` or the `x-lab-id` header (checked against memberships). */
@@ -30,7 +31,7 @@ export const MyRound = z.object({
   code: z.string(),
   title: z.string(),
   /** 'precision': an ISO 5725-2 precision study (no scores for labs; the web says "Precision study"). */
-  kind: z.enum(['pt', 'precision']),
+  kind: RoundKind,
   state: RoundState,
   status: MyRoundStatus,
   participantCode: z.string().nullable(),
@@ -45,23 +46,18 @@ export type MyRound = z.infer<typeof MyRound>;
 
 // ---------------------------------------------------------------- round detail
 
-export const BenchItem = z.object({
-  id: Id,
-  code: z.string(),
-  material: z.string(),
-  nominalSizeNm: z.number().nullable(),
-  storageNotes: z.string(),
-  handlingNotes: z.string(),
-});
+/** A test item as the lab sees it: the Round desk's item without its round and position. */
+export const BenchItem = TestItem.omit({ roundId: true, position: true });
 export type BenchItem = z.infer<typeof BenchItem>;
 
-export const BenchMeasurand = z.object({
-  id: Id,
-  key: z.string(),
-  name: z.string(),
-  unit: z.string(),
-  decimals: z.number().int(),
-  replicatesRequired: z.number().int(),
+/** A measurand as the lab sees it: what to report and how (no σ_pt or assigned-value rule). */
+export const BenchMeasurand = Measurand.pick({
+  id: true,
+  key: true,
+  name: true,
+  unit: true,
+  decimals: true,
+  replicatesRequired: true,
 });
 export type BenchMeasurand = z.infer<typeof BenchMeasurand>;
 
@@ -96,8 +92,11 @@ export type ReceiptInput = z.infer<typeof ReceiptInput>;
 
 export { SAFETY_CAUTIONS } from './safety';
 
+/** Where a lab's results for a round stand: nothing saved, a draft, or submitted. */
+export const SubmissionStage = z.enum(['none', 'draft', 'submitted']);
+
 export const SubmissionState = z.object({
-  state: z.enum(['none', 'draft', 'submitted']),
+  state: SubmissionStage,
   currentVersion: z.number().int(),
   submittedAt: Timestamp.nullable(),
   draftRevision: z.number().int(),
@@ -185,7 +184,7 @@ export const SubmissionVersionDto = z.object({
 export type SubmissionVersionDto = z.infer<typeof SubmissionVersionDto>;
 
 export const SubmissionView = z.object({
-  state: z.enum(['none', 'draft', 'submitted']),
+  state: SubmissionStage,
   draft: StoredSubmissionData,
   draftRevision: z.number().int(),
   savedAt: Timestamp.nullable(),

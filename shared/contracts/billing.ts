@@ -1,6 +1,7 @@
 import * as z from 'zod';
 import { Id, Timestamp } from './common';
 import { dateOnly, multiLine, singleLine } from './ranges';
+import { EnrolmentState } from './rounds';
 
 /**
  * Participation fees: a lab's billing details, invoices (one per enrolment in a round with a
@@ -152,7 +153,7 @@ export const LedgerRow = z.object({
   number: z.string(),
   organisationName: z.string(),
   participantCode: z.string(),
-  enrolmentState: z.enum(['enrolled', 'withdrawn']),
+  enrolmentState: EnrolmentState,
   dispatched: z.boolean(),
   status: InvoiceStatus,
   totalMinor: MinorUnits,

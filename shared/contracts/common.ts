@@ -20,6 +20,12 @@ export const ProblemBody = z.object({
 });
 export type ProblemBody = z.infer<typeof ProblemBody>;
 
+/** A PATCH body changes something: at least one of its fields is given. */
+export const changesSomething = (patch: object): boolean =>
+  Object.values(patch).some((v) => v !== undefined);
+/** The message when it does not (with `.refine(changesSomething, changeSomething)`). */
+export const changeSomething = { message: 'Change at least one field.' };
+
 /** One field problem in a 400 response: `path` names the field. */
 export const FieldIssue = z.object({ path: z.string(), message: z.string() });
 export type FieldIssue = z.infer<typeof FieldIssue>;

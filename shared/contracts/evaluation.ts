@@ -6,10 +6,13 @@ import {
   dateOnly,
   daysBetween,
   GRANT_MAX_YEARS,
+  KeyText,
   multiLine,
+  ParticipantCodeText,
   singleLine,
 } from './ranges';
 import { AssignedValueRuleInput, SigmaPtRuleInput } from './rules';
+import { StoredUncertainty } from './submission';
 
 /**
  * Evaluation, Consensus board, lab scores, Track record, investigations and assessor grants.
@@ -42,18 +45,18 @@ const Reason = multiLine(1000, { trim: true }).min(3, {
 });
 
 export const SigmaPtOverride = z.object({
-  measurandKey: singleLine(100, { min: 1 }),
+  measurandKey: KeyText,
   /** null: every item of the round. */
-  itemCode: singleLine(100, { min: 1 }).nullable().default(null),
+  itemCode: KeyText.nullable().default(null),
   rule: SigmaPtRuleInput,
   reason: Reason,
 });
 export type SigmaPtOverride = z.infer<typeof SigmaPtOverride>;
 
 export const Exclusion = z.object({
-  participantCode: singleLine(50, { min: 1 }),
-  itemCode: singleLine(100, { min: 1 }),
-  measurandKey: singleLine(100, { min: 1 }),
+  participantCode: ParticipantCodeText,
+  itemCode: KeyText,
+  measurandKey: KeyText,
   rule: ExclusionRule,
   reason: Reason,
 });
@@ -103,9 +106,7 @@ export type ParticipantScore = z.infer<typeof ParticipantScore>;
 export const ReplicateInputSchema = z.object({
   code: z.string(),
   values: z.array(z.number()),
-  uncertainty: z
-    .object({ kind: z.enum(['standard', 'expanded']), value: z.number(), k: z.number().nullable() })
-    .nullable(),
+  uncertainty: StoredUncertainty.nullable(),
 });
 
 /** One item × measurand of an evaluation: the record and how it was made. */

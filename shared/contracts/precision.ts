@@ -1,6 +1,6 @@
 import * as z from 'zod';
 import { Id, Timestamp } from './common';
-import { boundedNumber, multiLine, singleLine } from './ranges';
+import { boundedNumber, KeyText, multiLine, ParticipantCodeText, singleLine } from './ranges';
 import { RoundState } from './round-states';
 
 /**
@@ -71,9 +71,9 @@ const Reason = multiLine(1000, { trim: true }).min(3, {
 
 /** The cell or single replicate a decision is about. */
 export const PrecisionTarget = z.object({
-  itemCode: singleLine(100, { min: 1 }),
-  measurandKey: singleLine(100, { min: 1 }),
-  participantCode: singleLine(50, { min: 1 }),
+  itemCode: KeyText,
+  measurandKey: KeyText,
+  participantCode: ParticipantCodeText,
   /** null: the whole cell (every replicate of the lab at this level); else one replicate (1-based). */
   replicate: z.number().int().min(1).max(20).nullable().default(null),
 });
@@ -126,8 +126,8 @@ export type PrecisionExclusionList = z.infer<typeof PrecisionExclusionList>;
 
 /** An accepted reference value of a level (item × measurand), for the bias (ISO 5725-4). */
 export const PrecisionReferenceInput = z.object({
-  itemCode: singleLine(100, { min: 1 }),
-  measurandKey: singleLine(100, { min: 1 }),
+  itemCode: KeyText,
+  measurandKey: KeyText,
   value: boundedNumber('measuredValue', { label: 'Reference value' }),
   /** Standard uncertainty of the reference value; null when negligible or unknown. */
   u: boundedNumber('uncertainty', { label: 'Reference uncertainty' }).nullable().default(null),

@@ -341,6 +341,12 @@ export function multiLine(max: number, opts: { trim?: boolean } = {}): z.ZodStri
     .describe(`Text, at most ${max} characters; line breaks allowed.`) as unknown as z.ZodString;
 }
 
+/** An item code or measurand key that a request names (the server looks it up): one line, 1–100 characters. */
+export const KeyText = singleLine(100, { min: 1 });
+
+/** A participant code that a request names: one line, 1–50 characters. */
+export const ParticipantCodeText = singleLine(50, { min: 1 });
+
 /**
  * The path of the first duplicate in a list by key, as zod issue input, or null.
  * Used by the schemas that refuse a repeated item or measurand.

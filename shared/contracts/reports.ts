@@ -1,5 +1,6 @@
 import * as z from 'zod';
 import { Id } from './common';
+import { InvestigationDto } from './evaluation';
 
 /**
  * Reports: round workbook and PDF, individual report, certificate, evidence pack, their build
@@ -59,23 +60,24 @@ export const AssessorRound = z.object({
 });
 export type AssessorRound = z.infer<typeof AssessorRound>;
 
-export const AssessorInvestigation = z.object({
-  id: Id,
-  roundCode: z.string(),
-  participantCode: z.string(),
-  itemCode: z.string(),
-  measurandName: z.string(),
-  scoreKind: z.string(),
-  score: z.number(),
-  signal: z.enum(['warning', 'action']),
-  state: z.enum(['open', 'closed']),
-  causeCategory: z.string().nullable(),
-  rootCause: z.string(),
-  correctiveAction: z.string(),
-  effectivenessCheck: z.string(),
-  closedAt: z.string().nullable(),
-  createdAt: z.string(),
-});
+/** A lab's investigation as its assessor reads it (the cause category as stored). */
+export const AssessorInvestigation = InvestigationDto.pick({
+  id: true,
+  roundCode: true,
+  participantCode: true,
+  itemCode: true,
+  measurandName: true,
+  scoreKind: true,
+  score: true,
+  signal: true,
+  state: true,
+  causeCategory: true,
+  rootCause: true,
+  correctiveAction: true,
+  effectivenessCheck: true,
+  closedAt: true,
+  createdAt: true,
+}).extend({ causeCategory: z.string().nullable() });
 export type AssessorInvestigation = z.infer<typeof AssessorInvestigation>;
 
 export const AssessorInstrumentCheck = z.object({

@@ -1,5 +1,5 @@
 import * as z from 'zod';
-import { Email, Id, Timestamp } from './common';
+import { changeSomething, changesSomething, Email, Id, Timestamp } from './common';
 import { boundedNumber, boundedTimestamp, dateOnly, multiLine, singleLine } from './ranges';
 import { RoundState } from './round-states';
 import { AssignedValueRuleInput, SigmaPtRuleInput } from './rules';
@@ -93,18 +93,23 @@ export const MeasurandUpdate = z
     minParticipants: MeasurandInput.shape.minParticipants.unwrap(),
   })
   .partial()
-  .refine((m) => Object.keys(m).length > 0, { message: 'Change at least one field.' });
+  .refine(changesSomething, changeSomething);
 export type MeasurandUpdate = z.input<typeof MeasurandUpdate>;
 
 // ---- schemes ----
 
-export const SchemeCreate = z.object({
-  code: z
+/** A scheme or round code: 2–30 capital letters, digits or dashes; the message shows `example`. */
+function capitalCode(example: string) {
+  return z
     .string()
     .trim()
     .regex(/^[A-Z0-9][A-Z0-9-]{1,29}$/, {
-      message: 'Use 2–30 capital letters, digits or dashes (e.g. NANO-DLS).',
-    }),
+      message: `Use 2–30 capital letters, digits or dashes (e.g. ${example}).`,
+    });
+}
+
+export const SchemeCreate = z.object({
+  code: capitalCode('NANO-DLS'),
   name: singleLine(200, { min: 2, required: 'Enter the scheme name.' }),
   description: multiLine(4000, { trim: true }).default(''),
   rules: multiLine(8000, { trim: true }).default(''),
@@ -154,8 +159,6 @@ export const TestItem = z.object({
 });
 export type TestItem = z.infer<typeof TestItem>;
 
-const changeSomething = { message: 'Change at least one field.' };
-
 /** PATCH of one test item: any of its fields (no defaults, so an absent field stays as it is). */
 export const TestItemUpdate = z
   .object({
@@ -166,7 +169,7 @@ export const TestItemUpdate = z
     handlingNotes: TestItemInput.shape.handlingNotes.unwrap(),
   })
   .partial()
-  .refine((i) => Object.keys(i).length > 0, changeSomething);
+  .refine(changesSomething, changeSomething);
 export type TestItemUpdate = z.input<typeof TestItemUpdate>;
 
 export const ItemParams = z.object({ id: Id, itemId: Id });
@@ -205,6 +208,11 @@ const roundFields = {
     .default('EUR'),
 };
 
+/** Why a coordinator withdraws a lab, extends its deadline or decides on a study. */
+const GivenReason = multiLine(2000, { trim: true }).min(5, {
+  message: 'Give the reason (at least 5 characters).',
+});
+
 function datesInOrder(r: {
   enrolmentClosesOn?: string | null;
   dispatchOn?: string | null;
@@ -219,16 +227,15 @@ const datesMessage = {
   path: ['resultsDueAt'],
 };
 
+/** What a round is: a PT round scores labs (ISO 13528); a precision study estimates s_r and s_R (ISO 5725-2). */
+export const RoundKind = z.enum(['pt', 'precision']);
+export type RoundKind = z.infer<typeof RoundKind>;
+
 export const RoundCreate = z
   .object({
     schemeId: Id,
-    code: z
-      .string()
-      .trim()
-      .regex(/^[A-Z0-9][A-Z0-9-]{1,29}$/, {
-        message: 'Use 2–30 capital letters, digits or dashes (e.g. DLS-2026-1).',
-      }),
-    kind: z.enum(['pt', 'precision']).default('pt'),
+    code: capitalCode('DLS-2026-1'),
+    kind: RoundKind.default('pt'),
     ...roundFields,
     /** Start with the scheme's default measurands (true unless the coordinator says otherwise). */
     useSchemeMeasurands: z.boolean().default(true),
@@ -245,14 +252,11 @@ export const RoundUpdate = z
     resultsDueAt: roundFields.resultsDueAt.unwrap(),
     instructions: roundFields.instructions.unwrap(),
     protocolTemperatureC: roundFields.protocolTemperatureC.unwrap(),
-    feeMinor: z.number().int().min(0).max(100_000_000),
-    currency: z
-      .string()
-      .trim()
-      .regex(/^[A-Z]{3}$/, { message: 'Use a 3-letter currency code (e.g. EUR).' }),
+    feeMinor: roundFields.feeMinor.unwrap(),
+    currency: roundFields.currency.unwrap(),
   })
   .partial()
-  .refine((r) => Object.keys(r).length > 0, { message: 'Change at least one field.' })
+  .refine(changesSomething, changeSomething)
   .refine(datesInOrder, datesMessage);
 export type RoundUpdate = z.input<typeof RoundUpdate>;
 
@@ -262,7 +266,7 @@ export const RoundSummary = z.object({
   schemeCode: z.string(),
   code: z.string(),
   title: z.string(),
-  kind: z.enum(['pt', 'precision']),
+  kind: RoundKind,
   state: RoundState,
   enrolmentClosesOn: z.string().nullable(),
   dispatchOn: z.string().nullable(),
@@ -275,8 +279,6 @@ export const RoundSummary = z.object({
 });
 export type RoundSummary = z.infer<typeof RoundSummary>;
 
-/** What a round is: a PT round scores labs (ISO 13528); a precision study estimates s_r and s_R (ISO 5725-2). */
-export type RoundKind = RoundSummary['kind'];
 export const ROUND_KIND_LABELS: Record<RoundKind, string> = {
   pt: 'PT round',
   precision: 'Precision study',
@@ -396,13 +398,15 @@ export const ReceiptStatus = z.enum([
 ]);
 export type ReceiptStatus = z.infer<typeof ReceiptStatus>;
 
+export const EnrolmentState = z.enum(['enrolled', 'withdrawn']);
+
 export const Enrolment = z.object({
   id: Id,
   roundId: Id,
   organisationId: Id,
   organisationName: z.string(),
   participantCode: z.string(),
-  state: z.enum(['enrolled', 'withdrawn']),
+  state: EnrolmentState,
   withdrawnReason: z.string().nullable(),
   extensionUntil: Timestamp.nullable(),
   enrolledAt: Timestamp,
@@ -415,17 +419,13 @@ export type Enrolment = z.infer<typeof Enrolment>;
 export const EnrolmentParams = z.object({ id: Id, enrolmentId: Id });
 
 export const Withdrawal = z.object({
-  reason: multiLine(2000, { trim: true }).min(5, {
-    message: 'Give the reason (at least 5 characters).',
-  }),
+  reason: GivenReason,
 });
 export type Withdrawal = z.input<typeof Withdrawal>;
 
 export const ExtensionGrant = z.object({
   until: boundedTimestamp('Extension'),
-  reason: multiLine(2000, { trim: true }).min(5, {
-    message: 'Give the reason (at least 5 characters).',
-  }),
+  reason: GivenReason,
 });
 export type ExtensionGrant = z.input<typeof ExtensionGrant>;
 
@@ -523,8 +523,6 @@ export const StudyParams = z.object({ id: Id, studyId: Id });
 
 export const StudyDecision = z.object({
   decision: HomogeneityDecisionKind,
-  reason: multiLine(2000, { trim: true }).min(5, {
-    message: 'Give the reason (at least 5 characters).',
-  }),
+  reason: GivenReason,
 });
 export type StudyDecision = z.input<typeof StudyDecision>;

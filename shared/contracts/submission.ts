@@ -14,10 +14,19 @@ import {
  * Every number has the plausible range of shared/contracts/ranges.ts; an item named twice, or a
  * measurand named twice within an item, is refused (it would count as an extra participant).
  */
+export const UncertaintyKind = z.enum(['standard', 'expanded']);
+
+/** An uncertainty as stored and evaluated (no ranges: what was accepted once stays readable). */
+export const StoredUncertainty = z.object({
+  kind: UncertaintyKind,
+  value: z.number(),
+  k: z.number().nullable(),
+});
+
 export const Uncertainty = z
   .object({
     /** 'standard' u(x), or 'expanded' U(x) = k·u(x). */
-    kind: z.enum(['standard', 'expanded']),
+    kind: UncertaintyKind,
     value: boundedNumber('uncertainty'),
     k: boundedNumber('coverageFactor').nullable(),
   })
@@ -118,10 +127,7 @@ export function replicateRange(m: {
 const StoredMeasurandResult = z.object({
   measurandId: z.string(),
   replicates: z.array(z.number().nullable()).default([]),
-  uncertainty: z
-    .object({ kind: z.enum(['standard', 'expanded']), value: z.number(), k: z.number().nullable() })
-    .nullable()
-    .default(null),
+  uncertainty: StoredUncertainty.nullable().default(null),
 });
 
 /**

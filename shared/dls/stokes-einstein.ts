@@ -12,6 +12,23 @@ function assertPositive(value: number, what: string, fn: string): void {
 }
 
 /**
+ * k_B·T / (3π·η·x) after checking its inputs for `fn`: the Stokes–Einstein relation gives D from
+ * x = d_H and d_H from x = D by the same quotient (it is its own inverse).
+ */
+function stokesEinstein(
+  fn: string,
+  x: number,
+  what: string,
+  temperatureK: number,
+  viscosityPaS: number,
+): number {
+  assertPositive(x, what, fn);
+  assertPositive(temperatureK, 'temperature (K)', fn);
+  assertPositive(viscosityPaS, 'viscosity (Pa s)', fn);
+  return (BOLTZMANN_J_PER_K * temperatureK) / (3 * Math.PI * viscosityPaS * x);
+}
+
+/**
  * Translational diffusion coefficient of a sphere from its hydrodynamic DIAMETER:
  * D = k_B·T / (3π·η·d_H)  (the radius form is D = k_B·T/(6π·η·a), a = d_H/2).
  * Source: Stokes–Einstein relation (Einstein 1905; Berne & Pecora, Dynamic Light Scattering,
@@ -26,10 +43,13 @@ export function diffusionFromDiameter(
   temperatureK: number,
   viscosityPaS: number,
 ): number {
-  assertPositive(diameterM, 'diameter (m)', 'diffusionFromDiameter');
-  assertPositive(temperatureK, 'temperature (K)', 'diffusionFromDiameter');
-  assertPositive(viscosityPaS, 'viscosity (Pa s)', 'diffusionFromDiameter');
-  return (BOLTZMANN_J_PER_K * temperatureK) / (3 * Math.PI * viscosityPaS * diameterM);
+  return stokesEinstein(
+    'diffusionFromDiameter',
+    diameterM,
+    'diameter (m)',
+    temperatureK,
+    viscosityPaS,
+  );
 }
 
 /**
@@ -45,10 +65,13 @@ export function diameterFromDiffusion(
   temperatureK: number,
   viscosityPaS: number,
 ): number {
-  assertPositive(diffusionM2PerS, 'diffusion coefficient (m²/s)', 'diameterFromDiffusion');
-  assertPositive(temperatureK, 'temperature (K)', 'diameterFromDiffusion');
-  assertPositive(viscosityPaS, 'viscosity (Pa s)', 'diameterFromDiffusion');
-  return (BOLTZMANN_J_PER_K * temperatureK) / (3 * Math.PI * viscosityPaS * diffusionM2PerS);
+  return stokesEinstein(
+    'diameterFromDiffusion',
+    diffusionM2PerS,
+    'diffusion coefficient (m²/s)',
+    temperatureK,
+    viscosityPaS,
+  );
 }
 
 /**

@@ -4,6 +4,7 @@ import {
 } from '../../api/src/testing/evaluation-fixtures';
 import { createUser } from '../../api/src/testing/test-app';
 import { startE2E, type E2E } from './support/harness';
+import { evaluateRound, previewTenPercentSigma, saveCommitAndPublish } from './support/round-steps';
 
 jest.setTimeout(180_000);
 
@@ -41,32 +42,19 @@ describe('Consensus board in a real browser', () => {
   it('coordinator: evaluate, preview a σ_pt rule at once, commit, publish, reveal names', async () => {
     const page = await e.page();
     await e.signIn(page, 'coordinator@board.test');
-    await page.goto(`/board/rounds/${fx.round.id}/evaluation`);
-    await page.getByTestId('evaluate').click();
-    const sigma = page.getByTestId('sigma-A-z_average');
-    await sigma.waitFor();
+    const sigma = await evaluateRound(page, fx.round.id);
     const before = Number(await sigma.textContent());
     expect(before).toBeGreaterThan(0);
 
     // σ_pt = 10 % of x_pt: the preview changes without a round trip.
-    await page.getByTestId('override-value').fill('10');
-    await page.getByTestId('override-reason').fill('fitness for purpose');
-    await page.getByTestId('add-override').click();
+    await previewTenPercentSigma(page);
     const after = Number(await sigma.textContent());
     expect(after).toBeGreaterThan(before * 1.5); // x_pt ≈ 100 nm → σ_pt ≈ 10 nm, s* ≈ 2 nm
     expect(after).toBeGreaterThan(9);
     expect(after).toBeLessThan(11);
     await e.shot(page, 'board-evaluation-preview');
 
-    await page.getByTestId('save-draft').click();
-    await page.getByTestId('evaluation-message').getByText('Draft saved.').waitFor();
-    await page.getByTestId('commit').click();
-    await page.getByTestId('evaluation-message').getByText('approved for publication').waitFor();
-    await page.getByTestId('publish').click();
-    await page
-      .getByTestId('evaluation-message')
-      .getByText(/Published version 1: 40 labs e-mailed/)
-      .waitFor();
+    await saveCommitAndPublish(page, 40);
 
     await page.goto(`/board/rounds/${fx.round.id}`);
     await page.locator('.ag-row').first().waitFor();

@@ -1,10 +1,6 @@
 import { createLab, createUser } from '../../api/src/testing/test-app';
-import {
-  createBenchRound,
-  enrol,
-  passingCheck,
-  type BenchRound,
-} from '../../api/src/testing/bench-fixtures';
+import { createBenchRound, enrol, type BenchRound } from '../../api/src/testing/bench-fixtures';
+import { recordPassingCheck } from './support/bench-steps';
 import { startE2E, type E2E } from './support/harness';
 
 jest.setTimeout(180_000);
@@ -30,24 +26,7 @@ describe('Lab bench in a real browser', () => {
     expect(await page.getByTestId('participant-code').textContent()).toBe('P-031');
     expect(await page.getByTestId('safety-cautions').textContent()).toContain('laser interlock');
 
-    // Instrument check (common practice values: 92 nm latex, three runs within 3 nm, PDI ≤ 0.025)
-    const check = passingCheck('Sizer One');
-    await page.getByTestId('check-instrument').fill(check.instrument);
-    await page.getByLabel('Reference material').fill(check.material);
-    await page.getByLabel('Reference (nm)').fill(String(check.referenceValueNm));
-    await page.getByLabel('Tolerance (± nm)').fill(String(check.toleranceNm));
-    await page.getByLabel('PDI limit').fill(String(check.pdiLimit));
-    await page.getByLabel('Min. equilibration (min)').fill(String(check.minEquilibrationMin));
-    for (const [k, run] of check.runs.entries()) {
-      await page.getByLabel(`Check replicate ${k + 1} Z-average (nm)`).fill(String(run.zAverageNm));
-      await page.getByLabel(`Check replicate ${k + 1} PDI`).fill(String(run.pdi));
-      await page
-        .getByLabel(`Check replicate ${k + 1} equilibration (min)`)
-        .fill(String(run.equilibrationMin));
-    }
-    expect(await page.getByTestId('check-preview').textContent()).toContain('Pass');
-    await page.getByTestId('record-check').click();
-    await page.getByTestId('check-history').getByText('● Pass').waitFor();
+    await recordPassingCheck(page, 'Sizer One');
 
     // Results: keyboard through the runs of item A, typed into item B
     const values: Record<string, { z: number[]; p: number[] }> = {

@@ -25,12 +25,16 @@ import {
 } from '../../api/src/testing/test-app';
 import type { SubmissionData } from '../../shared/contracts/submission';
 import { seriousViolations, type AxeViolation } from './support/axe';
+import { recordPassingCheck } from './support/bench-steps';
 import { startE2E, type E2E } from './support/harness';
 import {
   createScheme,
+  evaluateRound,
   fillTwoItemRound,
   inviteHarbourAndNewRidgeLab,
   openEnrolment,
+  previewTenPercentSigma,
+  saveCommitAndPublish,
 } from './support/round-steps';
 
 jest.setTimeout(300_000);
@@ -343,26 +347,7 @@ describe('the whole loop in a real browser', () => {
     await page.getByTestId('page-heading').filter({ hasText: ROUND }).waitFor();
     await page.getByRole('button', { name: 'Record receipt' }).click();
     await page.getByTestId('receipt-state').filter({ hasText: 'Intact' }).waitFor();
-    const check = passingCheck('Sizer One');
-    await page.getByTestId('check-instrument').fill(check.instrument);
-    await page.getByLabel('Reference material').fill(check.material);
-    await page.getByLabel('Reference (nm)').fill(String(check.referenceValueNm));
-    await page.getByLabel('Tolerance (± nm)').fill(String(check.toleranceNm));
-    await page.getByLabel('PDI limit').fill(String(check.pdiLimit));
-    await page.getByLabel('Min. equilibration (min)').fill(String(check.minEquilibrationMin));
-    for (const [k, run] of check.runs.entries()) {
-      await page.getByLabel(`Check replicate ${k + 1} Z-average (nm)`).fill(String(run.zAverageNm));
-      await page.getByLabel(`Check replicate ${k + 1} PDI`).fill(String(run.pdi));
-      await page
-        .getByLabel(`Check replicate ${k + 1} temperature (°C)`)
-        .fill(String(run.temperatureC));
-      await page
-        .getByLabel(`Check replicate ${k + 1} equilibration (min)`)
-        .fill(String(run.equilibrationMin));
-    }
-    await page.getByTestId('check-preview').filter({ hasText: 'Pass:' }).waitFor();
-    await page.getByTestId('record-check').click();
-    await page.getByTestId('check-history').getByText('● Pass').waitFor();
+    await recordPassingCheck(page, 'Sizer One');
   }
 
   step(
@@ -542,10 +527,7 @@ describe('the whole loop in a real browser', () => {
 
       await page.getByRole('link', { name: 'Consensus board' }).first().click();
       await page.getByTestId('page-heading').first().waitFor();
-      await page.goto(`/board/rounds/${roundId}/evaluation`);
-      await page.getByTestId('evaluate').click();
-      const sigma = page.getByTestId('sigma-A-z_average');
-      await sigma.waitFor();
+      const sigma = await evaluateRound(page, roundId);
       const before = Number(await sigma.textContent());
       // robust SD of twelve labs spread over ±2.4 nm around 100 nm (the blunder does not move it much)
       expect(before).toBeGreaterThan(0.8);
@@ -553,9 +535,7 @@ describe('the whole loop in a real browser', () => {
       await expect(page.getByTestId('action-A-z_average').textContent()).resolves.toBe('1');
       await axe(page, 'evaluation page');
 
-      await page.getByTestId('override-value').fill('10');
-      await page.getByTestId('override-reason').fill('fitness for purpose');
-      await page.getByTestId('add-override').click();
+      await previewTenPercentSigma(page);
       await expect(sigma.textContent()).resolves.not.toBe(String(before));
       const after = Number(await sigma.textContent());
       expect(after).toBeGreaterThan(9.5); // 10 % of x_pt ≈ 100 nm
@@ -566,15 +546,7 @@ describe('the whole loop in a real browser', () => {
       await sigma.filter({ hasText: String(before) }).waitFor({ timeout: 10_000 });
       await expect(sigma.textContent()).resolves.toBe(String(before));
 
-      await page.getByTestId('save-draft').click();
-      await page.getByTestId('evaluation-message').getByText('Draft saved.').waitFor();
-      await page.getByTestId('commit').click();
-      await page.getByTestId('evaluation-message').getByText('approved for publication').waitFor();
-      await page.getByTestId('publish').click();
-      await page
-        .getByTestId('evaluation-message')
-        .getByText(/Published version 1: 13 labs e-mailed/)
-        .waitFor();
+      await saveCommitAndPublish(page, 13);
 
       await page.goto(`/board/rounds/${roundId}`);
       await page.locator('.ag-row').first().waitFor();

@@ -1,8 +1,9 @@
-import type { Page } from 'playwright-core';
+import type { Locator, Page } from 'playwright-core';
 
 /**
- * Steps a coordinator takes on the Round desk that several browser stories share. Each step waits
- * for what the page shows afterwards, so a story reads as its sequence of steps.
+ * Steps a coordinator takes on the Round desk and the Evaluation page that several browser stories
+ * share. Each step waits for what the page shows afterwards, so a story reads as its sequence of
+ * steps.
  */
 
 /** Creates a scheme (with the DLS default measurands) from the Round desk. */
@@ -61,4 +62,39 @@ export async function inviteHarbourAndNewRidgeLab(page: Page, harbourEmail: stri
   const invitations = page.locator('ag-grid-angular[aria-label="Invitations"]');
   await invitations.getByText(harbourEmail).waitFor();
   await invitations.getByText('Ridge Particle Lab (new)').waitFor();
+}
+
+/**
+ * Opens a closed round's Evaluation page and evaluates it; resolves to the σ_pt cell of item A's
+ * Z-average once it shows.
+ */
+export async function evaluateRound(page: Page, roundId: string): Promise<Locator> {
+  await page.goto(`/board/rounds/${roundId}/evaluation`);
+  await page.getByTestId('evaluate').click();
+  const sigma = page.getByTestId('sigma-A-z_average');
+  await sigma.waitFor();
+  return sigma;
+}
+
+/** Adds a σ_pt rule of 10 % of x_pt (reason: fitness for purpose) to the evaluation preview. */
+export async function previewTenPercentSigma(page: Page): Promise<void> {
+  await page.getByTestId('override-value').fill('10');
+  await page.getByTestId('override-reason').fill('fitness for purpose');
+  await page.getByTestId('add-override').click();
+}
+
+/**
+ * Saves the evaluation draft, commits it and publishes version 1; waits for the message that
+ * `labsEmailed` labs were e-mailed.
+ */
+export async function saveCommitAndPublish(page: Page, labsEmailed: number): Promise<void> {
+  await page.getByTestId('save-draft').click();
+  await page.getByTestId('evaluation-message').getByText('Draft saved.').waitFor();
+  await page.getByTestId('commit').click();
+  await page.getByTestId('evaluation-message').getByText('approved for publication').waitFor();
+  await page.getByTestId('publish').click();
+  await page
+    .getByTestId('evaluation-message')
+    .getByText(new RegExp(`Published version 1: ${labsEmailed} labs e-mailed`))
+    .waitFor();
 }

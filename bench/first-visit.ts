@@ -28,6 +28,36 @@ const WEB = process.env['RINGLET_BENCH_WEB'] || join(__dirname, '..', 'dist', 'w
 const VISITS = Number(process.env['RINGLET_BENCH_VISITS'] ?? 7);
 /** RINGLET_BENCH_WATERFALL=1 prints each request of one first visit per page (start → end, ms). */
 const WATERFALL = process.env['RINGLET_BENCH_WATERFALL'] === '1';
+/** RINGLET_BENCH_PROFILE=1 prints where the main thread spent one first visit and one revisit. */
+const PROFILE = process.env['RINGLET_BENCH_PROFILE'] === '1';
+
+interface ProfileNode {
+  id: number;
+  callFrame: { url: string; functionName: string };
+}
+
+/** A CPU profile (Chrome DevTools protocol) of what runs until `done`, summed by script file. */
+async function profiled(page: Page, title: string, done: () => Promise<unknown>): Promise<void> {
+  const cdp = await page.context().newCDPSession(page);
+  await cdp.send('Profiler.enable');
+  await cdp.send('Profiler.setSamplingInterval', { interval: 200 });
+  await cdp.send('Profiler.start');
+  await done();
+  const { profile } = (await cdp.send('Profiler.stop')) as unknown as {
+    profile: { nodes: ProfileNode[]; samples: number[]; timeDeltas: number[] };
+  };
+  const nodes = new Map(profile.nodes.map((n) => [n.id, n]));
+  const byFile = new Map<string, number>();
+  profile.samples.forEach((id, i) => {
+    const f = nodes.get(id)!.callFrame;
+    const key = f.url ? f.url.replace(/^.*\//, '') : `(${f.functionName || 'program'})`;
+    byFile.set(key, (byFile.get(key) ?? 0) + (profile.timeDeltas[i] ?? 0) / 1000);
+  });
+  process.stderr.write(`\n${title}: main-thread time by script (ms)\n`);
+  for (const [file, ms] of [...byFile].sort((a, b) => b[1] - a[1]).slice(0, 12))
+    process.stderr.write(`  ${ms.toFixed(0).padStart(6)}  ${file}\n`);
+  await cdp.detach();
+}
 
 function waterfall(page: Page): { print: (title: string, total: number) => Promise<void> } {
   const t0 = performance.now();
@@ -185,8 +215,12 @@ export async function benchFirstVisit(): Promise<(Row & { target?: string; extra
         first.push(performance.now() - s1);
         await log?.print(`first visit: ${p.name}`, first[0]!);
         const s2 = performance.now();
-        await page.goto(p.path, { waitUntil: 'commit' });
-        await page.locator(p.ready).first().waitFor({ state: 'visible', timeout: 30_000 });
+        const revisit = async () => {
+          await page.goto(p.path, { waitUntil: 'commit' });
+          await page.locator(p.ready).first().waitFor({ state: 'visible', timeout: 30_000 });
+        };
+        if (i === 0 && PROFILE) await profiled(page, `revisit: ${p.name}`, revisit);
+        else await revisit();
         again.push(performance.now() - s2);
         await ctx.close();
       }

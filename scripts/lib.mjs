@@ -62,6 +62,9 @@ export function buildWebIfStale() {
     env: { ...process.env, NG_BUILD_OPTIMIZE_CHUNKS: '1' },
   });
   run(process.execPath, [join(root, 'scripts/web-hints.mjs')]);
+  // Each page's own scripts, announced by the server in index.html, and the early data calls.
+  run(process.execPath, [join(root, 'scripts/route-preloads.mjs')]);
+  run(process.execPath, [join(root, 'scripts/early-script.mjs')]);
   run(process.execPath, [join(root, 'scripts/precompress.mjs')]);
 }
 

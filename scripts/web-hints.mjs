@@ -18,8 +18,11 @@ import { root } from './lib.mjs';
  */
 const ALWAYS_LOADED = [['HealthResponse', 'Me', 'homePath']];
 
-/** Output files by their file name, with the names of the files each one imports statically. */
-function outputsOf(metafile) {
+/**
+ * Output files by their file name, with the names of the files each one imports statically,
+ * their export names and source inputs.
+ */
+export function outputsOf(metafile) {
   const outputs = new Map();
   for (const [path, out] of Object.entries(metafile.outputs ?? {})) {
     if (!path.endsWith('.js')) continue;
@@ -28,25 +31,34 @@ function outputsOf(metafile) {
         .filter((i) => i.kind === 'import-statement')
         .map((i) => basename(i.path)),
       exports: out.exports ?? [],
+      inputs: Object.keys(out.inputs ?? {}),
     });
   }
   return outputs;
 }
 
 /** `start` and every file it imports statically, directly or not. */
-function closure(outputs, start, into = new Set()) {
+export function closure(outputs, start, into = new Set()) {
   if (into.has(start) || !outputs.has(start)) return into;
   into.add(start);
   for (const i of outputs.get(start).imports) closure(outputs, i, into);
   return into;
 }
 
-export function addPreloadHints(dir = join(root, 'dist/web')) {
+/** The build in `dir`: its outputs (from stats.json) and index.html; null without stats.json. */
+export function readBuild(dir) {
   const stats = join(dir, 'stats.json');
   const indexPath = join(dir, 'browser', 'index.html');
-  if (!existsSync(stats) || !existsSync(indexPath)) return { added: 0, reason: 'no stats.json' };
+  if (!existsSync(stats) || !existsSync(indexPath)) return null;
   const outputs = outputsOf(JSON.parse(readFileSync(stats, 'utf8')));
-  let html = readFileSync(indexPath, 'utf8');
+  return { outputs, indexPath, html: readFileSync(indexPath, 'utf8') };
+}
+
+export function addPreloadHints(dir = join(root, 'dist/web')) {
+  const build = readBuild(dir);
+  if (!build) return { added: 0, reason: 'no stats.json' };
+  const { outputs, indexPath } = build;
+  let html = build.html;
   const main = /<script src="(main-[^"]+\.js)" type="module"><\/script>/.exec(html);
   if (!main || !outputs.has(main[1])) return { added: 0, reason: 'main script not in stats.json' };
   const wanted = closure(outputs, main[1]);

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { brotliCompressSync, gzipSync } from 'node:zlib';
 import express from 'express';
 import request from 'supertest';
-import { cacheControlFor, IMMUTABLE, webApp } from './static-files';
+import { cacheControlFor, IMMUTABLE, preloadsFor, webApp } from './static-files';
 
 describe('the built web app', () => {
   const dir = mkdtempSync(join(tmpdir(), 'ringlet-static-'));
@@ -67,5 +67,51 @@ describe('the built web app', () => {
 
   it('is absent when nothing is built', () => {
     expect(webApp(join(dir, 'missing'))).toBeNull();
+  });
+
+  describe("a page's own scripts", () => {
+    const built = mkdtempSync(join(tmpdir(), 'ringlet-static-'));
+    writeFileSync(
+      join(built, 'index.html'),
+      '<html><head></head><body><script src="main-AB12CD34.js" type="module"></script></body></html>',
+    );
+    const table = [
+      { path: 'board/rounds/:id', files: ['chunk-Board123.js', 'chunk-Grid4567.js'] },
+      { path: 'board', files: ['chunk-List1234.js', '../secret.js'] },
+    ];
+    writeFileSync(join(built, 'route-preloads.json'), JSON.stringify(table));
+    const site = express();
+    site.use(webApp(built)!);
+    afterAll(() => rmSync(built, { recursive: true, force: true }));
+
+    it('matches a whole path, literal segments exactly and :params as any one segment', () => {
+      expect(preloadsFor(table, '/board/rounds/7')).toEqual(table[0]!.files);
+      expect(preloadsFor(table, '/board/')).toEqual(table[1]!.files);
+      expect(preloadsFor(table, '/board/rounds/7/evaluation')).toEqual([]);
+      expect(preloadsFor(table, '/bench/rounds/7')).toEqual([]);
+    });
+
+    it('names them in index.html ahead of main.js, and only safe file names', async () => {
+      const page = await request(site).get('/board/rounds/7').set('Accept', 'text/html');
+      expect(page.status).toBe(200);
+      expect(page.text).toContain(
+        '<link rel="modulepreload" href="chunk-Board123.js"><link rel="modulepreload" href="chunk-Grid4567.js"><script src="main-AB12CD34.js"',
+      );
+      const list = await request(site).get('/board').set('Accept', 'text/html');
+      expect(list.text).toContain('href="chunk-List1234.js"');
+      expect(list.text).not.toContain('secret');
+      const other = await request(site).get('/desk').set('Accept', 'text/html');
+      expect(other.text).not.toContain('modulepreload');
+    });
+
+    it('answers a revisit with 304 when the page did not change', async () => {
+      const first = await request(site).get('/board/rounds/7').set('Accept', 'text/html');
+      expect(first.headers['etag']).toBeTruthy();
+      const again = await request(site)
+        .get('/board/rounds/7')
+        .set('Accept', 'text/html')
+        .set('If-None-Match', first.headers['etag'] as string);
+      expect(again.status).toBe(304);
+    });
   });
 });

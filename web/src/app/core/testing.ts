@@ -1,3 +1,6 @@
+import { type HttpInterceptorFn, provideHttpClient, withInterceptors } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { TestBed } from '@angular/core/testing';
 import type { Me } from '@ringlet/shared/contracts/auth';
 
 /** A signed-in user for specs (invented). */
@@ -15,4 +18,12 @@ export function aMe(overrides: Partial<Me> = {}): Me {
 /** Lets pending promises (lazy contract loading, async guards) settle. */
 export function settle(): Promise<void> {
   return new Promise((resolve) => setTimeout(resolve, 0));
+}
+
+/** Sets up TestBed with HttpClient through `interceptors` and the testing backend. */
+export function httpTesting(interceptors: HttpInterceptorFn[]): HttpTestingController {
+  TestBed.configureTestingModule({
+    providers: [provideHttpClient(withInterceptors(interceptors)), provideHttpClientTesting()],
+  });
+  return TestBed.inject(HttpTestingController);
 }

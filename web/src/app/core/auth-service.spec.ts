@@ -1,25 +1,18 @@
-import { provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
 import { AuthService } from './auth-service';
 import { csrfInterceptor } from './csrf-interceptor';
 import { CsrfService } from './csrf-service';
-import { aMe, settle } from './testing';
+import { aMe, httpTestBed, settle } from './testing';
 
 describe('AuthService', () => {
   let auth: AuthService;
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(withInterceptors([csrfInterceptor])),
-        provideHttpClientTesting(),
-      ],
-    });
+    http = httpTestBed([csrfInterceptor]);
     auth = TestBed.inject(AuthService);
-    http = TestBed.inject(HttpTestingController);
   });
 
   afterEach(() => http.verify());

@@ -1,23 +1,17 @@
-import { HttpClient, provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpClient } from '@angular/common/http';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
 import { csrfInterceptor } from './csrf-interceptor';
-import { settle } from './testing';
+import { httpTestBed, settle } from './testing';
 
 describe('csrfInterceptor', () => {
   let client: HttpClient;
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideHttpClient(withInterceptors([csrfInterceptor])),
-        provideHttpClientTesting(),
-      ],
-    });
+    http = httpTestBed([csrfInterceptor]);
     client = TestBed.inject(HttpClient);
-    http = TestBed.inject(HttpTestingController);
   });
 
   afterEach(() => http.verify());

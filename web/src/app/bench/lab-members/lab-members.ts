@@ -9,13 +9,13 @@ import {
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatSelectModule } from '@angular/material/select';
-import { MatTableModule } from '@angular/material/table';
 import type {
   LabInvitation,
   LabMemberInviteResult,
   Membership,
 } from '@ringlet/shared/contracts/admin';
 import { AuthService } from '../../core/auth-service';
+import { MembersTable } from '../../shared/members-table';
 import { AssessorGrants } from './assessor-grants/assessor-grants';
 import { InviteColleague } from './invite-colleague/invite-colleague';
 import { LabMembersService } from './lab-members-service';
@@ -33,7 +33,7 @@ export function withInvitation(
   selector: 'app-lab-members',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
-    MatTableModule,
+    MembersTable,
     MatButtonModule,
     MatFormFieldModule,
     MatSelectModule,
@@ -42,8 +42,8 @@ export function withInvitation(
   ],
   templateUrl: './lab-members.html',
   styles: `
-    .members {
-      max-width: 900px;
+    app-members-table {
+      display: block;
       margin-bottom: 8px;
     }
     .pending {
@@ -55,7 +55,6 @@ export class LabMembers {
   private readonly auth = inject(AuthService);
   private readonly service = inject(LabMembersService);
 
-  protected readonly columns = ['name', 'email', 'role', 'actions'];
   protected readonly labs = this.auth.managedLabs;
   protected readonly myId = computed(() => this.auth.me()?.id);
   protected readonly labId = signal<string | null>(

@@ -15,7 +15,7 @@ import type { PrecisionAnalysis, PrecisionExclusion } from '@ringlet/shared/cont
 import { ROUND_STATE_LABELS } from '@ringlet/shared/contracts/round-states';
 import { analysePrecisionStudy } from '@ringlet/shared/evaluation/precision-study';
 import { problemMessage } from '../core/problem';
-import { DownloadButton } from '../reports/download-button';
+import { ReportDownloads } from '../reports/report-downloads';
 import { PageLoad } from '../shared/page-load';
 import { DecisionDialog, type DecisionDialogData, type DecisionResult } from './decision-dialog';
 import { DecisionsList } from './decisions-list';
@@ -48,7 +48,7 @@ import { WithdrawDialog, type WithdrawDialogData } from './withdraw-dialog';
     RouterLink,
     MatButtonModule,
     MatButtonToggleModule,
-    DownloadButton,
+    ReportDownloads,
     DecisionsList,
     FitPanel,
     LevelPanel,
@@ -94,7 +94,6 @@ export class PrecisionPage implements OnInit {
   protected readonly levelLabels = computed(() =>
     Object.fromEntries(this.measurand()?.levels.map((l) => [l.itemCode, l.itemLabel]) ?? []),
   );
-  protected readonly reportBase = computed(() => `/rounds/${this.id()}/reports/`);
 
   /** Reference values can change until the study is finished (Evaluated and after). */
   protected finished(a: PrecisionAnalysis): boolean {

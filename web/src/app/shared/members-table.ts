@@ -1,8 +1,8 @@
 import { ChangeDetectionStrategy, Component, computed, input, output } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
 import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { MatTableModule } from '@angular/material/table';
 import type { Membership } from '@ringlet/shared/contracts/admin';
+import { ListAction } from './list-action';
 
 /** A change of who manages a lab, asked from the members table. */
 export interface ManagerChange {
@@ -18,7 +18,7 @@ export interface ManagerChange {
 @Component({
   selector: 'app-members-table',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatTableModule, MatButtonModule, MatSlideToggleModule],
+  imports: [MatTableModule, MatSlideToggleModule, ListAction],
   template: `
     <table mat-table [dataSource]="members()" [attr.aria-label]="label()" class="members">
       <ng-container matColumnDef="name">
@@ -47,14 +47,11 @@ export interface ManagerChange {
         <th mat-header-cell *matHeaderCellDef><span class="visually-hidden">Actions</span></th>
         <td mat-cell *matCellDef="let m">
           @if (m.userId !== keep()) {
-            <button
-              mat-button
-              type="button"
-              (click)="remove.emit(m)"
-              [attr.aria-label]="'Remove ' + m.userName"
-            >
-              Remove
-            </button>
+            <app-list-action
+              label="Remove"
+              [ariaLabel]="'Remove ' + m.userName"
+              (act)="remove.emit(m)"
+            />
           }
         </td>
       </ng-container>

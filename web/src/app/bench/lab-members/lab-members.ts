@@ -6,7 +6,6 @@ import {
   inject,
   signal,
 } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatSelectModule } from '@angular/material/select';
 import type {
@@ -19,6 +18,7 @@ import { MembersTable } from '../../shared/members-table';
 import { AssessorGrants } from './assessor-grants/assessor-grants';
 import { InviteColleague } from './invite-colleague/invite-colleague';
 import { LabMembersService } from './lab-members-service';
+import { ListAction } from '../../shared/list-action';
 
 /** The pending list once an invitation is sent: the new one first, an earlier one to the same person replaced. */
 export function withInvitation(
@@ -34,7 +34,7 @@ export function withInvitation(
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     MembersTable,
-    MatButtonModule,
+    ListAction,
     MatFormFieldModule,
     MatSelectModule,
     InviteColleague,

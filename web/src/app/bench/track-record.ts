@@ -53,11 +53,13 @@ import { SignalBadge } from '../core/signal-badge';
             <p>No run rule fired.</p>
           }
           <app-chart-panel
-            [name]="'track-' + s.measurandKey"
-            [caption]="s.measurandName + ' z-scores'"
-            [option]="s.option"
-            [text]="s.text"
-            [table]="s.table"
+            [chart]="{
+              name: 'track-' + s.measurandKey,
+              caption: s.measurandName + ' z-scores',
+              option: s.option,
+              text: s.text,
+              table: s.table,
+            }"
           />
           <table class="visually-hidden" [attr.aria-label]="s.measurandName + ' scores'">
             <tbody>

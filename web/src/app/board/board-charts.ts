@@ -9,17 +9,10 @@ import {
   youdenText,
   zBarsOption,
   zBarsText,
-  type ChartOption,
 } from '@ringlet/shared/charts/board-charts';
-import type { ChartTable } from './chart-panel';
+import type { PanelChart } from './chart-panel';
 
-export interface BoardChart {
-  name: string;
-  caption: string;
-  option: ChartOption;
-  text: string;
-  table: ChartTable;
-}
+export type BoardChart = PanelChart;
 
 /** The charts of one item × measurand (group index gi) of a board. */
 export function chartsFor(board: BoardData, gi: number): BoardChart[] {

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, input, signal } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { NgxEchartsDirective } from 'ngx-echarts';
 import type { ChartOption } from '@ringlet/shared/charts/board-charts';
@@ -6,6 +6,17 @@ import type { ChartOption } from '@ringlet/shared/charts/board-charts';
 export interface ChartTable {
   readonly columns: readonly string[];
   readonly rows: readonly (readonly (string | number)[])[];
+}
+
+/** What one panel shows: its chart, the text alternative and the same numbers as a table. */
+export interface PanelChart {
+  /** Names the figure's test id (`chart-<name>`). */
+  readonly name: string;
+  /** The table view's accessible name. */
+  readonly caption: string;
+  readonly option: ChartOption;
+  readonly text: string;
+  readonly table: ChartTable;
 }
 
 /** One chart with its text alternative (always shown) and a table view of the same numbers. */
@@ -100,11 +111,12 @@ export interface ChartTable {
   `,
 })
 export class ChartPanel {
-  readonly name = input.required<string>();
-  readonly caption = input.required<string>();
-  readonly option = input.required<ChartOption>();
-  readonly text = input.required<string>();
-  readonly table = input.required<ChartTable>();
+  readonly chart = input.required<PanelChart>();
+  protected readonly name = computed(() => this.chart().name);
+  protected readonly caption = computed(() => this.chart().caption);
+  protected readonly option = computed(() => this.chart().option);
+  protected readonly text = computed(() => this.chart().text);
+  protected readonly table = computed(() => this.chart().table);
   protected readonly showTable = signal(false);
   protected isNumber(v: unknown): boolean {
     return typeof v === 'number';

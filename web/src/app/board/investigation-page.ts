@@ -23,6 +23,7 @@ import {
 } from '@ringlet/shared/contracts/evaluation';
 import { problemMessage } from '../core/problem';
 import { SignalBadge } from '../core/signal-badge';
+import { PageLoad } from '../shared/page-load';
 import { BoardService } from './board-service';
 
 /** One investigation: the lab records its findings; the manager closes it; others read. */
@@ -100,8 +101,9 @@ export class InvestigationPage implements OnInit {
   protected readonly stateLabels = INVESTIGATION_STATE_LABELS;
   readonly id = input.required<string>();
   private readonly service = inject(BoardService);
-  protected readonly inv = signal<InvestigationDto | null>(null);
-  protected readonly error = signal<string | null>(null);
+  private readonly page = new PageLoad(() => this.service.investigation(this.id()));
+  protected readonly inv = this.page.value;
+  protected readonly error = this.page.error;
   protected readonly message = signal<string | null>(null);
   protected readonly causes = CAUSE_CATEGORY_LABELS;
   protected readonly causeKeys = CAUSE_CATEGORIES;
@@ -113,10 +115,7 @@ export class InvestigationPage implements OnInit {
   });
 
   ngOnInit(): void {
-    this.service.investigation(this.id()).subscribe({
-      next: (i) => this.show(i),
-      error: (e: unknown) => this.error.set(problemMessage(e)),
-    });
+    this.page.load((i) => this.show(i));
   }
 
   private show(i: InvestigationDto): void {

@@ -1,16 +1,10 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  type OnInit,
-  inject,
-  input,
-  signal,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, type OnInit, inject, input } from '@angular/core';
 import { formatDate } from '../core/format';
 import { RouterLink } from '@angular/router';
 import type { LabScores } from '@ringlet/shared/contracts/evaluation';
 import { problemMessage, problemOf } from '../core/problem';
 import { SignalBadge } from '../core/signal-badge';
+import { PageLoad } from '../shared/page-load';
 import { BoardService } from './board-service';
 
 /** A lab's own scores of a published round, each with a plain-language explanation. */
@@ -111,19 +105,18 @@ import { BoardService } from './board-service';
 export class ScoresPage implements OnInit {
   readonly id = input.required<string>();
   private readonly service = inject(BoardService);
-  protected readonly data = signal<LabScores | null>(null);
-  protected readonly error = signal<string | null>(null);
+  private readonly page = new PageLoad(
+    () => this.service.myScores(this.id()),
+    (e) =>
+      problemOf(e)?.code === 'precision_study_no_scores'
+        ? 'This round is a precision study: it estimates the method’s repeatability and reproducibility and does not score labs.'
+        : problemMessage(e),
+  );
+  protected readonly data = this.page.value;
+  protected readonly error = this.page.error;
 
   ngOnInit(): void {
-    this.service.myScores(this.id()).subscribe({
-      next: (d) => this.data.set(d),
-      error: (e: unknown) =>
-        this.error.set(
-          problemOf(e)?.code === 'precision_study_no_scores'
-            ? 'This round is a precision study: it estimates the method’s repeatability and reproducibility and does not score labs.'
-            : problemMessage(e),
-        ),
-    });
+    this.page.load();
   }
 
   protected scoreOf(s: LabScores['scores'][number]): string {

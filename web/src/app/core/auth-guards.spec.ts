@@ -1,5 +1,4 @@
-import { provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import {
   type ActivatedRouteSnapshot,
@@ -10,16 +9,13 @@ import {
 } from '@angular/router';
 import type { Me } from '@ringlet/shared/contracts/auth';
 import { authGuard, homeRedirectGuard, labManagerGuard, roleGuard } from './auth-guards';
-import { aMe, settle } from './testing';
+import { aLabMember, aMe, httpTestBed, settle } from './testing';
 
 describe('auth guards', () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = httpTestBed([], [provideRouter([])]);
   });
 
   afterEach(() => http.verify());
@@ -52,10 +48,7 @@ describe('auth guards', () => {
       true,
     );
     TestBed.resetTestingModule();
-    TestBed.configureTestingModule({
-      providers: [provideRouter([]), provideHttpClient(), provideHttpClientTesting()],
-    });
-    http = TestBed.inject(HttpTestingController);
+    http = httpTestBed([], [provideRouter([])]);
     expect(asUrl(await run(roleGuard('admin'), '/admin/users', aMe({ roles: ['lab'] })))).toBe(
       '/bench',
     );
@@ -68,18 +61,8 @@ describe('auth guards', () => {
   });
 
   it('labManagerGuard needs a managed lab', async () => {
-    const manager = aMe({
-      roles: ['lab'],
-      memberships: [
-        {
-          id: '0d7c1f7a-1111-4a2b-8c3d-000000000001',
-          organisationId: '0d7c1f7a-2222-4a2b-8c3d-000000000002',
-          organisationName: 'Harbourside Colloid Lab',
-          isManager: false,
-        },
-      ],
-    });
-    expect(asUrl(await run(labManagerGuard, '/bench/lab-members', manager))).toBe('/bench');
+    const member = aLabMember(false);
+    expect(asUrl(await run(labManagerGuard, '/bench/lab-members', member))).toBe('/bench');
   });
 
   it('homeRedirectGuard sends / to the role home', async () => {

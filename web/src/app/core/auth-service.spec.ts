@@ -4,14 +4,14 @@ import { firstValueFrom } from 'rxjs';
 import { AuthService } from './auth-service';
 import { csrfInterceptor } from './csrf-interceptor';
 import { CsrfService } from './csrf-service';
-import { aMe, settle, httpTesting } from './testing';
+import { aMe, httpTestBed, settle } from './testing';
 
 describe('AuthService', () => {
   let auth: AuthService;
   let http: HttpTestingController;
 
   beforeEach(() => {
-    http = httpTesting([csrfInterceptor]);
+    http = httpTestBed([csrfInterceptor]);
     auth = TestBed.inject(AuthService);
   });
 

@@ -3,14 +3,14 @@ import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
 import { csrfInterceptor } from './csrf-interceptor';
-import { settle, httpTesting } from './testing';
+import { httpTestBed, settle } from './testing';
 
 describe('csrfInterceptor', () => {
   let client: HttpClient;
   let http: HttpTestingController;
 
   beforeEach(() => {
-    http = httpTesting([csrfInterceptor]);
+    http = httpTestBed([csrfInterceptor]);
     client = TestBed.inject(HttpClient);
   });
 

@@ -4,7 +4,7 @@ import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
 import { EARLY_GLOBAL } from '../../early/early-calls';
 import { dropEarlyResponses, earlyResponseInterceptor } from './early-responses';
-import { settle, httpTesting } from './testing';
+import { settle, httpTestBed } from './testing';
 
 /** jsdom has no Response: the members the interceptor reads. */
 function answer(status: number, body: string): Promise<Response> {
@@ -26,7 +26,7 @@ describe('earlyResponseInterceptor', () => {
   beforeEach(() => {
     (globalThis as unknown as Record<string, unknown>)[EARLY_GLOBAL] = early;
     early.clear();
-    http = httpTesting([earlyResponseInterceptor]);
+    http = httpTestBed([earlyResponseInterceptor]);
     client = TestBed.inject(HttpClient);
   });
 

@@ -1,12 +1,12 @@
-import { HttpClient, HttpContext, provideHttpClient, withInterceptors } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpClient, HttpContext } from '@angular/common/http';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { Router, provideRouter } from '@angular/router';
 import { firstValueFrom } from 'rxjs';
 import { HANDLED_STATUSES } from './api';
 import { errorInterceptor } from './error-interceptor';
-import { settle } from './testing';
+import { httpTestBed, settle } from './testing';
 
 describe('errorInterceptor', () => {
   let client: HttpClient;
@@ -15,15 +15,8 @@ describe('errorInterceptor', () => {
   let open: jest.SpyInstance;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [
-        provideRouter([]),
-        provideHttpClient(withInterceptors([errorInterceptor])),
-        provideHttpClientTesting(),
-      ],
-    });
+    http = httpTestBed([errorInterceptor], [provideRouter([])]);
     client = TestBed.inject(HttpClient);
-    http = TestBed.inject(HttpTestingController);
     router = TestBed.inject(Router);
     open = jest.spyOn(TestBed.inject(MatSnackBar), 'open').mockReturnValue(undefined as never);
   });

@@ -1,5 +1,5 @@
 import { navEntries } from './nav';
-import { aMe } from './testing';
+import { aLabMember, aMe } from './testing';
 
 describe('navEntries', () => {
   const labels = (...args: Parameters<typeof navEntries>) =>
@@ -29,17 +29,7 @@ describe('navEntries', () => {
   });
 
   it('adds "My lab" for lab managers and the Outbox in demo/development mode', () => {
-    const manager = aMe({
-      roles: ['lab'],
-      memberships: [
-        {
-          id: '0d7c1f7a-1111-4a2b-8c3d-000000000001',
-          organisationId: '0d7c1f7a-2222-4a2b-8c3d-000000000002',
-          organisationName: 'Harbourside Colloid Lab',
-          isManager: true,
-        },
-      ],
-    });
+    const manager = aLabMember(true);
     const entries = navEntries(manager, true);
     expect(entries.map((e) => e.path)).toEqual([
       '/bench',

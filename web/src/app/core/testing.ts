@@ -1,5 +1,6 @@
 import { type HttpInterceptorFn, provideHttpClient, withInterceptors } from '@angular/common/http';
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import type { EnvironmentProviders, Provider } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import type { Me } from '@ringlet/shared/contracts/auth';
 
@@ -15,15 +16,41 @@ export function aMe(overrides: Partial<Me> = {}): Me {
   };
 }
 
+/** A lab user of one lab (invented), its manager or not. */
+export function aLabMember(isManager: boolean): Me {
+  return aMe({
+    roles: ['lab'],
+    memberships: [
+      {
+        id: '0d7c1f7a-1111-4a2b-8c3d-000000000001',
+        organisationId: '0d7c1f7a-2222-4a2b-8c3d-000000000002',
+        organisationName: 'Harbourside Colloid Lab',
+        isManager,
+      },
+    ],
+  });
+}
+
+/**
+ * Configures the TestBed with an HttpClient whose requests pass `interceptors` and end at the
+ * testing backend, beside any other `providers`; answers the backend's controller (verify it
+ * after each test).
+ */
+export function httpTestBed(
+  interceptors: HttpInterceptorFn[] = [],
+  providers: (Provider | EnvironmentProviders)[] = [],
+): HttpTestingController {
+  TestBed.configureTestingModule({
+    providers: [
+      ...providers,
+      provideHttpClient(withInterceptors(interceptors)),
+      provideHttpClientTesting(),
+    ],
+  });
+  return TestBed.inject(HttpTestingController);
+}
+
 /** Lets pending promises (lazy contract loading, async guards) settle. */
 export function settle(): Promise<void> {
   return new Promise((resolve) => setTimeout(resolve, 0));
-}
-
-/** Sets up TestBed with HttpClient through `interceptors` and the testing backend. */
-export function httpTesting(interceptors: HttpInterceptorFn[]): HttpTestingController {
-  TestBed.configureTestingModule({
-    providers: [provideHttpClient(withInterceptors(interceptors)), provideHttpClientTesting()],
-  });
-  return TestBed.inject(HttpTestingController);
 }

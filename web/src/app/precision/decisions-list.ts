@@ -1,17 +1,17 @@
 import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
 import {
   PRECISION_DECISION_LABELS,
   PRECISION_EXCLUSION_KIND_LABELS,
   type PrecisionExclusion,
 } from '@ringlet/shared/contracts/precision';
 import { LOCAL_ID_PREFIX } from './precision-view';
+import { ListAction } from '../shared/list-action';
 
 /** The decisions in force, newest first; those not stored yet say so. Each can be withdrawn while open. */
 @Component({
   selector: 'app-precision-decisions',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule],
+  imports: [ListAction],
   templateUrl: './decisions-list.html',
   styleUrl: './precision.scss',
 })

@@ -1,13 +1,13 @@
 import { ChangeDetectionStrategy, Component, input, output } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
 import { ClassBadge } from './class-badge';
 import { testNames, type PendingCell } from './precision-view';
+import { ListAction } from '../shared/list-action';
 
 /** The cells Cochran or Grubbs flagged that wait for the coordinator's decision. */
 @Component({
   selector: 'app-precision-pending',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, ClassBadge],
+  imports: [ListAction, ClassBadge],
   templateUrl: './pending-list.html',
   styleUrl: './precision.scss',
 })

@@ -3,7 +3,6 @@ import type {
   PrecisionLevelResult,
   PrecisionMeasurandResult,
 } from '@ringlet/shared/contracts/precision';
-import type { ChartOption } from '@ringlet/shared/charts/board-charts';
 import {
   classifyMandel,
   levelDependenceOption,
@@ -14,16 +13,10 @@ import {
   type FittedCurve,
   type LevelPoint,
 } from '@ringlet/shared/charts/precision-level-charts';
-import type { ChartTable } from '../board/chart-panel';
+import type { PanelChart } from '../board/chart-panel';
 import { curveOf, mandelBars } from './precision-view';
 
-export interface PrecisionChart {
-  readonly name: string;
-  readonly caption: string;
-  readonly option: ChartOption;
-  readonly text: string;
-  readonly table: ChartTable;
-}
+export type PrecisionChart = PanelChart;
 
 /** Mandel's h and k of one level, each with its text alternative and table. */
 export function mandelCharts(

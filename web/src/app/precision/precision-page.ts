@@ -15,7 +15,8 @@ import type { PrecisionAnalysis, PrecisionExclusion } from '@ringlet/shared/cont
 import { ROUND_STATE_LABELS } from '@ringlet/shared/contracts/round-states';
 import { analysePrecisionStudy } from '@ringlet/shared/evaluation/precision-study';
 import { problemMessage } from '../core/problem';
-import { DownloadButton } from '../reports/download-button';
+import { ReportDownloads } from '../reports/report-downloads';
+import { PageLoad } from '../shared/page-load';
 import { DecisionDialog, type DecisionDialogData, type DecisionResult } from './decision-dialog';
 import { DecisionsList } from './decisions-list';
 import { FinishDialog, type FinishDialogData } from './finish-dialog';
@@ -47,7 +48,7 @@ import { WithdrawDialog, type WithdrawDialogData } from './withdraw-dialog';
     RouterLink,
     MatButtonModule,
     MatButtonToggleModule,
-    DownloadButton,
+    ReportDownloads,
     DecisionsList,
     FitPanel,
     LevelPanel,
@@ -63,10 +64,11 @@ export class PrecisionPage implements OnInit {
   private readonly service = inject(PrecisionService);
   private readonly dialog = inject(MatDialog);
   protected readonly stateLabels = ROUND_STATE_LABELS;
-  protected readonly stored = signal<PrecisionAnalysis | null>(null);
+  private readonly page = new PageLoad(() => this.service.analysis(this.id()));
+  protected readonly stored = this.page.value;
   /** Decisions recorded here and not yet answered by the server. */
   protected readonly unsaved = signal<DecisionResult[]>([]);
-  protected readonly loadError = signal<string | null>(null);
+  protected readonly loadError = this.page.error;
   protected readonly error = signal<string | null>(null);
   protected readonly message = signal<string | null>(null);
   protected readonly chosenKey = signal<string | null>(null);
@@ -92,7 +94,6 @@ export class PrecisionPage implements OnInit {
   protected readonly levelLabels = computed(() =>
     Object.fromEntries(this.measurand()?.levels.map((l) => [l.itemCode, l.itemLabel]) ?? []),
   );
-  protected readonly reportBase = computed(() => `/rounds/${this.id()}/reports/`);
 
   /** Reference values can change until the study is finished (Evaluated and after). */
   protected finished(a: PrecisionAnalysis): boolean {
@@ -104,14 +105,7 @@ export class PrecisionPage implements OnInit {
   }
 
   ngOnInit(): void {
-    this.load();
-  }
-
-  private load(): void {
-    this.service.analysis(this.id()).subscribe({
-      next: (a) => this.stored.set(a),
-      error: (e: unknown) => this.loadError.set(problemMessage(e)),
-    });
+    this.page.load();
   }
 
   protected openDecision(cell: PendingCell): void {
@@ -192,7 +186,7 @@ export class PrecisionPage implements OnInit {
       .subscribe((r) => {
         if (!r) return;
         this.answered(r, `Decision on ${decision.participantCode} withdrawn.`);
-        this.load();
+        this.page.load();
       });
   }
 

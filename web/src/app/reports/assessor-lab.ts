@@ -3,16 +3,16 @@ import {
   ChangeDetectionStrategy,
   Component,
   type OnInit,
+  computed,
   inject,
   input,
-  signal,
 } from '@angular/core';
 import { RouterLink } from '@angular/router';
 import { INVESTIGATION_STATE_LABELS } from '@ringlet/shared/contracts/evaluation';
-import type { AssessorLabDetail } from '@ringlet/shared/contracts/reports';
 import { ROUND_STATE_LABELS, type RoundState } from '@ringlet/shared/contracts/round-states';
 import { DownloadButton } from './download-button';
 import { ReportDownloads } from './report-downloads';
+import { PageLoad } from '../shared/page-load';
 import { ReportsService } from './reports-service';
 
 /** One granting lab: its rounds with report downloads, investigations, instrument checks, and its Evidence pack. */
@@ -147,12 +147,12 @@ export class AssessorLab implements OnInit {
   }
   readonly id = input.required<string>();
   private readonly reports = inject(ReportsService);
-  protected readonly detail = signal<AssessorLabDetail | null>(null);
-  protected readonly missing = signal(false);
+  /** Any refusal means the lab is not available to this assessor (no active grant). */
+  private readonly page = new PageLoad(() => this.reports.lab(this.id()));
+  protected readonly detail = this.page.value;
+  protected readonly missing = computed(() => this.page.error() !== null);
 
   ngOnInit(): void {
-    this.reports
-      .lab(this.id())
-      .subscribe({ next: (d) => this.detail.set(d), error: () => this.missing.set(true) });
+    this.page.load();
   }
 }

@@ -9,9 +9,10 @@ import {
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { RouterLink } from '@angular/router';
-import type { InvitationAcceptResult, InvitationInfo } from '@ringlet/shared/contracts/rounds';
+import type { InvitationAcceptResult } from '@ringlet/shared/contracts/rounds';
 import { AuthService } from '../core/auth-service';
 import { problemMessage } from '../core/problem';
+import { PageLoad } from '../shared/page-load';
 import { RoundsService } from './rounds-service';
 
 /** The page an invitation e-mail links to: shows the round and enrols the lab on acceptance. */
@@ -72,16 +73,14 @@ export class AcceptInvitation implements OnInit {
   readonly token = input.required<string>();
   protected readonly auth = inject(AuthService);
   private readonly api = inject(RoundsService);
-  protected readonly info = signal<InvitationInfo | null>(null);
+  private readonly page = new PageLoad(() => this.api.invitationInfo(this.token()));
+  protected readonly info = this.page.value;
   protected readonly result = signal<InvitationAcceptResult | null>(null);
-  protected readonly failure = signal<string | null>(null);
+  protected readonly failure = this.page.error;
   protected readonly busy = signal(false);
 
   ngOnInit(): void {
-    this.api.invitationInfo(this.token()).subscribe({
-      next: (i) => this.info.set(i),
-      error: (e: unknown) => this.failure.set(problemMessage(e)),
-    });
+    this.page.load();
   }
 
   protected accept(): void {

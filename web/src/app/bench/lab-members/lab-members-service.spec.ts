@@ -1,8 +1,9 @@
-import { HttpErrorResponse, provideHttpClient } from '@angular/common/http';
-import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
+import { HttpErrorResponse } from '@angular/common/http';
+import type { HttpTestingController } from '@angular/common/http/testing';
 import { TestBed } from '@angular/core/testing';
 import { firstValueFrom } from 'rxjs';
 import { HANDLED_STATUSES } from '../../core/api';
+import { httpTestBed } from '../../core/testing';
 import { aGrant, GRANT_LAB } from './grant-fixtures';
 import { grantState } from './grant-state';
 import { LabMembersService } from './lab-members-service';
@@ -15,11 +16,8 @@ describe('LabMembersService: assessor grants', () => {
   let http: HttpTestingController;
 
   beforeEach(() => {
-    TestBed.configureTestingModule({
-      providers: [provideHttpClient(), provideHttpClientTesting()],
-    });
+    http = httpTestBed();
     service = TestBed.inject(LabMembersService);
-    http = TestBed.inject(HttpTestingController);
   });
   afterEach(() => http.verify());
 

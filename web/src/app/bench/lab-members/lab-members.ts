@@ -6,19 +6,19 @@ import {
   inject,
   signal,
 } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatSelectModule } from '@angular/material/select';
-import { MatTableModule } from '@angular/material/table';
 import type {
   LabInvitation,
   LabMemberInviteResult,
   Membership,
 } from '@ringlet/shared/contracts/admin';
 import { AuthService } from '../../core/auth-service';
+import { MembersTable } from '../../shared/members-table';
 import { AssessorGrants } from './assessor-grants/assessor-grants';
 import { InviteColleague } from './invite-colleague/invite-colleague';
 import { LabMembersService } from './lab-members-service';
+import { ListAction } from '../../shared/list-action';
 
 /** The pending list once an invitation is sent: the new one first, an earlier one to the same person replaced. */
 export function withInvitation(
@@ -33,8 +33,8 @@ export function withInvitation(
   selector: 'app-lab-members',
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
-    MatTableModule,
-    MatButtonModule,
+    MembersTable,
+    ListAction,
     MatFormFieldModule,
     MatSelectModule,
     InviteColleague,
@@ -42,8 +42,8 @@ export function withInvitation(
   ],
   templateUrl: './lab-members.html',
   styles: `
-    .members {
-      max-width: 900px;
+    app-members-table {
+      display: block;
       margin-bottom: 8px;
     }
     .pending {
@@ -55,7 +55,6 @@ export class LabMembers {
   private readonly auth = inject(AuthService);
   private readonly service = inject(LabMembersService);
 
-  protected readonly columns = ['name', 'email', 'role', 'actions'];
   protected readonly labs = this.auth.managedLabs;
   protected readonly myId = computed(() => this.auth.me()?.id);
   protected readonly labId = signal<string | null>(

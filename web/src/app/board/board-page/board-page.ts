@@ -17,11 +17,10 @@ import { MatSlideToggleModule } from '@angular/material/slide-toggle';
 import { RouterLink } from '@angular/router';
 import { AgGridAngular } from 'ag-grid-angular';
 import type { ColDef, GridApi, GridReadyEvent, RowClassParams, RowStyle } from 'ag-grid-community';
-import type { BoardData } from '@ringlet/shared/contracts/evaluation';
-import { problemMessage } from '../../core/problem';
 import { BoardChartSection } from '../board-chart-section/board-chart-section';
 import { type BoardGridRow, boardColumns, boardRows } from '../board-columns';
 import { ringletGridTheme, safeCsvCell } from '../board-grid';
+import { PageLoad } from '../../shared/page-load';
 import { BoardService } from '../board-service';
 
 /** The Consensus board: one row per participant code, per item × measurand results and scores, charts below. */
@@ -46,8 +45,9 @@ export class BoardPage implements OnInit {
   readonly id = input.required<string>();
   private readonly service = inject(BoardService);
   protected readonly theme = ringletGridTheme;
-  protected readonly board = signal<BoardData | null>(null);
-  protected readonly error = signal<string | null>(null);
+  private readonly page = new PageLoad(() => this.service.board(this.id(), this.reveal()));
+  protected readonly board = this.page.value;
+  protected readonly error = this.page.error;
   protected readonly reveal = signal(false);
   protected readonly quick = signal('');
   private api: GridApi<BoardGridRow> | null = null;
@@ -72,22 +72,12 @@ export class BoardPage implements OnInit {
   });
 
   ngOnInit(): void {
-    this.load();
-  }
-
-  private load(): void {
-    this.service.board(this.id(), this.reveal()).subscribe({
-      next: (b) => {
-        this.board.set(b);
-        this.error.set(null);
-      },
-      error: (e: unknown) => this.error.set(problemMessage(e)),
-    });
+    this.page.load();
   }
 
   protected toggleNames(on: boolean): void {
     this.reveal.set(on);
-    this.load();
+    this.page.load();
   }
 
   protected onReady(e: GridReadyEvent<BoardGridRow>): void {

@@ -21,6 +21,7 @@ import {
 } from '@ringlet/shared/contracts/evaluation';
 import { ROUND_STATE_LABELS, type RoundState } from '@ringlet/shared/contracts/round-states';
 import { problemMessage } from '../../core/problem';
+import { PageLoad } from '../../shared/page-load';
 import { BoardService } from '../board-service';
 import { EvaluationPreview } from '../evaluation-preview/evaluation-preview';
 import { ExclusionForm } from '../exclusion-form/exclusion-form';
@@ -59,9 +60,18 @@ import {
 export class EvaluationPage implements OnInit {
   readonly id = input.required<string>();
   private readonly service = inject(BoardService);
-  protected readonly view = signal<EvaluationView | null>(null);
+  /** No evaluation yet (404) is not an error: the page offers to start one. */
+  private readonly page = new PageLoad(
+    () => this.service.evaluation(this.id()),
+    (e: unknown) => {
+      const none = e instanceof HttpErrorResponse && e.status === 404;
+      this.missing.set(none);
+      return none ? null : problemMessage(e);
+    },
+  );
+  protected readonly view = this.page.value;
   protected readonly missing = signal(false);
-  protected readonly error = signal<string | null>(null);
+  protected readonly error = this.page.error;
   protected readonly message = signal<string | null>(null);
   protected readonly overrides = signal<SigmaPtOverride[]>([]);
   protected readonly exclusions = signal<Exclusion[]>([]);
@@ -83,13 +93,7 @@ export class EvaluationPage implements OnInit {
   });
 
   ngOnInit(): void {
-    this.service.evaluation(this.id()).subscribe({
-      next: (v) => this.show(v),
-      error: (e: unknown) => {
-        if (e instanceof HttpErrorResponse && e.status === 404) this.missing.set(true);
-        else this.error.set(problemMessage(e));
-      },
-    });
+    this.page.load((v) => this.show(v));
   }
 
   private show(v: EvaluationView): void {

@@ -5,7 +5,6 @@ import {
   computed,
   inject,
   input,
-  signal,
 } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
@@ -23,6 +22,7 @@ import {
 } from '@ringlet/shared/contracts/round-states';
 import { SignalBadge } from '../../core/signal-badge';
 import { openDialog } from '../../shared/open-dialog';
+import { PageLoad } from '../../shared/page-load';
 import { openDeskDialog } from '../desk-dialog/desk-dialog';
 import { RoundEditDialog } from '../round-edit-dialog/round-edit-dialog';
 import { RoundEnrolments } from '../round-enrolments/round-enrolments';
@@ -66,7 +66,8 @@ export class RoundDetail implements OnInit {
   protected readonly formatMoney = formatMoney;
   protected readonly stateLabel = (s: RoundState) => ROUND_STATE_LABELS[s];
   protected readonly moveOf = describeMove;
-  protected readonly round = signal<RoundDetailDto | null>(null);
+  private readonly page = new PageLoad(() => this.api.round(this.id()));
+  protected readonly round = this.page.value;
   protected readonly descriptionOpen = computed(() => {
     const r = this.round();
     return !!r && isDescriptionOpen(r.state);
@@ -86,7 +87,7 @@ export class RoundDetail implements OnInit {
 
   /** Reads the round again; its sections read their own lists when the round changes. */
   protected reload(): void {
-    this.api.round(this.id()).subscribe((r) => this.round.set(r));
+    this.page.load();
   }
 
   protected move(to: RoundState): void {

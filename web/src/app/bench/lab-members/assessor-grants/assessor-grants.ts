@@ -1,5 +1,4 @@
 import { ChangeDetectionStrategy, Component, effect, inject, input, signal } from '@angular/core';
-import { MatButtonModule } from '@angular/material/button';
 import { MatDialog } from '@angular/material/dialog';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
@@ -8,12 +7,13 @@ import { GrantForm } from '../grant-form/grant-form';
 import { GRANT_STATE_WORDS, type GrantState, grantState, isRevocable } from '../grant-state';
 import { LabMembersService } from '../lab-members-service';
 import { RevokeGrantDialog } from './revoke-grant-dialog';
+import { ListAction } from '../../../shared/list-action';
 
 /** For lab managers: which assessors may read the lab, give one access, revoke it. */
 @Component({
   selector: 'app-assessor-grants',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatTableModule, MatButtonModule, GrantForm],
+  imports: [MatTableModule, ListAction, GrantForm],
   templateUrl: './assessor-grants.html',
   styles: `
     .explain {

@@ -1,13 +1,11 @@
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
-import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonHarness } from '@angular/material/button/testing';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatInputHarness } from '@angular/material/input/testing';
 import { EntryListForm, type ListedEntry } from './entry-list-form';
+import { renderHost } from './form-testing';
 
 @Component({
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -41,14 +39,7 @@ class Host {
   readonly removed: number[] = [];
 }
 
-async function setup() {
-  TestBed.configureTestingModule({
-    providers: [{ provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } }],
-  });
-  const fixture = TestBed.createComponent(Host);
-  await fixture.whenStable();
-  return { fixture, loader: TestbedHarnessEnvironment.loader(fixture) };
-}
+const setup = () => renderHost(Host);
 
 describe('EntryListForm', () => {
   it('submits the projected fields with the reason through its own button', async () => {

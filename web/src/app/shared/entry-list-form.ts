@@ -26,6 +26,7 @@ export interface ListedEntry {
     MatIconModule,
     MatInputModule,
   ],
+  // .form-row and .wide: the board's one-row forms
   template: `
     <h2>{{ heading() }}</h2>
     <form class="form-row" [formGroup]="form()" (ngSubmit)="submitted.emit()" novalidate>
@@ -52,21 +53,7 @@ export interface ListedEntry {
       </p>
     }
   `,
-  styles: `
-    :host {
-      display: block;
-    }
-    .form-row {
-      display: flex;
-      flex-wrap: wrap;
-      gap: 8px;
-      align-items: flex-start;
-    }
-    .wide {
-      min-width: min(320px, 100%);
-      flex: 1;
-    }
-  `,
+  styleUrl: '../board/board.scss',
 })
 export class EntryListForm {
   readonly heading = input.required<string>();

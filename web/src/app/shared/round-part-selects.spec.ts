@@ -1,8 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
-import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { NonNullableFormBuilder } from '@angular/forms';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import { ItemSelect, MeasurandSelect, measurandName } from './round-part-selects';
 
@@ -14,6 +11,7 @@ const ITEMS = [
   { id: 'i1', code: 'A' },
   { id: 'i2', code: 'B' },
 ];
+import { renderHost } from './form-testing';
 
 @Component({
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -44,12 +42,7 @@ class Host {
 }
 
 async function setup() {
-  TestBed.configureTestingModule({
-    providers: [{ provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } }],
-  });
-  const fixture = TestBed.createComponent(Host);
-  await fixture.whenStable();
-  const loader = TestbedHarnessEnvironment.loader(fixture);
+  const { fixture, loader } = await renderHost(Host);
   const select = (id: string) =>
     loader.getHarness(MatSelectHarness.with({ selector: `[data-testid="${id}"]` }));
   return { fixture, select };

@@ -1,13 +1,10 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { TestBed } from '@angular/core/testing';
-import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
 import { NonNullableFormBuilder, Validators } from '@angular/forms';
-import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
 import { MatSelectHarness } from '@angular/material/select/testing';
 import type { GlobalRole } from '@ringlet/shared/contracts/auth';
 import { applyServerIssues } from '../core/zod-form-errors';
-import { formFields } from './form-testing';
+import { formFields, renderHost } from './form-testing';
 import { UserFields } from './user-fields';
 
 @Component({
@@ -26,14 +23,7 @@ class Host {
   });
 }
 
-async function setup() {
-  TestBed.configureTestingModule({
-    providers: [{ provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } }],
-  });
-  const fixture = TestBed.createComponent(Host);
-  await fixture.whenStable();
-  return { fixture, loader: TestbedHarnessEnvironment.loader(fixture) };
-}
+const setup = () => renderHost(Host);
 
 describe('UserFields', () => {
   it("fills the parent's name and roles controls", async () => {

@@ -1,39 +1,23 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import {
-  type AbstractControl,
-  NonNullableFormBuilder,
-  ReactiveFormsModule,
-  Validators,
-} from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
+import { type AbstractControl, NonNullableFormBuilder, Validators } from '@angular/forms';
 import { MatSelectModule } from '@angular/material/select';
 import { type Organisation, OrganisationCreate } from '@ringlet/shared/contracts/admin';
 import { Email } from '@ringlet/shared/contracts/common';
 import { type Observable } from 'rxjs';
 import { errorMessage, zodValidator } from '../core/zod-form-errors';
-import { FormSubmit } from '../shared/form-submit';
+import { FORM_DIALOG_IMPORTS } from '../shared/dialog-actions';
+import { dialogData, DialogSubmit } from '../shared/dialog-submit';
 import { AdminService } from './admin-service';
 
 /** Create a lab (data null) or edit one. */
 @Component({
   selector: 'app-lab-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatSelectModule,
-    MatButtonModule,
-  ],
+  imports: [FORM_DIALOG_IMPORTS, MatSelectModule],
   templateUrl: './lab-dialog.html',
 })
 export class LabDialog {
-  protected readonly lab = inject<Organisation | null>(MAT_DIALOG_DATA);
-  private readonly dialogRef = inject<MatDialogRef<LabDialog, Organisation>>(MatDialogRef);
+  protected readonly lab = dialogData<Organisation | null>();
   private readonly admin = inject(AdminService);
   protected readonly errorMessage = errorMessage;
   protected readonly form = inject(NonNullableFormBuilder).group({
@@ -45,7 +29,7 @@ export class LabDialog {
       [(c: AbstractControl) => (c.value ? zodValidator(Email)(c) : null)],
     ],
   });
-  protected readonly submit = new FormSubmit(this.form);
+  protected readonly submit = new DialogSubmit<Organisation>(this.form);
 
   protected save(): void {
     const raw = this.form.getRawValue();
@@ -58,6 +42,6 @@ export class LabDialog {
     const call: Observable<Organisation> = this.lab
       ? this.admin.updateOrganisation(this.lab.id, lab)
       : this.admin.createOrganisation(lab);
-    this.submit.run(call, (saved) => this.dialogRef.close(saved));
+    this.submit.runAndClose(call);
   }
 }

@@ -1,4 +1,3 @@
-import { HttpErrorResponse } from '@angular/common/http';
 import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
@@ -6,9 +5,9 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { PasswordResetRequest } from '@ringlet/shared/contracts/auth';
-import { fieldIssuesOf, problemMessage } from '../core/problem';
 import { AuthService } from '../core/auth-service';
-import { applyServerIssues, errorMessage, parseForm, zodValidator } from '../core/zod-form-errors';
+import { errorMessage, zodValidator } from '../core/zod-form-errors';
+import { FormSubmit } from '../shared/form-submit';
 
 @Component({
   selector: 'app-forgot-password',
@@ -30,11 +29,11 @@ import { applyServerIssues, errorMessage, parseForm, zodValidator } from '../cor
             <input matInput formControlName="email" type="email" autocomplete="username" required />
             <mat-error>{{ errorMessage(form.controls.email) }}</mat-error>
           </mat-form-field>
-          @if (failure(); as message) {
+          @if (submission.failure(); as message) {
             <p class="form-error" role="alert">{{ message }}</p>
           }
           <div class="actions">
-            <button mat-flat-button type="submit" [disabled]="busy()">Send link</button>
+            <button mat-flat-button type="submit" [disabled]="submission.busy()">Send link</button>
             <a routerLink="/sign-in">Back to sign in</a>
           </div>
         </form>
@@ -49,29 +48,15 @@ export class ForgotPassword {
     email: ['', [Validators.required, zodValidator(PasswordResetRequest.shape.email)]],
   });
   protected readonly sent = signal(false);
-  protected readonly busy = signal(false);
-  protected readonly failure = signal<string | null>(null);
+  protected readonly submission = new FormSubmit(this.form);
   protected readonly errorMessage = errorMessage;
 
   protected submit(): void {
-    this.failure.set(null);
-    const { value } = parseForm(this.form, PasswordResetRequest);
-    if (!value) return;
-    this.busy.set(true);
-    this.auth.requestPasswordReset(value.email).subscribe({
-      next: () => {
-        this.busy.set(false);
-        this.sent.set(true);
-      },
-      error: (error: unknown) => {
-        this.busy.set(false);
-        if (error instanceof HttpErrorResponse && error.status === 400) {
-          const unplaced = applyServerIssues(this.form, fieldIssuesOf(error));
-          if (unplaced.length) this.failure.set(unplaced.join(' '));
-        } else {
-          this.failure.set(problemMessage(error));
-        }
-      },
-    });
+    this.submission.submit(
+      PasswordResetRequest,
+      this.form.getRawValue(),
+      (request) => this.auth.requestPasswordReset(request.email),
+      () => this.sent.set(true),
+    );
   }
 }

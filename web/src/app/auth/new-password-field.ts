@@ -1,9 +1,8 @@
 import { ChangeDetectionStrategy, Component, input } from '@angular/core';
-import { type FormControl, ReactiveFormsModule, Validators } from '@angular/forms';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
+import { type FormControl, Validators } from '@angular/forms';
 import { NewPassword } from '@ringlet/shared/contracts/common';
-import { errorMessage, zodValidator } from '../core/zod-form-errors';
+import { zodValidator } from '../core/zod-form-errors';
+import { PasswordField } from '../shared/password-field';
 
 /** Validators of a new password: required and the shared rule (`NewPassword`). */
 export const NEW_PASSWORD_VALIDATORS = [Validators.required, zodValidator(NewPassword)];
@@ -15,24 +14,17 @@ export const NEW_PASSWORD_VALIDATORS = [Validators.required, zodValidator(NewPas
 @Component({
   selector: 'app-new-password-field',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [ReactiveFormsModule, MatFormFieldModule, MatInputModule],
+  imports: [PasswordField],
   host: { style: 'display: contents' },
   template: `
-    <mat-form-field>
-      <mat-label>New password</mat-label>
-      <input
-        matInput
-        [formControl]="control()"
-        type="password"
-        autocomplete="new-password"
-        required
-      />
-      <mat-hint>At least 12 characters.</mat-hint>
-      <mat-error>{{ errorMessage(control()) }}</mat-error>
-    </mat-form-field>
+    <app-password-field
+      label="New password"
+      autocomplete="new-password"
+      hint="At least 12 characters."
+      [control]="control()"
+    />
   `,
 })
 export class NewPasswordField {
   readonly control = input.required<FormControl<string>>();
-  protected readonly errorMessage = errorMessage;
 }

@@ -15,13 +15,12 @@ import {
   Validators,
 } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
 import { type PasswordTokenInfo, SetPasswordRequest } from '@ringlet/shared/contracts/auth';
-import { fieldIssuesOf, problemMessage } from '../core/problem';
+import { tap } from 'rxjs';
 import { AuthService } from '../core/auth-service';
-import { applyServerIssues, errorMessage } from '../core/zod-form-errors';
+import { FormSubmit } from '../shared/form-submit';
+import { PasswordField } from '../shared/password-field';
 import { NEW_PASSWORD_VALIDATORS, NewPasswordField } from './new-password-field';
 
 function passwordsMatch(group: AbstractControl): ValidationErrors | null {
@@ -40,14 +39,7 @@ function passwordsMatch(group: AbstractControl): ValidationErrors | null {
 @Component({
   selector: 'app-set-password',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    RouterLink,
-    MatFormFieldModule,
-    MatInputModule,
-    MatButtonModule,
-    NewPasswordField,
-  ],
+  imports: [ReactiveFormsModule, RouterLink, MatButtonModule, NewPasswordField, PasswordField],
   template: `
     <section class="card">
       <h1 data-testid="page-heading">
@@ -71,22 +63,18 @@ function passwordsMatch(group: AbstractControl): ValidationErrors | null {
           </p>
           <form [formGroup]="form" (ngSubmit)="submit()" novalidate class="form-stack">
             <app-new-password-field [control]="form.controls.password" />
-            <mat-form-field>
-              <mat-label>Confirm password</mat-label>
-              <input
-                matInput
-                formControlName="confirm"
-                type="password"
-                autocomplete="new-password"
-                required
-              />
-              <mat-error>{{ errorMessage(form.controls.confirm) }}</mat-error>
-            </mat-form-field>
-            @if (failure(); as message) {
+            <app-password-field
+              label="Confirm password"
+              autocomplete="new-password"
+              [control]="form.controls.confirm"
+            />
+            @if (submission.failure(); as message) {
               <p class="form-error" role="alert">{{ message }}</p>
             }
             <div class="actions">
-              <button mat-flat-button type="submit" [disabled]="busy()">Save password</button>
+              <button mat-flat-button type="submit" [disabled]="submission.busy()">
+                Save password
+              </button>
             </div>
           </form>
         }
@@ -103,9 +91,6 @@ export class SetPassword implements OnInit {
 
   protected readonly info = signal<PasswordTokenInfo | null>(null);
   protected readonly state = signal<'loading' | 'invalid' | 'ready' | 'done'>('loading');
-  protected readonly busy = signal(false);
-  protected readonly failure = signal<string | null>(null);
-  protected readonly errorMessage = errorMessage;
   protected readonly form = inject(NonNullableFormBuilder).group(
     {
       password: ['', NEW_PASSWORD_VALIDATORS],
@@ -113,6 +98,7 @@ export class SetPassword implements OnInit {
     },
     { validators: passwordsMatch },
   );
+  protected readonly submission = new FormSubmit(this.form);
 
   ngOnInit(): void {
     this.auth.passwordTokenInfo(this.token()).subscribe({
@@ -125,37 +111,23 @@ export class SetPassword implements OnInit {
   }
 
   protected submit(): void {
-    this.failure.set(null);
     this.form.markAllAsTouched();
     if (this.form.invalid) return;
-    const request = SetPasswordRequest.safeParse({
-      token: this.token(),
-      password: this.form.controls.password.value,
-    });
-    if (!request.success) {
-      this.failure.set(request.error.issues[0]?.message ?? 'Check the password.');
-      return;
-    }
-    this.busy.set(true);
-    this.auth.setPassword(request.data).subscribe({
-      next: () => {
-        this.busy.set(false);
-        this.state.set('done');
-      },
-      error: (error: unknown) => {
-        this.busy.set(false);
-        if (error instanceof HttpErrorResponse && error.status === 400) {
-          const unplaced = applyServerIssues(this.form, fieldIssuesOf(error));
-          if (unplaced.length) this.failure.set(unplaced.join(' '));
-        } else if (
-          error instanceof HttpErrorResponse &&
-          (error.status === 404 || error.status === 410)
-        ) {
-          this.state.set('invalid');
-        } else {
-          this.failure.set(problemMessage(error));
-        }
-      },
-    });
+    const candidate = { token: this.token(), password: this.form.controls.password.value };
+    const linkGone = (error: unknown) =>
+      error instanceof HttpErrorResponse && (error.status === 404 || error.status === 410);
+    this.submission.submit(
+      SetPasswordRequest,
+      candidate,
+      (request) =>
+        this.auth.setPassword(request).pipe(
+          tap({
+            error: (error: unknown) => {
+              if (linkGone(error)) this.state.set('invalid');
+            },
+          }),
+        ),
+      () => this.state.set('done'),
+    );
   }
 }

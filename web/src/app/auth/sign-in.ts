@@ -1,20 +1,28 @@
 import { HttpErrorResponse } from '@angular/common/http';
-import { ChangeDetectionStrategy, Component, inject, input, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, input } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { Router, RouterLink } from '@angular/router';
 import { homePath, SignInRequest } from '@ringlet/shared/contracts/auth';
-import { fieldIssuesOf, problemMessage, problemOf } from '../core/problem';
+import { problemMessage, problemOf } from '../core/problem';
 import { AuthService } from '../core/auth-service';
-import { applyServerIssues, errorMessage, parseForm, zodValidator } from '../core/zod-form-errors';
+import { errorMessage, zodValidator } from '../core/zod-form-errors';
+import { FormSubmit } from '../shared/form-submit';
 
 /** A return address is only followed if it stays inside the app. */
 export function safeReturnUrl(url: string | undefined | null): string | null {
   if (!url || !url.startsWith('/') || url.startsWith('//') || url.startsWith('/\\')) return null;
   if (url.startsWith('/sign-in')) return null;
   return url;
+}
+
+/** A refused sign-in in plain words: wrong credentials (401) or the server's message. */
+function signInRefusal(error: unknown): string {
+  if (error instanceof HttpErrorResponse && error.status === 401)
+    return problemOf(error)?.message ?? 'E-mail or password is incorrect.';
+  return problemMessage(error);
 }
 
 @Component({
@@ -57,11 +65,16 @@ export function safeReturnUrl(url: string | undefined | null): string | null {
           />
           <mat-error>{{ errorMessage(form.controls.password) }}</mat-error>
         </mat-form-field>
-        @if (failure(); as message) {
+        @if (submission.failure(); as message) {
           <p class="form-error" role="alert" data-testid="sign-in-error">{{ message }}</p>
         }
         <div class="actions">
-          <button mat-flat-button type="submit" data-testid="sign-in-submit" [disabled]="busy()">
+          <button
+            mat-flat-button
+            type="submit"
+            data-testid="sign-in-submit"
+            [disabled]="submission.busy()"
+          >
             Sign in
           </button>
           <a routerLink="/forgot-password">Forgot password?</a>
@@ -82,41 +95,15 @@ export class SignIn {
     email: ['', [Validators.required, zodValidator(SignInRequest.shape.email)]],
     password: ['', [Validators.required]],
   });
-  protected readonly failure = signal<string | null>(null);
-  protected readonly busy = signal(false);
+  protected readonly submission = new FormSubmit(this.form, { refusal: signInRefusal });
   protected readonly errorMessage = errorMessage;
 
   protected submit(): void {
-    this.failure.set(null);
-    const { value, unplaced } = parseForm(this.form, SignInRequest);
-    if (!value) {
-      if (unplaced.length) this.failure.set(unplaced.join(' '));
-      return;
-    }
-    this.busy.set(true);
-    this.auth.signIn(value).subscribe({
-      next: (me) => {
-        this.busy.set(false);
-        void this.router.navigateByUrl(safeReturnUrl(this.returnUrl()) ?? homePath(me.roles));
-      },
-      error: (error: unknown) => {
-        this.busy.set(false);
-        this.failure.set(this.describe(error));
-      },
-    });
-  }
-
-  private describe(error: unknown): string {
-    if (error instanceof HttpErrorResponse) {
-      if (error.status === 400) {
-        const unplaced = applyServerIssues(this.form, fieldIssuesOf(error));
-        return unplaced.length
-          ? unplaced.join(' ')
-          : (problemOf(error)?.message ?? 'Check the fields below.');
-      }
-      if (error.status === 401)
-        return problemOf(error)?.message ?? 'E-mail or password is incorrect.';
-    }
-    return problemMessage(error);
+    this.submission.submit(
+      SignInRequest,
+      this.form.getRawValue(),
+      (request) => this.auth.signIn(request),
+      (me) => void this.router.navigateByUrl(safeReturnUrl(this.returnUrl()) ?? homePath(me.roles)),
+    );
   }
 }

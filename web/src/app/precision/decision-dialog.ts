@@ -1,9 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
+import { NonNullableFormBuilder, Validators } from '@angular/forms';
 import { MatRadioModule } from '@angular/material/radio';
 import { MatSelectModule } from '@angular/material/select';
 import {
@@ -15,7 +11,8 @@ import {
 } from '@ringlet/shared/contracts/precision';
 import type * as z from 'zod';
 import { errorMessage } from '../core/zod-form-errors';
-import { FormSubmit } from '../shared/form-submit';
+import { FORM_DIALOG_IMPORTS } from '../shared/dialog-actions';
+import { dialogData, DialogSubmit } from '../shared/dialog-submit';
 import { ClassBadge } from './class-badge';
 import { testNames, type PendingCell } from './precision-view';
 
@@ -35,16 +32,7 @@ export type DecisionResult = z.output<typeof PrecisionDecisionInput>;
 @Component({
   selector: 'app-precision-decision-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatRadioModule,
-    MatSelectModule,
-    MatButtonModule,
-    ClassBadge,
-  ],
+  imports: [FORM_DIALOG_IMPORTS, MatRadioModule, MatSelectModule, ClassBadge],
   templateUrl: './decision-dialog.html',
   styles: `
     .choices {
@@ -55,8 +43,7 @@ export type DecisionResult = z.output<typeof PrecisionDecisionInput>;
   `,
 })
 export class DecisionDialog {
-  protected readonly data = inject<DecisionDialogData>(MAT_DIALOG_DATA);
-  private readonly ref = inject<MatDialogRef<DecisionDialog, DecisionResult>>(MatDialogRef);
+  protected readonly data = dialogData<DecisionDialogData>();
   protected readonly errorMessage = errorMessage;
   protected readonly kinds = PRECISION_EXCLUSION_KINDS.map((k) => ({
     value: k,
@@ -69,7 +56,7 @@ export class DecisionDialog {
     kind: [this.data.cell.classification as PrecisionExclusionKind],
     reason: ['', Validators.required],
   });
-  protected readonly submit = new FormSubmit(this.form);
+  protected readonly submit = new DialogSubmit<DecisionResult>(this.form);
 
   protected save(): void {
     const v = this.form.getRawValue();
@@ -83,6 +70,6 @@ export class DecisionDialog {
       decision: v.decision,
       reason: v.reason,
     });
-    if (value) this.ref.close(value);
+    if (value) this.submit.close(value);
   }
 }

@@ -1,9 +1,9 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
+import { MatDialogModule } from '@angular/material/dialog';
 import type { PrecisionAnalysis } from '@ringlet/shared/contracts/precision';
 import { problemMessage, problemOf } from '../core/problem';
-import { FormSubmit } from '../shared/form-submit';
+import { dialogData, DialogSubmit } from '../shared/dialog-submit';
 import { PrecisionService } from './precision-service';
 
 export interface FinishDialogData {
@@ -56,12 +56,11 @@ export function finishRefusal(error: unknown): string {
   `,
 })
 export class FinishDialog {
-  private readonly data = inject<FinishDialogData>(MAT_DIALOG_DATA);
-  private readonly ref = inject<MatDialogRef<FinishDialog, PrecisionAnalysis>>(MatDialogRef);
+  private readonly data = dialogData<FinishDialogData>();
   private readonly service = inject(PrecisionService);
-  protected readonly submit = new FormSubmit(null, { refusal: finishRefusal });
+  protected readonly submit = new DialogSubmit<PrecisionAnalysis>(null, { refusal: finishRefusal });
 
   protected finish(): void {
-    this.submit.run(this.service.finish(this.data.roundId), (a) => this.ref.close(a));
+    this.submit.runAndClose(this.service.finish(this.data.roundId));
   }
 }

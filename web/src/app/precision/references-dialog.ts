@@ -1,15 +1,12 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
+import { NonNullableFormBuilder } from '@angular/forms';
 import {
   PrecisionReferencesBody,
   type PrecisionAnalysis,
 } from '@ringlet/shared/contracts/precision';
 import { errorMessage } from '../core/zod-form-errors';
-import { FormSubmit } from '../shared/form-submit';
+import { FORM_DIALOG_IMPORTS } from '../shared/dialog-actions';
+import { dialogData, DialogSubmit } from '../shared/dialog-submit';
 import { PrecisionService } from './precision-service';
 
 export interface ReferencesDialogData {
@@ -33,13 +30,7 @@ interface Row {
 @Component({
   selector: 'app-precision-references-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatButtonModule,
-  ],
+  imports: [FORM_DIALOG_IMPORTS],
   templateUrl: './references-dialog.html',
   styles: `
     .reference-row {
@@ -56,8 +47,7 @@ interface Row {
   `,
 })
 export class ReferencesDialog {
-  protected readonly data = inject<ReferencesDialogData>(MAT_DIALOG_DATA);
-  private readonly ref = inject<MatDialogRef<ReferencesDialog, PrecisionAnalysis>>(MatDialogRef);
+  protected readonly data = dialogData<ReferencesDialogData>();
   private readonly service = inject(PrecisionService);
   private readonly fb = inject(NonNullableFormBuilder);
   protected readonly errorMessage = errorMessage;
@@ -85,7 +75,7 @@ export class ReferencesDialog {
   });
   /** The form rows of the filled references, in the order they are sent. */
   private filled: number[] = [];
-  protected readonly submit = new FormSubmit(this.form, {
+  protected readonly submit = new DialogSubmit<PrecisionAnalysis>(this.form, {
     // the contract's "references.3.value" is the form's "rows.<row of the 4th filled one>.value"
     map: (path) =>
       path.replace(/^references\.(\d+)/, (_, k: string) => `rows.${this.filled[Number(k)] ?? k}`),
@@ -105,8 +95,8 @@ export class ReferencesDialog {
       return [{ itemCode: r.itemCode, measurandKey: r.measurandKey, ...v }];
     });
     this.filled = filled;
-    const body = this.submit.parse(PrecisionReferencesBody, { references });
-    if (body)
-      this.submit.run(this.service.references(this.data.roundId, body), (a) => this.ref.close(a));
+    this.submit.submitAndClose(PrecisionReferencesBody, { references }, (body) =>
+      this.service.references(this.data.roundId, body),
+    );
   }
 }

@@ -1,9 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
-import { NonNullableFormBuilder, ReactiveFormsModule, Validators } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule, MatDialogRef } from '@angular/material/dialog';
-import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatInputModule } from '@angular/material/input';
+import { NonNullableFormBuilder, Validators } from '@angular/forms';
 import {
   PRECISION_DECISION_LABELS,
   PrecisionWithdrawBody,
@@ -11,7 +7,8 @@ import {
   type PrecisionExclusion,
 } from '@ringlet/shared/contracts/precision';
 import { errorMessage } from '../core/zod-form-errors';
-import { FormSubmit } from '../shared/form-submit';
+import { FORM_DIALOG_IMPORTS } from '../shared/dialog-actions';
+import { dialogData, DialogSubmit } from '../shared/dialog-submit';
 import { PrecisionService } from './precision-service';
 
 export interface WithdrawDialogData {
@@ -26,31 +23,23 @@ export interface WithdrawDialogData {
 @Component({
   selector: 'app-precision-withdraw-dialog',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [
-    ReactiveFormsModule,
-    MatDialogModule,
-    MatFormFieldModule,
-    MatInputModule,
-    MatButtonModule,
-  ],
+  imports: [FORM_DIALOG_IMPORTS],
   templateUrl: './withdraw-dialog.html',
 })
 export class WithdrawDialog {
-  protected readonly data = inject<WithdrawDialogData>(MAT_DIALOG_DATA);
-  private readonly ref = inject<MatDialogRef<WithdrawDialog, PrecisionAnalysis>>(MatDialogRef);
+  protected readonly data = dialogData<WithdrawDialogData>();
   private readonly service = inject(PrecisionService);
   protected readonly errorMessage = errorMessage;
   protected readonly decisionLabel = PRECISION_DECISION_LABELS[this.data.decision.decision];
   protected readonly form = inject(NonNullableFormBuilder).group({
     reason: ['', Validators.required],
   });
-  protected readonly submit = new FormSubmit(this.form);
+  protected readonly submit = new DialogSubmit<PrecisionAnalysis>(this.form);
 
   protected save(): void {
-    const body = this.submit.parse(PrecisionWithdrawBody, this.form.getRawValue());
-    if (body)
-      this.submit.run(this.service.withdraw(this.data.roundId, this.data.decision.id, body), (a) =>
-        this.ref.close(a),
-      );
+    const { roundId, decision } = this.data;
+    this.submit.submitAndClose(PrecisionWithdrawBody, this.form.getRawValue(), (body) =>
+      this.service.withdraw(roundId, decision.id, body),
+    );
   }
 }

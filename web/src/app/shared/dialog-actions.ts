@@ -16,7 +16,9 @@ import type { FormSubmit } from './form-submit';
   imports: [MatDialogModule, MatButtonModule],
   template: `
     @if (submission().failure(); as message) {
-      <p class="form-error" role="alert">{{ message }}</p>
+      <p class="form-error" role="alert" [attr.data-testid]="errorTestId() || null">
+        {{ message }}
+      </p>
     }
     <mat-dialog-actions align="end">
       <button mat-button type="button" mat-dialog-close>Cancel</button>
@@ -44,7 +46,10 @@ export class DialogActions {
   readonly label = input.required<string>();
   /** The form's submit state (busy, and the message above the buttons). */
   readonly submission = input.required<FormSubmit>();
+  /** The submit button's test id. */
   readonly testId = input('');
+  /** The message's test id. */
+  readonly errorTestId = input('');
 }
 
 /**

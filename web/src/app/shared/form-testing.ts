@@ -1,4 +1,8 @@
 import type { HarnessLoader } from '@angular/cdk/testing';
+import { TestbedHarnessEnvironment } from '@angular/cdk/testing/testbed';
+import type { Type } from '@angular/core';
+import { TestBed } from '@angular/core/testing';
+import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { HttpErrorResponse } from '@angular/common/http';
 import { MatButtonHarness } from '@angular/material/button/testing';
 import { MatFormFieldHarness } from '@angular/material/form-field/testing';
@@ -24,4 +28,14 @@ export function formFields(loader: HarnessLoader) {
     press: async (text: string) =>
       (await loader.getHarness(MatButtonHarness.with({ text }))).click(),
   };
+}
+
+/** A spec's host component, rendered and settled with animations off, and its harness loader. */
+export async function renderHost<T>(host: Type<T>) {
+  TestBed.configureTestingModule({
+    providers: [{ provide: MATERIAL_ANIMATIONS, useValue: { animationsDisabled: true } }],
+  });
+  const fixture = TestBed.createComponent(host);
+  await fixture.whenStable();
+  return { fixture, loader: TestbedHarnessEnvironment.loader(fixture) };
 }

@@ -1,19 +1,12 @@
-import {
-  ChangeDetectionStrategy,
-  Component,
-  inject,
-  output,
-  signal,
-  type OnInit,
-} from '@angular/core';
+import { ChangeDetectionStrategy, Component, inject, output, type OnInit } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatInputModule } from '@angular/material/input';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { BillingDetailsInput } from '@ringlet/shared/contracts/billing';
-import { problemMessage } from '../../core/problem';
-import { errorMessage, parseForm } from '../../core/zod-form-errors';
+import { errorMessage } from '../../core/zod-form-errors';
+import { FormSubmit } from '../../shared/form-submit';
 import { BillingService } from '../billing-service';
 
 /** The lab manager's billing details, printed on the lab's invoices. */
@@ -30,13 +23,13 @@ export class BillingDetails implements OnInit {
   /** The details were saved (unpaid invoices now print them). */
   readonly saved = output<void>();
   protected readonly errorMessage = errorMessage;
-  protected readonly busy = signal(false);
   protected readonly form = inject(NonNullableFormBuilder).group({
     billingName: [''],
     address: [''],
     taxId: [''],
     poNumber: [''],
   });
+  protected readonly submission = new FormSubmit(this.form);
 
   ngOnInit(): void {
     this.api.details().subscribe({
@@ -52,19 +45,14 @@ export class BillingDetails implements OnInit {
   }
 
   protected saveDetails(): void {
-    const { value } = parseForm(this.form, BillingDetailsInput);
-    if (!value) return;
-    this.busy.set(true);
-    this.api.saveDetails(value).subscribe({
-      next: () => {
-        this.busy.set(false);
+    this.submission.submit(
+      BillingDetailsInput,
+      this.form.getRawValue(),
+      (details) => this.api.saveDetails(details),
+      () => {
         this.snack.open('Billing details saved.', 'Close', { duration: 4000 });
         this.saved.emit();
       },
-      error: (err: unknown) => {
-        this.busy.set(false);
-        this.snack.open(problemMessage(err), 'Close', { duration: 8000 });
-      },
-    });
+    );
   }
 }

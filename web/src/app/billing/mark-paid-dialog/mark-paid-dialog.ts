@@ -1,9 +1,9 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder } from '@angular/forms';
-import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { BankTransferInput } from '@ringlet/shared/contracts/billing';
-import { errorMessage, parseForm } from '../../core/zod-form-errors';
+import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
+import { dialogData, DialogSubmit } from '../../shared/dialog-submit';
 
 /** The ledger row a ledger dialog is about. */
 export interface LedgerDialogData {
@@ -19,16 +19,16 @@ export interface LedgerDialogData {
   templateUrl: './mark-paid-dialog.html',
 })
 export class MarkPaidDialog {
-  protected readonly data = inject<LedgerDialogData>(MAT_DIALOG_DATA);
-  private readonly ref = inject(MatDialogRef<MarkPaidDialog, BankTransferInput>);
+  protected readonly data = dialogData<LedgerDialogData>();
   protected readonly errorMessage = errorMessage;
   protected readonly form = inject(NonNullableFormBuilder).group({
     reference: [''],
     paidOn: [new Date().toISOString().slice(0, 10)],
   });
+  protected readonly submission = new DialogSubmit<BankTransferInput>(this.form);
 
   protected save(): void {
-    const { value } = parseForm(this.form, BankTransferInput);
-    if (value) this.ref.close(value);
+    const value = this.submission.parse(BankTransferInput, this.form.getRawValue());
+    if (value) this.submission.close(value);
   }
 }

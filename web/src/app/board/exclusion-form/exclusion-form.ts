@@ -1,8 +1,6 @@
-import { ChangeDetectionStrategy, Component, effect, inject, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output } from '@angular/core';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import {
@@ -11,6 +9,8 @@ import {
   Exclusion,
   type EvaluationView,
 } from '@ringlet/shared/contracts/evaluation';
+import { EntryListForm } from '../../shared/entry-list-form';
+import { ItemSelect, MeasurandSelect, measurandName } from '../../shared/round-part-selects';
 import { firstIssue } from '../evaluation-page/evaluation-logic';
 
 /** Excluding one participant's result from the assigned value (rule and reason), and those excluded. */
@@ -19,14 +19,14 @@ import { firstIssue } from '../evaluation-page/evaluation-logic';
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     ReactiveFormsModule,
-    MatButtonModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     MatSelectModule,
+    EntryListForm,
+    ItemSelect,
+    MeasurandSelect,
   ],
   templateUrl: './exclusion-form.html',
-  styleUrl: '../board.scss',
 })
 export class ExclusionForm {
   readonly view = input.required<Pick<EvaluationView, 'measurands' | 'items'>>();
@@ -46,19 +46,12 @@ export class ExclusionForm {
     rule: ['confirmed-blunder' as Exclusion['rule']],
     reason: [''],
   });
-
-  constructor() {
-    effect(() => {
-      const v = this.view();
-      const c = this.form.controls;
-      if (!c.measurandKey.value && v.measurands[0]) c.measurandKey.setValue(v.measurands[0].key);
-      if (!c.itemCode.value && v.items[0]) c.itemCode.setValue(v.items[0].code);
-    });
-  }
-
-  protected measurandName(key: string): string {
-    return this.view().measurands.find((m) => m.key === key)?.name ?? key;
-  }
+  protected readonly entries = computed(() =>
+    this.exclusions().map((x) => ({
+      text: `${x.participantCode} · ${x.itemCode} · ${measurandName(this.view().measurands, x.measurandKey)}: ${this.labels[x.rule]} — ${x.reason}`,
+      removeLabel: `Remove exclusion of ${x.participantCode}`,
+    })),
+  );
 
   protected add(): void {
     const v = this.form.getRawValue();

@@ -1,13 +1,13 @@
 import { sigmaPtRuleText } from '@ringlet/shared/contracts/rule-text';
-import { ChangeDetectionStrategy, Component, effect, inject, input, output } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, input, output } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
-import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
-import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { MatSelectModule } from '@angular/material/select';
 import { type EvaluationView, SigmaPtOverride } from '@ringlet/shared/contracts/evaluation';
+import { EntryListForm } from '../../shared/entry-list-form';
+import { ItemSelect, MeasurandSelect, measurandName } from '../../shared/round-part-selects';
 import { firstIssue, overrideRule } from '../evaluation-page/evaluation-logic';
 
 type OverrideKind = 'robust-sd' | 'percent' | 'fixed';
@@ -18,14 +18,14 @@ type OverrideKind = 'robust-sd' | 'percent' | 'fixed';
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [
     ReactiveFormsModule,
-    MatButtonModule,
     MatFormFieldModule,
-    MatIconModule,
     MatInputModule,
     MatSelectModule,
+    EntryListForm,
+    ItemSelect,
+    MeasurandSelect,
   ],
   templateUrl: './sigma-override-form.html',
-  styleUrl: '../board.scss',
 })
 export class SigmaOverrideForm {
   readonly view = input.required<Pick<EvaluationView, 'measurands' | 'items'>>();
@@ -36,7 +36,6 @@ export class SigmaOverrideForm {
   readonly removed = output<number>();
   /** Why the rule was refused (null when it was taken). */
   readonly failed = output<string | null>();
-  protected readonly rule = sigmaPtRuleText;
   protected readonly form = inject(NonNullableFormBuilder).group({
     measurandKey: [''],
     itemCode: [null as string | null],
@@ -47,18 +46,15 @@ export class SigmaOverrideForm {
   protected readonly kind = toSignal(this.form.controls.kind.valueChanges, {
     initialValue: this.form.controls.kind.value,
   });
-
-  constructor() {
-    effect(() => {
-      const first = this.view().measurands[0]?.key;
-      const c = this.form.controls.measurandKey;
-      if (!c.value && first) c.setValue(first);
-    });
-  }
-
-  protected measurandName(key: string): string {
-    return this.view().measurands.find((m) => m.key === key)?.name ?? key;
-  }
+  protected readonly entries = computed(() =>
+    this.overrides().map((o) => {
+      const name = measurandName(this.view().measurands, o.measurandKey);
+      return {
+        text: `${name} · ${o.itemCode ?? 'every item'}: ${sigmaPtRuleText(o.rule)} — ${o.reason}`,
+        removeLabel: `Remove σ_pt rule for ${name}`,
+      };
+    }),
+  );
 
   protected add(): void {
     const v = this.form.getRawValue();

@@ -1,10 +1,10 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder } from '@angular/forms';
-import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { type TestItem, TestItemInput, TestItemUpdate } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { FormSubmit, pathMap } from '../../shared/form-submit';
+import { dialogData, DialogSubmit } from '../../shared/dialog-submit';
+import { pathMap } from '../../shared/form-submit';
 import { RoundsService } from '../rounds-service';
 import { testItemFromForm, testItemGroup } from './test-item-form';
 
@@ -23,18 +23,17 @@ export interface ItemDialogData {
   styleUrl: '../round-form/round-form.scss',
 })
 export class ItemDialog {
-  protected readonly data = inject<ItemDialogData>(MAT_DIALOG_DATA);
+  protected readonly data = dialogData<ItemDialogData>();
   private readonly api = inject(RoundsService);
-  private readonly ref = inject<MatDialogRef<ItemDialog, true>>(MatDialogRef);
   protected readonly errorMessage = errorMessage;
   protected readonly form = testItemGroup(inject(NonNullableFormBuilder), this.data.item);
   /** Adding goes through the batch route, whose paths start with items.0. */
-  protected readonly submission = new FormSubmit(this.form, { map: pathMap('items.0.') });
+  protected readonly submission = new DialogSubmit<true>(this.form, { map: pathMap('items.0.') });
 
   protected submit(): void {
     const candidate = testItemFromForm(this.form.getRawValue());
     const { roundId, item } = this.data;
-    const saved = () => this.ref.close(true);
+    const saved = () => this.submission.close(true);
     if (item) {
       this.submission.submit(
         TestItemUpdate,

@@ -1,11 +1,11 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder } from '@angular/forms';
-import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { MatSelectModule } from '@angular/material/select';
 import { type Measurand, MeasurandInput, MeasurandUpdate } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { FormSubmit, pathMap } from '../../shared/form-submit';
+import { dialogData, DialogSubmit } from '../../shared/dialog-submit';
+import { pathMap } from '../../shared/form-submit';
 import { numberOrNull } from '../../shared/form-values';
 import {
   ASSIGNED_VALUE_KIND_LABELS,
@@ -34,9 +34,8 @@ export interface MeasurandDialogData {
   styleUrl: './measurand-form.scss',
 })
 export class MeasurandDialog {
-  protected readonly data = inject<MeasurandDialogData>(MAT_DIALOG_DATA);
+  protected readonly data = dialogData<MeasurandDialogData>();
   private readonly api = inject(RoundsService);
-  private readonly ref = inject<MatDialogRef<MeasurandDialog, true>>(MatDialogRef);
   private readonly fb = inject(NonNullableFormBuilder);
   protected readonly errorMessage = errorMessage;
   protected readonly assignedKinds = Object.entries(ASSIGNED_VALUE_KIND_LABELS);
@@ -61,7 +60,9 @@ export class MeasurandDialog {
     this.m?.sigmaPtRule,
   );
   /** Adding goes through the batch route, whose paths start with measurands.0. */
-  protected readonly submission = new FormSubmit(this.form, { map: pathMap('measurands.0.') });
+  protected readonly submission = new DialogSubmit<true>(this.form, {
+    map: pathMap('measurands.0.'),
+  });
 
   protected submit(): void {
     const raw = this.form.getRawValue();
@@ -76,7 +77,7 @@ export class MeasurandDialog {
       assignedValueRule: assignedRuleFromForm(raw.assignedValueRule),
     };
     const { roundId, measurand } = this.data;
-    const saved = () => this.ref.close(true);
+    const saved = () => this.submission.close(true);
     if (measurand) {
       const update = (v: MeasurandUpdate) => this.api.updateMeasurand(roundId, measurand.id, v);
       this.submission.submit(MeasurandUpdate, candidate, update, saved);

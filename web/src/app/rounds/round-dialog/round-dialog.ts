@@ -1,7 +1,6 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import { MatIconModule } from '@angular/material/icon';
 import { MatSelectModule } from '@angular/material/select';
 import {
@@ -13,7 +12,7 @@ import {
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { FormSubmit } from '../../shared/form-submit';
+import { dialogData, DialogSubmit } from '../../shared/dialog-submit';
 import { testItemFromForm, testItemGroup } from '../item-dialog/test-item-form';
 import {
   NEW_ROUND_TERMS,
@@ -37,9 +36,8 @@ export interface RoundDialogData {
   styleUrls: ['../round-form/round-form.scss', './round-dialog.scss'],
 })
 export class RoundDialog {
-  protected readonly data = inject<RoundDialogData>(MAT_DIALOG_DATA);
+  protected readonly data = dialogData<RoundDialogData>();
   private readonly api = inject(RoundsService);
-  private readonly ref = inject<MatDialogRef<RoundDialog, string>>(MatDialogRef);
   private readonly fb = inject(NonNullableFormBuilder);
   protected readonly errorMessage = errorMessage;
   protected readonly kindLabels = ROUND_KIND_LABELS;
@@ -51,7 +49,7 @@ export class RoundDialog {
     instructions: [DEFAULT_INSTRUCTIONS],
     items: this.fb.array([testItemGroup(this.fb)]),
   });
-  protected readonly submission = new FormSubmit(this.form, { map: ROUND_TERMS_PATHS });
+  protected readonly submission = new DialogSubmit<string>(this.form, { map: ROUND_TERMS_PATHS });
 
   protected addItem(): void {
     this.form.controls.items.push(testItemGroup(this.fb));
@@ -72,6 +70,6 @@ export class RoundDialog {
       items: raw.items.map(testItemFromForm),
     };
     const create = (v: RoundCreate) => this.api.createRound(v);
-    this.submission.submit(RoundCreate, candidate, create, (r) => this.ref.close(r.id));
+    this.submission.submit(RoundCreate, candidate, create, (r) => this.submission.close(r.id));
   }
 }

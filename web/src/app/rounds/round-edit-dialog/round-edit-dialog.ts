@@ -1,6 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder } from '@angular/forms';
-import { MAT_DIALOG_DATA, MatDialogRef } from '@angular/material/dialog';
 import {
   isFeeOpen,
   type RoundDetail,
@@ -10,7 +9,7 @@ import {
 import { withoutSafetyBlock } from '@ringlet/shared/contracts/safety';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { FormSubmit } from '../../shared/form-submit';
+import { dialogData, DialogSubmit } from '../../shared/dialog-submit';
 import {
   changedFields,
   composeInstructions,
@@ -44,9 +43,8 @@ import { RoundsService } from '../rounds-service';
   `,
 })
 export class RoundEditDialog {
-  protected readonly round = inject<RoundDetail>(MAT_DIALOG_DATA);
+  protected readonly round = dialogData<RoundDetail>();
   private readonly api = inject(RoundsService);
-  private readonly ref = inject<MatDialogRef<RoundEditDialog, RoundDetail>>(MatDialogRef);
   private readonly fb = inject(NonNullableFormBuilder);
   protected readonly errorMessage = errorMessage;
   protected readonly cautions = SAFETY_CAUTIONS;
@@ -55,7 +53,9 @@ export class RoundEditDialog {
     ...roundTermsControls(this.fb, roundTermsOf(this.round), this.feeOpen),
     instructions: [withoutSafetyBlock(this.round.instructions)],
   });
-  protected readonly submission = new FormSubmit(this.form, { map: ROUND_TERMS_PATHS });
+  protected readonly submission = new DialogSubmit<RoundDetail>(this.form, {
+    map: ROUND_TERMS_PATHS,
+  });
 
   protected submit(): void {
     const raw = this.form.getRawValue();
@@ -66,9 +66,9 @@ export class RoundEditDialog {
     if (!value) return;
     const changes = changedFields(this.round, value as Required<RoundUpdate>);
     if (!Object.keys(changes).length) {
-      this.ref.close();
+      this.submission.close();
       return;
     }
-    this.submission.run(this.api.updateRound(this.round.id, changes), (r) => this.ref.close(r));
+    this.submission.runAndClose(this.api.updateRound(this.round.id, changes));
   }
 }

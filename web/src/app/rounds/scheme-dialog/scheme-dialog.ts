@@ -1,6 +1,5 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { NonNullableFormBuilder } from '@angular/forms';
-import { MatDialogRef } from '@angular/material/dialog';
 import {
   DLS_DEFAULT_MEASURANDS,
   type Scheme,
@@ -8,7 +7,7 @@ import {
 } from '@ringlet/shared/contracts/rounds';
 import { errorMessage } from '../../core/zod-form-errors';
 import { FORM_DIALOG_IMPORTS } from '../../shared/dialog-actions';
-import { FormSubmit } from '../../shared/form-submit';
+import { DialogSubmit } from '../../shared/dialog-submit';
 import { RoundsService } from '../rounds-service';
 
 /** Create a PT scheme; new schemes measure the DLS defaults (Z-average and PDI). */
@@ -26,7 +25,6 @@ import { RoundsService } from '../rounds-service';
 })
 export class SchemeDialog {
   private readonly api = inject(RoundsService);
-  private readonly ref = inject<MatDialogRef<SchemeDialog, Scheme>>(MatDialogRef);
   protected readonly errorMessage = errorMessage;
   protected readonly defaults = DLS_DEFAULT_MEASURANDS;
   protected readonly form = inject(NonNullableFormBuilder).group({
@@ -35,10 +33,10 @@ export class SchemeDialog {
     description: [''],
     rules: [''],
   });
-  protected readonly submission = new FormSubmit(this.form);
+  protected readonly submission = new DialogSubmit<Scheme>(this.form);
 
   protected submit(): void {
     const create = (v: SchemeCreate) => this.api.createScheme(v);
-    this.submission.submit(SchemeCreate, this.form.getRawValue(), create, (s) => this.ref.close(s));
+    this.submission.submitAndClose(SchemeCreate, this.form.getRawValue(), create);
   }
 }

@@ -18,7 +18,7 @@ import {
   type AssessorRound,
 } from '../../../shared/contracts/reports';
 import type { SessionUser } from '../auth/session-user';
-import { notFound } from '../http/errors';
+import { notFound } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { grantedLabIds } from './grants';

@@ -18,8 +18,8 @@ import {
 import { REANALYSIS_DEFAULTS } from '../../../shared/contracts/bench';
 import { mean } from '../../../shared/stats/descriptive';
 import type { SessionUser } from '../auth/session-user';
-import { badRequest, conflict, HttpError, notFound } from '../http/errors';
-import { cleanFileName } from '../http/uploads';
+import { badRequest, conflict, ServiceError, notFound } from './errors';
+import { cleanFileName } from '../../../shared/files/file-name';
 import { classifyText, type TextJobResult } from '../workers/file-jobs';
 import { handOver, runInWorker } from '../workers/pool';
 import { listZipEntries } from '../workers/zip';
@@ -225,8 +225,6 @@ function dto(a: AttachmentRow, uploadedBy: string | null): AttachmentDto {
   };
 }
 
-export { cleanFileName };
-
 /** POST /rounds/{id}/submission/attachments: stores a raw-data file (bytes in PostgreSQL) with its checksum. */
 export async function uploadAttachment(
   ctx: AppContext,
@@ -243,14 +241,14 @@ export async function uploadAttachment(
       { path: 'file', message: 'Attach a file.' },
     ]);
   if (file.buffer.length > ATTACHMENT_LIMIT.maxBytes)
-    throw new HttpError(
+    throw new ServiceError(
       413,
       'file_too_large',
       `file: the limit is ${formatBytes(ATTACHMENT_LIMIT.maxBytes)} per file.`,
     );
   const { type, bytes, sha256 } = await inspectAttachment(file.buffer);
   if (!type) {
-    throw new HttpError(
+    throw new ServiceError(
       415,
       'file_type_refused',
       'file: only CSV or TXT text, PDF or XLSX files are accepted (checked by content).',

@@ -12,7 +12,7 @@ import { gzip } from 'node:zlib';
 import type { EntityManager } from 'typeorm';
 import type { BoardListEntry } from '../../../shared/contracts/evaluation';
 import { hasAnyRole, labIds, type SessionUser } from '../auth/session-user';
-import { notFound } from '../http/errors';
+import { notFound } from './errors';
 import type { AppContext } from './context';
 import { audit } from './audit';
 import { grantedLabIds } from './grants';

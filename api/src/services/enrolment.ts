@@ -19,7 +19,7 @@ import type {
   ReceiptStatus,
 } from '../../../shared/contracts/rounds';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, HttpError, notFound, ruleBroken, unauthorized } from '../http/errors';
+import { conflict, ServiceError, notFound, ruleBroken, unauthorized } from './errors';
 import type { OutgoingMail } from '../mail/mailer';
 import { audit } from './audit';
 import { creditOnWithdrawal, issueInvoiceForEnrolment, mailInvoiceIssued } from './billing';
@@ -52,7 +52,7 @@ export async function freshParticipantCode(
     const code = draw();
     if (!(await em.findOne(Enrolment, { where: { roundId, participantCode: code } }))) return code;
   }
-  throw new HttpError(
+  throw new ServiceError(
     503,
     'code_space_exhausted',
     'No free participant code was found; try again.',
@@ -175,7 +175,7 @@ export async function createInvitations(
 }
 
 const invalidInvitation = () =>
-  new HttpError(
+  new ServiceError(
     404,
     'link_invalid',
     'This invitation has expired or was already used. Ask the coordinator for a new one.',
@@ -239,7 +239,7 @@ export async function acceptInvitation(
     if (inv.organisation_id) {
       if (!user) throw unauthorized();
       if (!user.memberships.some((m) => m.organisationId === inv.organisation_id)) {
-        throw new HttpError(
+        throw new ServiceError(
           403,
           'not_a_member',
           'Sign in as a member of the invited lab to accept.',

@@ -27,7 +27,7 @@ import {
   type ReplicateInput,
 } from '../../../shared/evaluation/evaluate';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, notFound, ruleBroken } from '../http/errors';
+import { conflict, notFound, ruleBroken } from './errors';
 import { VERSION } from '../version';
 import { audit } from './audit';
 import type { AppContext } from './context';

@@ -6,7 +6,7 @@ import type {
 } from '../../../shared/contracts/bench';
 import { judgeInstrumentCheck } from '../../../shared/bench/instrument-check';
 import type { SessionUser } from '../auth/session-user';
-import { ruleBroken } from '../http/errors';
+import { ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 

@@ -5,7 +5,7 @@ import type { PasswordTokenInfo } from '../../../shared/contracts/auth';
 import { PasswordToken, User } from '../../../db/entities';
 import type { AppContext } from './context';
 import { audit } from './audit';
-import { HttpError } from '../http/errors';
+import { ServiceError } from './errors';
 import { forgetSessionUser } from '../auth/session-cache';
 
 /** bcrypt work factor: 2^12 rounds (docs/QUALITY.md asks for ≥ 12). */
@@ -65,7 +65,7 @@ export async function issuePasswordToken(
 }
 
 const invalidLink = () =>
-  new HttpError(
+  new ServiceError(
     404,
     'link_invalid',
     'This link has expired or was already used. Ask for a new one.',
@@ -121,7 +121,7 @@ export async function changePassword(
   const user = await ctx.ds.getRepository(User).findOneOrFail({ where: { id: userId } });
   const ok = await bcrypt.compare(currentPassword, user.passwordHash ?? DUMMY_HASH);
   if (!ok || !user.passwordHash) {
-    throw new HttpError(
+    throw new ServiceError(
       422,
       'wrong_password',
       'currentPassword: that is not your current password.',

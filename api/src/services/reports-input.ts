@@ -7,7 +7,7 @@ import type { ParticipantReportInput, ReportStudy, RoundReportInput } from '../.
 import type { TrackSeries } from '../../../shared/contracts/evaluation';
 import { rescaledSumZ, runRules } from '../../../shared/evaluation/run-rules';
 import { Enrolment, Evaluation, Measurand, TestItem } from '../../../db/entities';
-import { notFound } from '../http/errors';
+import { notFound } from './errors';
 import { loadResults } from './evaluation';
 import { reportProvider } from './provider';
 import { labTrackRecord } from './track-record';

@@ -29,7 +29,7 @@ import type { RoundState } from '../../../shared/contracts/round-states';
 import { withSafetyBlock } from '../../../shared/contracts/safety';
 import type * as z from 'zod';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, notFound, ruleBroken } from '../http/errors';
+import { conflict, notFound, ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { hasOpenHomogeneityFailure, lockRound } from './round-lifecycle';

@@ -15,7 +15,7 @@ import {
 
 type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;
 type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleSchema>;
-import { ruleBroken } from '../http/errors';
+import { ruleBroken } from './errors';
 
 const finite = z.number().refine(Number.isFinite);
 

@@ -10,7 +10,7 @@ import {
 } from '../../../shared/contracts/submission';
 import { checkResults } from '../../../shared/bench/submission-checks';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, HttpError, ruleBroken } from '../http/errors';
+import { conflict, ServiceError, ruleBroken } from './errors';
 import { findEnrolment, lockState } from './bench';
 import type { AppContext } from './context';
 import { formatBytes, RESULTS_WORKBOOK_LIMIT } from '../../../shared/contracts/upload-limits';
@@ -182,14 +182,14 @@ export async function uploadWorkbook(
   file: Buffer | undefined,
 ): Promise<WorkbookUploadResult> {
   if (!file)
-    throw new HttpError(
+    throw new ServiceError(
       400,
       'validation_failed',
       'file: attach the filled workbook (multipart field "file").',
       [{ path: 'file', message: 'Attach a file.' }],
     );
   if (file.length > RESULTS_WORKBOOK_LIMIT.maxBytes) {
-    throw new HttpError(
+    throw new ServiceError(
       413,
       'file_too_large',
       `file: the limit is ${formatBytes(RESULTS_WORKBOOK_LIMIT.maxBytes)} for a ${RESULTS_WORKBOOK_LIMIT.label}.`,
@@ -197,7 +197,7 @@ export async function uploadWorkbook(
     );
   }
   if (detectPackagedType(file)?.kind !== 'xlsx') {
-    throw new HttpError(
+    throw new ServiceError(
       415,
       'file_type_refused',
       'file: upload the .xlsx workbook downloaded from this round.',

@@ -12,6 +12,14 @@ import {
   ParticipantScore as ParticipantScoreSchema,
   type ParticipantScore,
 } from '../../../shared/contracts/evaluation';
+import {
+  InstrumentCheckRun as InstrumentCheckRunSchema,
+  InstrumentCheckVerdict as InstrumentCheckVerdictSchema,
+  Reanalysis as ReanalysisSchema,
+  type InstrumentCheckRun,
+  type InstrumentCheckVerdict,
+  type Reanalysis,
+} from '../../../shared/contracts/bench';
 
 type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;
 type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleSchema>;
@@ -101,3 +109,33 @@ export function storedConstants(raw: unknown): z.infer<typeof StoredConstants> {
   const r = StoredConstants.safeParse(raw);
   return r.success ? r.data : {};
 }
+
+/** One stored run of an instrument check without today's bounds (rows stored before a bound). */
+const StoredCheckRun = z.object({
+  zAverageNm: finite,
+  pdi: finite,
+  temperatureC: finite,
+  equilibrationMin: finite,
+});
+
+/** An instrument check's stored `runs` and `verdict`; `what` names the check in the 422. */
+export function storedInstrumentCheck(
+  row: { runs: unknown; verdict: unknown },
+  what: string,
+): { runs: InstrumentCheckRun[]; verdict: InstrumentCheckVerdict } {
+  const runs = lenient(z.array(InstrumentCheckRunSchema), z.array(StoredCheckRun), row.runs);
+  const verdict = InstrumentCheckVerdictSchema.safeParse(row.verdict);
+  if (runs && verdict.success) return { runs, verdict: verdict.data };
+  throw unreadable(what);
+}
+
+/** An attachment's stored re-analysis (null when none was made); `what` names it in the 422. */
+export function storedReanalysis(raw: unknown, what: string): Reanalysis | null {
+  if (raw === null || raw === undefined) return null;
+  const r = ReanalysisSchema.safeParse(raw);
+  if (r.success) return r.data;
+  throw unreadable(what);
+}
+
+const unreadable = (what: string) =>
+  ruleBroken('stored_record_unreadable', `${what}: the stored record cannot be read.`);

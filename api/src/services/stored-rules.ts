@@ -9,6 +9,8 @@ import {
   SigmaPtRuleInput as SigmaPtRuleSchema,
 } from '../../../shared/contracts/rules';
 import {
+  BoardGroup,
+  BoardRow,
   ParticipantScore as ParticipantScoreSchema,
   type ParticipantScore,
 } from '../../../shared/contracts/evaluation';
@@ -139,3 +141,19 @@ export function storedReanalysis(raw: unknown, what: string): Reanalysis | null 
 
 const unreadable = (what: string) =>
   ruleBroken('stored_record_unreadable', `${what}: the stored record cannot be read.`);
+
+/** The codes-only board an evaluation stores (`board` jsonb; `{}` before it was computed). */
+const StoredBoard = z.object({
+  groups: z.array(BoardGroup).default([]),
+  rows: z.array(BoardRow).default([]),
+});
+
+/** An evaluation's stored board (empty when none is stored); `what` names it in the 422. */
+export function storedBoard(raw: unknown, what: string): z.infer<typeof StoredBoard> {
+  const r = StoredBoard.safeParse(raw ?? {});
+  if (r.success) return r.data;
+  throw ruleBroken(
+    'stored_result_unreadable',
+    `${what}: the stored board cannot be read; ask the coordinator to evaluate the round again.`,
+  );
+}

@@ -22,6 +22,7 @@ import {
   type InstrumentCheckVerdict,
   type Reanalysis,
 } from '../../../shared/contracts/bench';
+import { Study } from '../../../shared/contracts/rounds';
 
 type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;
 type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleSchema>;
@@ -156,4 +157,11 @@ export function storedBoard(raw: unknown, what: string): z.infer<typeof StoredBo
     'stored_result_unreadable',
     `${what}: the stored board cannot be read; ask the coordinator to evaluate the round again.`,
   );
+}
+
+/** A homogeneity or stability study's stored `result` (the stats engine's object); `what` names it. */
+export function storedStudyResult(raw: unknown, what: string): Record<string, unknown> {
+  const r = Study.shape.result.safeParse(raw);
+  if (r.success) return r.data;
+  throw unreadable(what);
 }

@@ -1,5 +1,5 @@
 import { createHash, randomBytes, randomInt } from 'node:crypto';
-import type { EntityManager } from 'typeorm';
+import { In, IsNull, MoreThan, Raw, type EntityManager } from 'typeorm';
 import {
   Enrolment,
   Invitation,
@@ -7,6 +7,7 @@ import {
   Organisation,
   Round,
   Shipment,
+  Submission,
   User,
 } from '../../../db/entities';
 import type {
@@ -213,46 +214,41 @@ export async function acceptInvitation(
   token: string,
 ): Promise<InvitationAcceptResult> {
   const { result, mail, enrolmentId } = await ctx.ds.transaction(async (em) => {
-    const raw: unknown = await em.query(
-      `UPDATE invitation SET accepted_at = now()
-       WHERE token_hash = $1 AND accepted_at IS NULL AND expires_at > now()
-       RETURNING id, round_id, organisation_id, email, lab_name`,
-      [sha256(token)],
-    );
-    // TypeORM answers [rows, count] for UPDATE … RETURNING on PostgreSQL
-    const rows = (Array.isArray(raw) && Array.isArray(raw[0]) ? raw[0] : raw) as {
-      id: string;
-      round_id: string;
-      organisation_id: string | null;
-      email: string;
-      lab_name: string | null;
-    }[];
-    const inv = rows[0];
+    // Locked, then marked accepted: a concurrent use of the same link waits and then finds it used.
+    const inv = await em.findOne(Invitation, {
+      where: {
+        tokenHash: sha256(token),
+        acceptedAt: IsNull(),
+        expiresAt: Raw((at) => `${at} > now()`),
+      },
+      lock: { mode: 'pessimistic_write' },
+    });
     if (!inv) throw invalidInvitation();
-    const round = await lockRound(em, inv.round_id);
+    await em.update(Invitation, { id: inv.id }, { acceptedAt: () => 'now()' });
+    const round = await lockRound(em, inv.roundId);
     if (round.state !== 'enrolling')
       throw conflict('round_not_enrolling', 'Enrolment for this round is closed.');
 
     let organisationId: string;
     let mail: { email: string; name: string; token: string } | null = null;
     let actorId: string | null = user?.id ?? null;
-    if (inv.organisation_id) {
+    if (inv.organisationId) {
       if (!user) throw unauthorized();
-      if (!user.memberships.some((m) => m.organisationId === inv.organisation_id)) {
+      if (!user.memberships.some((m) => m.organisationId === inv.organisationId)) {
         throw new ServiceError(
           403,
           'not_a_member',
           'Sign in as a member of the invited lab to accept.',
         );
       }
-      organisationId = inv.organisation_id;
+      organisationId = inv.organisationId;
     } else {
-      const name = inv.lab_name ?? inv.email;
-      const clash: unknown[] = await em.query(
-        `SELECT 1 FROM organisation WHERE lower(name) = lower($1)`,
-        [name],
-      );
-      if (clash.length)
+      const name = inv.labName ?? inv.email;
+      const clash = await em
+        .createQueryBuilder(Organisation, 'o')
+        .where('lower(o.name) = lower(:name)', { name })
+        .getExists();
+      if (clash)
         throw conflict(
           'name_taken',
           `A lab called "${name}" already exists; ask the coordinator to invite it directly.`,
@@ -335,11 +331,11 @@ export async function listEnrolments(em: EntityManager, roundId: string): Promis
     .createQueryBuilder(Organisation, 'o')
     .where('o.id IN (:...ids)', { ids: enrolments.map((e) => e.organisationId) })
     .getMany();
-  const submitted: { enrolment_id: string }[] = await em.query(
-    `SELECT enrolment_id FROM submission WHERE enrolment_id = ANY($1) AND current_version > 0`,
-    [ids],
-  );
-  const bySubmission = new Set(submitted.map((r) => r.enrolment_id));
+  const submitted = await em.find(Submission, {
+    select: { id: true, enrolmentId: true },
+    where: { enrolmentId: In(ids), currentVersion: MoreThan(0) },
+  });
+  const bySubmission = new Set(submitted.map((r) => r.enrolmentId));
   const byEnrolment = new Map(shipments.map((s) => [s.enrolmentId, s]));
   const names = new Map(orgs.map((o) => [o.id, o.name]));
   return enrolments.map((e) => {

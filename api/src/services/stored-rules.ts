@@ -22,7 +22,7 @@ import {
   type InstrumentCheckVerdict,
   type Reanalysis,
 } from '../../../shared/contracts/bench';
-import { Study } from '../../../shared/contracts/rounds';
+import { MeasurandInput, Study } from '../../../shared/contracts/rounds';
 
 type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;
 type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleSchema>;
@@ -163,5 +163,27 @@ export function storedBoard(raw: unknown, what: string): z.infer<typeof StoredBo
 export function storedStudyResult(raw: unknown, what: string): Record<string, unknown> {
   const r = Study.shape.result.safeParse(raw);
   if (r.success) return r.data;
+  throw unreadable(what);
+}
+
+/** A scheme's default measurand without today's bounds (templates stored before a bound). */
+const StoredDefaultMeasurand: z.ZodType<z.output<typeof MeasurandInput>> = z.object({
+  key: z.string(),
+  name: z.string(),
+  unit: z.string(),
+  decimals: z.number().int(),
+  replicatesRequired: z.number().int(),
+  sigmaPtRule: StoredSigmaPtRule.default({ kind: 'robust-sd' }),
+  assignedValueRule: StoredAssignedValueRule.default({ kind: 'consensus' }),
+  minParticipants: z.number().int().default(12),
+});
+
+/** A scheme's stored `defaultMeasurands` (the templates new rounds start from); `what` names it. */
+export function storedDefaultMeasurands(
+  raw: unknown,
+  what: string,
+): z.output<typeof MeasurandInput>[] {
+  const list = lenient(z.array(MeasurandInput), z.array(StoredDefaultMeasurand), raw);
+  if (list) return list;
   throw unreadable(what);
 }

@@ -1,4 +1,5 @@
 import ExcelJS from 'exceljs';
+import { Submission } from '../../../db/entities';
 import type { SheetIssue, WorkbookUploadResult } from '../../../shared/contracts/bench';
 import { SAFETY_CAUTIONS } from '../../../shared/contracts/bench';
 import {
@@ -60,11 +61,11 @@ export async function buildTemplate(
   const em = ctx.ds.manager;
   const { round, enrolment } = await findEnrolment(em, labId, roundId);
   const rules = await roundRules(em, roundId, round.protocolTemperatureC);
-  const sub: { draft: unknown }[] = await em.query(
-    `SELECT draft FROM submission WHERE enrolment_id = $1`,
-    [enrolment.id],
-  );
-  const draft = readStoredSubmission(sub[0]?.draft);
+  const sub = await em.findOne(Submission, {
+    select: { id: true, draft: true },
+    where: { enrolmentId: enrolment.id },
+  });
+  const draft = readStoredSubmission(sub?.draft);
   const runs = Math.max(1, ...rules.measurands.map((m) => m.replicatesRequired));
 
   const wb = new ExcelJS.Workbook();

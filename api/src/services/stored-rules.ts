@@ -11,7 +11,9 @@ import {
 import {
   BoardGroup,
   BoardRow,
+  ItemMeasurandEvaluation,
   ParticipantScore as ParticipantScoreSchema,
+  ReplicateInputSchema,
   type ParticipantScore,
 } from '../../../shared/contracts/evaluation';
 import {
@@ -95,10 +97,31 @@ export function measurandRules(m: {
 export function storedParticipantScore(raw: unknown, what: string): ParticipantScore {
   const r = ParticipantScoreSchema.safeParse(raw);
   if (r.success) return r.data;
-  throw ruleBroken(
+  throw resultUnreadable(`${what}: the stored score`);
+}
+
+const resultUnreadable = (what: string) =>
+  ruleBroken(
     'stored_result_unreadable',
-    `${what}: the stored score cannot be read; ask the coordinator to evaluate the round again.`,
+    `${what} cannot be read; ask the coordinator to evaluate the round again.`,
   );
+
+/** The jsonb and free-text columns of a stored evaluation result, as the shared contract reads them. */
+const StoredResult = z.object({
+  method: ItemMeasurandEvaluation.shape.method,
+  constants: ItemMeasurandEvaluation.shape.constants,
+  participants: ItemMeasurandEvaluation.shape.participants,
+  inputs: z.array(ReplicateInputSchema),
+});
+
+/** One evaluation result's method, constants, scores and inputs; `what` names it in the 422. */
+export function storedResult(
+  row: { method: unknown; constants: unknown; participants: unknown; inputs: unknown },
+  what: string,
+): z.infer<typeof StoredResult> {
+  const r = StoredResult.safeParse(row);
+  if (r.success) return r.data;
+  throw resultUnreadable(`${what}: the stored result`);
 }
 
 /** The display constants an evaluation result stores (`constants` jsonb); missing ones stay absent. */

@@ -1,5 +1,5 @@
-import { createHash, randomBytes, randomInt } from 'node:crypto';
-import { In, IsNull, MoreThan, Raw, type EntityManager } from 'typeorm';
+import { randomBytes, randomInt } from 'node:crypto';
+import { In, IsNull, MoreThan, type EntityManager } from 'typeorm';
 import {
   Enrolment,
   Invitation,
@@ -25,7 +25,7 @@ import type { OutgoingMail } from '../mail/mailer';
 import { audit } from './audit';
 import { creditOnWithdrawal, issueInvoiceForEnrolment, mailInvoiceIssued } from './billing';
 import type { AppContext } from './context';
-import { issuePasswordToken, sendLinkMail } from './passwords';
+import { issuePasswordToken, sendLinkMail, tokenHash, unexpiredLink } from './passwords';
 import { lockRound } from './round-lifecycle';
 
 /** How long an invitation link stays valid. */
@@ -59,8 +59,6 @@ export async function freshParticipantCode(
     'No free participant code was found; try again.',
   );
 }
-
-const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
 
 /** Sends a mail; a failure is logged and never undoes the action (a queued mailer retries it). */
 export async function sendSafely(ctx: AppContext, mail: OutgoingMail): Promise<void> {
@@ -145,7 +143,7 @@ export async function createInvitations(
           organisationId: inv.organisationId,
           email: inv.email,
           labName: inv.organisationId ? null : inv.labName,
-          tokenHash: sha256(token),
+          tokenHash: tokenHash(token),
           expiresAt: new Date(Date.now() + INVITATION_LIFETIME_MS),
           createdBy: actor.id,
         }),
@@ -186,7 +184,7 @@ const invalidInvitation = () =>
 export async function invitationInfo(ctx: AppContext, token: string): Promise<InvitationInfo> {
   const inv = await ctx.ds
     .getRepository(Invitation)
-    .findOne({ where: { tokenHash: sha256(token) } });
+    .findOne({ where: { tokenHash: tokenHash(token) } });
   if (!inv || inv.acceptedAt || inv.expiresAt.getTime() <= Date.now()) throw invalidInvitation();
   const round = await ctx.ds.getRepository(Round).findOneOrFail({ where: { id: inv.roundId } });
   const org = inv.organisationId
@@ -216,11 +214,7 @@ export async function acceptInvitation(
   const { result, mail, enrolmentId } = await ctx.ds.transaction(async (em) => {
     // Locked, then marked accepted: a concurrent use of the same link waits and then finds it used.
     const inv = await em.findOne(Invitation, {
-      where: {
-        tokenHash: sha256(token),
-        acceptedAt: IsNull(),
-        expiresAt: Raw((at) => `${at} > now()`),
-      },
+      where: { ...unexpiredLink(token), acceptedAt: IsNull() },
       lock: { mode: 'pessimistic_write' },
     });
     if (!inv) throw invalidInvitation();

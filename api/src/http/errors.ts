@@ -1,37 +1,20 @@
 import type { ErrorRequestHandler } from 'express';
 import { ZodError } from 'zod';
 import type { FieldIssue } from '../../../shared/contracts/common';
+import { fieldIssues, ServiceError } from '../services/errors';
 
-/** An error that carries its HTTP status and a stable machine-readable code. */
-export class HttpError extends Error {
-  constructor(
-    readonly status: number,
-    readonly code: string,
-    message: string,
-    readonly details?: unknown,
-  ) {
-    super(message);
-  }
-}
-
-export const badRequest = (message: string, details?: FieldIssue[]) =>
-  new HttpError(400, 'validation_failed', message, details);
-export const unauthorized = () => new HttpError(401, 'unauthenticated', 'Sign in to continue.');
-export const forbidden = (message = 'Your role does not allow this.') =>
-  new HttpError(403, 'forbidden', message);
-export const notFound = (what = 'The resource') =>
-  new HttpError(404, 'not_found', `${what} was not found.`);
-export const conflict = (code: string, message: string) => new HttpError(409, code, message);
-export const ruleBroken = (code: string, message: string, details?: unknown) =>
-  new HttpError(422, code, message, details);
-
-/** zod issues → `[{ path: "a.b", message }]`, the shape every 400 lists. */
-export function fieldIssues(error: ZodError, prefix?: string): FieldIssue[] {
-  return error.issues.map((i) => ({
-    path: [prefix, ...i.path.map(String)].filter(Boolean).join('.') || '(body)',
-    message: i.message,
-  }));
-}
+// The error type and its constructors live in the service layer (services must not import
+// api/src/http/); the HTTP layer and the routes keep using them under these names.
+export {
+  badRequest,
+  conflict,
+  fieldIssues,
+  forbidden,
+  notFound,
+  ruleBroken,
+  ServiceError as HttpError,
+  unauthorized,
+} from '../services/errors';
 
 /** Seconds a client is told to wait (Retry-After) while the database is unreachable. */
 export const DATABASE_RETRY_AFTER_SECONDS = 5;
@@ -95,7 +78,7 @@ export function errorHandler(log: (msg: string, err: unknown) => void): ErrorReq
       next(err);
       return;
     }
-    if (err instanceof HttpError) {
+    if (err instanceof ServiceError) {
       res.status(err.status).json({
         error: {
           code: err.code,

@@ -7,6 +7,7 @@ import {
   type UploadLimit,
 } from '../../../shared/contracts/upload-limits';
 import type { SessionUser } from '../auth/session-user';
+import { cleanFileName } from '../../../shared/files/file-name';
 import { badRequest, forbidden, HttpError, unauthorized } from './errors';
 import { hasAnyRole } from './route';
 
@@ -23,24 +24,7 @@ export function uploadedFile(req: Request): UploadedFile | undefined {
   return (req as Request & { file?: UploadedFile }).file;
 }
 
-/** A safe display name: no path, no control characters (C0, DEL, C1), no quotes, NFC, at most 200 characters. */
-export function cleanFileName(name: string): string {
-  const base = name.split(/[\\/]/).pop() ?? '';
-  const cleaned = Array.from(
-    base
-      .normalize('NFC')
-      .replace(
-        // eslint-disable-next-line no-control-regex -- dropping control characters is the point
-        /[\u0000-\u001F\u007F-\u009F"\u2028\u2029\u200E\u200F\u202A-\u202E\u2066-\u2069]/g,
-        '',
-      )
-      .trim(),
-  )
-    .slice(0, 200)
-    .join('')
-    .trim();
-  return cleaned || 'file';
-}
+export { cleanFileName };
 
 /** Any error of the multipart parser → the answer the client gets (never a 500). */
 export function uploadError(err: unknown, limit: UploadLimit): HttpError {

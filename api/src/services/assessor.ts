@@ -3,6 +3,7 @@
  * one answers 404, and access ends the day the grant ends or is revoked), and the Evidence pack.
  */
 import type { EntityManager } from 'typeorm';
+import { InstrumentCheck } from '../../../db/entities';
 import { buildEvidencePack, type EvidenceFile } from '../../../reports/evidence/evidence-pack';
 import {
   buildInstrumentChecksPdf,
@@ -18,7 +19,7 @@ import {
   type AssessorRound,
 } from '../../../shared/contracts/reports';
 import type { SessionUser } from '../auth/session-user';
-import { notFound } from '../http/errors';
+import { notFound } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { grantedLabIds } from './grants';
@@ -26,18 +27,41 @@ import { investigationRecord, selectInvestigations } from './investigations';
 import { reportFile, type LabInRound } from './reports';
 import { evaluationHead } from './reports-input';
 
-/** GET /assessor/labs: labs with an active grant for the caller. */
-export async function assessorLabs(ctx: AppContext, user: SessionUser): Promise<AssessorLab[]> {
-  const rows: { id: string; name: string; starts_on: string; ends_on: string | null }[] =
-    await ctx.ds.query(
-      `SELECT o.id, o.name, min(g.starts_on)::text AS starts_on,
+/**
+ * A lab's grants to one assessor folded into one span (an aggregate, so raw SQL): the earliest
+ * start, and no end while any grant is open-ended. `where` adds the caller's filter ($2…).
+ */
+interface GrantedLabRow {
+  id: string;
+  name: string;
+  starts_on: string;
+  ends_on: string | null;
+}
+
+async function selectGrantedLabs(
+  em: EntityManager,
+  assessorId: string,
+  where: string,
+  params: unknown[] = [],
+): Promise<AssessorLab[]> {
+  const rows: GrantedLabRow[] = await em.query(
+    `SELECT o.id, o.name, min(g.starts_on)::text AS starts_on,
             CASE WHEN bool_or(g.ends_on IS NULL) THEN NULL ELSE max(g.ends_on)::text END AS ends_on
        FROM assessor_grant g JOIN organisation o ON o.id = g.organisation_id
-      WHERE g.assessor_id = $1 AND g.revoked_at IS NULL AND g.starts_on <= CURRENT_DATE AND (g.ends_on IS NULL OR g.ends_on >= CURRENT_DATE)
+      WHERE g.assessor_id = $1 AND g.revoked_at IS NULL AND ${where}
       GROUP BY o.id, o.name ORDER BY o.name`,
-      [user.id],
-    );
+    [assessorId, ...params],
+  );
   return rows.map((r) => ({ id: r.id, name: r.name, startsOn: r.starts_on, endsOn: r.ends_on }));
+}
+
+/** GET /assessor/labs: labs with an active grant for the caller. */
+export async function assessorLabs(ctx: AppContext, user: SessionUser): Promise<AssessorLab[]> {
+  return selectGrantedLabs(
+    ctx.ds.manager,
+    user.id,
+    'g.starts_on <= CURRENT_DATE AND (g.ends_on IS NULL OR g.ends_on >= CURRENT_DATE)',
+  );
 }
 
 async function grantedLab(
@@ -46,30 +70,42 @@ async function grantedLab(
   labId: string,
 ): Promise<AssessorLab> {
   if (!(await grantedLabIds(em, user.id)).includes(labId)) throw notFound('The lab');
-  const rows: { id: string; name: string; starts_on: string; ends_on: string | null }[] =
-    await em.query(
-      `SELECT o.id, o.name, min(g.starts_on)::text AS starts_on, CASE WHEN bool_or(g.ends_on IS NULL) THEN NULL ELSE max(g.ends_on)::text END AS ends_on
-       FROM assessor_grant g JOIN organisation o ON o.id = g.organisation_id
-      WHERE g.assessor_id = $1 AND g.organisation_id = $2 AND g.revoked_at IS NULL GROUP BY o.id, o.name`,
-      [user.id, labId],
-    );
-  const r = rows[0]!;
-  return { id: r.id, name: r.name, startsOn: r.starts_on, endsOn: r.ends_on };
+  const [lab] = await selectGrantedLabs(em, user.id, 'g.organisation_id = $2', [labId]);
+  return lab!;
 }
 
+/** A lab's round with its latest published evaluation and its warning and action signals. */
+interface LabRoundRow {
+  round_id: string;
+  code: string;
+  title: string;
+  state: string;
+  participant_code: string;
+  version: number | null;
+  published_at: Date | null;
+  reissue_reason: string | null;
+  warnings: number | null;
+  actions: number | null;
+}
+
+function assessorRound(r: LabRoundRow): AssessorRound {
+  return {
+    roundId: r.round_id,
+    roundCode: r.code,
+    roundTitle: r.title,
+    roundState: r.state,
+    participantCode: r.participant_code,
+    version: r.version ?? null,
+    publishedAt: r.published_at?.toISOString() ?? null,
+    reissueReason: r.reissue_reason,
+    warnings: r.warnings ?? 0,
+    actions: r.actions ?? 0,
+  };
+}
+
+/** The lab's rounds (a lateral join and counts over stored scores, so raw SQL). */
 async function labRounds(em: EntityManager, labId: string): Promise<AssessorRound[]> {
-  const rows: {
-    round_id: string;
-    code: string;
-    title: string;
-    state: string;
-    participant_code: string;
-    version: number | null;
-    published_at: Date | null;
-    reissue_reason: string | null;
-    warnings: number | null;
-    actions: number | null;
-  }[] = await em.query(
+  const rows: LabRoundRow[] = await em.query(
     `SELECT r.id AS round_id, r.code, r.title, r.state, en.participant_code, e.version, e.published_at, e.reissue_reason,
             (SELECT count(*)::int FROM evaluation_result er CROSS JOIN LATERAL jsonb_array_elements(er.participants) p
               WHERE er.evaluation_id = e.id AND p->>'code' = en.participant_code AND p->>'signal' = 'warning') AS warnings,
@@ -81,18 +117,7 @@ async function labRounds(em: EntityManager, labId: string): Promise<AssessorRoun
       ORDER BY r.created_at DESC`,
     [labId],
   );
-  return rows.map((r) => ({
-    roundId: r.round_id,
-    roundCode: r.code,
-    roundTitle: r.title,
-    roundState: r.state,
-    participantCode: r.participant_code,
-    version: r.version ?? null,
-    publishedAt: r.published_at?.toISOString() ?? null,
-    reissueReason: r.reissue_reason,
-    warnings: r.warnings ?? 0,
-    actions: r.actions ?? 0,
-  }));
+  return rows.map(assessorRound);
 }
 
 /** The assessor's columns of an investigation record (the contract's fields, in its order). */
@@ -122,29 +147,30 @@ async function labInstrumentChecks(
   em: EntityManager,
   labId: string,
 ): Promise<AssessorInstrumentCheck[]> {
-  const rows: {
-    id: string;
-    instrument: string;
-    material: string;
-    reference_value_nm: number;
-    tolerance_nm: number;
-    passed: boolean;
-    notes: string;
-    checked_at: Date;
-  }[] = await em.query(
-    `SELECT id, instrument, material, reference_value_nm, tolerance_nm, passed, notes, checked_at FROM instrument_check
-        WHERE organisation_id = $1 ORDER BY checked_at DESC LIMIT 1000`,
-    [labId],
-  );
-  return rows.map((r) => ({
-    id: r.id,
-    instrument: r.instrument,
-    material: r.material,
-    referenceValueNm: r.reference_value_nm,
-    toleranceNm: r.tolerance_nm,
-    passed: r.passed,
-    notes: r.notes,
-    checkedAt: r.checked_at.toISOString(),
+  const checks = await em.find(InstrumentCheck, {
+    select: {
+      id: true,
+      instrument: true,
+      material: true,
+      referenceValueNm: true,
+      toleranceNm: true,
+      passed: true,
+      notes: true,
+      checkedAt: true,
+    },
+    where: { organisationId: labId },
+    order: { checkedAt: 'DESC' },
+    take: 1000,
+  });
+  return checks.map((c) => ({
+    id: c.id,
+    instrument: c.instrument,
+    material: c.material,
+    referenceValueNm: c.referenceValueNm,
+    toleranceNm: c.toleranceNm,
+    passed: c.passed,
+    notes: c.notes,
+    checkedAt: c.checkedAt.toISOString(),
   }));
 }
 
@@ -164,12 +190,25 @@ export async function assessorLabDetail(
   return { lab, rounds, investigations, instrumentChecks };
 }
 
-/** The audit events about the lab, its investigations and the evaluation of its rounds (no other lab's). */
+interface AuditExtractRow {
+  id: string;
+  at: Date;
+  action: string;
+  subject_type: string;
+  subject_id: string | null;
+  details: unknown;
+  actor: string | null;
+}
+
+/**
+ * The audit events about the lab, its investigations and the evaluation of its rounds (no other
+ * lab's), as PostgreSQL returns them: the extract's JSON keeps the stored column names.
+ */
 async function auditExtract(
   em: EntityManager,
   labId: string,
   roundIds: string[],
-): Promise<unknown[]> {
+): Promise<AuditExtractRow[]> {
   return em.query(
     `SELECT a.id, a.at, a.action, a.subject_type, a.subject_id, a.details, u.name AS actor
        FROM audit_event a LEFT JOIN app_user u ON u.id = a.actor_id

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { MIME_TYPES, sniffFileType } from '../../../shared/files/file-type';
-import { Attachment, Submission, TestItem } from '../../../db/entities';
+import { Attachment, Enrolment, Measurand, Submission, TestItem, User } from '../../../db/entities';
 import type { AttachmentDto, Reanalysis } from '../../../shared/contracts/bench';
 import { readStoredSubmission } from '../../../shared/contracts/submission';
 import {
@@ -18,14 +18,15 @@ import {
 import { REANALYSIS_DEFAULTS } from '../../../shared/contracts/bench';
 import { mean } from '../../../shared/stats/descriptive';
 import type { SessionUser } from '../auth/session-user';
-import { badRequest, conflict, HttpError, notFound } from '../http/errors';
-import { cleanFileName } from '../http/uploads';
+import { badRequest, conflict, ServiceError, notFound } from './errors';
+import { cleanFileName } from '../../../shared/files/file-name';
 import { classifyText, type TextJobResult } from '../workers/file-jobs';
 import { handOver, runInWorker } from '../workers/pool';
 import { listZipEntries } from '../workers/zip';
 import { audit } from './audit';
 import { findEnrolment, lockState } from './bench';
 import type { AppContext } from './context';
+import { storedReanalysis } from './stored-rules';
 import { lockSubmission } from './submissions';
 
 export type AttachmentKind = AttachmentDto['kind'];
@@ -206,11 +207,7 @@ export function reanalyse(
   }
 }
 
-interface AttachmentRow extends Attachment {
-  uploaded_by_name?: string | null;
-}
-
-function dto(a: AttachmentRow, uploadedBy: string | null): AttachmentDto {
+function dto(a: Attachment, uploadedBy: string | null): AttachmentDto {
   return {
     id: a.id,
     fileName: a.fileName,
@@ -221,11 +218,9 @@ function dto(a: AttachmentRow, uploadedBy: string | null): AttachmentDto {
     testItemId: a.testItemId,
     uploadedBy,
     uploadedAt: a.uploadedAt.toISOString(),
-    reanalysis: (a.reanalysis as Reanalysis | null) ?? null,
+    reanalysis: storedReanalysis(a.reanalysis, `Attachment ${a.fileName}`),
   };
 }
-
-export { cleanFileName };
 
 /** POST /rounds/{id}/submission/attachments: stores a raw-data file (bytes in PostgreSQL) with its checksum. */
 export async function uploadAttachment(
@@ -243,14 +238,14 @@ export async function uploadAttachment(
       { path: 'file', message: 'Attach a file.' },
     ]);
   if (file.buffer.length > ATTACHMENT_LIMIT.maxBytes)
-    throw new HttpError(
+    throw new ServiceError(
       413,
       'file_too_large',
       `file: the limit is ${formatBytes(ATTACHMENT_LIMIT.maxBytes)} per file.`,
     );
   const { type, bytes, sha256 } = await inspectAttachment(file.buffer);
   if (!type) {
-    throw new HttpError(
+    throw new ServiceError(
       415,
       'file_type_refused',
       'file: only CSV or TXT text, PDF or XLSX files are accepted (checked by content).',
@@ -274,10 +269,7 @@ export async function uploadAttachment(
       const item =
         draft.items.find((i) => i.testItemId === testItemId) ??
         (testItemId ? undefined : draft.items[0]);
-      const ids: { id: string; key: string }[] = await em.query(
-        `SELECT id, key FROM measurand WHERE round_id = $1`,
-        [roundId],
-      );
+      const ids = await em.find(Measurand, { where: { roundId }, select: { id: true, key: true } });
       const meanOf = (key: string) => {
         const m = ids.find((x) => x.key === key);
         const xs =
@@ -315,7 +307,7 @@ export async function uploadAttachment(
         sizeBytes: bytes.length,
         sha256,
         data: bytes,
-        reanalysis: reanalysis as unknown as Record<string, unknown> | null,
+        reanalysis: reanalysis && { ...reanalysis },
         uploadedBy: actor.id,
       }),
     );
@@ -332,17 +324,14 @@ export async function uploadAttachment(
 }
 
 async function listFor(ctx: AppContext, submissionId: string): Promise<AttachmentDto[]> {
-  const { entities, raw } = await ctx.ds
+  const files = (await ctx.ds
     .getRepository(Attachment)
     .createQueryBuilder('a')
-    .leftJoin('app_user', 'u', 'u.id = a.uploaded_by')
-    .addSelect('u.name', 'uploaded_by_name')
-    .where('a.submission_id = :submissionId', { submissionId })
-    .orderBy('a.uploaded_at', 'ASC')
-    .getRawAndEntities();
-  return entities.map((e, i) =>
-    dto(e, (raw[i] as { uploaded_by_name: string | null }).uploaded_by_name),
-  );
+    .leftJoinAndMapOne('a.uploader', User, 'u', 'u.id = a.uploadedBy')
+    .where('a.submissionId = :submissionId', { submissionId })
+    .orderBy('a.uploadedAt', 'ASC')
+    .getMany()) as (Attachment & { uploader: User | null })[];
+  return files.map((a) => dto(a, a.uploader?.name ?? null));
 }
 
 /** GET /rounds/{id}/submission/attachments: the lab's own files for the round. */
@@ -368,20 +357,15 @@ export async function readAttachment(
   roundId: string,
   attachmentId: string,
 ): Promise<Attachment> {
-  const rows: { enrolment_id: string; organisation_id: string }[] = await ctx.ds.query(
-    `SELECT e.id AS enrolment_id, e.organisation_id FROM attachment a
-       JOIN submission s ON s.id = a.submission_id JOIN enrolment e ON e.id = s.enrolment_id
-      WHERE a.id = $1 AND e.round_id = $2`,
-    [attachmentId, roundId],
-  );
-  const row = rows[0];
-  if (!row || (labId !== null && row.organisation_id !== labId)) throw notFound('The file');
-  const a = await ctx.ds
+  const qb = ctx.ds
     .getRepository(Attachment)
     .createQueryBuilder('a')
     .addSelect('a.data')
-    .where('a.id = :id', { id: attachmentId })
-    .getOne();
+    .innerJoin(Submission, 's', 's.id = a.submissionId')
+    .innerJoin(Enrolment, 'e', 'e.id = s.enrolmentId')
+    .where('a.id = :id AND e.roundId = :roundId', { id: attachmentId, roundId });
+  if (labId !== null) qb.andWhere('e.organisationId = :labId', { labId });
+  const a = await qb.getOne();
   if (!a) throw notFound('The file');
   return a;
 }

@@ -11,7 +11,7 @@ import { SAFETY_CAUTIONS } from '../../../shared/contracts/bench';
 import { withoutSafetyBlock } from '../../../shared/contracts/safety';
 import { acceptsResults } from '../../../shared/contracts/round-states';
 import type { SessionUser } from '../auth/session-user';
-import { badRequest, conflict, HttpError, notFound, ruleBroken } from '../http/errors';
+import { badRequest, conflict, ServiceError, notFound, ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 
@@ -259,7 +259,7 @@ export async function saveReceipt(
     ]);
   const photoType = photo ? detectImageType(photo) : null;
   if (photo && !photoType) {
-    throw new HttpError(415, 'file_type_refused', 'photo: send a JPEG, PNG or WebP image.', [
+    throw new ServiceError(415, 'file_type_refused', 'photo: send a JPEG, PNG or WebP image.', [
       { path: 'photo', message: 'JPEG, PNG or WebP only.' },
     ]);
   }

@@ -35,7 +35,7 @@ import {
 } from '../../../shared/contracts/billing';
 import type { PaymentSettings } from '../config';
 import { hasAnyRole, labIds, managesLab, type SessionUser } from '../auth/session-user';
-import { conflict, forbidden, HttpError, notFound, ruleBroken } from '../http/errors';
+import { conflict, forbidden, ServiceError, notFound, ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { sendSafely } from './enrolment';
@@ -62,7 +62,7 @@ export function paymentClient(settings: PaymentSettings): Stripe {
 
 function payments(ctx: AppContext): PaymentSettings {
   if (!ctx.config.payments)
-    throw new HttpError(
+    throw new ServiceError(
       503,
       'payments_unavailable',
       'Card payment is not set up on this server; pay by bank transfer quoting the invoice number.',
@@ -367,13 +367,13 @@ export async function startCheckout(
     });
   } catch (err) {
     ctx.log('checkout session could not be created', err);
-    throw new HttpError(
+    throw new ServiceError(
       502,
       'payment_service_error',
       'The payment service did not answer; try again in a minute.',
     );
   }
-  if (!session.url) throw new HttpError(502, 'payment_service_error', 'No checkout page.');
+  if (!session.url) throw new ServiceError(502, 'payment_service_error', 'No checkout page.');
   await ctx.ds.transaction(async (em) => {
     await em.update(InvoiceRow, { id: inv.id }, { checkoutSessionId: session.id });
     await audit(em, user.id, 'invoice.checkout-started', 'invoice', inv.id, {
@@ -408,7 +408,7 @@ export async function handleWebhook(
       settings.webhookSecret,
     );
   } catch {
-    throw new HttpError(400, 'signature_invalid', 'The webhook signature does not verify.');
+    throw new ServiceError(400, 'signature_invalid', 'The webhook signature does not verify.');
   }
   const completed =
     event.type === 'checkout.session.completed' ||

@@ -10,16 +10,19 @@ import { createHash } from 'node:crypto';
 import { promisify } from 'node:util';
 import { gzip } from 'node:zlib';
 import type { EntityManager } from 'typeorm';
+import { Enrolment, Evaluation, Organisation } from '../../../db/entities';
 import type { BoardListEntry } from '../../../shared/contracts/evaluation';
 import { hasAnyRole, labIds, type SessionUser } from '../auth/session-user';
-import { notFound } from '../http/errors';
+import { notFound } from './errors';
 import type { AppContext } from './context';
 import { audit } from './audit';
 import { grantedLabIds } from './grants';
+import { storedBoard } from './stored-rules';
 
 const CACHE_LIMIT = 32;
 const bodyCache = new Map<string, Buffer>();
 
+/** The newest evaluation a viewer may see, with the viewer's own codes (one hot read, raw SQL). */
 interface Head {
   id: string;
   version: number;
@@ -28,6 +31,7 @@ interface Head {
   computed_at: Date;
   round_code: string;
   round_title: string;
+  own_codes: string[];
 }
 
 /** Least recently used first: a hit moves to the end, the first entry goes when full. */
@@ -50,13 +54,13 @@ async function bodyBytes(em: EntityManager, head: Head): Promise<Buffer> {
   const key = bodyKey(head);
   const hit = recall(bodyCache, key);
   if (hit !== undefined) return hit;
-  const rows: { board: { groups: unknown[]; rows: unknown[] } }[] = await em.query(
-    'SELECT board FROM evaluation WHERE id = $1',
-    [head.id],
-  );
-  const b = rows[0]?.board ?? { groups: [], rows: [] };
+  const stored = await em.findOne(Evaluation, {
+    select: { id: true, board: true },
+    where: { id: head.id },
+  });
+  const b = storedBoard(stored?.board, `Evaluation version ${head.version}`);
   const text = Buffer.from(
-    `"groups":${JSON.stringify(b.groups ?? [])},"rows":${JSON.stringify(b.rows ?? [])}}`,
+    `"groups":${JSON.stringify(b.groups)},"rows":${JSON.stringify(b.rows)}}`,
   );
   return remember(bodyCache, key, text, CACHE_LIMIT);
 }
@@ -83,6 +87,24 @@ const gzipAsync = promisify(gzip);
 /** The answer gzip-compressed, once, on libuv's thread pool (the event loop goes on serving). */
 export function gzipOf(answer: BoardAnswer): Promise<Buffer> {
   return (answer.gzip ??= gzipAsync(answer.json));
+}
+
+/** Lab names by participant code in the round: every enrolled lab, or only these labs. */
+async function labNamesByCode(
+  em: EntityManager,
+  roundId: string,
+  organisationIds?: string[],
+): Promise<Record<string, string>> {
+  const qb = em
+    .createQueryBuilder(Enrolment, 'e')
+    .innerJoinAndMapOne('e.lab', Organisation, 'o', 'o.id = e.organisationId')
+    .where('e.roundId = :roundId', { roundId });
+  if (organisationIds)
+    qb.andWhere('e.organisationId IN (:...organisationIds)', { organisationIds });
+  const enrolled = (await qb.getMany()) as (Enrolment & { lab: Organisation })[];
+  const names: Record<string, string> = {};
+  for (const e of enrolled) names[e.participantCode] = e.lab.name;
+  return names;
 }
 
 type Viewer = 'coordinator' | 'lab' | 'assessor';
@@ -112,18 +134,11 @@ export async function boardJson(
     viewer === 'lab' || (viewer === 'assessor' && user.roles.includes('lab')) ? labIds(user) : [];
   if (viewer === 'assessor') {
     const granted = await grantedLabIds(em, user.id);
-    const rows: { participant_code: string; name: string }[] = granted.length
-      ? await em.query(
-          `SELECT e.participant_code, o.name FROM enrolment e JOIN organisation o ON o.id = e.organisation_id
-            WHERE e.round_id = $1 AND e.organisation_id = ANY($2)`,
-          [roundId, granted],
-        )
-      : [];
-    for (const r of rows) labNames[r.participant_code] = r.name;
+    if (granted.length) labNames = await labNamesByCode(em, roundId, granted);
   }
 
   // One round trip: the newest visible evaluation and the viewer's own participant codes.
-  const heads: (Head & { own_codes: string[] })[] = await em.query(
+  const heads: Head[] = await em.query(
     `SELECT e.id, e.version, e.state, e.published_at, e.computed_at, r.code AS round_code, r.title AS round_title,
             ARRAY(SELECT en.participant_code FROM enrolment en WHERE en.round_id = r.id AND en.organisation_id = ANY($2::uuid[])) AS own_codes
        FROM evaluation e JOIN round r ON r.id = e.round_id
@@ -140,16 +155,11 @@ export async function boardJson(
   if (!head) throw notFound('The board');
 
   if (viewer === 'coordinator' && revealNames) {
-    const rows: { participant_code: string; name: string }[] = await em.query(
-      `SELECT e.participant_code, o.name FROM enrolment e JOIN organisation o ON o.id = e.organisation_id WHERE e.round_id = $1`,
-      [roundId],
-    );
-    labNames = {};
-    for (const r of rows) labNames[r.participant_code] = r.name;
+    labNames = await labNamesByCode(em, roundId);
     await audit(em, user.id, 'board.names-revealed', 'round', roundId, {
       evaluationId: head.id,
       version: head.version,
-      labs: rows.length,
+      labs: Object.keys(labNames).length,
     });
   }
   const prefix =
@@ -162,6 +172,35 @@ export async function boardJson(
   if (kept) return kept;
   const json = Buffer.concat([Buffer.from(prefix), await bodyBytes(em, head)]);
   return remember(answerCache, key, { json }, ANSWER_LIMIT);
+}
+
+/** A round with its newest visible evaluation and signal counts (lateral joins, raw SQL). */
+interface BoardListRow {
+  id: string;
+  code: string;
+  title: string;
+  state: string;
+  ev_state: BoardListEntry['evaluationState'];
+  version: number | null;
+  published_at: Date | null;
+  acceptable: number | null;
+  warning: number | null;
+  action: number | null;
+}
+
+function boardListEntry(r: BoardListRow): BoardListEntry {
+  return {
+    roundId: r.id,
+    roundCode: r.code,
+    roundTitle: r.title,
+    roundState: r.state,
+    evaluationState: r.ev_state ?? null,
+    version: r.version ?? null,
+    publishedAt: r.published_at?.toISOString() ?? null,
+    acceptable: r.acceptable ?? 0,
+    warning: r.warning ?? 0,
+    action: r.action ?? 0,
+  };
 }
 
 /** GET /boards: the rounds whose board the user may open. */
@@ -180,18 +219,7 @@ export async function listBoards(ctx: AppContext, user: SessionUser): Promise<Bo
     params.push(labs);
     where = `e.state = 'published' AND EXISTS (SELECT 1 FROM enrolment en WHERE en.round_id = r.id AND en.organisation_id = ANY($1))`;
   }
-  const rows: {
-    id: string;
-    code: string;
-    title: string;
-    state: string;
-    ev_state: BoardListEntry['evaluationState'];
-    version: number | null;
-    published_at: Date | null;
-    acceptable: number | null;
-    warning: number | null;
-    action: number | null;
-  }[] = await ctx.ds.query(
+  const rows: BoardListRow[] = await ctx.ds.query(
     `SELECT r.id, r.code, r.title, r.state, e.state AS ev_state, e.version, e.published_at,
               c.acceptable::int AS acceptable, c.warning::int AS warning, c.action::int AS action
          FROM round r
@@ -208,16 +236,5 @@ export async function listBoards(ctx: AppContext, user: SessionUser): Promise<Bo
         ORDER BY r.created_at DESC LIMIT 500`,
     params,
   );
-  return rows.map((r) => ({
-    roundId: r.id,
-    roundCode: r.code,
-    roundTitle: r.title,
-    roundState: r.state,
-    evaluationState: r.ev_state ?? null,
-    version: r.version ?? null,
-    publishedAt: r.published_at?.toISOString() ?? null,
-    acceptable: r.acceptable ?? 0,
-    warning: r.warning ?? 0,
-    action: r.action ?? 0,
-  }));
+  return rows.map(boardListEntry);
 }

@@ -1,5 +1,5 @@
-import { createHash, randomBytes, randomInt } from 'node:crypto';
-import type { EntityManager } from 'typeorm';
+import { randomBytes, randomInt } from 'node:crypto';
+import { In, IsNull, MoreThan, type EntityManager } from 'typeorm';
 import {
   Enrolment,
   Invitation,
@@ -7,6 +7,7 @@ import {
   Organisation,
   Round,
   Shipment,
+  Submission,
   User,
 } from '../../../db/entities';
 import type {
@@ -19,12 +20,12 @@ import type {
   ReceiptStatus,
 } from '../../../shared/contracts/rounds';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, HttpError, notFound, ruleBroken, unauthorized } from '../http/errors';
+import { conflict, ServiceError, notFound, ruleBroken, unauthorized } from './errors';
 import type { OutgoingMail } from '../mail/mailer';
 import { audit } from './audit';
 import { creditOnWithdrawal, issueInvoiceForEnrolment, mailInvoiceIssued } from './billing';
 import type { AppContext } from './context';
-import { issuePasswordToken, sendLinkMail } from './passwords';
+import { issuePasswordToken, sendLinkMail, tokenHash, unexpiredLink } from './passwords';
 import { lockRound } from './round-lifecycle';
 
 /** How long an invitation link stays valid. */
@@ -52,14 +53,12 @@ export async function freshParticipantCode(
     const code = draw();
     if (!(await em.findOne(Enrolment, { where: { roundId, participantCode: code } }))) return code;
   }
-  throw new HttpError(
+  throw new ServiceError(
     503,
     'code_space_exhausted',
     'No free participant code was found; try again.',
   );
 }
-
-const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
 
 /** Sends a mail; a failure is logged and never undoes the action (a queued mailer retries it). */
 export async function sendSafely(ctx: AppContext, mail: OutgoingMail): Promise<void> {
@@ -144,7 +143,7 @@ export async function createInvitations(
           organisationId: inv.organisationId,
           email: inv.email,
           labName: inv.organisationId ? null : inv.labName,
-          tokenHash: sha256(token),
+          tokenHash: tokenHash(token),
           expiresAt: new Date(Date.now() + INVITATION_LIFETIME_MS),
           createdBy: actor.id,
         }),
@@ -175,7 +174,7 @@ export async function createInvitations(
 }
 
 const invalidInvitation = () =>
-  new HttpError(
+  new ServiceError(
     404,
     'link_invalid',
     'This invitation has expired or was already used. Ask the coordinator for a new one.',
@@ -185,7 +184,7 @@ const invalidInvitation = () =>
 export async function invitationInfo(ctx: AppContext, token: string): Promise<InvitationInfo> {
   const inv = await ctx.ds
     .getRepository(Invitation)
-    .findOne({ where: { tokenHash: sha256(token) } });
+    .findOne({ where: { tokenHash: tokenHash(token) } });
   if (!inv || inv.acceptedAt || inv.expiresAt.getTime() <= Date.now()) throw invalidInvitation();
   const round = await ctx.ds.getRepository(Round).findOneOrFail({ where: { id: inv.roundId } });
   const org = inv.organisationId
@@ -213,46 +212,37 @@ export async function acceptInvitation(
   token: string,
 ): Promise<InvitationAcceptResult> {
   const { result, mail, enrolmentId } = await ctx.ds.transaction(async (em) => {
-    const raw: unknown = await em.query(
-      `UPDATE invitation SET accepted_at = now()
-       WHERE token_hash = $1 AND accepted_at IS NULL AND expires_at > now()
-       RETURNING id, round_id, organisation_id, email, lab_name`,
-      [sha256(token)],
-    );
-    // TypeORM answers [rows, count] for UPDATE … RETURNING on PostgreSQL
-    const rows = (Array.isArray(raw) && Array.isArray(raw[0]) ? raw[0] : raw) as {
-      id: string;
-      round_id: string;
-      organisation_id: string | null;
-      email: string;
-      lab_name: string | null;
-    }[];
-    const inv = rows[0];
+    // Locked, then marked accepted: a concurrent use of the same link waits and then finds it used.
+    const inv = await em.findOne(Invitation, {
+      where: { ...unexpiredLink(token), acceptedAt: IsNull() },
+      lock: { mode: 'pessimistic_write' },
+    });
     if (!inv) throw invalidInvitation();
-    const round = await lockRound(em, inv.round_id);
+    await em.update(Invitation, { id: inv.id }, { acceptedAt: () => 'now()' });
+    const round = await lockRound(em, inv.roundId);
     if (round.state !== 'enrolling')
       throw conflict('round_not_enrolling', 'Enrolment for this round is closed.');
 
     let organisationId: string;
     let mail: { email: string; name: string; token: string } | null = null;
     let actorId: string | null = user?.id ?? null;
-    if (inv.organisation_id) {
+    if (inv.organisationId) {
       if (!user) throw unauthorized();
-      if (!user.memberships.some((m) => m.organisationId === inv.organisation_id)) {
-        throw new HttpError(
+      if (!user.memberships.some((m) => m.organisationId === inv.organisationId)) {
+        throw new ServiceError(
           403,
           'not_a_member',
           'Sign in as a member of the invited lab to accept.',
         );
       }
-      organisationId = inv.organisation_id;
+      organisationId = inv.organisationId;
     } else {
-      const name = inv.lab_name ?? inv.email;
-      const clash: unknown[] = await em.query(
-        `SELECT 1 FROM organisation WHERE lower(name) = lower($1)`,
-        [name],
-      );
-      if (clash.length)
+      const name = inv.labName ?? inv.email;
+      const clash = await em
+        .createQueryBuilder(Organisation, 'o')
+        .where('lower(o.name) = lower(:name)', { name })
+        .getExists();
+      if (clash)
         throw conflict(
           'name_taken',
           `A lab called "${name}" already exists; ask the coordinator to invite it directly.`,
@@ -335,11 +325,11 @@ export async function listEnrolments(em: EntityManager, roundId: string): Promis
     .createQueryBuilder(Organisation, 'o')
     .where('o.id IN (:...ids)', { ids: enrolments.map((e) => e.organisationId) })
     .getMany();
-  const submitted: { enrolment_id: string }[] = await em.query(
-    `SELECT enrolment_id FROM submission WHERE enrolment_id = ANY($1) AND current_version > 0`,
-    [ids],
-  );
-  const bySubmission = new Set(submitted.map((r) => r.enrolment_id));
+  const submitted = await em.find(Submission, {
+    select: { id: true, enrolmentId: true },
+    where: { enrolmentId: In(ids), currentVersion: MoreThan(0) },
+  });
+  const bySubmission = new Set(submitted.map((r) => r.enrolmentId));
   const byEnrolment = new Map(shipments.map((s) => [s.enrolmentId, s]));
   const names = new Map(orgs.map((o) => [o.id, o.name]));
   return enrolments.map((e) => {

@@ -3,7 +3,7 @@ import { Evaluation, Investigation, Round } from '../../../db/entities';
 import type { LabScores } from '../../../shared/contracts/evaluation';
 import { explainScore } from '../../../shared/evaluation/explain';
 import { labIds, type SessionUser } from '../auth/session-user';
-import { notFound, ruleBroken } from '../http/errors';
+import { notFound, ruleBroken } from './errors';
 import type { AppContext } from './context';
 import { enrolledLab } from './reports';
 import { storedConstants, storedParticipantScore } from './stored-rules';

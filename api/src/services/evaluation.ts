@@ -27,13 +27,18 @@ import {
   type ReplicateInput,
 } from '../../../shared/evaluation/evaluate';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, notFound, ruleBroken } from '../http/errors';
+import { conflict, notFound, ruleBroken } from './errors';
 import { VERSION } from '../version';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { openInvestigations } from './investigations';
 import { labMailboxes } from './lab-recipients';
-import { measurandRules, storedAssignedValueRule, storedSigmaPtRule } from './stored-rules';
+import {
+  measurandRules,
+  storedAssignedValueRule,
+  storedResult,
+  storedSigmaPtRule,
+} from './stored-rules';
 import { lockRound, transitionRound } from './round-lifecycle';
 
 export interface LoadedRound {
@@ -196,11 +201,7 @@ async function storeEvaluation(
   const roundId = loaded.round.id;
   checkSettings(loaded, settings);
   const results = evaluateRecord({ ...loaded.input, settings });
-  const last: { v: number | null }[] = await em.query(
-    'SELECT max(version) AS v FROM evaluation WHERE round_id = $1',
-    [roundId],
-  );
-  const version = (last[0]?.v ?? 0) + 1;
+  const version = ((await em.maximum(Evaluation, 'version', { roundId })) ?? 0) + 1;
   const now = new Date();
   const evaluation = await em.save(
     Evaluation,
@@ -274,8 +275,9 @@ export async function loadResults(
     .addOrderBy('m.position', 'ASC')
     .addOrderBy('m.key', 'ASC')
     .getMany();
-  const results = rows.map((r): ItemMeasurandEvaluation => {
-    const c = r.constants as Record<string, unknown>;
+  const stored = rows.map((r) => storedResult(r, `Result ${r.itemCode}/${r.measurandKey}`));
+  const results = rows.map((r, i): ItemMeasurandEvaluation => {
+    const { method, constants: c, participants } = stored[i]!;
     const {
       robustSd,
       uNegligible,
@@ -295,13 +297,13 @@ export async function loadResults(
       unit: String(unit),
       decimals: Number(decimals),
       n: r.n,
-      method: r.method as ItemMeasurandEvaluation['method'],
+      method,
       iterations: r.iterations,
       assignedValue: r.assignedValue,
-      robustSd: (robustSd as number | null) ?? null,
+      robustSd: typeof robustSd === 'number' ? robustSd : null,
       uAssigned: r.uAssigned,
       sigmaPt: r.sigmaPt,
-      uNegligible: (uNegligible as boolean | null) ?? null,
+      uNegligible: typeof uNegligible === 'boolean' ? uNegligible : null,
       sigmaPtRule: storedSigmaPtRule(sigmaPtRule, `Result ${r.itemCode}/${r.measurandKey}`),
       assignedValueRule: storedAssignedValueRule(
         assignedValueRule,
@@ -309,13 +311,13 @@ export async function loadResults(
       ),
       constants,
       warnings: r.warnings,
-      participants: r.participants as ItemMeasurandEvaluation['participants'],
+      participants,
     };
   });
-  const inputs = rows.map((r) => ({
+  const inputs = rows.map((r, i) => ({
     testItemId: r.testItemId,
     measurandId: r.measurandId,
-    rows: r.inputs as EvaluationView['inputs'][number]['rows'],
+    rows: stored[i]!.inputs,
   }));
   return { results, inputs };
 }

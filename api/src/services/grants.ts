@@ -6,7 +6,7 @@ import { In, type EntityManager } from 'typeorm';
 import { AssessorGrant, Organisation, User } from '../../../db/entities';
 import type { AssessorGrantCreate, AssessorGrantDto } from '../../../shared/contracts/evaluation';
 import { managesLab, type SessionUser } from '../auth/session-user';
-import { notFound, ruleBroken } from '../http/errors';
+import { notFound, ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { issuePasswordToken, sendLinkMail } from './passwords';

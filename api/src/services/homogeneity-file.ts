@@ -1,7 +1,7 @@
 import { sniffFileType } from '../../../shared/files/file-type';
 import { CsvSyntaxError, readCsv } from '../../../shared/files/csv';
 import { formatCount, STUDY_FILE_LIMIT } from '../../../shared/contracts/upload-limits';
-import { HttpError, ruleBroken } from '../http/errors';
+import { ServiceError, ruleBroken } from './errors';
 import { countLines, type SheetOut } from '../workers/file-jobs';
 import { runInWorker, transferable } from '../workers/pool';
 
@@ -35,7 +35,7 @@ export async function readRows(buffer: Buffer, filename: string): Promise<string
     throw ruleBroken('file_type', `file: ${filename} is neither CSV text nor an XLSX workbook.`);
   const lines = countLines(buffer);
   if (lines > STUDY_FILE_LIMIT.maxRows) {
-    throw new HttpError(
+    throw new ServiceError(
       413,
       'too_many_rows',
       `file: ${formatCount(lines)} lines; a ${STUDY_FILE_LIMIT.label} has at most ${formatCount(STUDY_FILE_LIMIT.maxRows)} rows.`,

@@ -9,7 +9,7 @@ import { homogeneityCheck, stabilityCheck, type SigmaPtRule } from '../../../sha
 import { mean } from '../../../shared/stats';
 import type * as z from 'zod';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, notFound, ruleBroken } from '../http/errors';
+import { conflict, notFound, ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { lockRound } from './round-lifecycle';

@@ -1,19 +1,21 @@
 import type { EntityManager } from 'typeorm';
-import { InstrumentCheck } from '../../../db/entities';
+import { InstrumentCheck, User } from '../../../db/entities';
 import type {
   InstrumentCheck as InstrumentCheckDto,
   InstrumentCheckInput,
 } from '../../../shared/contracts/bench';
 import { judgeInstrumentCheck } from '../../../shared/bench/instrument-check';
 import type { SessionUser } from '../auth/session-user';
-import { ruleBroken } from '../http/errors';
+import { ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
+import { storedInstrumentCheck } from './stored-rules';
 
 export function instrumentCheckDto(
   c: InstrumentCheck,
   recordedByName: string | null = null,
 ): InstrumentCheckDto {
+  const { runs, verdict } = storedInstrumentCheck(c, `Instrument check of ${c.instrument}`);
   return {
     id: c.id,
     instrument: c.instrument,
@@ -24,11 +26,11 @@ export function instrumentCheckDto(
     setPointC: c.setPointC,
     temperatureToleranceC: c.temperatureToleranceC,
     minEquilibrationMin: c.minEquilibrationMin,
-    runs: c.runs as InstrumentCheckDto['runs'],
+    runs,
     notes: c.notes,
     checkedAt: c.checkedAt.toISOString(),
     recordedBy: recordedByName,
-    verdict: c.verdict as InstrumentCheckDto['verdict'],
+    verdict,
   };
 }
 
@@ -61,7 +63,7 @@ export async function recordInstrumentCheck(
         minEquilibrationMin: input.minEquilibrationMin,
         runs: input.runs,
         passed: verdict.passed,
-        verdict: verdict as unknown as Record<string, unknown>,
+        verdict: { ...verdict },
         notes: input.notes,
         checkedAt,
         recordedBy: actor.id,
@@ -86,17 +88,14 @@ export async function listInstrumentChecks(
   const qb = ctx.ds
     .getRepository(InstrumentCheck)
     .createQueryBuilder('c')
-    .leftJoin('app_user', 'u', 'u.id = c.recorded_by')
-    .addSelect('u.name', 'recorded_by_name')
-    .where('c.organisation_id = :labId', { labId })
-    .orderBy('c.checked_at', 'DESC')
-    .addOrderBy('c.created_at', 'DESC')
+    .leftJoinAndMapOne('c.recorder', User, 'u', 'u.id = c.recordedBy')
+    .where('c.organisationId = :labId', { labId })
+    .orderBy('c.checkedAt', 'DESC')
+    .addOrderBy('c.createdAt', 'DESC')
     .limit(500);
   if (instrument) qb.andWhere('lower(c.instrument) = lower(:instrument)', { instrument });
-  const { entities, raw } = await qb.getRawAndEntities();
-  return entities.map((e, i) =>
-    instrumentCheckDto(e, (raw[i] as { recorded_by_name: string | null }).recorded_by_name),
-  );
+  const checks = (await qb.getMany()) as (InstrumentCheck & { recorder: User | null })[];
+  return checks.map((c) => instrumentCheckDto(c, c.recorder?.name ?? null));
 }
 
 /**

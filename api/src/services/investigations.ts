@@ -11,7 +11,7 @@ import type {
   ItemMeasurandEvaluation,
 } from '../../../shared/contracts/evaluation';
 import { hasAnyRole, labIds, managesLab, type SessionUser } from '../auth/session-user';
-import { conflict, notFound, ruleBroken } from '../http/errors';
+import { conflict, notFound, ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { grantedLabIds } from './grants';

@@ -5,7 +5,7 @@ import type { PasswordTokenInfo } from '../../../shared/contracts/auth';
 import { PasswordToken, User } from '../../../db/entities';
 import type { AppContext } from './context';
 import { audit } from './audit';
-import { HttpError } from '../http/errors';
+import { ServiceError } from './errors';
 import { forgetSessionUser } from '../auth/session-cache';
 
 /** bcrypt work factor: 2^12 rounds (docs/QUALITY.md asks for ≥ 12). */
@@ -40,7 +40,14 @@ export async function verifyPassword(
   return user;
 }
 
-const sha256 = (s: string) => createHash('sha256').update(s).digest('hex');
+/** The stored hash of a single-use link token (password links and enrolment invitations). */
+export const tokenHash = (token: string) => createHash('sha256').update(token).digest('hex');
+
+/** Where a link of this token that has not expired (database clock) is found. */
+export const unexpiredLink = (token: string) => ({
+  tokenHash: tokenHash(token),
+  expiresAt: Raw((at) => `${at} > now()`),
+});
 
 /** A new single-use link token; only its hash is stored. Earlier unused tokens of the user are voided. */
 export async function issuePasswordToken(
@@ -58,14 +65,14 @@ export async function issuePasswordToken(
   await em.insert(PasswordToken, {
     userId,
     purpose,
-    tokenHash: sha256(token),
+    tokenHash: tokenHash(token),
     expiresAt: new Date(Date.now() + TOKEN_LIFETIME_MS[purpose]),
   });
   return token;
 }
 
 const invalidLink = () =>
-  new HttpError(
+  new ServiceError(
     404,
     'link_invalid',
     'This link has expired or was already used. Ask for a new one.',
@@ -77,7 +84,7 @@ export async function passwordTokenInfo(
 ): Promise<PasswordTokenInfo> {
   const row = await ctx.ds
     .getRepository(PasswordToken)
-    .findOne({ where: { tokenHash: sha256(token) } });
+    .findOne({ where: { tokenHash: tokenHash(token) } });
   if (!row || row.usedAt || row.expiresAt.getTime() <= Date.now()) throw invalidLink();
   const user = await ctx.ds.getRepository(User).findOneOrFail({ where: { id: row.userId } });
   return { email: user.email, purpose: row.purpose, expiresAt: row.expiresAt.toISOString() };
@@ -121,7 +128,7 @@ export async function changePassword(
   const user = await ctx.ds.getRepository(User).findOneOrFail({ where: { id: userId } });
   const ok = await bcrypt.compare(currentPassword, user.passwordHash ?? DUMMY_HASH);
   if (!ok || !user.passwordHash) {
-    throw new HttpError(
+    throw new ServiceError(
       422,
       'wrong_password',
       'currentPassword: that is not your current password.',
@@ -152,11 +159,7 @@ export async function setPasswordWithToken(
   await ctx.ds.transaction(async (em) => {
     // Locked, then marked used: a concurrent use of the same link waits and then finds it used.
     const hit = await em.findOne(PasswordToken, {
-      where: {
-        tokenHash: sha256(token),
-        usedAt: IsNull(),
-        expiresAt: Raw((at) => `${at} > now()`),
-      },
+      where: { ...unexpiredLink(token), usedAt: IsNull() },
       lock: { mode: 'pessimistic_write' },
     });
     if (!hit) throw invalidLink();

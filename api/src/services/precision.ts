@@ -33,7 +33,7 @@ import {
 import { ROUND_STATE_LABELS, type RoundState } from '../../../shared/contracts/round-states';
 import { analysePrecisionStudy } from '../../../shared/evaluation/precision-study';
 import type { SessionUser } from '../auth/session-user';
-import { badRequest, conflict, notFound, ruleBroken } from '../http/errors';
+import { badRequest, conflict, notFound, ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { loadRoundInput } from './evaluation';

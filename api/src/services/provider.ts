@@ -12,7 +12,7 @@ import {
 } from '../../../shared/contracts/provider';
 import type { ReportProviderInfo } from '../../../reports/model';
 import type { SessionUser } from '../auth/session-user';
-import { badRequest, conflict, notFound } from '../http/errors';
+import { badRequest, conflict, notFound } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 

@@ -6,10 +6,20 @@ import type { EntityManager } from 'typeorm';
 import type { ParticipantReportInput, ReportStudy, RoundReportInput } from '../../../reports/model';
 import type { TrackSeries } from '../../../shared/contracts/evaluation';
 import { rescaledSumZ, runRules } from '../../../shared/evaluation/run-rules';
-import { Enrolment, Evaluation, Measurand, TestItem } from '../../../db/entities';
-import { notFound } from '../http/errors';
+import {
+  Enrolment,
+  Evaluation,
+  HomogeneityStudy,
+  Measurand,
+  Round,
+  RoundTransition,
+  Scheme,
+  TestItem,
+} from '../../../db/entities';
+import { notFound } from './errors';
 import { loadResults } from './evaluation';
 import { reportProvider } from './provider';
+import { storedStudyResult } from './stored-rules';
 import { labTrackRecord } from './track-record';
 import { withSafetyBlock } from '../../../shared/contracts/safety';
 
@@ -66,50 +76,34 @@ export async function roundReportInput(
   em: EntityManager,
   head: EvaluationHead,
 ): Promise<RoundReportInput> {
-  const rounds: {
-    id: string;
-    code: string;
-    title: string;
-    kind: 'pt' | 'precision';
-    state: string;
-    instructions: string;
-    protocol_temperature_c: number;
-    results_due_at: Date | null;
-    scheme_code: string;
-    scheme_name: string;
-    scheme_description: string;
-    dispatch_on: string | null;
-    dispatched_at: Date | null;
-  }[] = await em.query(
-    `SELECT r.id, r.code, r.title, r.kind, r.state, r.instructions, r.protocol_temperature_c, r.results_due_at, r.dispatch_on::text AS dispatch_on,
-            (SELECT min(t.at) FROM round_transition t WHERE t.round_id = r.id AND t.to_state = 'in-transit') AS dispatched_at,
-            s.code AS scheme_code, s.name AS scheme_name, s.description AS scheme_description
-       FROM round r JOIN scheme s ON s.id = r.scheme_id WHERE r.id = $1`,
-    [head.round_id],
-  );
-  const r = rounds[0];
+  const r = (await em
+    .createQueryBuilder(Round, 'r')
+    .innerJoinAndMapOne('r.scheme', Scheme, 's', 's.id = r.schemeId')
+    .where('r.id = :id', { id: head.round_id })
+    .getOne()) as (Round & { scheme: Scheme }) | null;
   if (!r) throw notFound('The round');
-  const [items, measurands, enrolled] = await Promise.all([
+  const [items, measurands, enrolled, dispatched, studies] = await Promise.all([
     em.find(TestItem, { where: { roundId: r.id }, order: { position: 'ASC', code: 'ASC' } }),
     em.find(Measurand, { where: { roundId: r.id }, order: { position: 'ASC', key: 'ASC' } }),
     em.find(Enrolment, { where: { roundId: r.id }, order: { participantCode: 'ASC' } }),
+    // The first move to in-transit is when the items left.
+    em.findOne(RoundTransition, {
+      where: { roundId: r.id, toState: 'in-transit' },
+      order: { at: 'ASC' },
+    }),
+    // The Round desk's homogeneity and stability studies, with their item and measurand.
+    em
+      .createQueryBuilder(HomogeneityStudy, 'h')
+      .innerJoinAndMapOne('h.item', TestItem, 'ti', 'ti.id = h.testItemId')
+      .innerJoinAndMapOne('h.measurand', Measurand, 'm', 'm.id = h.measurandId')
+      .where('h.roundId = :roundId', { roundId: r.id })
+      .orderBy('ti.position')
+      .addOrderBy('ti.code')
+      .addOrderBy('m.position')
+      .addOrderBy('h.kind')
+      .getMany() as Promise<(HomogeneityStudy & { item: TestItem; measurand: Measurand })[]>,
   ]);
-  // Read straight from the Round desk's table (its service has no plain reader for reports).
-  const studies: {
-    item_code: string;
-    measurand_key: string;
-    kind: 'homogeneity' | 'stability';
-    sigma_pt: number;
-    passes: boolean;
-    decision: string | null;
-    decision_reason: string | null;
-    result: Record<string, unknown>;
-  }[] = await em.query(
-    `SELECT ti.code AS item_code, m.key AS measurand_key, h.kind, h.sigma_pt, h.passes, h.decision, h.decision_reason, h.result
-         FROM homogeneity_study h JOIN test_item ti ON ti.id = h.test_item_id JOIN measurand m ON m.id = h.measurand_id
-        WHERE h.round_id = $1 ORDER BY ti.position, ti.code, m.position, h.kind`,
-    [r.id],
-  );
+  const dispatchedAt = dispatched?.at ?? null;
   const { results, inputs } = await loadResults(em, head.id);
   const groups = results.map((g) => {
     const rows =
@@ -127,14 +121,14 @@ export async function roundReportInput(
       title: r.title,
       kind: r.kind,
       state: r.state,
-      schemeCode: r.scheme_code,
-      schemeName: r.scheme_name,
-      schemeDescription: r.scheme_description,
+      schemeCode: r.scheme.code,
+      schemeName: r.scheme.name,
+      schemeDescription: r.scheme.description,
       instructions: withSafetyBlock(r.instructions),
-      protocolTemperatureC: r.protocol_temperature_c,
-      resultsDueAt: r.results_due_at?.toISOString() ?? null,
-      dispatchedAt: r.dispatched_at?.toISOString() ?? r.dispatch_on ?? null,
-      dispatchPlanned: !r.dispatched_at && !!r.dispatch_on,
+      protocolTemperatureC: r.protocolTemperatureC,
+      resultsDueAt: r.resultsDueAt?.toISOString() ?? null,
+      dispatchedAt: dispatchedAt?.toISOString() ?? r.dispatchOn ?? null,
+      dispatchPlanned: !dispatchedAt && !!r.dispatchOn,
     },
     items: items.map((i) => ({
       id: i.id,
@@ -153,14 +147,14 @@ export async function roundReportInput(
       replicatesRequired: m.replicatesRequired,
     })),
     studies: studies.map((s): ReportStudy => ({
-      itemCode: s.item_code,
-      measurandKey: s.measurand_key,
+      itemCode: s.item.code,
+      measurandKey: s.measurand.key,
       kind: s.kind,
-      sigmaPt: s.sigma_pt,
+      sigmaPt: s.sigmaPt,
       passes: s.passes,
       decision: s.decision,
-      decisionReason: s.decision_reason,
-      result: s.result,
+      decisionReason: s.decisionReason,
+      result: storedStudyResult(s.result, `The ${s.kind} study of ${s.item.code}`),
     })),
     evaluation: {
       id: head.id,

@@ -15,7 +15,7 @@ import { Enrolment, Organisation, Report, Round, type ReportKind } from '../../.
 import { sha256 } from '../../../reports/model';
 import type { ReportStatus } from '../../../shared/contracts/reports';
 import { hasAnyRole, labIds, type SessionUser } from '../auth/session-user';
-import { notFound } from '../http/errors';
+import { notFound } from './errors';
 import type { AppContext } from './context';
 import { grantedLabIds } from './grants';
 import {

@@ -13,7 +13,7 @@ import {
   ROUND_STATE_LABELS,
   type RoundState,
 } from '../../../shared/contracts/round-states';
-import { conflict, notFound, ruleBroken } from '../http/errors';
+import { conflict, notFound, ruleBroken } from './errors';
 import { audit } from './audit';
 
 /** Who moves a round: a user id, or null for the system (e.g. a scheduled job). */
@@ -30,7 +30,7 @@ export interface TransitionOptions {
 /**
  * Extra checks before a round may be published, run by `assertPublishable` inside the
  * publishing transaction. Other features append theirs (e.g. the evaluation engine checks that an
- * evaluation is recorded). A guard throws an HttpError (409/422) to block.
+ * evaluation is recorded). A guard throws a ServiceError (409/422) to block.
  */
 export type PublicationGuard = (em: EntityManager, round: Round) => Promise<void>;
 export const publicationGuards: PublicationGuard[] = [];

@@ -29,12 +29,12 @@ import type { RoundState } from '../../../shared/contracts/round-states';
 import { withSafetyBlock } from '../../../shared/contracts/safety';
 import type * as z from 'zod';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, notFound, ruleBroken } from '../http/errors';
+import { conflict, notFound, ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { hasOpenHomogeneityFailure, lockRound } from './round-lifecycle';
 import { assertSigmaSource } from './precision';
-import { measurandRules } from './stored-rules';
+import { measurandRules, storedDefaultMeasurands } from './stored-rules';
 
 type Out<T extends z.ZodType> = z.output<T>;
 
@@ -45,7 +45,7 @@ function schemeDto(s: Scheme): SchemeDto {
     name: s.name,
     description: s.description,
     rules: s.rules,
-    defaultMeasurands: s.defaultMeasurands as SchemeDto['defaultMeasurands'],
+    defaultMeasurands: storedDefaultMeasurands(s.defaultMeasurands, `Scheme ${s.code}`),
     createdAt: s.createdAt.toISOString(),
   };
 }
@@ -66,7 +66,7 @@ export async function createScheme(
     }
     const s = await em.save(
       Scheme,
-      em.create(Scheme, { ...input, defaultMeasurands: input.defaultMeasurands as unknown[] }),
+      em.create(Scheme, { ...input, defaultMeasurands: [...input.defaultMeasurands] }),
     );
     await audit(em, actor.id, 'scheme.created', 'scheme', s.id, { code: s.code });
     return schemeDto(s);
@@ -237,8 +237,8 @@ async function insertMeasurands(
       Measurand,
       em.create(Measurand, {
         ...m,
-        sigmaPtRule: m.sigmaPtRule as Record<string, unknown>,
-        assignedValueRule: m.assignedValueRule as Record<string, unknown>,
+        sigmaPtRule: { ...m.sigmaPtRule },
+        assignedValueRule: { ...m.assignedValueRule },
         roundId,
         position: position++,
       }),
@@ -476,8 +476,8 @@ export async function updateMeasurand(
     const key = m.key;
     Object.assign(m, rest);
     if (sigmaPtRule) await assertSigmaSource(em, roundId, sigmaPtRule, 'sigmaPtRule.study');
-    if (sigmaPtRule) m.sigmaPtRule = sigmaPtRule as Record<string, unknown>;
-    if (assignedValueRule) m.assignedValueRule = assignedValueRule as Record<string, unknown>;
+    if (sigmaPtRule) m.sigmaPtRule = { ...sigmaPtRule };
+    if (assignedValueRule) m.assignedValueRule = { ...assignedValueRule };
     const saved = await em.save(Measurand, m);
     await audit(em, actor.id, 'round.measurand-updated', 'round', roundId, {
       measurandId,

@@ -6,7 +6,7 @@ import {
   SAFETY_CAUTIONS,
 } from '../../../shared/contracts/safety';
 import type { SessionUser } from '../auth/session-user';
-import { conflict } from '../http/errors';
+import { conflict } from './errors';
 import { audit } from './audit';
 import { assertFeeAllowsDispatch } from './billing';
 import type { AppContext } from './context';

@@ -9,13 +9,26 @@ import {
   SigmaPtRuleInput as SigmaPtRuleSchema,
 } from '../../../shared/contracts/rules';
 import {
+  BoardGroup,
+  BoardRow,
+  ItemMeasurandEvaluation,
   ParticipantScore as ParticipantScoreSchema,
+  ReplicateInputSchema,
   type ParticipantScore,
 } from '../../../shared/contracts/evaluation';
+import {
+  InstrumentCheckRun as InstrumentCheckRunSchema,
+  InstrumentCheckVerdict as InstrumentCheckVerdictSchema,
+  Reanalysis as ReanalysisSchema,
+  type InstrumentCheckRun,
+  type InstrumentCheckVerdict,
+  type Reanalysis,
+} from '../../../shared/contracts/bench';
+import { MeasurandInput, Study } from '../../../shared/contracts/rounds';
 
 type SigmaPtRuleInput = z.infer<typeof SigmaPtRuleSchema>;
 type AssignedValueRuleInput = z.infer<typeof AssignedValueRuleSchema>;
-import { ruleBroken } from '../http/errors';
+import { ruleBroken } from './errors';
 
 const finite = z.number().refine(Number.isFinite);
 
@@ -84,10 +97,31 @@ export function measurandRules(m: {
 export function storedParticipantScore(raw: unknown, what: string): ParticipantScore {
   const r = ParticipantScoreSchema.safeParse(raw);
   if (r.success) return r.data;
-  throw ruleBroken(
+  throw resultUnreadable(`${what}: the stored score`);
+}
+
+const resultUnreadable = (what: string) =>
+  ruleBroken(
     'stored_result_unreadable',
-    `${what}: the stored score cannot be read; ask the coordinator to evaluate the round again.`,
+    `${what} cannot be read; ask the coordinator to evaluate the round again.`,
   );
+
+/** The jsonb and free-text columns of a stored evaluation result, as the shared contract reads them. */
+const StoredResult = z.object({
+  method: ItemMeasurandEvaluation.shape.method,
+  constants: ItemMeasurandEvaluation.shape.constants,
+  participants: ItemMeasurandEvaluation.shape.participants,
+  inputs: z.array(ReplicateInputSchema),
+});
+
+/** One evaluation result's method, constants, scores and inputs; `what` names it in the 422. */
+export function storedResult(
+  row: { method: unknown; constants: unknown; participants: unknown; inputs: unknown },
+  what: string,
+): z.infer<typeof StoredResult> {
+  const r = StoredResult.safeParse(row);
+  if (r.success) return r.data;
+  throw resultUnreadable(`${what}: the stored result`);
 }
 
 /** The display constants an evaluation result stores (`constants` jsonb); missing ones stay absent. */
@@ -100,4 +134,79 @@ const StoredConstants = z.object({
 export function storedConstants(raw: unknown): z.infer<typeof StoredConstants> {
   const r = StoredConstants.safeParse(raw);
   return r.success ? r.data : {};
+}
+
+/** One stored run of an instrument check without today's bounds (rows stored before a bound). */
+const StoredCheckRun = z.object({
+  zAverageNm: finite,
+  pdi: finite,
+  temperatureC: finite,
+  equilibrationMin: finite,
+});
+
+/** An instrument check's stored `runs` and `verdict`; `what` names the check in the 422. */
+export function storedInstrumentCheck(
+  row: { runs: unknown; verdict: unknown },
+  what: string,
+): { runs: InstrumentCheckRun[]; verdict: InstrumentCheckVerdict } {
+  const runs = lenient(z.array(InstrumentCheckRunSchema), z.array(StoredCheckRun), row.runs);
+  const verdict = InstrumentCheckVerdictSchema.safeParse(row.verdict);
+  if (runs && verdict.success) return { runs, verdict: verdict.data };
+  throw unreadable(what);
+}
+
+/** An attachment's stored re-analysis (null when none was made); `what` names it in the 422. */
+export function storedReanalysis(raw: unknown, what: string): Reanalysis | null {
+  if (raw === null || raw === undefined) return null;
+  const r = ReanalysisSchema.safeParse(raw);
+  if (r.success) return r.data;
+  throw unreadable(what);
+}
+
+const unreadable = (what: string) =>
+  ruleBroken('stored_record_unreadable', `${what}: the stored record cannot be read.`);
+
+/** The codes-only board an evaluation stores (`board` jsonb; `{}` before it was computed). */
+const StoredBoard = z.object({
+  groups: z.array(BoardGroup).default([]),
+  rows: z.array(BoardRow).default([]),
+});
+
+/** An evaluation's stored board (empty when none is stored); `what` names it in the 422. */
+export function storedBoard(raw: unknown, what: string): z.infer<typeof StoredBoard> {
+  const r = StoredBoard.safeParse(raw ?? {});
+  if (r.success) return r.data;
+  throw ruleBroken(
+    'stored_result_unreadable',
+    `${what}: the stored board cannot be read; ask the coordinator to evaluate the round again.`,
+  );
+}
+
+/** A homogeneity or stability study's stored `result` (the stats engine's object); `what` names it. */
+export function storedStudyResult(raw: unknown, what: string): Record<string, unknown> {
+  const r = Study.shape.result.safeParse(raw);
+  if (r.success) return r.data;
+  throw unreadable(what);
+}
+
+/** A scheme's default measurand without today's bounds (templates stored before a bound). */
+const StoredDefaultMeasurand: z.ZodType<z.output<typeof MeasurandInput>> = z.object({
+  key: z.string(),
+  name: z.string(),
+  unit: z.string(),
+  decimals: z.number().int(),
+  replicatesRequired: z.number().int(),
+  sigmaPtRule: StoredSigmaPtRule.default({ kind: 'robust-sd' }),
+  assignedValueRule: StoredAssignedValueRule.default({ kind: 'consensus' }),
+  minParticipants: z.number().int().default(12),
+});
+
+/** A scheme's stored `defaultMeasurands` (the templates new rounds start from); `what` names it. */
+export function storedDefaultMeasurands(
+  raw: unknown,
+  what: string,
+): z.output<typeof MeasurandInput>[] {
+  const list = lenient(z.array(MeasurandInput), z.array(StoredDefaultMeasurand), raw);
+  if (list) return list;
+  throw unreadable(what);
 }

@@ -1,4 +1,5 @@
 import ExcelJS from 'exceljs';
+import { Submission } from '../../../db/entities';
 import type { SheetIssue, WorkbookUploadResult } from '../../../shared/contracts/bench';
 import { SAFETY_CAUTIONS } from '../../../shared/contracts/bench';
 import {
@@ -10,7 +11,7 @@ import {
 } from '../../../shared/contracts/submission';
 import { checkResults } from '../../../shared/bench/submission-checks';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, HttpError, ruleBroken } from '../http/errors';
+import { conflict, ServiceError, ruleBroken } from './errors';
 import { findEnrolment, lockState } from './bench';
 import type { AppContext } from './context';
 import { formatBytes, RESULTS_WORKBOOK_LIMIT } from '../../../shared/contracts/upload-limits';
@@ -60,11 +61,11 @@ export async function buildTemplate(
   const em = ctx.ds.manager;
   const { round, enrolment } = await findEnrolment(em, labId, roundId);
   const rules = await roundRules(em, roundId, round.protocolTemperatureC);
-  const sub: { draft: unknown }[] = await em.query(
-    `SELECT draft FROM submission WHERE enrolment_id = $1`,
-    [enrolment.id],
-  );
-  const draft = readStoredSubmission(sub[0]?.draft);
+  const sub = await em.findOne(Submission, {
+    select: { id: true, draft: true },
+    where: { enrolmentId: enrolment.id },
+  });
+  const draft = readStoredSubmission(sub?.draft);
   const runs = Math.max(1, ...rules.measurands.map((m) => m.replicatesRequired));
 
   const wb = new ExcelJS.Workbook();
@@ -182,14 +183,14 @@ export async function uploadWorkbook(
   file: Buffer | undefined,
 ): Promise<WorkbookUploadResult> {
   if (!file)
-    throw new HttpError(
+    throw new ServiceError(
       400,
       'validation_failed',
       'file: attach the filled workbook (multipart field "file").',
       [{ path: 'file', message: 'Attach a file.' }],
     );
   if (file.length > RESULTS_WORKBOOK_LIMIT.maxBytes) {
-    throw new HttpError(
+    throw new ServiceError(
       413,
       'file_too_large',
       `file: the limit is ${formatBytes(RESULTS_WORKBOOK_LIMIT.maxBytes)} for a ${RESULTS_WORKBOOK_LIMIT.label}.`,
@@ -197,7 +198,7 @@ export async function uploadWorkbook(
     );
   }
   if (detectPackagedType(file)?.kind !== 'xlsx') {
-    throw new HttpError(
+    throw new ServiceError(
       415,
       'file_type_refused',
       'file: upload the .xlsx workbook downloaded from this round.',

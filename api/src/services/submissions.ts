@@ -21,7 +21,7 @@ import {
   type RoundRules,
 } from '../../../shared/bench/submission-checks';
 import type { SessionUser } from '../auth/session-user';
-import { badRequest, conflict, fieldIssues, ruleBroken } from '../http/errors';
+import { badRequest, conflict, fieldIssues, ruleBroken } from './errors';
 import { audit } from './audit';
 import { findEnrolment, lockState } from './bench';
 import type { AppContext } from './context';

@@ -12,7 +12,7 @@ import { runRules, rescaledSumZ } from '../../../shared/evaluation/run-rules';
 import { labIds, type SessionUser } from '../auth/session-user';
 import * as z from 'zod';
 import { Organisation } from '../../../db/entities';
-import { notFound, ruleBroken } from '../http/errors';
+import { notFound, ruleBroken } from './errors';
 import type { EntityManager } from 'typeorm';
 import type { AppContext } from './context';
 

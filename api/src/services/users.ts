@@ -20,7 +20,7 @@ import {
 } from '../../../db/entities';
 import { forgetSessionUser } from '../auth/session-cache';
 import type { SessionUser } from '../auth/session-user';
-import { conflict, notFound, ruleBroken } from '../http/errors';
+import { conflict, notFound, ruleBroken } from './errors';
 import { audit } from './audit';
 import type { AppContext } from './context';
 import { issuePasswordToken, sendLinkMail } from './passwords';

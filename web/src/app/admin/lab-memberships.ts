@@ -12,10 +12,9 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatCheckboxModule } from '@angular/material/checkbox';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatSelectModule } from '@angular/material/select';
-import { MatSlideToggleModule } from '@angular/material/slide-toggle';
-import { MatTableModule } from '@angular/material/table';
 import { RouterLink } from '@angular/router';
 import type { Membership, Organisation, User } from '@ringlet/shared/contracts/admin';
+import { MembersTable } from '../shared/members-table';
 import { AdminService } from './admin-service';
 
 /** One lab's members: add, remove, and toggle who manages the lab. */
@@ -25,8 +24,7 @@ import { AdminService } from './admin-service';
   imports: [
     ReactiveFormsModule,
     RouterLink,
-    MatTableModule,
-    MatSlideToggleModule,
+    MembersTable,
     MatButtonModule,
     MatFormFieldModule,
     MatSelectModule,
@@ -36,44 +34,14 @@ import { AdminService } from './admin-service';
     <section class="page">
       <p><a routerLink="/admin/labs">← Labs</a></p>
       <h1 data-testid="page-heading">Members of {{ lab()?.name ?? 'the lab' }}</h1>
-      <table mat-table [dataSource]="members()" class="members" aria-label="Members">
-        <ng-container matColumnDef="name">
-          <th mat-header-cell *matHeaderCellDef>Name</th>
-          <td mat-cell *matCellDef="let m">{{ m.userName }}</td>
-        </ng-container>
-        <ng-container matColumnDef="email">
-          <th mat-header-cell *matHeaderCellDef>E-mail</th>
-          <td mat-cell *matCellDef="let m">{{ m.userEmail }}</td>
-        </ng-container>
-        <ng-container matColumnDef="manager">
-          <th mat-header-cell *matHeaderCellDef>Manager</th>
-          <td mat-cell *matCellDef="let m">
-            <mat-slide-toggle
-              [checked]="m.isManager"
-              (change)="setManager(m, $event.checked)"
-              [aria-label]="'Manager: ' + m.userName"
-            />
-          </td>
-        </ng-container>
-        <ng-container matColumnDef="actions">
-          <th mat-header-cell *matHeaderCellDef><span class="visually-hidden">Actions</span></th>
-          <td mat-cell *matCellDef="let m">
-            <button
-              mat-button
-              type="button"
-              (click)="remove(m)"
-              [attr.aria-label]="'Remove ' + m.userName"
-            >
-              Remove
-            </button>
-          </td>
-        </ng-container>
-        <tr mat-header-row *matHeaderRowDef="columns"></tr>
-        <tr mat-row *matRowDef="let row; columns: columns"></tr>
-        <tr class="mat-mdc-row" *matNoDataRow>
-          <td class="mat-mdc-cell" [attr.colspan]="columns.length">No members yet.</td>
-        </tr>
-      </table>
+      <app-members-table
+        [members]="members()"
+        label="Members"
+        manager="toggle"
+        emptyText="No members yet."
+        (remove)="remove($event)"
+        (managerChange)="setManager($event.membership, $event.isManager)"
+      />
 
       <h2>Add a member</h2>
       <form [formGroup]="form" (ngSubmit)="add()" class="add" novalidate>
@@ -92,9 +60,6 @@ import { AdminService } from './admin-service';
     </section>
   `,
   styles: `
-    .members {
-      max-width: 900px;
-    }
     .add {
       display: flex;
       flex-wrap: wrap;
@@ -111,7 +76,6 @@ export class LabMemberships implements OnInit {
   /** Organisation id (route parameter). */
   readonly id = input.required<string>();
 
-  protected readonly columns = ['name', 'email', 'manager', 'actions'];
   protected readonly lab = signal<Organisation | null>(null);
   protected readonly members = signal<Membership[]>([]);
   protected readonly users = signal<User[]>([]);

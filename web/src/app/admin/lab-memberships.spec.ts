@@ -4,28 +4,16 @@ import { MatButtonHarness } from '@angular/material/button/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatSlideToggleHarness } from '@angular/material/slide-toggle/testing';
 import { provideRouter } from '@angular/router';
-import type { Membership } from '@ringlet/shared/contracts/admin';
+import { aMembership } from '../core/testing';
 import { of } from 'rxjs';
 import { AdminService } from './admin-service';
 import { LabMemberships } from './lab-memberships';
 
 const LAB = '0d7c1f7a-2222-4a2b-8c3d-000000000002';
-/** Invented members of one invented lab. */
-function aMember(n: number, isManager: boolean): Membership {
-  return {
-    id: `0d7c1f7a-1111-4a2b-8c3d-00000000000${n}`,
-    userId: `0d7c1f7a-3333-4a2b-8c3d-00000000000${n}`,
-    userEmail: `member${n}@example.test`,
-    userName: `Member ${n}`,
-    organisationId: LAB,
-    organisationName: 'Harbourside Colloid Lab',
-    isManager,
-  };
-}
 
 describe('LabMemberships (admin)', () => {
   it('shows the lab members with a manager switch and Remove, and acts on them', async () => {
-    const members = [aMember(1, true), aMember(2, false)];
+    const members = [aMembership(1, true), aMembership(2, false)];
     const calls: string[] = [];
     const admin: Partial<AdminService> = {
       organisations: () => of([]),

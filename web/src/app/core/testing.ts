@@ -2,6 +2,7 @@ import { type HttpInterceptorFn, provideHttpClient, withInterceptors } from '@an
 import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import type { EnvironmentProviders, Provider } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
+import type { Membership } from '@ringlet/shared/contracts/admin';
 import type { Me } from '@ringlet/shared/contracts/auth';
 
 /** A signed-in user for specs (invented). */
@@ -53,4 +54,17 @@ export function httpTestBed(
 /** Lets pending promises (lazy contract loading, async guards) settle. */
 export function settle(): Promise<void> {
   return new Promise((resolve) => setTimeout(resolve, 0));
+}
+
+/** A membership of one invented lab (member n, its manager or not). */
+export function aMembership(n: number, isManager: boolean): Membership {
+  return {
+    id: `0d7c1f7a-1111-4a2b-8c3d-00000000000${n}`,
+    userId: `0d7c1f7a-3333-4a2b-8c3d-00000000000${n}`,
+    userEmail: `member${n}@example.test`,
+    userName: `Member ${n}`,
+    organisationId: '0d7c1f7a-2222-4a2b-8c3d-000000000002',
+    organisationName: 'Harbourside Colloid Lab',
+    isManager,
+  };
 }

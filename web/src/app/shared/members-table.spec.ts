@@ -4,21 +4,10 @@ import { MatButtonHarness } from '@angular/material/button/testing';
 import { MATERIAL_ANIMATIONS } from '@angular/material/core';
 import { MatSlideToggleHarness } from '@angular/material/slide-toggle/testing';
 import type { Membership } from '@ringlet/shared/contracts/admin';
+import { aMembership } from '../core/testing';
 import { type ManagerChange, MembersTable } from './members-table';
 
-/** Invented members of one invented lab. */
-function aMember(n: number, isManager: boolean): Membership {
-  return {
-    id: `0d7c1f7a-1111-4a2b-8c3d-00000000000${n}`,
-    userId: `0d7c1f7a-3333-4a2b-8c3d-00000000000${n}`,
-    userEmail: `member${n}@example.test`,
-    userName: `Member ${n}`,
-    organisationId: '0d7c1f7a-2222-4a2b-8c3d-000000000002',
-    organisationName: 'Harbourside Colloid Lab',
-    isManager,
-  };
-}
-const members = [aMember(1, true), aMember(2, false)];
+const members = [aMembership(1, true), aMembership(2, false)];
 
 async function setup(inputs: Record<string, unknown>) {
   TestBed.configureTestingModule({

@@ -115,6 +115,10 @@ describe('lab invitation accepted, then the lab chooser', () => {
     await again.getByTestId('choose-lab').waitFor();
     await again.locator('mat-toolbar [data-testid=lab-chooser]').selectOption({ label: BIRCH });
     await again.getByTestId('my-rounds').getByText('BIR-1').waitFor();
+    // The chooser reopens the page for the new lab after the rounds may already show; a reload
+    // lets that finish before the next click (else it can take the browser back to the bench).
+    await again.reload();
+    await again.getByTestId('my-rounds').getByText('BIR-1').waitFor();
 
     // A password change in this browser signs the other browser out
     await again.getByTestId('user-name').click();

@@ -550,6 +550,8 @@ describe('the whole loop in a real browser', () => {
 
       await page.goto(`/board/rounds/${roundId}`);
       await page.locator('.ag-row').first().waitFor();
+      // The charts come after the grid (@defer on idle): check the page once their picker is named.
+      await page.getByLabel('Item and measurand').first().waitFor();
       await axe(page, 'Consensus board (coordinator)');
       await e.shot(page, 'loop-07-consensus-board');
       await readme(page, 'consensus-board.png');
